@@ -1,0 +1,439 @@
+/**
+ * Zod schemas for enclosures, parts and scenes (format `interstice.scene`, version 1). Millimetres,
+ * right-handed, Y up, origin at the enclosure's inner front-bottom-left corner. The API, the forms
+ * and the catalogue all validate with these, so a scene that parses is one the engine can resolve.
+ */
+
+import { z } from 'zod';
+import { MAX_POSITIONS, allowedIndex, rangeCount } from './positions';
+
+/** Coordinates and offsets stay within ±10,000 mm (10 m): far beyond any enclosure, small enough to keep doubles exact to ~2e-12 mm. */
+export const COORD_LIMIT_MM = 10_000;
+/** World boxes one scene may hold (walls, dividers, brackets, placed bodies and keep-outs). */
+export const MAX_BOXES = 5_000;
+
+const idSchema = z
+	.string()
+	.min(1, 'Required')
+	.max(120, 'At most 120 characters')
+	.regex(/^[^/\s]+$/, 'No spaces or slashes');
+const labelSchema = z.string().max(200, 'At most 200 characters');
+const coordMm = z
+	.number({ error: 'Must be a finite number' })
+	.min(-COORD_LIMIT_MM, `At least −${COORD_LIMIT_MM} mm`)
+	.max(COORD_LIMIT_MM, `At most ${COORD_LIMIT_MM} mm`);
+const sizeMm = z
+	.number({ error: 'Must be a finite number' })
+	.gt(0, 'Must be greater than 0')
+	.max(COORD_LIMIT_MM, `At most ${COORD_LIMIT_MM} mm`);
+const thicknessMm = z
+	.number({ error: 'Must be a finite number' })
+	.min(0, 'Must not be negative')
+	.max(COORD_LIMIT_MM, `At most ${COORD_LIMIT_MM} mm`);
+const wattsSchema = z.number({ error: 'Must be a finite number' }).min(0).max(100_000);
+
+export const vec3Schema = z.tuple([coordMm, coordMm, coordMm]);
+export type Vec3 = [number, number, number];
+
+export const boxSchema = z
+	.object({ min: vec3Schema, max: vec3Schema })
+	.superRefine((box, ctx) => {
+		for (let i = 0; i < 3; i++) {
+			if (!(box.max[i] > box.min[i])) {
+				ctx.addIssue({ code: 'custom', path: ['max', i], message: 'Must be greater than min' });
+			}
+		}
+	});
+export type Box = { min: Vec3; max: Vec3 };
+
+export const axisSchema = z.enum(['x', 'y', 'z']);
+export const faceNameSchema = z.enum(['left', 'right', 'bottom', 'top', 'front', 'back']);
+export type FaceName = z.infer<typeof faceNameSchema>;
+
+export const wallSpecSchema = z.object({
+	thicknessMm,
+	kind: z.enum(['solid', 'mesh']).default('solid'),
+	/** Room a panel adds beyond its nominal place (a bulged side panel); may be negative. */
+	offsetMm: coordMm.default(0)
+});
+export type WallSpec = z.infer<typeof wallSpecSchema>;
+
+const rangeSchema = z
+	.object({ minMm: coordMm, maxMm: coordMm, stepMm: sizeMm })
+	.superRefine((r, ctx) => {
+		if (r.maxMm < r.minMm) {
+			ctx.addIssue({ code: 'custom', path: ['maxMm'], message: 'Must not be below minMm' });
+		} else if (rangeCount(r) > MAX_POSITIONS) {
+			ctx.addIssue({
+				code: 'custom',
+				path: ['stepMm'],
+				message: `At most ${MAX_POSITIONS} positions`
+			});
+		}
+	});
+
+const intervalSchema = z
+	.object({ minMm: coordMm, maxMm: coordMm })
+	.refine((i) => i.maxMm > i.minMm, { path: ['maxMm'], message: 'Must be greater than minMm' });
+
+export const dividerPositionsSchema = z.discriminatedUnion('kind', [
+	z.object({
+		kind: z.literal('list'),
+		options: z
+			.array(z.object({ label: labelSchema, offsetMm: coordMm }))
+			.min(1, 'At least one position')
+			.max(MAX_POSITIONS)
+	}),
+	rangeSchema.safeExtend({ kind: z.literal('range') })
+]);
+
+export const dividerDefSchema = z.object({
+	id: idSchema,
+	label: labelSchema,
+	/** The axis the slab is thin along: 'x' is a vertical divider splitting left from right. */
+	axis: axisSchema,
+	thicknessMm: sizeMm,
+	positions: dividerPositionsSchema,
+	/** Extent on the other two axes, in inner coordinates; a missing axis spans the whole inside. */
+	span: z
+		.object({
+			x: intervalSchema.optional(),
+			y: intervalSchema.optional(),
+			z: intervalSchema.optional()
+		})
+		.optional(),
+	/** Names of the compartments on its low and high side ('CPU side', 'card side'). */
+	sides: z.object({ low: labelSchema, high: labelSchema }).optional()
+});
+export type DividerDef = z.infer<typeof dividerDefSchema>;
+
+export const bracketDefSchema = z.object({
+	id: idSchema,
+	label: labelSchema,
+	kind: z.enum(['card-support', 'radiator-plate', 'pump', 'other']).default('other'),
+	/** The bracket's box in inner coordinates at offset 0. */
+	box: boxSchema,
+	axis: axisSchema,
+	travel: rangeSchema
+});
+export type BracketDef = z.infer<typeof bracketDefSchema>;
+
+/** PCI Express CEM spec: expansion slots sit 0.8 in = 20.32 mm apart. */
+export const SLOT_PITCH_MM = 20.32;
+
+export const mountDefSchema = z.object({
+	id: idSchema,
+	label: labelSchema,
+	kind: z.enum(['radiator', 'fan', 'board-tray', 'psu-bay', 'slots']),
+	/** The panel the mount sits on; its normal points from that panel into the inside. */
+	face: faceNameSchema,
+	/** Where mounted parts must lie on the face's two axes (all three for a power-supply bay). */
+	region: boxSchema,
+	/** Classes taken: radiator/fan sizes ('240', '280'), supply form factors ('SFX'), boards ('Mini-ITX'). */
+	accepts: z.array(z.string().min(1).max(40)).max(50).default([]),
+	/** Room along the face normal for the whole stack (plate + standoffs + radiator + fans). */
+	budgetMm: thicknessMm.optional(),
+	/** Adapter-plate thickness, counted in the stack when a mounted class needs the plate. */
+	plateMm: thicknessMm.optional(),
+	/** Classes that need the adapter plate; missing means every class does. */
+	plateFor: z.array(z.string().min(1).max(40)).max(50).optional(),
+	standoffMm: thicknessMm.default(0),
+	slotPitchMm: sizeMm.default(SLOT_PITCH_MM),
+	slotCount: z.number().int().min(0).max(32).optional()
+});
+export type MountDef = z.infer<typeof mountDefSchema>;
+
+export const enclosureDefSchema = z
+	.object({
+		name: z.string().min(1, 'Required').max(200),
+		outerMm: z.tuple([sizeMm, sizeMm, sizeMm]),
+		walls: z.object({
+			left: wallSpecSchema,
+			right: wallSpecSchema,
+			bottom: wallSpecSchema,
+			top: wallSpecSchema,
+			front: wallSpecSchema,
+			back: wallSpecSchema
+		}),
+		dividers: z.array(dividerDefSchema).max(100).default([]),
+		brackets: z.array(bracketDefSchema).max(100).default([]),
+		mounts: z.array(mountDefSchema).max(100).default([])
+	})
+	.superRefine((enc, ctx) => {
+		const pairs = [
+			['left', 'right'],
+			['bottom', 'top'],
+			['front', 'back']
+		] as const;
+		pairs.forEach(([lo, hi], i) => {
+			const w = enc.walls;
+			const inner =
+				enc.outerMm[i] - w[lo].thicknessMm - w[hi].thicknessMm + w[lo].offsetMm + w[hi].offsetMm;
+			if (!(inner > 0)) {
+				ctx.addIssue({
+					code: 'custom',
+					path: ['outerMm', i],
+					message: 'Walls leave no inside on this axis'
+				});
+			}
+		});
+		const seen = new Set<string>();
+		(['dividers', 'brackets', 'mounts'] as const).forEach((list) => {
+			enc[list].forEach((item, i) => {
+				if (seen.has(item.id)) {
+					ctx.addIssue({ code: 'custom', path: [list, i, 'id'], message: 'Duplicate id' });
+				}
+				seen.add(item.id);
+			});
+		});
+	});
+export type EnclosureDef = z.infer<typeof enclosureDefSchema>;
+
+export const partCategorySchema = z.enum([
+	'board',
+	'cpu-block',
+	'gpu',
+	'pump',
+	'reservoir',
+	'pump-reservoir',
+	'radiator',
+	'fan',
+	'psu',
+	'fitting',
+	'drive',
+	'other'
+]);
+export type PartCategory = z.infer<typeof partCategorySchema>;
+
+export const keepoutDefSchema = z.object({
+	id: idSchema,
+	label: labelSchema,
+	kind: z.enum(['fitting', 'airflow', 'cable', 'service']),
+	severity: z.enum(['error', 'warning']).default('error'),
+	box: boxSchema
+});
+export type KeepoutDef = z.infer<typeof keepoutDefSchema>;
+
+export const directionSchema = z.enum(['+x', '-x', '+y', '-y', '+z', '-z']);
+
+export const portDefSchema = z.object({
+	id: idSchema,
+	position: vec3Schema,
+	direction: directionSchema,
+	/** ISO 228-1 parallel pipe thread; G 1/4 for fittings is common practice. */
+	thread: z.string().min(1).max(40).default('G 1/4')
+});
+export type PortDef = z.infer<typeof portDefSchema>;
+
+export const partSpecsSchema = z.object({
+	heatW: wattsSchema.optional(),
+	powerDrawW: wattsSchema.optional(),
+	radiatorClass: z.literal([120, 140, 240, 280, 360, 420]).optional(),
+	radiatorThicknessMm: sizeMm.optional(),
+	fanSizeMm: sizeMm.optional(),
+	fanThicknessMm: sizeMm.optional(),
+	psuFormFactor: z.enum(['SFX', 'SFX-L', 'ATX', 'TFX']).optional(),
+	psuRatingW: wattsSchema.optional(),
+	boardFormFactor: z.enum(['Mini-ITX', 'microATX', 'ATX']).optional(),
+	cardLengthMm: sizeMm.optional(),
+	cardSlots: z.number().int().min(1).max(8).optional()
+});
+export type PartSpecs = z.infer<typeof partSpecsSchema>;
+
+export const bodyDefSchema = z.object({ id: idSchema, label: labelSchema, box: boxSchema });
+export type BodyDef = z.infer<typeof bodyDefSchema>;
+
+export const partDefSchema = z
+	.object({
+		id: idSchema,
+		name: z.string().min(1, 'Required').max(200),
+		category: partCategorySchema,
+		/** Boxes in the part's own frame. */
+		bodies: z.array(bodyDefSchema).min(1, 'At least one body').max(MAX_BOXES),
+		keepouts: z.array(keepoutDefSchema).max(MAX_BOXES).default([]),
+		ports: z.array(portDefSchema).max(200).default([]),
+		specs: partSpecsSchema.default({}),
+		provenance: z.enum(['datasheet', 'measured', 'estimate', 'standard']).default('estimate'),
+		/** ± mm the dimensions may be off by. */
+		toleranceMm: thicknessMm.default(0),
+		/** Where the dimensions come from (a published standard, a datasheet, a measurement). */
+		source: z.string().max(500).optional()
+	})
+	.superRefine((part, ctx) => {
+		const seen = new Set<string>();
+		(['bodies', 'keepouts'] as const).forEach((list) => {
+			part[list].forEach((item, i) => {
+				if (seen.has(item.id)) {
+					ctx.addIssue({ code: 'custom', path: [list, i, 'id'], message: 'Duplicate id' });
+				}
+				seen.add(item.id);
+			});
+		});
+		const ports = new Set<string>();
+		part.ports.forEach((p, i) => {
+			if (ports.has(p.id)) {
+				ctx.addIssue({ code: 'custom', path: ['ports', i, 'id'], message: 'Duplicate id' });
+			}
+			ports.add(p.id);
+		});
+	});
+export type PartDef = z.infer<typeof partDefSchema>;
+
+const quarterTurns = z
+	.number({ error: 'Must be 0, 1, 2 or 3' })
+	.int('Must be 0, 1, 2 or 3')
+	.min(0, 'Must be 0, 1, 2 or 3')
+	.max(3, 'Must be 0, 1, 2 or 3');
+
+export const placementSchema = z.object({
+	id: idSchema,
+	partId: idSchema,
+	/** Where the min corner of the rotated part's body bounding box lands, inner coordinates. */
+	position: vec3Schema,
+	/** Quarter turns (90°, right-handed) about X, then Y, then Z. */
+	rotation: z
+		.object({ x: quarterTurns.default(0), y: quarterTurns.default(0), z: quarterTurns.default(0) })
+		.default({ x: 0, y: 0, z: 0 }),
+	mountId: idSchema.optional(),
+	/** View-only: hidden parts are still checked. */
+	hidden: z.boolean().optional(),
+	/** Editor hint: a locked part is not the one a clearing move proposes to move. */
+	locked: z.boolean().optional()
+});
+export type Placement = z.infer<typeof placementSchema>;
+export type Rotation = Placement['rotation'];
+
+export const budgetsSchema = z.object({
+	/** Common practice, from memory: about 100 W of heat per 120 mm of radiator at quiet fan speed. */
+	wattsPer120mm: z.number().gt(0).max(10_000).default(100),
+	/** Common practice, from memory: 30 % above sustained draw for transient spikes. */
+	psuHeadroomPct: z.number().min(0).max(1_000).default(30)
+});
+export type Budgets = z.infer<typeof budgetsSchema>;
+
+export const SCENE_FORMAT = 'interstice.scene';
+export const SCENE_VERSION = 1;
+
+const sceneObjectSchema = z.object({
+	format: z.literal(SCENE_FORMAT),
+	version: z.literal(SCENE_VERSION),
+	enclosure: enclosureDefSchema,
+	parts: z.array(partDefSchema).max(MAX_BOXES).default([]),
+	/** Divider id → offset of its low face; a divider left out takes its first allowed position. */
+	dividerPositions: z.record(z.string(), coordMm).default({}),
+	/** Bracket id → offset along its axis; a bracket left out takes its first allowed offset. */
+	bracketOffsets: z.record(z.string(), coordMm).default({}),
+	placements: z.array(placementSchema).max(MAX_BOXES).default([]),
+	/** Gaps under this many millimetres count as tight; a couple of mm is common practice. */
+	marginMm: thicknessMm.default(2),
+	budgets: budgetsSchema.default({ wattsPer120mm: 100, psuHeadroomPct: 30 })
+});
+
+type SceneShape = z.infer<typeof sceneObjectSchema>;
+type RefineCtx = z.RefinementCtx<SceneShape>;
+
+function checkUniqueIds(scene: SceneShape, ctx: RefineCtx): Map<string, PartDef> {
+	const parts = new Map<string, PartDef>();
+	scene.parts.forEach((p, i) => {
+		if (parts.has(p.id)) {
+			ctx.addIssue({ code: 'custom', path: ['parts', i, 'id'], message: 'Duplicate id' });
+		}
+		parts.set(p.id, p);
+	});
+	const placements = new Set<string>();
+	scene.placements.forEach((p, i) => {
+		if (placements.has(p.id)) {
+			ctx.addIssue({ code: 'custom', path: ['placements', i, 'id'], message: 'Duplicate id' });
+		}
+		placements.add(p.id);
+	});
+	return parts;
+}
+
+function checkControlPositions(scene: SceneShape, ctx: RefineCtx): void {
+	const checks = [
+		['dividerPositions', scene.enclosure.dividers, 'divider'],
+		['bracketOffsets', scene.enclosure.brackets, 'bracket']
+	] as const;
+	for (const [key, defs, noun] of checks) {
+		const byId = new Map<string, DividerDef | BracketDef>(defs.map((d) => [d.id, d]));
+		for (const [id, offset] of Object.entries(scene[key])) {
+			const def = byId.get(id);
+			if (!def) {
+				ctx.addIssue({ code: 'custom', path: [key, id], message: `No ${noun} with this id` });
+			} else if (allowedIndex(def, offset) < 0) {
+				ctx.addIssue({
+					code: 'custom',
+					path: [key, id],
+					message: `${offset} mm is not an allowed position of this ${noun}`
+				});
+			}
+		}
+	}
+}
+
+function checkPlacements(scene: SceneShape, parts: Map<string, PartDef>, ctx: RefineCtx): void {
+	const mounts = new Set(scene.enclosure.mounts.map((m) => m.id));
+	let boxes = 6 + scene.enclosure.dividers.length + scene.enclosure.brackets.length;
+	scene.placements.forEach((p, i) => {
+		const part = parts.get(p.partId);
+		if (!part) {
+			ctx.addIssue({ code: 'custom', path: ['placements', i, 'partId'], message: 'No part with this id' });
+		} else {
+			boxes += part.bodies.length + part.keepouts.length;
+		}
+		if (p.mountId !== undefined && !mounts.has(p.mountId)) {
+			ctx.addIssue({ code: 'custom', path: ['placements', i, 'mountId'], message: 'No mount with this id' });
+		}
+	});
+	if (boxes > MAX_BOXES) {
+		ctx.addIssue({
+			code: 'custom',
+			path: ['placements'],
+			message: `The scene resolves to ${boxes} boxes; at most ${MAX_BOXES}`
+		});
+	}
+	const defined = scene.parts.reduce((n, p) => n + p.bodies.length + p.keepouts.length, 0);
+	if (defined > MAX_BOXES) {
+		ctx.addIssue({
+			code: 'custom',
+			path: ['parts'],
+			message: `The parts define ${defined} boxes; at most ${MAX_BOXES}`
+		});
+	}
+}
+
+export const sceneSchema = sceneObjectSchema.superRefine((scene, ctx) => {
+	const parts = checkUniqueIds(scene, ctx);
+	checkControlPositions(scene, ctx);
+	checkPlacements(scene, parts, ctx);
+});
+export type Scene = z.infer<typeof sceneSchema>;
+/** What a client may send: defaults not yet filled in. */
+export type SceneInput = z.input<typeof sceneSchema>;
+
+export interface FieldIssue {
+	/** `placements[3].rotation.y`, `dividerPositions.main`; empty for the scene as a whole. */
+	path: string;
+	message: string;
+}
+
+export function formatPath(path: readonly PropertyKey[]): string {
+	let out = '';
+	for (const key of path) {
+		if (typeof key === 'number') {
+			out += `[${key}]`;
+		} else {
+			const name = String(key);
+			out += /^[A-Za-z_$][\w$-]*$/.test(name)
+				? `${out ? '.' : ''}${name}`
+				: `[${JSON.stringify(name)}]`;
+		}
+	}
+	return out;
+}
+
+/** Flat list of a zod error's issues with dotted paths, for 400 answers and form fields. */
+export function formatZodIssues(error: z.ZodError): FieldIssue[] {
+	return error.issues.map((issue) => ({ path: formatPath(issue.path), message: issue.message }));
+}
