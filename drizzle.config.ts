@@ -1,0 +1,9 @@
+import { defineConfig } from 'drizzle-kit';
+import { databaseUrl } from './scripts/env';
+
+export default defineConfig({
+	schema: './src/lib/server/db/schema.ts',
+	out: './drizzle',
+	dialect: 'postgresql',
+	dbCredentials: { url: databaseUrl() }
+});

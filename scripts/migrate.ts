@@ -1,0 +1,4 @@
+import { runMigrations } from '../src/lib/server/db/migrate';
+
+await runMigrations();
+console.log('db: migrations applied');

@@ -1,0 +1,30 @@
+#!/usr/bin/env bash
+# npm start: from a fresh clone to a running app with demo data on http://127.0.0.1:3000.
+source "$(dirname "$0")/lib.sh"
+
+ensure_packages
+scripts/db.sh start
+log "migrating"
+node_modules/.bin/tsx scripts/migrate.ts
+log "seeding demo data"
+node_modules/.bin/tsx scripts/seed.ts
+ensure_mail_catcher
+ensure_payments_fake
+log "building"
+node_modules/.bin/vite build --logLevel warn
+
+export PORT=${PORT:-3000} HOST=${HOST:-127.0.0.1}
+export ORIGIN=${ORIGIN:-http://127.0.0.1:$PORT}
+# Served over plain http on this machine, so the session cookie can't be marked secure here.
+export INTERSTICE_INSECURE_COOKIES=${INTERSTICE_INSECURE_COOKIES:-1}
+cat <<TXT
+
+  Interstice is running at $ORIGIN
+  Demo sign-in:  designer@demo.interstice.test  /  demo-password-1   (designer)
+                 owner@demo.interstice.test     /  demo-password-1   (owner: members, mail)
+                 client@demo.interstice.test    /  demo-password-1   (client)
+  Outgoing mail: $ORIGIN/dev/mail (as the owner)
+  Stop with Ctrl-C; 'scripts/db.sh stop' stops PostgreSQL.
+
+TXT
+exec node build

@@ -1,0 +1,36 @@
+import type { Handle, HandleServerError } from '@sveltejs/kit';
+import { sequence } from '@sveltejs/kit/hooks';
+import { readSession } from '$lib/server/auth';
+
+const session: Handle = async ({ event, resolve }) => {
+	const { user, session } = await readSession(event.cookies);
+	event.locals.user = user;
+	event.locals.session = session ? { id: session.id, expiresAt: session.expiresAt } : null;
+	return resolve(event);
+};
+
+/** Pages under these prefixes are meant to be embedded by the client's own site. */
+const embeddable = ['/embed/'];
+
+const securityHeaders: Handle = async ({ event, resolve }) => {
+	const response = await resolve(event);
+	const h = response.headers;
+	h.set('x-content-type-options', 'nosniff');
+	h.set('referrer-policy', 'strict-origin-when-cross-origin');
+	h.set('cross-origin-opener-policy', 'same-origin');
+	h.set('permissions-policy', 'camera=(), microphone=(), geolocation=(), payment=()');
+	if (!embeddable.some((p) => event.url.pathname.startsWith(p))) h.set('x-frame-options', 'DENY');
+	if (event.url.pathname.startsWith('/s/') || event.url.pathname.startsWith('/reset/') || event.url.pathname.startsWith('/invite/')) {
+		// Token-bearing URLs: never leak them in a Referer header.
+		h.set('referrer-policy', 'no-referrer');
+	}
+	if (event.locals.user) h.set('cache-control', 'private, no-store');
+	return response;
+};
+
+export const handle = sequence(session, securityHeaders);
+
+export const handleError: HandleServerError = ({ error, status }) => {
+	if (status >= 500) console.error(error);
+	return { message: status === 404 ? 'There is nothing at this address.' : 'Something went wrong on our side.' };
+};

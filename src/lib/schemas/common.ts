@@ -1,0 +1,57 @@
+import { z } from 'zod';
+
+// eslint-disable-next-line no-control-regex
+const CONTROL = /[\u0000-\u001f\u007f]/;
+
+/** A single-line text field: trimmed, no control characters, bounded. */
+export const line = (label: string, max = 120, min = 1) =>
+	z
+		.string({ error: `${label} is required.` })
+		.trim()
+		.min(min, min === 1 ? `${label} is required.` : `${label} needs at least ${min} characters.`)
+		.max(max, `${label} can be at most ${max} characters.`)
+		.refine((s) => !CONTROL.test(s), `${label} contains control characters.`);
+
+/** Multi-line text (notes, comments): newlines and tabs allowed, other control characters not. */
+export const paragraph = (label: string, max = 4000) =>
+	z
+		.string({ error: `${label} is required.` })
+		.trim()
+		.max(max, `${label} can be at most ${max} characters.`)
+		// eslint-disable-next-line no-control-regex
+		.refine((s) => !/[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f]/.test(s), `${label} contains control characters.`);
+
+export const email = z
+	.string({ error: 'E-mail is required.' })
+	.trim()
+	.toLowerCase()
+	.min(1, 'E-mail is required.')
+	.max(320, 'E-mail can be at most 320 characters.')
+	.refine((s) => !CONTROL.test(s), 'E-mail contains control characters.')
+	.pipe(z.email({ error: 'E-mail must look like name@example.com.' }));
+
+export const passwordRules = [
+	'at least 10 characters',
+	'at most 200 characters',
+	'not only letters or only digits'
+];
+
+export const password = z
+	.string({ error: 'Password is required.' })
+	.min(10, 'Password needs at least 10 characters.')
+	.max(200, 'Password can be at most 200 characters.')
+	.refine((s) => !/^[\p{L}]+$/u.test(s) && !/^\d+$/.test(s), 'Password must not be only letters or only digits.');
+
+export const roleSchema = z.enum(['owner', 'designer', 'client'], {
+	error: 'Role must be owner, designer or client.'
+});
+
+/** Flattens zod issues into {field: message} for forms (first message per field). */
+export function fieldErrors(error: z.ZodError): Record<string, string> {
+	const out: Record<string, string> = {};
+	for (const issue of error.issues) {
+		const key = issue.path.map(String).join('.') || '_';
+		out[key] ??= issue.message;
+	}
+	return out;
+}

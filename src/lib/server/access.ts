@@ -1,0 +1,104 @@
+/**
+ * The one place that answers "may this user do this to this thing?". Every load, action and
+ * endpoint asks here; layouts are never trusted to have checked.
+ */
+import { error, redirect } from '@sveltejs/kit';
+import { and, eq } from 'drizzle-orm';
+import type { SessionUser } from './auth';
+import { db } from './db';
+import { memberships, studios, type Role } from './db/schema';
+
+export type Action =
+	| 'studio.view'
+	| 'studio.members'
+	| 'studio.mail'
+	| 'catalog.view'
+	| 'catalog.edit'
+	| 'build.list'
+	| 'build.view'
+	| 'build.edit'
+	| 'build.share'
+	| 'build.comment'
+	| 'build.approve';
+
+/** Which roles may do what inside their own studio. Clients see only what is shared with them. */
+export const permissions: Record<Action, readonly Role[]> = {
+	'studio.view': ['owner', 'designer', 'client'],
+	'studio.members': ['owner'],
+	'studio.mail': ['owner'],
+	'catalog.view': ['owner', 'designer'],
+	'catalog.edit': ['owner', 'designer'],
+	'build.list': ['owner', 'designer', 'client'],
+	'build.view': ['owner', 'designer', 'client'],
+	'build.edit': ['owner', 'designer'],
+	'build.share': ['owner', 'designer'],
+	'build.comment': ['owner', 'designer', 'client'],
+	'build.approve': ['client', 'owner']
+};
+
+export function roleMay(role: Role | null | undefined, action: Action): boolean {
+	return !!role && permissions[action].includes(role);
+}
+
+export type Locals = { user: SessionUser | null };
+
+/** Signed in, or off to the sign-in page (pages) / 401 (API). */
+export function requireUser(locals: Locals, url?: URL): SessionUser {
+	if (locals.user) return locals.user;
+	if (url && !url.pathname.startsWith('/api/')) {
+		redirect(303, `/signin?next=${encodeURIComponent(url.pathname + url.search)}`);
+	}
+	error(401, 'Sign in first.');
+}
+
+export async function roleIn(userId: string, studioId: string): Promise<Role | null> {
+	const [row] = await db
+		.select({ role: memberships.role })
+		.from(memberships)
+		.where(and(eq(memberships.userId, userId), eq(memberships.studioId, studioId)));
+	return row?.role ?? null;
+}
+
+export type StudioAccess = { user: SessionUser; studioId: string; studioName: string; role: Role };
+
+/**
+ * The user's role in the given studio, checked against the action. A studio the user is not a
+ * member of answers 404, so its existence is not revealed.
+ */
+export async function requireStudio(
+	locals: Locals,
+	studioId: string | null | undefined,
+	action: Action,
+	url?: URL
+): Promise<StudioAccess> {
+	const user = requireUser(locals, url);
+	if (!studioId) {
+		if (url && !url.pathname.startsWith('/api/')) redirect(303, '/studios/new');
+		error(404, 'No studio selected.');
+	}
+	const [row] = await db
+		.select({ role: memberships.role, name: studios.name })
+		.from(memberships)
+		.innerJoin(studios, eq(studios.id, memberships.studioId))
+		.where(and(eq(memberships.userId, user.id), eq(memberships.studioId, studioId)));
+	if (!row) error(404, 'Not found.');
+	if (!roleMay(row.role, action)) error(403, 'Your role in this studio does not allow this.');
+	return { user, studioId, studioName: row.name, role: row.role };
+}
+
+/** The studio the user is working in: their chosen one, else their first. */
+export async function activeStudio(locals: Locals, action: Action, url?: URL) {
+	const user = requireUser(locals, url);
+	let studioId = user.activeStudioId;
+	if (studioId && !(await roleIn(user.id, studioId))) studioId = null;
+	if (!studioId) {
+		const [first] = await db
+			.select({ studioId: memberships.studioId })
+			.from(memberships)
+			.where(eq(memberships.userId, user.id))
+			.orderBy(memberships.createdAt)
+			.limit(1);
+		studioId = first?.studioId ?? null;
+	}
+	return requireStudio(locals, studioId, action, url);
+}

@@ -1,0 +1,226 @@
+/** Accounts, studios, members and invites: the rules, independent of any page. */
+import { and, count, eq, gt, isNull, sql } from 'drizzle-orm';
+import { db, type Tx } from './db';
+import { invites, memberships, passwordResets, studios, users, type Role } from './db/schema';
+import { link, sendMail } from './mail';
+import { hashPassword, verifyDummy, verifyPassword } from './passwords';
+import { hashToken, newId, newToken } from './tokens';
+
+export class RuleError extends Error {
+	constructor(
+		message: string,
+		public field = '_',
+		public status = 400
+	) {
+		super(message);
+	}
+}
+
+const RESET_TTL_MS = 60 * 60 * 1000;
+const INVITE_TTL_MS = 7 * 24 * 60 * 60 * 1000;
+
+export async function findUserByEmail(email: string) {
+	const [u] = await db.select().from(users).where(eq(users.email, email.toLowerCase()));
+	return u ?? null;
+}
+
+export async function createUser(input: { name: string; email: string; password: string }) {
+	const passwordHash = await hashPassword(input.password);
+	const id = newId();
+	const inserted = await db
+		.insert(users)
+		.values({ id, name: input.name, email: input.email.toLowerCase(), passwordHash })
+		.onConflictDoNothing()
+		.returning({ id: users.id });
+	if (inserted.length === 0) throw new RuleError('An account with this e-mail exists; sign in instead.', 'email');
+	return id;
+}
+
+/** The same `null` for an unknown e-mail and a wrong password, after the same amount of work. */
+export async function checkCredentials(email: string, password: string) {
+	const user = await findUserByEmail(email);
+	if (!user) return verifyDummy(password).then(() => null);
+	return (await verifyPassword(user.passwordHash, password)) ? user : null;
+}
+
+/** Always resolves the same way, whether or not the e-mail has an account. */
+export async function requestPasswordReset(email: string) {
+	const user = await findUserByEmail(email);
+	if (!user) return;
+	const token = newToken();
+	await db.insert(passwordResets).values({
+		tokenHash: hashToken(token),
+		userId: user.id,
+		expiresAt: new Date(Date.now() + RESET_TTL_MS)
+	});
+	await sendMail({
+		to: user.email,
+		subject: 'Reset your Interstice password',
+		text: `Someone asked to reset the password for ${user.email}.\n\nChoose a new password here (the link works once, for one hour):\n${link(`/reset/${token}`)}\n\nIf it wasn't you, ignore this mail; nothing changes.`
+	});
+}
+
+export async function findValidReset(token: string) {
+	const [row] = await db
+		.select()
+		.from(passwordResets)
+		.where(
+			and(
+				eq(passwordResets.tokenHash, hashToken(token)),
+				isNull(passwordResets.usedAt),
+				gt(passwordResets.expiresAt, new Date())
+			)
+		);
+	return row ?? null;
+}
+
+/** Uses the token (once) and sets the password; returns the user id, or null for a dead token. */
+export async function resetPassword(token: string, password: string) {
+	const passwordHash = await hashPassword(password);
+	return db.transaction(async (tx) => {
+		const [used] = await tx
+			.update(passwordResets)
+			.set({ usedAt: new Date() })
+			.where(
+				and(
+					eq(passwordResets.tokenHash, hashToken(token)),
+					isNull(passwordResets.usedAt),
+					gt(passwordResets.expiresAt, new Date())
+				)
+			)
+			.returning({ userId: passwordResets.userId });
+		if (!used) return null;
+		await tx.update(users).set({ passwordHash }).where(eq(users.id, used.userId));
+		return used.userId;
+	});
+}
+
+export async function createStudio(userId: string, name: string) {
+	const id = newId();
+	await db.transaction(async (tx) => {
+		await tx.insert(studios).values({ id, name });
+		await tx.insert(memberships).values({ studioId: id, userId, role: 'owner' });
+		await tx.update(users).set({ activeStudioId: id }).where(eq(users.id, userId));
+	});
+	return id;
+}
+
+export async function studiosOf(userId: string) {
+	return db
+		.select({ id: studios.id, name: studios.name, role: memberships.role })
+		.from(memberships)
+		.innerJoin(studios, eq(studios.id, memberships.studioId))
+		.where(eq(memberships.userId, userId))
+		.orderBy(studios.name);
+}
+
+export async function switchStudio(userId: string, studioId: string) {
+	const [m] = await db
+		.select()
+		.from(memberships)
+		.where(and(eq(memberships.userId, userId), eq(memberships.studioId, studioId)));
+	if (!m) throw new RuleError('You are not a member of that studio.', 'studioId', 404);
+	await db.update(users).set({ activeStudioId: studioId }).where(eq(users.id, userId));
+}
+
+export async function membersOf(studioId: string) {
+	return db
+		.select({ userId: users.id, name: users.name, email: users.email, role: memberships.role, since: memberships.createdAt })
+		.from(memberships)
+		.innerJoin(users, eq(users.id, memberships.userId))
+		.where(eq(memberships.studioId, studioId))
+		.orderBy(users.name);
+}
+
+export async function pendingInvites(studioId: string) {
+	return db
+		.select({ id: invites.id, email: invites.email, role: invites.role, expiresAt: invites.expiresAt })
+		.from(invites)
+		.where(and(eq(invites.studioId, studioId), isNull(invites.acceptedAt), isNull(invites.revokedAt), gt(invites.expiresAt, new Date())))
+		.orderBy(invites.createdAt);
+}
+
+export async function inviteMember(input: { studioId: string; studioName: string; email: string; role: Role; invitedBy: { id: string; name: string } }) {
+	const token = newToken();
+	await db.insert(invites).values({
+		id: newId(),
+		studioId: input.studioId,
+		email: input.email.toLowerCase(),
+		role: input.role,
+		tokenHash: hashToken(token),
+		invitedBy: input.invitedBy.id,
+		expiresAt: new Date(Date.now() + INVITE_TTL_MS)
+	});
+	await sendMail({
+		to: input.email,
+		subject: `${input.invitedBy.name} invites you to ${input.studioName} on Interstice`,
+		text: `${input.invitedBy.name} invites you to join the studio "${input.studioName}" as ${input.role}.\n\nAccept here (the link works once, for 7 days):\n${link(`/invite/${token}`)}\n\nInterstice checks that every part of a compact build fits before anything is bought.`
+	});
+	return token;
+}
+
+export async function findValidInvite(token: string) {
+	const [row] = await db
+		.select({ id: invites.id, email: invites.email, role: invites.role, studioId: invites.studioId, studioName: studios.name })
+		.from(invites)
+		.innerJoin(studios, eq(studios.id, invites.studioId))
+		.where(and(eq(invites.tokenHash, hashToken(token)), isNull(invites.acceptedAt), isNull(invites.revokedAt), gt(invites.expiresAt, new Date())));
+	return row ?? null;
+}
+
+/** Single use: the invite is marked accepted in the same transaction that adds the membership. */
+export async function acceptInvite(token: string, userId: string) {
+	return db.transaction(async (tx) => {
+		const [inv] = await tx
+			.update(invites)
+			.set({ acceptedAt: new Date() })
+			.where(and(eq(invites.tokenHash, hashToken(token)), isNull(invites.acceptedAt), isNull(invites.revokedAt), gt(invites.expiresAt, new Date())))
+			.returning();
+		if (!inv) return null;
+		const [existing] = await tx
+			.select()
+			.from(memberships)
+			.where(and(eq(memberships.studioId, inv.studioId), eq(memberships.userId, userId)));
+		if (!existing) await tx.insert(memberships).values({ studioId: inv.studioId, userId, role: inv.role });
+		await tx.update(users).set({ activeStudioId: inv.studioId }).where(eq(users.id, userId));
+		return inv.studioId;
+	});
+}
+
+export async function revokeInvite(studioId: string, inviteId: string) {
+	await db.update(invites).set({ revokedAt: new Date() }).where(and(eq(invites.id, inviteId), eq(invites.studioId, studioId)));
+}
+
+/** Locks the studio's memberships so two owners can't demote each other at the same time. */
+async function ownersAfter(tx: Tx, studioId: string) {
+	// A row lock on the studio serialises membership changes for it.
+	await tx.execute(sql`select id from studio where id = ${studioId} for update`);
+	const [row] = await tx
+		.select({ n: count() })
+		.from(memberships)
+		.where(and(eq(memberships.studioId, studioId), eq(memberships.role, 'owner')));
+	return row.n;
+}
+
+export async function changeRole(studioId: string, userId: string, role: Role) {
+	await db.transaction(async (tx) => {
+		const [m] = await tx.select().from(memberships).where(and(eq(memberships.studioId, studioId), eq(memberships.userId, userId)));
+		if (!m) throw new RuleError('No such member.', 'userId', 404);
+		if (m.role === 'owner' && role !== 'owner' && (await ownersAfter(tx, studioId)) <= 1) {
+			throw new RuleError('The last owner cannot be demoted; make someone else owner first.', 'role', 409);
+		}
+		await tx.update(memberships).set({ role }).where(and(eq(memberships.studioId, studioId), eq(memberships.userId, userId)));
+	});
+}
+
+export async function removeMember(studioId: string, userId: string) {
+	await db.transaction(async (tx) => {
+		const [m] = await tx.select().from(memberships).where(and(eq(memberships.studioId, studioId), eq(memberships.userId, userId)));
+		if (!m) throw new RuleError('No such member.', 'userId', 404);
+		if (m.role === 'owner' && (await ownersAfter(tx, studioId)) <= 1) {
+			throw new RuleError('The last owner cannot leave or be removed; make someone else owner first.', 'userId', 409);
+		}
+		await tx.delete(memberships).where(and(eq(memberships.studioId, studioId), eq(memberships.userId, userId)));
+		await tx.update(users).set({ activeStudioId: null }).where(and(eq(users.id, userId), eq(users.activeStudioId, studioId)));
+	});
+}

@@ -1,0 +1,87 @@
+import {
+	boolean,
+	index,
+	integer,
+	jsonb,
+	pgTable,
+	real,
+	text,
+	timestamp,
+	uniqueIndex
+} from 'drizzle-orm/pg-core';
+import { studios, users } from './schema-auth';
+
+const ts = (name: string) => timestamp(name, { withTimezone: true, mode: 'date' });
+
+/** An enclosure's identity; its geometry lives in versions so builds can stay pinned to one. */
+export const enclosures = pgTable(
+	'enclosure',
+	{
+		id: text('id').primaryKey(),
+		studioId: text('studio_id')
+			.notNull()
+			.references(() => studios.id, { onDelete: 'cascade' }),
+		name: text('name').notNull(),
+		description: text('description').notNull().default(''),
+		/** Litres of inner volume of the current version, for search and sorting. */
+		volumeLitres: real('volume_litres').notNull(),
+		currentVersion: integer('current_version').notNull().default(1),
+		/** Bumped on every save; a save that names an older revision is a conflict. */
+		revision: integer('revision').notNull().default(1),
+		archivedAt: ts('archived_at'),
+		createdAt: ts('created_at').notNull().defaultNow(),
+		updatedAt: ts('updated_at').notNull().defaultNow()
+	},
+	(t) => [index('enclosure_studio_idx').on(t.studioId)]
+);
+
+export const enclosureVersions = pgTable(
+	'enclosure_version',
+	{
+		id: text('id').primaryKey(),
+		enclosureId: text('enclosure_id')
+			.notNull()
+			.references(() => enclosures.id, { onDelete: 'cascade' }),
+		version: integer('version').notNull(),
+		/** The engine's EnclosureDef, validated with its zod schema before every write. */
+		definition: jsonb('definition').notNull(),
+		volumeLitres: real('volume_litres').notNull(),
+		createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
+		createdAt: ts('created_at').notNull().defaultNow()
+	},
+	(t) => [uniqueIndex('enclosure_version_key').on(t.enclosureId, t.version)]
+);
+
+/** A catalogue part. studio_id null marks the read-only standard library. */
+export const parts = pgTable(
+	'part',
+	{
+		id: text('id').primaryKey(),
+		studioId: text('studio_id').references(() => studios.id, { onDelete: 'cascade' }),
+		name: text('name').notNull(),
+		category: text('category').notNull(),
+		/** The engine's PartDef (bodies, keep-outs, ports, specs). */
+		definition: jsonb('definition').notNull(),
+		/** Bounding size of the bodies, millimetres, for sorting and search. */
+		widthMm: real('width_mm').notNull(),
+		heightMm: real('height_mm').notNull(),
+		depthMm: real('depth_mm').notNull(),
+		priceMinor: integer('price_minor'),
+		currency: text('currency').notNull().default('EUR'),
+		supplierNote: text('supplier_note').notNull().default(''),
+		provenance: text('provenance').notNull(),
+		toleranceMm: real('tolerance_mm').notNull().default(0),
+		/** Where a standard part's numbers come from (document name). */
+		source: text('source').notNull().default(''),
+		isStandard: boolean('is_standard').notNull().default(false),
+		revision: integer('revision').notNull().default(1),
+		archivedAt: ts('archived_at'),
+		createdAt: ts('created_at').notNull().defaultNow(),
+		updatedAt: ts('updated_at').notNull().defaultNow()
+	},
+	(t) => [index('part_studio_idx').on(t.studioId), index('part_category_idx').on(t.category)]
+);
+
+export type EnclosureRow = typeof enclosures.$inferSelect;
+export type EnclosureVersionRow = typeof enclosureVersions.$inferSelect;
+export type PartRow = typeof parts.$inferSelect;

@@ -1,0 +1,6 @@
+/**
+ * The database schema. One file per area keeps concurrent work apart; drizzle-kit reads this entry.
+ */
+export * from './schema-auth';
+export * from './schema-catalog';
+export * from './schema-builds';

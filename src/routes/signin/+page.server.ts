@@ -1,0 +1,29 @@
+import { redirect } from '@sveltejs/kit';
+import { checkCredentials } from '$lib/server/accounts';
+import { startSession } from '$lib/server/auth';
+import { formFail, parseForm } from '$lib/server/forms';
+import { enforce } from '$lib/server/limits';
+import { limits } from '$lib/server/rate-limit';
+import { safeNext } from '$lib/server/redirects';
+import { signInSchema } from '$lib/schemas/account';
+import type { Actions, PageServerLoad } from './$types';
+
+export const load: PageServerLoad = ({ locals, url }) => {
+	if (locals.user) redirect(303, safeNext(url.searchParams.get('next')) ?? '/builds');
+	return { next: url.searchParams.get('next') ?? '', reset: url.searchParams.has('reset') };
+};
+
+export const actions: Actions = {
+	default: async (event) => {
+		await enforce(event, 'signin', limits.signIn);
+		const parsed = await parseForm(event.request, signInSchema);
+		if (!parsed.ok) return parsed.failure;
+		const user = await checkCredentials(parsed.data.email, parsed.data.password);
+		if (!user) {
+			// One answer for "no such e-mail" and "wrong password".
+			return formFail(400, { email: parsed.data.email }, { _: 'That e-mail and password do not match an account.' });
+		}
+		await startSession(event.cookies, user.id);
+		redirect(303, safeNext(parsed.raw.next) ?? '/builds');
+	}
+};
