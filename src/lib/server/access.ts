@@ -6,7 +6,7 @@ import { error, redirect } from '@sveltejs/kit';
 import { and, eq } from 'drizzle-orm';
 import type { SessionUser } from './auth';
 import { db } from './db';
-import { memberships, studios, type Role } from './db/schema';
+import { builds, memberships, studios, type Role } from './db/schema';
 
 export type Action =
 	| 'studio.view'
@@ -101,4 +101,16 @@ export async function activeStudio(locals: Locals, action: Action, url?: URL) {
 		studioId = first?.studioId ?? null;
 	}
 	return requireStudio(locals, studioId, action, url);
+}
+
+/**
+ * May this user do this to this build? Loads the build's studio and checks the role there.
+ * A build of a studio the user is not in answers 404.
+ */
+export async function requireBuild(locals: Locals, buildId: string, action: Action, url?: URL) {
+	const user = requireUser(locals, url);
+	const [build] = await db.select().from(builds).where(eq(builds.id, buildId));
+	if (!build) error(404, 'Not found.');
+	const access = await requireStudio({ user }, build.studioId, action, url);
+	return { build, access };
 }

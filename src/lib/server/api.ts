@@ -1,0 +1,39 @@
+/** Small helpers for JSON endpoints: bounded bodies, zod validation with paths, plain errors. */
+import { error, json, type RequestEvent } from '@sveltejs/kit';
+import type { z } from 'zod';
+import { formatZodIssues, type FieldIssue } from '$lib/geometry';
+import { enforce } from './limits';
+import { limits } from './rate-limit';
+
+const MAX_JSON_BYTES = 4 * 1024 * 1024;
+
+export function problem(status: number, message: string, issues: FieldIssue[] = []) {
+	return json({ message, issues }, { status });
+}
+
+/** Reads and validates a JSON body; a bad one ends the request with 400 and the zod paths. */
+export async function readJson<S extends z.ZodType>(request: Request, schema: S): Promise<z.infer<S>> {
+	const length = Number(request.headers.get('content-length') ?? 0);
+	if (length > MAX_JSON_BYTES) error(413, `The body is larger than ${MAX_JSON_BYTES / 1024 / 1024} MB.`);
+	const text = await request.text();
+	if (text.length > MAX_JSON_BYTES) error(413, `The body is larger than ${MAX_JSON_BYTES / 1024 / 1024} MB.`);
+	let body: unknown;
+	try {
+		body = JSON.parse(text);
+	} catch {
+		throw badRequest('The body is not valid JSON.', []);
+	}
+	const parsed = schema.safeParse(body);
+	if (!parsed.success) throw badRequest('The request does not validate.', formatZodIssues(parsed.error));
+	return parsed.data;
+}
+
+/** A thrown Response: SvelteKit sends it as it is. */
+export function badRequest(message: string, issues: FieldIssue[]) {
+	return problem(400, message, issues);
+}
+
+/** Per-user limit on API calls, counted in PostgreSQL like every other limit. */
+export async function apiLimit(event: RequestEvent, userId: string) {
+	await enforce(event, 'api', limits.api, userId);
+}

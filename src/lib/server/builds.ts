@@ -1,0 +1,139 @@
+/** Builds and their variants: creating, loading a variant as an engine scene, saving with versions. */
+import { and, asc, eq, inArray, isNull, or } from 'drizzle-orm';
+import {
+	enclosureDefSchema,
+	formatZodIssues,
+	partDefSchema,
+	sceneSchema,
+	type EnclosureDef,
+	type FieldIssue,
+	type PartDef,
+	type Scene
+} from '$lib/geometry';
+import { composeScene, defaultSettings, variantSettingsSchema, type VariantSettings } from '$lib/builds/settings';
+import { db } from './db';
+import { builds, enclosureVersions, enclosures, parts, variants, type VariantRow } from './db/schema';
+import { newId } from './tokens';
+
+export class SceneRejected extends Error {
+	constructor(
+		public issues: FieldIssue[],
+		public status = 400
+	) {
+		super(issues.map((i) => `${i.path || 'scene'}: ${i.message}`).join('; '));
+	}
+}
+
+export async function enclosureVersionDef(versionId: string) {
+	const [row] = await db
+		.select({ id: enclosureVersions.id, version: enclosureVersions.version, definition: enclosureVersions.definition, enclosureId: enclosureVersions.enclosureId, name: enclosures.name, studioId: enclosures.studioId })
+		.from(enclosureVersions)
+		.innerJoin(enclosures, eq(enclosures.id, enclosureVersions.enclosureId))
+		.where(eq(enclosureVersions.id, versionId));
+	if (!row) return null;
+	return { ...row, definition: enclosureDefSchema.parse(row.definition) };
+}
+
+/**
+ * Parts a studio may place: its own (archived ones too, so old builds still load) and the
+ * standard library. Anything else is reported as not allowed.
+ */
+export async function partsForStudio(studioId: string, ids: string[]): Promise<{ parts: PartDef[]; forbidden: string[] }> {
+	const unique = [...new Set(ids)];
+	if (unique.length === 0) return { parts: [], forbidden: [] };
+	const rows = await db
+		.select({ id: parts.id, definition: parts.definition, name: parts.name })
+		.from(parts)
+		.where(and(inArray(parts.id, unique), or(eq(parts.studioId, studioId), isNull(parts.studioId))));
+	const found = new Set(rows.map((r) => r.id));
+	return {
+		parts: rows.map((r) => partDefSchema.parse({ ...(r.definition as object), id: r.id, name: r.name })),
+		forbidden: unique.filter((id) => !found.has(id))
+	};
+}
+
+export async function createBuild(input: { studioId: string; userId: string; name: string; clientName: string; notes: string; enclosureId: string }) {
+	const [enc] = await db
+		.select()
+		.from(enclosures)
+		.where(and(eq(enclosures.id, input.enclosureId), eq(enclosures.studioId, input.studioId)));
+	if (!enc) throw new SceneRejected([{ path: 'enclosureId', message: 'No such enclosure in this studio.' }], 404);
+	const [version] = await db
+		.select()
+		.from(enclosureVersions)
+		.where(and(eq(enclosureVersions.enclosureId, enc.id), eq(enclosureVersions.version, enc.currentVersion)));
+	const definition = enclosureDefSchema.parse(version.definition);
+	const id = newId();
+	await db.transaction(async (tx) => {
+		await tx.insert(builds).values({ id, studioId: input.studioId, name: input.name, clientName: input.clientName, notes: input.notes, enclosureVersionId: version.id, createdBy: input.userId });
+		await tx.insert(variants).values({ id: newId(), buildId: id, name: 'Variant A', sortOrder: 0, isProposal: true, settings: defaultSettings(definition) });
+	});
+	return id;
+}
+
+export async function variantsOf(buildId: string) {
+	return db.select().from(variants).where(eq(variants.buildId, buildId)).orderBy(asc(variants.sortOrder), asc(variants.createdAt));
+}
+
+export type LoadedVariant = {
+	variant: VariantRow;
+	settings: VariantSettings;
+	enclosure: EnclosureDef;
+	parts: PartDef[];
+	scene: Scene;
+};
+
+/** A variant as the engine sees it. Throws SceneRejected if the stored scene no longer validates. */
+export async function loadVariant(buildId: string, studioId: string, enclosureVersionId: string, variantId?: string): Promise<LoadedVariant | null> {
+	const list = await variantsOf(buildId);
+	const variant = variantId ? list.find((v) => v.id === variantId) : (list.find((v) => v.isProposal) ?? list[0]);
+	if (!variant) return null;
+	const enc = await enclosureVersionDef(enclosureVersionId);
+	if (!enc) return null;
+	const settings = variantSettingsSchema.parse(variant.settings);
+	const { parts: defs } = await partsForStudio(studioId, settings.placements.map((p) => p.partId));
+	const scene = validateScene(enc.definition, defs, settings);
+	return { variant, settings, enclosure: enc.definition, parts: defs, scene };
+}
+
+export function validateScene(enclosure: EnclosureDef, defs: PartDef[], settings: VariantSettings): Scene {
+	const parsed = sceneSchema.safeParse(composeScene(enclosure, defs, settings));
+	if (!parsed.success) throw new SceneRejected(formatZodIssues(parsed.error));
+	return parsed.data;
+}
+
+export type SaveResult =
+	| { ok: true; version: number; scene: Scene }
+	| { ok: false; conflict: { version: number; settings: VariantSettings; updatedAt: Date } };
+
+/**
+ * Saves a variant's settings if nobody saved since `expectedVersion`. The server validates the
+ * whole scene itself (positions allowed, parts this studio may use) before anything is written.
+ */
+export async function saveVariantSettings(input: { buildId: string; studioId: string; enclosureVersionId: string; variantId: string; expectedVersion: number; settings: unknown }): Promise<SaveResult> {
+	const parsed = variantSettingsSchema.safeParse(input.settings);
+	if (!parsed.success) throw new SceneRejected(formatZodIssues(parsed.error).map((i) => ({ ...i, path: `settings${i.path ? '.' + i.path : ''}` })));
+	const settings = parsed.data;
+	const { parts: defs, forbidden } = await partsForStudio(input.studioId, settings.placements.map((p) => p.partId));
+	if (forbidden.length) {
+		const i = settings.placements.findIndex((p) => forbidden.includes(p.partId));
+		throw new SceneRejected([{ path: `settings.placements[${i}].partId`, message: 'This part is not in your studio’s catalogue.' }], 403);
+	}
+	const enc = await enclosureVersionDef(input.enclosureVersionId);
+	if (!enc) throw new SceneRejected([{ path: 'enclosure', message: 'The build’s enclosure version is missing.' }], 409);
+	const scene = validateScene(enc.definition, defs, settings);
+	return db.transaction(async (tx) => {
+		const [row] = await tx
+			.update(variants)
+			.set({ settings, version: input.expectedVersion + 1, updatedAt: new Date() })
+			.where(and(eq(variants.id, input.variantId), eq(variants.buildId, input.buildId), eq(variants.version, input.expectedVersion)))
+			.returning({ version: variants.version });
+		if (row) {
+			await tx.update(builds).set({ updatedAt: new Date() }).where(eq(builds.id, input.buildId));
+			return { ok: true as const, version: row.version, scene };
+		}
+		const [current] = await tx.select().from(variants).where(and(eq(variants.id, input.variantId), eq(variants.buildId, input.buildId)));
+		if (!current) throw new SceneRejected([{ path: 'variantId', message: 'No such variant in this build.' }], 404);
+		return { ok: false as const, conflict: { version: current.version, settings: variantSettingsSchema.parse(current.settings), updatedAt: current.updatedAt } };
+	});
+}
