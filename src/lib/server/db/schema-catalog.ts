@@ -46,6 +46,8 @@ export const enclosureVersions = pgTable(
 		/** The engine's EnclosureDef, validated with its zod schema before every write. */
 		definition: jsonb('definition').notNull(),
 		volumeLitres: real('volume_litres').notNull(),
+		/** What changed in this version, in the user's words or generated from the diff. */
+		note: text('note').notNull().default(''),
 		createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
 		createdAt: ts('created_at').notNull().defaultNow()
 	},
@@ -74,12 +76,18 @@ export const parts = pgTable(
 		/** Where a standard part's numbers come from (document name). */
 		source: text('source').notNull().default(''),
 		isStandard: boolean('is_standard').notNull().default(false),
+		/** The part this one was duplicated or copied from (a standard-library entry, another part). */
+		copiedFromId: text('copied_from_id'),
 		revision: integer('revision').notNull().default(1),
 		archivedAt: ts('archived_at'),
 		createdAt: ts('created_at').notNull().defaultNow(),
 		updatedAt: ts('updated_at').notNull().defaultNow()
 	},
-	(t) => [index('part_studio_idx').on(t.studioId), index('part_category_idx').on(t.category)]
+	(t) => [
+		index('part_studio_idx').on(t.studioId, t.archivedAt),
+		index('part_category_idx').on(t.category),
+		index('part_name_idx').on(t.name)
+	]
 );
 
 export type EnclosureRow = typeof enclosures.$inferSelect;
