@@ -103,3 +103,8 @@ export function boundsOf(boxes: readonly Box[]): Box {
 	}
 	return { min, max };
 }
+
+/** Code-unit order, the same in every locale and runtime: the engine's sort for ids. */
+export function compareText(a: string, b: string): number {
+	return a < b ? -1 : a > b ? 1 : 0;
+}

@@ -1,6 +1,24 @@
-/** The fit engine: pure TypeScript, no framework, DOM or Node imports. */
+/** The fit engine: pure TypeScript, no framework, DOM or Node imports. Millimetres, Y up. */
 export * from './schema';
 export * from './types';
 export * from './box';
 export * from './positions';
 export * from './errors';
+export { placePart, resolveScene } from './resolve';
+export {
+	FACE_AXES,
+	innerSizeMm,
+	innerBoxOf,
+	innerVolumeLitres,
+	wallBoxes,
+	dividerBoxAt,
+	bracketBoxAt,
+	compartmentsFor
+} from './enclosure';
+export { rotationMap, rotateBox, rotatePoint, rotateDirection } from './rotation';
+export { overlappingPairs, overlappingPairsFlat, flattenBoxes } from './broadphase';
+export { pairKind, isObstacle } from './pairs';
+export { checkScene, reportFor, compartmentOf } from './check';
+export { mountReport, mountReports, mountAccepts, partClasses } from './mounts';
+export { heatBudget, powerBudget } from './budgets';
+export { sweep, sweepGrid, feasibleIntervals } from './sweep';

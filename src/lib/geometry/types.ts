@@ -4,7 +4,7 @@
  */
 
 import type { Axis, Face } from './box';
-import type { Box, FaceName, KeepoutDef, PartDef, Placement, Vec3 } from './schema';
+import type { Box, FaceName, KeepoutDef, PartDef, Placement, PortDef, Vec3 } from './schema';
 
 /** Precedence, worst first: collides > blocked > outside > tight > clear. */
 export const STATUS_ORDER = ['collides', 'blocked', 'outside', 'tight', 'clear'] as const;
@@ -46,6 +46,8 @@ export interface ResolvedPlacement {
 	part: PartDef;
 	bodies: WorldBox[];
 	keepouts: WorldBox[];
+	/** Ports in inner coordinates, directions turned with the part. */
+	ports: { id: string; position: Vec3; direction: PortDef['direction']; thread: string }[];
 	/** Bounding box of the placed bodies (keep-outs excluded). */
 	bounds: Box;
 }
@@ -104,6 +106,11 @@ export interface FaceGap {
 	/** Free distance to the nearest box ahead of this face; negative when that box overlaps. */
 	gapMm: number | null;
 	against: ItemRef | null;
+	/**
+	 * Contact where the part is held (resting on what is below it, against its mount's panel or the
+	 * rest of its stack): shown, but not counted as tight.
+	 */
+	held: boolean;
 }
 
 export interface PartReport {
@@ -129,8 +136,12 @@ export interface MountReport {
 	label: string;
 	kind: string;
 	stack: StackEntry[];
+	/** Plate counted in this stack: the mount's plateMm when a mounted class needs it, else 0. */
 	plateMm: number;
 	standoffMm: number;
+	/** budgetMm − plateMm − standoffMm: room left for the stacked parts themselves. */
+	availableMm: number | null;
+	/** plateMm + standoffMm + the stack's layers. */
 	usedMm: number;
 	budgetMm: number | null;
 	spareMm: number | null;

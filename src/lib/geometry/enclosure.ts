@@ -1,0 +1,259 @@
+/**
+ * Enclosure → inner box, wall boxes, divider and bracket boxes, compartments. Inner coordinates:
+ * origin at the inner front-bottom-left corner, X width, Y height, Z depth, millimetres.
+ */
+
+import { AXES, EPSILON_MM, axisIndex, boxSize, compareText, type AxisIndex } from './box';
+import { SceneError } from './errors';
+import { allowedIndex, defaultOffset } from './positions';
+import { formatPath } from './schema';
+import type { BracketDef, Box, DividerDef, EnclosureDef, FaceName, Vec3 } from './schema';
+import type { Compartment, WorldBox } from './types';
+
+/** Faces as (axis, low or high side), in the order walls are listed. */
+export const FACE_AXES: Record<FaceName, { axis: AxisIndex; high: boolean }> = {
+	left: { axis: 0, high: false },
+	right: { axis: 0, high: true },
+	bottom: { axis: 1, high: false },
+	top: { axis: 1, high: true },
+	front: { axis: 2, high: false },
+	back: { axis: 2, high: true }
+};
+const FACE_NAMES = Object.keys(FACE_AXES) as FaceName[];
+const PAIRS: [FaceName, FaceName][] = [
+	['left', 'right'],
+	['bottom', 'top'],
+	['front', 'back']
+];
+const FACE_LABELS: Record<FaceName, string> = {
+	left: 'Left panel',
+	right: 'Right panel',
+	bottom: 'Bottom panel',
+	top: 'Top panel',
+	front: 'Front panel',
+	back: 'Back panel'
+};
+
+/** Inner size per axis: outer − both wall thicknesses + both wall offsets. */
+export function innerSizeMm(enclosure: EnclosureDef): Vec3 {
+	const w = enclosure.walls;
+	return PAIRS.map(
+		([lo, hi], i) =>
+			enclosure.outerMm[i] - w[lo].thicknessMm - w[hi].thicknessMm + w[lo].offsetMm + w[hi].offsetMm
+	) as Vec3;
+}
+
+export function innerBoxOf(enclosure: EnclosureDef): Box {
+	return { min: [0, 0, 0], max: innerSizeMm(enclosure) };
+}
+
+/** 1 L = 10⁶ mm³ (SI). */
+export function innerVolumeLitres(enclosure: EnclosureDef): number {
+	const [x, y, z] = innerSizeMm(enclosure);
+	return (x * y * z) / 1e6;
+}
+
+/**
+ * One box per wall with thickness, just outside the inner box; each reaches over the neighbouring
+ * walls' thickness so the shell has no open edges.
+ */
+export function wallBoxes(enclosure: EnclosureDef): WorldBox[] {
+	const size = innerSizeMm(enclosure);
+	const w = enclosure.walls;
+	const lo: Vec3 = [-w.left.thicknessMm, -w.bottom.thicknessMm, -w.front.thicknessMm];
+	const hi: Vec3 = [
+		size[0] + w.right.thicknessMm,
+		size[1] + w.top.thicknessMm,
+		size[2] + w.back.thicknessMm
+	];
+	const out: WorldBox[] = [];
+	for (const face of FACE_NAMES) {
+		const spec = w[face];
+		if (!(spec.thicknessMm > 0)) {
+			continue;
+		}
+		const { axis, high } = FACE_AXES[face];
+		const min: Vec3 = [...lo];
+		const max: Vec3 = [...hi];
+		min[axis] = high ? size[axis] : -spec.thicknessMm;
+		max[axis] = high ? size[axis] + spec.thicknessMm : 0;
+		out.push({
+			id: `wall:${face}`,
+			kind: 'wall',
+			label: FACE_LABELS[face],
+			box: { min, max },
+			ownerId: `wall:${face}`,
+			wallKind: spec.kind,
+			face
+		});
+	}
+	return out;
+}
+
+export function dividerBoxAt(enclosure: EnclosureDef, divider: DividerDef, offsetMm: number): Box {
+	const size = innerSizeMm(enclosure);
+	const min: Vec3 = [0, 0, 0];
+	const max: Vec3 = [...size];
+	for (let i = 0; i < 3; i++) {
+		const span = divider.span?.[AXES[i]];
+		if (span) {
+			min[i] = span.minMm;
+			max[i] = span.maxMm;
+		}
+	}
+	const a = axisIndex(divider.axis);
+	min[a] = offsetMm;
+	max[a] = offsetMm + divider.thicknessMm;
+	return { min, max };
+}
+
+export function bracketBoxAt(bracket: BracketDef, offsetMm: number): Box {
+	const a = axisIndex(bracket.axis);
+	const min: Vec3 = [...bracket.box.min];
+	const max: Vec3 = [...bracket.box.max];
+	min[a] += offsetMm;
+	max[a] += offsetMm;
+	return { min, max };
+}
+
+export function dividerWorldBox(enclosure: EnclosureDef, divider: DividerDef, offsetMm: number): WorldBox {
+	return {
+		id: `divider:${divider.id}`,
+		kind: 'divider',
+		label: divider.label,
+		box: dividerBoxAt(enclosure, divider, offsetMm),
+		ownerId: divider.id
+	};
+}
+
+export function bracketWorldBox(bracket: BracketDef, offsetMm: number): WorldBox {
+	return {
+		id: `bracket:${bracket.id}`,
+		kind: 'bracket',
+		label: bracket.label,
+		box: bracketBoxAt(bracket, offsetMm),
+		ownerId: bracket.id
+	};
+}
+
+/**
+ * The offset a control takes in a scene: the one given, or its first allowed position. A given
+ * offset that is not allowed throws; it is never moved to the nearest allowed one.
+ */
+export function controlOffset(
+	def: DividerDef | BracketDef,
+	given: Record<string, number>,
+	key: 'dividerPositions' | 'bracketOffsets'
+): number {
+	const offset = given[def.id];
+	if (offset === undefined) {
+		return defaultOffset(def);
+	}
+	if (!Number.isFinite(offset) || allowedIndex(def, offset) < 0) {
+		throw new SceneError(formatPath([key, def.id]), `${offset} mm is not an allowed position`);
+	}
+	return offset;
+}
+
+const SIDE_WORDS: Record<'x' | 'y' | 'z', [string, string]> = {
+	x: ['left of', 'right of'],
+	y: ['below', 'above'],
+	z: ['in front of', 'behind']
+};
+
+function sideLabel(divider: DividerDef, high: boolean): string {
+	const named = divider.sides?.[high ? 'high' : 'low'];
+	if (named !== undefined) {
+		return named;
+	}
+	return `${SIDE_WORDS[divider.axis][high ? 1 : 0]} ${divider.label}`;
+}
+
+interface Cell {
+	box: Box;
+	sides: { dividerId: string; high: boolean; label: string }[];
+}
+
+/** True when the slab cuts the cell in two: strictly inside on its axis, covering it on the others. */
+function cuts(slab: Box, axis: AxisIndex, cell: Box): boolean {
+	if (slab.min[axis] <= cell.min[axis] + EPSILON_MM || slab.max[axis] >= cell.max[axis] - EPSILON_MM) {
+		return false;
+	}
+	for (let i = 0; i < 3; i++) {
+		if (i !== axis && (slab.min[i] > cell.min[i] + EPSILON_MM || slab.max[i] < cell.max[i] - EPSILON_MM)) {
+			return false;
+		}
+	}
+	return true;
+}
+
+/** Side names of the bounding dividers, by divider id; an empty side name is left out. */
+function cellLabel(cell: Cell): string {
+	const words = [...cell.sides]
+		.sort((a, b) => compareText(a.dividerId, b.dividerId))
+		.map((s) => s.label)
+		.filter((label) => label.length > 0);
+	return words.length === 0 ? 'Inside' : words.join(', ');
+}
+
+function cellId(cell: Cell): string {
+	if (cell.sides.length === 0) {
+		return 'inside';
+	}
+	return cell.sides
+		.map((s) => `${s.dividerId}.${s.high ? 'high' : 'low'}`)
+		.sort()
+		.join('+');
+}
+
+/**
+ * The cells the dividers cut. A divider splits every cell it crosses from side to side; one that
+ * spans only part of a cell (a short shelf) leaves it whole. Repeats until nothing splits, so the
+ * order of the dividers does not matter.
+ */
+export function compartmentsFor(
+	enclosure: EnclosureDef,
+	dividerPositions: Record<string, number>
+): Compartment[] {
+	const slabs = enclosure.dividers.map((d) => ({
+		def: d,
+		axis: axisIndex(d.axis),
+		box: dividerBoxAt(enclosure, d, controlOffset(d, dividerPositions, 'dividerPositions'))
+	}));
+	let cells: Cell[] = [{ box: innerBoxOf(enclosure), sides: [] }];
+	let split = true;
+	while (split) {
+		split = false;
+		const next: Cell[] = [];
+		for (const cell of cells) {
+			const slab = slabs.find((s) => cuts(s.box, s.axis, cell.box));
+			if (!slab) {
+				next.push(cell);
+				continue;
+			}
+			split = true;
+			const lowBox: Box = { min: [...cell.box.min], max: [...cell.box.max] };
+			const highBox: Box = { min: [...cell.box.min], max: [...cell.box.max] };
+			lowBox.max[slab.axis] = slab.box.min[slab.axis];
+			highBox.min[slab.axis] = slab.box.max[slab.axis];
+			for (const [box, high] of [
+				[lowBox, false],
+				[highBox, true]
+			] as const) {
+				next.push({
+					box,
+					sides: [...cell.sides, { dividerId: slab.def.id, high, label: sideLabel(slab.def, high) }]
+				});
+			}
+		}
+		cells = next;
+	}
+	return cells
+		.map((cell) => ({
+			id: cellId(cell),
+			label: cellLabel(cell),
+			box: cell.box,
+			sizeMm: boxSize(cell.box)
+		}))
+		.sort((a, b) => compareText(a.id, b.id));
+}

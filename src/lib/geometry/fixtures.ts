@@ -1,0 +1,266 @@
+/**
+ * Shared data: a read-only library of standard form factors (published standards, not products)
+ * and an invented demo — a compact sandwich enclosure with eight generic parts. The demo seed and
+ * tests reuse them; each call returns fresh objects, so callers may change what they get.
+ *
+ * Part frames: X width, Y height, Z depth, as the world. Boards and fans lie flat (thickness along
+ * Y for boards, Z for fans); power supplies stand as their design guides draw them.
+ */
+
+import {
+	SLOT_PITCH_MM,
+	sceneSchema,
+	type Box,
+	type EnclosureDef,
+	type PartDef,
+	type Scene,
+	type SceneInput,
+	type Vec3
+} from './schema';
+
+export function box(min: Vec3, max: Vec3): Box {
+	return { min: [...min], max: [...max] };
+}
+
+function solidPart(
+	id: string,
+	name: string,
+	category: PartDef['category'],
+	sizeMm: Vec3,
+	rest: Partial<PartDef> = {}
+): PartDef {
+	return {
+		id,
+		name,
+		category,
+		bodies: [{ id: 'body', label: 'body', box: box([0, 0, 0], sizeMm) }],
+		keepouts: [],
+		ports: [],
+		specs: {},
+		provenance: 'standard',
+		toleranceMm: 0,
+		...rest
+	};
+}
+
+/** Board thickness of 1.6 mm (0.062 in) is common practice, not part of the form factor. */
+export const BOARD_THICKNESS_MM = 1.6;
+
+/** The read-only library of standard form factors, each with the document its size comes from. */
+export function standardParts(): PartDef[] {
+	const fan = (size: 120 | 140, thickness: 25 | 15): PartDef =>
+		solidPart(`std-fan-${size}-${thickness}`, `${size} mm fan, ${thickness} mm`, 'fan', [size, size, thickness], {
+			specs: { fanSizeMm: size, fanThicknessMm: thickness },
+			source: `Common practice: ${size} mm square frame, ${thickness === 25 ? '25 mm standard' : 'about 15 mm slim'} thickness`
+		});
+	return [
+		solidPart('std-mini-itx', 'Mini-ITX board', 'board', [170, BOARD_THICKNESS_MM, 170], {
+			specs: { boardFormFactor: 'Mini-ITX' },
+			source:
+				'Mini-ITX form factor addendum to the microATX specification (2001): 170 × 170 mm; 1.6 mm thickness is common practice'
+		}),
+		solidPart('std-sfx', 'SFX power supply', 'psu', [125, 63.5, 100], {
+			specs: { psuFormFactor: 'SFX' },
+			source: 'SFX12V Power Supply Design Guide: 125 W × 63.5 H × 100 D mm'
+		}),
+		solidPart('std-sfx-l', 'SFX-L power supply', 'psu', [125, 63.5, 130], {
+			specs: { psuFormFactor: 'SFX-L' },
+			source: 'Common practice: a longer SFX body, 125 × 63.5 × 130 mm (not in the SFX12V design guide)'
+		}),
+		solidPart('std-atx-psu', 'ATX power supply', 'psu', [150, 86, 140], {
+			specs: { psuFormFactor: 'ATX' },
+			source: "ATX12V Power Supply Design Guide: 150 W × 86 H × 140 D mm (the guide's nominal depth)"
+		}),
+		fan(120, 25),
+		fan(120, 15),
+		fan(140, 25),
+		fan(140, 15)
+	];
+}
+
+export function standardPart(id: string): PartDef {
+	const part = standardParts().find((p) => p.id === id);
+	if (!part) throw new Error(`No standard part ${id}`);
+	return part;
+}
+
+/**
+ * Divider offsets of the demo's spine, named by the slots they leave on the card side: the card
+ * side is n × 20.32 mm (PCI Express CEM spec slot pitch) plus 1.04 mm of slack, inside 150 mm of
+ * width with a 2 mm spine.
+ */
+export const DEMO_SPINE_OFFSETS = { '4 slots': 65.68, '3 slots': 86, '2 slots': 106.32 } as const;
+
+/**
+ * An invented compact sandwich enclosure, 154 × 344 × 244 mm outside, 2 mm panels (the front one
+ * mesh), 150 × 340 × 240 mm (about 12.2 L) inside: a 64 mm radiator bay behind the front panel, a
+ * fixed bulkhead, then a spine that moves between three slot positions, the board and power supply
+ * on its left (CPU side), the card on its right standing on a sliding support bar.
+ */
+export function demoEnclosure(): EnclosureDef {
+	const panel = { thicknessMm: 2, kind: 'solid' as const, offsetMm: 0 };
+	return {
+		name: 'Demo sandwich enclosure',
+		outerMm: [154, 344, 244],
+		walls: {
+			left: { ...panel },
+			right: { ...panel },
+			bottom: { ...panel },
+			top: { ...panel },
+			front: { ...panel, kind: 'mesh' },
+			back: { ...panel }
+		},
+		dividers: [
+			{
+				id: 'bulkhead',
+				label: 'Bulkhead',
+				axis: 'z',
+				thicknessMm: 2,
+				positions: { kind: 'list', options: [{ label: 'fixed', offsetMm: 64 }] },
+				sides: { low: 'radiator bay', high: '' }
+			},
+			{
+				id: 'spine',
+				label: 'Spine',
+				axis: 'x',
+				thicknessMm: 2,
+				positions: {
+					kind: 'list',
+					options: Object.entries(DEMO_SPINE_OFFSETS).map(([label, offsetMm]) => ({ label, offsetMm }))
+				},
+				span: { z: { minMm: 66, maxMm: 240 } },
+				sides: { low: 'CPU side', high: 'card side' }
+			}
+		],
+		brackets: [
+			{
+				id: 'bar',
+				label: 'Card support bar',
+				kind: 'card-support',
+				box: box([108.32, 0, 150], [150, 10, 200]),
+				axis: 'y',
+				travel: { minMm: 0, maxMm: 150, stepMm: 10 }
+			}
+		],
+		mounts: [
+			{
+				id: 'radiator',
+				label: 'Front radiator mount',
+				kind: 'radiator',
+				face: 'front',
+				region: box([0, 0, 0], [150, 340, 64]),
+				accepts: ['240', '280'],
+				budgetMm: 64,
+				plateMm: 1,
+				plateFor: ['240'],
+				standoffMm: 0,
+				slotPitchMm: SLOT_PITCH_MM
+			},
+			{
+				id: 'tray',
+				label: 'Board tray',
+				kind: 'board-tray',
+				face: 'left',
+				region: box([0, 150, 68], [40, 320, 238]),
+				accepts: ['Mini-ITX'],
+				standoffMm: 6,
+				slotPitchMm: SLOT_PITCH_MM
+			},
+			{
+				id: 'psu',
+				label: 'SFX bay',
+				kind: 'psu-bay',
+				face: 'left',
+				region: box([0, 0, 70], [63.5, 125, 170]),
+				accepts: ['SFX'],
+				standoffMm: 0,
+				slotPitchMm: SLOT_PITCH_MM
+			}
+		]
+	};
+}
+
+/** Invented generic parts for the demo; sizes are plausible, not any product's. */
+export function demoParts(): PartDef[] {
+	return [
+		standardPart('std-mini-itx'),
+		standardPart('std-fan-140-25'),
+		solidPart('demo-psu', 'SFX supply, 600 W', 'psu', [125, 63.5, 100], {
+			specs: { psuFormFactor: 'SFX', psuRatingW: 600 },
+			provenance: 'estimate'
+		}),
+		{
+			...solidPart('demo-cpu-block', 'Compact CPU block, 26 mm tall', 'cpu-block', [60, 26, 60]),
+			keepouts: [
+				{ id: 'fittings', label: 'fittings', kind: 'fitting', severity: 'error', box: box([5, 26, 10], [55, 56, 50]) }
+			],
+			ports: [
+				{ id: 'in', position: [20, 26, 30], direction: '+y', thread: 'G 1/4' },
+				{ id: 'out', position: [40, 26, 30], direction: '+y', thread: 'G 1/4' }
+			],
+			/** Heat and draw of the processor it cools. */
+			specs: { heatW: 65, powerDrawW: 65 },
+			provenance: 'estimate',
+			toleranceMm: 0.5
+		},
+		{
+			...solidPart('demo-card', 'Compact graphics card, two slots, 185 mm', 'gpu', [185, 120, 2 * SLOT_PITCH_MM]),
+			keepouts: [
+				{ id: 'power', label: 'power cable bend', kind: 'cable', severity: 'error', box: box([185, 80, 0], [215, 120, 2 * SLOT_PITCH_MM]) }
+			],
+			specs: { heatW: 160, powerDrawW: 170, cardLengthMm: 185, cardSlots: 2 },
+			provenance: 'estimate',
+			toleranceMm: 1
+		},
+		{
+			...solidPart('demo-pump-res', 'Compact pump-reservoir, 58 mm thick', 'pump-reservoir', [58, 100, 80]),
+			keepouts: [
+				{ id: 'fittings', label: 'fittings', kind: 'fitting', severity: 'error', box: box([9, 100, 20], [49, 110, 60]) }
+			],
+			ports: [
+				{ id: 'in', position: [19, 100, 40], direction: '+y', thread: 'G 1/4' },
+				{ id: 'out', position: [39, 100, 40], direction: '+y', thread: 'G 1/4' }
+			],
+			specs: { powerDrawW: 18 },
+			provenance: 'estimate',
+			toleranceMm: 0.5
+		},
+		{
+			...solidPart('demo-radiator-280', 'Slim 280 radiator, 30 mm', 'radiator', [143, 315, 30]),
+			keepouts: [
+				{ id: 'fittings', label: 'fittings', kind: 'fitting', severity: 'error', box: box([25, 315, 0], [115, 325, 30]) }
+			],
+			specs: { radiatorClass: 280, radiatorThicknessMm: 30 },
+			provenance: 'estimate',
+			toleranceMm: 0.5
+		}
+	];
+}
+
+/** Everything fits at the default positions; with the spine at '2 slots' the card collides. */
+export function demoSceneInput(): SceneInput {
+	return {
+		format: 'interstice.scene',
+		version: 1,
+		enclosure: demoEnclosure(),
+		parts: demoParts(),
+		dividerPositions: { bulkhead: 64, spine: DEMO_SPINE_OFFSETS['3 slots'] },
+		bracketOffsets: { bar: 0 },
+		placements: [
+			{ id: 'board', partId: 'std-mini-itx', position: [6, 150, 68], rotation: { x: 0, y: 0, z: 1 }, mountId: 'tray' },
+			{ id: 'cpu-block', partId: 'demo-cpu-block', position: [6 + BOARD_THICKNESS_MM, 205, 123], rotation: { x: 0, y: 0, z: 3 }, mountId: 'tray' },
+			{ id: 'psu', partId: 'demo-psu', position: [0, 0, 70], rotation: { x: 0, y: 0, z: 1 }, mountId: 'psu' },
+			{ id: 'card', partId: 'demo-card', position: [107.36, 10, 100], rotation: { x: 1, y: 0, z: 1 } },
+			{ id: 'pump-res', partId: 'demo-pump-res', position: [90, 227, 110], rotation: { x: 0, y: 0, z: 0 } },
+			{ id: 'radiator', partId: 'demo-radiator-280', position: [3.5, 12.5, 0], rotation: { x: 0, y: 0, z: 0 }, mountId: 'radiator' },
+			{ id: 'fan-1', partId: 'std-fan-140-25', position: [5, 30, 30], rotation: { x: 0, y: 0, z: 0 }, mountId: 'radiator' },
+			{ id: 'fan-2', partId: 'std-fan-140-25', position: [5, 170, 30], rotation: { x: 0, y: 0, z: 0 }, mountId: 'radiator' }
+		],
+		marginMm: 2,
+		budgets: { wattsPer120mm: 100, psuHeadroomPct: 30 }
+	};
+}
+
+export function demoScene(): Scene {
+	return sceneSchema.parse(demoSceneInput());
+}

@@ -1,0 +1,342 @@
+/**
+ * The shared core of the fit report and of sweeps. A scene's world boxes are tallied in two parts:
+ * a static part (every box that does not move) computed once, and the boxes of the controls a sweep
+ * moves, added per position. checkScene is the case with nothing moving, so a sweep step and a full
+ * report cannot disagree.
+ */
+
+import { EPSILON_MM, compareText, faceOf, type Face } from './box';
+import { overlappingPairsFlat } from './broadphase';
+import { FACE_AXES } from './enclosure';
+import { isObstacle, pairKind } from './pairs';
+import type { Box, Scene } from './schema';
+import type { FitStatus, OverlapKind, ResolvedScene, StatusCounts, WorldBox } from './types';
+
+export interface Model {
+	scene: Scene;
+	resolved: ResolvedScene;
+	/** Walls, dividers, brackets, then each placement's bodies and keep-outs (placements by id). */
+	boxes: WorldBox[];
+	/** Six numbers a box, same order as `boxes`. */
+	flat: Float64Array;
+	/** Placement index per box, -1 for walls, dividers and brackets. */
+	owner: Int32Array;
+	obstacle: Uint8Array;
+	/** Box indexes of each placement's bodies. */
+	bodiesOf: number[][];
+	/** Faces of the inner box each placement's bodies cross; does not depend on controls. */
+	outsideFaces: Face[][];
+	/** Per placement: the face index (see FACE_INDEX) that points at its mount's panel, or -1. */
+	mountFace: Int8Array;
+	/** Per placement: its mount id, for telling stack contact from a tight gap. */
+	mountOf: (string | undefined)[];
+	/** Box index by id: controls move, their ids do not. */
+	indexOf: Map<string, number>;
+}
+
+/** Face slots in gap arrays: '-x', '+x', '-y', '+y', '-z', '+z'. */
+export const FACE_ORDER: readonly Face[] = ['-x', '+x', '-y', '+y', '-z', '+z'];
+
+export function buildModel(scene: Scene, resolved: ResolvedScene): Model {
+	const boxes: WorldBox[] = [...resolved.walls, ...resolved.dividers, ...resolved.brackets];
+	const owners: number[] = boxes.map(() => -1);
+	const bodiesOf: number[][] = [];
+	const mounts = new Map(scene.enclosure.mounts.map((m) => [m.id, m]));
+	const mountFace = new Int8Array(resolved.placements.length).fill(-1);
+	const mountOf: (string | undefined)[] = [];
+	const outsideFaces: Face[][] = [];
+	resolved.placements.forEach((rp, p) => {
+		bodiesOf.push(rp.bodies.map((_, k) => boxes.length + k));
+		for (const b of [...rp.bodies, ...rp.keepouts]) {
+			boxes.push(b);
+			owners.push(p);
+		}
+		outsideFaces.push(facesOutside(resolved.innerBox, rp.bodies));
+		const mount = rp.placement.mountId === undefined ? undefined : mounts.get(rp.placement.mountId);
+		mountOf.push(mount?.id);
+		if (mount) {
+			const { axis, high } = FACE_AXES[mount.face];
+			mountFace[p] = 2 * axis + (high ? 1 : 0);
+		}
+	});
+	const owner = Int32Array.from(owners);
+	const flat = new Float64Array(boxes.length * 6);
+	const obstacle = new Uint8Array(boxes.length);
+	boxes.forEach((b, i) => {
+		writeFlat(flat, i, b.box);
+		obstacle[i] = isObstacle(b) ? 1 : 0;
+	});
+	const indexOf = new Map(boxes.map((b, i) => [b.id, i]));
+	return { scene, resolved, boxes, flat, owner, obstacle, bodiesOf, outsideFaces, mountFace, mountOf, indexOf };
+}
+
+export function writeFlat(flat: Float64Array, i: number, box: Box): void {
+	const o = i * 6;
+	flat[o] = box.min[0];
+	flat[o + 1] = box.min[1];
+	flat[o + 2] = box.min[2];
+	flat[o + 3] = box.max[0];
+	flat[o + 4] = box.max[1];
+	flat[o + 5] = box.max[2];
+}
+
+function facesOutside(inner: Box, bodies: readonly WorldBox[]): Face[] {
+	const out = new Set<Face>();
+	for (const b of bodies) {
+		for (let a = 0; a < 3; a++) {
+			if (b.box.min[a] < inner.min[a] - EPSILON_MM) {
+				out.add(faceOf(a as 0 | 1 | 2, -1));
+			}
+			if (b.box.max[a] > inner.max[a] + EPSILON_MM) {
+				out.add(faceOf(a as 0 | 1 | 2, 1));
+			}
+		}
+	}
+	return FACE_ORDER.filter((f) => out.has(f));
+}
+
+/** What overlaps and gaps add up to, per placement. */
+export interface Tally {
+	collides: Uint8Array;
+	blocked: Uint8Array;
+	/** Per placement × FACE_ORDER: nearest gap (mm, +Infinity when nothing is ahead) and its box. */
+	gap: Float64Array;
+	against: Int32Array;
+	interferenceMm3: number;
+	keepoutMm3: number;
+	collisions: number;
+}
+
+export function emptyTally(placements: number): Tally {
+	return {
+		collides: new Uint8Array(placements),
+		blocked: new Uint8Array(placements),
+		gap: new Float64Array(placements * 6).fill(Infinity),
+		against: new Int32Array(placements * 6).fill(-1),
+		interferenceMm3: 0,
+		keepoutMm3: 0,
+		collisions: 0
+	};
+}
+
+export function copyTally(t: Tally): Tally {
+	return {
+		collides: t.collides.slice(),
+		blocked: t.blocked.slice(),
+		gap: t.gap.slice(),
+		against: t.against.slice(),
+		interferenceMm3: t.interferenceMm3,
+		keepoutMm3: t.keepoutMm3,
+		collisions: t.collisions
+	};
+}
+
+/** Overlap volume of boxes i (in fa) and j (in fb), or 0 when they only touch or are apart. */
+function overlapVolume(fa: Float64Array, i: number, fb: Float64Array, j: number): number {
+	const a = i * 6;
+	const b = j * 6;
+	const x = Math.min(fa[a + 3], fb[b + 3]) - Math.max(fa[a], fb[b]);
+	if (!(x > EPSILON_MM)) return 0;
+	const y = Math.min(fa[a + 4], fb[b + 4]) - Math.max(fa[a + 1], fb[b + 1]);
+	if (!(y > EPSILON_MM)) return 0;
+	const z = Math.min(fa[a + 5], fb[b + 5]) - Math.max(fa[a + 2], fb[b + 2]);
+	if (!(z > EPSILON_MM)) return 0;
+	return x * y * z;
+}
+
+function addPair(model: Model, tally: Tally, i: number, j: number, kind: OverlapKind, volume: number): void {
+	const pi = model.owner[i];
+	const pj = model.owner[j];
+	if (kind === 'collides') {
+		tally.collisions++;
+		tally.interferenceMm3 += volume;
+		if (pi >= 0) tally.collides[pi] = 1;
+		if (pj >= 0) tally.collides[pj] = 1;
+		return;
+	}
+	tally.keepoutMm3 += volume;
+	if (kind === 'blocked') {
+		if (pi >= 0) tally.blocked[pi] = 1;
+		if (pj >= 0) tally.blocked[pj] = 1;
+	}
+}
+
+/**
+ * Nearest box ahead of each face of body `bi` (of placement p): a box is ahead on +a when it
+ * shares area with the body seen along a and its centre is not behind the body's. Ties go to
+ * the smaller id, so the answer does not depend on the order boxes are visited.
+ */
+function addGap(
+	model: Model,
+	tally: Tally,
+	p: number,
+	fb: Float64Array,
+	bi: number,
+	fo: Float64Array,
+	oi: number,
+	obstacleIndex: number
+): void {
+	const b = bi * 6;
+	const o = oi * 6;
+	const ox = Math.min(fb[b + 3], fo[o + 3]) - Math.max(fb[b], fo[o]);
+	const oy = Math.min(fb[b + 4], fo[o + 4]) - Math.max(fb[b + 1], fo[o + 1]);
+	const oz = Math.min(fb[b + 5], fo[o + 5]) - Math.max(fb[b + 2], fo[o + 2]);
+	for (let a = 0; a < 3; a++) {
+		const u = a === 0 ? oy : ox;
+		const v = a === 2 ? oy : oz;
+		if (!(u > EPSILON_MM && v > EPSILON_MM)) {
+			continue;
+		}
+		const bodyCentre = fb[b + a] + fb[b + 3 + a];
+		const obstacleCentre = fo[o + a] + fo[o + 3 + a];
+		if (obstacleCentre >= bodyCentre) {
+			offerGap(model, tally, p * 6 + 2 * a + 1, fo[o + a] - fb[b + 3 + a], obstacleIndex);
+		}
+		if (obstacleCentre <= bodyCentre) {
+			offerGap(model, tally, p * 6 + 2 * a, fb[b + a] - fo[o + 3 + a], obstacleIndex);
+		}
+	}
+}
+
+function offerGap(model: Model, tally: Tally, slot: number, gap: number, obstacleIndex: number): void {
+	const current = tally.gap[slot];
+	if (
+		gap < current ||
+		(gap === current &&
+			compareText(model.boxes[obstacleIndex].id, model.boxes[tally.against[slot]].id) < 0)
+	) {
+		tally.gap[slot] = gap;
+		tally.against[slot] = obstacleIndex;
+	}
+}
+
+export interface FoundPair {
+	i: number;
+	j: number;
+	kind: OverlapKind;
+	volumeMm3: number;
+}
+
+/**
+ * Tallies every box with `included[i]` set (all when null) against the others. Returns the
+ * meaningful overlapping pairs too, for the report.
+ */
+export function tallyStatic(model: Model, included: Uint8Array | null): { tally: Tally; pairs: FoundPair[] } {
+	const tally = emptyTally(model.bodiesOf.length);
+	const ids: number[] = [];
+	for (let i = 0; i < model.boxes.length; i++) {
+		if (!included || included[i]) ids.push(i);
+	}
+	const sub = new Float64Array(ids.length * 6);
+	ids.forEach((id, k) => sub.set(model.flat.subarray(id * 6, id * 6 + 6), k * 6));
+	const found = overlappingPairsFlat(sub, ids.length);
+	const pairs: FoundPair[] = [];
+	for (let k = 0; k < found.count; k++) {
+		const i = ids[found.pairs[2 * k]];
+		const j = ids[found.pairs[2 * k + 1]];
+		const kind = pairKind(model.boxes[i], model.boxes[j]);
+		if (!kind) continue;
+		const volumeMm3 = overlapVolume(model.flat, i, model.flat, j);
+		addPair(model, tally, i, j, kind, volumeMm3);
+		pairs.push({ i: Math.min(i, j), j: Math.max(i, j), kind, volumeMm3 });
+	}
+	const obstacles = ids.filter((i) => model.obstacle[i]);
+	model.bodiesOf.forEach((bodies, p) => {
+		for (const bi of bodies) {
+			if (included && !included[bi]) continue;
+			for (const oi of obstacles) {
+				if (model.owner[oi] !== p) {
+					addGap(model, tally, p, model.flat, bi, model.flat, oi, oi);
+				}
+			}
+		}
+	});
+	return { tally, pairs };
+}
+
+/**
+ * Adds moved control boxes to a copy of a static tally: `moving[k]` is the box index of a divider
+ * or bracket, its geometry for this step in `movingFlat` at k. `included` is the static set.
+ */
+export function tallyMoving(
+	model: Model,
+	base: Tally,
+	included: Uint8Array,
+	moving: readonly number[],
+	movingFlat: Float64Array
+): Tally {
+	const tally = copyTally(base);
+	const n = model.boxes.length;
+	for (let k = 0; k < moving.length; k++) {
+		const mi = moving[k];
+		const mBox = model.boxes[mi];
+		for (let i = 0; i < n; i++) {
+			if (!included[i]) continue;
+			const volume = overlapVolume(movingFlat, k, model.flat, i);
+			if (volume > 0) {
+				const kind = pairKind(mBox, model.boxes[i]);
+				if (kind) addPair(model, tally, mi, i, kind, volume);
+			}
+		}
+		for (let l = k + 1; l < moving.length; l++) {
+			const volume = overlapVolume(movingFlat, k, movingFlat, l);
+			const kind = volume > 0 ? pairKind(mBox, model.boxes[moving[l]]) : null;
+			if (kind) addPair(model, tally, mi, moving[l], kind, volume);
+		}
+		model.bodiesOf.forEach((bodies, p) => {
+			for (const bi of bodies) {
+				addGap(model, tally, p, model.flat, bi, movingFlat, k, mi);
+			}
+		});
+	}
+	return tally;
+}
+
+/**
+ * Contact where a part is held does not make it tight: resting on what is below it (−y), and for
+ * a mounted part its mount's panel (on the face toward it) and the other parts on the same mount
+ * (fans butted together on a radiator, a block on its board).
+ */
+export function isHeldContact(model: Model, p: number, face: number, gap: number, against: number): boolean {
+	if (!(Math.abs(gap) <= EPSILON_MM) || against < 0) {
+		return false;
+	}
+	if (face === 2) {
+		return true;
+	}
+	const mountFace = model.mountFace[p];
+	if (mountFace < 0) {
+		return false;
+	}
+	const box = model.boxes[against];
+	if (box.kind === 'wall') {
+		const wallFace = FACE_AXES[box.face!];
+		return face === mountFace && 2 * wallFace.axis + (wallFace.high ? 1 : 0) === mountFace;
+	}
+	const other = model.owner[against];
+	return other >= 0 && model.mountOf[other] === model.mountOf[p];
+}
+
+export function placementStatus(model: Model, tally: Tally, p: number, marginMm: number): FitStatus {
+	if (tally.collides[p]) return 'collides';
+	if (tally.blocked[p]) return 'blocked';
+	if (model.outsideFaces[p].length > 0) return 'outside';
+	for (let f = 0; f < 6; f++) {
+		const gap = tally.gap[p * 6 + f];
+		if (gap < marginMm - EPSILON_MM && !isHeldContact(model, p, f, gap, tally.against[p * 6 + f])) {
+			return 'tight';
+		}
+	}
+	return 'clear';
+}
+
+export function emptyCounts(): StatusCounts {
+	return { collides: 0, blocked: 0, outside: 0, tight: 0, clear: 0 };
+}
+
+export function statusCounts(model: Model, tally: Tally, marginMm: number): { statuses: FitStatus[]; counts: StatusCounts } {
+	const counts = emptyCounts();
+	const statuses = model.bodiesOf.map((_, p) => placementStatus(model, tally, p, marginMm));
+	for (const s of statuses) counts[s]++;
+	return { statuses, counts };
+}
