@@ -1,0 +1,211 @@
+/**
+ * Where a part lands when the builder adds it, and the small moves the editor makes. Pure: the
+ * browser and tests call it alike. Millimetres, Y up, inner-origin coordinates.
+ */
+import {
+	EPSILON_MM,
+	allowedPositions,
+	boundsOf,
+	boxSize,
+	mountAccepts,
+	placePart,
+	rotateBox,
+	rotationMap,
+	type AxisIndex,
+	type BracketDef,
+	type Box,
+	type DividerDef,
+	type FaceName,
+	type MountDef,
+	type PartDef,
+	type Placement,
+	type ResolvedScene,
+	type Rotation,
+	type Vec3
+} from '$lib/geometry';
+
+const FACE_AXIS: Record<FaceName, { axis: AxisIndex; high: boolean }> = {
+	left: { axis: 0, high: false },
+	right: { axis: 0, high: true },
+	bottom: { axis: 1, high: false },
+	top: { axis: 1, high: true },
+	front: { axis: 2, high: false },
+	back: { axis: 2, high: true }
+};
+
+/** The 24 quarter-turn orientations, fewest turns first, so the simplest one wins a tie. */
+const ORIENTATIONS: Rotation[] = (() => {
+	const seen = new Set<string>();
+	const out: Rotation[] = [];
+	const all: Rotation[] = [];
+	for (let x = 0; x < 4; x++) for (let y = 0; y < 4; y++) for (let z = 0; z < 4; z++) all.push({ x, y, z });
+	all.sort((a, b) => a.x + a.y + a.z - (b.x + b.y + b.z));
+	for (const r of all) {
+		const m = rotationMap(r);
+		const key = `${m.from.join()}|${m.sign.join()}`;
+		if (!seen.has(key)) {
+			seen.add(key);
+			out.push(r);
+		}
+	}
+	return out;
+})();
+
+function turnedSize(part: PartDef, rotation: Rotation): Vec3 {
+	const map = rotationMap(rotation);
+	return boxSize(boundsOf(part.bodies.map((b) => rotateBox(map, b.box))));
+}
+
+function overlaps(a: Box, b: Box): boolean {
+	for (let i = 0; i < 3; i++) {
+		if (a.max[i] - b.min[i] <= EPSILON_MM || b.max[i] - a.min[i] <= EPSILON_MM) return false;
+	}
+	return true;
+}
+
+function inside(inner: Box, b: Box): boolean {
+	for (let i = 0; i < 3; i++) {
+		if (b.min[i] < inner.min[i] - EPSILON_MM || b.max[i] > inner.max[i] + EPSILON_MM) return false;
+	}
+	return true;
+}
+
+function boxAt(position: Vec3, size: Vec3): Box {
+	return { min: [...position], max: [position[0] + size[0], position[1] + size[1], position[2] + size[2]] };
+}
+
+/** Boxes a new part must not overlap: walls, dividers, brackets and every placed body. */
+function obstacles(resolved: ResolvedScene, ignore?: string): Box[] {
+	return [
+		...resolved.dividers.map((d) => d.box),
+		...resolved.brackets.map((b) => b.box),
+		...resolved.placements.filter((p) => p.placement.id !== ignore).flatMap((p) => p.bodies.map((b) => b.box))
+	];
+}
+
+/**
+ * The lowest, front-most, left-most spot in `room` where a box of `size` overlaps nothing.
+ * Candidates are the room's corner and the far faces of every obstacle (the corner-point method),
+ * so the search is exact without a grid. Null when nothing fits.
+ */
+export function freeSpot(room: Box, size: Vec3, blocked: Box[]): Vec3 | null {
+	const coords = [0, 1, 2].map((a) => {
+		const values = new Set<number>([room.min[a]]);
+		for (const b of blocked) if (b.max[a] >= room.min[a] && b.max[a] + size[a] <= room.max[a] + EPSILON_MM) values.add(b.max[a]);
+		return [...values].sort((p, q) => p - q);
+	});
+	const near = blocked.filter((b) => overlaps(b, room));
+	for (const y of coords[1]) {
+		for (const z of coords[2]) {
+			for (const x of coords[0]) {
+				const candidate = boxAt([x, y, z], size);
+				if (!inside(room, candidate)) continue;
+				if (!near.some((b) => overlaps(b, candidate))) return [x, y, z];
+			}
+		}
+	}
+	return null;
+}
+
+/** The orientation that lays the part's thinnest side along `axis` (a radiator flat on its panel). */
+export function flatAlong(part: PartDef, axis: AxisIndex): Rotation {
+	let best = ORIENTATIONS[0];
+	let bestThickness = Infinity;
+	for (const r of ORIENTATIONS) {
+		const t = turnedSize(part, r)[axis];
+		if (t < bestThickness - EPSILON_MM) {
+			best = r;
+			bestThickness = t;
+		}
+	}
+	return best;
+}
+
+export type LandingError = { reason: string };
+
+/**
+ * Where a part goes on a mount: thinnest side along the mount's normal, against its panel (past
+ * the adapter plate and the standoffs), or on top of the stack already there; side by side with
+ * parts in the same layer (two fans on a 240).
+ */
+export function landOnMount(resolved: ResolvedScene, mount: MountDef, part: PartDef): { position: Vec3; rotation: Rotation } | LandingError {
+	if (!mountAccepts(mount, part)) return { reason: `${mount.label} does not take this part (it takes ${mount.accepts.join(', ') || 'anything'}).` };
+	const { axis, high } = FACE_AXIS[mount.face];
+	const rotation = mount.kind === 'psu-bay' ? { x: 0, y: 0, z: 0 } : flatAlong(part, axis);
+	const size = turnedSize(part, rotation);
+	const inner = resolved.innerBox;
+	const mounted = resolved.placements.filter((p) => p.placement.mountId === mount.id);
+	const plate = mount.plateMm ?? 0;
+	// Depth from the panel inward already used by the stack.
+	let used = plate + mount.standoffMm;
+	const layers = mounted.map((p) => (high ? inner.max[axis] - p.bounds.min[axis] : p.bounds.max[axis] - inner.min[axis]));
+	const region = mount.region;
+	const tryLayer = (depth: number) => {
+		const room: Box = { min: [...region.min], max: [...region.max] };
+		room.min[axis] = high ? inner.max[axis] - depth - size[axis] : inner.min[axis] + depth;
+		room.max[axis] = room.min[axis] + size[axis];
+		const blocked = mounted.map((p) => p.bounds);
+		return freeSpot(room, size, blocked);
+	};
+	if (mounted.length > 0) {
+		const outer = Math.max(...layers);
+		const outerLayer = mounted.filter((_p, i) => Math.abs(layers[i] - outer) <= EPSILON_MM);
+		// A fan joins the outermost layer when that layer holds fans and has room beside them.
+		const sameKind = outerLayer.every((p) => p.part.category === part.category);
+		if (sameKind) {
+			const layerDepth = Math.min(...outerLayer.map((p) => (high ? inner.max[axis] - p.bounds.max[axis] : p.bounds.min[axis] - inner.min[axis])));
+			const spot = tryLayer(layerDepth);
+			if (spot) return { position: spot, rotation };
+		}
+		used = outer;
+	}
+	const spot = tryLayer(used);
+	if (spot) return { position: spot, rotation };
+	const fallback: Vec3 = [region.min[0], region.min[1], region.min[2]];
+	fallback[axis] = high ? inner.max[axis] - used - size[axis] : inner.min[axis] + used;
+	return { position: fallback, rotation };
+}
+
+/** A free spot for a part in a compartment (or anywhere inside), upright as defined. */
+export function landInRoom(resolved: ResolvedScene, room: Box, part: PartDef): { position: Vec3; rotation: Rotation } {
+	const rotation = { x: 0, y: 0, z: 0 };
+	const size = turnedSize(part, rotation);
+	const spot = freeSpot(room, size, obstacles(resolved));
+	return { position: spot ?? [...room.min], rotation };
+}
+
+/** A placement id not yet used in the scene: `p1`, `p2`, … */
+export function nextPlacementId(placements: readonly Placement[]): string {
+	const used = new Set(placements.map((p) => p.id));
+	let n = placements.length + 1;
+	while (used.has(`p${n}`)) n++;
+	return `p${n}`;
+}
+
+/** The nearest allowed position to a free value (for dragging), in the definition's order. */
+export function snapToAllowed(def: DividerDef | BracketDef, offsetMm: number): { index: number; offsetMm: number; label: string } {
+	const options = allowedPositions(def);
+	let index = 0;
+	for (let i = 1; i < options.length; i++) {
+		if (Math.abs(options[i].offsetMm - offsetMm) < Math.abs(options[index].offsetMm - offsetMm)) index = i;
+	}
+	return { index, ...options[index] };
+}
+
+/** The allowed position `delta` steps away in offset order, held at the ends. */
+export function stepAllowed(def: DividerDef | BracketDef, offsetMm: number, delta: number): number {
+	const sorted = allowedPositions(def).map((p) => p.offsetMm).sort((a, b) => a - b);
+	let i = 0;
+	for (let k = 1; k < sorted.length; k++) if (Math.abs(sorted[k] - offsetMm) < Math.abs(sorted[i] - offsetMm)) i = k;
+	return sorted[Math.max(0, Math.min(sorted.length - 1, i + delta))];
+}
+
+/** One more quarter turn about an axis, keeping the part's min corner where it was. */
+export function turnQuarter(rotation: Rotation, axis: 'x' | 'y' | 'z'): Rotation {
+	return { ...rotation, [axis]: (rotation[axis] + 1) % 4 };
+}
+
+/** A placement's world bounds, as the engine resolves them. */
+export function placedBounds(part: PartDef, placement: Placement): Box {
+	return placePart(part, placement).bounds;
+}

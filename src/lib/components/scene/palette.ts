@@ -1,0 +1,25 @@
+/**
+ * Interstice's colours for 3D and 2D drawings (DESIGN.md "Look and words"). A status is never
+ * colour alone: each also has a surface pattern and a word.
+ */
+import type { FitStatus, WorldBoxKind } from '$lib/geometry';
+
+export const STATUS_STYLE: Record<FitStatus, { color: string; edge: string; pattern: 'plain' | 'hatch' | 'dots' | 'solid' | 'dashed'; word: string }> = {
+	clear: { color: '#2e9d83', edge: '#5cc9ad', pattern: 'plain', word: 'clear' },
+	tight: { color: '#e0a526', edge: '#f3c65e', pattern: 'hatch', word: 'tight' },
+	blocked: { color: '#8b5fd1', edge: '#b495ea', pattern: 'dots', word: 'blocked' },
+	collides: { color: '#e4502c', edge: '#ff9a7a', pattern: 'solid', word: 'collides' },
+	outside: { color: '#8d939b', edge: '#c3c8ce', pattern: 'dashed', word: 'outside' }
+};
+
+/** Structure: walls, dividers and brackets in the graphite ground, the divider in brass. */
+export const STRUCTURE_STYLE: Record<Exclude<WorldBoxKind, 'body' | 'keepout'>, { color: string; opacity: number }> = {
+	wall: { color: '#5c6778', opacity: 0.18 },
+	divider: { color: '#c1964a', opacity: 0.85 },
+	bracket: { color: '#aab3c0', opacity: 0.9 }
+};
+
+export const KEEPOUT_STYLE = { color: '#d5dae1', opacity: 0.1 };
+export const INTERFERENCE_COLOR = '#ff5a36';
+export const GROUND = '#12161c';
+export const ACCENT = '#c1964a';
