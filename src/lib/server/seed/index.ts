@@ -1,6 +1,8 @@
 import { seedAccounts } from './accounts';
+import { seedCatalog } from './catalog';
 
 /** Seeds the demo; safe to run on every start. Each area adds its own step here. */
 export async function seedDemo() {
 	await seedAccounts();
+	await seedCatalog();
 }

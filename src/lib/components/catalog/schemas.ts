@@ -1,0 +1,265 @@
+/**
+ * Validation for catalogue writes, shared by forms (client and server), the JSON API and CSV
+ * import. Geometry is always checked with the fit engine's own schemas, so a stored enclosure or
+ * part is one the engine can resolve.
+ */
+import { z } from 'zod';
+import {
+	COORD_LIMIT_MM,
+	enclosureDefSchema,
+	faceNameSchema,
+	formatZodIssues,
+	partDefSchema,
+	type EnclosureDef,
+	type FaceName,
+	type FieldIssue,
+	type PartDef
+} from '$lib/geometry';
+
+export const FACES = faceNameSchema.options;
+
+/** Money, notes and provenance: what a quote needs beyond the engine's PartDef. */
+export const partExtrasSchema = z.object({
+	priceMinor: z
+		.number({ error: 'Price must be a number' })
+		.int('Price must be whole cents')
+		.min(0, 'Price must not be negative')
+		.max(1_000_000_000, 'Price is too large')
+		.nullable()
+		.default(null),
+	currency: z
+		.string()
+		.regex(/^[A-Z]{3}$/, 'Currency must be a three-letter code such as EUR')
+		.default('EUR'),
+	supplierNote: z.string().max(1000, 'Supplier note can be at most 1000 characters').default('')
+});
+export type PartExtras = z.infer<typeof partExtrasSchema>;
+
+export type PartInput = Omit<PartDef, 'id'> & PartExtras;
+
+/** Every problem with a part, with paths as the engine names them (`bodies[0].box.max[2]`). */
+export type PartCheck =
+	| { ok: true; def: PartDef; extras: PartExtras }
+	| { ok: false; issues: FieldIssue[] };
+
+/**
+ * Checks a part as the API and CSV import send it. `standard` provenance is kept for the
+ * read-only library; a studio's own part is from a datasheet, measured, or an estimate.
+ */
+export function checkPart(raw: unknown, id: string, allowStandard = false): PartCheck {
+	const input = (raw && typeof raw === 'object' ? raw : {}) as Record<string, unknown>;
+	const def = partDefSchema.safeParse({ ...input, id });
+	const extras = partExtrasSchema.safeParse({
+		priceMinor: input.priceMinor ?? null,
+		currency: input.currency ?? 'EUR',
+		supplierNote: input.supplierNote ?? ''
+	});
+	const issues: FieldIssue[] = [];
+	if (!def.success) {
+		issues.push(...formatZodIssues(def.error));
+	}
+	if (!extras.success) {
+		issues.push(...formatZodIssues(extras.error));
+	}
+	if (def.success && def.data.provenance === 'standard' && !allowStandard) {
+		issues.push({
+			path: 'provenance',
+			message: 'Provenance must be datasheet, measured or estimate'
+		});
+	}
+	if (!def.success || !extras.success || issues.length) {
+		return { ok: false, issues };
+	}
+	return { ok: true, def: def.data, extras: extras.data };
+}
+
+export type EnclosureCheck = { ok: true; def: EnclosureDef } | { ok: false; issues: FieldIssue[] };
+
+export function checkEnclosure(raw: unknown): EnclosureCheck {
+	const parsed = enclosureDefSchema.safeParse(raw);
+	return parsed.success ? { ok: true, def: parsed.data } : { ok: false, issues: formatZodIssues(parsed.error) };
+}
+
+/* ---------- forms (flat fields, so the basic ones work without JavaScript) ---------- */
+
+const sizeMm = (label: string) =>
+	z
+		.number({ error: `${label} must be a number in mm` })
+		.gt(0, `${label} must be greater than 0 mm`)
+		.max(COORD_LIMIT_MM, `${label} must be at most ${COORD_LIMIT_MM} mm (10 m)`);
+const thicknessMm = (label: string) =>
+	z
+		.number({ error: `${label} must be a number in mm` })
+		.min(0, `${label} must not be negative`)
+		.max(COORD_LIMIT_MM, `${label} must be at most ${COORD_LIMIT_MM} mm (10 m)`);
+const offsetMm = (label: string) =>
+	z
+		.number({ error: `${label} must be a number in mm` })
+		.min(-COORD_LIMIT_MM, `${label} must be at least −${COORD_LIMIT_MM} mm`)
+		.max(COORD_LIMIT_MM, `${label} must be at most ${COORD_LIMIT_MM} mm`);
+const wallKind = z.enum(['solid', 'mesh']);
+
+export const enclosureFormSchema = z.object({
+	/** The revision the form was loaded at; 0 for a new enclosure. */
+	revision: z.number().int().min(0).default(0),
+	name: z.string().trim().min(1, 'Name is required').max(200, 'Name can be at most 200 characters'),
+	description: z.string().trim().max(2000, 'Description can be at most 2000 characters').default(''),
+	note: z.string().trim().max(500, 'Note can be at most 500 characters').default(''),
+	outerX: sizeMm('Outer width'),
+	outerY: sizeMm('Outer height'),
+	outerZ: sizeMm('Outer depth'),
+	leftMm: thicknessMm('Left panel'),
+	leftKind: wallKind.default('solid'),
+	leftOffsetMm: offsetMm('Left offset').default(0),
+	rightMm: thicknessMm('Right panel'),
+	rightKind: wallKind.default('solid'),
+	rightOffsetMm: offsetMm('Right offset').default(0),
+	bottomMm: thicknessMm('Bottom panel'),
+	bottomKind: wallKind.default('solid'),
+	bottomOffsetMm: offsetMm('Bottom offset').default(0),
+	topMm: thicknessMm('Top panel'),
+	topKind: wallKind.default('solid'),
+	topOffsetMm: offsetMm('Top offset').default(0),
+	frontMm: thicknessMm('Front panel'),
+	frontKind: wallKind.default('solid'),
+	frontOffsetMm: offsetMm('Front offset').default(0),
+	backMm: thicknessMm('Back panel'),
+	backKind: wallKind.default('solid'),
+	backOffsetMm: offsetMm('Back offset').default(0),
+	/** Dividers, brackets and mounts as JSON: edited by the structured editor, or by hand without JavaScript. */
+	features: z.string().max(400_000, 'Too much to save at once').default('{"dividers":[],"brackets":[],"mounts":[]}')
+});
+export type EnclosureForm = z.infer<typeof enclosureFormSchema>;
+
+type WallKey = `${FaceName}Mm` | `${FaceName}Kind` | `${FaceName}OffsetMm`;
+
+export function enclosureToForm(def: EnclosureDef, extra: { revision: number; description: string }): EnclosureForm {
+	const walls = Object.fromEntries(
+		FACES.flatMap((f) => [
+			[`${f}Mm`, def.walls[f].thicknessMm],
+			[`${f}Kind`, def.walls[f].kind],
+			[`${f}OffsetMm`, def.walls[f].offsetMm]
+		])
+	) as Record<WallKey, never>;
+	return {
+		revision: extra.revision,
+		name: def.name,
+		description: extra.description,
+		note: '',
+		outerX: def.outerMm[0],
+		outerY: def.outerMm[1],
+		outerZ: def.outerMm[2],
+		...walls,
+		features: JSON.stringify({ dividers: def.dividers, brackets: def.brackets, mounts: def.mounts }, null, 2)
+	};
+}
+
+/** Where an engine path lands in the flat form: `outerMm[1]` → outerY, `walls.top.thicknessMm` → topMm. */
+export function formFieldFor(path: string): string {
+	const outer = /^outerMm\[(\d)\]/.exec(path);
+	if (outer) {
+		return ['outerX', 'outerY', 'outerZ'][Number(outer[1])];
+	}
+	const wall = /^walls\.(\w+)\.(thicknessMm|kind|offsetMm)/.exec(path);
+	if (wall) {
+		const suffix = wall[2] === 'thicknessMm' ? 'Mm' : wall[2] === 'kind' ? 'Kind' : 'OffsetMm';
+		return `${wall[1]}${suffix}`;
+	}
+	if (/^(dividers|brackets|mounts)/.test(path)) {
+		return 'features';
+	}
+	return path === 'name' ? 'name' : 'features';
+}
+
+/** The raw definition a form describes; the engine's schema decides whether it is valid. */
+export function formToEnclosure(form: EnclosureForm): { raw: unknown; featuresError?: string } {
+	let features: unknown;
+	try {
+		features = JSON.parse(form.features);
+	} catch {
+		return { raw: null, featuresError: 'Dividers, brackets and mounts are not valid JSON' };
+	}
+	if (!features || typeof features !== 'object' || Array.isArray(features)) {
+		return { raw: null, featuresError: 'Expected an object with dividers, brackets and mounts' };
+	}
+	const f = features as Record<string, unknown>;
+	const walls = Object.fromEntries(
+		FACES.map((face) => [
+			face,
+			{
+				thicknessMm: form[`${face}Mm`],
+				kind: form[`${face}Kind`],
+				offsetMm: form[`${face}OffsetMm`]
+			}
+		])
+	);
+	return {
+		raw: {
+			name: form.name,
+			outerMm: [form.outerX, form.outerY, form.outerZ],
+			walls,
+			dividers: f.dividers ?? [],
+			brackets: f.brackets ?? [],
+			mounts: f.mounts ?? []
+		}
+	};
+}
+
+const optionalNumber = (label: string, max = 100_000) =>
+	z
+		.number({ error: `${label} must be a number` })
+		.min(0, `${label} must not be negative`)
+		.max(max, `${label} is too large`)
+		.optional();
+
+export const partFormSchema = z.object({
+	revision: z.number().int().min(0).default(0),
+	name: z.string().trim().min(1, 'Name is required').max(200, 'Name can be at most 200 characters'),
+	category: z.enum(
+		['board', 'cpu-block', 'gpu', 'pump', 'reservoir', 'pump-reservoir', 'radiator', 'fan', 'psu', 'fitting', 'drive', 'other'],
+		{ error: 'Choose a category from the list' }
+	),
+	/** 'box': one body typed as width × height × depth; 'boxes': bodies from the geometry JSON. */
+	shape: z.enum(['box', 'boxes']).default('box'),
+	widthMm: sizeMm('Width').optional(),
+	heightMm: sizeMm('Height').optional(),
+	depthMm: sizeMm('Depth').optional(),
+	/** Add the category's usual keep-outs and ports when the part has none yet. */
+	applyTemplate: z.boolean().default(false),
+	/** Bodies, keep-outs and ports as JSON. */
+	geometry: z.string().max(400_000, 'Too much to save at once').default('{"bodies":[],"keepouts":[],"ports":[]}'),
+	provenance: z.enum(['datasheet', 'measured', 'estimate'], { error: 'Choose datasheet, measured or estimate' }).default('estimate'),
+	toleranceMm: thicknessMm('Tolerance').default(0),
+	source: z.string().trim().max(500, 'Source can be at most 500 characters').default(''),
+	price: z
+		.string()
+		.trim()
+		.regex(/^(\d{1,7}([.,]\d{1,2})?)?$/, 'Price must be an amount such as 24.90')
+		.default(''),
+	currency: z
+		.string()
+		.trim()
+		.toUpperCase()
+		.regex(/^[A-Z]{3}$/, 'Currency must be a three-letter code such as EUR')
+		.default('EUR'),
+	supplierNote: z.string().trim().max(1000, 'Supplier note can be at most 1000 characters').default(''),
+	heatW: optionalNumber('Heat'),
+	powerDrawW: optionalNumber('Power draw'),
+	radiatorClass: z.enum(['', '120', '140', '240', '280', '360', '420']).default(''),
+	radiatorThicknessMm: sizeMm('Radiator thickness').optional(),
+	fanSizeMm: sizeMm('Fan size').optional(),
+	fanThicknessMm: sizeMm('Fan thickness').optional(),
+	psuFormFactor: z.enum(['', 'SFX', 'SFX-L', 'ATX', 'TFX']).default(''),
+	psuRatingW: optionalNumber('Rating'),
+	boardFormFactor: z.enum(['', 'Mini-ITX', 'microATX', 'ATX']).default(''),
+	cardLengthMm: sizeMm('Card length').optional(),
+	cardSlots: z.number().int('Slots must be a whole number').min(1, 'At least 1 slot').max(8, 'At most 8 slots').optional()
+});
+export type PartForm = z.infer<typeof partFormSchema>;
+
+export function parsePrice(text: string): number | null {
+	if (!text) {
+		return null;
+	}
+	return Math.round(Number(text.replace(',', '.')) * 100);
+}
