@@ -188,6 +188,8 @@ export const enclosureDefSchema = z
 		});
 	});
 export type EnclosureDef = z.infer<typeof enclosureDefSchema>;
+/** An enclosure as a client may send it: defaults not yet filled in. */
+export type EnclosureInput = z.input<typeof enclosureDefSchema>;
 
 export const partCategorySchema = z.enum([
 	'board',
@@ -278,6 +280,7 @@ export const partDefSchema = z
 		});
 	});
 export type PartDef = z.infer<typeof partDefSchema>;
+export type PartInput = z.input<typeof partDefSchema>;
 
 const quarterTurns = z
 	.number({ error: 'Must be 0, 1, 2 or 3' })
