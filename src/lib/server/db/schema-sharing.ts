@@ -1,0 +1,242 @@
+/**
+ * Clients: share links, the comment thread, approvals, quotes, deposits and photos.
+ * Money is always integer minor units (cents) beside an ISO 4217 currency code.
+ */
+import { sql } from 'drizzle-orm';
+import { check, index, integer, jsonb, pgEnum, pgTable, text, timestamp, uniqueIndex } from 'drizzle-orm/pg-core';
+import { studios, users } from './schema-auth';
+import { builds, variants } from './schema-builds';
+import { parts } from './schema-catalog';
+
+const ts = (name: string) => timestamp(name, { withTimezone: true, mode: 'date' });
+
+/** One link to one variant. The token in the link is never stored, only its SHA-256. */
+export const shareLinks = pgTable(
+	'share_link',
+	{
+		id: text('id').primaryKey(),
+		studioId: text('studio_id')
+			.notNull()
+			.references(() => studios.id, { onDelete: 'cascade' }),
+		buildId: text('build_id')
+			.notNull()
+			.references(() => builds.id, { onDelete: 'cascade' }),
+		variantId: text('variant_id')
+			.notNull()
+			.references(() => variants.id, { onDelete: 'cascade' }),
+		tokenHash: text('token_hash').notNull(),
+		/** Lower-case; a client member of the studio with this address sees the variant in the app. */
+		recipientEmail: text('recipient_email'),
+		recipientName: text('recipient_name').notNull().default(''),
+		createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
+		expiresAt: ts('expires_at'),
+		revokedAt: ts('revoked_at'),
+		sentAt: ts('sent_at'),
+		lastOpenedAt: ts('last_opened_at'),
+		openCount: integer('open_count').notNull().default(0),
+		createdAt: ts('created_at').notNull().defaultNow()
+	},
+	(t) => [
+		uniqueIndex('share_link_token_key').on(t.tokenHash),
+		index('share_link_variant_idx').on(t.variantId),
+		index('share_link_recipient_idx').on(t.recipientEmail)
+	]
+);
+
+export const commentKind = pgEnum('comment_kind', ['comment', 'approved', 'changes']);
+
+/** One thread per variant, written from the client page and from the editor. */
+export const comments = pgTable(
+	'build_comment',
+	{
+		id: text('id').primaryKey(),
+		buildId: text('build_id')
+			.notNull()
+			.references(() => builds.id, { onDelete: 'cascade' }),
+		variantId: text('variant_id')
+			.notNull()
+			.references(() => variants.id, { onDelete: 'cascade' }),
+		/** The variant's version the writer was looking at. */
+		variantVersion: integer('variant_version').notNull(),
+		kind: commentKind('kind').notNull().default('comment'),
+		/** Pinned to a placed part; null is about the whole build. */
+		placementId: text('placement_id'),
+		/** The part's name when written, so the comment reads the same after the part is moved out. */
+		partLabel: text('part_label'),
+		body: text('body').notNull(),
+		authorUserId: text('author_user_id').references(() => users.id, { onDelete: 'set null' }),
+		shareLinkId: text('share_link_id').references(() => shareLinks.id, { onDelete: 'set null' }),
+		authorName: text('author_name').notNull(),
+		/** 'studio' for owners and designers, 'client' for clients and link holders. */
+		authorSide: text('author_side').notNull(),
+		createdAt: ts('created_at').notNull().defaultNow()
+	},
+	(t) => [
+		index('build_comment_variant_idx').on(t.variantId, t.createdAt),
+		check('build_comment_body_length', sql`char_length(${t.body}) between 1 and 4000`),
+		check('build_comment_side', sql`${t.authorSide} in ('studio', 'client')`)
+	]
+);
+
+/**
+ * A client's approval of one version of a variant. The scene as approved is frozen here, so the
+ * approval keeps meaning the same thing after the variant or its parts change.
+ */
+export const approvals = pgTable(
+	'variant_approval',
+	{
+		id: text('id').primaryKey(),
+		buildId: text('build_id')
+			.notNull()
+			.references(() => builds.id, { onDelete: 'cascade' }),
+		variantId: text('variant_id')
+			.notNull()
+			.references(() => variants.id, { onDelete: 'cascade' }),
+		variantVersion: integer('variant_version').notNull(),
+		/** The composed engine scene (enclosure, parts, settings) of that version. */
+		scene: jsonb('scene').notNull(),
+		commentId: text('comment_id').references(() => comments.id, { onDelete: 'set null' }),
+		byUserId: text('by_user_id').references(() => users.id, { onDelete: 'set null' }),
+		byShareLinkId: text('by_share_link_id').references(() => shareLinks.id, { onDelete: 'set null' }),
+		byName: text('by_name').notNull(),
+		createdAt: ts('created_at').notNull().defaultNow()
+	},
+	(t) => [uniqueIndex('variant_approval_version_key').on(t.variantId, t.variantVersion)]
+);
+
+export const quoteStatus = pgEnum('quote_status', ['draft', 'sent']);
+export const depositKind = pgEnum('deposit_kind', ['amount', 'percent']);
+
+/** One quote per shared variant. */
+export const quotes = pgTable(
+	'quote',
+	{
+		id: text('id').primaryKey(),
+		studioId: text('studio_id')
+			.notNull()
+			.references(() => studios.id, { onDelete: 'cascade' }),
+		buildId: text('build_id')
+			.notNull()
+			.references(() => builds.id, { onDelete: 'cascade' }),
+		variantId: text('variant_id')
+			.notNull()
+			.references(() => variants.id, { onDelete: 'cascade' }),
+		currency: text('currency').notNull().default('EUR'),
+		labourMinor: integer('labour_minor').notNull().default(0),
+		labourNote: text('labour_note').notNull().default('Assembly, leak test and cable work'),
+		/** Basis points: 2000 = 20.00 %. */
+		taxRateBp: integer('tax_rate_bp').notNull().default(0),
+		depositKind: depositKind('deposit_kind').notNull().default('percent'),
+		/** Minor units for 'amount', basis points of the total for 'percent'. */
+		depositValue: integer('deposit_value').notNull().default(3000),
+		notes: text('notes').notNull().default(''),
+		status: quoteStatus('status').notNull().default('draft'),
+		sentAt: ts('sent_at'),
+		revision: integer('revision').notNull().default(1),
+		createdAt: ts('created_at').notNull().defaultNow(),
+		updatedAt: ts('updated_at').notNull().defaultNow()
+	},
+	(t) => [
+		uniqueIndex('quote_variant_key').on(t.variantId),
+		check('quote_currency_code', sql`${t.currency} ~ '^[A-Z]{3}$'`),
+		check('quote_labour_nonnegative', sql`${t.labourMinor} >= 0`),
+		check('quote_tax_rate_range', sql`${t.taxRateBp} between 0 and 10000`),
+		check('quote_deposit_nonnegative', sql`${t.depositValue} >= 0`),
+		check('quote_deposit_percent_range', sql`${t.depositKind} <> 'percent' or ${t.depositValue} <= 10000`)
+	]
+);
+
+export const quoteLines = pgTable(
+	'quote_line',
+	{
+		id: text('id').primaryKey(),
+		quoteId: text('quote_id')
+			.notNull()
+			.references(() => quotes.id, { onDelete: 'cascade' }),
+		sortOrder: integer('sort_order').notNull(),
+		partId: text('part_id').references(() => parts.id, { onDelete: 'set null' }),
+		description: text('description').notNull(),
+		quantity: integer('quantity').notNull(),
+		/** Null while the catalogue has no price in the quote's currency and nobody entered one. */
+		unitPriceMinor: integer('unit_price_minor'),
+		createdAt: ts('created_at').notNull().defaultNow()
+	},
+	(t) => [
+		index('quote_line_quote_idx').on(t.quoteId, t.sortOrder),
+		check('quote_line_quantity_range', sql`${t.quantity} between 1 and 10000`),
+		check('quote_line_price_nonnegative', sql`${t.unitPriceMinor} is null or ${t.unitPriceMinor} >= 0`)
+	]
+);
+
+export const paymentStatus = pgEnum('payment_status', ['pending', 'paid', 'expired']);
+
+/** A deposit checkout. Becomes 'paid' once, from the signed webhook or the confirmed return. */
+export const payments = pgTable(
+	'payment',
+	{
+		id: text('id').primaryKey(),
+		quoteId: text('quote_id')
+			.notNull()
+			.references(() => quotes.id, { onDelete: 'restrict' }),
+		buildId: text('build_id')
+			.notNull()
+			.references(() => builds.id, { onDelete: 'cascade' }),
+		variantId: text('variant_id')
+			.notNull()
+			.references(() => variants.id, { onDelete: 'cascade' }),
+		amountMinor: integer('amount_minor').notNull(),
+		currency: text('currency').notNull(),
+		checkoutSessionId: text('checkout_session_id'),
+		checkoutUrl: text('checkout_url'),
+		status: paymentStatus('status').notNull().default('pending'),
+		paidAt: ts('paid_at'),
+		payerShareLinkId: text('payer_share_link_id').references(() => shareLinks.id, { onDelete: 'set null' }),
+		payerUserId: text('payer_user_id').references(() => users.id, { onDelete: 'set null' }),
+		createdAt: ts('created_at').notNull().defaultNow()
+	},
+	(t) => [
+		uniqueIndex('payment_session_key').on(t.checkoutSessionId),
+		index('payment_quote_idx').on(t.quoteId),
+		check('payment_amount_positive', sql`${t.amountMinor} > 0`)
+	]
+);
+
+/** Every webhook event handled, by the provider's event id: a replay finds its row and stops. */
+export const paymentEvents = pgTable('payment_event', {
+	id: text('id').primaryKey(),
+	type: text('type').notNull(),
+	checkoutSessionId: text('checkout_session_id'),
+	receivedAt: ts('received_at').notNull().defaultNow()
+});
+
+/** Build photos. Files live in the storage module under random names; never a user-given path. */
+export const photos = pgTable(
+	'photo',
+	{
+		id: text('id').primaryKey(),
+		buildId: text('build_id')
+			.notNull()
+			.references(() => builds.id, { onDelete: 'cascade' }),
+		storageKey: text('storage_key').notNull(),
+		thumbKey: text('thumb_key').notNull(),
+		mime: text('mime').notNull(),
+		byteSize: integer('byte_size').notNull(),
+		width: integer('width').notNull(),
+		height: integer('height').notNull(),
+		caption: text('caption').notNull().default(''),
+		uploadedBy: text('uploaded_by').references(() => users.id, { onDelete: 'set null' }),
+		createdAt: ts('created_at').notNull().defaultNow()
+	},
+	(t) => [
+		index('photo_build_idx').on(t.buildId, t.createdAt),
+		check('photo_mime', sql`${t.mime} in ('image/jpeg', 'image/png', 'image/webp')`)
+	]
+);
+
+export type ShareLinkRow = typeof shareLinks.$inferSelect;
+export type CommentRow = typeof comments.$inferSelect;
+export type ApprovalRow = typeof approvals.$inferSelect;
+export type QuoteRow = typeof quotes.$inferSelect;
+export type QuoteLineRow = typeof quoteLines.$inferSelect;
+export type PaymentRow = typeof payments.$inferSelect;
+export type PhotoRow = typeof photos.$inferSelect;
