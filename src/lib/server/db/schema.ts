@@ -5,3 +5,4 @@ export * from './schema-auth';
 export * from './schema-catalog';
 export * from './schema-builds';
 export * from './schema-sharing';
+export * from './schema-sheet';
