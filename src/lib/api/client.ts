@@ -1,0 +1,66 @@
+/**
+ * The few fetch calls the browser makes. Components never call fetch directly; they go through
+ * here, so the request and response shapes live in one place.
+ */
+import type { FieldIssue, FitReport, PartDef, SweepGridResult, SweepResult, SceneInput } from '$lib/geometry';
+import type { VariantSettings } from '$lib/builds/settings';
+
+export type Problem = { message: string; issues: FieldIssue[] };
+
+export type SaveOutcome =
+	| { kind: 'saved'; version: number; report: FitReport }
+	| { kind: 'conflict'; version: number; settings: VariantSettings; updatedAt: string }
+	| { kind: 'rejected'; status: number; problem: Problem };
+
+type Fetch = typeof fetch;
+
+async function problemOf(res: Response): Promise<Problem> {
+	try {
+		const body = (await res.json()) as Partial<Problem>;
+		return { message: body.message ?? res.statusText, issues: body.issues ?? [] };
+	} catch {
+		return { message: `${res.status} ${res.statusText}`, issues: [] };
+	}
+}
+
+export async function saveVariant(f: Fetch, buildId: string, variantId: string, version: number, settings: VariantSettings): Promise<SaveOutcome> {
+	const res = await f(`/api/builds/${encodeURIComponent(buildId)}/variants/${encodeURIComponent(variantId)}`, {
+		method: 'PUT',
+		headers: { 'content-type': 'application/json' },
+		body: JSON.stringify({ version, settings })
+	});
+	if (res.status === 409) {
+		const body = (await res.json()) as { conflict: { version: number; settings: VariantSettings; updatedAt: string } };
+		return { kind: 'conflict', ...body.conflict };
+	}
+	if (!res.ok) return { kind: 'rejected', status: res.status, problem: await problemOf(res) };
+	const body = (await res.json()) as { version: number; report: FitReport };
+	return { kind: 'saved', ...body };
+}
+
+export async function checkOnServer(f: Fetch, buildId: string, settings: VariantSettings): Promise<FitReport | Problem> {
+	const res = await f(`/api/builds/${encodeURIComponent(buildId)}/check`, {
+		method: 'POST',
+		headers: { 'content-type': 'application/json' },
+		body: JSON.stringify({ settings })
+	});
+	if (!res.ok) return problemOf(res);
+	return (await res.json()) as FitReport;
+}
+
+export async function sweepOnServer(f: Fetch, body: { scene: SceneInput; control: { kind: 'divider' | 'bracket'; id: string }; controlB?: { kind: 'divider' | 'bracket'; id: string } }): Promise<SweepResult | SweepGridResult | Problem> {
+	const res = await f('/api/sweep', { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(body) });
+	if (!res.ok) return problemOf(res);
+	return res.json();
+}
+
+export type PartHit = { id: string; name: string; category: string; widthMm: number; heightMm: number; depthMm: number; isStandard: boolean; definition: PartDef };
+
+export async function searchParts(f: Fetch, q: string, category = ''): Promise<PartHit[]> {
+	const params = new URLSearchParams({ q, limit: '20' });
+	if (category) params.set('category', category);
+	const res = await f(`/api/parts?${params}`);
+	if (!res.ok) return [];
+	const body = (await res.json()) as { parts?: PartHit[]; items?: PartHit[] } | PartHit[];
+	return Array.isArray(body) ? body : (body.parts ?? body.items ?? []);
+}

@@ -1,0 +1,336 @@
+/**
+ * The build editor's state: one instance per page, passed down through context. Every change goes
+ * through `apply`, which records undo history, re-runs the fit engine locally (instant), and
+ * schedules the autosave and the server's confirming check.
+ */
+import { getContext, setContext } from 'svelte';
+import {
+	formatZodIssues,
+	reportFor,
+	resolveScene,
+	sceneSchema,
+	type BracketDef,
+	type DividerDef,
+	type EnclosureDef,
+	type FieldIssue,
+	type FitReport,
+	type PartDef,
+	type Placement,
+	type ResolvedScene,
+	type Scene,
+	type Vec3
+} from '$lib/geometry';
+import { composeScene, type VariantSettings } from '$lib/builds/settings';
+import { landInRoom, landOnMount, nextPlacementId, snapToAllowed, stepAllowed, turnQuarter } from '$lib/builds/placement';
+import { reportDigest } from '$lib/builds/report-digest';
+import type { Problem, SaveOutcome } from '$lib/api/client';
+import type { ViewName } from '$lib/components/scene/view';
+
+export type EditorApi = {
+	save(version: number, settings: VariantSettings): Promise<SaveOutcome>;
+	check(settings: VariantSettings): Promise<FitReport | Problem>;
+};
+
+export type SaveStatus = 'saved' | 'pending' | 'saving' | 'conflict' | 'error';
+
+type Computed =
+	| { ok: true; scene: Scene; resolved: ResolvedScene; report: FitReport; issues: [] }
+	| { ok: false; issues: FieldIssue[] };
+
+const HISTORY_LIMIT = 200;
+
+function compute(enclosure: EnclosureDef, parts: PartDef[], settings: VariantSettings): Computed {
+	const parsed = sceneSchema.safeParse(composeScene(enclosure, parts, settings));
+	if (!parsed.success) return { ok: false, issues: formatZodIssues(parsed.error) };
+	try {
+		const resolved = resolveScene(parsed.data);
+		return { ok: true, scene: parsed.data, resolved, report: reportFor(parsed.data, resolved), issues: [] };
+	} catch (e) {
+		return { ok: false, issues: [{ path: '', message: (e as Error).message }] };
+	}
+}
+
+export class EditorState {
+	readonly enclosure: EnclosureDef;
+	readonly buildId: string;
+	readonly variantId: string;
+	parts = $state.raw<PartDef[]>([]);
+	settings = $state.raw<VariantSettings>() as VariantSettings;
+	version = $state(1);
+
+	selectedId = $state<string | null>(null);
+	highlightIds = $state.raw<string[]>([]);
+	hiddenIds = $state.raw<string[]>([]);
+	view = $state<ViewName>('orbit');
+	showPanels = $state(true);
+	showKeepouts = $state(true);
+	dragTarget = $state.raw<{ kind: 'divider' | 'bracket'; id: string } | null>(null);
+
+	saveStatus = $state<SaveStatus>('saved');
+	saveMessage = $state('');
+	conflict = $state.raw<{ version: number; settings: VariantSettings; updatedAt: string } | null>(null);
+	serverAgrees = $state<boolean | null>(null);
+	serverMessage = $state('');
+
+	#undo = $state.raw<VariantSettings[]>([]);
+	#redo = $state.raw<VariantSettings[]>([]);
+	#coalesceKey: string | null = null;
+	#saveTimer: ReturnType<typeof setTimeout> | undefined;
+	#checkTimer: ReturnType<typeof setTimeout> | undefined;
+	#api: EditorApi;
+	#saveDelayMs: number;
+	#checkDelayMs: number;
+
+	computed = $derived.by(() => compute(this.enclosure, this.parts, this.settings));
+	report = $derived(this.computed.ok ? this.computed.report : null);
+	resolved = $derived(this.computed.ok ? this.computed.resolved : null);
+	canUndo = $derived(this.#undo.length > 0);
+	canRedo = $derived(this.#redo.length > 0);
+	// A fresh read-only lookup per change of `parts`; never mutated, so no reactive map is needed.
+	// eslint-disable-next-line svelte/prefer-svelte-reactivity
+	partsById = $derived(new Map(this.parts.map((p) => [p.id, p])));
+
+	constructor(init: { buildId: string; variantId: string; enclosure: EnclosureDef; parts: PartDef[]; settings: VariantSettings; version: number; api: EditorApi; saveDelayMs?: number; checkDelayMs?: number }) {
+		this.buildId = init.buildId;
+		this.variantId = init.variantId;
+		this.enclosure = init.enclosure;
+		this.parts = init.parts;
+		this.settings = init.settings;
+		this.version = init.version;
+		this.#api = init.api;
+		this.#saveDelayMs = init.saveDelayMs ?? 700;
+		this.#checkDelayMs = init.checkDelayMs ?? 400;
+	}
+
+	/**
+	 * The one way to change the scene. Changes with the same `coalesce` key in a row (one slider
+	 * drag, one held arrow key) make a single undo step.
+	 */
+	apply(next: VariantSettings, coalesce?: string) {
+		if (!(coalesce && coalesce === this.#coalesceKey)) {
+			this.#undo = [...this.#undo, this.settings].slice(-HISTORY_LIMIT);
+		}
+		this.#coalesceKey = coalesce ?? null;
+		this.#redo = [];
+		this.settings = next;
+		this.#changed();
+	}
+
+	undo() {
+		const prev = this.#undo.at(-1);
+		if (!prev) return;
+		this.#undo = this.#undo.slice(0, -1);
+		this.#redo = [...this.#redo, this.settings];
+		this.#coalesceKey = null;
+		this.settings = prev;
+		this.#changed();
+	}
+
+	redo() {
+		const next = this.#redo.at(-1);
+		if (!next) return;
+		this.#redo = this.#redo.slice(0, -1);
+		this.#undo = [...this.#undo, this.settings];
+		this.#coalesceKey = null;
+		this.settings = next;
+		this.#changed();
+	}
+
+	// — controls —
+
+	control(kind: 'divider' | 'bracket', id: string): DividerDef | BracketDef | undefined {
+		return kind === 'divider' ? this.enclosure.dividers.find((d) => d.id === id) : this.enclosure.brackets.find((b) => b.id === id);
+	}
+
+	offsetOf(kind: 'divider' | 'bracket', id: string): number {
+		const map = kind === 'divider' ? this.settings.dividerPositions : this.settings.bracketOffsets;
+		return map[id] ?? this.resolved?.[kind === 'divider' ? 'dividerPositions' : 'bracketOffsets'][id] ?? 0;
+	}
+
+	/** Sets a divider or bracket to an allowed offset. A free value (from a drag) snaps to the nearest. */
+	setControl(kind: 'divider' | 'bracket', id: string, offsetMm: number, coalesce?: string) {
+		const def = this.control(kind, id);
+		if (!def) return;
+		const snapped = snapToAllowed(def, offsetMm).offsetMm;
+		if (snapped === this.offsetOf(kind, id)) return;
+		const key = kind === 'divider' ? 'dividerPositions' : 'bracketOffsets';
+		this.apply({ ...this.settings, [key]: { ...this.settings[key], [id]: snapped } }, coalesce ?? `${kind}:${id}`);
+	}
+
+	stepControl(kind: 'divider' | 'bracket', id: string, delta: number) {
+		const def = this.control(kind, id);
+		if (!def) return;
+		this.setControl(kind, id, stepAllowed(def, this.offsetOf(kind, id), delta));
+	}
+
+	setMargin(marginMm: number) {
+		if (!Number.isFinite(marginMm) || marginMm < 0 || marginMm > 100) return;
+		this.apply({ ...this.settings, marginMm }, 'margin');
+	}
+
+	setBudgets(budgets: Partial<VariantSettings['budgets']>) {
+		this.apply({ ...this.settings, budgets: { ...this.settings.budgets, ...budgets } }, 'budgets');
+	}
+
+	// — placements —
+
+	placement(id: string): Placement | undefined {
+		return this.settings.placements.find((p) => p.id === id);
+	}
+
+	#updatePlacement(id: string, change: (p: Placement) => Placement, coalesce?: string) {
+		const p = this.placement(id);
+		if (!p || p.locked) return;
+		this.apply({ ...this.settings, placements: this.settings.placements.map((q) => (q.id === id ? change(q) : q)) }, coalesce);
+	}
+
+	setPosition(id: string, position: Vec3) {
+		if (position.some((v) => !Number.isFinite(v))) return;
+		this.#updatePlacement(id, (p) => ({ ...p, position }), `pos:${id}`);
+	}
+
+	/** Keyboard nudge: 1 mm, 10 mm with Shift (the caller decides). */
+	nudge(id: string, axis: 0 | 1 | 2, deltaMm: number) {
+		const p = this.placement(id);
+		if (!p) return;
+		const position = [...p.position] as Vec3;
+		position[axis] = Math.round((position[axis] + deltaMm) * 1000) / 1000;
+		this.#updatePlacement(id, (q) => ({ ...q, position }), `nudge:${id}`);
+	}
+
+	rotate(id: string, axis: 'x' | 'y' | 'z') {
+		this.#updatePlacement(id, (p) => ({ ...p, rotation: turnQuarter(p.rotation, axis) }));
+	}
+
+	toggleLocked(id: string) {
+		const p = this.placement(id);
+		if (!p) return;
+		this.apply({ ...this.settings, placements: this.settings.placements.map((q) => (q.id === id ? { ...q, locked: !q.locked } : q)) });
+	}
+
+	toggleHidden(id: string) {
+		this.hiddenIds = this.hiddenIds.includes(id) ? this.hiddenIds.filter((h) => h !== id) : [...this.hiddenIds, id];
+	}
+
+	remove(id: string) {
+		if (this.placement(id)?.locked) return;
+		this.apply({ ...this.settings, placements: this.settings.placements.filter((p) => p.id !== id) });
+		if (this.selectedId === id) this.selectedId = null;
+	}
+
+	/**
+	 * Adds a catalogue part: onto a mount when one is named (snapped flat against its panel or on the
+	 * stack there), else into free space in the chosen compartment.
+	 */
+	addPart(part: PartDef, where: { mountId?: string; compartmentId?: string } = {}): string | { reason: string } {
+		if (!this.partsById.has(part.id)) this.parts = [...this.parts, part];
+		const resolved = this.resolved;
+		if (!resolved) return { reason: 'Fix the scene’s errors first.' };
+		const mount = where.mountId ? this.enclosure.mounts.find((m) => m.id === where.mountId) : undefined;
+		let landing: ReturnType<typeof landInRoom> | { reason: string };
+		if (mount) {
+			landing = landOnMount(resolved, mount, part);
+		} else {
+			const room = resolved.compartments.find((c) => c.id === where.compartmentId)?.box ?? resolved.innerBox;
+			landing = landInRoom(resolved, room, part);
+		}
+		if ('reason' in landing) return landing;
+		const id = nextPlacementId(this.settings.placements);
+		const placement: Placement = { id, partId: part.id, position: landing.position, rotation: landing.rotation, ...(mount ? { mountId: mount.id } : {}) };
+		this.apply({ ...this.settings, placements: [...this.settings.placements, placement] });
+		this.selectedId = id;
+		return id;
+	}
+
+	// — saving —
+
+	#changed() {
+		this.saveStatus = this.conflict ? 'conflict' : 'pending';
+		this.serverAgrees = null;
+		clearTimeout(this.#saveTimer);
+		clearTimeout(this.#checkTimer);
+		if (!this.conflict) this.#saveTimer = setTimeout(() => void this.saveNow(), this.#saveDelayMs);
+		this.#checkTimer = setTimeout(() => void this.confirmWithServer(), this.#checkDelayMs);
+	}
+
+	async saveNow(): Promise<SaveOutcome | null> {
+		clearTimeout(this.#saveTimer);
+		if (this.conflict || !this.computed.ok) {
+			if (!this.computed.ok) {
+				this.saveStatus = 'error';
+				this.saveMessage = 'Not saved: the scene has errors.';
+			}
+			return null;
+		}
+		const settings = this.settings;
+		this.saveStatus = 'saving';
+		const outcome = await this.#api.save(this.version, settings);
+		if (outcome.kind === 'saved') {
+			this.version = outcome.version;
+			// A change made while the save was in flight is saved next.
+			if (this.settings === settings) {
+				this.saveStatus = 'saved';
+				this.saveMessage = '';
+			} else {
+				this.#changed();
+			}
+		} else if (outcome.kind === 'conflict') {
+			this.conflict = { version: outcome.version, settings: outcome.settings, updatedAt: outcome.updatedAt };
+			this.saveStatus = 'conflict';
+			this.saveMessage = 'Someone else saved this variant. Your changes are kept here; choose which to keep.';
+		} else {
+			this.saveStatus = 'error';
+			this.saveMessage = outcome.problem.issues[0] ? `${outcome.problem.message} ${outcome.problem.issues[0].path}: ${outcome.problem.issues[0].message}` : outcome.problem.message;
+		}
+		return outcome;
+	}
+
+	/** Keep my scene: save it over the newer one (which stays in undo history). */
+	async keepMine() {
+		const c = this.conflict;
+		if (!c) return;
+		this.#undo = [...this.#undo, c.settings].slice(-HISTORY_LIMIT);
+		this.version = c.version;
+		this.conflict = null;
+		await this.saveNow();
+	}
+
+	/** Take the newer scene; mine goes onto the undo stack, so nothing is lost. */
+	takeTheirs() {
+		const c = this.conflict;
+		if (!c) return;
+		this.#undo = [...this.#undo, this.settings].slice(-HISTORY_LIMIT);
+		this.#redo = [];
+		this.settings = c.settings;
+		this.version = c.version;
+		this.conflict = null;
+		this.saveStatus = 'saved';
+		this.saveMessage = '';
+		void this.confirmWithServer();
+	}
+
+	async confirmWithServer() {
+		clearTimeout(this.#checkTimer);
+		const local = this.report;
+		const settings = this.settings;
+		if (!local) return;
+		const server = await this.#api.check(settings);
+		if (settings !== this.settings) return;
+		if ('message' in server) {
+			this.serverAgrees = false;
+			this.serverMessage = `The server could not check this scene: ${server.message}`;
+			return;
+		}
+		this.serverAgrees = reportDigest(server) === reportDigest(local);
+		this.serverMessage = this.serverAgrees ? '' : 'The server’s check differs from this browser’s. The server’s report is the one that counts; reload to see it.';
+	}
+
+	dispose() {
+		clearTimeout(this.#saveTimer);
+		clearTimeout(this.#checkTimer);
+	}
+}
+
+const KEY = Symbol('editor');
+export const setEditor = (e: EditorState) => setContext(KEY, e);
+export const getEditor = () => getContext<EditorState>(KEY);

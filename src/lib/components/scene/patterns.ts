@@ -1,0 +1,51 @@
+/**
+ * Surface patterns for statuses (DESIGN.md: never colour alone). Browser-only: textures are drawn
+ * on a canvas once per status and shared by every mesh.
+ */
+import { CanvasTexture, RepeatWrapping, SRGBColorSpace } from 'three';
+import type { FitStatus } from '$lib/geometry';
+import { STATUS_STYLE } from './palette';
+
+const cache = new Map<FitStatus, CanvasTexture>();
+
+export function statusTexture(status: FitStatus): CanvasTexture | null {
+	if (typeof document === 'undefined') return null;
+	const hit = cache.get(status);
+	if (hit) return hit;
+	const size = 64;
+	const canvas = document.createElement('canvas');
+	canvas.width = canvas.height = size;
+	const g = canvas.getContext('2d');
+	if (!g) return null;
+	const { color, edge, pattern } = STATUS_STYLE[status];
+	g.fillStyle = color;
+	g.fillRect(0, 0, size, size);
+	if (pattern === 'hatch') {
+		g.strokeStyle = '#3b2a05';
+		g.lineWidth = 7;
+		for (let k = -size; k < size * 2; k += 20) {
+			g.beginPath();
+			g.moveTo(k, size);
+			g.lineTo(k + size, 0);
+			g.stroke();
+		}
+	} else if (pattern === 'dots') {
+		g.fillStyle = '#f1eafe';
+		for (let y = 8; y < size; y += 16) {
+			for (let x = 8; x < size; x += 16) {
+				g.beginPath();
+				g.arc(x + (y % 32 === 8 ? 0 : 8), y, 3.5, 0, Math.PI * 2);
+				g.fill();
+			}
+		}
+	} else if (pattern === 'solid') {
+		g.strokeStyle = edge;
+		g.lineWidth = 6;
+		g.strokeRect(3, 3, size - 6, size - 6);
+	}
+	const texture = new CanvasTexture(canvas);
+	texture.wrapS = texture.wrapT = RepeatWrapping;
+	texture.colorSpace = SRGBColorSpace;
+	cache.set(status, texture);
+	return texture;
+}

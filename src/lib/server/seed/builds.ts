@@ -1,0 +1,41 @@
+/**
+ * The demo build: the demo sandwich enclosure with the engine's demo parts placed, where everything
+ * fits with the spine at "3 slots" and the card collides at "2 slots". Two variants to compare.
+ */
+import { DEMO_SPINE_OFFSETS, demoSceneInput } from '$lib/geometry/fixtures';
+import { variantSettingsSchema } from '$lib/builds/settings';
+import { db } from '../db';
+import { builds, variants } from '../db/schema';
+import { DEMO_STUDIO, DEMO_USERS } from './accounts';
+
+export const DEMO_BUILD_ID = 'demo-build';
+
+export async function seedBuilds() {
+	const scene = demoSceneInput();
+	const settings = variantSettingsSchema.parse({
+		dividerPositions: scene.dividerPositions,
+		bracketOffsets: scene.bracketOffsets,
+		placements: scene.placements,
+		marginMm: scene.marginMm,
+		budgets: scene.budgets
+	});
+	await db
+		.insert(builds)
+		.values({
+			id: DEMO_BUILD_ID,
+			studioId: DEMO_STUDIO.id,
+			name: 'Quiet desk build',
+			clientName: 'Demo Client',
+			notes: 'Sandwich layout, front 280 radiator, compact pump-reservoir on the card side.',
+			enclosureVersionId: 'demo-enc-sandwich-v1',
+			createdBy: DEMO_USERS[1].id
+		})
+		.onConflictDoNothing();
+	await db
+		.insert(variants)
+		.values([
+			{ id: 'demo-variant-a', buildId: DEMO_BUILD_ID, name: 'Spine at three slots', sortOrder: 0, isProposal: true, settings },
+			{ id: 'demo-variant-b', buildId: DEMO_BUILD_ID, name: 'Spine at two slots', sortOrder: 1, isProposal: false, settings: { ...settings, dividerPositions: { ...settings.dividerPositions, spine: DEMO_SPINE_OFFSETS['2 slots'] } } }
+		])
+		.onConflictDoNothing();
+}
