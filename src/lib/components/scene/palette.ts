@@ -3,6 +3,7 @@
  * colour alone: each also has a surface pattern and a word.
  */
 import type { FitStatus, WorldBoxKind } from '$lib/geometry';
+import type { PreviewRole } from './preview-boxes';
 
 export const STATUS_STYLE: Record<FitStatus, { color: string; edge: string; pattern: 'plain' | 'hatch' | 'dots' | 'solid' | 'dashed'; word: string }> = {
 	clear: { color: '#2e9d83', edge: '#5cc9ad', pattern: 'plain', word: 'clear' },
@@ -23,3 +24,17 @@ export const KEEPOUT_STYLE = { color: '#d5dae1', opacity: 0.1 };
 export const INTERFERENCE_COLOR = '#ff5a36';
 export const GROUND = '#12161c';
 export const ACCENT = '#c1964a';
+
+/** Catalogue previews: structure as in the build view, allowed positions and travel as ghosts. */
+export const PREVIEW_STYLE: Record<PreviewRole, { color: string; opacity: number; dashed?: boolean }> = {
+	wall: { color: '#5c6778', opacity: 0.22 },
+	'wall-mesh': { color: '#7f8b9c', opacity: 0.08, dashed: true },
+	divider: { color: '#c1964a', opacity: 0.85 },
+	'divider-ghost': { color: '#e2c07d', opacity: 0.12, dashed: true },
+	bracket: { color: '#aab3c0', opacity: 0.9 },
+	'bracket-travel': { color: '#aab3c0', opacity: 0.07, dashed: true },
+	mount: { color: '#2e9d83', opacity: 0.06, dashed: true },
+	body: { color: '#aab3c0', opacity: 0.92 },
+	keepout: { color: '#d5dae1', opacity: 0.14, dashed: true },
+	'keepout-warning': { color: '#e0a526', opacity: 0.1, dashed: true }
+};

@@ -1,0 +1,68 @@
+/**
+ * What the catalogue's endpoints share: the access check (the active studio, or `?studio=` for API
+ * users in several), bounded JSON bodies, and the one shape of a refusal.
+ */
+import { error, json } from '@sveltejs/kit';
+import type { FieldIssue, PartCategory } from '$lib/geometry';
+import { partCategorySchema } from '$lib/geometry';
+import { activeStudio, requireStudio, type Action } from '../access';
+import { PART_SORTS, type PartQuery, type PartSort, type WriteResult } from './parts';
+
+type Event = { locals: App.Locals; url: URL };
+
+export function catalogAccess(event: Event, action: Extract<Action, 'catalog.view' | 'catalog.edit'>) {
+	const chosen = event.url.searchParams.get('studio');
+	return chosen ? requireStudio(event.locals, chosen, action, event.url) : activeStudio(event.locals, action, event.url);
+}
+
+/** 1 MB is far more than any one enclosure or part; larger bodies are refused before parsing. */
+const MAX_JSON_BYTES = 1024 * 1024;
+
+export async function readJson(request: Request): Promise<Record<string, unknown>> {
+	const length = Number(request.headers.get('content-length') ?? 0);
+	if (length > MAX_JSON_BYTES) error(413, 'The request body is larger than 1 MB.');
+	const text = await request.text();
+	if (text.length > MAX_JSON_BYTES) error(413, 'The request body is larger than 1 MB.');
+	try {
+		const value = JSON.parse(text) as unknown;
+		if (value && typeof value === 'object' && !Array.isArray(value)) return value as Record<string, unknown>;
+	} catch {
+		/* answered below */
+	}
+	error(400, 'The body must be a JSON object.');
+}
+
+export function problem(status: number, message: string, issues: FieldIssue[] = []) {
+	return json({ message, issues }, { status });
+}
+
+/** A write's outcome as HTTP: 200/201 with the value, 400 with issues, 404, or 409 with what is stored now. */
+export function answer<T>(result: WriteResult<T>, okStatus = 200, key = 'value') {
+	if (result.ok) return json({ [key]: result.value }, { status: okStatus });
+	if (result.status === 400) return problem(400, 'Some fields need attention.', result.issues);
+	if (result.status === 404) return problem(404, 'Not found.');
+	return json({ message: result.message, conflict: result.current }, { status: 409 });
+}
+
+export function revisionOf(body: Record<string, unknown>): number {
+	const r = body.revision;
+	if (typeof r !== 'number' || !Number.isInteger(r) || r < 0) error(400, 'Send the revision you loaded (a whole number) so a conflicting save can be detected.');
+	return r;
+}
+
+/** The catalogue table's state from a query string, each value checked. */
+export function partQueryOf(params: URLSearchParams): PartQuery {
+	const category = partCategorySchema.safeParse(params.get('category'));
+	const sort = params.get('sort');
+	const scope = params.get('scope');
+	return {
+		q: (params.get('q') ?? '').slice(0, 200),
+		category: category.success ? (category.data as PartCategory) : '',
+		scope: scope === 'studio' || scope === 'standard' ? scope : 'all',
+		archived: params.get('archived') === '1',
+		sort: (PART_SORTS as readonly string[]).includes(sort ?? '') ? (sort as PartSort) : 'name',
+		dir: params.get('dir') === 'desc' ? 'desc' : 'asc',
+		page: Math.max(1, Math.floor(Number(params.get('page')) || 1)),
+		pageSize: [10, 25, 50, 100].includes(Number(params.get('size'))) ? Number(params.get('size')) : 25
+	};
+}

@@ -1,0 +1,23 @@
+import { json } from '@sveltejs/kit';
+import { createEnclosure, listEnclosures } from '$lib/server/catalog/enclosures';
+import { answer, catalogAccess, readJson } from '$lib/server/catalog/http';
+import type { RequestHandler } from './$types';
+
+export const GET: RequestHandler = async (event) => {
+	const access = await catalogAccess(event, 'catalog.view');
+	const q = (event.url.searchParams.get('q') ?? '').slice(0, 200);
+	const enclosures = await listEnclosures(access.studioId, { q, archived: event.url.searchParams.get('archived') === '1' });
+	return json({ enclosures });
+};
+
+/** Body: `{definition, description?, note?}`; the definition is the engine's EnclosureDef. */
+export const POST: RequestHandler = async (event) => {
+	const access = await catalogAccess(event, 'catalog.edit');
+	const body = await readJson(event.request);
+	const made = await createEnclosure(access.studioId, access.user.id, {
+		definition: body.definition,
+		description: body.description as string | undefined,
+		note: body.note as string | undefined
+	});
+	return answer(made, 201, 'enclosure');
+};

@@ -1,0 +1,36 @@
+import { json } from '@sveltejs/kit';
+import { partCategorySchema } from '$lib/geometry';
+import { answer, catalogAccess, partQueryOf, readJson } from '$lib/server/catalog/http';
+import { createPart, getPartsByIds, listParts, listPartsForStudio } from '$lib/server/catalog/parts';
+import type { RequestHandler } from './$types';
+
+/**
+ * `?ids=a,b` → those parts (archived and standard included, for builds that place them);
+ * `?search=1&q=&category=&limit=` → the add-part search (archived left out);
+ * otherwise one page of the catalogue table (`q, category, scope, archived, sort, dir, page, size`).
+ */
+export const GET: RequestHandler = async (event) => {
+	const access = await catalogAccess(event, 'catalog.view');
+	const params = event.url.searchParams;
+	const ids = params.get('ids');
+	if (ids !== null) {
+		return json({ parts: await getPartsByIds(access.studioId, ids.split(',').filter(Boolean)) });
+	}
+	if (params.get('search') === '1') {
+		const category = partCategorySchema.safeParse(params.get('category'));
+		const parts = await listPartsForStudio(access.studioId, {
+			q: (params.get('q') ?? '').slice(0, 200),
+			category: category.success ? category.data : undefined,
+			limit: Number(params.get('limit')) || 50
+		});
+		return json({ parts });
+	}
+	const page = await listParts(access.studioId, partQueryOf(params));
+	return json({ parts: page.rows, total: page.total, page: page.page, pageSize: page.pageSize });
+};
+
+/** Body: the part (name, category, bodies, keepouts, ports, specs, provenance, toleranceMm, source, priceMinor, currency, supplierNote). */
+export const POST: RequestHandler = async (event) => {
+	const access = await catalogAccess(event, 'catalog.edit');
+	return answer(await createPart(access.studioId, await readJson(event.request)), 201, 'part');
+};

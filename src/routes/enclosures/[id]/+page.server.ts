@@ -1,0 +1,41 @@
+import { error, redirect } from '@sveltejs/kit';
+import { activeStudio } from '$lib/server/access';
+import { archiveEnclosure, duplicateEnclosure, getEnclosure, restoreEnclosure } from '$lib/server/catalog/enclosures';
+import { formFor, saveEnclosureForm } from '$lib/server/catalog/enclosure-form';
+import type { Actions, PageServerLoad } from './$types';
+
+export const load: PageServerLoad = async ({ locals, url, params }) => {
+	const access = await activeStudio(locals, 'catalog.view', url);
+	const enclosure = await getEnclosure(access.studioId, params.id);
+	if (!enclosure) error(404, 'Not found.');
+	const { current: _current, ...summary } = enclosure;
+	return {
+		studioName: access.studioName,
+		enclosure: summary,
+		saved: url.searchParams.get('saved'),
+		form: await formFor(enclosure)
+	};
+};
+
+export const actions: Actions = {
+	save: async ({ request, locals, url, params }) => {
+		const access = await activeStudio(locals, 'catalog.edit', url);
+		return saveEnclosureForm(request, access, params.id);
+	},
+	archive: async ({ locals, url, params }) => {
+		const access = await activeStudio(locals, 'catalog.edit', url);
+		if (!(await archiveEnclosure(access.studioId, params.id))) error(404, 'Not found.');
+		redirect(303, `/enclosures/${params.id}`);
+	},
+	restore: async ({ locals, url, params }) => {
+		const access = await activeStudio(locals, 'catalog.edit', url);
+		if (!(await restoreEnclosure(access.studioId, params.id))) error(404, 'Not found.');
+		redirect(303, `/enclosures/${params.id}`);
+	},
+	duplicate: async ({ locals, url, params }) => {
+		const access = await activeStudio(locals, 'catalog.edit', url);
+		const copy = await duplicateEnclosure(access.studioId, access.user.id, params.id);
+		if (!copy.ok) error(copy.status === 404 ? 404 : 400, 'Could not copy this enclosure.');
+		redirect(303, `/enclosures/${copy.value.id}`);
+	}
+};

@@ -1,0 +1,32 @@
+import { superValidate } from 'sveltekit-superforms';
+import { activeStudio } from '$lib/server/access';
+import { enclosureAdapter, saveEnclosureForm } from '$lib/server/catalog/enclosure-form';
+import { enclosureToForm } from '$lib/components/catalog/schemas';
+import type { EnclosureDef } from '$lib/geometry';
+import type { Actions, PageServerLoad } from './$types';
+
+/** A plain starting box: 2 mm panels, nothing inside yet. */
+function starter(): EnclosureDef {
+	const panel = { thicknessMm: 2, kind: 'solid' as const, offsetMm: 0 };
+	return {
+		name: '',
+		outerMm: [200, 320, 240],
+		walls: { left: { ...panel }, right: { ...panel }, bottom: { ...panel }, top: { ...panel }, front: { ...panel }, back: { ...panel } },
+		dividers: [],
+		brackets: [],
+		mounts: []
+	};
+}
+
+export const load: PageServerLoad = async ({ locals, url }) => {
+	const access = await activeStudio(locals, 'catalog.edit', url);
+	const form = await superValidate(enclosureToForm(starter(), { revision: 0, description: '' }), enclosureAdapter, { errors: false });
+	return { studioName: access.studioName, form };
+};
+
+export const actions: Actions = {
+	save: async ({ request, locals, url }) => {
+		const access = await activeStudio(locals, 'catalog.edit', url);
+		return saveEnclosureForm(request, access);
+	}
+};
