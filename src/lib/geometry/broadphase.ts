@@ -69,7 +69,7 @@ function bruteForce(f: Float64Array, n: number, out: PairBuffer): void {
 }
 
 /** Below this many boxes the grid costs more than it saves. */
-const BRUTE_FORCE_BELOW = 48;
+const BRUTE_FORCE_BELOW = 64;
 /** A box covering more cells than this is tested against all boxes instead. */
 const MAX_CELLS_PER_BOX = 64;
 
@@ -115,9 +115,8 @@ function planGrid(f: Float64Array, n: number): Grid {
 	return { origin: [lo[0], lo[1], lo[2]], inv, dims };
 }
 
-function cellOf(grid: Grid, a: number, v: number): number {
-	const c = Math.floor((v - grid.origin[a]) * grid.inv[a]);
-	return c < 0 ? 0 : c >= grid.dims[a] ? grid.dims[a] - 1 : c;
+function clampCell(c: number, max: number): number {
+	return c < 0 ? 0 : c > max ? max : c;
 }
 
 /**
@@ -142,14 +141,19 @@ export function overlappingPairsFlat(
 	const big: number[] = [];
 	const isBig = new Uint8Array(n);
 	const counts = new Int32Array(cellCount + 1);
+	const [ox, oy, oz] = grid.origin;
+	const [ix, iy, iz] = grid.inv;
+	const mx = dx - 1;
+	const my = dy - 1;
+	const mz = dz - 1;
 	for (let i = 0; i < n; i++) {
 		const o = i * 6;
-		const x0 = cellOf(grid, 0, flat[o]);
-		const y0 = cellOf(grid, 1, flat[o + 1]);
-		const z0 = cellOf(grid, 2, flat[o + 2]);
-		const x1 = cellOf(grid, 0, flat[o + 3]);
-		const y1 = cellOf(grid, 1, flat[o + 4]);
-		const z1 = cellOf(grid, 2, flat[o + 5]);
+		const x0 = clampCell(Math.floor((flat[o] - ox) * ix), mx);
+		const y0 = clampCell(Math.floor((flat[o + 1] - oy) * iy), my);
+		const z0 = clampCell(Math.floor((flat[o + 2] - oz) * iz), mz);
+		const x1 = clampCell(Math.floor((flat[o + 3] - ox) * ix), mx);
+		const y1 = clampCell(Math.floor((flat[o + 4] - oy) * iy), my);
+		const z1 = clampCell(Math.floor((flat[o + 5] - oz) * iz), mz);
 		range[o] = x0;
 		range[o + 1] = y0;
 		range[o + 2] = z0;
@@ -198,14 +202,27 @@ export function overlappingPairsFlat(
 				for (let p = start; p < end; p++) {
 					const i = members[p];
 					const oi = i * 6;
+					const ax0 = flat[oi];
+					const ay0 = flat[oi + 1];
+					const az0 = flat[oi + 2];
+					const ax1 = flat[oi + 3];
+					const ay1 = flat[oi + 4];
+					const az1 = flat[oi + 5];
+					const rx = range[oi];
+					const ry = range[oi + 1];
+					const rz = range[oi + 2];
 					for (let q = p + 1; q < end; q++) {
 						const j = members[q];
 						const oj = j * 6;
-						// The cell holding the overlap's low corner reports the pair; others skip it.
-						const ox = range[oi] > range[oj] ? range[oi] : range[oj];
-						const oy = range[oi + 1] > range[oj + 1] ? range[oi + 1] : range[oj + 1];
-						const oz = range[oi + 2] > range[oj + 2] ? range[oi + 2] : range[oj + 2];
-						if (ox === x && oy === y && oz === z && overlapsFlat(flat, i, j)) {
+						if (
+							Math.min(ax1, flat[oj + 3]) - Math.max(ax0, flat[oj]) > EPSILON_MM &&
+							Math.min(ay1, flat[oj + 4]) - Math.max(ay0, flat[oj + 1]) > EPSILON_MM &&
+							Math.min(az1, flat[oj + 5]) - Math.max(az0, flat[oj + 2]) > EPSILON_MM &&
+							// The cell holding the overlap's low corner reports the pair; others skip it.
+							(rx > range[oj] ? rx : range[oj]) === x &&
+							(ry > range[oj + 1] ? ry : range[oj + 1]) === y &&
+							(rz > range[oj + 2] ? rz : range[oj + 2]) === z
+						) {
 							out.push(i, j);
 						}
 					}
@@ -232,4 +249,23 @@ export function overlappingPairs(boxes: readonly Box[]): [number, number][] {
 		out[k] = [pairs[2 * k], pairs[2 * k + 1]];
 	}
 	return out;
+}
+
+/**
+ * Overlapping pairs with their overlap volumes (mm³), straight from typed arrays: what the
+ * interference markers and the benchmark need without building a Box per pair.
+ */
+export function overlapVolumes(boxes: readonly Box[]): { pairs: Int32Array; volumesMm3: Float64Array; count: number } {
+	const flat = flattenBoxes(boxes);
+	const { pairs, count } = overlappingPairsFlat(flat, boxes.length);
+	const volumesMm3 = new Float64Array(count);
+	for (let k = 0; k < count; k++) {
+		const a = pairs[2 * k] * 6;
+		const b = pairs[2 * k + 1] * 6;
+		volumesMm3[k] =
+			(Math.min(flat[a + 3], flat[b + 3]) - Math.max(flat[a], flat[b])) *
+			(Math.min(flat[a + 4], flat[b + 4]) - Math.max(flat[a + 1], flat[b + 1])) *
+			(Math.min(flat[a + 5], flat[b + 5]) - Math.max(flat[a + 2], flat[b + 2]));
+	}
+	return { pairs: pairs.subarray(0, 2 * count), volumesMm3, count };
 }

@@ -171,7 +171,7 @@ function sideLabel(divider: DividerDef, high: boolean): string {
 
 interface Cell {
 	box: Box;
-	sides: { dividerId: string; high: boolean; label: string }[];
+	sides: { def: DividerDef; high: boolean }[];
 }
 
 /** True when the slab cuts the cell in two: strictly inside on its axis, covering it on the others. */
@@ -190,8 +190,8 @@ function cuts(slab: Box, axis: AxisIndex, cell: Box): boolean {
 /** Side names of the bounding dividers, by divider id; an empty side name is left out. */
 function cellLabel(cell: Cell): string {
 	const words = [...cell.sides]
-		.sort((a, b) => compareText(a.dividerId, b.dividerId))
-		.map((s) => s.label)
+		.sort((a, b) => compareText(a.def.id, b.def.id))
+		.map((s) => sideLabel(s.def, s.high))
 		.filter((label) => label.length > 0);
 	return words.length === 0 ? 'Inside' : words.join(', ');
 }
@@ -201,9 +201,24 @@ function cellId(cell: Cell): string {
 		return 'inside';
 	}
 	return cell.sides
-		.map((s) => `${s.dividerId}.${s.high ? 'high' : 'low'}`)
+		.map((s) => `${s.def.id}.${s.high ? 'high' : 'low'}`)
 		.sort()
 		.join('+');
+}
+
+/** A divider at its chosen position, as compartments need it. */
+export interface Slab {
+	def: DividerDef;
+	axis: AxisIndex;
+	box: Box;
+}
+
+export function slabsFor(enclosure: EnclosureDef, dividerPositions: Record<string, number>): Slab[] {
+	return enclosure.dividers.map((d) => ({
+		def: d,
+		axis: axisIndex(d.axis),
+		box: dividerBoxAt(enclosure, d, controlOffset(d, dividerPositions, 'dividerPositions'))
+	}));
 }
 
 /**
@@ -215,12 +230,15 @@ export function compartmentsFor(
 	enclosure: EnclosureDef,
 	dividerPositions: Record<string, number>
 ): Compartment[] {
-	const slabs = enclosure.dividers.map((d) => ({
-		def: d,
-		axis: axisIndex(d.axis),
-		box: dividerBoxAt(enclosure, d, controlOffset(d, dividerPositions, 'dividerPositions'))
-	}));
-	let cells: Cell[] = [{ box: innerBoxOf(enclosure), sides: [] }];
+	return cutCompartments(innerBoxOf(enclosure), slabsFor(enclosure, dividerPositions));
+}
+
+/**
+ * compartmentsFor on slabs already placed. A sweep passes one `labels` map for all its steps: a
+ * compartment's label follows from its id, so it is built once.
+ */
+export function cutCompartments(inner: Box, slabs: readonly Slab[], labels = new Map<string, string>()): Compartment[] {
+	let cells: Cell[] = [{ box: inner, sides: [] }];
 	let split = true;
 	while (split) {
 		split = false;
@@ -236,24 +254,22 @@ export function compartmentsFor(
 			const highBox: Box = { min: [...cell.box.min], max: [...cell.box.max] };
 			lowBox.max[slab.axis] = slab.box.min[slab.axis];
 			highBox.min[slab.axis] = slab.box.max[slab.axis];
-			for (const [box, high] of [
-				[lowBox, false],
-				[highBox, true]
-			] as const) {
-				next.push({
-					box,
-					sides: [...cell.sides, { dividerId: slab.def.id, high, label: sideLabel(slab.def, high) }]
-				});
-			}
+			next.push(
+				{ box: lowBox, sides: [...cell.sides, { def: slab.def, high: false }] },
+				{ box: highBox, sides: [...cell.sides, { def: slab.def, high: true }] }
+			);
 		}
 		cells = next;
 	}
 	return cells
-		.map((cell) => ({
-			id: cellId(cell),
-			label: cellLabel(cell),
-			box: cell.box,
-			sizeMm: boxSize(cell.box)
-		}))
+		.map((cell) => {
+			const id = cellId(cell);
+			let label = labels.get(id);
+			if (label === undefined) {
+				label = cellLabel(cell);
+				labels.set(id, label);
+			}
+			return { id, label, box: cell.box, sizeMm: boxSize(cell.box) };
+		})
 		.sort((a, b) => compareText(a.id, b.id));
 }

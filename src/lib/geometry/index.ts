@@ -16,7 +16,7 @@ export {
 	compartmentsFor
 } from './enclosure';
 export { rotationMap, rotateBox, rotatePoint, rotateDirection } from './rotation';
-export { overlappingPairs, overlappingPairsFlat, flattenBoxes } from './broadphase';
+export { overlappingPairs, overlappingPairsFlat, overlapVolumes, flattenBoxes } from './broadphase';
 export { pairKind, isObstacle } from './pairs';
 export { checkScene, reportFor, compartmentOf } from './check';
 export { mountReport, mountReports, mountAccepts, partClasses } from './mounts';

@@ -24,6 +24,8 @@ export interface Model {
 	obstacle: Uint8Array;
 	/** Box indexes of each placement's bodies. */
 	bodiesOf: number[][];
+	/** Box indexes of every body, all placements together. */
+	bodyBoxes: Int32Array;
 	/** Faces of the inner box each placement's bodies cross; does not depend on controls. */
 	outsideFaces: Face[][];
 	/** Per placement: the face index (see FACE_INDEX) that points at its mount's panel, or -1. */
@@ -67,7 +69,8 @@ export function buildModel(scene: Scene, resolved: ResolvedScene): Model {
 		obstacle[i] = isObstacle(b) ? 1 : 0;
 	});
 	const indexOf = new Map(boxes.map((b, i) => [b.id, i]));
-	return { scene, resolved, boxes, flat, owner, obstacle, bodiesOf, outsideFaces, mountFace, mountOf, indexOf };
+	const bodyBoxes = Int32Array.from(bodiesOf.flat());
+	return { scene, resolved, boxes, flat, owner, obstacle, bodiesOf, bodyBoxes, outsideFaces, mountFace, mountOf, indexOf };
 }
 
 export function writeFlat(flat: Float64Array, i: number, box: Box): void {
@@ -105,9 +108,12 @@ export interface Tally {
 	interferenceMm3: number;
 	keepoutMm3: number;
 	collisions: number;
+	/** In a sweep step: the placements the moved boxes touched; the rest keep their static status. */
+	touched: number[] | null;
+	touchedFlag: Uint8Array;
 }
 
-export function emptyTally(placements: number): Tally {
+export function emptyTally(placements: number, track = false): Tally {
 	return {
 		collides: new Uint8Array(placements),
 		blocked: new Uint8Array(placements),
@@ -115,20 +121,33 @@ export function emptyTally(placements: number): Tally {
 		against: new Int32Array(placements * 6).fill(-1),
 		interferenceMm3: 0,
 		keepoutMm3: 0,
-		collisions: 0
+		collisions: 0,
+		touched: track ? [] : null,
+		touchedFlag: new Uint8Array(track ? placements : 0)
 	};
 }
 
-export function copyTally(t: Tally): Tally {
-	return {
-		collides: t.collides.slice(),
-		blocked: t.blocked.slice(),
-		gap: t.gap.slice(),
-		against: t.against.slice(),
-		interferenceMm3: t.interferenceMm3,
-		keepoutMm3: t.keepoutMm3,
-		collisions: t.collisions
-	};
+function touch(tally: Tally, p: number): void {
+	if (tally.touched && !tally.touchedFlag[p]) {
+		tally.touchedFlag[p] = 1;
+		tally.touched.push(p);
+	}
+}
+
+/** Copies `from` into `into` (same size), so a sweep reuses one scratch tally for every step. */
+export function copyTallyInto(from: Tally, into: Tally): Tally {
+	into.collides.set(from.collides);
+	into.blocked.set(from.blocked);
+	into.gap.set(from.gap);
+	into.against.set(from.against);
+	into.interferenceMm3 = from.interferenceMm3;
+	into.keepoutMm3 = from.keepoutMm3;
+	into.collisions = from.collisions;
+	if (into.touched) {
+		for (const p of into.touched) into.touchedFlag[p] = 0;
+		into.touched.length = 0;
+	}
+	return into;
 }
 
 /** Overlap volume of boxes i (in fa) and j (in fb), or 0 when they only touch or are apart. */
@@ -150,14 +169,14 @@ function addPair(model: Model, tally: Tally, i: number, j: number, kind: Overlap
 	if (kind === 'collides') {
 		tally.collisions++;
 		tally.interferenceMm3 += volume;
-		if (pi >= 0) tally.collides[pi] = 1;
-		if (pj >= 0) tally.collides[pj] = 1;
+		if (pi >= 0) (tally.collides[pi] = 1), touch(tally, pi);
+		if (pj >= 0) (tally.collides[pj] = 1), touch(tally, pj);
 		return;
 	}
 	tally.keepoutMm3 += volume;
 	if (kind === 'blocked') {
-		if (pi >= 0) tally.blocked[pi] = 1;
-		if (pj >= 0) tally.blocked[pj] = 1;
+		if (pi >= 0) (tally.blocked[pi] = 1), touch(tally, pi);
+		if (pj >= 0) (tally.blocked[pj] = 1), touch(tally, pj);
 	}
 }
 
@@ -178,23 +197,36 @@ function addGap(
 ): void {
 	const b = bi * 6;
 	const o = oi * 6;
-	const ox = Math.min(fb[b + 3], fo[o + 3]) - Math.max(fb[b], fo[o]);
-	const oy = Math.min(fb[b + 4], fo[o + 4]) - Math.max(fb[b + 1], fo[o + 1]);
-	const oz = Math.min(fb[b + 5], fo[o + 5]) - Math.max(fb[b + 2], fo[o + 2]);
-	for (let a = 0; a < 3; a++) {
-		const u = a === 0 ? oy : ox;
-		const v = a === 2 ? oy : oz;
-		if (!(u > EPSILON_MM && v > EPSILON_MM)) {
-			continue;
-		}
-		const bodyCentre = fb[b + a] + fb[b + 3 + a];
-		const obstacleCentre = fo[o + a] + fo[o + 3 + a];
-		if (obstacleCentre >= bodyCentre) {
-			offerGap(model, tally, p * 6 + 2 * a + 1, fo[o + a] - fb[b + 3 + a], obstacleIndex);
-		}
-		if (obstacleCentre <= bodyCentre) {
-			offerGap(model, tally, p * 6 + 2 * a, fb[b + a] - fo[o + 3 + a], obstacleIndex);
-		}
+	const ox = Math.min(fb[b + 3], fo[o + 3]) - Math.max(fb[b], fo[o]) > EPSILON_MM;
+	const oy = Math.min(fb[b + 4], fo[o + 4]) - Math.max(fb[b + 1], fo[o + 1]) > EPSILON_MM;
+	if (!ox && !oy) {
+		return;
+	}
+	const oz = Math.min(fb[b + 5], fo[o + 5]) - Math.max(fb[b + 2], fo[o + 2]) > EPSILON_MM;
+	if (oy && oz) gapAlong(model, tally, p, fb, b, fo, o, 0, obstacleIndex);
+	if (ox && oz) gapAlong(model, tally, p, fb, b, fo, o, 1, obstacleIndex);
+	if (ox && oy) gapAlong(model, tally, p, fb, b, fo, o, 2, obstacleIndex);
+}
+
+/** The obstacle shares area with the body seen along axis a: offer it to the face it is ahead of. */
+function gapAlong(
+	model: Model,
+	tally: Tally,
+	p: number,
+	fb: Float64Array,
+	b: number,
+	fo: Float64Array,
+	o: number,
+	a: number,
+	obstacleIndex: number
+): void {
+	const bodyCentre = fb[b + a] + fb[b + 3 + a];
+	const obstacleCentre = fo[o + a] + fo[o + 3 + a];
+	if (obstacleCentre >= bodyCentre) {
+		offerGap(model, tally, p * 6 + 2 * a + 1, fo[o + a] - fb[b + 3 + a], obstacleIndex);
+	}
+	if (obstacleCentre <= bodyCentre) {
+		offerGap(model, tally, p * 6 + 2 * a, fb[b + a] - fo[o + 3 + a], obstacleIndex);
 	}
 }
 
@@ -207,6 +239,32 @@ function offerGap(model: Model, tally: Tally, slot: number, gap: number, obstacl
 	) {
 		tally.gap[slot] = gap;
 		tally.against[slot] = obstacleIndex;
+		touch(tally, (slot / 6) | 0);
+	}
+}
+
+/**
+ * Gaps along axis a. Only boxes that share area seen along a can be ahead of each other, so the
+ * broadphase runs on the boxes stretched to the same unit slab along a: its pairs are exactly the
+ * pairs whose projections on the other two axes overlap.
+ */
+function tallyGapsAlong(model: Model, tally: Tally, obstacles: readonly number[], a: number): void {
+	const m = obstacles.length;
+	const beams = new Float64Array(m * 6);
+	for (let k = 0; k < m; k++) {
+		beams.set(model.flat.subarray(obstacles[k] * 6, obstacles[k] * 6 + 6), k * 6);
+		beams[k * 6 + a] = 0;
+		beams[k * 6 + 3 + a] = 1;
+	}
+	const found = overlappingPairsFlat(beams, m);
+	for (let q = 0; q < found.count; q++) {
+		const i = obstacles[found.pairs[2 * q]];
+		const j = obstacles[found.pairs[2 * q + 1]];
+		const pi = model.owner[i];
+		const pj = model.owner[j];
+		if (pi === pj) continue;
+		if (pi >= 0) gapAlong(model, tally, pi, model.flat, i * 6, model.flat, j * 6, a, j);
+		if (pj >= 0) gapAlong(model, tally, pj, model.flat, j * 6, model.flat, i * 6, a, i);
 	}
 }
 
@@ -241,31 +299,26 @@ export function tallyStatic(model: Model, included: Uint8Array | null): { tally:
 		pairs.push({ i: Math.min(i, j), j: Math.max(i, j), kind, volumeMm3 });
 	}
 	const obstacles = ids.filter((i) => model.obstacle[i]);
-	model.bodiesOf.forEach((bodies, p) => {
-		for (const bi of bodies) {
-			if (included && !included[bi]) continue;
-			for (const oi of obstacles) {
-				if (model.owner[oi] !== p) {
-					addGap(model, tally, p, model.flat, bi, model.flat, oi, oi);
-				}
-			}
-		}
-	});
+	for (let a = 0; a < 3; a++) {
+		tallyGapsAlong(model, tally, obstacles, a);
+	}
 	return { tally, pairs };
 }
 
 /**
- * Adds moved control boxes to a copy of a static tally: `moving[k]` is the box index of a divider
- * or bracket, its geometry for this step in `movingFlat` at k. `included` is the static set.
+ * Adds moved control boxes to a copy of a static tally (written into `scratch`): `moving[k]` is
+ * the box index of a divider or bracket, its geometry for this step in `movingFlat` at k.
+ * `included` is the static set.
  */
 export function tallyMoving(
 	model: Model,
 	base: Tally,
 	included: Uint8Array,
 	moving: readonly number[],
-	movingFlat: Float64Array
+	movingFlat: Float64Array,
+	scratch: Tally = emptyTally(model.bodiesOf.length, true)
 ): Tally {
-	const tally = copyTally(base);
+	const tally = copyTallyInto(base, scratch);
 	const n = model.boxes.length;
 	for (let k = 0; k < moving.length; k++) {
 		const mi = moving[k];
@@ -283,11 +336,11 @@ export function tallyMoving(
 			const kind = volume > 0 ? pairKind(mBox, model.boxes[moving[l]]) : null;
 			if (kind) addPair(model, tally, mi, moving[l], kind, volume);
 		}
-		model.bodiesOf.forEach((bodies, p) => {
-			for (const bi of bodies) {
-				addGap(model, tally, p, model.flat, bi, movingFlat, k, mi);
-			}
-		});
+		const { bodyBoxes, owner } = model;
+		for (let q = 0; q < bodyBoxes.length; q++) {
+			const bi = bodyBoxes[q];
+			addGap(model, tally, owner[bi], model.flat, bi, movingFlat, k, mi);
+		}
 	}
 	return tally;
 }
@@ -339,4 +392,22 @@ export function statusCounts(model: Model, tally: Tally, marginMm: number): { st
 	const statuses = model.bodiesOf.map((_, p) => placementStatus(model, tally, p, marginMm));
 	for (const s of statuses) counts[s]++;
 	return { statuses, counts };
+}
+
+/**
+ * Counts for a sweep step: the static statuses, redone only for the placements the moved boxes
+ * touched (a placement nothing moved against keeps its status).
+ */
+export function stepCounts(
+	model: Model,
+	tally: Tally,
+	marginMm: number,
+	base: { statuses: FitStatus[]; counts: StatusCounts }
+): StatusCounts {
+	const counts = { ...base.counts };
+	for (const p of tally.touched ?? model.bodiesOf.map((_, i) => i)) {
+		counts[base.statuses[p]]--;
+		counts[placementStatus(model, tally, p, marginMm)]++;
+	}
+	return counts;
 }

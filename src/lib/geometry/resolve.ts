@@ -11,8 +11,8 @@ import {
 } from './enclosure';
 import { SceneError } from './errors';
 import { rotateBox, rotateDirection, rotatePoint, rotationMap } from './rotation';
-import { formatPath, type PartDef, type Placement, type Scene, type Vec3 } from './schema';
-import type { ResolvedPlacement, ResolvedScene } from './types';
+import { formatPath, type Box, type PartDef, type Placement, type Scene, type Vec3 } from './schema';
+import type { ResolvedPlacement, ResolvedScene, WorldBox } from './types';
 
 /**
  * Turns the part (X, then Y, then Z quarter turns), then moves it so the min corner of its turned
@@ -27,23 +27,33 @@ export function placePart(part: PartDef, placement: Placement): ResolvedPlacemen
 		placement.position[1] - turnedBounds.min[1],
 		placement.position[2] - turnedBounds.min[2]
 	];
-	const common = { ownerId: placement.id, placementId: placement.id, partId: part.id };
-	const bodies = part.bodies.map((b, i) => ({
-		...common,
-		id: `${placement.id}/${b.id}`,
-		kind: 'body' as const,
-		label: `${part.name} · ${b.label}`,
-		box: translateBox(turnedBodies[i], shift)
-	}));
-	const keepouts = part.keepouts.map((k) => ({
-		...common,
-		id: `${placement.id}/${k.id}`,
-		kind: 'keepout' as const,
-		label: `${part.name} · ${k.label}`,
-		box: translateBox(rotateBox(map, k.box), shift),
-		keepoutKind: k.kind,
-		severity: k.severity
-	}));
+	const bodies: WorldBox[] = [];
+	for (let i = 0; i < part.bodies.length; i++) {
+		const b = part.bodies[i];
+		bodies.push({
+			id: `${placement.id}/${b.id}`,
+			kind: 'body',
+			label: `${part.name} · ${b.label}`,
+			box: translateBox(turnedBodies[i], shift),
+			ownerId: placement.id,
+			placementId: placement.id,
+			partId: part.id
+		});
+	}
+	const keepouts: WorldBox[] = [];
+	for (const k of part.keepouts) {
+		keepouts.push({
+			id: `${placement.id}/${k.id}`,
+			kind: 'keepout',
+			label: `${part.name} · ${k.label}`,
+			box: translateBox(rotateBox(map, k.box), shift),
+			ownerId: placement.id,
+			placementId: placement.id,
+			partId: part.id,
+			keepoutKind: k.kind,
+			severity: k.severity
+		});
+	}
 	const ports = part.ports.map((p) => {
 		const turned = rotatePoint(map, p.position);
 		return {
@@ -53,7 +63,12 @@ export function placePart(part: PartDef, placement: Placement): ResolvedPlacemen
 			thread: p.thread
 		};
 	});
-	return { placement, part, bodies, keepouts, ports, bounds: boundsOf(bodies.map((b) => b.box)) };
+	const bounds: Box = { min: [...turnedBounds.min], max: [...turnedBounds.max] };
+	for (let i = 0; i < 3; i++) {
+		bounds.min[i] += shift[i];
+		bounds.max[i] += shift[i];
+	}
+	return { placement, part, bodies, keepouts, ports, bounds };
 }
 
 /**

@@ -5,9 +5,9 @@
  */
 
 import { FACES, compareText, type Face } from './box';
-import { bracketBoxAt, compartmentsFor, dividerBoxAt } from './enclosure';
+import { bracketBoxAt, cutCompartments, dividerBoxAt, slabsFor } from './enclosure';
 import { SceneError } from './errors';
-import { buildModel, statusCounts, tallyMoving, tallyStatic, writeFlat, type Model, type Tally } from './model';
+import { buildModel, emptyTally, statusCounts, stepCounts, tallyMoving, tallyStatic, writeFlat, type Model, type Tally } from './model';
 import { allowedIndex, allowedPositions, type AllowedPosition } from './positions';
 import { resolveScene } from './resolve';
 import type { Box, BracketDef, DividerDef, Scene } from './schema';
@@ -74,20 +74,24 @@ function prepare(scene: Scene, controls: SweepControl[], gaps: GapRequest[] | un
 	const movesDivider = moving.some((m) => m.control.kind === 'divider');
 	const movingFlat = new Float64Array(moving.length * 6);
 	const indexes = moving.map((m) => m.index);
+	const scratch = emptyTally(model.bodiesOf.length, true);
+	const baseStatus = statusCounts(model, base, scene.marginMm);
+	const slabs = slabsFor(scene.enclosure, resolved.dividerPositions);
+	const labels = new Map<string, string>();
 
 	return {
 		moving,
 		evaluate(offsets: number[]): SweepMetrics {
 			moving.forEach((m, k) => writeFlat(movingFlat, k, m.boxAt(offsets[k])));
-			const tally = tallyMoving(model, base, included, indexes, movingFlat);
-			const { counts } = statusCounts(model, tally, scene.marginMm);
+			const tally = tallyMoving(model, base, included, indexes, movingFlat, scratch);
+			const counts = stepCounts(model, tally, scene.marginMm, baseStatus);
 			let compartments = resolved.compartments;
 			if (movesDivider) {
-				const positions = { ...resolved.dividerPositions };
 				moving.forEach((m, k) => {
-					if (m.control.kind === 'divider') positions[m.def.id] = offsets[k];
+					const slab = slabs.find((s) => s.def.id === m.def.id);
+					if (m.control.kind === 'divider' && slab) slab.box = m.boxAt(offsets[k]);
 				});
-				compartments = compartmentsFor(scene.enclosure, positions);
+				compartments = cutCompartments(resolved.innerBox, slabs, labels);
 			}
 			return {
 				interferenceVolumeMm3: tally.interferenceMm3,

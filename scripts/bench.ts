@@ -1,0 +1,268 @@
+/**
+ * Fit-engine benchmark (`npm run bench`). Side by side, in one run, on the same seeded boxes:
+ * the engine's overlap pairs + volumes, box-intersect's pair enumeration, and naive all pairs with
+ * three.js Box3 (n ≤ 2,000); then checkScene on a 100-part enclosure and a 200-position sweep over
+ * 100 boxes. Medians after warm-up. Prints a table, then one JSON object as the last line.
+ */
+import boxIntersect from 'box-intersect';
+import { Box3, Vector3 } from 'three';
+import {
+	checkScene,
+	overlapVolumes,
+	sceneSchema,
+	sweep,
+	type Box,
+	type Scene,
+	type SceneInput,
+	type Vec3
+} from '../src/lib/geometry/index';
+
+const SEED = 20_240_601;
+
+/** mulberry32: small, fast, and the same sequence on every machine. */
+function rng(seed: number): () => number {
+	let a = seed >>> 0;
+	return () => {
+		a = (a + 0x6d2b79f5) >>> 0;
+		let t = a;
+		t = Math.imul(t ^ (t >>> 15), t | 1);
+		t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+		return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+	};
+}
+
+/**
+ * n boxes 5–60 mm a side in a cube whose side grows with the cube root of n, so the density, and
+ * with it the overlaps per box (about one), stays the same at every n, as in a real layout.
+ */
+function randomBoxes(n: number, seed: number): Box[] {
+	const next = rng(seed);
+	const side = 50 * Math.cbrt(n);
+	const boxes: Box[] = [];
+	for (let i = 0; i < n; i++) {
+		const size = [5 + 55 * next(), 5 + 55 * next(), 5 + 55 * next()];
+		const min: Vec3 = [next() * side, next() * side, next() * side];
+		boxes.push({ min, max: [min[0] + size[0], min[1] + size[1], min[2] + size[2]] });
+	}
+	return boxes;
+}
+
+function median(values: number[]): number {
+	const s = [...values].sort((a, b) => a - b);
+	const m = s.length >> 1;
+	return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
+}
+
+/** Median wall time (ms) of `runs` calls after `warmup` untimed ones. */
+function time<T>(fn: () => T, runs: number, warmup: number): { ms: number; result: T } {
+	let result = fn();
+	for (let i = 1; i < warmup; i++) result = fn();
+	const samples: number[] = [];
+	for (let i = 0; i < runs; i++) {
+		const t0 = performance.now();
+		result = fn();
+		samples.push(performance.now() - t0);
+	}
+	return { ms: median(samples), result };
+}
+
+const pairKey = (i: number, j: number) => (i < j ? i * 1_000_003 + j : j * 1_000_003 + i);
+
+function enginePairs(boxes: Box[]): Set<number> {
+	const { pairs, count } = overlapVolumes(boxes);
+	const out = new Set<number>();
+	for (let k = 0; k < count; k++) out.add(pairKey(pairs[2 * k], pairs[2 * k + 1]));
+	return out;
+}
+
+function sameSet(a: Set<number>, b: Set<number>): boolean {
+	if (a.size !== b.size) return false;
+	for (const x of a) if (!b.has(x)) return false;
+	return true;
+}
+
+interface Row {
+	n: number;
+	pairs: number;
+	engineMs: number;
+	boxIntersectMs: number;
+	naiveMs: number | null;
+}
+
+function broadphaseRow(n: number): Row {
+	const boxes = randomBoxes(n, SEED + n);
+	const arrays = boxes.map((b) => [...b.min, ...b.max]);
+	const box3s = boxes.map((b) => new Box3(new Vector3(...b.min), new Vector3(...b.max)));
+	const runs = n <= 200 ? 101 : n <= 2000 ? 21 : 9;
+	const warmup = n <= 200 ? 300 : n <= 2000 ? 20 : 4;
+
+	const engine = time(() => overlapVolumes(boxes), runs, warmup);
+	const bi = time(() => {
+		const out: number[] = [];
+		boxIntersect(arrays, (i, j) => {
+			out.push(i, j);
+		});
+		return out;
+	}, runs, warmup);
+	const naive =
+		n <= 2000
+			? time(() => {
+					const out: number[] = [];
+					const shared = new Box3();
+					const size = new Vector3();
+					for (let i = 0; i < n; i++) {
+						for (let j = i + 1; j < n; j++) {
+							if (!box3s[i].intersectsBox(box3s[j])) continue;
+							shared.copy(box3s[i]).intersect(box3s[j]).getSize(size);
+							out.push(i, j, size.x * size.y * size.z);
+						}
+					}
+					return out;
+				}, Math.max(5, runs >> 1), 3)
+			: null;
+
+	// Every contender must have found the same pairs (random real coordinates never just touch).
+	const mine = enginePairs(boxes);
+	const theirs = new Set<number>();
+	for (let k = 0; k < bi.result.length; k += 2) theirs.add(pairKey(bi.result[k], bi.result[k + 1]));
+	if (!sameSet(mine, theirs)) throw new Error(`n=${n}: engine and box-intersect disagree (${mine.size} vs ${theirs.size})`);
+	if (naive) {
+		const plain = new Set<number>();
+		for (let k = 0; k < naive.result.length; k += 3) plain.add(pairKey(naive.result[k], naive.result[k + 1]));
+		if (!sameSet(mine, plain)) throw new Error(`n=${n}: engine and naive Box3 disagree (${mine.size} vs ${plain.size})`);
+	}
+	return { n, pairs: mine.size, engineMs: engine.ms, boxIntersectMs: bi.ms, naiveMs: naive ? naive.ms : null };
+}
+
+const panel = (kind: 'solid' | 'mesh' = 'solid') => ({ thicknessMm: 2, kind, offsetMm: 0 });
+
+/**
+ * A realistic large layout: 600 × 400 × 500 mm inside, a sliding divider and a bracket, 100 placed
+ * parts of ten invented kinds (one or two bodies, one keep-out each) on a loose grid, a few of
+ * them overlapping.
+ */
+function hundredPartScene(): Scene {
+	const next = rng(SEED);
+	const parts = Array.from({ length: 10 }, (_, k) => {
+		const w = 20 + Math.round(next() * 40);
+		const h = 15 + Math.round(next() * 30);
+		const d = 20 + Math.round(next() * 40);
+		const bodies = [{ id: 'body', label: 'body', box: { min: [0, 0, 0] as Vec3, max: [w, h, d] as Vec3 } }];
+		if (k % 2 === 0) bodies.push({ id: 'cap', label: 'cap', box: { min: [4, h, 4], max: [w - 4, h + 6, d - 4] } });
+		return {
+			id: `kind-${k}`,
+			name: `Generic part ${k}`,
+			category: 'other' as const,
+			bodies,
+			keepouts: [{ id: 'room', label: 'service room', kind: 'service' as const, severity: (k % 3 === 0 ? 'warning' : 'error') as 'warning' | 'error', box: { min: [0, -8, 0] as Vec3, max: [w, 0, d] as Vec3 } }]
+		};
+	});
+	const placements = Array.from({ length: 100 }, (_, i) => {
+		const col = i % 10;
+		const row = Math.floor(i / 10) % 5;
+		const layer = Math.floor(i / 50);
+		return {
+			id: `p${String(i).padStart(3, '0')}`,
+			partId: `kind-${Math.floor(next() * 10)}`,
+			position: [col * 58 + 4 + Math.round(next() * 10), 10 + layer * 180 + Math.round(next() * 20), row * 96 + 4 + Math.round(next() * 20)] as Vec3,
+			rotation: { x: 0, y: Math.floor(next() * 4), z: 0 }
+		};
+	});
+	const input: SceneInput = {
+		format: 'interstice.scene',
+		version: 1,
+		enclosure: {
+			name: 'Benchmark enclosure',
+			outerMm: [604, 404, 504],
+			walls: { left: panel(), right: panel(), bottom: panel(), top: panel(), front: panel('mesh'), back: panel() },
+			dividers: [{ id: 'shelf', label: 'Shelf', axis: 'y', thicknessMm: 2, positions: { kind: 'range', minMm: 120, maxMm: 200, stepMm: 10 } }],
+			brackets: [{ id: 'bar', label: 'Bar', kind: 'other', box: { min: [0, 380, 0], max: [600, 390, 20] }, axis: 'z', travel: { minMm: 0, maxMm: 400, stepMm: 20 } }],
+			mounts: []
+		},
+		parts,
+		dividerPositions: { shelf: 170 },
+		placements
+	};
+	return sceneSchema.parse(input);
+}
+
+/**
+ * 94 single-body parts + 6 walls = 100 boxes, and a divider with 200 allowed positions. The blocks
+ * sit in distinct cells of a 50 mm grid, so they clear each other and the divider collides only
+ * where it passes through one.
+ */
+function sweepScene(): Scene {
+	const next = rng(SEED + 1);
+	const cells = Array.from({ length: 20 * 6 * 6 }, (_, i) => i);
+	for (let i = cells.length - 1; i > 0; i--) {
+		const j = Math.floor(next() * (i + 1));
+		[cells[i], cells[j]] = [cells[j], cells[i]];
+	}
+	const placements = cells.slice(0, 94).map((c, i) => ({
+		id: `p${String(i).padStart(3, '0')}`,
+		partId: 'block',
+		position: [(c % 20) * 50 + 5, (Math.floor(c / 20) % 6) * 50 + 5, Math.floor(c / 120) * 50 + 5] as Vec3
+	}));
+	return sceneSchema.parse({
+		format: 'interstice.scene',
+		version: 1,
+		enclosure: {
+			name: 'Sweep enclosure',
+			outerMm: [1004, 304, 304],
+			walls: { left: panel(), right: panel(), bottom: panel(), top: panel(), front: panel(), back: panel() },
+			dividers: [{ id: 'wall', label: 'Divider', axis: 'x', thicknessMm: 2, positions: { kind: 'range', minMm: 100, maxMm: 896, stepMm: 4 } }]
+		},
+		parts: [{ id: 'block', name: 'Block', category: 'other', bodies: [{ id: 'body', label: 'body', box: { min: [0, 0, 0], max: [40, 40, 40] } }] }],
+		dividerPositions: { wall: 100 },
+		placements
+	} satisfies SceneInput);
+}
+
+function main(): void {
+	const rows = [50, 200, 2000, 20000].map(broadphaseRow);
+	const fmt = (v: number | null) => (v === null ? '—' : v.toFixed(3));
+	console.log('broadphase: overlap pairs + volumes, median ms (same boxes for every contender)');
+	console.log('n'.padStart(7), 'pairs'.padStart(7), 'engine'.padStart(9), 'box-int'.padStart(9), 'naive'.padStart(9), '÷box-int'.padStart(9), '÷naive'.padStart(9));
+	for (const r of rows) {
+		console.log(
+			String(r.n).padStart(7),
+			String(r.pairs).padStart(7),
+			fmt(r.engineMs).padStart(9),
+			fmt(r.boxIntersectMs).padStart(9),
+			fmt(r.naiveMs).padStart(9),
+			fmt(r.engineMs / r.boxIntersectMs).padStart(9),
+			fmt(r.naiveMs === null ? null : r.engineMs / r.naiveMs).padStart(9)
+		);
+	}
+
+	const big = hundredPartScene();
+	const check = time(() => checkScene(big), 41, 20);
+	const report = check.result;
+	console.log(
+		`checkScene, 100 parts (${report.parts.length} placements, ${report.overlaps.length} overlaps): ${check.ms.toFixed(3)} ms`
+	);
+
+	const swept = sweepScene();
+	const control = { kind: 'divider' as const, id: 'wall' };
+	const sw = time(() => sweep(swept, { control, gaps: [{ placementId: 'p000', face: '+x' }] }), 15, 5);
+	console.log(
+		`sweep, ${sw.result.points.length} positions over 100 boxes (${sw.result.feasibleIntervals.length} feasible runs): ${sw.ms.toFixed(3)} ms`
+	);
+
+	const byN = (n: number) => rows.find((r) => r.n === n)!;
+	const round = (v: number) => Math.round(v * 10_000) / 10_000;
+	console.log(
+		JSON.stringify({
+			n2000_vs_box_intersect: round(byN(2000).engineMs / byN(2000).boxIntersectMs),
+			n20000_vs_box_intersect: round(byN(20000).engineMs / byN(20000).boxIntersectMs),
+			n2000_vs_naive: round(byN(2000).engineMs / byN(2000).naiveMs!),
+			check100_ms: round(check.ms),
+			sweep200x100_ms: round(sw.ms),
+			n50_vs_box_intersect: round(byN(50).engineMs / byN(50).boxIntersectMs),
+			n200_vs_box_intersect: round(byN(200).engineMs / byN(200).boxIntersectMs),
+			pairs_per_box_n20000: round(byN(20000).pairs / 20000)
+		})
+	);
+}
+
+main();
