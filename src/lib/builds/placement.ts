@@ -8,6 +8,7 @@ import {
 	boundsOf,
 	boxSize,
 	mountAccepts,
+	partClasses,
 	placePart,
 	rotateBox,
 	rotationMap,
@@ -135,7 +136,9 @@ export function landOnMount(resolved: ResolvedScene, mount: MountDef, part: Part
 	const size = turnedSize(part, rotation);
 	const inner = resolved.innerBox;
 	const mounted = resolved.placements.filter((p) => p.placement.mountId === mount.id);
-	const plate = mount.plateMm ?? 0;
+	// The adapter plate sits under the stack only for the classes that need it, as the engine counts it.
+	const classes = new Set([part, ...mounted.map((p) => p.part)].flatMap(partClasses));
+	const plate = mount.plateFor === undefined || mount.plateFor.some((c) => classes.has(c)) ? (mount.plateMm ?? 0) : 0;
 	// Depth from the panel inward already used by the stack.
 	let used = plate + mount.standoffMm;
 	const layers = mounted.map((p) => (high ? inner.max[axis] - p.bounds.min[axis] : p.bounds.max[axis] - inner.min[axis]));
@@ -166,12 +169,13 @@ export function landOnMount(resolved: ResolvedScene, mount: MountDef, part: Part
 	return { position: fallback, rotation };
 }
 
-/** A free spot for a part in a compartment (or anywhere inside), upright as defined. */
-export function landInRoom(resolved: ResolvedScene, room: Box, part: PartDef): { position: Vec3; rotation: Rotation } {
+/** A free spot for a part in a compartment (or anywhere inside), upright as defined; none when it is full. */
+export function landInRoom(resolved: ResolvedScene, room: Box, part: PartDef): { position: Vec3; rotation: Rotation } | LandingError {
 	const rotation = { x: 0, y: 0, z: 0 };
 	const size = turnedSize(part, rotation);
 	const spot = freeSpot(room, size, obstacles(resolved));
-	return { position: spot ?? [...room.min], rotation };
+	if (!spot) return { reason: 'There is no free space for this part there; choose another compartment or make room first.' };
+	return { position: spot, rotation };
 }
 
 /** A placement id not yet used in the scene: `p1`, `p2`, … */

@@ -1,0 +1,282 @@
+/**
+ * Where new parts land. `freeSpot` is checked against a brute-force search (every grid position,
+ * in the same lowest / front-most / left-most order); landings on the demo enclosure are checked
+ * with three.js Box3 as an independent box library and with the engine's own fit report.
+ */
+import fc from 'fast-check';
+import { Box3, Vector3 } from 'three';
+import { describe, expect, it } from 'vitest';
+import {
+	allowedPositions,
+	checkScene,
+	resolveScene,
+	sceneSchema,
+	type Box,
+	type BracketDef,
+	type DividerDef,
+	type PartDef,
+	type Placement,
+	type ResolvedScene,
+	type Vec3
+} from '$lib/geometry';
+import { DEMO_SPINE_OFFSETS, demoEnclosure, demoParts, demoSceneInput, standardPart } from '$lib/geometry/fixtures';
+import { blockPart } from '$lib/geometry/factories.spec-util';
+import { freeSpot, landInRoom, landOnMount, nextPlacementId, placedBounds, snapToAllowed, stepAllowed, flatAlong } from './placement';
+
+const toBox3 = (b: Box) => new Box3(new Vector3(...b.min), new Vector3(...b.max));
+
+/** Shared volume by three.js Box3 (touching faces share none). */
+function sharedVolume(a: Box, b: Box): number {
+	const i = toBox3(a).intersect(toBox3(b));
+	if (i.isEmpty()) return 0;
+	const s = i.getSize(new Vector3());
+	return s.x * s.y * s.z;
+}
+
+function boxAt(p: Vec3, size: Vec3): Box {
+	return { min: [...p], max: [p[0] + size[0], p[1] + size[1], p[2] + size[2]] };
+}
+
+/** Every grid position of the room, lowest Y first, then front-most Z, then left-most X. */
+function bruteForceSpot(room: Box, size: Vec3, blocked: Box[], stepMm: number): Vec3 | null {
+	const range = (a: number) => {
+		const out: number[] = [];
+		for (let v = room.min[a]; v + size[a] <= room.max[a] + 1e-9; v += stepMm) out.push(v);
+		return out;
+	};
+	for (const y of range(1)) {
+		for (const z of range(2)) {
+			for (const x of range(0)) {
+				const c = boxAt([x, y, z], size);
+				if (blocked.every((b) => sharedVolume(b, c) === 0)) return [x, y, z];
+			}
+		}
+	}
+	return null;
+}
+
+describe('freeSpot', () => {
+	// Integer rooms, sizes and obstacles (obstacles may reach outside the room): the corner-point
+	// candidates are then integers too, so a search over every integer position is a complete oracle.
+	const int = (min: number, max: number) => fc.integer({ min, max });
+	const caseArb = fc.record({
+		roomMin: fc.tuple(int(-3, 3), int(-3, 3), int(-3, 3)),
+		roomSize: fc.tuple(int(1, 9), int(1, 9), int(1, 9)),
+		size: fc.tuple(int(1, 5), int(1, 5), int(1, 5)),
+		obstacles: fc.array(fc.tuple(int(-5, 12), int(-5, 12), int(-5, 12), int(1, 7), int(1, 7), int(1, 7)), { maxLength: 7 })
+	});
+
+	it('finds exactly the spot a brute-force search over every position finds (or none when it finds none)', () => {
+		fc.assert(
+			fc.property(caseArb, ({ roomMin, roomSize, size, obstacles }) => {
+				const room: Box = { min: roomMin as Vec3, max: [roomMin[0] + roomSize[0], roomMin[1] + roomSize[1], roomMin[2] + roomSize[2]] };
+				const blocked = obstacles.map(([x, y, z, w, h, d]) => boxAt([x, y, z], [w, h, d]));
+				const expected = bruteForceSpot(room, size as Vec3, blocked, 1);
+				expect(freeSpot(room, size as Vec3, blocked)).toEqual(expected);
+			}),
+			{ numRuns: 400 }
+		);
+	});
+
+	it('on a half-millimetre grid too', () => {
+		const half = (min: number, max: number) => fc.integer({ min: min * 2, max: max * 2 }).map((v) => v / 2);
+		fc.assert(
+			fc.property(
+				fc.tuple(half(1, 5), half(1, 5), half(1, 5)),
+				fc.array(fc.tuple(half(-2, 7), half(-2, 7), half(-2, 7), half(0.5, 4), half(0.5, 4), half(0.5, 4)), { maxLength: 6 }),
+				(size, obstacles) => {
+					const room: Box = { min: [0, 0, 0], max: [7, 6, 6] };
+					const blocked = obstacles.map(([x, y, z, w, h, d]) => boxAt([x, y, z], [w, h, d]));
+					expect(freeSpot(room, size, blocked)).toEqual(bruteForceSpot(room, size, blocked, 0.5));
+				}
+			),
+			{ numRuns: 200 }
+		);
+	});
+
+	it.each([
+		['an empty room: its corner', { min: [0, 0, 0], max: [10, 10, 10] } as Box, [4, 4, 4] as Vec3, [] as Box[], [0, 0, 0]],
+		['touching faces are free: right against the obstacle', { min: [0, 0, 0], max: [10, 10, 10] } as Box, [5, 10, 10] as Vec3, [boxAt([0, 0, 0], [5, 10, 10])], [5, 0, 0]],
+		['a room filled exactly: nowhere', { min: [0, 0, 0], max: [10, 10, 10] } as Box, [1, 1, 1] as Vec3, [boxAt([0, 0, 0], [10, 10, 10])], null],
+		['bigger than the room: nowhere', { min: [0, 0, 0], max: [10, 10, 10] } as Box, [11, 1, 1] as Vec3, [], null]
+	])('%s', (_name, room, size, blocked, expected) => {
+		expect(freeSpot(room, size, blocked)).toEqual(expected);
+	});
+});
+
+function demoResolved(placements: Placement[], spine: number = DEMO_SPINE_OFFSETS['3 slots']): ResolvedScene {
+	const input = demoSceneInput();
+	return resolveScene(sceneSchema.parse({ ...input, placements, dividerPositions: { ...input.dividerPositions, spine } }));
+}
+
+function part(id: string): PartDef {
+	const p = demoParts().find((q) => q.id === id);
+	if (!p) throw new Error(id);
+	return p;
+}
+
+describe('landOnMount on the demo enclosure', () => {
+	const enclosure = demoEnclosure();
+	const mount = enclosure.mounts.find((m) => m.id === 'radiator')!;
+	const radiator = part('demo-radiator-280');
+	const fan = standardPart('std-fan-140-25');
+
+	/** Lands parts one after another on the front mount, as the editor adds them. */
+	function landAll(parts: PartDef[]) {
+		const placements: Placement[] = [];
+		for (const p of parts) {
+			const landing = landOnMount(demoResolved(placements), mount, p);
+			if ('reason' in landing) throw new Error(landing.reason);
+			placements.push({ id: nextPlacementId(placements), partId: p.id, position: landing.position, rotation: landing.rotation, mountId: mount.id });
+		}
+		return placements;
+	}
+
+	it('puts a 280 radiator flat against the front panel (its 30 mm thickness along the depth)', () => {
+		const [r] = landAll([radiator]);
+		const b = placedBounds(radiator, r);
+		// Flat: the thinnest side (30 mm) along Z, the mount's normal; 143 × 315 face on the panel.
+		expect([b.max[0] - b.min[0], b.max[1] - b.min[1], b.max[2] - b.min[2]]).toEqual([143, 315, 30]);
+		// The mount's adapter plate is for 240 radiators only (plateFor), so a 280 sits on the panel.
+		expect(b.min[2]).toBe(0);
+		expect(checkScene(sceneOf([r])).mounts.find((m) => m.mountId === 'radiator')).toMatchObject({ plateMm: 0, usedMm: 30 });
+	});
+
+	it('puts two 140 fans side by side on it, each against the radiator and inside its face', () => {
+		const placed = landAll([radiator, fan, fan]);
+		const [rb, f1, f2] = placed.map((p, i) => placedBounds([radiator, fan, fan][i], p));
+		for (const f of [f1, f2]) {
+			expect(f.max[2] - f.min[2], 'fan thickness along the normal').toBe(25);
+			expect(f.min[2], 'against the radiator').toBe(rb.max[2]);
+			// Inside the radiator's face in X and Y.
+			for (const a of [0, 1]) {
+				expect(f.min[a]).toBeGreaterThanOrEqual(rb.min[a]);
+				expect(f.max[a]).toBeLessThanOrEqual(rb.max[a]);
+			}
+		}
+		// Side by side in one layer: same depth, no shared volume, not one on top of the other.
+		expect(f2.min[2]).toBe(f1.min[2]);
+		expect(sharedVolume(f1, f2)).toBe(0);
+		const report = checkScene(sceneOf(placed));
+		expect(report.overlaps.filter((o) => o.kind === 'collides')).toEqual([]);
+		// Stack: radiator 30 + one layer of 25 mm fans = 55 mm of the 64 mm budget.
+		expect(report.mounts.find((m) => m.mountId === 'radiator')).toMatchObject({ usedMm: 55, spareMm: 9 });
+	});
+
+	it('refuses a part the mount does not take', () => {
+		const landing = landOnMount(demoResolved([]), mount, standardPart('std-sfx'));
+		expect(landing).toHaveProperty('reason');
+	});
+});
+
+function sceneOf(placements: Placement[], spine: number = DEMO_SPINE_OFFSETS['3 slots'], more: PartDef[] = []) {
+	const input = demoSceneInput();
+	return sceneSchema.parse({ ...input, parts: [...input.parts, ...extraParts, ...more.filter((m) => !extraParts.some((e) => e.id === m.id))], placements, dividerPositions: { ...input.dividerPositions, spine } });
+}
+
+/** Small generic blocks to drop into compartments. */
+const extraParts: PartDef[] = [blockPart('block-a', [20, 30, 40]), blockPart('block-b', [40, 10, 10]), blockPart('block-c', [8, 8, 8])];
+
+describe('landInRoom', () => {
+	const spines = Object.values(DEMO_SPINE_OFFSETS);
+	const base = demoSceneInput().placements;
+
+	/** Lands `p` in `room`; when it lands, checks it is inside the room and overlaps nothing. */
+	function landAndCheck(spine: number, room: { id: string; box: Box }, p: PartDef): 'landed' | 'full' {
+		const resolved = resolveScene(sceneOf(base, spine, [p]));
+		const landing = landInRoom(resolved, room.box, p);
+		if ('reason' in landing) return 'full';
+		const placement: Placement = { id: 'new', partId: p.id, position: landing.position, rotation: landing.rotation };
+		const bounds = placedBounds(p, placement);
+		for (let a = 0; a < 3; a++) {
+			expect(bounds.min[a]).toBeGreaterThanOrEqual(room.box.min[a] - 1e-9);
+			expect(bounds.max[a]).toBeLessThanOrEqual(room.box.max[a] + 1e-9);
+		}
+		// Overlaps no wall, divider, bracket or placed body (three.js Box3) …
+		const others = [...resolved.walls, ...resolved.dividers, ...resolved.brackets, ...resolved.placements.flatMap((rp) => rp.bodies)];
+		for (const o of others) expect(sharedVolume(o.box, bounds), `${room.id} vs ${o.label}`).toBe(0);
+		// … and the engine agrees: no overlap item (body or keep-out) names the new part.
+		const report = checkScene(sceneOf([...base, placement], spine, [p]));
+		expect(report.overlaps.filter((o) => o.a.placementId === 'new' || o.b.placementId === 'new'), room.id).toEqual([]);
+		return 'landed';
+	}
+
+	it.each(spines.flatMap((spine) => extraParts.map((p) => [spine, p.id] as const)))(
+		'with the spine at %s mm, %s lands in the CPU side and the card side and overlaps nothing',
+		(spine, partId) => {
+			const p = extraParts.find((q) => q.id === partId)!;
+			const rooms = resolveScene(sceneOf(base, spine)).compartments;
+			for (const id of ['bulkhead.high+spine.low', 'bulkhead.high+spine.high']) {
+				const room = rooms.find((c) => c.id === id);
+				expect(room, `compartment ${id} in ${rooms.map((c) => c.id).join(', ')}`).toBeDefined();
+				expect(landAndCheck(spine, room!, p)).toBe('landed');
+			}
+		}
+	);
+
+	it('says so when the compartment is full instead of landing on top of something', () => {
+		// The radiator bay holds a 30 mm radiator and 25 mm fans across nearly its whole face: a
+		// 40 mm deep block fits nowhere in its 64 mm.
+		const resolved = resolveScene(sceneOf(base));
+		const bay = resolved.compartments.find((c) => c.id === 'bulkhead.low')!;
+		expect(landInRoom(resolved, bay.box, extraParts[0])).toHaveProperty('reason');
+	});
+
+	it('random blocks in every compartment: inside it and overlapping nothing whenever they land', () => {
+		const rooms = resolveScene(sceneOf(base)).compartments;
+		let landed = 0;
+		fc.assert(
+			fc.property(fc.tuple(fc.integer({ min: 1, max: 80 }), fc.integer({ min: 1, max: 80 }), fc.integer({ min: 1, max: 80 })), fc.integer({ min: 0, max: rooms.length - 1 }), (size, r) => {
+				if (landAndCheck(DEMO_SPINE_OFFSETS['3 slots'], rooms[r], blockPart('random-block', size as Vec3)) === 'landed') landed++;
+			}),
+			{ numRuns: 60 }
+		);
+		expect(landed, 'most random blocks find room').toBeGreaterThan(10);
+	});
+});
+
+describe('snapping and stepping over allowed positions', () => {
+	const spine = demoEnclosure().dividers.find((d) => d.id === 'spine') as DividerDef;
+	const bar = demoEnclosure().brackets.find((b) => b.id === 'bar') as BracketDef;
+
+	it.each([
+		[70, 65.68],
+		[75.8, 65.68],
+		[75.9, 86],
+		[100, 106.32],
+		[-500, 65.68],
+		[500, 106.32]
+	])('a spine dragged to %s mm snaps to %s mm', (free, snapped) => {
+		// Midpoint between 65.68 and 86 is 75.84 mm.
+		expect(snapToAllowed(spine, free).offsetMm).toBe(snapped);
+	});
+
+	it('a bracket range snaps to its 10 mm steps, within its 0–150 mm travel', () => {
+		fc.assert(
+			fc.property(fc.double({ min: -50, max: 250, noNaN: true }), (free) => {
+				const { offsetMm } = snapToAllowed(bar, free);
+				const clamped = Math.min(150, Math.max(0, free));
+				expect(allowedPositions(bar).map((p) => p.offsetMm)).toContain(offsetMm);
+				expect(Math.abs(offsetMm - clamped)).toBeLessThanOrEqual(5 + 1e-9);
+			})
+		);
+	});
+
+	it.each([
+		[DEMO_SPINE_OFFSETS['3 slots'], 1, DEMO_SPINE_OFFSETS['2 slots']],
+		[DEMO_SPINE_OFFSETS['3 slots'], -1, DEMO_SPINE_OFFSETS['4 slots']],
+		[DEMO_SPINE_OFFSETS['2 slots'], 1, DEMO_SPINE_OFFSETS['2 slots']],
+		[DEMO_SPINE_OFFSETS['4 slots'], -1, DEMO_SPINE_OFFSETS['4 slots']],
+		[DEMO_SPINE_OFFSETS['4 slots'], 5, DEMO_SPINE_OFFSETS['2 slots']]
+	])('stepping the spine from %s mm by %s is %s mm (held at the ends)', (from, delta, to) => {
+		expect(stepAllowed(spine, from, delta)).toBe(to);
+	});
+
+	it('flatAlong lays a 140 × 140 × 25 fan thin along each axis', () => {
+		const fan = standardPart('std-fan-140-25');
+		for (const axis of [0, 1, 2] as const) {
+			const b = placedBounds(fan, { id: 'f', partId: fan.id, position: [0, 0, 0], rotation: flatAlong(fan, axis) });
+			expect(b.max[axis] - b.min[axis]).toBe(25);
+		}
+	});
+});
