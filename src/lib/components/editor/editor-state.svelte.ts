@@ -75,6 +75,8 @@ export class EditorState {
 	#undo = $state.raw<VariantSettings[]>([]);
 	#redo = $state.raw<VariantSettings[]>([]);
 	#coalesceKey: string | null = null;
+	/** The save on the wire, if any: one at a time, or the second would conflict with the first. */
+	#inFlight: Promise<SaveOutcome> | null = null;
 	#saveTimer: ReturnType<typeof setTimeout> | undefined;
 	#checkTimer: ReturnType<typeof setTimeout> | undefined;
 	#api: EditorApi;
@@ -114,6 +116,14 @@ export class EditorState {
 		this.#redo = [];
 		this.settings = next;
 		this.#changed();
+	}
+
+	/**
+	 * Ends a gesture (a slider released, a 3D drag let go): the next change starts a new undo step
+	 * even with the same coalesce key, so two drags of one control are two steps.
+	 */
+	endGesture() {
+		this.#coalesceKey = null;
 	}
 
 	undo() {
@@ -227,7 +237,7 @@ export class EditorState {
 		const resolved = this.resolved;
 		if (!resolved) return { reason: 'Fix the scene’s errors first.' };
 		const mount = where.mountId ? this.enclosure.mounts.find((m) => m.id === where.mountId) : undefined;
-		let landing: ReturnType<typeof landInRoom> | { reason: string };
+		let landing: ReturnType<typeof landInRoom>;
 		if (mount) {
 			landing = landOnMount(resolved, mount, part);
 		} else {
@@ -255,6 +265,8 @@ export class EditorState {
 
 	async saveNow(): Promise<SaveOutcome | null> {
 		clearTimeout(this.#saveTimer);
+		// The save in flight ends by scheduling the next one when the scene changed meanwhile.
+		if (this.#inFlight) return null;
 		if (this.conflict || !this.computed.ok) {
 			if (!this.computed.ok) {
 				this.saveStatus = 'error';
@@ -264,7 +276,17 @@ export class EditorState {
 		}
 		const settings = this.settings;
 		this.saveStatus = 'saving';
-		const outcome = await this.#api.save(this.version, settings);
+		let outcome: SaveOutcome;
+		try {
+			this.#inFlight = this.#api.save(this.version, settings);
+			outcome = await this.#inFlight;
+		} catch (e) {
+			this.saveStatus = 'error';
+			this.saveMessage = `Not saved: ${(e as Error).message}`;
+			return null;
+		} finally {
+			this.#inFlight = null;
+		}
 		if (outcome.kind === 'saved') {
 			this.version = outcome.version;
 			// A change made while the save was in flight is saved next.
@@ -290,6 +312,7 @@ export class EditorState {
 		const c = this.conflict;
 		if (!c) return;
 		this.#undo = [...this.#undo, c.settings].slice(-HISTORY_LIMIT);
+		this.#coalesceKey = null;
 		this.version = c.version;
 		this.conflict = null;
 		await this.saveNow();
@@ -301,6 +324,7 @@ export class EditorState {
 		if (!c) return;
 		this.#undo = [...this.#undo, this.settings].slice(-HISTORY_LIMIT);
 		this.#redo = [];
+		this.#coalesceKey = null;
 		this.settings = c.settings;
 		this.version = c.version;
 		this.conflict = null;
@@ -314,7 +338,12 @@ export class EditorState {
 		const local = this.report;
 		const settings = this.settings;
 		if (!local) return;
-		const server = await this.#api.check(settings);
+		let server: FitReport | Problem;
+		try {
+			server = await this.#api.check(settings);
+		} catch (e) {
+			server = { message: (e as Error).message, issues: [] };
+		}
 		if (settings !== this.settings) return;
 		if ('message' in server) {
 			this.serverAgrees = false;
