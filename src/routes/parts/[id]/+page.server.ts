@@ -1,0 +1,49 @@
+import { error, redirect } from '@sveltejs/kit';
+import { activeStudio, roleMay } from '$lib/server/access';
+import { partFormFor, savePartForm } from '$lib/server/catalog/part-form';
+import { archivePart, deletePart, duplicatePart, getPart, partUseCount, restorePart } from '$lib/server/catalog/parts';
+import type { Actions, PageServerLoad } from './$types';
+
+export const load: PageServerLoad = async ({ locals, url, params }) => {
+	const access = await activeStudio(locals, 'catalog.view', url);
+	const part = await getPart(access.studioId, params.id);
+	if (!part) error(404, 'Not found.');
+	return {
+		studioName: access.studioName,
+		canEdit: roleMay(access.role, 'catalog.edit') && !part.isStandard,
+		part,
+		uses: part.isStandard ? 0 : await partUseCount(access.studioId, part.id),
+		saved: url.searchParams.has('saved'),
+		copied: url.searchParams.has('copied'),
+		form: await partFormFor(part)
+	};
+};
+
+export const actions: Actions = {
+	save: async ({ request, locals, url, params }) => {
+		const access = await activeStudio(locals, 'catalog.edit', url);
+		return savePartForm(request, access, params.id);
+	},
+	duplicate: async ({ locals, url, params }) => {
+		const access = await activeStudio(locals, 'catalog.edit', url);
+		const copy = await duplicatePart(access.studioId, params.id);
+		if (!copy.ok) error(copy.status === 404 ? 404 : 400, 'Could not copy this part.');
+		redirect(303, `/parts/${copy.value.id}?copied=1`);
+	},
+	archive: async ({ locals, url, params }) => {
+		const access = await activeStudio(locals, 'catalog.edit', url);
+		if (!(await archivePart(access.studioId, params.id))) error(404, 'Not found.');
+		redirect(303, `/parts/${params.id}`);
+	},
+	restore: async ({ locals, url, params }) => {
+		const access = await activeStudio(locals, 'catalog.edit', url);
+		if (!(await restorePart(access.studioId, params.id))) error(404, 'Not found.');
+		redirect(303, `/parts/${params.id}`);
+	},
+	delete: async ({ locals, url, params }) => {
+		const access = await activeStudio(locals, 'catalog.edit', url);
+		const done = await deletePart(access.studioId, params.id);
+		if (!done.ok) error(done.status, done.message);
+		redirect(303, '/parts');
+	}
+};
