@@ -1,10 +1,14 @@
 /** Box arithmetic against three.js Box3 as an independent oracle, plus the touching-face edge cases. */
 import fc from 'fast-check';
-import { Vector3 } from 'three';
+import { Box3, Vector3 } from 'three';
 import { describe, expect, it } from 'vitest';
 import { EPSILON_MM, boxContains, boxesOverlap, boxVolume, intersectBoxes, translateBox } from './box';
-import { boxArb, fromBox3, gridMm, toBox3 } from './factories.spec-util';
+import { boxArb, gridMm } from './factories.spec-util';
 import type { Box, Vec3 } from './schema';
+
+/** three.js Box3, the oracle, from and to engine boxes. */
+const toBox3 = (box: Box) => new Box3(new Vector3(...box.min), new Vector3(...box.max));
+const fromBox3 = (b: Box3): Box => ({ min: [b.min.x, b.min.y, b.min.z], max: [b.max.x, b.max.y, b.max.z] });
 
 const b = (min: Vec3, max: Vec3): Box => ({ min, max });
 

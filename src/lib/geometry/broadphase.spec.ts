@@ -1,12 +1,15 @@
 /** The broadphase's pair set against box-intersect (an independent package) and brute force. */
 import boxIntersect from 'box-intersect';
 import fc from 'fast-check';
-import { Vector3 } from 'three';
+import { Box3, Vector3 } from 'three';
 import { describe, expect, it } from 'vitest';
 import { EPSILON_MM, translateBox } from './box';
 import { overlappingPairs } from './broadphase';
-import { boxArb, gridMm, toBox3 } from './factories.spec-util';
+import { boxArb, gridMm } from './factories.spec-util';
 import type { Box } from './schema';
+
+/** three.js Box3, the oracle. */
+const toBox3 = (box: Box) => new Box3(new Vector3(...box.min), new Vector3(...box.max));
 
 const key = ([i, j]: [number, number]) => `${i},${j}`;
 

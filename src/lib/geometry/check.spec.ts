@@ -1,14 +1,18 @@
 /** The fit report against three.js Box3, its invariants, and the edge cases of status and moves. */
 import fc from 'fast-check';
-import { Vector3 } from 'three';
+import { Box3, Vector3 } from 'three';
 import { describe, expect, it } from 'vitest';
 import { EPSILON_MM, boxSize } from './box';
 import { checkScene } from './check';
-import { blockPart, fromBox3, makeScene, plainEnclosure, sceneArb, toBox3 } from './factories.spec-util';
+import { blockPart, makeScene, plainEnclosure, sceneArb } from './factories.spec-util';
 import { pairKind } from './pairs';
 import { resolveScene } from './resolve';
-import type { PartDef, Scene, Vec3 } from './schema';
+import type { Box, PartDef, Scene, Vec3 } from './schema';
 import type { WorldBox } from './types';
+
+/** three.js Box3, the oracle, from and to engine boxes. */
+const toBox3 = (box: Box) => new Box3(new Vector3(...box.min), new Vector3(...box.max));
+const fromBox3 = (b: Box3): Box => ({ min: [b.min.x, b.min.y, b.min.z], max: [b.max.x, b.max.y, b.max.z] });
 
 function worldBoxes(scene: Scene): WorldBox[] {
 	const r = resolveScene(scene);

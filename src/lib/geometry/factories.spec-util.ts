@@ -1,16 +1,7 @@
 /** Test data: small factories and fast-check arbitraries for enclosures, parts and scenes. */
 
 import fc from 'fast-check';
-import { Box3, Vector3 } from 'three';
 import { SLOT_PITCH_MM, enclosureDefSchema, sceneSchema, type Box, type EnclosureDef, type EnclosureInput, type PartDef, type Scene, type SceneInput, type Vec3 } from './schema';
-
-export function toBox3(box: Box): Box3 {
-	return new Box3(new Vector3(...box.min), new Vector3(...box.max));
-}
-
-export function fromBox3(b: Box3): Box {
-	return { min: [b.min.x, b.min.y, b.min.z], max: [b.max.x, b.max.y, b.max.z] };
-}
 
 /** A plain enclosure: `innerMm` inside, every panel `wallMm` thick and solid. */
 export function plainEnclosure(innerMm: Vec3, wallMm = 2, extra: Partial<EnclosureInput> = {}): EnclosureDef {

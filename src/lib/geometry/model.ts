@@ -163,20 +163,27 @@ function overlapVolume(fa: Float64Array, i: number, fb: Float64Array, j: number)
 	return x * y * z;
 }
 
+function flag(tally: Tally, flags: Uint8Array, p: number): void {
+	if (p >= 0) {
+		flags[p] = 1;
+		touch(tally, p);
+	}
+}
+
 function addPair(model: Model, tally: Tally, i: number, j: number, kind: OverlapKind, volume: number): void {
 	const pi = model.owner[i];
 	const pj = model.owner[j];
 	if (kind === 'collides') {
 		tally.collisions++;
 		tally.interferenceMm3 += volume;
-		if (pi >= 0) (tally.collides[pi] = 1), touch(tally, pi);
-		if (pj >= 0) (tally.collides[pj] = 1), touch(tally, pj);
+		flag(tally, tally.collides, pi);
+		flag(tally, tally.collides, pj);
 		return;
 	}
 	tally.keepoutMm3 += volume;
 	if (kind === 'blocked') {
-		if (pi >= 0) (tally.blocked[pi] = 1), touch(tally, pi);
-		if (pj >= 0) (tally.blocked[pj] = 1), touch(tally, pj);
+		flag(tally, tally.blocked, pi);
+		flag(tally, tally.blocked, pj);
 	}
 }
 

@@ -62,8 +62,7 @@ export function rotateBox(map: AxisMap, box: Box): Box {
 	};
 }
 
-const DIRECTIONS = ['+x', '-x', '+y', '-y', '+z', '-z'] as const;
-export type Direction = (typeof DIRECTIONS)[number];
+export type Direction = '+x' | '-x' | '+y' | '-y' | '+z' | '-z';
 
 export function rotateDirection(map: AxisMap, direction: Direction): Direction {
 	const v: Vec3 = [0, 0, 0];
