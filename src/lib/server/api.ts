@@ -21,16 +21,19 @@ export async function readJson<S extends z.ZodType>(request: Request, schema: S)
 	try {
 		body = JSON.parse(text);
 	} catch {
-		throw badRequest('The body is not valid JSON.', []);
+		badRequest('The body is not valid JSON.', []);
 	}
 	const parsed = schema.safeParse(body);
-	if (!parsed.success) throw badRequest('The request does not validate.', formatZodIssues(parsed.error));
+	if (!parsed.success) badRequest('The request does not validate.', formatZodIssues(parsed.error));
 	return parsed.data;
 }
 
-/** A thrown Response: SvelteKit sends it as it is. */
-export function badRequest(message: string, issues: FieldIssue[]) {
-	return problem(400, message, issues);
+/**
+ * Ends the request with 400 and the issues. An HttpError, not a thrown Response: SvelteKit answers
+ * a thrown Response from an endpoint with 500. API callers get `{message, issues}` as JSON.
+ */
+export function badRequest(message: string, issues: FieldIssue[]): never {
+	error(400, { message, issues } as App.Error & { issues: FieldIssue[] });
 }
 
 /** Per-user limit on API calls, counted in PostgreSQL like every other limit. */

@@ -96,9 +96,16 @@ export async function loadVariant(buildId: string, studioId: string, enclosureVe
 	return { variant, settings, enclosure: enc.definition, parts: defs, scene };
 }
 
+const SETTINGS_KEYS = ['dividerPositions', 'bracketOffsets', 'placements', 'marginMm', 'budgets'];
+
+/** A scene path in the variant's own fields, named as the request names it: `settings.…`. */
+function settingsPath(path: string) {
+	return SETTINGS_KEYS.some((k) => path === k || path.startsWith(`${k}.`) || path.startsWith(`${k}[`)) ? `settings.${path}` : path;
+}
+
 export function validateScene(enclosure: EnclosureDef, defs: PartDef[], settings: VariantSettings): Scene {
 	const parsed = sceneSchema.safeParse(composeScene(enclosure, defs, settings));
-	if (!parsed.success) throw new SceneRejected(formatZodIssues(parsed.error));
+	if (!parsed.success) throw new SceneRejected(formatZodIssues(parsed.error).map((i) => ({ ...i, path: settingsPath(i.path) })));
 	return parsed.data;
 }
 

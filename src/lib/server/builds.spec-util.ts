@@ -1,0 +1,81 @@
+/**
+ * Test data for builds: the engine's demo enclosure and parts (src/lib/geometry/fixtures.ts) put
+ * into a studio's own catalogue, and a build with the demo scene saved as its first variant. The
+ * studio's parts get ids of their own, so placements are rewritten to them.
+ */
+import { eq } from 'drizzle-orm';
+import { demoEnclosure, demoParts, demoSceneInput } from '$lib/geometry/fixtures';
+import { variantSettingsSchema, type VariantSettings } from '$lib/builds/settings';
+import { createBuild, saveVariantSettings, variantsOf } from './builds';
+import { createEnclosure } from './catalog/enclosures';
+import { createPart } from './catalog/parts';
+import { db } from './db';
+import { builds, variants } from './db/schema';
+
+export type TestBuild = {
+	studioId: string;
+	buildId: string;
+	variantId: string;
+	enclosureId: string;
+	enclosureVersionId: string;
+	/** Demo part id → the studio's own copy (standard-library parts keep their ids). */
+	partIds: Record<string, string>;
+	/** The demo scene's settings as saved, and the version they were saved as. */
+	settings: VariantSettings;
+	version: number;
+};
+
+export async function demoEnclosureIn(studioId: string, userId: string | null) {
+	const created = await createEnclosure(studioId, userId, { definition: demoEnclosure(), note: 'test' });
+	if (!created.ok) throw new Error(`demo enclosure refused: ${JSON.stringify(created.issues)}`);
+	return { enclosureId: created.value.id, enclosureVersionId: created.value.current.id };
+}
+
+/** The demo parts that are not in the standard library, copied into the studio's catalogue. */
+export async function demoPartsIn(studioId: string): Promise<Record<string, string>> {
+	const ids: Record<string, string> = {};
+	for (const p of demoParts()) {
+		if (p.id.startsWith('std-')) {
+			ids[p.id] = p.id;
+			continue;
+		}
+		const created = await createPart(studioId, { ...p, provenance: p.provenance === 'standard' ? 'estimate' : p.provenance });
+		if (!created.ok) throw new Error(`demo part ${p.id} refused: ${JSON.stringify(created.issues)}`);
+		ids[p.id] = created.value.id;
+	}
+	return ids;
+}
+
+/** The demo scene's settings with the studio's part ids: everything fits, spine at "3 slots". */
+export function demoSettings(partIds: Record<string, string>): VariantSettings {
+	const s = demoSceneInput();
+	return variantSettingsSchema.parse({
+		dividerPositions: s.dividerPositions,
+		bracketOffsets: s.bracketOffsets,
+		placements: s.placements.map((p) => ({ ...p, partId: partIds[p.partId] })),
+		marginMm: s.marginMm,
+		budgets: s.budgets
+	});
+}
+
+/** A build of the demo enclosure in `studioId`, its first variant holding the demo scene. */
+export async function demoBuildIn(studioId: string, userId: string): Promise<TestBuild> {
+	const { enclosureId, enclosureVersionId } = await demoEnclosureIn(studioId, userId);
+	const partIds = await demoPartsIn(studioId);
+	const buildId = await createBuild({ studioId, userId, name: 'Test build', clientName: '', notes: '', enclosureId });
+	const [variant] = await variantsOf(buildId);
+	const settings = demoSettings(partIds);
+	const saved = await saveVariantSettings({ buildId, studioId, enclosureVersionId, variantId: variant.id, expectedVersion: variant.version, settings });
+	if (!saved.ok) throw new Error('the first save of a fresh variant conflicted');
+	return { studioId, buildId, variantId: variant.id, enclosureId, enclosureVersionId, partIds, settings, version: saved.version };
+}
+
+/** The variant's row as stored: version and settings. */
+export async function storedVariant(variantId: string) {
+	const [row] = await db.select({ version: variants.version, settings: variants.settings, updatedAt: variants.updatedAt }).from(variants).where(eq(variants.id, variantId));
+	return row;
+}
+
+export async function buildCount(studioId: string) {
+	return (await db.select({ id: builds.id }).from(builds).where(eq(builds.studioId, studioId))).length;
+}
