@@ -1,0 +1,56 @@
+/** What the client page receives from the server (see $lib/server/sharing/view.ts). Plain data only. */
+import type { FitStatus, Scene, Vec3 } from '$lib/geometry';
+
+export type FitSummary = {
+	/** 'fits' when nothing collides, is blocked or is outside; tight gaps still fit. */
+	verdict: 'fits' | 'tight' | 'problems';
+	headline: string;
+	details: string[];
+	budgets: string[];
+};
+
+export type PlacedPart = { ref: string; short: string; name: string; category: string; sizeMm: Vec3; status: FitStatus };
+export type PartLine = { name: string; category: string; quantity: number; sizeMm: Vec3; unitPriceMinor: number | null; currency: string | null };
+export type ClientQuote = {
+	currency: string;
+	lines: { description: string; quantity: number; unitPriceMinor: number; totalMinor: number }[];
+	labourNote: string;
+	labourMinor: number;
+	subtotalMinor: number;
+	taxRateBp: number;
+	taxMinor: number;
+	totalMinor: number;
+	depositMinor: number;
+	depositKind: 'amount' | 'percent';
+	depositValue: number;
+	notes: string;
+	sentAt: Date | null;
+};
+export type ClientComment = { kind: 'comment' | 'approved' | 'changes'; body: string; authorName: string; side: 'studio' | 'client'; partLabel: string | null; partRef: string | null; at: Date; version: number };
+export type ClientPhoto = { ref: string; caption: string; width: number; height: number };
+export type DepositState = { paid: { amountMinor: number; currency: string; paidAt: Date } | null; dueMinor: number | null; currency: string | null; canPay: boolean; reason: string | null };
+export type ApprovalState = { version: number; at: Date; byName: string; current: boolean } | null;
+
+export type ClientView = {
+	studioName: string;
+	buildName: string;
+	clientName: string;
+	variantName: string;
+	version: number;
+	updatedAt: Date;
+	sharedBy: string | null;
+	enclosure: { name: string; outerMm: Vec3; innerLitres: number };
+	summary: FitSummary;
+	placed: PlacedPart[];
+	lines: PartLine[];
+	scene: Scene;
+	quote: ClientQuote | null;
+	approval: ApprovalState;
+	deposit: DepositState;
+	comments: ClientComment[];
+	photos: ClientPhoto[];
+};
+
+export type ClientMay = { comment: boolean; approve: boolean; pay: boolean };
+
+export type ThreadItem = { kind: 'comment' | 'approved' | 'changes'; body: string; authorName: string; side: string; partLabel: string | null; at: Date | string; version: number };
