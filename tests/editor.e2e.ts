@@ -1,0 +1,160 @@
+/**
+ * The build editor in Chromium on the seeded demo build ("Quiet desk build", variant "Spine at
+ * three slots"). Known answer from the fixtures: with the spine at "2 slots" the card side is
+ * 2 × 20.32 mm (PCI Express CEM spec slot pitch) + 1.04 mm wide, the two-slot card stands 0.96 mm
+ * into the spine, a 0.96 × 185 × 120 mm interference (21.3 cm³). The variant is put back to its
+ * seeded row before and after, so other tests see the seed.
+ */
+import { expect, test, type Browser, type Page } from '@playwright/test';
+import { eq } from 'drizzle-orm';
+import { demoSceneInput } from '../src/lib/geometry/fixtures';
+import { closeDb, db } from '../src/lib/server/db';
+import { variants } from '../src/lib/server/db/schema';
+import { clearRateLimits } from '../src/lib/server/testing/factories';
+import { testDatabaseUrl } from '../src/lib/server/testing/env';
+
+const BUILD = '/builds/demo-build';
+const VARIANT = 'demo-variant-a';
+const DESIGNER = { email: 'designer@demo.interstice.test', password: 'demo-password-1' };
+
+/** The demo variant exactly as scripts/seed.ts writes it: version 1, the demo scene's settings. */
+async function restoreDemoVariant() {
+	testDatabaseUrl();
+	const s = demoSceneInput();
+	const settings = { dividerPositions: s.dividerPositions, bracketOffsets: s.bracketOffsets, placements: s.placements, marginMm: s.marginMm, budgets: s.budgets };
+	await db.update(variants).set({ settings, version: 1, updatedAt: new Date() }).where(eq(variants.id, VARIANT));
+}
+
+test.describe.configure({ mode: 'serial' });
+test.beforeAll(async () => {
+	await restoreDemoVariant();
+	// Every browser here signs in from 127.0.0.1; start with a fresh sign-in budget.
+	await clearRateLimits('127.0.0.1');
+});
+test.afterAll(async () => {
+	await restoreDemoVariant();
+	await closeDb();
+});
+
+async function signIn(page: Page) {
+	await page.goto('/signin');
+	await page.getByLabel('E-mail').fill(DESIGNER.email);
+	await page.getByLabel('Password').fill(DESIGNER.password);
+	await page.getByRole('button', { name: 'Sign in' }).click();
+	await page.waitForURL(/\/builds$/);
+}
+
+async function openEditor(browser: Browser) {
+	const context = await browser.newContext({ viewport: { width: 1440, height: 900 } });
+	const page = await context.newPage();
+	await signIn(page);
+	await page.goto(BUILD);
+	await expect(page.getByTestId('save-status')).toHaveText(/^Saved · version \d+$/);
+	return { context, page };
+}
+
+const versionOf = async (page: Page) => Number(/version (\d+)/.exec((await page.getByTestId('save-status').textContent()) ?? '')?.[1]);
+
+test('the spine at "2 slots": the card collides in the report and in 3D; back at "3 slots" it fits, and the positions persist', async ({ browser }, testInfo) => {
+	const { context, page } = await openEditor(browser);
+	const spine = page.getByRole('slider', { name: 'Spine' });
+	const collides = page.getByRole('group', { name: /^collides \(\d+\)$/ });
+	const scene = page.getByRole('region', { name: '3D view of the build' });
+	const labels = scene.getByTestId('interference-label');
+	const status = page.getByTestId('save-status');
+
+	await expect(spine).toHaveAttribute('aria-valuetext', '3 slots, 86.0\u2009mm');
+	await expect(page.getByRole('group', { name: /^clear \(\d+\)$/ })).toBeVisible();
+	await expect(collides).toHaveCount(0);
+	await expect(labels).toHaveCount(0);
+	const firstVersion = await versionOf(page);
+
+	// Keyboard on the slider: one step right is the next allowed position, "2 slots".
+	await spine.focus();
+	await page.keyboard.press('ArrowRight');
+	await expect(spine).toHaveAttribute('aria-valuetext', '2 slots, 106.32\u2009mm');
+
+	// The fit report: a "collides" group naming the card and the spine, with the 0.96 mm.
+	await expect(collides).toBeVisible();
+	await expect(collides).toHaveAttribute('data-status', 'collides');
+	await expect(collides.getByRole('button', { name: /graphics card.*and Spine overlap by 0\.96\smm along width/ })).toBeVisible();
+	// The scene: an interference box with its label (volume, depth, the move that clears it).
+	await expect(labels.filter({ hasText: /21\.3\scm³/ })).toBeVisible();
+	await expect(labels.filter({ hasText: /21\.3\scm³/ })).toContainText(/mm deep/);
+	await expect(labels.filter({ hasText: /21\.3\scm³/ })).toContainText(/move the divider 1 step left/);
+	await page.screenshot({ path: testInfo.outputPath('spine-at-two-slots.png') });
+	await scene.screenshot({ path: testInfo.outputPath('scene-at-two-slots.png') });
+
+	// Back with the keyboard: nothing collides, no marker.
+	await page.keyboard.press('ArrowLeft');
+	await expect(spine).toHaveAttribute('aria-valuetext', '3 slots, 86.0\u2009mm');
+	await expect(collides).toHaveCount(0);
+	await expect(labels).toHaveCount(0);
+
+	// Autosave; the save went through (a new version), and a reload shows what was saved.
+	await expect(status).toHaveText(/^Saved · version \d+$/);
+	await expect.poll(() => versionOf(page)).toBeGreaterThan(firstVersion);
+	const savedVersion = await versionOf(page);
+	await page.reload();
+	await expect(spine).toHaveAttribute('aria-valuetext', '3 slots, 86.0\u2009mm');
+	await expect(status).toHaveText(`Saved · version ${savedVersion}`);
+
+	// A position other than the one it opened with persists too: "4 slots" with the −1 button.
+	await page.getByRole('button', { name: 'Spine: one position lower' }).click();
+	await expect(spine).toHaveAttribute('aria-valuetext', '4 slots, 65.68\u2009mm');
+	await expect(status).toHaveText(`Saved · version ${savedVersion + 1}`);
+	await page.reload();
+	await expect(spine).toHaveAttribute('aria-valuetext', '4 slots, 65.68\u2009mm');
+	await expect(page.getByRole('slider', { name: 'Card support bar' })).toHaveAttribute('aria-valuetext', /^0\.0\u2009mm/);
+	await context.close();
+});
+
+test('a second browser saving first: the stale save gets the conflict view, and "keep mine" saves over it', async ({ browser }) => {
+	await restoreDemoVariant();
+	const a = await openEditor(browser);
+	const b = await openEditor(browser);
+	const opened = await versionOf(a.page);
+
+	// B saves first: the spine to "4 slots".
+	await b.page.getByRole('button', { name: 'Spine: one position lower' }).click();
+	await expect(b.page.getByTestId('save-status')).toHaveText(`Saved · version ${opened + 1}`);
+
+	// A, still on the version it opened, moves the spine the other way and autosaves: 409.
+	await a.page.getByRole('button', { name: 'Spine: one position higher' }).click();
+	const dialog = a.page.getByRole('dialog', { name: 'Someone saved this variant after you opened it' });
+	await expect(dialog).toBeVisible();
+	await expect(a.page.getByTestId('save-status')).toHaveText('Not saved: newer version exists');
+	// Both scenes side by side: mine at "2 slots", theirs at "4 slots".
+	await expect(dialog.getByRole('heading', { name: 'Yours' }).locator('..')).toContainText('Spine: 106.32\u2009mm');
+	await expect(dialog.getByRole('heading', { name: `Saved (version ${opened + 1})` }).locator('..')).toContainText('Spine: 65.68\u2009mm');
+
+	await dialog.getByRole('button', { name: 'Keep mine and save it' }).click();
+	await expect(dialog).toBeHidden();
+	await expect(a.page.getByTestId('save-status')).toHaveText(`Saved · version ${opened + 2}`);
+
+	// B reloads and sees A's scene.
+	await b.page.reload();
+	await expect(b.page.getByRole('slider', { name: 'Spine' })).toHaveAttribute('aria-valuetext', '2 slots, 106.32\u2009mm');
+	await a.context.close();
+	await b.context.close();
+});
+
+test('"use the saved version" takes the other browser’s scene and keeps mine one undo away', async ({ browser }) => {
+	await restoreDemoVariant();
+	const a = await openEditor(browser);
+	const b = await openEditor(browser);
+	await b.page.getByRole('button', { name: 'Spine: one position lower' }).click();
+	await expect(b.page.getByTestId('save-status')).toHaveText('Saved · version 2');
+
+	await a.page.getByRole('button', { name: 'Spine: one position higher' }).click();
+	const dialog = a.page.getByRole('dialog', { name: 'Someone saved this variant after you opened it' });
+	await dialog.getByRole('button', { name: 'Use the saved version' }).click();
+	await expect(dialog).toBeHidden();
+	const spine = a.page.getByRole('slider', { name: 'Spine' });
+	await expect(spine).toHaveAttribute('aria-valuetext', '4 slots, 65.68\u2009mm');
+	await expect(a.page.getByTestId('save-status')).toHaveText('Saved · version 2');
+	await a.page.getByRole('button', { name: 'Undo' }).click();
+	await expect(spine).toHaveAttribute('aria-valuetext', '2 slots, 106.32\u2009mm');
+	await a.context.close();
+	await b.context.close();
+});
