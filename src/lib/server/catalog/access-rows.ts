@@ -1,0 +1,268 @@
+/**
+ * Access-matrix rows for the catalogue's pages, actions and endpoints (run by catalog-http.spec.ts,
+ * counted by the coverage check in access-matrix.spec.ts). Catalogue = owner and designer; a
+ * client gets 403; an outsider (owner of another studio) works in their own studio, so lists answer
+ * 200 and this studio's items 404; anonymous visitors go to sign-in (pages) or get 401 (API).
+ */
+import { and, count, eq, isNotNull } from 'drizzle-orm';
+import { demoEnclosure } from '$lib/geometry/fixtures';
+import { db } from '../db';
+import { enclosures, parts } from '../db/schema';
+import { SIGN_IN, type Expected, type MatrixFixture, type MatrixRow, type Visitor } from '../testing/access-matrix';
+import { createEnclosure } from './enclosures';
+import { createPart } from './parts';
+
+type Cell = Expected;
+const catalogue = (member: Cell, outsider: Cell, anonymous: Cell = SIGN_IN): MatrixRow['expect'] => ({
+	owner: member,
+	designer: member,
+	client: 403,
+	outsider,
+	anonymous
+});
+const api = (member: Cell, outsider: Cell) => catalogue(member, outsider, 401);
+const redirectTo = (location: RegExp): Expected => ({ status: 303, location });
+const editors: Visitor[] = ['owner', 'designer'];
+
+export const testPart = (name = 'Matrix pump') => ({
+	name,
+	category: 'pump',
+	bodies: [{ id: 'body', label: 'Body', box: { min: [0, 0, 0], max: [62, 50, 62] } }],
+	provenance: 'measured'
+});
+
+async function withEnclosure(f: MatrixFixture) {
+	const made = await createEnclosure(f.studio.id, f.owner.id, { definition: demoEnclosure() });
+	if (!made.ok) throw new Error('fixture enclosure refused');
+	f.vars.enclosure = made.value.id;
+	f.vars.version = made.value.current.id;
+}
+async function withPart(f: MatrixFixture) {
+	const made = await createPart(f.studio.id, testPart());
+	if (!made.ok) throw new Error('fixture part refused');
+	f.vars.part = made.value.id;
+}
+
+const enclosureCount = async (f: MatrixFixture) =>
+	(await db.select({ n: count() }).from(enclosures).where(eq(enclosures.studioId, f.studio.id)))[0].n;
+const partCount = async (f: MatrixFixture) => (await db.select({ n: count() }).from(parts).where(eq(parts.studioId, f.studio.id)))[0].n;
+const partArchived = async (f: MatrixFixture) =>
+	(await db.select().from(parts).where(and(eq(parts.id, f.vars.part), isNotNull(parts.archivedAt)))).length === 1;
+const enclosureRevision = async (f: MatrixFixture) =>
+	(await db.select({ r: enclosures.revision }).from(enclosures).where(eq(enclosures.id, f.vars.enclosure)))[0]?.r ?? 0;
+const partRevision = async (f: MatrixFixture) => (await db.select({ r: parts.revision }).from(parts).where(eq(parts.id, f.vars.part)))[0]?.r ?? 0;
+
+/** The flat enclosure form as a browser without JavaScript posts it. */
+export function enclosureFields(revision = 0, name = 'Matrix box') {
+	const walls: Record<string, string> = {};
+	for (const face of ['left', 'right', 'bottom', 'top', 'front', 'back']) {
+		walls[`${face}Mm`] = '2';
+		walls[`${face}Kind`] = 'solid';
+		walls[`${face}OffsetMm`] = '0';
+	}
+	return { revision: String(revision), name, description: '', note: '', outerX: '200', outerY: '300', outerZ: '250', ...walls, features: '{"dividers":[],"brackets":[],"mounts":[]}' };
+}
+export const partFields = (revision = 0, name = 'Matrix fan') => ({
+	revision: String(revision),
+	name,
+	category: 'fan',
+	shape: 'box',
+	widthMm: '120',
+	heightMm: '120',
+	depthMm: '25',
+	geometry: '{"bodies":[],"keepouts":[],"ports":[]}',
+	provenance: 'datasheet',
+	toleranceMm: '0',
+	currency: 'EUR'
+});
+
+const CSV = 'name,category,width_mm,height_mm,depth_mm\nMatrix hub,other,60,15,40\n';
+
+export const catalogRows: MatrixRow[] = [
+	// Pages.
+	{ route: '/enclosures', method: 'GET', expect: catalogue(200, 200) },
+	{ route: '/enclosures/new', method: 'GET', expect: catalogue(200, 200) },
+	{
+		route: '/enclosures/new',
+		method: 'POST',
+		action: 'save',
+		form: () => enclosureFields(),
+		expect: catalogue(redirectTo(/^\/enclosures\/\w+\?saved=1$/), redirectTo(/^\/enclosures\//)),
+		changes: { by: editors, check: async (f) => (await enclosureCount(f)) === 1 }
+	},
+	{ route: '/enclosures/[id]', method: 'GET', setup: withEnclosure, path: (f) => `/enclosures/${f.vars.enclosure}`, expect: catalogue(200, 404) },
+	{
+		route: '/enclosures/[id]',
+		method: 'POST',
+		action: 'save',
+		setup: withEnclosure,
+		path: (f) => `/enclosures/${f.vars.enclosure}?/save`,
+		form: () => enclosureFields(1, 'Matrix box, saved'),
+		expect: catalogue(redirectTo(/^\/enclosures\/\w+\?saved=1$/), 404),
+		changes: { by: editors, check: async (f) => (await enclosureRevision(f)) === 2 }
+	},
+	...(['archive', 'restore', 'duplicate'] as const).map(
+		(action): MatrixRow => ({
+			route: '/enclosures/[id]',
+			method: 'POST',
+			action,
+			setup: withEnclosure,
+			path: (f) => `/enclosures/${f.vars.enclosure}?/${action}`,
+			expect: catalogue(redirectTo(/^\/enclosures\/\w+$/), 404),
+			changes: {
+				by: editors,
+				check: async (f) => (action === 'duplicate' ? (await enclosureCount(f)) === 2 : (await enclosureRevision(f)) === 2)
+			}
+		})
+	),
+	{ route: '/parts', method: 'GET', expect: catalogue(200, 200) },
+	{
+		route: '/parts',
+		method: 'POST',
+		action: 'duplicate',
+		setup: withPart,
+		form: (f) => ({ id: f.vars.part }),
+		expect: catalogue(redirectTo(/^\/parts\/\w+\?copied=1$/), 404),
+		changes: { by: editors, check: async (f) => (await partCount(f)) === 2 }
+	},
+	{
+		route: '/parts',
+		method: 'POST',
+		action: 'archive',
+		setup: withPart,
+		form: (f) => ({ id: f.vars.part }),
+		expect: catalogue(200, 404),
+		changes: { by: editors, check: partArchived }
+	},
+	{
+		route: '/parts',
+		method: 'POST',
+		action: 'restore',
+		setup: withPart,
+		form: (f) => ({ id: f.vars.part }),
+		expect: catalogue(200, 404),
+		changes: { by: editors, check: async (f) => (await partRevision(f)) === 2 }
+	},
+	{ route: '/parts/new', method: 'GET', expect: catalogue(200, 200) },
+	{
+		route: '/parts/new',
+		method: 'POST',
+		action: 'save',
+		form: () => partFields(),
+		expect: catalogue(redirectTo(/^\/parts\/\w+\?saved=1$/), redirectTo(/^\/parts\//)),
+		changes: { by: editors, check: async (f) => (await partCount(f)) === 1 }
+	},
+	{ route: '/parts/[id]', method: 'GET', setup: withPart, path: (f) => `/parts/${f.vars.part}`, expect: catalogue(200, 404) },
+	{
+		route: '/parts/[id]',
+		method: 'POST',
+		action: 'save',
+		setup: withPart,
+		path: (f) => `/parts/${f.vars.part}?/save`,
+		form: () => partFields(1, 'Matrix fan, saved'),
+		expect: catalogue(redirectTo(/^\/parts\/\w+\?saved=1$/), 404),
+		changes: { by: editors, check: async (f) => (await partRevision(f)) === 2 }
+	},
+	...(['duplicate', 'archive', 'restore', 'delete'] as const).map(
+		(action): MatrixRow => ({
+			route: '/parts/[id]',
+			method: 'POST',
+			action,
+			setup: withPart,
+			path: (f) => `/parts/${f.vars.part}?/${action}`,
+			expect: catalogue(redirectTo(action === 'delete' ? /^\/parts$/ : action === 'duplicate' ? /^\/parts\/\w+\?copied=1$/ : /^\/parts\/\w+$/), 404),
+			changes: {
+				by: editors,
+				check: async (f) =>
+					action === 'duplicate' ? (await partCount(f)) === 2 : action === 'delete' ? (await partCount(f)) === 0 : (await partRevision(f)) === 2
+			}
+		})
+	),
+	{ route: '/parts/import', method: 'GET', expect: catalogue(200, 200) },
+	// No file: the members get the form back with a message; nothing is written.
+	{ route: '/parts/import', method: 'POST', action: 'preview', expect: catalogue(400, 400) },
+	{
+		route: '/parts/import',
+		method: 'POST',
+		action: 'commit',
+		form: () => ({ csv: CSV }),
+		expect: catalogue(200, 200),
+		changes: { by: editors, check: async (f) => (await partCount(f)) === 1 }
+	},
+	{ route: '/parts/export', method: 'GET', expect: catalogue(200, 200) },
+
+	// JSON endpoints.
+	{ route: '/api/enclosures', method: 'GET', expect: api(200, 200) },
+	{
+		route: '/api/enclosures',
+		method: 'POST',
+		json: () => ({ definition: demoEnclosure() }),
+		expect: api(201, 201),
+		changes: { by: editors, check: async (f) => (await enclosureCount(f)) === 1 }
+	},
+	{ route: '/api/enclosures/[id]', method: 'GET', setup: withEnclosure, path: (f) => `/api/enclosures/${f.vars.enclosure}`, expect: api(200, 404) },
+	{
+		route: '/api/enclosures/[id]',
+		method: 'PUT',
+		setup: withEnclosure,
+		path: (f) => `/api/enclosures/${f.vars.enclosure}`,
+		json: () => ({ revision: 1, definition: { ...demoEnclosure(), name: 'Renamed' } }),
+		expect: api(200, 404),
+		changes: { by: editors, check: async (f) => (await enclosureRevision(f)) === 2 }
+	},
+	{
+		route: '/api/enclosures/[id]',
+		method: 'PATCH',
+		setup: withEnclosure,
+		path: (f) => `/api/enclosures/${f.vars.enclosure}`,
+		json: () => ({ archived: true }),
+		expect: api(200, 404),
+		changes: { by: editors, check: async (f) => (await enclosureRevision(f)) === 2 }
+	},
+	{
+		route: '/api/enclosures/[id]/versions/[versionId]',
+		method: 'GET',
+		setup: withEnclosure,
+		path: (f) => `/api/enclosures/${f.vars.enclosure}/versions/${f.vars.version}`,
+		expect: api(200, 404)
+	},
+	{ route: '/api/parts', method: 'GET', expect: api(200, 200) },
+	{
+		route: '/api/parts',
+		method: 'POST',
+		json: () => testPart(),
+		expect: api(201, 201),
+		changes: { by: editors, check: async (f) => (await partCount(f)) === 1 }
+	},
+	{ route: '/api/parts/[id]', method: 'GET', setup: withPart, path: (f) => `/api/parts/${f.vars.part}`, expect: api(200, 404) },
+	{
+		route: '/api/parts/[id]',
+		method: 'PUT',
+		setup: withPart,
+		path: (f) => `/api/parts/${f.vars.part}`,
+		json: () => ({ revision: 1, ...testPart('Matrix pump, saved') }),
+		expect: api(200, 404),
+		changes: { by: editors, check: async (f) => (await partRevision(f)) === 2 }
+	},
+	{
+		route: '/api/parts/[id]',
+		method: 'PATCH',
+		setup: withPart,
+		path: (f) => `/api/parts/${f.vars.part}`,
+		json: () => ({ archived: true }),
+		expect: api(200, 404),
+		changes: { by: editors, check: partArchived }
+	},
+	{
+		route: '/api/parts/[id]',
+		method: 'DELETE',
+		setup: withPart,
+		path: (f) => `/api/parts/${f.vars.part}`,
+		json: () => ({}),
+		expect: api(204, 404),
+		changes: { by: editors, check: async (f) => (await partCount(f)) === 0 }
+	},
+	{ route: '/api/parts/export', method: 'GET', expect: api(200, 200) },
+	// The matrix sends JSON; the endpoint takes text/csv, so members who pass the check get 415.
+	{ route: '/api/parts/import', method: 'POST', json: () => ({}), expect: api(415, 415) }
+];
