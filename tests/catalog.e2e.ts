@@ -85,3 +85,36 @@ test('a designer imports a CSV with one bad row, commits the good rows and finds
 	await expect(page.getByText('1 part · page 1 of 1')).toBeVisible();
 	await testInfo.attach('search', { body: await page.screenshot({ fullPage: true }), contentType: 'image/png' });
 });
+
+test('a second save of the same enclosure is stopped, keeps what was typed and offers the newer version', async ({ page, context, baseURL }) => {
+	await designerIn(context, baseURL!);
+	await page.goto('/enclosures/new');
+	await page.getByLabel('Name', { exact: true }).fill('Shared bench box');
+	await page.getByRole('button', { name: 'Create enclosure' }).click();
+	await expect(page).toHaveURL(/\/enclosures\/\w+\?saved=1$/);
+	const address = page.url().replace(/\?.*$/, '');
+
+	const other = await context.newPage();
+	await other.goto(address);
+	await other.getByLabel('Name', { exact: true }).fill('Renamed in the other tab');
+	await other.getByRole('button', { name: 'Save enclosure' }).click();
+	await expect(other.getByRole('status')).toHaveText('Saved.');
+
+	await page.goto(address);
+	await other.close();
+	// This tab loaded revision 2; make the other save first again, then save here.
+	const third = await context.newPage();
+	await third.goto(address);
+	await third.getByLabel('Width (X), mm').fill('210');
+	await third.getByRole('button', { name: 'Save enclosure' }).click();
+	await expect(third.getByRole('status')).toHaveText('Saved.');
+	await third.close();
+
+	await page.getByLabel('Name', { exact: true }).fill('Typed here');
+	await page.getByRole('button', { name: 'Save enclosure' }).click();
+	await expect(page.getByRole('alert').filter({ hasText: 'Not saved: someone else saved first' })).toBeVisible();
+	await expect(page.getByLabel('Name', { exact: true })).toHaveValue('Typed here');
+	await page.getByRole('button', { name: 'Load their version into the form' }).click();
+	await expect(page.getByLabel('Width (X), mm')).toHaveValue('210');
+	await expect(page.getByLabel('Name', { exact: true })).toHaveValue('Renamed in the other tab');
+});
