@@ -5,6 +5,7 @@
  * 100 boxes. Medians after warm-up. Prints a table, then one JSON object as the last line.
  */
 import boxIntersect from 'box-intersect';
+import { loadavg } from 'node:os';
 import { Box3, Vector3 } from 'three';
 import {
 	checkScene,
@@ -53,8 +54,11 @@ function median(values: number[]): number {
 	return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
 }
 
-/** Median wall time (ms) of `runs` calls after `warmup` untimed ones. */
-function time<T>(fn: () => T, runs: number, warmup: number): { ms: number; result: T } {
+/**
+ * Median wall time (ms) of `runs` calls after `warmup` untimed ones, and the 10th percentile: on a
+ * machine shared with other work the median carries the others' load, the low decile much less.
+ */
+function time<T>(fn: () => T, runs: number, warmup: number): { ms: number; p10: number; result: T } {
 	let result = fn();
 	for (let i = 1; i < warmup; i++) result = fn();
 	const samples: number[] = [];
@@ -63,7 +67,26 @@ function time<T>(fn: () => T, runs: number, warmup: number): { ms: number; resul
 		result = fn();
 		samples.push(performance.now() - t0);
 	}
-	return { ms: median(samples), result };
+	const sorted = [...samples].sort((a, b) => a - b);
+	return { ms: median(samples), p10: sorted[Math.floor(sorted.length / 10)], result };
+}
+
+/**
+ * Median ms of each contender, the contenders taking turns within every round so that a busy
+ * machine slows them alike and the ratios stay fair.
+ */
+function interleaved<T>(contenders: Record<string, () => T>, runs: number, warmup: number): Record<string, { ms: number; result: T }> {
+	const names = Object.keys(contenders);
+	const samples: Record<string, number[]> = Object.fromEntries(names.map((k) => [k, []]));
+	const results: Record<string, T> = {};
+	for (let r = 0; r < warmup + runs; r++) {
+		for (const name of names) {
+			const t0 = performance.now();
+			results[name] = contenders[name]();
+			if (r >= warmup) samples[name].push(performance.now() - t0);
+		}
+	}
+	return Object.fromEntries(names.map((k) => [k, { ms: median(samples[k]), result: results[k] }]));
 }
 
 const pairKey = (i: number, j: number) => (i < j ? i * 1_000_003 + j : j * 1_000_003 + i);
@@ -96,30 +119,35 @@ function broadphaseRow(n: number): Row {
 	const runs = n <= 200 ? 101 : n <= 2000 ? 21 : 9;
 	const warmup = n <= 200 ? 300 : n <= 2000 ? 20 : 4;
 
-	const engine = time(() => overlapVolumes(boxes), runs, warmup);
-	const bi = time(() => {
-		const out: number[] = [];
-		boxIntersect(arrays, (i, j) => {
-			out.push(i, j);
-		});
-		return out;
-	}, runs, warmup);
-	const naive =
-		n <= 2000
-			? time(() => {
-					const out: number[] = [];
-					const shared = new Box3();
-					const size = new Vector3();
-					for (let i = 0; i < n; i++) {
-						for (let j = i + 1; j < n; j++) {
-							if (!box3s[i].intersectsBox(box3s[j])) continue;
-							shared.copy(box3s[i]).intersect(box3s[j]).getSize(size);
-							out.push(i, j, size.x * size.y * size.z);
-						}
-					}
-					return out;
-				}, Math.max(5, runs >> 1), 3)
-			: null;
+	const contenders: Record<string, () => number[] | ReturnType<typeof overlapVolumes>> = {
+		engine: () => overlapVolumes(boxes),
+		boxIntersect: () => {
+			const out: number[] = [];
+			boxIntersect(arrays, (i, j) => {
+				out.push(i, j);
+			});
+			return out;
+		}
+	};
+	if (n <= 2000) {
+		contenders.naive = () => {
+			const out: number[] = [];
+			const shared = new Box3();
+			const size = new Vector3();
+			for (let i = 0; i < n; i++) {
+				for (let j = i + 1; j < n; j++) {
+					if (!box3s[i].intersectsBox(box3s[j])) continue;
+					shared.copy(box3s[i]).intersect(box3s[j]).getSize(size);
+					out.push(i, j, size.x * size.y * size.z);
+				}
+			}
+			return out;
+		};
+	}
+	const timed = interleaved(contenders, runs, warmup);
+	const engine = timed.engine;
+	const bi = timed.boxIntersect as { ms: number; result: number[] };
+	const naive = (timed.naive as { ms: number; result: number[] } | undefined) ?? null;
 
 	// Every contender must have found the same pairs (random real coordinates never just touch).
 	const mine = enginePairs(boxes);
@@ -219,6 +247,21 @@ function sweepScene(): Scene {
 }
 
 function main(): void {
+	// The scene checks run first, before the 20,000-box sets have grown the heap.
+	const big = hundredPartScene();
+	const check = time(() => checkScene(big), 41, 20);
+	const report = check.result;
+	console.log(
+		`checkScene, 100 parts (${report.parts.length} placements, ${report.overlaps.length} overlaps): ${check.ms.toFixed(3)} ms median, ${check.p10.toFixed(3)} ms low decile`
+	);
+
+	const swept = sweepScene();
+	const control = { kind: 'divider' as const, id: 'wall' };
+	const sw = time(() => sweep(swept, { control, gaps: [{ placementId: 'p000', face: '+x' }] }), 31, 10);
+	console.log(
+		`sweep, ${sw.result.points.length} positions over 100 boxes (${sw.result.feasibleIntervals.length} feasible runs): ${sw.ms.toFixed(3)} ms median, ${sw.p10.toFixed(3)} ms low decile`
+	);
+
 	const rows = [50, 200, 2000, 20000].map(broadphaseRow);
 	const fmt = (v: number | null) => (v === null ? '—' : v.toFixed(3));
 	console.log('broadphase: overlap pairs + volumes, median ms (same boxes for every contender)');
@@ -235,20 +278,6 @@ function main(): void {
 		);
 	}
 
-	const big = hundredPartScene();
-	const check = time(() => checkScene(big), 41, 20);
-	const report = check.result;
-	console.log(
-		`checkScene, 100 parts (${report.parts.length} placements, ${report.overlaps.length} overlaps): ${check.ms.toFixed(3)} ms`
-	);
-
-	const swept = sweepScene();
-	const control = { kind: 'divider' as const, id: 'wall' };
-	const sw = time(() => sweep(swept, { control, gaps: [{ placementId: 'p000', face: '+x' }] }), 15, 5);
-	console.log(
-		`sweep, ${sw.result.points.length} positions over 100 boxes (${sw.result.feasibleIntervals.length} feasible runs): ${sw.ms.toFixed(3)} ms`
-	);
-
 	const byN = (n: number) => rows.find((r) => r.n === n)!;
 	const round = (v: number) => Math.round(v * 10_000) / 10_000;
 	console.log(
@@ -258,6 +287,9 @@ function main(): void {
 			n2000_vs_naive: round(byN(2000).engineMs / byN(2000).naiveMs!),
 			check100_ms: round(check.ms),
 			sweep200x100_ms: round(sw.ms),
+			check100_p10_ms: round(check.p10),
+			sweep200x100_p10_ms: round(sw.p10),
+			load_average_1min: round(loadavg()[0]),
 			n50_vs_box_intersect: round(byN(50).engineMs / byN(50).boxIntersectMs),
 			n200_vs_box_intersect: round(byN(200).engineMs / byN(200).boxIntersectMs),
 			pairs_per_box_n20000: round(byN(20000).pairs / 20000)

@@ -313,43 +313,104 @@ export function tallyStatic(model: Model, included: Uint8Array | null): { tally:
 }
 
 /**
+ * Static boxes sorted along the axis a control slides on, so a sweep step finds the few near the
+ * moved box by binary search. Boxes long along that axis (walls across it, a full-width shelf) are
+ * kept apart and always visited.
+ */
+export interface SlideIndex {
+	axis: number;
+	order: Int32Array;
+	mins: Float64Array;
+	/** Longest extent along the axis among the sorted boxes. */
+	reach: number;
+	long: Int32Array;
+}
+
+export function slideIndex(model: Model, included: Uint8Array, axis: number): SlideIndex {
+	const f = model.flat;
+	const ids: number[] = [];
+	for (let i = 0; i < model.boxes.length; i++) if (included[i]) ids.push(i);
+	let lo = Infinity;
+	let hi = -Infinity;
+	for (const i of ids) {
+		lo = Math.min(lo, f[i * 6 + axis]);
+		hi = Math.max(hi, f[i * 6 + 3 + axis]);
+	}
+	const longest = (hi - lo) / 4;
+	const extent = (i: number) => f[i * 6 + 3 + axis] - f[i * 6 + axis];
+	const short = ids.filter((i) => !(extent(i) > longest)).sort((x, y) => f[x * 6 + axis] - f[y * 6 + axis]);
+	return {
+		axis,
+		order: Int32Array.from(short),
+		mins: Float64Array.from(short, (i) => f[i * 6 + axis]),
+		reach: short.reduce((r, i) => Math.max(r, extent(i)), 0),
+		long: Int32Array.from(ids.filter((i) => extent(i) > longest))
+	};
+}
+
+/** First index in the sorted `mins` at or above `v`. */
+function lowerBound(mins: Float64Array, v: number): number {
+	let lo = 0;
+	let hi = mins.length;
+	while (lo < hi) {
+		const mid = (lo + hi) >> 1;
+		if (mins[mid] < v) lo = mid + 1;
+		else hi = mid;
+	}
+	return lo;
+}
+
+/**
  * Adds moved control boxes to a copy of a static tally (written into `scratch`): `moving[k]` is
  * the box index of a divider or bracket, its geometry for this step in `movingFlat` at k.
- * `included` is the static set.
+ *
+ * Only static boxes within `marginMm` of a moved box along its slide axis are visited: farther
+ * ones can neither overlap it nor be made tight by it, so their status stays the static one (the
+ * gaps of `extraPlacements`, which a sweep reports, are offered in full).
  */
 export function tallyMoving(
 	model: Model,
 	base: Tally,
-	included: Uint8Array,
 	moving: readonly number[],
 	movingFlat: Float64Array,
+	slides: readonly SlideIndex[],
+	marginMm: number,
+	extraPlacements: readonly number[],
 	scratch: Tally = emptyTally(model.bodiesOf.length, true)
 ): Tally {
 	const tally = copyTallyInto(base, scratch);
-	const n = model.boxes.length;
 	for (let k = 0; k < moving.length; k++) {
 		const mi = moving[k];
-		const mBox = model.boxes[mi];
-		for (let i = 0; i < n; i++) {
-			if (!included[i]) continue;
-			const volume = overlapVolume(movingFlat, k, model.flat, i);
-			if (volume > 0) {
-				const kind = pairKind(mBox, model.boxes[i]);
-				if (kind) addPair(model, tally, mi, i, kind, volume);
-			}
+		const { axis, order, mins, reach, long } = slides[k];
+		const pad = marginMm + 1;
+		const lo = movingFlat[k * 6 + axis] - pad;
+		const hi = movingFlat[k * 6 + 3 + axis] + pad;
+		for (let q = 0; q < long.length; q++) visitNear(model, tally, mi, k, movingFlat, long[q]);
+		const end = lowerBound(mins, hi);
+		for (let q = lowerBound(mins, lo - reach); q < end; q++) {
+			const i = order[q];
+			if (model.flat[i * 6 + 3 + axis] >= lo) visitNear(model, tally, mi, k, movingFlat, i);
 		}
 		for (let l = k + 1; l < moving.length; l++) {
 			const volume = overlapVolume(movingFlat, k, movingFlat, l);
-			const kind = volume > 0 ? pairKind(mBox, model.boxes[moving[l]]) : null;
+			const kind = volume > 0 ? pairKind(model.boxes[mi], model.boxes[moving[l]]) : null;
 			if (kind) addPair(model, tally, mi, moving[l], kind, volume);
 		}
-		const { bodyBoxes, owner } = model;
-		for (let q = 0; q < bodyBoxes.length; q++) {
-			const bi = bodyBoxes[q];
-			addGap(model, tally, owner[bi], model.flat, bi, movingFlat, k, mi);
+		for (const p of extraPlacements) {
+			for (const bi of model.bodiesOf[p]) addGap(model, tally, p, model.flat, bi, movingFlat, k, mi);
 		}
 	}
 	return tally;
+}
+
+function visitNear(model: Model, tally: Tally, mi: number, k: number, movingFlat: Float64Array, i: number): void {
+	const volume = overlapVolume(movingFlat, k, model.flat, i);
+	if (volume > 0) {
+		const kind = pairKind(model.boxes[mi], model.boxes[i]);
+		if (kind) addPair(model, tally, mi, i, kind, volume);
+	}
+	const p = model.owner[i];
+	if (p >= 0 && model.obstacle[i]) addGap(model, tally, p, model.flat, i, movingFlat, k, mi);
 }
 
 /**

@@ -7,7 +7,7 @@
 import { FACES, compareText, type Face } from './box';
 import { bracketBoxAt, cutCompartments, dividerBoxAt, slabsFor } from './enclosure';
 import { SceneError } from './errors';
-import { buildModel, emptyTally, statusCounts, stepCounts, tallyMoving, tallyStatic, writeFlat, type Model, type Tally } from './model';
+import { buildModel, emptyTally, slideIndex, statusCounts, stepCounts, tallyMoving, tallyStatic, writeFlat, type Model, type Tally } from './model';
 import { allowedIndex, allowedPositions, type AllowedPosition } from './positions';
 import { resolveScene } from './resolve';
 import type { Box, BracketDef, DividerDef, Scene } from './schema';
@@ -71,6 +71,8 @@ function prepare(scene: Scene, controls: SweepControl[], gaps: GapRequest[] | un
 	for (const m of moving) included[m.index] = 0;
 	const base: Tally = tallyStatic(model, included).tally;
 	const slots = gapSlots(model, gaps);
+	const slides = moving.map((m) => slideIndex(model, included, 'xyz'.indexOf(m.def.axis)));
+	const reported = [...new Set(slots.map((s) => (s.slot / 6) | 0))];
 	const movesDivider = moving.some((m) => m.control.kind === 'divider');
 	const movingFlat = new Float64Array(moving.length * 6);
 	const indexes = moving.map((m) => m.index);
@@ -83,7 +85,7 @@ function prepare(scene: Scene, controls: SweepControl[], gaps: GapRequest[] | un
 		moving,
 		evaluate(offsets: number[]): SweepMetrics {
 			moving.forEach((m, k) => writeFlat(movingFlat, k, m.boxAt(offsets[k])));
-			const tally = tallyMoving(model, base, included, indexes, movingFlat, scratch);
+			const tally = tallyMoving(model, base, indexes, movingFlat, slides, scene.marginMm, reported, scratch);
 			const counts = stepCounts(model, tally, scene.marginMm, baseStatus);
 			let compartments = resolved.compartments;
 			if (movesDivider) {
