@@ -6,6 +6,7 @@
 import { and, asc, desc, eq, ilike, isNotNull, isNull, sql } from 'drizzle-orm';
 import { innerVolumeLitres, type EnclosureDef, type FieldIssue } from '$lib/geometry';
 import { checkEnclosure } from '$lib/components/catalog/schemas';
+import { enclosureChanges } from '$lib/components/catalog/enclosure-diff';
 import { db, type Tx } from '../db';
 import { builds, enclosures, enclosureVersions, type EnclosureRow, type EnclosureVersionRow } from '../db/schema';
 import { newId } from '../tokens';
@@ -221,7 +222,8 @@ export async function updateEnclosure(
 				version: nextVersion,
 				definition: checked.def,
 				volumeLitres,
-				note: checked.note,
+				// Without a note of the user's, the version says what changed.
+				note: checked.note || enclosureChanges(current.definition as EnclosureDef, checked.def).join('; ').slice(0, 500),
 				createdBy: userId
 			});
 		} else {
