@@ -1,0 +1,97 @@
+/**
+ * The build sheet at the bench: a designer opens the demo build's sheet, it prints as a paper
+ * document (tools and site header gone, drawings and checklist there), ticks two checklist items,
+ * reloads and finds them still ticked; a third is ticked without JavaScript; the PDF downloads.
+ */
+import { expect, test, type Page } from '@playwright/test';
+import { eq } from 'drizzle-orm';
+import { db } from '../src/lib/server/db';
+import { builds } from '../src/lib/server/db/schema';
+import { clearTicks, createSheetBuild } from '../src/lib/server/sheet-test-build';
+import { clearBrowserRateLimits, closeDb, createMember, createStudio, signInAs } from './helpers/accounts';
+
+const DEMO_BUILD = 'demo-build';
+const DEMO_DESIGNER = 'demo-designer';
+
+/** The seeded demo build; until the seed has one, the same demo scene in a studio of its own. */
+async function demoBuild(): Promise<{ buildId: string; userId: string }> {
+	const [seeded] = await db.select({ id: builds.id }).from(builds).where(eq(builds.id, DEMO_BUILD));
+	if (seeded) return { buildId: seeded.id, userId: DEMO_DESIGNER };
+	const studio = await createStudio();
+	const designer = await createMember(studio.id, 'designer');
+	const built = await createSheetBuild({ studioId: studio.id, userId: designer.id, name: 'Quiet desk build' });
+	return { buildId: built.buildId, userId: designer.id };
+}
+
+let target: { buildId: string; userId: string };
+
+test.beforeAll(async () => {
+	await clearBrowserRateLimits();
+	target = await demoBuild();
+	await clearTicks(target.buildId);
+});
+test.afterAll(async () => {
+	await closeDb();
+});
+
+const tickBox = (page: Page, name: RegExp) => page.getByRole('checkbox', { name });
+
+test('open the sheet, print it, tick two items, reload: still ticked', async ({ page, context, baseURL }, testInfo) => {
+	await signInAs(context, baseURL!, target.userId);
+	await page.goto(`/builds/${target.buildId}/sheet`);
+	await expect(page.getByText('Build sheet', { exact: true })).toBeVisible();
+	await expect(page.getByRole('heading', { name: 'Assembly checklist' })).toBeVisible();
+	for (const view of ['Front', 'Top', 'Side, from the right']) {
+		await expect(page.getByRole('img', { name: new RegExp(`^${view} view`) })).toBeVisible();
+	}
+	await expect(page.getByText(/Spine at position 3 slots/).first()).toBeVisible();
+
+	// A4 at 96 px to the inch (210 × 297 mm), printed.
+	await page.setViewportSize({ width: 794, height: 1123 });
+	await page.emulateMedia({ media: 'print' });
+	await expect(page.getByRole('link', { name: 'Download PDF' })).toBeHidden();
+	await expect(page.getByRole('navigation', { name: 'Main' })).toBeHidden();
+	await expect(page.getByRole('img', { name: /^Front view/ })).toBeVisible();
+	const shot = testInfo.outputPath('sheet-print.png');
+	await page.screenshot({ path: shot, fullPage: true });
+	await testInfo.attach('sheet printed', { path: shot, contentType: 'image/png' });
+	await page.emulateMedia({ media: 'screen' });
+
+	const leak = tickBox(page, /^Leak-test with only the pump powered/);
+	const unplug = tickBox(page, /^Unplug from the mains/);
+	await expect(leak).toHaveAttribute('aria-checked', 'false');
+	await leak.click();
+	await expect(leak).toHaveAttribute('aria-checked', 'true');
+	await unplug.click();
+	await expect(unplug).toHaveAttribute('aria-checked', 'true');
+	// The server's answer, not only the optimistic tick: who ticked shows once the data is back.
+	await expect(page.getByText(/^Ticked by /)).toHaveCount(2);
+
+	await page.reload();
+	await expect(leak).toHaveAttribute('aria-checked', 'true');
+	await expect(unplug).toHaveAttribute('aria-checked', 'true');
+	await expect(tickBox(page, /^Coolants can be toxic/)).toHaveAttribute('aria-checked', 'false');
+});
+
+test('ticking works without JavaScript, and the PDF downloads', async ({ browser, baseURL }) => {
+	const context = await browser.newContext({ javaScriptEnabled: false });
+	await signInAs(context, baseURL!, target.userId);
+	const page = await context.newPage();
+	await page.goto(`/builds/${target.buildId}/sheet?paper=letter`);
+	const coolant = tickBox(page, /^Coolants can be toxic/);
+	await expect(coolant).toHaveAttribute('aria-checked', 'false');
+	await coolant.click();
+	await page.waitForLoadState('load');
+	await expect(coolant).toHaveAttribute('aria-checked', 'true');
+	await page.goto(`/builds/${target.buildId}/sheet?paper=letter`);
+	await expect(coolant).toHaveAttribute('aria-checked', 'true');
+	await expect(page.getByRole('link', { name: 'Letter' })).toHaveAttribute('aria-current', 'true');
+
+	const href = await page.getByRole('link', { name: 'Download PDF' }).getAttribute('href');
+	expect(href).toMatch(/\/sheet\.pdf\?variant=.+&paper=letter$/);
+	const res = await context.request.get(href!);
+	expect(res.status()).toBe(200);
+	expect(res.headers()['content-type']).toBe('application/pdf');
+	expect((await res.body()).subarray(0, 5).toString('latin1')).toBe('%PDF-');
+	await context.close();
+});
