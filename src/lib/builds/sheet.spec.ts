@@ -130,3 +130,13 @@ describe('the checklist', () => {
 		expect(block.detail).toBe('After Mini-ITX board: this part would be in its way in (from the right).');
 	});
 });
+
+describe('an empty variant', () => {
+	it('still has the enclosure settings and the cautions, and no empty groups', () => {
+		const sheet = sheetOf((s) => (s.placements = []));
+		expect(sheet.parts).toEqual([]);
+		expect(sheet.checklist.map((g) => g.id)).toEqual(['settings', 'cautions']);
+		expect(sheet.fit.summary).toBe('Everything fits with the margin to spare.');
+		expect(sheet.fit.budgets.map((b) => b.status)).toEqual(['unknown', 'unknown']);
+	});
+});
