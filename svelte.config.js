@@ -5,7 +5,9 @@ import { vitePreprocess } from '@sveltejs/vite-plugin-svelte';
 const config = {
 	preprocess: vitePreprocess(),
 	kit: {
-		adapter: adapter(),
+		// Separate folders let several checkouts' builds run side by side (defaults for everyone else).
+		adapter: adapter({ out: process.env.BUILD_DIR ?? 'build' }),
+		outDir: process.env.KIT_OUT_DIR ?? '.svelte-kit',
 		typescript: {
 			config(tsconfig) {
 				tsconfig.include.push('../scripts/**/*.ts', '../drizzle.config.ts', '../tailwind.config.ts', '../playwright.config.ts');

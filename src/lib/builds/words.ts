@@ -41,6 +41,9 @@ export function moveSentence(clearing: ClearingMove, control?: ClearingMove): st
 
 const AXIS_WORDS = { x: 'width', y: 'height', z: 'depth' } as const;
 
+/** Where a gap is, as a preposition: "2.0 mm above the CPU block". */
+const BESIDE_WORDS: Record<Face, string> = { '-x': 'left of', '+x': 'right of', '-y': 'below', '+y': 'above', '-z': 'in front of', '+z': 'behind' };
+
 /** "Card and support bracket overlap by 3.5 mm along depth; move the bracket 1 step back." */
 export function overlapSentence(o: Overlap): string {
 	const axis = o.clearingMove.axis;
@@ -80,5 +83,5 @@ export function fitSummary(report: FitReport): string {
 		if (g && (!best || g.gapMm < best.gapMm)) best = { label: p.label, face: g.face, gapMm: g.gapMm };
 	}
 	if (!best) return 'Everything fits.';
-	return `Everything fits; the tightest gap is ${formatMm(best.gapMm)} ${FACE_WORDS[best.face]} the ${best.label}.`;
+	return `Everything fits; the tightest gap is ${formatMm(best.gapMm)} ${BESIDE_WORDS[best.face]} the ${best.label}.`;
 }

@@ -11,7 +11,7 @@ import {
 	type Scene
 } from '$lib/geometry';
 import { composeScene, defaultSettings, variantSettingsSchema, type VariantSettings } from '$lib/builds/settings';
-import { db } from './db';
+import { db, type Tx } from './db';
 import { builds, enclosureVersions, enclosures, parts, variants, type VariantRow } from './db/schema';
 import { newId } from './tokens';
 
@@ -142,5 +142,85 @@ export async function saveVariantSettings(input: { buildId: string; studioId: st
 		const [current] = await tx.select().from(variants).where(and(eq(variants.id, input.variantId), eq(variants.buildId, input.buildId)));
 		if (!current) throw new SceneRejected([{ path: 'variantId', message: 'No such variant in this build.' }], 404);
 		return { ok: false as const, conflict: { version: current.version, settings: variantSettingsSchema.parse(current.settings), updatedAt: current.updatedAt } };
+	});
+}
+
+// — variants —
+
+export class VariantRuleError extends Error {
+	constructor(
+		message: string,
+		public status = 400
+	) {
+		super(message);
+	}
+}
+
+/** A copy of a variant with all its settings and placements, right after it in the order. */
+export async function forkVariant(buildId: string, variantId: string, name?: string) {
+	return db.transaction(async (tx) => {
+		const list = await tx.select().from(variants).where(eq(variants.buildId, buildId)).orderBy(asc(variants.sortOrder), asc(variants.createdAt)).for('update');
+		const source = list.find((v) => v.id === variantId);
+		if (!source) throw new VariantRuleError('No such variant in this build.', 404);
+		const id = newId();
+		const at = list.indexOf(source) + 1;
+		const ordered = [...list.slice(0, at).map((v) => v.id), id, ...list.slice(at).map((v) => v.id)];
+		await tx.insert(variants).values({ id, buildId, name: name ?? uniqueName(list.map((v) => v.name), `${source.name} (copy)`), sortOrder: at, isProposal: false, settings: source.settings });
+		await renumber(tx, ordered);
+		return id;
+	});
+}
+
+function uniqueName(taken: string[], wanted: string) {
+	if (!taken.includes(wanted)) return wanted;
+	let n = 2;
+	while (taken.includes(`${wanted} ${n}`)) n++;
+	return `${wanted} ${n}`;
+}
+
+async function renumber(tx: Tx, ids: string[]) {
+	for (let i = 0; i < ids.length; i++) await tx.update(variants).set({ sortOrder: i }).where(eq(variants.id, ids[i]));
+}
+
+export async function renameVariant(buildId: string, variantId: string, name: string) {
+	const rows = await db.update(variants).set({ name, updatedAt: new Date() }).where(and(eq(variants.id, variantId), eq(variants.buildId, buildId))).returning({ id: variants.id });
+	if (!rows.length) throw new VariantRuleError('No such variant in this build.', 404);
+}
+
+/** Moves a variant one place up (−1) or down (+1). */
+export async function moveVariant(buildId: string, variantId: string, by: -1 | 1) {
+	await db.transaction(async (tx) => {
+		const list = await tx.select().from(variants).where(eq(variants.buildId, buildId)).orderBy(asc(variants.sortOrder), asc(variants.createdAt)).for('update');
+		const i = list.findIndex((v) => v.id === variantId);
+		if (i < 0) throw new VariantRuleError('No such variant in this build.', 404);
+		const j = i + by;
+		if (j < 0 || j >= list.length) return;
+		const ids = list.map((v) => v.id);
+		[ids[i], ids[j]] = [ids[j], ids[i]];
+		await renumber(tx, ids);
+	});
+}
+
+/** The last variant can't go; deleting the proposal makes the first remaining one the proposal. */
+export async function deleteVariant(buildId: string, variantId: string) {
+	await db.transaction(async (tx) => {
+		const list = await tx.select().from(variants).where(eq(variants.buildId, buildId)).orderBy(asc(variants.sortOrder), asc(variants.createdAt)).for('update');
+		const target = list.find((v) => v.id === variantId);
+		if (!target) throw new VariantRuleError('No such variant in this build.', 404);
+		if (list.length === 1) throw new VariantRuleError('A build keeps at least one variant; this is the last one.', 409);
+		await tx.delete(variants).where(eq(variants.id, variantId));
+		const rest = list.filter((v) => v.id !== variantId);
+		if (target.isProposal) await tx.update(variants).set({ isProposal: true }).where(eq(variants.id, rest[0].id));
+		await renumber(tx, rest.map((v) => v.id));
+	});
+}
+
+/** Exactly one variant per build is the proposal. */
+export async function markProposal(buildId: string, variantId: string) {
+	await db.transaction(async (tx) => {
+		const [target] = await tx.select().from(variants).where(and(eq(variants.id, variantId), eq(variants.buildId, buildId))).for('update');
+		if (!target) throw new VariantRuleError('No such variant in this build.', 404);
+		await tx.update(variants).set({ isProposal: false }).where(eq(variants.buildId, buildId));
+		await tx.update(variants).set({ isProposal: true }).where(eq(variants.id, variantId));
 	});
 }

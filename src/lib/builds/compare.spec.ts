@@ -1,0 +1,60 @@
+import { describe, expect, it } from 'vitest';
+import { checkScene, sceneSchema, type Scene } from '$lib/geometry';
+import { demoSceneInput } from '$lib/geometry/fixtures';
+import { compareCsv, compareVariants, type CompareInput } from './compare';
+
+function variant(id: string, scene: Scene): CompareInput {
+	return { id, name: id, report: checkScene(scene), marginMm: scene.marginMm };
+}
+
+function withBar(offsetMm: number): Scene {
+	return sceneSchema.parse({ ...demoSceneInput(), bracketOffsets: { bar: offsetMm } });
+}
+
+describe('compareVariants', () => {
+	it('finds no difference between a scene and itself', () => {
+		const s = withBar(0);
+		const rows = compareVariants([variant('a', s), variant('b', s)]);
+		expect(rows.length).toBeGreaterThan(20);
+		expect(rows.filter((r) => r.differs)).toEqual([]);
+		expect(rows.every((r) => r.cells.every((c) => !c.best))).toBe(true);
+	});
+
+	it('a bracket moved one step changes exactly the gaps that face it, by exactly that step', () => {
+		// The demo's card support bar slides in 10 mm steps along Y. Without the card standing on it,
+		// the only part above it is the pump-reservoir: its gap below must shrink by one step, 10 mm.
+		const withoutCard = (bar: number) => {
+			const input = demoSceneInput();
+			return sceneSchema.parse({ ...input, placements: input.placements!.filter((p) => p.id !== 'card'), bracketOffsets: { bar } });
+		};
+		const rows = compareVariants([variant('a', withoutCard(0)), variant('b', withoutCard(10))]);
+		const changed = rows.filter((r) => r.differs);
+		expect(changed.map((r) => r.key)).toEqual(['part:pump-res:gap:-y']);
+		expect(changed[0].cells[1].delta).toBeCloseTo(-10, 9);
+		expect(changed[0].cells[0].best).toBe(true);
+	});
+
+	it('marks the better value: a bigger gap, less interference, a better status', () => {
+		const fits = sceneSchema.parse({ ...demoSceneInput() });
+		const clash = sceneSchema.parse({ ...demoSceneInput(), dividerPositions: { bulkhead: 64, spine: 106.32 } });
+		const rows = compareVariants([variant('fits', fits), variant('clash', clash)]);
+		const interference = rows.find((r) => r.key === 'total:interference')!;
+		expect(interference.cells[0].best).toBe(true);
+		expect(interference.cells[1].best).toBe(false);
+		expect(interference.cells[1].delta).toBeGreaterThan(0);
+		const cardStatus = rows.find((r) => r.key === 'part:card:status')!;
+		expect(cardStatus.cells.map((c) => c.text)).toEqual(['clear', 'collides']);
+		expect(cardStatus.cells[0].best).toBe(true);
+		expect(cardStatus.cells[1].best).toBe(false);
+	});
+
+	it('exports every row as CSV with one change column per later variant', () => {
+		const s = withBar(0);
+		const inputs = [variant('A, first', s), variant('B', withBar(10))];
+		const rows = compareVariants(inputs);
+		const csv = compareCsv(inputs, rows);
+		const lines = csv.trim().split('\r\n');
+		expect(lines[0]).toBe('group,item,"A, first",B,change in B');
+		expect(lines).toHaveLength(rows.length + 1);
+	});
+});

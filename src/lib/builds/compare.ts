@@ -1,0 +1,121 @@
+/**
+ * Differences between variants of one build, from their fit reports (the same engine numbers the
+ * editor shows). The first variant is the reference; every other column says how far it moved.
+ */
+import { FACES, STATUS_ORDER, type Face, type FitReport, type FitStatus } from '$lib/geometry';
+
+export type CompareInput = { id: string; name: string; report: FitReport; marginMm: number };
+
+export type Cell = { value: number | null; text: string; status?: FitStatus; delta: number | null; best: boolean };
+
+export type DiffRow = {
+	key: string;
+	group: 'part' | 'compartment' | 'mount' | 'total';
+	label: string;
+	/** Which is better: a bigger number (a gap, spare room) or a smaller one (interference). */
+	better: 'higher' | 'lower' | 'status' | 'none';
+	cells: Cell[];
+	differs: boolean;
+	/** Placement ids to highlight in the 3D views when the row is hovered. */
+	highlight: string[];
+};
+
+const EPS = 1e-6;
+/** STATUS_ORDER runs worst first, so a higher index is a better status. */
+const rank = (s: FitStatus) => STATUS_ORDER.indexOf(s);
+
+function numberRow(key: string, group: DiffRow['group'], label: string, values: (number | null)[], better: DiffRow['better'], format: (v: number) => string, highlight: string[] = [], statuses?: (FitStatus | undefined)[]): DiffRow {
+	const ref = values[0];
+	const present = values.filter((v): v is number => v !== null);
+	const bestValue = present.length < 2 || better === 'none' ? null : better === 'higher' ? Math.max(...present) : Math.min(...present);
+	const spread = present.length ? Math.max(...present) - Math.min(...present) : 0;
+	const differs = values.some((v) => (v === null) !== (ref === null)) || spread > EPS || (statuses ? new Set(statuses).size > 1 : false);
+	const cells = values.map((v, i) => ({
+		value: v,
+		text: v === null ? '—' : format(v),
+		status: statuses?.[i],
+		delta: i === 0 || v === null || ref === null ? null : v - ref,
+		best: differs && bestValue !== null && v !== null && Math.abs(v - bestValue) <= EPS && spread > EPS
+	}));
+	return { key, group, label, better, cells, differs, highlight };
+}
+
+function statusRow(key: string, label: string, statuses: (FitStatus | undefined)[], highlight: string[]): DiffRow {
+	const present = statuses.filter((s): s is FitStatus => !!s);
+	const bestRank = present.length ? Math.max(...present.map(rank)) : 0;
+	const differs = new Set(statuses).size > 1;
+	return {
+		key,
+		group: 'part',
+		label,
+		better: 'status',
+		differs,
+		highlight,
+		cells: statuses.map((s) => ({ value: null, text: s ?? 'not placed', status: s, delta: null, best: differs && !!s && rank(s) === bestRank }))
+	};
+}
+
+const mmText = (v: number) => `${v.toFixed(1)}\u2009mm`;
+
+/** Rows for every part (status + six gaps), compartment, mount stack and the totals. */
+export function compareVariants(inputs: CompareInput[]): DiffRow[] {
+	const rows: DiffRow[] = [];
+	const placementIds = [...new Set(inputs.flatMap((v) => v.report.parts.map((p) => p.placementId)))].sort();
+	for (const id of placementIds) {
+		const reports = inputs.map((v) => v.report.parts.find((p) => p.placementId === id));
+		const label = reports.find((r) => r)?.label ?? id;
+		rows.push(statusRow(`part:${id}:status`, `${label} — status`, reports.map((r) => r?.status), [id]));
+		for (const face of FACES as readonly Face[]) {
+			const values = reports.map((r) => r?.gaps[face].gapMm ?? null);
+			if (values.every((v) => v === null)) continue;
+			rows.push(numberRow(`part:${id}:gap:${face}`, 'part', `${label} — gap ${FACE_LABEL[face]}`, values, 'higher', mmText, [id]));
+		}
+	}
+	const compartmentIds = [...new Set(inputs.flatMap((v) => v.report.compartments.map((c) => c.id)))].sort();
+	for (const id of compartmentIds) {
+		const found = inputs.map((v) => v.report.compartments.find((c) => c.id === id));
+		const label = found.find((c) => c)?.label ?? id;
+		(['width', 'height', 'depth'] as const).forEach((dim, axis) => {
+			rows.push(numberRow(`room:${id}:${dim}`, 'compartment', `${label} — ${dim}`, found.map((c) => c?.sizeMm[axis] ?? null), 'none', mmText));
+		});
+	}
+	const mountIds = [...new Set(inputs.flatMap((v) => v.report.mounts.filter((m) => m.stack.length).map((m) => m.mountId)))].sort();
+	for (const id of mountIds) {
+		const found = inputs.map((v) => v.report.mounts.find((m) => m.mountId === id));
+		const label = found.find((m) => m)?.label ?? id;
+		const ids = [...new Set(found.flatMap((m) => m?.stack.map((s) => s.placementId) ?? []))];
+		rows.push(numberRow(`mount:${id}:used`, 'mount', `${label} — stack`, found.map((m) => m?.usedMm ?? null), 'none', mmText, ids, found.map((m) => m?.status)));
+		rows.push(numberRow(`mount:${id}:spare`, 'mount', `${label} — spare`, found.map((m) => m?.spareMm ?? null), 'higher', mmText, ids));
+	}
+	rows.push(numberRow('total:interference', 'total', 'Interference volume', inputs.map((v) => v.report.totals.interferenceVolumeMm3 / 1000), 'lower', (v) => `${v.toFixed(1)}\u2009cm³`));
+	for (const s of STATUS_ORDER) {
+		rows.push(numberRow(`total:count:${s}`, 'total', `Parts ${s}`, inputs.map((v) => v.report.totals.counts[s]), s === 'clear' ? 'higher' : 'lower', (v) => String(v)));
+	}
+	rows.push(numberRow('total:heat-spare', 'total', 'Radiator estimate minus heat', inputs.map((v) => v.report.budgets.heat.capacityW - v.report.budgets.heat.heatW), 'higher', (v) => `${Math.round(v)}\u2009W (estimate)`));
+	rows.push(numberRow('total:power-spare', 'total', 'Supply rating minus draw with headroom', inputs.map((v) => v.report.budgets.power.ratingW - v.report.budgets.power.requiredW), 'higher', (v) => `${Math.round(v)}\u2009W`));
+	return rows;
+}
+
+const FACE_LABEL: Record<Face, string> = { '-x': 'left', '+x': 'right', '-y': 'below', '+y': 'above', '-z': 'front', '+z': 'behind' };
+
+/** "+2.0" / "−20.3": the change against the first variant, in the row's unit. */
+export function deltaText(delta: number | null): string {
+	if (delta === null || Math.abs(delta) <= EPS) return '';
+	return `${delta > 0 ? '+' : '−'}${Math.abs(delta).toFixed(1)}`;
+}
+
+function csvField(s: string): string {
+	return /[",\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
+}
+
+/** The difference table as CSV: one column per variant and one change column per later variant. */
+export function compareCsv(inputs: CompareInput[], rows: DiffRow[]): string {
+	const header = ['group', 'item', ...inputs.map((v) => v.name), ...inputs.slice(1).map((v) => `change in ${v.name}`)];
+	const lines = [header.map(csvField).join(',')];
+	for (const r of rows) {
+		const values = r.cells.map((c) => (c.value === null ? c.text : String(Math.round(c.value * 1000) / 1000)));
+		const deltas = r.cells.slice(1).map((c) => (c.delta === null ? '' : String(Math.round(c.delta * 1000) / 1000)));
+		lines.push([r.group, r.label, ...values, ...deltas].map(csvField).join(','));
+	}
+	return lines.join('\r\n') + '\r\n';
+}
