@@ -4,7 +4,10 @@ import { db } from './db';
 export type Limit = { max: number; windowSec: number };
 
 export const limits = {
+	/** Per address and account: guessing one account's password. */
 	signIn: { max: 10, windowSec: 15 * 60 },
+	/** Per address over all accounts: spraying many accounts from one place. */
+	signInAddress: { max: 300, windowSec: 15 * 60 },
 	reset: { max: 5, windowSec: 60 * 60 },
 	signUp: { max: 20, windowSec: 60 * 60 },
 	api: { max: 600, windowSec: 60 },

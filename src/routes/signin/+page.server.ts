@@ -15,9 +15,10 @@ export const load: PageServerLoad = ({ locals, url }) => {
 
 export const actions: Actions = {
 	default: async (event) => {
-		await enforce(event, 'signin', limits.signIn);
+		await enforce(event, 'signin-address', limits.signInAddress);
 		const parsed = await parseForm(event.request, signInSchema);
 		if (!parsed.ok) return parsed.failure;
+		await enforce(event, 'signin', limits.signIn, parsed.data.email);
 		const user = await checkCredentials(parsed.data.email, parsed.data.password);
 		if (!user) {
 			// One answer for "no such e-mail" and "wrong password".
