@@ -64,7 +64,7 @@ export class EditorState {
 	view = $state<ViewName>('orbit');
 	showPanels = $state(true);
 	showKeepouts = $state(true);
-	dragTarget = $state.raw<{ kind: 'divider' | 'bracket'; id: string } | null>(null);
+	dragTarget = $state.raw<{ kind: 'divider' | 'bracket'; id: string } | { kind: 'part'; id: string; axis: 'x' | 'y' | 'z' } | null>(null);
 
 	saveStatus = $state<SaveStatus>('saved');
 	saveMessage = $state('');
@@ -197,6 +197,16 @@ export class EditorState {
 	setPosition(id: string, position: Vec3) {
 		if (position.some((v) => !Number.isFinite(v))) return;
 		this.#updatePlacement(id, (p) => ({ ...p, position }), `pos:${id}`);
+	}
+
+	/** A drag in 3D along one axis: the part's corner goes to `valueMm`, on a 0.5 mm grid. */
+	dragPart(id: string, axis: 0 | 1 | 2, valueMm: number) {
+		const p = this.placement(id);
+		if (!p || !Number.isFinite(valueMm)) return;
+		const position = [...p.position] as Vec3;
+		position[axis] = Math.round(valueMm * 2) / 2;
+		if (position[axis] === p.position[axis]) return;
+		this.#updatePlacement(id, (q) => ({ ...q, position }), `drag:${id}:${axis}`);
 	}
 
 	/** Keyboard nudge: 1 mm, 10 mm with Shift (the caller decides). */
