@@ -19,7 +19,7 @@ import {
 	type ResolvedScene,
 	type Vec3
 } from '$lib/geometry';
-import { DEMO_SPINE_OFFSETS, demoEnclosure, demoParts, demoSceneInput, standardPart } from '$lib/geometry/fixtures';
+import { DEMO_SPINE_OFFSETS, demoEnclosure, demoParts, demoScene, demoSceneInput, standardPart } from '$lib/geometry/fixtures';
 import { blockPart } from '$lib/geometry/factories.spec-util';
 import { freeSpot, landInRoom, landOnMount, nextPlacementId, placedBounds, snapToAllowed, stepAllowed, flatAlong } from './placement';
 
@@ -171,7 +171,7 @@ describe('landOnMount on the demo enclosure', () => {
 
 function sceneOf(placements: Placement[], spine: number = DEMO_SPINE_OFFSETS['3 slots'], more: PartDef[] = []) {
 	const input = demoSceneInput();
-	return sceneSchema.parse({ ...input, parts: [...input.parts, ...extraParts, ...more.filter((m) => !extraParts.some((e) => e.id === m.id))], placements, dividerPositions: { ...input.dividerPositions, spine } });
+	return sceneSchema.parse({ ...input, parts: [...(input.parts ?? []), ...extraParts, ...more.filter((m) => !extraParts.some((e) => e.id === m.id))], placements, dividerPositions: { ...input.dividerPositions, spine } });
 }
 
 /** Small generic blocks to drop into compartments. */
@@ -179,7 +179,7 @@ const extraParts: PartDef[] = [blockPart('block-a', [20, 30, 40]), blockPart('bl
 
 describe('landInRoom', () => {
 	const spines = Object.values(DEMO_SPINE_OFFSETS);
-	const base = demoSceneInput().placements;
+	const base = demoScene().placements;
 
 	/** Lands `p` in `room`; when it lands, checks it is inside the room and overlaps nothing. */
 	function landAndCheck(spine: number, room: { id: string; box: Box }, p: PartDef): 'landed' | 'full' {

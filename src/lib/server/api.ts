@@ -2,8 +2,10 @@
 import { error, json, type RequestEvent } from '@sveltejs/kit';
 import type { z } from 'zod';
 import { formatZodIssues, type FieldIssue } from '$lib/geometry';
+import { timingSafeEqual } from 'node:crypto';
+import { config } from './config';
 import { enforce } from './limits';
-import { limits } from './rate-limit';
+import { limits, type Limit } from './rate-limit';
 
 const MAX_JSON_BYTES = 4 * 1024 * 1024;
 
@@ -36,7 +38,25 @@ export function badRequest(message: string, issues: FieldIssue[]): never {
 	error(400, { message, issues } as App.Error & { issues: FieldIssue[] });
 }
 
+/** What `npm run bench:http` may send: far above any person, still counted like every call. */
+const BENCH_LIMIT: Limit = { max: 100_000_000, windowSec: 60 };
+
+/**
+ * A load test is one user sending thousands of calls a minute. It is counted in its own bucket
+ * with a high limit only when all three hold: the server is not in production mode (it serves
+ * cookies without Secure, which no deployment does), the server was started with a bench token
+ * (scripts/bench-http.ts makes a random one per run), and the request carries that token.
+ */
+function isBench(event: RequestEvent): boolean {
+	const token = process.env.INTERSTICE_BENCH_TOKEN;
+	if (config.production || !token || token.length < 32) return false;
+	const sent = event.request.headers.get('x-interstice-bench');
+	if (!sent || sent.length !== token.length) return false;
+	return timingSafeEqual(Buffer.from(sent), Buffer.from(token));
+}
+
 /** Per-user limit on API calls, counted in PostgreSQL like every other limit. */
 export async function apiLimit(event: RequestEvent, userId: string) {
-	await enforce(event, 'api', limits.api, userId);
+	if (isBench(event)) await enforce(event, 'api-bench', BENCH_LIMIT, userId);
+	else await enforce(event, 'api', limits.api, userId);
 }

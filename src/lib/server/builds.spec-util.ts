@@ -27,7 +27,7 @@ export type TestBuild = {
 
 export async function demoEnclosureIn(studioId: string, userId: string | null) {
 	const created = await createEnclosure(studioId, userId, { definition: demoEnclosure(), note: 'test' });
-	if (!created.ok) throw new Error(`demo enclosure refused: ${JSON.stringify(created.issues)}`);
+	if (!created.ok) throw new Error(`demo enclosure refused: ${JSON.stringify(created)}`);
 	return { enclosureId: created.value.id, enclosureVersionId: created.value.current.id };
 }
 
@@ -40,7 +40,7 @@ export async function demoPartsIn(studioId: string): Promise<Record<string, stri
 			continue;
 		}
 		const created = await createPart(studioId, { ...p, provenance: p.provenance === 'standard' ? 'estimate' : p.provenance });
-		if (!created.ok) throw new Error(`demo part ${p.id} refused: ${JSON.stringify(created.issues)}`);
+		if (!created.ok) throw new Error(`demo part ${p.id} refused: ${JSON.stringify(created)}`);
 		ids[p.id] = created.value.id;
 	}
 	return ids;
@@ -52,7 +52,7 @@ export function demoSettings(partIds: Record<string, string>): VariantSettings {
 	return variantSettingsSchema.parse({
 		dividerPositions: s.dividerPositions,
 		bracketOffsets: s.bracketOffsets,
-		placements: s.placements.map((p) => ({ ...p, partId: partIds[p.partId] })),
+		placements: (s.placements ?? []).map((p) => ({ ...p, partId: partIds[p.partId] })),
 		marginMm: s.marginMm,
 		budgets: s.budgets
 	});

@@ -133,7 +133,7 @@ describe('bad input: refused with the path of the problem, nothing saved', () =>
 		// A part of 100 bodies placed 60 times: 6,000 boxes with only 60 placements.
 		const bodies = Array.from({ length: 100 }, (_, i) => ({ id: `b${i}`, label: `slice ${i}`, box: { min: [0, i * 0.1, 0], max: [5, i * 0.1 + 0.1, 5] } }));
 		const created = await createPart(studio.id, { name: 'Many-slice test block', category: 'other', bodies, keepouts: [], ports: [], specs: {}, provenance: 'estimate', toleranceMm: 0 });
-		if (!created.ok) throw new Error(JSON.stringify(created.issues));
+		if (!created.ok) throw new Error(JSON.stringify(created));
 		const placements = Array.from({ length: 60 }, (_, i) => ({ id: `s${i}`, partId: created.value.id, position: [10 + (i % 10) * 6, 10 + Math.floor(i / 10) * 12, 80] }));
 		const e = await refused(build, { ...build.settings, placements });
 		expect(e.status).toBe(400);
@@ -143,7 +143,7 @@ describe('bad input: refused with the path of the problem, nothing saved', () =>
 	it('a part from another studio → 403 at its placement, even when it exists', async () => {
 		const { build, otherStudio } = await fixture();
 		const theirs = await createPart(otherStudio.id, { ...(demoParts().find((p) => p.id === 'demo-card') as PartDef), name: 'Another studio’s card' });
-		if (!theirs.ok) throw new Error(JSON.stringify(theirs.issues));
+		if (!theirs.ok) throw new Error(JSON.stringify(theirs));
 		const placements = build.settings.placements.map((p) => (p.id === 'card' ? { ...p, partId: theirs.value.id } : p));
 		const e = await refused(build, { ...build.settings, placements });
 		expect(e.status).toBe(403);
@@ -191,7 +191,7 @@ describe('over HTTP, through the built app', () => {
 		expect(bad.json<{ issues: { path: string }[] }>().issues.map((i) => i.path)).toEqual(['settings.dividerPositions.spine']);
 
 		const foreign = await createPart(otherStudio.id, { ...(demoParts().find((p) => p.id === 'demo-pump-res') as PartDef) });
-		if (!foreign.ok) throw new Error(JSON.stringify(foreign.issues));
+		if (!foreign.ok) throw new Error(JSON.stringify(foreign));
 		const placements = build.settings.placements.map((p) => (p.id === 'pump-res' ? { ...p, partId: foreign.value.id } : p));
 		const forbidden = await json(c, 'PUT', base(build), { version: build.version, settings: { ...build.settings, placements } });
 		expect(forbidden.status).toBe(403);
