@@ -1,6 +1,11 @@
 import type { Handle, HandleServerError } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
 import { readSession } from '$lib/server/auth';
+import { closeDb } from '$lib/server/db';
+
+// adapter-node stops accepting requests on SIGTERM/SIGINT, then waits for the event loop to empty;
+// the open database pool would keep the process alive until killed.
+process.on('sveltekit:shutdown', () => void closeDb());
 
 const session: Handle = async ({ event, resolve }) => {
 	const { user, session } = await readSession(event.cookies);
@@ -21,8 +26,10 @@ const securityHeaders: Handle = async ({ event, resolve }) => {
 	h.set('permissions-policy', 'camera=(), microphone=(), geolocation=(), payment=()');
 	if (!embeddable.some((p) => event.url.pathname.startsWith(p))) h.set('x-frame-options', 'DENY');
 	if (event.url.pathname.startsWith('/s/') || event.url.pathname.startsWith('/reset/') || event.url.pathname.startsWith('/invite/')) {
-		// Token-bearing URLs: never leak them in a Referer header.
-		h.set('referrer-policy', 'no-referrer');
+		// Token-bearing URLs: never leak them to another site in a Referer header. Not `no-referrer`:
+		// with it browsers send `Origin: null` on the page's own form posts, which SvelteKit's CSRF
+		// check refuses (403), so accepting an invitation or saving a new password failed.
+		h.set('referrer-policy', 'same-origin');
 	}
 	if (event.locals.user) h.set('cache-control', 'private, no-store');
 	return response;

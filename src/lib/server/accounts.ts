@@ -187,8 +187,14 @@ export async function acceptInvite(token: string, userId: string) {
 	});
 }
 
+/** Withdraws an open invitation of this studio; any other id is "no such invitation". */
 export async function revokeInvite(studioId: string, inviteId: string) {
-	await db.update(invites).set({ revokedAt: new Date() }).where(and(eq(invites.id, inviteId), eq(invites.studioId, studioId)));
+	const revoked = await db
+		.update(invites)
+		.set({ revokedAt: new Date() })
+		.where(and(eq(invites.id, inviteId), eq(invites.studioId, studioId), isNull(invites.acceptedAt), isNull(invites.revokedAt)))
+		.returning({ id: invites.id });
+	if (revoked.length === 0) throw new RuleError('No such open invitation.', 'inviteId', 404);
 }
 
 /** Locks the studio's memberships so two owners can't demote each other at the same time. */

@@ -16,13 +16,14 @@ export const lucia = new Lucia(adapter, {
 		name: 'interstice_session',
 		attributes: { secure: config.production, sameSite: 'lax' }
 	},
-	getUserAttributes: (a) => ({ email: a.email, name: a.name, activeStudioId: a.active_studio_id })
+	// The Drizzle adapter hands over the row with Drizzle's property names, not the column names.
+	getUserAttributes: (a) => ({ email: a.email, name: a.name, activeStudioId: a.activeStudioId })
 });
 
 declare module 'lucia' {
 	interface Register {
 		Lucia: typeof lucia;
-		DatabaseUserAttributes: { email: string; name: string; active_studio_id: string | null };
+		DatabaseUserAttributes: { email: string; name: string; activeStudioId: string | null };
 	}
 }
 

@@ -64,7 +64,11 @@ export const actions: Actions = {
 		const access = await activeStudio(locals, 'studio.members', url);
 		const parsed = await parseForm(request, z.object({ inviteId: line('Invitation', 64) }));
 		if (!parsed.ok) return parsed.failure;
-		await revokeInvite(access.studioId, parsed.data.inviteId);
+		try {
+			await revokeInvite(access.studioId, parsed.data.inviteId);
+		} catch (e) {
+			return ruleFailure(e);
+		}
 		return { revoked: true };
 	},
 	/** Any member may leave; the last owner may not. */
