@@ -1,0 +1,237 @@
+/**
+ * Accounts against the built app and the real PostgreSQL: sign up, sign in, sign out (here and
+ * everywhere), password reset by mailed link, and the headers every page carries.
+ */
+import { createHash } from 'node:crypto';
+import { eq } from 'drizzle-orm';
+import { describe, expect, it } from 'vitest';
+import { db } from './db';
+import { passwordResets, sessions, users } from './db/schema';
+import { accountRowCounts, createSession, createUser, expireResets, sessionCount, TEST_PASSWORD, uniqueEmail } from './testing/factories';
+import { extractLink, lastMailId, listMail, waitForMail } from './testing/mail';
+import { useApp } from './testing/suite';
+
+const app = useApp();
+const NO_MATCH = 'That e-mail and password do not match an account.';
+
+describe('sign up', () => {
+	it('creates the account, hashes the password with argon2id and signs the new user in', async () => {
+		const c = app.client();
+		const email = uniqueEmail('signup');
+		const res = await c.signUp({ name: 'Nia Builder', email: email.toUpperCase(), password: 'long-enough-1' });
+		expect(res.status).toBe(303);
+		expect(res.location).toBe('/studios/new');
+
+		const [row] = await db.select().from(users).where(eq(users.email, email));
+		expect(row.name).toBe('Nia Builder');
+		// OWASP Password Storage Cheat Sheet: argon2id, at least m=19456 (19 MiB), t=2, p=1.
+		expect(row.passwordHash).toMatch(/^\$argon2id\$v=19\$m=19456,t=2,p=1\$/);
+		expect(row.passwordHash).not.toContain('long-enough-1');
+
+		expect(c.sessionId).toBeTruthy();
+		const attrs = c.cookieAttributes('interstice_session') ?? '';
+		expect(attrs).toMatch(/HttpOnly/i);
+		expect(attrs).toMatch(/SameSite=Lax/i);
+		expect(attrs).toMatch(/Path=\//i);
+		const account = await c.get('/account');
+		expect(account.status).toBe(200);
+		expect(account.text).toContain(email);
+	});
+
+	it('refuses a second account for the same e-mail, in any letter case, and writes nothing', async () => {
+		const user = await createUser();
+		const before = await accountRowCounts();
+		const r = await app.client().action('/signup', { name: 'Again', email: user.email.toUpperCase(), password: 'long-enough-1' });
+		expect(r).toMatchObject({ type: 'failure', status: 400 });
+		expect(r.data.errors.email).toMatch(/exists/);
+		expect(await accountRowCounts()).toEqual(before);
+	});
+});
+
+describe('sign in', () => {
+	it('starts a session and goes to the builds, or to a same-site `next`', async () => {
+		const user = await createUser();
+		const c = app.client();
+		const res = await c.signIn(user.email.toUpperCase(), user.password);
+		expect(res.status).toBe(303);
+		expect(res.location).toBe('/builds');
+		expect(await sessionCount(user.id)).toBe(1);
+
+		const next = await app.client().postForm('/signin', { email: user.email, password: user.password, next: '/account' });
+		expect(next.location).toBe('/account');
+		const offsite = await app.client().postForm('/signin', { email: user.email, password: user.password, next: '//elsewhere.test/x' });
+		expect(offsite.location).toBe('/builds');
+	});
+
+	it('gives the same answer for a wrong password and an unknown e-mail, and no session', async () => {
+		const user = await createUser();
+		const wrong = app.client();
+		const unknown = app.client();
+		const a = await wrong.action('/signin', { email: user.email, password: 'not-the-password-9' });
+		const b = await unknown.action('/signin', { email: uniqueEmail('nobody'), password: 'not-the-password-9' });
+		expect(a).toMatchObject({ type: 'failure', status: 400, data: { errors: { _: NO_MATCH } } });
+		expect(b.type).toBe(a.type);
+		expect(b.status).toBe(a.status);
+		expect(b.data.errors).toEqual(a.data.errors);
+		expect(wrong.sessionId).toBeUndefined();
+		expect(unknown.sessionId).toBeUndefined();
+		expect(await sessionCount(user.id)).toBe(0);
+
+		// And as plain HTML pages: same status, same message.
+		const pa = await app.client().signIn(user.email, 'not-the-password-9');
+		const pb = await app.client().signIn(uniqueEmail('nobody'), 'not-the-password-9');
+		expect([pa.status, pb.status]).toEqual([400, 400]);
+		expect(pa.text).toContain(NO_MATCH);
+		expect(pb.text).toContain(NO_MATCH);
+	});
+
+	it('refuses a form posted from another site (SvelteKit CSRF check)', async () => {
+		const user = await createUser();
+		const c = app.client();
+		const res = await c.postForm('/signin', { email: user.email, password: user.password }, { origin: 'http://elsewhere.test' });
+		expect(res.status).toBe(403);
+		expect(c.sessionId).toBeUndefined();
+		expect(await sessionCount(user.id)).toBe(0);
+	});
+});
+
+describe('sign out', () => {
+	it('ends this session only', async () => {
+		const user = await createUser();
+		const here = app.client({ session: await createSession(user.id) });
+		const there = app.client({ session: await createSession(user.id) });
+		const res = await here.signOut();
+		expect(res.status).toBe(303);
+		expect(res.location).toBe('/');
+		expect(here.sessionId).toBeUndefined();
+		expect(await sessionCount(user.id)).toBe(1);
+		expect((await there.get('/account')).status).toBe(200);
+	});
+
+	it('everywhere ends every session of the user, and only theirs', async () => {
+		const user = await createUser();
+		const bystander = await createUser();
+		const laptop = app.client();
+		expect((await laptop.signIn(user.email, user.password)).status).toBe(303);
+		const phone = app.client();
+		expect((await phone.signIn(user.email, user.password)).status).toBe(303);
+		const stolenSession = await createSession(user.id);
+		const other = app.client({ session: await createSession(bystander.id) });
+		expect(await sessionCount(user.id)).toBe(3);
+
+		const res = await laptop.postForm('/account?/everywhere');
+		expect(res.status).toBe(303);
+		expect(res.location).toBe('/signin');
+		expect(await sessionCount(user.id)).toBe(0);
+		for (const c of [laptop, phone, app.client({ session: stolenSession })]) {
+			const page = await c.get('/account');
+			expect(page.status).toBe(303);
+			expect(page.location).toBe('/signin?next=%2Faccount');
+		}
+		expect((await other.get('/account')).status).toBe(200);
+	});
+});
+
+describe('password reset by mailed link', () => {
+	const SENT = 'a link to choose a new password is on its way';
+
+	async function requestLink(email: string) {
+		const after = await lastMailId(email);
+		const res = await app.client().postForm('/reset', { email });
+		expect(res.status).toBe(200);
+		expect(res.text).toContain(SENT);
+		const mail = await waitForMail(email, { subject: 'Reset your Interstice password', afterId: after });
+		return extractLink(mail.text, '/reset/');
+	}
+
+	it('answers the same for an unknown address and mails nothing', async () => {
+		const nobody = uniqueEmail('nobody');
+		const before = await accountRowCounts();
+		const res = await app.client().postForm('/reset', { email: nobody });
+		expect(res.status).toBe(200);
+		expect(res.text).toContain(SENT);
+		expect(await listMail(nobody)).toEqual([]);
+		expect(await accountRowCounts()).toEqual(before);
+	});
+
+	it('sets a new password once, ends old sessions, and the used link stops working', async () => {
+		const user = await createUser();
+		const oldSession = app.client({ session: await createSession(user.id) });
+		const link = await requestLink(user.email);
+		expect(new URL(link).origin).toBe(app.baseURL);
+
+		// Only the token's SHA-256 is stored (FIPS 180-4), never the token itself.
+		const token = new URL(link).pathname.split('/').pop() ?? '';
+		expect(token.length).toBeGreaterThanOrEqual(43);
+		const [stored] = await db.select().from(passwordResets).where(eq(passwordResets.userId, user.id));
+		expect(stored.tokenHash).toBe(createHash('sha256').update(token).digest('hex'));
+
+		const c = app.client();
+		const form = await c.get(link);
+		expect(form.status).toBe(200);
+		expect(form.text).toContain('Choose a new password');
+		expect(form.header('referrer-policy')).toBe('same-origin');
+
+		const saved = await c.postForm(link, { password: 'fresh-password-2' });
+		expect(saved.status).toBe(303);
+		expect(saved.location).toBe('/signin?reset=1');
+		expect(await sessionCount(user.id)).toBe(0);
+		expect((await oldSession.get('/account')).status).toBe(303);
+
+		expect((await app.client().signIn(user.email, TEST_PASSWORD)).status).toBe(400);
+		expect((await app.client().signIn(user.email, 'fresh-password-2')).status).toBe(303);
+
+		const again = await app.client().get(link);
+		expect(again.status).toBe(200);
+		expect(again.text).toContain('This link no longer works');
+		const reuse = await app.client().postForm(link, { password: 'attacker-password-3' });
+		expect(reuse.status).toBe(400);
+		expect(reuse.text).toContain('This link has expired or was already used');
+		expect((await app.client().signIn(user.email, 'fresh-password-2')).status).toBe(303);
+	});
+
+	it('refuses an expired link with a clear page and keeps the old password', async () => {
+		const user = await createUser();
+		const link = await requestLink(user.email);
+		await expireResets(user.id);
+
+		const page = await app.client().get(link);
+		expect(page.status).toBe(200);
+		expect(page.text).toContain('This link no longer works');
+		const post = await app.client().postForm(link, { password: 'fresh-password-2' });
+		expect(post.status).toBe(400);
+		expect(post.text).toContain('This link has expired or was already used');
+		expect((await app.client().signIn(user.email, TEST_PASSWORD)).status).toBe(303);
+		const [u] = await db.select({ n: sessions.id }).from(sessions).where(eq(sessions.userId, user.id));
+		expect(u).toBeTruthy();
+	});
+});
+
+describe('headers on every page', () => {
+	it('sends a content security policy with no third-party origin and no framing', async () => {
+		const res = await app.client().get('/');
+		expect(res.status).toBe(200);
+		const csp = res.header('content-security-policy') ?? '';
+		// Content Security Policy Level 3 (W3C): directives this app relies on.
+		expect(csp).toContain("default-src 'self'");
+		expect(csp).toContain("frame-ancestors 'none'");
+		expect(csp).toContain("object-src 'none'");
+		expect(csp).not.toMatch(/https?:\/\//);
+		expect(res.header('x-content-type-options')).toBe('nosniff');
+		expect(res.header('x-frame-options')).toBe('DENY');
+		expect(res.header('referrer-policy')).toBe('strict-origin-when-cross-origin');
+	});
+
+	it('keeps signed-in pages out of shared caches', async () => {
+		const user = await createUser();
+		const res = await app.client({ session: await createSession(user.id) }).get('/account');
+		expect(res.header('cache-control')).toContain('no-store');
+	});
+
+	it('answers an unknown address with the styled 404 page', async () => {
+		const res = await app.client().get('/no/such/page');
+		expect(res.status).toBe(404);
+		expect(res.text).toContain('Nothing fits here');
+		expect(res.text).not.toMatch(/at .*\.js:\d+/);
+	});
+});
