@@ -17,6 +17,8 @@ export PORT=${PORT:-3000} HOST=${HOST:-127.0.0.1}
 export ORIGIN=${ORIGIN:-http://127.0.0.1:$PORT}
 # Served over plain http on this machine, so the session cookie can't be marked secure here.
 export INTERSTICE_INSECURE_COOKIES=${INTERSTICE_INSECURE_COOKIES:-1}
+# The outgoing-mail page for owners; leave unset on a real deployment.
+export INTERSTICE_DEV_TOOLS=${INTERSTICE_DEV_TOOLS:-1}
 cat <<TXT
 
   Interstice is running at $ORIGIN

@@ -38,9 +38,9 @@ export const config = {
 	get mailCatcherUrl() {
 		return env('MAIL_CATCHER_URL', 'http://127.0.0.1:2526');
 	},
-	/** Development pages (mail viewer) are on unless explicitly turned off for a real deployment. */
+	/** Development pages (the outgoing-mail viewer): off unless the start and test scripts turn them on. */
 	get devTools() {
-		return env('INTERSTICE_DEV_TOOLS', '1') === '1';
+		return env('INTERSTICE_DEV_TOOLS', process.env.NODE_ENV === 'development' ? '1' : '0') === '1';
 	},
 	payments: {
 		get secretKey() {

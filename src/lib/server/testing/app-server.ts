@@ -73,6 +73,7 @@ export async function startApp(opts: StartOptions = {}): Promise<App> {
 			ORIGIN: baseURL,
 			DATABASE_URL: testDatabaseUrl(),
 			INTERSTICE_INSECURE_COOKIES: '1',
+			INTERSTICE_DEV_TOOLS: '1',
 			BODY_SIZE_LIMIT: '12M',
 			...opts.env
 		},
