@@ -54,13 +54,13 @@ export async function sweepOnServer(f: Fetch, body: { scene: SceneInput; control
 	return res.json();
 }
 
-export type PartHit = { id: string; name: string; category: string; widthMm: number; heightMm: number; depthMm: number; isStandard: boolean; definition: PartDef };
+export type PartHit = { id: string; name: string; category: string; widthMm: number; heightMm: number; depthMm: number; isStandard: boolean; def: PartDef };
 
 export async function searchParts(f: Fetch, q: string, category = ''): Promise<PartHit[]> {
-	const params = new URLSearchParams({ q, limit: '20' });
+	const params = new URLSearchParams({ search: '1', q, limit: '20' });
 	if (category) params.set('category', category);
 	const res = await f(`/api/parts?${params}`);
 	if (!res.ok) return [];
-	const body = (await res.json()) as { parts?: PartHit[]; items?: PartHit[] } | PartHit[];
-	return Array.isArray(body) ? body : (body.parts ?? body.items ?? []);
+	const body = (await res.json()) as { parts: PartHit[] };
+	return body.parts;
 }
