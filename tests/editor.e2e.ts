@@ -109,6 +109,25 @@ test('the spine at "2 slots": the card collides in the report and in 3D; back at
 	await context.close();
 });
 
+test('a sweep of the spine loads its charts on demand and says where nothing collides', async ({ browser }) => {
+	await restoreDemoVariant();
+	const { context, page } = await openEditor(browser);
+	await page.getByRole('button', { name: 'every position at once' }).click();
+	await expect(page.getByLabel('Move')).toHaveValue('divider:spine');
+	await page.getByRole('button', { name: 'Run sweep' }).click();
+	const table = page.getByRole('table', { name: 'Sweep results' });
+	// "4 slots" and "3 slots" fit; at "2 slots" the card (21.3 cm³) and the pump-reservoir (16.0 cm³) collide.
+	await expect(table.getByRole('row', { name: /^4 slots.*fits/ })).toBeVisible();
+	await expect(table.getByRole('row', { name: /^3 slots.*fits/ })).toBeVisible();
+	await expect(table.getByRole('row', { name: /^2 slots.*37\.3/ })).toBeVisible();
+	await expect(page.getByText(/Nothing collides at 65\.68\smm – 86\.0\smm/)).toBeVisible();
+	await expect(page.getByText(/Compartment size along the spine's axis/)).toBeVisible();
+	await expect(page.getByRole('region', { name: 'Build view' }).locator('svg').first()).toBeVisible();
+	await table.getByRole('button', { name: 'Use 2 slots' }).click();
+	await expect(page.getByRole('slider', { name: 'Spine' })).toHaveAttribute('aria-valuetext', '2 slots, 106.32\u2009mm');
+	await context.close();
+});
+
 test('a second browser saving first: the stale save gets the conflict view, and "keep mine" saves over it', async ({ browser }) => {
 	await restoreDemoVariant();
 	const a = await openEditor(browser);
