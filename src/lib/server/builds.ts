@@ -1,10 +1,13 @@
 /** Builds and their variants: creating, loading a variant as an engine scene, saving with versions. */
 import { and, asc, eq, inArray, isNull, or } from 'drizzle-orm';
 import {
+	allowedIndex,
 	enclosureDefSchema,
 	formatZodIssues,
 	partDefSchema,
 	sceneSchema,
+	type BracketDef as BracketDefT,
+	type DividerDef as DividerDefT,
 	type EnclosureDef,
 	type FieldIssue,
 	type PartDef,
@@ -223,4 +226,92 @@ export async function markProposal(buildId: string, variantId: string) {
 		await tx.update(variants).set({ isProposal: false }).where(eq(variants.buildId, buildId));
 		await tx.update(variants).set({ isProposal: true }).where(eq(variants.id, variantId));
 	});
+}
+
+// — moving a build on to a newer enclosure version —
+
+export type MovePlan = {
+	from: { id: string; version: number; definition: EnclosureDef };
+	to: { id: string; version: number; definition: EnclosureDef } | null;
+	/** Per variant: the controls whose position the new version no longer allows (reset to its first). */
+	variants: { id: string; name: string; resets: string[]; problems: FieldIssue[] }[];
+};
+
+/** What moving the build to the enclosure's current version would change, without changing anything. */
+export async function planMoveOn(build: { id: string; studioId: string; enclosureVersionId: string }): Promise<MovePlan | null> {
+	const from = await enclosureVersionDef(build.enclosureVersionId);
+	if (!from) return null;
+	const [enc] = await db.select().from(enclosures).where(eq(enclosures.id, from.enclosureId));
+	const [latest] = await db.select().from(enclosureVersions).where(and(eq(enclosureVersions.enclosureId, from.enclosureId), eq(enclosureVersions.version, enc.currentVersion)));
+	const base = { id: from.id, version: from.version, definition: from.definition };
+	if (!latest || latest.id === from.id) return { from: base, to: null, variants: [] };
+	const to = { id: latest.id, version: latest.version, definition: enclosureDefSchema.parse(latest.definition) };
+	const list = await variantsOf(build.id);
+	const out: MovePlan['variants'] = [];
+	for (const v of list) {
+		const { settings, resets } = adaptSettings(variantSettingsSchema.parse(v.settings), to.definition);
+		const { parts: defs } = await partsForStudio(build.studioId, settings.placements.map((p) => p.partId));
+		let problems: FieldIssue[] = [];
+		try {
+			validateScene(to.definition, defs, settings);
+		} catch (e) {
+			if (!(e instanceof SceneRejected)) throw e;
+			problems = e.issues;
+		}
+		out.push({ id: v.id, name: v.name, resets, problems });
+	}
+	return { from: base, to, variants: out };
+}
+
+/** Keeps every position the new definition allows; others go to its first allowed position. */
+function adaptSettings(settings: VariantSettings, def: EnclosureDef): { settings: VariantSettings; resets: string[] } {
+	const fresh = defaultSettings(def);
+	const resets: string[] = [];
+	const keep = (kind: 'dividerPositions' | 'bracketOffsets', defs: (DividerDefT | BracketDefT)[]) =>
+		Object.fromEntries(
+			defs.map((d) => {
+				const old = settings[kind][d.id];
+				if (old !== undefined && allowedIndex(d, old) >= 0) return [d.id, old];
+				if (old !== undefined) resets.push(`${d.label}: ${old} mm is not allowed any more; set to ${fresh[kind][d.id]} mm`);
+				return [d.id, fresh[kind][d.id]];
+			})
+		);
+	const mounts = new Set(def.mounts.map((m) => m.id));
+	const placements = settings.placements.map((p) => {
+		if (p.mountId && !mounts.has(p.mountId)) {
+			resets.push(`mount ${p.mountId} is gone; ${p.id} is no longer on a mount`);
+			const { mountId: _m, ...rest } = p;
+			return rest;
+		}
+		return p;
+	});
+	return { settings: { ...settings, dividerPositions: keep('dividerPositions', def.dividers), bracketOffsets: keep('bracketOffsets', def.brackets), placements }, resets };
+}
+
+/** Moves the build and adapts every variant in one transaction; each variant gets a new version. */
+export async function moveOn(build: { id: string; studioId: string; enclosureVersionId: string }, expectedToVersionId: string) {
+	const plan = await planMoveOn(build);
+	if (!plan?.to) throw new VariantRuleError('The build is already on the current version.', 409);
+	if (plan.to.id !== expectedToVersionId) throw new VariantRuleError('The enclosure changed again; look at the new changes first.', 409);
+	const to = plan.to;
+	await db.transaction(async (tx) => {
+		const [row] = await tx.update(builds).set({ enclosureVersionId: to.id, updatedAt: new Date() }).where(and(eq(builds.id, build.id), eq(builds.enclosureVersionId, build.enclosureVersionId))).returning({ id: builds.id });
+		if (!row) throw new VariantRuleError('Someone moved this build at the same time.', 409);
+		const list = await tx.select().from(variants).where(eq(variants.buildId, build.id)).for('update');
+		for (const v of list) {
+			const { settings } = adaptSettings(variantSettingsSchema.parse(v.settings), to.definition);
+			await tx.update(variants).set({ settings, version: v.version + 1, updatedAt: new Date() }).where(eq(variants.id, v.id));
+		}
+	});
+	return plan;
+}
+
+/** The enclosure's current version number when the build is pinned to an older one, else null. */
+export async function newerEnclosureVersion(enclosureVersionId: string): Promise<number | null> {
+	const [row] = await db
+		.select({ pinned: enclosureVersions.version, current: enclosures.currentVersion })
+		.from(enclosureVersions)
+		.innerJoin(enclosures, eq(enclosures.id, enclosureVersions.enclosureId))
+		.where(eq(enclosureVersions.id, enclosureVersionId));
+	return row && row.current > row.pinned ? row.current : null;
 }

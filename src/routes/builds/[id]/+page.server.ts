@@ -1,6 +1,6 @@
 import { error } from '@sveltejs/kit';
 import { requireBuild } from '$lib/server/access';
-import { SceneRejected, enclosureVersionDef, loadVariant, variantsOf } from '$lib/server/builds';
+import { SceneRejected, enclosureVersionDef, loadVariant, newerEnclosureVersion, variantsOf } from '$lib/server/builds';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals, params, url }) => {
@@ -18,7 +18,7 @@ export const load: PageServerLoad = async ({ locals, params, url }) => {
 	const variants = await variantsOf(build.id);
 	return {
 		build: { id: build.id, name: build.name, clientName: build.clientName, notes: build.notes },
-		enclosure: { name: enc?.name ?? loaded.enclosure.name, version: enc?.version ?? 1, definition: loaded.enclosure },
+		enclosure: { name: enc?.name ?? loaded.enclosure.name, version: enc?.version ?? 1, definition: loaded.enclosure, newer: await newerEnclosureVersion(build.enclosureVersionId) },
 		variant: { id: loaded.variant.id, name: loaded.variant.name, version: loaded.variant.version },
 		variants: variants.map((v) => ({ id: v.id, name: v.name, isProposal: v.isProposal })),
 		settings: loaded.settings,
