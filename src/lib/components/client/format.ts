@@ -1,12 +1,15 @@
 /** Display helpers for the client page: millimetres with one decimal and a thin space, dates in words. */
-import type { Vec3 } from '$lib/geometry';
+import { EPSILON_MM, formatMm, type Vec3 } from '$lib/geometry';
 
 const THIN = '\u2009';
 
-export const mm = (v: number) => `${v.toFixed(1)}${THIN}mm`;
+export const mm = formatMm;
+
+/** As formatMm without the unit: one decimal, two when the value needs them (a 40.64 mm card). */
+const number = (v: number) => v.toFixed(Math.abs(Math.round(v * 10) / 10 - v) > EPSILON_MM ? 2 : 1);
 
 /** Width × height × depth, as seen from the front. */
-export const sizeWords = (s: Vec3) => `${s[0].toFixed(1)} × ${s[1].toFixed(1)} × ${s[2].toFixed(1)}${THIN}mm`;
+export const sizeWords = (s: Vec3) => `${number(s[0])} × ${number(s[1])} × ${number(s[2])}${THIN}mm`;
 
 export const litres = (v: number) => `${v.toFixed(1)}${THIN}L`;
 

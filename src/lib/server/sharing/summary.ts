@@ -3,28 +3,16 @@
  * gap is 2.0 mm above the CPU block") and a few sentences. Millimetres with one decimal and a thin
  * space before the unit, as everywhere in Interstice.
  */
-import type { Face, FitReport, ItemRef, PartCategory, ResolvedScene } from '$lib/geometry';
+import { formatMm, type Face, type FitReport, type ItemRef, type PartCategory, type ResolvedScene } from '$lib/geometry';
+import { CATEGORY_WORDS as SHEET_CATEGORY_WORDS } from '$lib/builds/sheet-words';
 import type { FitSummary } from '$lib/components/client/types';
 
 export type { FitSummary };
 
-const THIN = '\u2009';
-export const mm = (v: number) => `${v.toFixed(1)}${THIN}mm`;
+const mm = formatMm;
 
-export const CATEGORY_WORDS: Record<PartCategory, string> = {
-	board: 'board',
-	'cpu-block': 'CPU block',
-	gpu: 'graphics card',
-	pump: 'pump',
-	reservoir: 'reservoir',
-	'pump-reservoir': 'pump-reservoir',
-	radiator: 'radiator',
-	fan: 'fan',
-	psu: 'power supply',
-	fitting: 'fitting',
-	drive: 'drive',
-	other: 'part'
-};
+/** Plain names of part kinds; 'other' reads as "the part" in a sentence. */
+export const CATEGORY_WORDS: Record<PartCategory, string> = { ...SHEET_CATEGORY_WORDS, other: 'part' };
 
 /** Where the gap on a part's face lies, seen from the front. */
 const FACE_WORDS: Record<Face, string> = {

@@ -14,7 +14,8 @@ export const load: PageServerLoad = async (event) => {
 	if (r.state === 'revoked') error(410, `${r.studioName} withdrew this link. Ask them for a new one if you still need it.`);
 	if (r.state === 'expired') error(410, `This link stopped working on ${dateWords(r.expiredAt)}. Ask ${r.studioName} for a new one.`);
 	const actor = linkActor(r.share, event.params.token);
-	await recordOpened(r.share.link.id);
+	// Reloads after a comment or an approval are not new openings.
+	if (!event.isDataRequest) await recordOpened(r.share.link.id);
 	const { view } = await clientView(actor);
 	return {
 		view,

@@ -115,7 +115,8 @@ export const actions: Actions = {
 	},
 
 	comment: async (event) => {
-		const { build, access } = await requireBuild(event.locals, event.params.id, 'build.comment', event.url);
+		// Written as the studio: owners and designers only (clients write on their own page).
+		const { build, access } = await requireBuild(event.locals, event.params.id, 'build.share', event.url);
 		await enforce(event, 'comment', limits.comment, access.user.id);
 		const parsed = await parseForm(event.request, studioCommentForm);
 		if (!parsed.ok) return parsed.failure;

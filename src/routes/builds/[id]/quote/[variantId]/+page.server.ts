@@ -62,7 +62,8 @@ function readQuoteForm(form: FormData, lineIds: string[]): { ok: true; data: Quo
 		if (!r.success) errors[key] = r.error.issues[0].message;
 		return r.success ? r.data : '';
 	};
-	const lines = lineIds.map((id) => ({
+	// Lines the form does not mention stay as they are.
+	const lines = lineIds.filter((id) => `line-${id}-description` in values || `line-${id}-remove` in values).map((id) => ({
 		id,
 		remove: get(`line-${id}-remove`) === 'on',
 		description: get(`line-${id}-remove`) === 'on' ? '' : text(`line-${id}-description`, description),
