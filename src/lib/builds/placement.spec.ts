@@ -174,8 +174,13 @@ function sceneOf(placements: Placement[], spine: number = DEMO_SPINE_OFFSETS['3 
 	return sceneSchema.parse({ ...input, parts: [...(input.parts ?? []), ...extraParts, ...more.filter((m) => !extraParts.some((e) => e.id === m.id))], placements, dividerPositions: { ...input.dividerPositions, spine } });
 }
 
+/** A block with fitting room above it, as a pump or CPU block has. */
+function blockWithRoom(id: string, size: Vec3, roomMm: number): PartDef {
+	return blockPart(id, size, { keepouts: [{ id: 'room', label: 'fitting room', kind: 'fitting', severity: 'error', box: { min: [0, size[1], 0], max: [size[0], size[1] + roomMm, size[2]] } }] });
+}
+
 /** Small generic blocks to drop into compartments. */
-const extraParts: PartDef[] = [blockPart('block-a', [20, 30, 40]), blockPart('block-b', [40, 10, 10]), blockPart('block-c', [8, 8, 8])];
+const extraParts: PartDef[] = [blockPart('block-a', [20, 30, 40]), blockPart('block-b', [40, 10, 10]), blockPart('block-c', [8, 8, 8]), blockWithRoom('block-k', [30, 20, 30], 25)];
 
 describe('landInRoom', () => {
 	const spines = Object.values(DEMO_SPINE_OFFSETS);
@@ -214,6 +219,12 @@ describe('landInRoom', () => {
 		}
 	);
 
+	it('keeps out of the fitting room of parts already placed (a block 20 × 33 × 45 on the card side)', () => {
+		const rooms = resolveScene(sceneOf(base)).compartments;
+		const cardSide = rooms.find((c) => c.id === 'bulkhead.high+spine.high')!;
+		expect(landAndCheck(DEMO_SPINE_OFFSETS['3 slots'], cardSide, blockPart('found-by-fast-check', [20, 33, 45]))).toBe('landed');
+	});
+
 	it('says so when the compartment is full instead of landing on top of something', () => {
 		// The radiator bay holds a 30 mm radiator and 25 mm fans across nearly its whole face: a
 		// 40 mm deep block fits nowhere in its 64 mm.
@@ -222,14 +233,20 @@ describe('landInRoom', () => {
 		expect(landInRoom(resolved, bay.box, extraParts[0])).toHaveProperty('reason');
 	});
 
-	it('random blocks in every compartment: inside it and overlapping nothing whenever they land', () => {
+	it('random blocks, some with fitting room above, in every compartment: inside it and overlapping nothing (no body, no keep-out) whenever they land', () => {
 		const rooms = resolveScene(sceneOf(base)).compartments;
 		let landed = 0;
 		fc.assert(
-			fc.property(fc.tuple(fc.integer({ min: 1, max: 80 }), fc.integer({ min: 1, max: 80 }), fc.integer({ min: 1, max: 80 })), fc.integer({ min: 0, max: rooms.length - 1 }), (size, r) => {
-				if (landAndCheck(DEMO_SPINE_OFFSETS['3 slots'], rooms[r], blockPart('random-block', size as Vec3)) === 'landed') landed++;
-			}),
-			{ numRuns: 60 }
+			fc.property(
+				fc.tuple(fc.integer({ min: 1, max: 80 }), fc.integer({ min: 1, max: 80 }), fc.integer({ min: 1, max: 80 })),
+				fc.integer({ min: 0, max: 30 }),
+				fc.integer({ min: 0, max: rooms.length - 1 }),
+				(size, roomMm, r) => {
+					const p = roomMm === 0 ? blockPart('random-block', size as Vec3) : blockWithRoom('random-block', size as Vec3, roomMm);
+					if (landAndCheck(DEMO_SPINE_OFFSETS['3 slots'], rooms[r], p) === 'landed') landed++;
+				}
+			),
+			{ numRuns: 100 }
 		);
 		expect(landed, 'most random blocks find room').toBeGreaterThan(10);
 	});

@@ -75,12 +75,15 @@ function boxAt(position: Vec3, size: Vec3): Box {
 	return { min: [...position], max: [position[0] + size[0], position[1] + size[1], position[2] + size[2]] };
 }
 
-/** Boxes a new part must not overlap: walls, dividers, brackets and every placed body. */
+/**
+ * Boxes a new part must not overlap: dividers, brackets, every placed body and keep-out (a part
+ * dropped into a fitting's access room would land blocked).
+ */
 function obstacles(resolved: ResolvedScene, ignore?: string): Box[] {
 	return [
 		...resolved.dividers.map((d) => d.box),
 		...resolved.brackets.map((b) => b.box),
-		...resolved.placements.filter((p) => p.placement.id !== ignore).flatMap((p) => p.bodies.map((b) => b.box))
+		...resolved.placements.filter((p) => p.placement.id !== ignore).flatMap((p) => [...p.bodies, ...p.keepouts].map((b) => b.box))
 	];
 }
 
@@ -169,13 +172,18 @@ export function landOnMount(resolved: ResolvedScene, mount: MountDef, part: Part
 	return { position: fallback, rotation };
 }
 
-/** A free spot for a part in a compartment (or anywhere inside), upright as defined; none when it is full. */
+/**
+ * A free spot for a part in a compartment (or anywhere inside), upright as defined; none when it is
+ * full. The part's own keep-outs need room too, so the search is for bodies and keep-outs together;
+ * the position is where its bodies' min corner lands.
+ */
 export function landInRoom(resolved: ResolvedScene, room: Box, part: PartDef): { position: Vec3; rotation: Rotation } | LandingError {
 	const rotation = { x: 0, y: 0, z: 0 };
-	const size = turnedSize(part, rotation);
-	const spot = freeSpot(room, size, obstacles(resolved));
+	const bodies = boundsOf(part.bodies.map((b) => b.box));
+	const footprint = boundsOf([...part.bodies, ...part.keepouts].map((b) => b.box));
+	const spot = freeSpot(room, boxSize(footprint), obstacles(resolved));
 	if (!spot) return { reason: 'There is no free space for this part there; choose another compartment or make room first.' };
-	return { position: spot, rotation };
+	return { position: [0, 1, 2].map((a) => spot[a] + bodies.min[a] - footprint.min[a]) as Vec3, rotation };
 }
 
 /** A placement id not yet used in the scene: `p1`, `p2`, … */
