@@ -146,7 +146,7 @@ runAccessMatrix(accountRows, app);
  * payments, their APIs): routes under these prefixes may lack rows for now. Each area removes its
  * prefix once all its rows exist; a route anywhere else without a row fails now.
  */
-const awaitingRows = ['/builds/[id]', '/builds/new', '/api'];
+const awaitingRows = ['/builds/[id]', '/api'];
 const awaiting = (route: string) => awaitingRows.some((p) => route === p || route.startsWith(`${p}/`) || route.startsWith(`${p}.`));
 
 /**
