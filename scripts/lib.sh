@@ -46,6 +46,7 @@ ensure_service() {
 	log "starting $name on 127.0.0.1:$port"
 	nohup "$@" >".data/$name.log" 2>&1 &
 	echo $! >".data/$name.pid"
+	STARTED_SERVICES="${STARTED_SERVICES:-} $!"
 	wait_port "$port" 150
 }
 
@@ -54,4 +55,9 @@ ensure_payments_fake() {
 	if [ -f scripts/payments-fake.ts ]; then
 		ensure_service payments-fake "${PAYMENTS_API_PORT:-12111}" node_modules/.bin/tsx scripts/payments-fake.ts
 	fi
+}
+
+# Stops what this run started (not what was already running), so a test run leaves nothing behind.
+stop_started_services() {
+	for pid in ${STARTED_SERVICES:-}; do kill "$pid" 2>/dev/null || true; done
 }

@@ -8,7 +8,13 @@ started=$(date +%s)
 set -e
 ensure_packages
 ensure_chromium
+db_was_running=$(scripts/db.sh status >/dev/null 2>&1 && echo 1 || echo 0)
 scripts/db.sh start
+cleanup() {
+	stop_started_services
+	if [ "$db_was_running" = 0 ]; then scripts/db.sh stop >/dev/null 2>&1 || true; fi
+}
+trap cleanup EXIT
 export PGDATABASE=interstice_test
 export DATABASE_URL="postgres://postgres@127.0.0.1:${PGPORT:-54329}/interstice_test"
 scripts/db.sh drop interstice_test >/dev/null
