@@ -151,3 +151,34 @@ test('a revoked link shows a clear page, and so does one that never existed', as
 	expect(missing?.status()).toBe(404);
 	await expect(page.getByRole('heading', { name: 'This link does not work' })).toBeVisible();
 });
+
+test('photos: the designer uploads with progress, a disguised file is refused, the client sees the photo', async ({ page, context, browser, baseURL }) => {
+	const sharp = (await import('sharp')).default;
+	const studio = await createStudio();
+	const designer = await createMember(studio.id, 'designer');
+	const build = await demoBuild({ studioId: studio.id, createdBy: designer.id });
+	const { createShareLink } = await import('../src/lib/server/sharing/links');
+	const { token } = await createShareLink({ studioId: studio.id, buildId: build.buildId, variantId: build.variantId, createdBy: designer.id });
+	const photo = await sharp({ create: { width: 1600, height: 1200, channels: 3, background: '#7f8b9c' } }).jpeg({ quality: 90 }).toBuffer();
+
+	await signInAs(context, baseURL!, designer.id);
+	await page.goto(`/builds/${build.buildId}/photos`);
+	await page.getByLabel(/^Photos \(JPEG, PNG or WebP/).setInputFiles([
+		{ name: 'bench.jpg', mimeType: 'image/jpeg', buffer: photo },
+		{ name: 'notes.jpg', mimeType: 'image/jpeg', buffer: Buffer.from('a text file wearing a photo name') }
+	]);
+	await page.getByLabel('Caption (optional)').fill('Loop filled, leak test running');
+	await page.getByRole('button', { name: 'Upload' }).click();
+	const uploads = page.getByRole('list', { name: 'Uploads' });
+	await expect(uploads.getByText('done')).toBeVisible();
+	await expect(uploads.getByRole('alert')).toContainText('Only JPEG, PNG and WebP');
+	await expect(page.getByTestId('photos').getByRole('img')).toHaveCount(1);
+
+	const clientContext = await browser.newContext();
+	const client = await clientContext.newPage();
+	await client.goto(`/s/${token}`);
+	const img = client.getByRole('img', { name: 'Loop filled, leak test running' });
+	await img.scrollIntoViewIfNeeded();
+	await expect.poll(() => img.evaluate((i: HTMLImageElement) => i.naturalWidth)).toBe(480);
+	await clientContext.close();
+});

@@ -54,3 +54,15 @@ export type ClientView = {
 export type ClientMay = { comment: boolean; approve: boolean; pay: boolean };
 
 export type ThreadItem = { kind: 'comment' | 'approved' | 'changes'; body: string; authorName: string; side: string; partLabel: string | null; at: Date | string; version: number };
+
+/** One variant's standing with the client, for the studio's pages. */
+export type ClientStatus = {
+	id: string;
+	name: string;
+	version: number;
+	approval: ApprovalState;
+	quote: { status: 'draft' | 'sent'; currency: string; totalMinor: number; depositMinor: number } | null;
+	deposit: { amountMinor: number; currency: string; paidAt: Date | null } | null;
+	/** Active links only. */
+	links: number;
+};

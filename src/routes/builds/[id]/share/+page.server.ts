@@ -8,13 +8,12 @@ import { db } from '$lib/server/db';
 import { memberships, shareLinks, users } from '$lib/server/db/schema';
 import { parseForm } from '$lib/server/forms';
 import { enforce } from '$lib/server/limits';
-import { paymentsOfQuotes } from '$lib/server/payments';
 import { limits } from '$lib/server/rate-limit';
 import { createShareLink, linksOfBuild, revokeShareLink, sendShareMail, shareUrl } from '$lib/server/sharing/links';
 import { notifyClient } from '$lib/server/sharing/notify';
-import { quoteOfVariant } from '$lib/server/sharing/quotes';
+import { clientStatusOf } from '$lib/server/sharing/status';
 import { placementNames } from '$lib/server/sharing/summary';
-import { addComment, approvalState, latestApproval, threadOf } from '$lib/server/sharing/thread';
+import { addComment, threadOf } from '$lib/server/sharing/thread';
 import { resolveScene } from '$lib/geometry';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -24,22 +23,7 @@ export const load: PageServerLoad = async ({ locals, params, url }) => {
 	const { build, access } = await requireBuild(locals, params.id, 'build.share', url);
 	const variants = await variantsOf(build.id);
 	const links = await linksOfBuild(build.id);
-	const overview = await Promise.all(
-		variants.map(async (v) => {
-			const [approval, quote] = await Promise.all([latestApproval(v.id), quoteOfVariant(v.id)]);
-			const pays = quote ? await paymentsOfQuotes([quote.quote.id]) : [];
-			const paid = pays.find((p) => p.status === 'paid') ?? null;
-			return {
-				id: v.id,
-				name: v.name,
-				version: v.version,
-				approval: approvalState(approval, v.version),
-				quote: quote ? { status: quote.quote.status, currency: quote.quote.currency, totalMinor: quote.totals.totalMinor, depositMinor: quote.totals.depositMinor } : null,
-				deposit: paid ? { amountMinor: paid.amountMinor, currency: paid.currency, paidAt: paid.paidAt } : null,
-				links: links.filter((l) => l.variantId === v.id).length
-			};
-		})
-	);
+	const overview = await clientStatusOf(build.id);
 	const selected = variants.find((v) => v.id === url.searchParams.get('variant')) ?? variants.find((v) => v.isProposal) ?? variants[0];
 	let thread: Awaited<ReturnType<typeof threadOf>> = [];
 	let pins: { id: string; label: string }[] = [];
