@@ -19,6 +19,8 @@ export ORIGIN=${ORIGIN:-http://127.0.0.1:$PORT}
 export INTERSTICE_INSECURE_COOKIES=${INTERSTICE_INSECURE_COOKIES:-1}
 # The outgoing-mail page for owners; leave unset on a real deployment.
 export INTERSTICE_DEV_TOOLS=${INTERSTICE_DEV_TOOLS:-1}
+# Photos up to 10 MB (the upload limit) plus form overhead.
+export BODY_SIZE_LIMIT=${BODY_SIZE_LIMIT:-12M}
 cat <<TXT
 
   Interstice is running at $ORIGIN

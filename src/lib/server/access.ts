@@ -121,9 +121,17 @@ export async function activeStudio(locals: Locals, action: Action, url?: URL) {
  */
 export async function requireBuild(locals: Locals, buildId: string, action: Action, url?: URL) {
 	const user = requireUser(locals, url);
-	const [build] = await db.select().from(builds).where(eq(builds.id, buildId));
-	if (!build) error(404, 'Not found.');
-	const access = await requireStudio({ user }, build.studioId, action, url);
+	// One round trip: the build, the studio's name and this user's role there.
+	const [row] = await db
+		.select({ build: builds, studioName: studios.name, role: memberships.role })
+		.from(builds)
+		.innerJoin(studios, eq(studios.id, builds.studioId))
+		.leftJoin(memberships, and(eq(memberships.studioId, builds.studioId), eq(memberships.userId, user.id)))
+		.where(eq(builds.id, buildId));
+	if (!row?.role) error(404, 'Not found.');
+	if (!roleMay(row.role, action)) error(403, 'Your role in this studio does not allow this.');
+	const build = row.build;
+	const access: StudioAccess = { user, studioId: build.studioId, studioName: row.studioName, role: row.role };
 	// A client of the studio sees a build only through the variants shared with them.
 	if (access.role === 'client' && (await variantsSharedWithUser(user, build.id)).length === 0) error(404, 'Not found.');
 	return { build, access };
