@@ -130,10 +130,11 @@ export const accountRows: MatrixRow[] = [
 		method: 'POST',
 		action: 'default',
 		path: (f) => `/invite/${f.invite.token}`,
-		expect: signedIn(to('/builds')),
+		// The invitation was sent to another address: nobody else may use the link.
+		expect: signedIn(403),
 		showsStudioToLinkHolders: true,
 		changes: {
-			by: ['outsider'],
+			by: [],
 			check: async (f) => (await memberCount(f)) > 3 || (await roleOf(f.studio.id, f.designer.id)) !== 'designer' || (await roleOf(f.studio.id, f.client.id)) !== 'client'
 		}
 	}

@@ -95,15 +95,19 @@ describe('invite → accept → role', () => {
 		expect(await roleOf(f.studio.id, f.outsider.id)).toBeNull();
 	});
 
-	it('a link works once: a second person cannot reuse it', async () => {
+	it('a link works once, and only for the address it was sent to', async () => {
 		const f = await studioWithMembers();
-		const inv = await createInvite({ studioId: f.studio.id, role: 'designer', invitedBy: f.owner.id });
 		const first = await createUser();
 		const second = await createUser();
+		const inv = await createInvite({ studioId: f.studio.id, role: 'designer', email: first.email, invitedBy: f.owner.id });
+		// Someone the link was forwarded to can't use it.
+		const b = app.client({ session: await createSession(second.id) });
+		const forwarded = await b.postForm(`/invite/${inv.token}`);
+		expect(forwarded.status).toBe(403);
+		expect(forwarded.text).toContain(first.email);
 		const a = app.client({ session: await createSession(first.id) });
 		expect((await a.postForm(`/invite/${inv.token}`)).location).toBe('/builds');
-		const b = app.client({ session: await createSession(second.id) });
-		expect((await b.postForm(`/invite/${inv.token}`)).status).toBe(400);
+		expect((await a.postForm(`/invite/${inv.token}`)).status).toBe(400);
 		expect(await roleOf(f.studio.id, first.id)).toBe('designer');
 		expect(await roleOf(f.studio.id, second.id)).toBeNull();
 	});
