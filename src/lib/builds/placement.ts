@@ -4,6 +4,7 @@
  */
 import {
 	EPSILON_MM,
+	FACE_AXES,
 	allowedPositions,
 	boundsOf,
 	boxSize,
@@ -16,7 +17,6 @@ import {
 	type BracketDef,
 	type Box,
 	type DividerDef,
-	type FaceName,
 	type MountDef,
 	type PartDef,
 	type Placement,
@@ -25,14 +25,6 @@ import {
 	type Vec3
 } from '$lib/geometry';
 
-const FACE_AXIS: Record<FaceName, { axis: AxisIndex; high: boolean }> = {
-	left: { axis: 0, high: false },
-	right: { axis: 0, high: true },
-	bottom: { axis: 1, high: false },
-	top: { axis: 1, high: true },
-	front: { axis: 2, high: false },
-	back: { axis: 2, high: true }
-};
 
 /** The 24 quarter-turn orientations, fewest turns first, so the simplest one wins a tie. */
 const ORIENTATIONS: Rotation[] = (() => {
@@ -134,7 +126,7 @@ export type LandingError = { reason: string };
  */
 export function landOnMount(resolved: ResolvedScene, mount: MountDef, part: PartDef): { position: Vec3; rotation: Rotation } | LandingError {
 	if (!mountAccepts(mount, part)) return { reason: `${mount.label} does not take this part (it takes ${mount.accepts.join(', ') || 'anything'}).` };
-	const { axis, high } = FACE_AXIS[mount.face];
+	const { axis, high } = FACE_AXES[mount.face];
 	const rotation = mount.kind === 'psu-bay' ? { x: 0, y: 0, z: 0 } : flatAlong(part, axis);
 	const size = turnedSize(part, rotation);
 	const inner = resolved.innerBox;
