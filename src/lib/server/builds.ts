@@ -1,10 +1,9 @@
 /** Builds and their variants: creating, loading a variant as an engine scene, saving with versions. */
-import { and, asc, eq, inArray, isNull, or } from 'drizzle-orm';
+import { and, asc, eq, inArray, isNull, or, type SQL } from 'drizzle-orm';
 import {
 	allowedIndex,
 	enclosureDefSchema,
 	formatZodIssues,
-	partDefSchema,
 	sceneSchema,
 	type BracketDef as BracketDefT,
 	type DividerDef as DividerDefT,
@@ -15,7 +14,7 @@ import {
 } from '$lib/geometry';
 import { composeScene, defaultSettings, variantSettingsSchema, type VariantSettings } from '$lib/builds/settings';
 import { db, type Tx } from './db';
-import { builds, enclosureVersions, enclosures, parts, variants, type VariantRow } from './db/schema';
+import { builds, enclosureVersions, enclosures, memberships, parts, variants, type VariantRow } from './db/schema';
 import { newId } from './tokens';
 
 export class SceneRejected extends Error {
@@ -42,17 +41,40 @@ export async function enclosureVersionDef(versionId: string) {
  * standard library. Anything else is reported as not allowed.
  */
 export async function partsForStudio(studioId: string, ids: string[]): Promise<{ parts: PartDef[]; forbidden: string[] }> {
+	return partsWhere(ids, (unique) => and(inArray(parts.id, unique), or(eq(parts.studioId, studioId), isNull(parts.studioId))));
+}
+
+/** The same, for the studio that owns a build, without first reading the build (one round trip). */
+export async function partsForBuildStudio(buildId: string, ids: string[]) {
+	const studioOfBuild = db.select({ studioId: builds.studioId }).from(builds).where(eq(builds.id, buildId));
+	return partsWhere(ids, (unique) => and(inArray(parts.id, unique), or(inArray(parts.studioId, studioOfBuild), isNull(parts.studioId))));
+}
+
+async function partsWhere(ids: string[], where: (unique: string[]) => SQL | undefined) {
 	const unique = [...new Set(ids)];
-	if (unique.length === 0) return { parts: [], forbidden: [] };
-	const rows = await db
-		.select({ id: parts.id, definition: parts.definition, name: parts.name })
-		.from(parts)
-		.where(and(inArray(parts.id, unique), or(eq(parts.studioId, studioId), isNull(parts.studioId))));
+	if (unique.length === 0) return { parts: [] as PartDef[], forbidden: [] as string[] };
+	const rows = await db.select({ id: parts.id, definition: parts.definition, name: parts.name }).from(parts).where(where(unique));
 	const found = new Set(rows.map((r) => r.id));
 	return {
-		parts: rows.map((r) => partDefSchema.parse({ ...(r.definition as object), id: r.id, name: r.name })),
+		// Stored definitions were validated on write; every caller passes them through the scene
+		// schema (validateScene) before use, so they are parsed once there, not twice.
+		parts: rows.map((r) => ({ ...(r.definition as object), id: r.id, name: r.name }) as PartDef),
 		forbidden: unique.filter((id) => !found.has(id))
 	};
+}
+
+/**
+ * What the server check needs about a build, in one query: the build, the user's role in its
+ * studio (null for a non-member) and the pinned enclosure definition.
+ */
+export async function checkContext(buildId: string, userId: string) {
+	const [row] = await db
+		.select({ build: builds, role: memberships.role, definition: enclosureVersions.definition })
+		.from(builds)
+		.innerJoin(enclosureVersions, eq(enclosureVersions.id, builds.enclosureVersionId))
+		.leftJoin(memberships, and(eq(memberships.studioId, builds.studioId), eq(memberships.userId, userId)))
+		.where(eq(builds.id, buildId));
+	return row ?? null;
 }
 
 export async function createBuild(input: { studioId: string; userId: string; name: string; clientName: string; notes: string; enclosureId: string }) {
