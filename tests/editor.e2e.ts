@@ -49,6 +49,7 @@ async function openEditor(browser: Browser) {
 	const page = await context.newPage();
 	await signIn(page);
 	await page.goto(BUILD);
+	await expect(page.getByTestId('editor')).toHaveAttribute('data-ready', 'true');
 	await expect(page.getByTestId('save-status')).toHaveText(/^Saved · version \d+$/);
 	return { context, page };
 }
@@ -96,6 +97,7 @@ test('the spine at "2 slots": the card collides in the report and in 3D; back at
 	await expect.poll(() => versionOf(page)).toBeGreaterThan(firstVersion);
 	const savedVersion = await versionOf(page);
 	await page.reload();
+	await expect(page.getByTestId('editor')).toHaveAttribute('data-ready', 'true');
 	await expect(spine).toHaveAttribute('aria-valuetext', '3 slots, 86.0\u2009mm');
 	await expect(status).toHaveText(`Saved · version ${savedVersion}`);
 

@@ -11,9 +11,11 @@ async function signIn(page: Page, email: string) {
 test('fork a variant, move the bracket in the fork, compare, cameras follow', async ({ page }) => {
 	await signIn(page, 'designer@demo.interstice.test');
 	await page.goto('/builds/demo-build?variant=demo-variant-a');
+	await expect(page.getByTestId('editor')).toHaveAttribute('data-ready', 'true');
 	await expect(page.getByTestId('save-status')).toContainText('Saved');
 	await page.getByRole('button', { name: '+ Fork' }).click();
 	await page.waitForURL(/variant=/);
+	await expect(page.getByTestId('editor')).toHaveAttribute('data-ready', 'true');
 	const forkId = new URL(page.url()).searchParams.get('variant')!;
 	expect(forkId).not.toBe('demo-variant-a');
 
