@@ -1,6 +1,5 @@
 /**
- * The cautions every build sheet carries as checklist items (shared/TRADE.md, "Cautions the
- * product shows"). Interstice plans; it does not replace the manufacturers' instructions, local
+ * The cautions every build sheet carries as checklist items (docs/safety.md). Interstice plans; it does not replace the manufacturers' instructions, local
  * codes or licensed practice, and says so wherever it guides the work.
  */
 

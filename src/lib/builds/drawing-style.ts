@@ -1,7 +1,7 @@
 /**
  * How the sheet's drawings look on paper, shared by the SVG on the page and the PDF so the two
  * match line for line. Our own conventions (see orthographic.ts); sizes in paper millimetres.
- * Status colours are DESIGN.md's, each with its pattern and word.
+ * Status colours as in docs/look-and-words.md, each with its pattern and word.
  */
 import type { FitStatus } from '$lib/geometry';
 

@@ -1,6 +1,5 @@
 /**
- * Numbers and directions in the words of the build sheet and the fit report (DESIGN.md "Look and
- * words"): millimetres with one decimal and a thin space, cm³ for interference, litres for
+ * Numbers and directions in the words of the build sheet and the fit report (docs/look-and-words.md): millimetres with one decimal and a thin space, cm³ for interference, litres for
  * enclosures. Pure, shared by the page and the PDF so both say exactly the same.
  */
 

@@ -1,7 +1,7 @@
 /**
  * The sheet's content on the demo sandwich (fixtures.ts), with the numbers worked out by hand:
  * slot pitch 20.32 mm (PCI Express CEM spec), board thickness 1.6 mm (common practice), the
- * cautions of shared/TRADE.md.
+ * cautions of docs/safety.md.
  */
 import { describe, expect, it } from 'vitest';
 import { checkScene, resolveScene, sceneSchema, type Scene } from '$lib/geometry';
@@ -115,7 +115,7 @@ describe('the checklist', () => {
 		expect(checklistKeys(sheet).size).toBe(3 + 8 + 1 + CAUTIONS.length);
 	});
 
-	it('carries the cautions the trade asks for (shared/TRADE.md)', () => {
+	it('carries the cautions the trade asks for (docs/safety.md)', () => {
 		const text = sheet.checklist.find((g) => g.id === 'cautions')!.items.map((i) => i.text).join(' ');
 		expect(text).toMatch(/only the pump powered/);
 		expect(text).toMatch(/Unplug from the mains/);

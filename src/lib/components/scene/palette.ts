@@ -1,5 +1,5 @@
 /**
- * Interstice's colours for 3D and 2D drawings (DESIGN.md "Look and words"). A status is never
+ * Interstice's colours for 3D and 2D drawings (docs/look-and-words.md). A status is never
  * colour alone: each also has a surface pattern and a word.
  */
 import type { FitStatus, WorldBoxKind } from '$lib/geometry';

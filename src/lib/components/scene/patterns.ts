@@ -1,5 +1,5 @@
 /**
- * Surface patterns for statuses (DESIGN.md: never colour alone). Browser-only: textures are drawn
+ * Surface patterns for statuses (docs/look-and-words.md: never colour alone). Browser-only: textures are drawn
  * on a canvas once per status and shared by every mesh.
  */
 import { CanvasTexture, RepeatWrapping, SRGBColorSpace } from 'three';
