@@ -104,6 +104,28 @@ describe('scripts/db.sh in a fresh clone', () => {
 		await checkStartStatusStop(await cloneInto('interstice-space-', 'inter stice'));
 	}, 180_000);
 
+	// As root, the same as an ordinary user would run it: the server runs as that user, in the clone.
+	it.runIf(isRoot)('runs the server as the invoking user when that is not root', async () => {
+		const clone = await cloneInto('interstice-user-', 'interstice');
+		await run('chown', ['-R', 'nobody', clone.made]);
+		const as = (args: string[]) =>
+			run('runuser', ['-u', 'nobody', '--', 'env', `PGPORT=${clone.port}`, 'DB_CLUSTER=app', 'PGDATABASE=interstice', 'bash', 'scripts/db.sh', ...args], { cwd: clone.dir, timeout: 120_000 }).then(
+				(r) => r.stdout + r.stderr,
+				(e: { stdout?: string; stderr?: string }) => `${e.stdout ?? ''}${e.stderr ?? ''}`
+			);
+		try {
+			const started = await as(['start']);
+			expect(started).toContain(`db: app cluster in ${join(clone.dir, '.data', 'pg')}`);
+			expect(started).toContain(`started on 127.0.0.1:${clone.port}`);
+			const owner = (await run('stat', ['-c', '%U', join(clone.dir, '.data', 'pg', 'postmaster.pid')])).stdout.trim();
+			expect(owner).toBe('nobody');
+			expect(await as(['stop'])).toContain('db: stopped');
+		} finally {
+			await as(['destroy', '--yes']);
+			await run('chown', ['-R', 'root', clone.made]);
+		}
+	}, 180_000);
+
 	it('keeps npm test’s throwaway cluster apart, with crash safety traded for speed', async () => {
 		const clone = clones[1] ?? (await cloneInto('interstice-space-', 'inter stice'));
 		const test = { DB_CLUSTER: 'test', PGPORT: String(await freePort()) };
