@@ -1,17 +1,28 @@
-# Shared steps for scripts/start.sh and scripts/test.sh. Every step is idempotent.
+# Shared steps for scripts/db.sh, start.sh, dev.sh, test.sh and backup.sh: root or sudo, apt,
+# PostgreSQL's binaries, waiting for a port, starting and stopping services we own.
+# Every step is idempotent. Every path is quoted: a clone may live in a folder with spaces.
 set -euo pipefail
 ROOT=$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)
 cd "$ROOT"
 mkdir -p .data
 
 log() { printf '\033[1;33m▸\033[0m %s\n' "$*"; }
+die() { echo "$*" >&2; exit 1; }
 
-as_root() { if [ "$(id -u)" = 0 ]; then "$@"; else sudo "$@"; fi; }
+is_root() { [ "$(id -u)" = 0 ]; }
+
+# Package installs need root: as root directly, otherwise through sudo (which may ask once).
+as_root() {
+	if is_root; then "$@"
+	elif command -v sudo >/dev/null; then sudo "$@"
+	else die "need root for: $* (run as root, or install sudo)"; fi
+}
 
 apt_updated=0
 apt_install() {
+	command -v apt-get >/dev/null || die "apt-get not found: install $* with this system's package manager"
 	if [ $apt_updated = 0 ]; then as_root apt-get update -qq >/dev/null; apt_updated=1; fi
-	DEBIAN_FRONTEND=noninteractive as_root apt-get install -y -qq "$@" >/dev/null
+	as_root env DEBIAN_FRONTEND=noninteractive apt-get install -y -qq "$@" >/dev/null
 }
 
 ensure_packages() {
@@ -29,6 +40,42 @@ ensure_chromium() {
 	fi
 }
 
+# PostgreSQL's server binaries (initdb, pg_ctl, pg_dump, pg_restore), found from what is installed
+# rather than a fixed version: PG_BINDIR if set; the version an existing cluster was made with
+# (argument 1: its data folder); pg_config --bindir; the newest /usr/lib/postgresql/*/bin.
+find_pg_bindir() {
+	local data=${1:-} d
+	if [ -n "${PG_BINDIR:-}" ]; then echo "$PG_BINDIR"; return 0; fi
+	if [ -n "$data" ] && [ -f "$data/PG_VERSION" ]; then
+		d=/usr/lib/postgresql/$(cat "$data/PG_VERSION")/bin
+		if [ -x "$d/initdb" ]; then echo "$d"; return 0; fi
+	fi
+	if command -v pg_config >/dev/null; then
+		d=$(pg_config --bindir 2>/dev/null || true)
+		if [ -n "$d" ] && [ -x "$d/initdb" ]; then echo "$d"; return 0; fi
+	fi
+	d=$(ls -d /usr/lib/postgresql/*/bin 2>/dev/null | sort -V | tail -n 1 || true)
+	if [ -n "$d" ] && [ -x "$d/initdb" ]; then echo "$d"; return 0; fi
+	d=$(command -v initdb || true)
+	if [ -n "$d" ]; then dirname "$d"; return 0; fi
+	return 1
+}
+
+# Installs Debian's postgresql (the distribution's current version) when no server is installed.
+ensure_pg_bindir() {
+	local data=${1:-}
+	if ! PG_BIN=$(find_pg_bindir "$data"); then
+		log "installing Debian's postgresql"
+		apt_install postgresql
+		PG_BIN=$(find_pg_bindir "$data") || die "PostgreSQL's initdb not found after installing postgresql"
+		# The package may start its own cluster on 5432; we do not use it.
+		if command -v pg_lsclusters >/dev/null; then
+			pg_lsclusters -h 2>/dev/null | while read -r ver name _; do as_root pg_ctlcluster "$ver" "$name" stop 2>/dev/null || true; done
+		fi
+	fi
+	export PG_BIN
+}
+
 port_open() { (exec 3<>"/dev/tcp/127.0.0.1/$1") 2>/dev/null; }
 
 wait_port() {
@@ -39,6 +86,7 @@ wait_port() {
 }
 
 # Starts a background helper unless its port already answers. Usage: ensure_service NAME PORT CMD...
+# Its pid goes to .data/NAME.pid so stop_service stops exactly that process and nothing else.
 ensure_service() {
 	local name=$1 port=$2
 	shift 2
@@ -46,8 +94,20 @@ ensure_service() {
 	log "starting $name on 127.0.0.1:$port"
 	nohup "$@" >".data/$name.log" 2>&1 &
 	echo $! >".data/$name.pid"
-	STARTED_SERVICES="${STARTED_SERVICES:-} $!"
+	STARTED_SERVICES="${STARTED_SERVICES:-} $name"
 	wait_port "$port" 150
+}
+
+# Stops the service started by ensure_service from this clone: the pid in .data/NAME.pid, and only
+# while that process still runs in this folder (a recycled pid belongs to someone else).
+stop_service() {
+	local name=$1 pid
+	[ -f ".data/$name.pid" ] || return 0
+	pid=$(cat ".data/$name.pid")
+	if [ -n "$pid" ] && [ "$(readlink "/proc/$pid/cwd" 2>/dev/null || true)" = "$ROOT" ]; then
+		kill "$pid" 2>/dev/null || true
+	fi
+	rm -f ".data/$name.pid"
 }
 
 ensure_mail_catcher() { ensure_service mail-catcher 2526 node_modules/.bin/tsx scripts/mail-catcher.ts; }
@@ -59,5 +119,5 @@ ensure_payments_fake() {
 
 # Stops what this run started (not what was already running), so a test run leaves nothing behind.
 stop_started_services() {
-	for pid in ${STARTED_SERVICES:-}; do kill "$pid" 2>/dev/null || true; done
+	for name in ${STARTED_SERVICES:-}; do stop_service "$name"; done
 }

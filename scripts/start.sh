@@ -3,6 +3,8 @@
 source "$(dirname "$0")/lib.sh"
 
 ensure_packages
+# The app's cluster keeps PostgreSQL's durability defaults (fsync, full_page_writes and
+# synchronous_commit on); scripts/db.sh prints where it lives.
 scripts/db.sh start
 log "migrating"
 node_modules/.bin/tsx scripts/migrate.ts
@@ -28,7 +30,7 @@ cat <<TXT
                  owner@demo.interstice.test     /  demo-password-1   (owner: members, mail)
                  client@demo.interstice.test    /  demo-password-1   (client)
   Outgoing mail: $ORIGIN/dev/mail (as the owner)
-  Stop with Ctrl-C; 'scripts/db.sh stop' stops PostgreSQL.
+  Stop with Ctrl-C; 'scripts/db.sh stop' stops PostgreSQL. Copies: 'npm run backup'.
 
 TXT
 exec node build

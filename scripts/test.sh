@@ -8,6 +8,10 @@ started=$(date +%s)
 set -e
 ensure_packages
 ensure_chromium
+# The throwaway cluster (scripts/db.sh: fsync off, port $PGPORT or 54330), never the app's data;
+# photos in a folder of their own too.
+export DB_CLUSTER=test PGPORT=${PGPORT:-54330}
+export STORAGE_DIR=${STORAGE_DIR:-.data/storage-test}
 db_was_running=$(scripts/db.sh status >/dev/null 2>&1 && echo 1 || echo 0)
 scripts/db.sh start
 cleanup() {
@@ -16,7 +20,7 @@ cleanup() {
 }
 trap cleanup EXIT
 export PGDATABASE=interstice_test
-export DATABASE_URL="postgres://postgres@127.0.0.1:${PGPORT:-54329}/interstice_test"
+export DATABASE_URL="postgres://postgres@127.0.0.1:$PGPORT/interstice_test"
 scripts/db.sh drop interstice_test >/dev/null
 scripts/db.sh create interstice_test >/dev/null
 log "migrating and seeding the throwaway database"

@@ -14,7 +14,8 @@ import {
 } from '$lib/geometry';
 import { composeScene, defaultSettings, variantSettingsSchema, type VariantSettings } from '$lib/builds/settings';
 import { db, type Tx } from './db';
-import { builds, enclosureVersions, enclosures, memberships, parts, variants, type VariantRow } from './db/schema';
+import { builds, enclosureVersions, enclosures, memberships, parts, payments, photos, variants, type VariantRow } from './db/schema';
+import { deleteObjects } from './storage';
 import { newId } from './tokens';
 
 export class SceneRejected extends Error {
@@ -238,6 +239,28 @@ export async function deleteVariant(buildId: string, variantId: string) {
 		if (target.isProposal) await tx.update(variants).set({ isProposal: true }).where(eq(variants.id, rest[0].id));
 		await renumber(tx, rest.map((v) => v.id));
 	});
+}
+
+/**
+ * Deletes a build with everything that belongs to it (variants, share links, comments, quotes,
+ * photos: the foreign keys cascade), then its photo files. The files go only after the
+ * transaction commits, so a failed delete never leaves rows pointing at missing files; a crash
+ * between the two leaves files with no row, which `npm run storage:check` lists and removes.
+ * A build with a deposit on record stays: the studio's accounts need it.
+ */
+export async function deleteBuild(buildId: string): Promise<void> {
+	const keys = await db.transaction(async (tx) => {
+		// Locking the build first makes a photo upload that is adding a row wait (or fail on the
+		// foreign key), so the list of files below is complete.
+		const [build] = await tx.select({ id: builds.id }).from(builds).where(eq(builds.id, buildId)).for('update');
+		if (!build) throw new VariantRuleError('No such build.', 404);
+		const [paid] = await tx.select({ id: payments.id }).from(payments).where(eq(payments.buildId, buildId)).limit(1);
+		if (paid) throw new VariantRuleError('This build has a deposit on record, so it stays for the studio’s accounts.', 409);
+		const files = await tx.select({ storageKey: photos.storageKey, thumbKey: photos.thumbKey }).from(photos).where(eq(photos.buildId, buildId));
+		await tx.delete(builds).where(eq(builds.id, buildId));
+		return files.flatMap((f) => [f.storageKey, f.thumbKey]);
+	});
+	await deleteObjects(keys);
 }
 
 /** Exactly one variant per build is the proposal. */

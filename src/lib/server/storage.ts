@@ -2,10 +2,12 @@
  * Files on local disk under config.storageDir (outside static/, so nothing is served without an
  * access check). Keys are made here from random ids; a path is never built from user input, and
  * every key is checked against its shape before it touches the file system. Swap this module for
- * an S3-compatible store when the app runs on several machines.
+ * an S3-compatible store when the app runs on several machines: backups (exportObjects,
+ * importObjects) and the clean-up check (listObjects) go through it too, so they follow.
  */
-import { mkdir, readFile, rename, rm, writeFile } from 'node:fs/promises';
-import { dirname, resolve, sep } from 'node:path';
+import { createHash } from 'node:crypto';
+import { mkdir, open, readdir, readFile, rename, rm, stat } from 'node:fs/promises';
+import { dirname, join, resolve, sep } from 'node:path';
 import { config } from './config';
 import { newId } from './tokens';
 
@@ -37,13 +39,35 @@ export function newKey(ext: StoredExt): string {
 	return `${id.slice(0, 2)}/${id}.${ext}`;
 }
 
-/** Writes to a temporary name first, so a reader never sees half a file. */
+/** fsync of a folder: makes a new name in it (a file, a subfolder) survive a power cut. */
+async function syncDir(dir: string) {
+	const fh = await open(dir, 'r');
+	try {
+		await fh.sync();
+	} finally {
+		await fh.close();
+	}
+}
+
+/**
+ * Writes to a temporary name first, so a reader never sees half a file, and syncs the file and its
+ * folder before returning: once the photo's row commits, the bytes are on disk too.
+ */
 export async function putObject(key: string, bytes: Uint8Array): Promise<void> {
 	const full = pathOf(key);
-	await mkdir(dirname(full), { recursive: true });
+	const dir = dirname(full);
+	const made = await mkdir(dir, { recursive: true });
+	if (made) await syncDir(dirname(dir));
 	const tmp = `${full}.${newId()}.part`;
-	await writeFile(tmp, bytes, { flag: 'wx' });
+	const fh = await open(tmp, 'wx');
+	try {
+		await fh.writeFile(bytes);
+		await fh.sync();
+	} finally {
+		await fh.close();
+	}
 	await rename(tmp, full);
+	await syncDir(dir);
 }
 
 export async function readObject(key: string): Promise<Buffer | null> {
@@ -57,4 +81,102 @@ export async function readObject(key: string): Promise<Buffer | null> {
 
 export async function deleteObject(key: string): Promise<void> {
 	await rm(pathOf(key), { force: true });
+}
+
+/** Deletes several objects; missing ones are fine (a repeated clean-up is not an error). */
+export async function deleteObjects(keys: Iterable<string>): Promise<void> {
+	for (const key of keys) await deleteObject(key);
+}
+
+export type StoredObject = { key: string; bytes: number; modifiedAt: Date };
+
+/**
+ * Everything in the store: objects under valid keys, and stray files that are not (a `.part` left by
+ * a write that never finished, anything copied in by hand), as paths relative to the store.
+ */
+export async function listObjects(): Promise<{ objects: StoredObject[]; strays: string[] }> {
+	const base = root();
+	const objects: StoredObject[] = [];
+	const strays: string[] = [];
+	let entries: string[];
+	try {
+		entries = await readdir(base, { recursive: true });
+	} catch (e) {
+		if ((e as NodeJS.ErrnoException).code === 'ENOENT') return { objects, strays };
+		throw e;
+	}
+	for (const rel of entries.sort()) {
+		const info = await stat(join(base, rel));
+		if (info.isDirectory()) continue;
+		const key = rel.split(sep).join('/');
+		if (isStorageKey(key)) objects.push({ key, bytes: info.size, modifiedAt: info.mtime });
+		else strays.push(key);
+	}
+	return { objects, strays };
+}
+
+/** Removes a stray file found by listObjects (never a path outside the store). */
+export async function deleteStray(rel: string): Promise<void> {
+	const base = root();
+	const full = resolve(base, rel);
+	if (!full.startsWith(base + sep)) throw new Error('Not inside the store.');
+	await rm(full, { force: true });
+}
+
+export type ExportedObject = { key: string; bytes: number; sha256: string };
+
+const sha256 = (b: Uint8Array) => createHash('sha256').update(b).digest('hex');
+
+/** Copies every object into `dir/<key>` (for a backup) and says what it copied, with checksums. */
+export async function exportObjects(dir: string): Promise<ExportedObject[]> {
+	const out: ExportedObject[] = [];
+	for (const { key } of (await listObjects()).objects) {
+		const bytes = await readObject(key);
+		if (!bytes) continue; // deleted while we listed
+		const target = join(dir, ...key.split('/'));
+		await mkdir(dirname(target), { recursive: true });
+		const fh = await open(target, 'wx');
+		try {
+			await fh.writeFile(bytes);
+		} finally {
+			await fh.close();
+		}
+		out.push({ key, bytes: bytes.byteLength, sha256: sha256(bytes) });
+	}
+	return out;
+}
+
+/** Checks that `dir/<key>` holds exactly the bytes listed (a backup's photos before a restore). */
+export async function verifyExported(dir: string, list: ExportedObject[]): Promise<string | null> {
+	for (const o of list) {
+		if (!isStorageKey(o.key)) return `${o.key} is not a storage key`;
+		let bytes: Buffer;
+		try {
+			bytes = await readFile(join(dir, ...o.key.split('/')));
+		} catch {
+			return `${o.key} is missing`;
+		}
+		if (bytes.byteLength !== o.bytes || sha256(bytes) !== o.sha256) return `${o.key} does not match its checksum`;
+	}
+	return null;
+}
+
+/** Writes every listed object from `dir/<key>` into the store (a restore, before the swap). */
+export async function importObjects(dir: string, list: ExportedObject[]): Promise<number> {
+	for (const o of list) await putObject(o.key, await readFile(join(dir, ...o.key.split('/'))));
+	return list.length;
+}
+
+/** Deletes every object not in `keep`, and stray files (a restore, after the swap). */
+export async function pruneObjects(keep: Set<string>): Promise<number> {
+	const { objects, strays } = await listObjects();
+	const extra = objects.filter((o) => !keep.has(o.key));
+	await deleteObjects(extra.map((o) => o.key));
+	for (const s of strays) await deleteStray(s);
+	return extra.length + strays.length;
+}
+
+/** Where the store is, for messages (a folder today; a bucket's address with an object store). */
+export function storeLocation(): string {
+	return root();
 }

@@ -7,7 +7,7 @@ import { eq } from 'drizzle-orm';
 import { forkVariant, variantsOf } from './builds';
 import { demoBuildIn } from './builds.spec-util';
 import { db } from './db';
-import { variants } from './db/schema';
+import { builds, variants } from './db/schema';
 import { SIGN_IN, type MatrixFixture, type MatrixRow } from './testing/access-matrix';
 
 async function withTwoVariants(f: MatrixFixture) {
@@ -72,6 +72,16 @@ export const variantRows: MatrixRow[] = [
 		form: (f) => ({ variantId: f.vars.otherId }),
 		expect: editors(200),
 		changes: { by: ['owner', 'designer'], check: async (f) => (await db.select().from(variants).where(eq(variants.id, f.vars.otherId)))[0].isProposal }
+	},
+	{
+		route: '/builds/[id]/variants',
+		method: 'POST',
+		action: 'deleteBuild',
+		path: (f) => page(f, '/variants?/deleteBuild'),
+		setup: withTwoVariants,
+		form: () => ({ confirm: 'yes' }),
+		expect: editors({ status: 303, location: '/builds' }),
+		changes: { by: ['owner', 'designer'], check: async (f) => (await db.select().from(builds).where(eq(builds.id, f.vars.buildId))).length === 0 }
 	},
 	{
 		route: '/builds/[id]/compare',

@@ -18,6 +18,8 @@ export type App = {
 	/** The process's recent stdout and stderr, for failure messages. */
 	output(): string;
 	stop(): Promise<void>;
+	/** SIGKILL at once, as a crash or a power cut would end it; resolves when it has exited. */
+	crash(): Promise<void>;
 };
 
 export type StartOptions = {
@@ -109,6 +111,12 @@ export async function startApp(opts: StartOptions = {}): Promise<App> {
 		clearTimeout(timer);
 	};
 
+	const crash = async () => {
+		running.delete(kill);
+		kill();
+		await exit;
+	};
+
 	const deadline = Date.now() + (opts.timeoutMs ?? 30_000);
 	while (!(await answers(baseURL))) {
 		if (exited) throw new Error(`The app exited before it answered on ${baseURL}:\n${output()}`);
@@ -118,5 +126,5 @@ export async function startApp(opts: StartOptions = {}): Promise<App> {
 		}
 		await new Promise((r) => setTimeout(r, 100));
 	}
-	return { baseURL, port, output, stop };
+	return { baseURL, port, output, stop, crash };
 }

@@ -1,7 +1,7 @@
 import { redirect } from '@sveltejs/kit';
 import { z } from 'zod';
 import { requireBuild } from '$lib/server/access';
-import { VariantRuleError, deleteVariant, forkVariant, markProposal, moveVariant, renameVariant, variantsOf } from '$lib/server/builds';
+import { VariantRuleError, deleteBuild, deleteVariant, forkVariant, markProposal, moveVariant, renameVariant, variantsOf } from '$lib/server/builds';
 import { formFail, parseForm } from '$lib/server/forms';
 import { line } from '$lib/schemas/common';
 import type { Actions, PageServerLoad } from './$types';
@@ -54,6 +54,14 @@ export const actions: Actions = {
 		const parsed = await parseForm(request, z.object({ variantId, confirm: z.literal('yes', { error: 'Tick the box to confirm.' }) }));
 		if (!parsed.ok) return parsed.failure;
 		return (await run(() => deleteVariant(build.id, parsed.data.variantId))) ?? { done: 'Deleted.' };
+	},
+	deleteBuild: async ({ locals, params, request, url }) => {
+		const { build } = await requireBuild(locals, params.id, 'build.edit', url);
+		const parsed = await parseForm(request, z.object({ confirm: z.literal('yes', { error: 'Tick the box to confirm.' }) }));
+		if (!parsed.ok) return parsed.failure;
+		const failed = await run(() => deleteBuild(build.id));
+		if (failed) return failed;
+		redirect(303, '/builds');
 	},
 	propose: async ({ locals, params, request, url }) => {
 		const { build } = await requireBuild(locals, params.id, 'build.edit', url);
