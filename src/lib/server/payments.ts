@@ -18,6 +18,7 @@ import { quoteTotals } from '$lib/components/client/quote-math';
 import { BUILT_IN_SECRETS, config } from './config';
 import { db, type Tx } from './db';
 import { paymentEvents, payments, quoteLines, quotes, type PaymentRow } from './db/schema';
+import { notifyPaidTwice } from './sharing/notify';
 import { newId } from './tokens';
 
 let client: Stripe | undefined;
@@ -170,6 +171,7 @@ async function settle(after: AfterCommit) {
 		await stripe.checkout.sessions.expire(sessionId).catch((e: unknown) => console.error(`payments: could not close checkout ${sessionId}`, e));
 	}
 	for (const r of after.refund) {
+		let refunded = false;
 		try {
 			if (!r.paymentIntent) throw new Error('the service named no payment to refund');
 			const refund = await stripe.refunds.create({ payment_intent: r.paymentIntent, metadata: { payment_id: r.paymentId, reason: 'deposit already paid' } }, { idempotencyKey: `refund-${r.paymentId}` });
@@ -177,9 +179,12 @@ async function settle(after: AfterCommit) {
 				.update(payments)
 				.set({ status: 'refunded', refundId: refund.id, refundedAt: new Date() })
 				.where(and(eq(payments.id, r.paymentId), eq(payments.status, 'duplicate')));
+			refunded = true;
 		} catch (e) {
 			console.error(`payments: could not refund duplicate payment ${r.paymentId}; it stays flagged for the studio`, e);
 		}
+		const [row] = await db.select().from(payments).where(eq(payments.id, r.paymentId));
+		if (row) await notifyPaidTwice(row, refunded);
 	}
 }
 

@@ -248,6 +248,8 @@ describe('one deposit per quote', () => {
 		expect((await listMail(s.designer.email)).filter((m) => m.subject.startsWith('Deposit paid'))).toHaveLength(1);
 		const page = await app.client({ session: s.designer.session }).get(`/builds/${s.buildId}/quote/${s.variantId}`);
 		expect(page.text).toContain('not counted and refunded');
+		const told = await waitForMail(s.designer.email, { subject: 'Paid twice' });
+		expect(told.text).toContain('It was refunded through the payment service');
 	});
 
 	it('a second paid event the service gives no payment for stays flagged for the studio (refund by hand)', async () => {
@@ -266,6 +268,8 @@ describe('one deposit per quote', () => {
 		]);
 		const page = await app.client({ session: s.designer.session }).get(`/builds/${s.buildId}/quote/${s.variantId}`);
 		expect(page.text).toContain('the automatic refund failed, refund it with the payment service');
+		const told = await waitForMail(s.designer.email, { subject: 'Paid twice' });
+		expect(told.text).toContain('The automatic refund failed: refund it with the payment service.');
 	});
 });
 
