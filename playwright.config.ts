@@ -43,7 +43,6 @@ export default defineConfig({
 			PORT: String(port),
 			HOST: '127.0.0.1',
 			ORIGIN: baseURL,
-			INTERSTICE_INSECURE_COOKIES: '1',
 			INTERSTICE_DEV_TOOLS: '1',
 			DATABASE_URL: process.env.DATABASE_URL ?? '',
 			BODY_SIZE_LIMIT: '12M'

@@ -11,7 +11,8 @@
  * The per-user API limit (600 a minute) would stop a load test after a second. The server is
  * started with a random INTERSTICE_BENCH_TOKEN and the requests carry it, which moves them to a
  * bucket of their own with a high limit (still counted in PostgreSQL, so the cost stays in the
- * numbers). src/lib/server/api.ts honours the token only outside production mode.
+ * numbers). src/lib/server/api.ts honours the token only with INTERSTICE_DEV_TOOLS=1, never in
+ * production mode.
  *
  * The machine is shared, so its load drifts: the two endpoints take turns in rounds (4 × 5 s each
  * by default) and every response's latency is kept, so both see the same conditions and p99 is
@@ -74,14 +75,13 @@ async function startServer(app: string, token: string, profileDir: string | null
 		cwd: root,
 		env: {
 			...process.env,
-			NODE_ENV: 'production',
 			HOST: '127.0.0.1',
 			PORT: String(port),
 			ORIGIN: baseURL,
 			DATABASE_URL: databaseUrl(),
-			// Plain http on loopback: cookies without Secure. This is also what keeps the bench token
-			// (next line) from working in a production deployment.
-			INTERSTICE_INSECURE_COOKIES: '1',
+			// Not production mode: the no-op endpoint and the bench token's bucket are development
+			// tools (a production-mode server refuses to start with a bench token).
+			INTERSTICE_DEV_TOOLS: '1',
 			INTERSTICE_BENCH_TOKEN: token,
 			// Close idle keep-alive connections a second after SIGINT instead of 30 s.
 			SHUTDOWN_TIMEOUT: '1'

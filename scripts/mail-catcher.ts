@@ -1,6 +1,8 @@
 /**
  * A local SMTP catcher for development and tests: accepts every message on 127.0.0.1 and keeps it
- * in memory, readable as JSON over HTTP. Never used in production (real SMTP comes from the env).
+ * in memory, readable as JSON over HTTP (/messages) and as a page for the developer (/). Never used
+ * in production (real SMTP comes from the env). The app itself has no page that shows other
+ * people's mail: reading this log is for whoever runs the machine.
  */
 import { createServer } from 'node:http';
 import { simpleParser } from 'mailparser';
@@ -43,6 +45,12 @@ const http = createServer((req, res) => {
 		res.end('ok');
 		return;
 	}
+	if (url.pathname === '/' && req.method === 'GET') {
+		res.setHeader('content-type', 'text/html; charset=utf-8');
+		res.setHeader('content-security-policy', "default-src 'none'; style-src 'unsafe-inline'");
+		res.end(logPage());
+		return;
+	}
 	if (url.pathname !== '/messages') {
 		res.statusCode = 404;
 		res.end();
@@ -59,8 +67,22 @@ const http = createServer((req, res) => {
 	res.end(JSON.stringify([...list].reverse()));
 });
 
+const esc = (s: string) => s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
+
+/** The newest 100 messages, plain text as sent. */
+function logPage(): string {
+	const items = [...messages]
+		.reverse()
+		.slice(0, 100)
+		.map((m) => `<article><h2>${esc(m.subject)}</h2><p class="meta">${esc(m.date)} · to ${esc(m.to.join(', '))}</p><pre>${esc(m.text)}</pre></article>`)
+		.join('');
+	return `<!doctype html><html lang="en"><head><meta charset="utf-8"><title>Local mail catcher</title>
+<style>body{font-family:system-ui,sans-serif;max-width:50rem;margin:2rem auto;padding:0 1rem}article{border-top:1px solid #ccc;padding:.5rem 0}h2{font-size:1rem;margin:.3rem 0}.meta{color:#555;font-size:.85rem;margin:0}pre{white-space:pre-wrap}</style>
+</head><body><h1>Local mail catcher</h1><p>${messages.length} message(s) held in memory, newest first. Nothing here leaves this machine.</p>${items || '<p>No mail yet.</p>'}</body></html>`;
+}
+
 smtp.listen(smtpPort, '127.0.0.1', () => {
 	http.listen(httpPort, '127.0.0.1', () => {
-		console.log(`mail catcher: SMTP 127.0.0.1:${smtpPort}, read at http://127.0.0.1:${httpPort}/messages`);
+		console.log(`mail catcher: SMTP 127.0.0.1:${smtpPort}, read at http://127.0.0.1:${httpPort}/ (JSON: /messages)`);
 	});
 });

@@ -8,6 +8,9 @@
  * Where the webhook goes: APP_WEBHOOK_URL if set, otherwise /api/payments/webhook on the origin
  * of the session's success_url, so an app on any port (3000, the tests' 3101) gets its own.
  *
+ * Refunds: POST /v1/refunds with a paid session's payment_intent (whole amount, or `amount` minor
+ * units up to what is left). Test helpers under /_fake/ list sessions, deliveries and refunds.
+ *
  * Test cards: 4242 4242 4242 4242 pays; 4000 0000 0000 0002 is declined. State lives in memory.
  */
 import { createHmac, randomBytes, timingSafeEqual } from 'node:crypto';
@@ -44,11 +47,14 @@ type Session = {
 	line_items_summary: { name: string; quantity: number; unit_amount: number }[];
 };
 
+type Refund = { id: string; object: 'refund'; amount: number; currency: string; payment_intent: string; status: 'succeeded'; created: number; metadata: Record<string, string> };
+
 type Delivery = { eventId: string; type: string; url: string; body: string; attempts: number; lastStatus: number | null };
 
 const sessions = new Map<string, Session>();
 const idempotent = new Map<string, { status: number; body: string }>();
 const deliveries: Delivery[] = [];
+const refunds: Refund[] = [];
 
 const id = (prefix: string) => `${prefix}_test_${randomBytes(18).toString('base64url').replace(/[-_]/g, 'x')}`;
 const now = () => Math.floor(Date.now() / 1000);
@@ -310,6 +316,18 @@ async function handle(req: IncomingMessage, res: ServerResponse) {
 			if (error) return apiError(res, 400, error[0], error[1]);
 			return reply(200, publicSession(session!));
 		}
+		if (req.method === 'POST' && path === '/v1/refunds') {
+			const params = parseForm(await readBody(req));
+			const paid = [...sessions.values()].find((x) => x.payment_intent !== null && x.payment_intent === params.payment_intent);
+			if (!paid) return apiError(res, 400, `No such payment_intent: '${String(params.payment_intent ?? '')}'`, 'payment_intent', 'resource_missing');
+			const left = paid.amount_total - refunds.filter((r) => r.payment_intent === paid.payment_intent).reduce((sum, r) => sum + r.amount, 0);
+			const amount = params.amount === undefined ? left : Number(params.amount);
+			if (left <= 0) return apiError(res, 400, 'The charge has already been refunded.', 'payment_intent', 'charge_already_refunded');
+			if (!Number.isInteger(amount) || amount < 1 || amount > left) return apiError(res, 400, `amount must be a whole number of minor units from 1 to ${left}.`, 'amount');
+			const refund: Refund = { id: id('re'), object: 'refund', amount, currency: paid.currency, payment_intent: paid.payment_intent!, status: 'succeeded', created: now(), metadata: (params.metadata as Record<string, string>) ?? {} };
+			refunds.push(refund);
+			return reply(200, refund);
+		}
 		const m = /^\/v1\/checkout\/sessions\/([A-Za-z0-9_]+)(\/expire)?$/.exec(path);
 		if (m) {
 			const s = sessions.get(m[1]);
@@ -358,6 +376,14 @@ async function handle(req: IncomingMessage, res: ServerResponse) {
 		const session = url.searchParams.get('session');
 		const list = deliveries.filter((d) => !session || JSON.parse(d.body).data.object.id === session);
 		return send(res, 200, list.map(({ body: _, ...d }) => d));
+	}
+	if (path === '/_fake/sessions' && req.method === 'GET') {
+		const quote = url.searchParams.get('quote');
+		return send(res, 200, [...sessions.values()].filter((x) => !quote || x.metadata.quote_id === quote).map(publicSession));
+	}
+	if (path === '/_fake/refunds' && req.method === 'GET') {
+		const pi = url.searchParams.get('payment_intent');
+		return send(res, 200, refunds.filter((r) => !pi || r.payment_intent === pi));
 	}
 	const replay = /^\/_fake\/deliveries\/(evt_[A-Za-z0-9_]+)\/replay$/.exec(path);
 	if (replay && req.method === 'POST') {

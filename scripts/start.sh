@@ -19,7 +19,8 @@ export PORT=${PORT:-3000} HOST=${HOST:-127.0.0.1}
 export ORIGIN=${ORIGIN:-http://127.0.0.1:$PORT}
 # Served over plain http on this machine, so the session cookie can't be marked secure here.
 export INTERSTICE_INSECURE_COOKIES=${INTERSTICE_INSECURE_COOKIES:-1}
-# The outgoing-mail page for owners; leave unset on a real deployment.
+# Development tools (the no-op endpoint of bench:http); never set on a deployment, where
+# NODE_ENV=production refuses it.
 export INTERSTICE_DEV_TOOLS=${INTERSTICE_DEV_TOOLS:-1}
 # Photos up to 10 MB (the upload limit) plus form overhead.
 export BODY_SIZE_LIMIT=${BODY_SIZE_LIMIT:-12M}
@@ -27,9 +28,9 @@ cat <<TXT
 
   Interstice is running at $ORIGIN
   Demo sign-in:  designer@demo.interstice.test  /  demo-password-1   (designer)
-                 owner@demo.interstice.test     /  demo-password-1   (owner: members, mail)
+                 owner@demo.interstice.test     /  demo-password-1   (owner: members)
                  client@demo.interstice.test    /  demo-password-1   (client)
-  Outgoing mail: $ORIGIN/dev/mail (as the owner)
+  Outgoing mail: ${MAIL_CATCHER_URL:-http://127.0.0.1:2526}/ (the local mail catcher)
   Stop with Ctrl-C; 'scripts/db.sh stop' stops PostgreSQL. Copies: 'npm run backup'.
 
 TXT

@@ -1,7 +1,20 @@
-import type { Handle, HandleServerError } from '@sveltejs/kit';
+import type { Handle, HandleServerError, ServerInit } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
 import { readSession } from '$lib/server/auth';
+import { config, productionProblems } from '$lib/server/config';
 import { closeDb } from '$lib/server/db';
+import { devToolsHandle } from '$lib/server/dev-tools';
+
+/**
+ * Runs once before the server takes requests (adapter-node awaits it at start). In production
+ * mode a missing or built-in setting stops the process, one line per setting.
+ */
+export const init: ServerInit = () => {
+	const problems = productionProblems();
+	if (!problems.length) return;
+	console.error(`Interstice will not start in production mode (NODE_ENV=production):\n${problems.map((p) => `  - ${p}`).join('\n')}`);
+	process.exit(1);
+};
 
 // adapter-node stops accepting requests on SIGTERM/SIGINT, then waits for the event loop to empty;
 // the open database pool would keep the process alive until killed.
@@ -35,7 +48,10 @@ const securityHeaders: Handle = async ({ event, resolve }) => {
 	return response;
 };
 
-export const handle = sequence(session, securityHeaders);
+/** Development tools answer only when they are on; otherwise the request goes on to a 404. */
+const devTools: Handle = async ({ event, resolve }) => (config.devTools && (await devToolsHandle(event))) || resolve(event);
+
+export const handle = sequence(session, securityHeaders, devTools);
 
 export const handleError: HandleServerError = ({ error, status }) => {
 	if (status >= 500) console.error(error);

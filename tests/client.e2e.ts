@@ -42,6 +42,8 @@ test('share by e-mail, the client reviews, comments, approves and pays the depos
 
 	await page.getByRole('link', { name: 'Quote' }).first().click();
 	await expect(page.getByRole('heading', { name: 'Quote' })).toBeVisible();
+	// Opening the page stores nothing; the quote starts on the designer's click.
+	await page.getByRole('button', { name: 'Start the quote' }).click();
 	await page.getByLabel('Labour (EUR)').fill('150');
 	await page.getByLabel('Tax rate (%)').fill('20');
 	// Worked example: parts 1,038.40 + labour 150.00 = 1,188.40; 20 % tax 237.68; total 1,426.08.

@@ -16,7 +16,6 @@ const O = 'owner',
 const expected: Record<Action, Role[]> = {
 	'studio.view': [O, D, C],
 	'studio.members': [O],
-	'studio.mail': [O],
 	'catalog.view': [O, D],
 	'catalog.edit': [O, D],
 	'build.list': [O, D, C],

@@ -11,7 +11,6 @@ import { builds, memberships, shareLinks, studios, variants, type Role, type Sha
 export type Action =
 	| 'studio.view'
 	| 'studio.members'
-	| 'studio.mail'
 	| 'catalog.view'
 	| 'catalog.edit'
 	| 'build.list'
@@ -28,7 +27,6 @@ export type Action =
 export const permissions: Record<Action, readonly Role[]> = {
 	'studio.view': ['owner', 'designer', 'client'],
 	'studio.members': ['owner'],
-	'studio.mail': ['owner'],
 	'catalog.view': ['owner', 'designer'],
 	'catalog.edit': ['owner', 'designer'],
 	'build.list': ['owner', 'designer', 'client'],

@@ -1,6 +1,7 @@
 /**
  * The load-test bucket of the API limit (src/lib/server/api.ts): only a server started with a bench
- * token, outside production mode, moves calls carrying that token to their own bucket. Anything
+ * token and the development flag (never in production mode: see production.spec.ts) moves calls
+ * carrying that token to their own bucket. Anything
  * else is counted under the ordinary 600-a-minute `api` bucket.
  */
 import { randomBytes } from 'node:crypto';
@@ -44,8 +45,8 @@ describe('the bench bucket', () => {
 		expect(await bucketsAfterOneCheck({ INTERSTICE_BENCH_TOKEN: 'short' }, 'short')).toEqual(['api']);
 	});
 
-	it('in production mode (cookies with Secure) the token does nothing', async () => {
-		expect(await bucketsAfterOneCheck({ INTERSTICE_BENCH_TOKEN: TOKEN, INTERSTICE_INSECURE_COOKIES: '' }, TOKEN)).toEqual(['api']);
+	it('without the development flag the token does nothing', async () => {
+		expect(await bucketsAfterOneCheck({ INTERSTICE_BENCH_TOKEN: TOKEN, INTERSTICE_DEV_TOOLS: '' }, TOKEN)).toEqual(['api']);
 	});
 
 	it('a server without a token ignores the header', async () => {

@@ -43,13 +43,14 @@ const BENCH_LIMIT: Limit = { max: 100_000_000, windowSec: 60 };
 
 /**
  * A load test is one user sending thousands of calls a minute. It is counted in its own bucket
- * with a high limit only when all three hold: the server is not in production mode (it serves
- * cookies without Secure, which no deployment does), the server was started with a bench token
- * (scripts/bench-http.ts makes a random one per run), and the request carries that token.
+ * with a high limit only when all three hold: development tools are on (INTERSTICE_DEV_TOOLS=1,
+ * never in production mode, where a bench token even stops the server from starting), the server
+ * was started with a bench token (scripts/bench-http.ts makes a random one per run), and the
+ * request carries that token.
  */
 function isBench(event: RequestEvent): boolean {
 	const token = process.env.INTERSTICE_BENCH_TOKEN;
-	if (config.production || !token || token.length < 32) return false;
+	if (!config.devTools || !token || token.length < 32) return false;
 	const sent = event.request.headers.get('x-interstice-bench');
 	if (!sent || sent.length !== token.length) return false;
 	return timingSafeEqual(Buffer.from(sent), Buffer.from(token));

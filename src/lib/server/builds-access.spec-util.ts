@@ -73,5 +73,6 @@ export const buildRows: MatrixRow[] = [
 		json: () => ({ scene: demoSceneInput(), control: { kind: 'divider', id: 'spine' } }),
 		expect: anyoneSignedIn(200)
 	},
+	// A development tool served by the server hook (src/lib/server/dev-tools.ts), on in the test app.
 	{ route: '/api/noop', method: 'POST', json: () => ({}), expect: anyoneSignedIn(200) }
 ];

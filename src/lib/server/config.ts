@@ -2,6 +2,12 @@
  * Server configuration from the environment, with defaults that work on a developer machine.
  * Read through this module only, so scripts (run outside SvelteKit) and the app agree.
  */
+/** The local payment fake's keys: fine on a developer machine, refused in production mode. */
+export const BUILT_IN = { secretKey: 'sk_test_local', webhookSecret: 'whsec_local' } as const;
+
+/** Every secret value that ships with the code (the defaults above, .env.example's). */
+export const BUILT_IN_SECRETS: readonly string[] = [BUILT_IN.secretKey, BUILT_IN.webhookSecret];
+
 const env = (name: string, fallback: string) => {
 	const value = process.env[name];
 	return value === undefined || value === '' ? fallback : value;
@@ -15,8 +21,13 @@ export const config = {
 	get origin() {
 		return env('ORIGIN', 'http://127.0.0.1:3000');
 	},
+	/**
+	 * Production mode: NODE_ENV=production. The server then refuses to start on unsafe settings
+	 * (productionProblems), accepts no built-in secret, sets Secure cookies and has no development
+	 * tools. `npm start` and the test harness run `node build` without it.
+	 */
 	get production() {
-		return process.env.NODE_ENV === 'production' && !process.env.INTERSTICE_INSECURE_COOKIES;
+		return process.env.NODE_ENV === 'production';
 	},
 	smtp: {
 		get host() {
@@ -35,19 +46,27 @@ export const config = {
 			return env('MAIL_FROM', 'Interstice <no-reply@interstice.test>');
 		}
 	},
+	/** MAIL_DISABLED=1: no mail is sent (each one is logged instead); for a deployment without mail. */
+	get mailDisabled() {
+		return process.env.MAIL_DISABLED === '1';
+	},
 	get mailCatcherUrl() {
 		return env('MAIL_CATCHER_URL', 'http://127.0.0.1:2526');
 	},
-	/** Development pages (the outgoing-mail viewer): off unless the start and test scripts turn them on. */
+	/**
+	 * Development tools (the no-op endpoint that bench:http compares against, the bench token's
+	 * bucket): off unless the start and test scripts turn them on, and never in production mode.
+	 */
 	get devTools() {
+		if (this.production) return false;
 		return env('INTERSTICE_DEV_TOOLS', process.env.NODE_ENV === 'development' ? '1' : '0') === '1';
 	},
 	payments: {
 		get secretKey() {
-			return env('PAYMENTS_SECRET_KEY', 'sk_test_local');
+			return env('PAYMENTS_SECRET_KEY', BUILT_IN.secretKey);
 		},
 		get webhookSecret() {
-			return env('PAYMENTS_WEBHOOK_SECRET', 'whsec_local');
+			return env('PAYMENTS_WEBHOOK_SECRET', BUILT_IN.webhookSecret);
 		},
 		get host() {
 			return env('PAYMENTS_API_HOST', '127.0.0.1');
@@ -63,3 +82,31 @@ export const config = {
 		return env('STORAGE_DIR', '.data/storage');
 	}
 };
+
+const isSet = (name: string) => (process.env[name] ?? '').trim() !== '';
+
+/**
+ * What keeps a production-mode server from starting, one line per setting (empty outside
+ * production mode, and when everything is in place). Read by the server's init hook.
+ */
+export function productionProblems(): string[] {
+	if (!config.production) return [];
+	const problems: string[] = [];
+	for (const [name, what] of [
+		['PAYMENTS_SECRET_KEY', 'secret API key'],
+		['PAYMENTS_WEBHOOK_SECRET', 'webhook signing secret']
+	] as const) {
+		if (!isSet(name)) problems.push(`${name} is not set: the payment service's ${what} is required.`);
+		else if (BUILT_IN_SECRETS.includes(process.env[name]!.trim())) problems.push(`${name} is the built-in development value; set the real one.`);
+	}
+	if (!isSet('ORIGIN')) problems.push('ORIGIN is not set: the public address of the app (https://…), for links in mail and the form-post check.');
+	if (!config.mailDisabled) {
+		for (const name of ['SMTP_HOST', 'SMTP_PORT', 'MAIL_FROM']) {
+			if (!isSet(name)) problems.push(`${name} is not set: set the mail settings, or MAIL_DISABLED=1 to run without mail.`);
+		}
+	}
+	for (const name of ['INTERSTICE_DEV_TOOLS', 'INTERSTICE_BENCH_TOKEN']) {
+		if (isSet(name)) problems.push(`${name} is set: development tools are not allowed in production mode; unset it.`);
+	}
+	return problems;
+}

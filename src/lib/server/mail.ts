@@ -19,6 +19,10 @@ function getTransport() {
 
 /** Sends one plain-text mail. Links are absolute, built from the configured origin. */
 export async function sendMail(mail: Mail) {
+	if (config.mailDisabled) {
+		console.log(`mail: off (MAIL_DISABLED=1), not sent: "${mail.subject}" → ${mail.to}`);
+		return 'mail-disabled';
+	}
 	const info = await getTransport().sendMail({ from: config.smtp.from, ...mail });
 	if (!config.production) console.log(`mail: "${mail.subject}" → ${mail.to}`);
 	return info.messageId as string;

@@ -4,6 +4,7 @@
  * part is one the engine can resolve.
  */
 import { z } from 'zod';
+import { isCurrencyCode } from '../client/money';
 import {
 	COORD_LIMIT_MM,
 	enclosureDefSchema,
@@ -29,7 +30,7 @@ export const partExtrasSchema = z.object({
 		.default(null),
 	currency: z
 		.string()
-		.regex(/^[A-Z]{3}$/, 'Currency must be a three-letter code such as EUR')
+		.refine(isCurrencyCode, 'Currency must be an ISO 4217 code such as EUR, GBP or USD')
 		.default('EUR'),
 	supplierNote: z.string().max(1000, 'Supplier note can be at most 1000 characters').default('')
 });
@@ -240,7 +241,7 @@ export const partFormSchema = z.object({
 		.string()
 		.trim()
 		.toUpperCase()
-		.regex(/^[A-Z]{3}$/, 'Currency must be a three-letter code such as EUR')
+		.refine(isCurrencyCode, 'Currency must be an ISO 4217 code such as EUR, GBP or USD')
 		.default('EUR'),
 	supplierNote: z.string().trim().max(1000, 'Supplier note can be at most 1000 characters').default(''),
 	heatW: optionalNumber('Heat'),

@@ -22,6 +22,13 @@ describe('currencies (ISO 4217 minor units)', () => {
 		expect(isCurrencyCode('EURO')).toBe(false);
 		expect(isCurrencyCode('')).toBe(false);
 	});
+
+	// ISO 4217 (list one, current codes): these are assigned; QQQ and ABC are not, XTS is the
+	// testing code and DEM was withdrawn in 2002, so neither may price a quote.
+	it('accepts assigned ISO 4217 codes and refuses well-formed codes that are not', () => {
+		for (const code of ['EUR', 'GBP', 'USD', 'CHF', 'JPY', 'SEK', 'BHD', 'PLN']) expect(isCurrencyCode(code), code).toBe(true);
+		for (const code of ['QQQ', 'ABC', 'XTS', 'DEM', 'EUX']) expect(isCurrencyCode(code), code).toBe(false);
+	});
 });
 
 describe('parsing amounts people type', () => {

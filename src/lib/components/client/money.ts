@@ -12,14 +12,17 @@ export function minorDigits(currency: string): number {
 	}
 }
 
+let iso4217: Set<string> | undefined;
+
+/**
+ * An active ISO 4217 code, from the platform's list (`Intl.supportedValuesOf('currency')`, the
+ * ICU data Node and browsers ship). A well-formed but unassigned code such as QQQ is refused:
+ * Intl.NumberFormat would format it without complaint.
+ */
 export function isCurrencyCode(code: string): boolean {
 	if (!/^[A-Z]{3}$/.test(code)) return false;
-	try {
-		new Intl.NumberFormat('en', { style: 'currency', currency: code });
-		return true;
-	} catch {
-		return false;
-	}
+	iso4217 ??= new Set(Intl.supportedValuesOf('currency'));
+	return iso4217.has(code);
 }
 
 export function formatMoney(minor: number, currency: string, locale = 'en-GB'): string {

@@ -168,9 +168,17 @@ export const quoteLines = pgTable(
 	]
 );
 
-export const paymentStatus = pgEnum('payment_status', ['pending', 'paid', 'expired']);
+/**
+ * pending: an open checkout; paid: the quote's deposit; expired: a checkout that lapsed or was
+ * replaced; duplicate: money that came in for a quote already paid, not counted and waiting for a
+ * refund by hand (shown to the studio); refunded: such money sent back through the service.
+ */
+export const paymentStatus = pgEnum('payment_status', ['pending', 'paid', 'expired', 'duplicate', 'refunded']);
 
-/** A deposit checkout. Becomes 'paid' once, from the signed webhook or the confirmed return. */
+/**
+ * A deposit checkout. Becomes 'paid' once, from the signed webhook or the confirmed return. A quote
+ * has at most one payment that is open or paid (payment_quote_open_key), so it is never paid twice.
+ */
 export const payments = pgTable(
 	'payment',
 	{
@@ -192,10 +200,16 @@ export const payments = pgTable(
 		paidAt: ts('paid_at'),
 		payerShareLinkId: text('payer_share_link_id').references(() => shareLinks.id, { onDelete: 'set null' }),
 		payerUserId: text('payer_user_id').references(() => users.id, { onDelete: 'set null' }),
+		/** The service's refund of a duplicate payment. */
+		refundId: text('refund_id'),
+		refundedAt: ts('refunded_at'),
 		createdAt: ts('created_at').notNull().defaultNow()
 	},
 	(t) => [
 		uniqueIndex('payment_session_key').on(t.checkoutSessionId),
+		uniqueIndex('payment_quote_open_key')
+			.on(t.quoteId)
+			.where(sql`${t.status} in ('pending', 'paid')`),
 		index('payment_quote_idx').on(t.quoteId),
 		check('payment_amount_positive', sql`${t.amountMinor} > 0`)
 	]

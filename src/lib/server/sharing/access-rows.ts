@@ -170,6 +170,15 @@ export const sharingRows: MatrixRow[] = [
 		changes: { by: ['owner', 'designer'], check: async (f) => (await commentCount(f)) > 0 }
 	},
 	{ route: '/builds/[id]/quote/[variantId]', method: 'GET', path: (f) => `${build(f)}/quote/${f.vars.variantId}`, setup: shared, expect: studioOnly(200) },
+	{
+		route: '/builds/[id]/quote/[variantId]',
+		method: 'POST',
+		action: 'create',
+		path: (f) => `${build(f)}/quote/${f.vars.variantId}?/create`,
+		setup: shared,
+		expect: studioOnly(200),
+		changes: { by: ['owner', 'designer'], check: async (f) => (await db.select().from(quotes).where(eq(quotes.variantId, f.vars.variantId))).length === 1 }
+	},
 	...(['save', 'refresh', 'send', 'withdraw'] as const).map(
 		(action): MatrixRow => ({
 			route: '/builds/[id]/quote/[variantId]',

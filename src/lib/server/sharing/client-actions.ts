@@ -12,7 +12,7 @@ import { enforce } from '../limits';
 import { link } from '../mail';
 import { startCheckout } from '../payments';
 import { limits } from '../rate-limit';
-import { notifyStudio } from './notify';
+import { notifyDepositPaid, notifyStudio } from './notify';
 import { quoteOfVariant } from './quotes';
 import { addComment, approveVersion, requestChanges, type Author } from './thread';
 import { clientView, type ViewerKind } from './view';
@@ -154,19 +154,23 @@ export async function payAction(event: RequestEvent, actor: ClientActor) {
 	if (!view.deposit.canPay || !view.quote) return fail(409, { errors: { pay: view.deposit.reason ?? 'The deposit is already paid.' }, values: {} });
 	const quote = await quoteOfVariant(actor.variant.id);
 	if (!quote) return fail(409, { errors: { pay: 'The studio has not sent a quote yet.' }, values: {} });
-	const url = await startCheckout({
+	// One checkout per quote, however many posts arrive at once (see payments.ts).
+	const outcome = await startCheckout({
 		quoteId: quote.quote.id,
 		buildId: actor.build.id,
 		variantId: actor.variant.id,
-		amountMinor: view.quote.depositMinor,
-		currency: view.quote.currency,
-		description: `Deposit for ${actor.build.name} (${formatMoney(view.quote.depositMinor, view.quote.currency)})`,
+		describe: (amountMinor, currency) => `Deposit for ${actor.build.name} (${formatMoney(amountMinor, currency)})`,
 		customerEmail: actor.customerEmail,
 		payerShareLinkId: actor.author.shareLinkId,
 		payerUserId: actor.author.userId,
 		successUrl: link('/s/return?session_id={CHECKOUT_SESSION_ID}'),
 		cancelUrl: link('/s/return?cancelled=1')
 	});
+	if ('refused' in outcome) {
+		if (outcome.newlyPaid) await notifyDepositPaid(outcome.newlyPaid);
+		return fail(409, { errors: { pay: outcome.refused }, values: {} });
+	}
+	const url = outcome.url;
 	event.cookies.set(RETURN_COOKIE, actor.pagePath, { path: '/s', httpOnly: true, sameSite: 'lax', secure: event.url.protocol === 'https:', maxAge: 60 * 60 * 24 });
 	// Not a redirect: the page's form-action policy allows only our own origin, so the browser is
 	// sent on by the page itself (or, without JavaScript, follows the link it shows).

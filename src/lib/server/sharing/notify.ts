@@ -59,3 +59,33 @@ export async function notifyDepositPaid(payment: { buildId: string; amountMinor:
 		console.error('mail: could not tell the studio about a deposit', e);
 	}
 }
+
+/**
+ * Money that came in for a deposit already paid (see payments.ts): never counted; refunded through
+ * the service, or, when that failed, left for the studio to refund by hand.
+ */
+export async function notifyPaidTwice(payment: { buildId: string; variantId: string; amountMinor: number; currency: string; payerShareLinkId: string | null }, refunded: boolean) {
+	const [build] = await db.select().from(builds).where(eq(builds.id, payment.buildId));
+	if (!build) return;
+	let linkCreatedBy: string | null = null;
+	if (payment.payerShareLinkId) {
+		const [l] = await db.select({ createdBy: shareLinks.createdBy }).from(shareLinks).where(eq(shareLinks.id, payment.payerShareLinkId));
+		linkCreatedBy = l?.createdBy ?? null;
+	}
+	const amount = formatMoney(payment.amountMinor, payment.currency);
+	try {
+		await notifyStudio({
+			buildId: build.id,
+			linkCreatedBy,
+			subject: `Paid twice: ${build.name}`,
+			lines: [
+				`A second payment of ${amount} came in for the deposit of ${build.name}, which was already paid. It is not counted.`,
+				refunded
+					? 'It was refunded through the payment service; the client needs to do nothing.'
+					: `The automatic refund failed: refund it with the payment service. The quote shows it: ${link(`/builds/${build.id}/quote/${payment.variantId}`)}`
+			]
+		});
+	} catch (e) {
+		console.error('mail: could not tell the studio about a second payment', e);
+	}
+}

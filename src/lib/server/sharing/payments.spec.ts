@@ -9,7 +9,7 @@ import { and, eq } from 'drizzle-orm';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { config } from '../config';
 import { db } from '../db';
-import { paymentEvents, payments } from '../db/schema';
+import { paymentEvents, payments, quotes } from '../db/schema';
 import { listMail, waitForMail } from '../testing/mail';
 import { useApp } from '../testing/suite';
 import { ensureQuote, sendQuote } from './quotes';
@@ -167,5 +167,131 @@ describe('the webhook endpoint', () => {
 			expect((await postWebhook(body, signed(body))).status).toBe(200);
 		}
 		expect((await paymentOf(sessionId)).status).toBe('pending');
+	});
+});
+
+type FakeSession = { id: string; status: string; payment_intent: string | null; amount_total: number };
+type FakeRefund = { id: string; amount: number; payment_intent: string };
+
+const fakeJson = async <T>(path: string): Promise<T> => (await (await fetch(`${fake}${path}`)).json()) as T;
+const payAtFake = (sessionId: string, email: string) =>
+	fetch(`${fake}/pay/${sessionId}`, { method: 'POST', redirect: 'manual', body: new URLSearchParams({ email, card: '4242 4242 4242 4242', expiry: '12/39', cvc: '123', name: 'A. Client' }) });
+const paymentsOfQuote = (quoteId: string) => db.select().from(payments).where(eq(payments.quoteId, quoteId));
+
+describe('one deposit per quote', () => {
+	it('20 simultaneous "pay" posts open one checkout: one session at the service, one payment row, one link for all', async () => {
+		const s = await sharedDemo();
+		const quote = await sendDemoQuote(s);
+		const c = app.client();
+		expect((await c.action(`/s/${s.token}?/approve`, { version: 1, message: 'Go ahead.' })).type).toBe('success');
+		const posts = await Promise.all(Array.from({ length: 20 }, () => c.action(`/s/${s.token}?/pay`, {})));
+		expect(posts.map((p) => p.type)).toEqual(Array(20).fill('success'));
+		const urls = new Set(posts.map((p) => p.data.checkoutUrl as string));
+		expect(urls.size).toBe(1);
+		expect(await fakeJson<FakeSession[]>(`/_fake/sessions?quote=${quote.quote.id}`)).toHaveLength(1);
+		const rows = await paymentsOfQuote(quote.quote.id);
+		expect(rows).toHaveLength(1);
+		expect(rows[0]).toMatchObject({ status: 'pending', checkoutUrl: [...urls][0] });
+	});
+
+	it('the database refuses a second open payment for a quote (payment_quote_open_key)', async () => {
+		const { quote } = await checkoutStarted();
+		const [p] = await paymentsOfQuote(quote.quote.id);
+		const second = db.insert(payments).values({ ...p, id: `${p.id}x`, checkoutSessionId: null, checkoutUrl: null });
+		await expect(second).rejects.toThrow();
+		expect(await paymentsOfQuote(quote.quote.id)).toHaveLength(1);
+	});
+
+	it('a changed deposit closes the old checkout at the service before opening the new one', async () => {
+		const { s, quote, c, sessionId } = await checkoutStarted();
+		await db.update(quotes).set({ depositKind: 'amount', depositValue: 10_000 }).where(eq(quotes.id, quote.quote.id));
+		const again = await c.action(`/s/${s.token}?/pay`, {});
+		expect(again.type).toBe('success');
+		expect(again.data.checkoutUrl).not.toContain(sessionId);
+		const sessions = await fakeJson<FakeSession[]>(`/_fake/sessions?quote=${quote.quote.id}`);
+		expect(sessions.map((x) => [x.id === sessionId ? 'old' : 'new', x.status, x.amount_total]).sort()).toEqual([
+			['new', 'open', 10_000],
+			['old', 'expired', quote.totals.depositMinor]
+		]);
+		expect((await payAtFake(sessionId, s.client.email)).status).toBe(410);
+		expect((await paymentsOfQuote(quote.quote.id)).map((p) => p.status).sort()).toEqual(['expired', 'pending']);
+	});
+
+	it('two paid checkouts for one quote: the first counts, the second is refunded through the service and never counted', async () => {
+		// A checkout the service still takes after this app let it go (as a quote left from before
+		// the one-deposit rule, or a page the client kept open): A is open at the service, expired here.
+		const { s, quote, c, sessionId: a } = await checkoutStarted();
+		await db.update(payments).set({ status: 'expired' }).where(eq(payments.checkoutSessionId, a));
+		const again = await c.action(`/s/${s.token}?/pay`, {});
+		expect(again.type).toBe('success');
+		const b = (again.data.checkoutUrl as string).split('/').pop()!;
+		expect(b).not.toBe(a);
+
+		expect((await payAtFake(b, s.client.email)).status).toBe(303);
+		expect((await paymentOf(b)).status).toBe('paid');
+		expect((await payAtFake(a, s.client.email)).status).toBe(303);
+
+		const rows = await paymentsOfQuote(quote.quote.id);
+		expect(rows.filter((p) => p.status === 'paid').map((p) => p.checkoutSessionId)).toEqual([b]);
+		const dup = rows.find((p) => p.checkoutSessionId === a)!;
+		expect(dup.status).toBe('refunded');
+		const sessionA = (await fakeJson<FakeSession[]>(`/_fake/sessions?quote=${quote.quote.id}`)).find((x) => x.id === a)!;
+		const refunds = await fakeJson<FakeRefund[]>(`/_fake/refunds?payment_intent=${sessionA.payment_intent}`);
+		expect(refunds).toHaveLength(1);
+		expect(refunds[0]).toMatchObject({ id: dup.refundId, amount: dup.amountMinor });
+
+		// The return page for A says nothing was paid twice; the designer heard of one deposit.
+		const ret = await c.get(`/s/return?session_id=${a}`);
+		expect(ret.status).toBe(303);
+		await waitForMail(s.designer.email, { subject: 'Deposit paid' });
+		await new Promise((r) => setTimeout(r, 300));
+		expect((await listMail(s.designer.email)).filter((m) => m.subject.startsWith('Deposit paid'))).toHaveLength(1);
+		const page = await app.client({ session: s.designer.session }).get(`/builds/${s.buildId}/quote/${s.variantId}`);
+		expect(page.text).toContain('not counted and refunded');
+		const told = await waitForMail(s.designer.email, { subject: 'Paid twice' });
+		expect(told.text).toContain('It was refunded through the payment service');
+	});
+
+	it('a second paid event the service gives no payment for stays flagged for the studio (refund by hand)', async () => {
+		const { s, quote, sessionId: a } = await checkoutStarted();
+		await db.update(payments).set({ status: 'expired' }).where(eq(payments.checkoutSessionId, a));
+		const again = await app.client().action(`/s/${s.token}?/pay`, {});
+		const b = (again.data.checkoutUrl as string).split('/').pop()!;
+		expect((await payAtFake(b, s.client.email)).status).toBe(303);
+		// A correctly signed event for A without a payment to refund (payment_intent null).
+		const body = completedEvent(`evt_test_noref_${a.slice(-8)}`, { id: a, amount: quote.totals.depositMinor });
+		expect((await postWebhook(body, signed(body))).status).toBe(200);
+		const rows = await paymentsOfQuote(quote.quote.id);
+		expect(rows.map((p) => [p.checkoutSessionId === a ? 'a' : 'b', p.status]).sort()).toEqual([
+			['a', 'duplicate'],
+			['b', 'paid']
+		]);
+		const page = await app.client({ session: s.designer.session }).get(`/builds/${s.buildId}/quote/${s.variantId}`);
+		expect(page.text).toContain('the automatic refund failed, refund it with the payment service');
+		const told = await waitForMail(s.designer.email, { subject: 'Paid twice' });
+		expect(told.text).toContain('The automatic refund failed: refund it with the payment service.');
+	});
+});
+
+describe('malformed signed webhook events', () => {
+	it.each([
+		['{}', '{}'],
+		['[]', '[]'],
+		['null', 'null'],
+		['a number', '42'],
+		['a session without amounts', JSON.stringify({ id: 'evt_test_shape1', type: 'checkout.session.completed', data: { object: { id: 'cs_test_shape1' } } })],
+		['an id with a NUL byte', JSON.stringify({ id: 'evt_\u0000x', type: 'checkout.session.expired', data: { object: { id: 'cs_test_x' } } })]
+	])('%s → 400, logged, nothing stored', async (_label, body) => {
+		const before = await db.$count(paymentEvents);
+		const res = await postWebhook(body, signed(body));
+		expect(res.status, res.text).toBe(400);
+		expect(res.json()).toMatchObject({ message: expect.stringMatching(/^The event is malformed at /) });
+		expect(await db.$count(paymentEvents)).toBe(before);
+		expect(app.app.output()).toContain('payments: signed webhook refused, malformed at');
+	});
+
+	it('an event of a type this app ignores is accepted once (the service stops retrying)', async () => {
+		const body = JSON.stringify({ id: `evt_test_other_${Date.now()}`, object: 'event', type: 'customer.created', data: { object: { id: 'cus_test_1' } } });
+		expect((await postWebhook(body, signed(body))).status).toBe(200);
 	});
 });

@@ -1,6 +1,7 @@
 /** Quotes: one per shared variant; part lines from the catalogue, a labour line, tax and a deposit. */
 import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import { variantSettingsSchema } from '$lib/builds/settings';
+import { isCurrencyCode } from '$lib/components/client/money';
 import { quoteTotals, type QuoteTotals } from '$lib/components/client/quote-math';
 import { db, type Tx } from '../db';
 import { parts, payments, quoteLines, quotes, type QuoteLineRow, type QuoteRow } from '../db/schema';
@@ -72,7 +73,8 @@ async function commonCurrency(settingsJson: unknown): Promise<string> {
 	const rows = await db.select({ currency: parts.currency, price: parts.priceMinor }).from(parts).where(inArray(parts.id, ids));
 	const tally = new Map<string, number>();
 	for (const r of rows) if (r.price !== null) tally.set(r.currency, (tally.get(r.currency) ?? 0) + 1);
-	return [...tally.entries()].sort((a, b) => b[1] - a[1] || a[0].localeCompare(b[0]))[0]?.[0] ?? 'EUR';
+	const common = [...tally.entries()].sort((a, b) => b[1] - a[1] || a[0].localeCompare(b[0]))[0]?.[0];
+	return common && isCurrencyCode(common) ? common : 'EUR';
 }
 
 async function insertLines(tx: Tx, quoteId: string, drafts: readonly LineDraft[]) {

@@ -69,12 +69,13 @@ export async function startApp(opts: StartOptions = {}): Promise<App> {
 	const child = spawn(process.execPath, [buildDir], {
 		env: {
 			...process.env,
-			NODE_ENV: 'production',
+			// Not production mode (which needs real secrets and has no development tools); a test
+			// may start one with NODE_ENV=production in opts.env.
+			NODE_ENV: 'test',
 			HOST: '127.0.0.1',
 			PORT: String(port),
 			ORIGIN: baseURL,
 			DATABASE_URL: testDatabaseUrl(),
-			INTERSTICE_INSECURE_COOKIES: '1',
 			INTERSTICE_DEV_TOOLS: '1',
 			BODY_SIZE_LIMIT: '12M',
 			...opts.env

@@ -4,27 +4,35 @@ import { line, paragraph } from '$lib/schemas/common';
 import { requireBuild } from '$lib/server/access';
 import { variantsOf } from '$lib/server/builds';
 import { paymentsOfQuotes } from '$lib/server/payments';
-import { QuoteLocked, QuoteNotReady, ensureQuote, refreshLines, sendQuote, updateQuote, withdrawQuote, type QuoteUpdate } from '$lib/server/sharing/quotes';
+import { QuoteLocked, QuoteNotReady, ensureQuote, quoteOfVariant, refreshLines, sendQuote, updateQuote, withdrawQuote, type QuoteUpdate } from '$lib/server/sharing/quotes';
 import type { Actions, PageServerLoad, RequestEvent } from './$types';
 
-async function context(event: Pick<RequestEvent, 'locals' | 'params' | 'url'>) {
+async function variantOf(event: Pick<RequestEvent, 'locals' | 'params' | 'url'>) {
 	const { build, access } = await requireBuild(event.locals, event.params.id, 'build.quote', event.url);
 	const variant = (await variantsOf(build.id)).find((v) => v.id === event.params.variantId);
 	if (!variant) error(404, 'Not found.');
+	return { build, access, variant };
+}
+
+/** For the form actions (explicit posts): the variant's quote, started from its parts if it has none. */
+async function context(event: Pick<RequestEvent, 'locals' | 'params' | 'url'>) {
+	const { build, access, variant } = await variantOf(event);
 	const quote = await ensureQuote({ studioId: build.studioId, buildId: build.id, variantId: variant.id, settings: variant.settings });
 	return { build, access, variant, quote };
 }
 
+/** Reads only: opening the page never starts a quote (the "Start the quote" button does). */
 export const load: PageServerLoad = async (event) => {
-	const { build, variant, quote } = await context(event);
-	const payments = await paymentsOfQuotes([quote.quote.id]);
+	const { build, variant } = await variantOf(event);
+	const quote = await quoteOfVariant(variant.id);
+	const payments = quote ? await paymentsOfQuotes([quote.quote.id]) : [];
 	return {
 		build: { id: build.id, name: build.name },
 		variant: { id: variant.id, name: variant.name, version: variant.version },
-		quote: quote.quote,
-		lines: quote.lines,
-		totals: quote.totals,
-		payments: payments.map((p) => ({ id: p.id, status: p.status, amountMinor: p.amountMinor, currency: p.currency, paidAt: p.paidAt, createdAt: p.createdAt })),
+		quote: quote?.quote ?? null,
+		lines: quote?.lines ?? [],
+		totals: quote?.totals ?? null,
+		payments: payments.map((p) => ({ id: p.id, status: p.status, amountMinor: p.amountMinor, currency: p.currency, paidAt: p.paidAt, createdAt: p.createdAt, refundedAt: p.refundedAt })),
 		locked: payments.some((p) => p.status === 'paid')
 	};
 };
@@ -40,7 +48,7 @@ function readQuoteForm(form: FormData, lineIds: string[]): { ok: true; data: Quo
 	const errors: Record<string, string> = {};
 	const get = (k: string) => values[k] ?? '';
 	const currency = get('currency').trim().toUpperCase();
-	if (!isCurrencyCode(currency)) errors.currency = 'Use a three-letter currency code such as EUR.';
+	if (!isCurrencyCode(currency)) errors.currency = 'Use an ISO 4217 currency code such as EUR, GBP or USD.';
 	const cur = errors.currency ? 'EUR' : currency;
 	const money = (key: string, label: string, required: boolean): number | null => {
 		const raw = get(key).trim();
@@ -102,6 +110,10 @@ function locked(e: unknown) {
 }
 
 export const actions: Actions = {
+	create: async (event) => {
+		await context(event);
+		return { created: true };
+	},
 	save: async (event) => {
 		const { quote } = await context(event);
 		const form = await event.request.formData();
