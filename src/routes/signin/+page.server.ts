@@ -9,7 +9,7 @@ import { signInSchema } from '$lib/schemas/account';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = ({ locals, url }) => {
-	if (locals.user) redirect(303, safeNext(url.searchParams.get('next')) ?? '/builds');
+	if (locals.user) redirect(303, safeNext(url.searchParams.get('next'), url.origin) ?? '/builds');
 	return { next: url.searchParams.get('next') ?? '', reset: url.searchParams.has('reset') };
 };
 
@@ -25,6 +25,6 @@ export const actions: Actions = {
 			return formFail(400, { email: parsed.data.email }, { _: 'That e-mail and password do not match an account.' });
 		}
 		await startSession(event.cookies, user.id);
-		redirect(303, safeNext(parsed.raw.next) ?? '/builds');
+		redirect(303, safeNext(parsed.raw.next, event.url.origin) ?? '/builds');
 	}
 };

@@ -9,7 +9,7 @@ import { safeNext } from '$lib/server/redirects';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = ({ locals, url }) => {
-	if (locals.user) redirect(303, safeNext(url.searchParams.get('next')) ?? '/builds');
+	if (locals.user) redirect(303, safeNext(url.searchParams.get('next'), url.origin) ?? '/builds');
 	return { next: url.searchParams.get('next') ?? '' };
 };
 
@@ -27,6 +27,6 @@ export const actions: Actions = {
 			}
 			throw e;
 		}
-		redirect(303, safeNext(parsed.raw.next) ?? '/studios/new');
+		redirect(303, safeNext(parsed.raw.next, event.url.origin) ?? '/studios/new');
 	}
 };
