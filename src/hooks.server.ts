@@ -1,6 +1,7 @@
 import type { Handle, HandleServerError } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
 import { readSession } from '$lib/server/auth';
+import { refuseControlCharsInAddress } from '$lib/server/boundary';
 import { closeDb } from '$lib/server/db';
 
 // adapter-node stops accepting requests on SIGTERM/SIGINT, then waits for the event loop to empty;
@@ -25,7 +26,7 @@ const securityHeaders: Handle = async ({ event, resolve }) => {
 	h.set('cross-origin-opener-policy', 'same-origin');
 	h.set('permissions-policy', 'camera=(), microphone=(), geolocation=(), payment=()');
 	if (!embeddable.some((p) => event.url.pathname.startsWith(p))) h.set('x-frame-options', 'DENY');
-	if (event.url.pathname.startsWith('/s/') || event.url.pathname.startsWith('/reset/') || event.url.pathname.startsWith('/invite/')) {
+	if (['/s/', '/reset/', '/invite/', '/verify/'].some((p) => event.url.pathname.startsWith(p))) {
 		// Token-bearing URLs: never leak them to another site in a Referer header. Not `no-referrer`:
 		// with it browsers send `Origin: null` on the page's own form posts, which SvelteKit's CSRF
 		// check refuses (403), so accepting an invitation or saving a new password failed.
@@ -35,7 +36,7 @@ const securityHeaders: Handle = async ({ event, resolve }) => {
 	return response;
 };
 
-export const handle = sequence(session, securityHeaders);
+export const handle = sequence(securityHeaders, refuseControlCharsInAddress, session);
 
 export const handleError: HandleServerError = ({ error, status }) => {
 	if (status >= 500) console.error(error);
