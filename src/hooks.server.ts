@@ -1,12 +1,18 @@
-import type { Handle, HandleServerError } from '@sveltejs/kit';
+import type { Handle, HandleServerError, ServerInit } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
 import { readSession } from '$lib/server/auth';
 import { refuseControlCharsInAddress } from '$lib/server/boundary';
 import { closeDb } from '$lib/server/db';
+import { scheduleDrain } from '$lib/server/outbox';
 
 // adapter-node stops accepting requests on SIGTERM/SIGINT, then waits for the event loop to empty;
 // the open database pool would keep the process alive until killed.
 process.on('sveltekit:shutdown', () => void closeDb());
+
+/** At start: send account mail a previous process queued but did not get to, and keep sweeping. */
+export const init: ServerInit = () => {
+	scheduleDrain();
+};
 
 const session: Handle = async ({ event, resolve }) => {
 	const { user, session } = await readSession(event.cookies);

@@ -45,7 +45,7 @@ export function scheduleDrain() {
 		return;
 	}
 	draining = new Promise<void>((done) => setImmediate(done))
-		.then(drainOutbox)
+		.then(async () => void (await drainOutbox()))
 		.catch((e) => console.error('mail outbox:', e))
 		.finally(() => {
 			draining = null;
