@@ -4,6 +4,7 @@
  * redirect payloads sent people off-site. Now each is a 400 naming the field, writing nothing.
  */
 import { beforeAll, describe, expect, it } from 'vitest';
+import { demoParts } from '$lib/geometry/fixtures';
 import { controlCharField, controlCharPath } from './boundary';
 import { demoBuildIn, storedVariant, type TestBuild } from './builds.spec-util';
 import { studioWithMembers, type TestMember } from './testing/factories';
@@ -90,6 +91,19 @@ describe('integers against their column', () => {
 			const res = await as().request('GET', `/api/parts?search=1&limit=${limit}`, { headers: { accept: 'application/json' } });
 			expect(res.status, limit).toBe(200);
 		}
+	});
+});
+
+describe('numbers against float4 columns', () => {
+	it('a part with a tolerance of 1e-300 mm is saved, not a PostgreSQL underflow', async () => {
+		// Found by the fuzz test (fuzz.spec.ts): the sizes and tolerance columns are `real`.
+		const p = demoParts().find((x) => !x.id.startsWith('std-'))!;
+		const res = await as().request('POST', '/api/parts', {
+			body: JSON.stringify({ ...p, provenance: 'measured', toleranceMm: 1e-300 }),
+			headers: { 'content-type': 'application/json', accept: 'application/json', origin: app.baseURL }
+		});
+		expect(res.status).toBe(201);
+		expect(res.json<{ part: { def: { toleranceMm: number } } }>().part.def.toleranceMm).toBe(1e-300);
 	});
 });
 
