@@ -1,9 +1,11 @@
 import type { Handle, HandleServerError, ServerInit } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
 import { readSession } from '$lib/server/auth';
+import { refuseControlCharsInAddress } from '$lib/server/boundary';
 import { config, productionProblems } from '$lib/server/config';
 import { closeDb } from '$lib/server/db';
 import { devToolsHandle } from '$lib/server/dev-tools';
+import { scheduleDrain } from '$lib/server/outbox';
 
 /**
  * Runs once before the server takes requests (adapter-node awaits it at start). In production
@@ -11,9 +13,12 @@ import { devToolsHandle } from '$lib/server/dev-tools';
  */
 export const init: ServerInit = () => {
 	const problems = productionProblems();
-	if (!problems.length) return;
-	console.error(`Interstice will not start in production mode (NODE_ENV=production):\n${problems.map((p) => `  - ${p}`).join('\n')}`);
-	process.exit(1);
+	if (problems.length) {
+		console.error(`Interstice will not start in production mode (NODE_ENV=production):\n${problems.map((p) => `  - ${p}`).join('\n')}`);
+		process.exit(1);
+	}
+	// Send account mail a previous process queued but did not get to, and keep sweeping.
+	scheduleDrain();
 };
 
 // adapter-node stops accepting requests on SIGTERM/SIGINT, then waits for the event loop to empty;
@@ -38,7 +43,7 @@ const securityHeaders: Handle = async ({ event, resolve }) => {
 	h.set('cross-origin-opener-policy', 'same-origin');
 	h.set('permissions-policy', 'camera=(), microphone=(), geolocation=(), payment=()');
 	if (!embeddable.some((p) => event.url.pathname.startsWith(p))) h.set('x-frame-options', 'DENY');
-	if (event.url.pathname.startsWith('/s/') || event.url.pathname.startsWith('/reset/') || event.url.pathname.startsWith('/invite/')) {
+	if (['/s/', '/reset/', '/invite/', '/verify/'].some((p) => event.url.pathname.startsWith(p))) {
 		// Token-bearing URLs: never leak them to another site in a Referer header. Not `no-referrer`:
 		// with it browsers send `Origin: null` on the page's own form posts, which SvelteKit's CSRF
 		// check refuses (403), so accepting an invitation or saving a new password failed.
@@ -51,7 +56,7 @@ const securityHeaders: Handle = async ({ event, resolve }) => {
 /** Development tools answer only when they are on; otherwise the request goes on to a 404. */
 const devTools: Handle = async ({ event, resolve }) => (config.devTools && (await devToolsHandle(event))) || resolve(event);
 
-export const handle = sequence(session, securityHeaders, devTools);
+export const handle = sequence(securityHeaders, refuseControlCharsInAddress, session, devTools);
 
 export const handleError: HandleServerError = ({ error, status }) => {
 	if (status >= 500) console.error(error);

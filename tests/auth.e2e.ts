@@ -1,7 +1,7 @@
 /**
- * The first thing a studio does: a new person signs up, makes a studio and invites a designer by
- * e-mail; the designer opens the mailed link in their own browser, signs up, accepts, and works in
- * the studio.
+ * The first thing a studio does: a new person signs up, confirms the address from the mailed link,
+ * makes a studio and invites a designer by e-mail; the designer opens the mailed link in their own
+ * browser, signs up (the invitation proves the address), accepts, and works in the studio.
  */
 import { expect, test } from '@playwright/test';
 import { clearBrowserRateLimits, closeDb, createInvite, createUser, signInAs, studioWithMembers, uniqueEmail } from './helpers/accounts';
@@ -26,6 +26,14 @@ test('sign up, make a studio, invite a designer who signs up from the mail and s
 	await page.getByLabel('E-mail').fill(ownerEmail);
 	await page.getByLabel('Password').fill('long-enough-1');
 	await page.getByRole('button', { name: 'Create account' }).click();
+
+	// The address is confirmed by mail before the account opens.
+	await expect(page).toHaveURL(/\/check-mail$/);
+	await expect(page.getByRole('heading', { name: 'Check your mail' })).toBeVisible();
+	const confirm = await waitForMail(ownerEmail, { subject: 'Confirm your address' });
+	await page.goto(extractLink(confirm.text, '/verify/'));
+	await expect(page.getByRole('heading', { name: 'Confirm your address' })).toBeVisible();
+	await page.getByRole('button', { name: 'Confirm and continue' }).click();
 
 	await expect(page).toHaveURL(/\/studios\/new$/);
 	await page.getByLabel('Studio name').fill(studioName);

@@ -58,3 +58,15 @@ describe('compareVariants', () => {
 		expect(lines).toHaveLength(rows.length + 1);
 	});
 });
+
+describe('comparison CSV and formulas', () => {
+	it('a variant named like a formula goes out as text, in the header and the change column', () => {
+		// A probe named a variant =HYPERLINK(...) and the comparison CSV carried it unescaped.
+		const evil = '=HYPERLINK("https://evil.example","open")';
+		const inputs = [variant(evil, withBar(0)), variant('@B', withBar(10))];
+		const csv = compareCsv(inputs, compareVariants(inputs));
+		const header = csv.split('\r\n')[0];
+		expect(header).toBe(`group,item,"'${evil.replace(/"/g, '""')}",'@B,change in @B`);
+		expect(csv).not.toMatch(/(^|,)"?[=+@]/m);
+	});
+});

@@ -3,6 +3,7 @@
  * editor shows). The first variant is the reference; every other column says how far it moved.
  */
 import { FACES, STATUS_ORDER, type Face, type FitReport, type FitStatus } from '$lib/geometry';
+import { toCsv } from '$lib/csv';
 
 export type CompareInput = { id: string; name: string; report: FitReport; marginMm: number };
 
@@ -104,18 +105,15 @@ export function deltaText(delta: number | null): string {
 	return `${delta > 0 ? '+' : '−'}${Math.abs(delta).toFixed(1)}`;
 }
 
-function csvField(s: string): string {
-	return /[",\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
-}
-
 /** The difference table as CSV: one column per variant and one change column per later variant. */
 export function compareCsv(inputs: CompareInput[], rows: DiffRow[]): string {
 	const header = ['group', 'item', ...inputs.map((v) => v.name), ...inputs.slice(1).map((v) => `change in ${v.name}`)];
-	const lines = [header.map(csvField).join(',')];
-	for (const r of rows) {
-		const values = r.cells.map((c) => (c.value === null ? c.text : String(Math.round(c.value * 1000) / 1000)));
-		const deltas = r.cells.slice(1).map((c) => (c.delta === null ? '' : String(Math.round(c.delta * 1000) / 1000)));
-		lines.push([r.group, r.label, ...values, ...deltas].map(csvField).join(','));
-	}
-	return lines.join('\r\n') + '\r\n';
+	const round = (x: number) => Math.round(x * 1000) / 1000;
+	const lines = rows.map((r) => [
+		r.group,
+		r.label,
+		...r.cells.map((c) => (c.value === null ? c.text : round(c.value))),
+		...r.cells.slice(1).map((c) => (c.delta === null ? '' : round(c.delta)))
+	]);
+	return toCsv(header, lines);
 }

@@ -1,7 +1,41 @@
 import { z } from 'zod';
 
+/** Any C0 control character or DEL: never in an id, a token, a search term or a one-line field. */
 // eslint-disable-next-line no-control-regex
-const CONTROL = /[\u0000-\u001f\u007f]/;
+export const CONTROL = /[\u0000-\u001f\u007f]/;
+/** Control characters no text field may hold, multi-line ones included (tab, LF and CR are allowed). */
+// eslint-disable-next-line no-control-regex
+export const CONTROL_IN_TEXT = /[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f]/;
+
+/** The largest value a PostgreSQL `integer` column holds (2³¹ − 1). */
+export const INT4_MAX = 2_147_483_647;
+
+/**
+ * An id or token from a form, a path or a JSON body: 1 to `max` characters, no control characters
+ * (a NUL byte would otherwise reach PostgreSQL, which refuses it with an error, not a miss).
+ */
+export const idField = (label: string, max = 64) =>
+	z
+		.string({ error: `${label} is required.` })
+		.min(1, `${label} is required.`)
+		.max(max, `${label} can be at most ${max} characters.`)
+		.refine((s) => !CONTROL.test(s), `${label} contains control characters.`);
+
+/** A search term: trimmed, bounded, no control characters; empty means "no filter". */
+export const searchTerm = (label: string, max = 200) =>
+	z
+		.string({ error: `${label} must be text.` })
+		.trim()
+		.max(max, `${label} can be at most ${max} characters.`)
+		.refine((s) => !CONTROL.test(s), `${label} contains control characters.`);
+
+/** A whole number that fits the PostgreSQL `integer` column it is stored in or compared with. */
+export const int4 = (label: string, min = 0, max = INT4_MAX) =>
+	z
+		.number({ error: `${label} must be a number.` })
+		.int(`${label} must be a whole number.`)
+		.min(min, `${label} must be at least ${min}.`)
+		.max(max, `${label} can be at most ${max}.`);
 
 /** A single-line text field: trimmed, no control characters, bounded. */
 export const line = (label: string, max = 120, min = 1) =>
@@ -18,8 +52,7 @@ export const paragraph = (label: string, max = 4000) =>
 		.string({ error: `${label} is required.` })
 		.trim()
 		.max(max, `${label} can be at most ${max} characters.`)
-		// eslint-disable-next-line no-control-regex
-		.refine((s) => !/[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f]/.test(s), `${label} contains control characters.`);
+		.refine((s) => !CONTROL_IN_TEXT.test(s), `${label} contains control characters.`);
 
 export const email = z
 	.string({ error: 'E-mail is required.' })

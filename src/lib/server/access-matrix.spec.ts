@@ -33,6 +33,8 @@ export const accountRows: MatrixRow[] = [
 	{ route: '/signup', method: 'GET', expect: { ...signedIn(to('/builds')), anonymous: 200 } },
 	{ route: '/reset', method: 'GET', expect: everyone(200) },
 	{ route: '/reset/[token]', method: 'GET', path: () => '/reset/not-a-live-token', expect: everyone(200) },
+	{ route: '/check-mail', method: 'GET', expect: everyone(200) },
+	{ route: '/verify/[token]', method: 'GET', path: () => '/verify/not-a-live-token', expect: everyone(200) },
 	{ route: '/signout', method: 'GET', expect: everyone(to('/')) },
 	// The link is the key: whoever holds it sees which studio invites them.
 	{ route: '/invite/[token]', method: 'GET', path: (f) => `/invite/${f.invite.token}`, expect: everyone(200), showsStudioToLinkHolders: true },
@@ -50,7 +52,9 @@ export const accountRows: MatrixRow[] = [
 	// Form actions.
 	// A signed-in visitor is sent on to the builds whatever they post.
 	{ route: '/signin', method: 'POST', form: (f) => ({ email: f.owner.email, password: 'not-the-password-9' }), expect: { ...signedIn(to('/builds')), anonymous: 400 } },
-	{ route: '/signup', method: 'POST', form: () => ({ name: 'Matrix Person', email: uniqueEmail('matrix'), password: 'long-enough-1', next: '/account' }), expect: everyone(to('/account')) },
+	// Sign-up never signs in (the address is confirmed by mail first), so it answers everyone alike.
+	{ route: '/signup', method: 'POST', form: () => ({ name: 'Matrix Person', email: uniqueEmail('matrix'), password: 'long-enough-1', next: '/account' }), expect: everyone(to('/check-mail')) },
+	{ route: '/verify/[token]', method: 'POST', path: () => '/verify/not-a-live-token', expect: everyone(400) },
 	{ route: '/reset', method: 'POST', form: () => ({ email: uniqueEmail('nobody') }), expect: everyone(200) },
 	{ route: '/reset/[token]', method: 'POST', path: () => '/reset/not-a-live-token', form: () => ({ password: 'fresh-password-2' }), expect: everyone(400) },
 	{

@@ -10,24 +10,46 @@ import { passwordResets, sessions, users } from './db/schema';
 import { accountRowCounts, createSession, createUser, expireResets, sessionCount, TEST_PASSWORD, uniqueEmail } from './testing/factories';
 import { extractLink, lastMailId, listMail, waitForMail } from './testing/mail';
 import { useApp } from './testing/suite';
+import { outboxOf } from './outbox';
 
 const app = useApp();
 const NO_MATCH = 'That e-mail and password do not match an account.';
+/** A page's HTML without its per-response CSP nonce, to compare two answers. */
+const stripNonce = (html: string) => html.replace(/nonce="[^"]*"/g, 'nonce=""');
 
 describe('sign up', () => {
-	it('creates the account, hashes the password with argon2id and signs the new user in', async () => {
+	async function confirmFromMail(email: string, afterId = 0) {
+		const mail = await waitForMail(email, { subject: 'Confirm your address for Interstice', afterId });
+		return extractLink(mail.text, '/verify/');
+	}
+
+	it('makes an unconfirmed account, mails a confirmation link, and signs in only once it is opened', async () => {
 		const c = app.client();
 		const email = uniqueEmail('signup');
 		const res = await c.signUp({ name: 'Nia Builder', email: email.toUpperCase(), password: 'long-enough-1' });
 		expect(res.status).toBe(303);
-		expect(res.location).toBe('/studios/new');
+		expect(res.location).toBe('/check-mail');
+		expect(c.sessionId).toBeUndefined();
 
 		const [row] = await db.select().from(users).where(eq(users.email, email));
 		expect(row.name).toBe('Nia Builder');
+		expect(row.emailVerifiedAt).toBeNull();
 		// OWASP Password Storage Cheat Sheet: argon2id, at least m=19456 (19 MiB), t=2, p=1.
 		expect(row.passwordHash).toMatch(/^\$argon2id\$v=19\$m=19456,t=2,p=1\$/);
 		expect(row.passwordHash).not.toContain('long-enough-1');
 
+		const link = await confirmFromMail(email);
+		expect(new URL(link).origin).toBe(app.baseURL);
+		const page = await c.get(link);
+		expect(page.status).toBe(200);
+		expect(page.text).toContain('Confirm your address');
+		expect(page.header('referrer-policy')).toBe('same-origin');
+		// Opening the link writes nothing; the button does.
+		expect((await db.select().from(users).where(eq(users.email, email)))[0].emailVerifiedAt).toBeNull();
+
+		const confirmed = await c.postForm(link);
+		expect(confirmed.status).toBe(303);
+		expect(confirmed.location).toBe('/studios/new');
 		expect(c.sessionId).toBeTruthy();
 		const attrs = c.cookieAttributes('interstice_session') ?? '';
 		expect(attrs).toMatch(/HttpOnly/i);
@@ -36,15 +58,71 @@ describe('sign up', () => {
 		const account = await c.get('/account');
 		expect(account.status).toBe(200);
 		expect(account.text).toContain(email);
+		expect((await db.select().from(users).where(eq(users.email, email)))[0].emailVerifiedAt).not.toBeNull();
+
+		const again = await app.client().postForm(link);
+		expect(again.status).toBe(400);
+		expect(again.text).toContain('This link has expired or was already used');
 	});
 
-	it('refuses a second account for the same e-mail, in any letter case, and writes nothing', async () => {
+	it('answers a known address exactly as a new one, changes nothing, and tells the owner by mail', async () => {
+		// A probe saw "An account with this e-mail exists" here: sign-up told who has an account.
 		const user = await createUser();
+		const fresh = uniqueEmail('fresh');
 		const before = await accountRowCounts();
-		const r = await app.client().action('/signup', { name: 'Again', email: user.email.toUpperCase(), password: 'long-enough-1' });
-		expect(r).toMatchObject({ type: 'failure', status: 400 });
-		expect(r.data.errors.email).toMatch(/exists/);
-		expect(await accountRowCounts()).toEqual(before);
+		const known = app.client();
+		const a = await known.signUp({ name: 'Someone Else', email: user.email.toUpperCase(), password: 'other-password-7' });
+		const b = await app.client().signUp({ name: 'Someone New', email: fresh, password: 'other-password-7' });
+		expect([a.status, a.location]).toEqual([b.status, b.location]);
+		expect([a.status, a.location]).toEqual([303, '/check-mail']);
+		expect(known.sessionId).toBeUndefined();
+		const followed = [await app.client().get(a.location!), await app.client().get(b.location!)];
+		expect(followed[0].status).toBe(200);
+		expect(stripNonce(followed[0].text)).toBe(stripNonce(followed[1].text));
+		// The new address made one (unconfirmed) row; the known one none.
+		expect(await accountRowCounts()).toEqual({ ...before, users: before.users + 1 });
+		// Both did the same: one sign-up row in the outbox each.
+		expect((await outboxOf(user.email)).map((r) => r.kind)).toEqual(['sign-up']);
+		expect((await outboxOf(fresh)).map((r) => r.kind)).toEqual(['sign-up']);
+
+		const mail = await waitForMail(user.email, { subject: 'Someone tried to sign up with your address' });
+		expect(extractLink(mail.text, '/signin')).toBe(`${app.baseURL}/signin`);
+		expect(extractLink(mail.text, '/reset')).toBe(`${app.baseURL}/reset`);
+		expect(mail.text).not.toMatch(/\/verify\//);
+		// Nothing about the account changed: the old password still works, the new one does not.
+		expect((await app.client().signIn(user.email, user.password)).status).toBe(303);
+		expect((await app.client().signIn(user.email, 'other-password-7')).status).toBe(400);
+	});
+
+	it('an unconfirmed account that signs in gets only "check your mail" and a fresh link, no session', async () => {
+		const user = await createUser({ verified: false });
+		const c = app.client();
+		const after = await lastMailId(user.email);
+		const res = await c.signIn(user.email, user.password);
+		expect(res.status).toBe(303);
+		expect(res.location).toBe('/check-mail');
+		expect(c.sessionId).toBeUndefined();
+		expect(await sessionCount(user.id)).toBe(0);
+		const link = await confirmFromMail(user.email, after);
+		expect((await c.postForm(link)).location).toBe('/studios/new');
+		expect((await c.get('/account')).status).toBe(200);
+	});
+
+	it('the link confirms the sign-up it was mailed for: an earlier sign-up by someone else gets nothing', async () => {
+		const email = uniqueEmail('claimed');
+		// Someone who does not own the address signs up with it first …
+		await app.client().signUp({ name: 'Squatter', email, password: 'squatter-pass-1' });
+		const first = await waitForMail(email, { subject: 'Confirm your address for Interstice' });
+		// … then the owner signs up and opens the link from their own sign-up.
+		await app.client().signUp({ name: 'Real Owner', email, password: 'owner-password-2' });
+		const own = await confirmFromMail(email, first.id);
+		expect((await app.client().postForm(own)).status).toBe(303);
+		const [row] = await db.select().from(users).where(eq(users.email, email));
+		expect(row.name).toBe('Real Owner');
+		expect((await app.client().signIn(email, 'squatter-pass-1')).status).toBe(400);
+		expect((await app.client().signIn(email, 'owner-password-2')).status).toBe(303);
+		// The squatter's link died with the confirmation.
+		expect((await app.client().postForm(extractLink(first.text, '/verify/'))).status).toBe(400);
 	});
 });
 
@@ -61,6 +139,21 @@ describe('sign in', () => {
 		expect(next.location).toBe('/account');
 		const offsite = await app.client().postForm('/signin', { email: user.email, password: user.password, next: '//elsewhere.test/x' });
 		expect(offsite.location).toBe('/builds');
+	});
+
+	it('stores only the SHA-256 of the session token; the stored id does not work as a cookie', async () => {
+		// Session ids used to be stored as they were: anyone reading the table could use them.
+		const user = await createUser();
+		const c = app.client();
+		expect((await c.signIn(user.email, user.password)).status).toBe(303);
+		const token = c.sessionId!;
+		const rows = await db.select({ id: sessions.id }).from(sessions).where(eq(sessions.userId, user.id));
+		// FIPS 180-4 SHA-256 via node:crypto as the oracle.
+		expect(rows.map((r) => r.id)).toEqual([createHash('sha256').update(token).digest('hex')]);
+		expect((await c.get('/account')).status).toBe(200);
+		const withStoredId = await app.client({ session: rows[0].id }).get('/account');
+		expect(withStoredId.status).toBe(303);
+		expect(withStoredId.location).toBe('/signin?next=%2Faccount');
 	});
 
 	it('gives the same answer for a wrong password and an unknown e-mail, and no session', async () => {
@@ -152,6 +245,39 @@ describe('password reset by mailed link', () => {
 		expect(res.text).toContain(SENT);
 		expect(await listMail(nobody)).toEqual([]);
 		expect(await accountRowCounts()).toEqual(before);
+	});
+
+	it('does the same work for a known and an unknown address: one outbox row each, the mail after the answer', async () => {
+		// A probe timed ~110 ms for a known address against ~4 ms for an unknown one: the mail went
+		// out inside the request. Now the request only adds an outbox row, whatever the address.
+		const user = await createUser();
+		const nobody = uniqueEmail('nobody');
+		const a = await app.client().postForm('/reset', { email: user.email });
+		const b = await app.client().postForm('/reset', { email: nobody });
+		expect([a.status, b.status]).toEqual([200, 200]);
+		expect(stripNonce(a.text.replaceAll(user.email, 'X'))).toBe(stripNonce(b.text.replaceAll(nobody, 'X')));
+		expect((await outboxOf(user.email)).map((r) => r.kind)).toEqual(['password-reset']);
+		expect((await outboxOf(nobody)).map((r) => r.kind)).toEqual(['password-reset']);
+		await waitForMail(user.email, { subject: 'Reset your Interstice password' });
+		// The unknown address's row is finished too, with nothing sent.
+		for (let i = 0; i < 100 && !(await outboxOf(nobody))[0].doneAt; i++) await new Promise((r) => setTimeout(r, 100));
+		expect((await outboxOf(nobody))[0]).toMatchObject({ attempts: 0, lastError: null });
+		expect((await outboxOf(nobody))[0].doneAt).not.toBeNull();
+		expect(await listMail(nobody)).toEqual([]);
+	});
+
+	it('a reset ends every other reset link of the account', async () => {
+		// A probe found an older link still working after the password was reset with a newer one.
+		const user = await createUser();
+		const first = await requestLink(user.email);
+		const second = await requestLink(user.email);
+		expect(first).not.toBe(second);
+		expect((await app.client().postForm(second, { password: 'fresh-password-2' })).status).toBe(303);
+		const stale = await app.client().postForm(first, { password: 'attacker-password-3' });
+		expect(stale.status).toBe(400);
+		expect(stale.text).toContain('This link has expired or was already used');
+		expect((await app.client().get(first)).text).toContain('This link no longer works');
+		expect((await app.client().signIn(user.email, 'fresh-password-2')).status).toBe(303);
 	});
 
 	it('sets a new password once, ends old sessions, and the used link stops working', async () => {

@@ -1,9 +1,10 @@
 /** Accounts, studios, members and invites: the rules, independent of any page. */
 import { and, count, eq, gt, isNull, sql } from 'drizzle-orm';
 import { db, type Tx } from './db';
-import { invites, memberships, passwordResets, studios, users, type Role } from './db/schema';
+import { emailVerifications, invites, memberships, passwordResets, studios, users, type Role } from './db/schema';
 import { link, sendMail } from './mail';
 import { hashPassword, verifyDummy, verifyPassword } from './passwords';
+import { enqueue, scheduleDrain, type SignUpPayload } from './outbox';
 import { hashToken, newId, newToken } from './tokens';
 
 export class RuleError extends Error {
@@ -16,7 +17,6 @@ export class RuleError extends Error {
 	}
 }
 
-const RESET_TTL_MS = 60 * 60 * 1000;
 const INVITE_TTL_MS = 7 * 24 * 60 * 60 * 1000;
 
 export async function findUserByEmail(email: string) {
@@ -24,16 +24,37 @@ export async function findUserByEmail(email: string) {
 	return u ?? null;
 }
 
-export async function createUser(input: { name: string; email: string; password: string }) {
+/** `/invite/<token>` → the token; sign-up from an invitation link carries it in `next`. */
+function inviteTokenIn(next: string | null): string | null {
+	return next?.match(/^\/invite\/([A-Za-z0-9_-]{43})$/)?.[1] ?? null;
+}
+
+/**
+ * Sign-up answers the same, whatever the address: the same work (a password hash, one insert
+ * attempt, one outbox row) and no session. The outbox then mails a new or still unconfirmed
+ * address a confirmation link, and a known one a "someone tried to sign up" note. The one
+ * exception proves the address another way: signing up from an invitation link sent to exactly
+ * this (new) address, which counts as confirmed and signs in at once (`userId`).
+ */
+export async function signUp(input: { name: string; email: string; password: string; next: string | null }): Promise<{ userId: string | null }> {
 	const passwordHash = await hashPassword(input.password);
-	const id = newId();
-	const inserted = await db
-		.insert(users)
-		.values({ id, name: input.name, email: input.email.toLowerCase(), passwordHash })
-		.onConflictDoNothing()
-		.returning({ id: users.id });
-	if (inserted.length === 0) throw new RuleError('An account with this e-mail exists; sign in instead.', 'email');
-	return id;
+	const email = input.email.toLowerCase();
+	const token = inviteTokenIn(input.next);
+	const invited = token ? (await findValidInvite(token))?.email === email : false;
+	const result = await db.transaction(async (tx) => {
+		const id = newId();
+		const inserted = await tx
+			.insert(users)
+			.values({ id, name: input.name, email, passwordHash, emailVerifiedAt: invited ? new Date() : null })
+			.onConflictDoNothing()
+			.returning({ id: users.id });
+		if (inserted.length === 1 && invited) return { userId: id };
+		const payload: SignUpPayload = { name: input.name, passwordHash, next: input.next };
+		await enqueue('sign-up', email, payload, tx);
+		return { userId: null };
+	});
+	scheduleDrain();
+	return result;
 }
 
 /** The same `null` for an unknown e-mail and a wrong password, after the same amount of work. */
@@ -43,20 +64,56 @@ export async function checkCredentials(email: string, password: string) {
 	return (await verifyPassword(user.passwordHash, password)) ? user : null;
 }
 
-/** Always resolves the same way, whether or not the e-mail has an account. */
+/**
+ * One outbox row for any address; the drain (outbox.ts) sends a link only to an account's owner.
+ * Nothing here depends on whether the address has an account.
+ */
 export async function requestPasswordReset(email: string) {
-	const user = await findUserByEmail(email);
-	if (!user) return;
-	const token = newToken();
-	await db.insert(passwordResets).values({
-		tokenHash: hashToken(token),
-		userId: user.id,
-		expiresAt: new Date(Date.now() + RESET_TTL_MS)
-	});
-	await sendMail({
-		to: user.email,
-		subject: 'Reset your Interstice password',
-		text: `Someone asked to reset the password for ${user.email}.\n\nChoose a new password here (the link works once, for one hour):\n${link(`/reset/${token}`)}\n\nIf it wasn't you, ignore this mail; nothing changes.`
+	await enqueue('password-reset', email);
+}
+
+/** An unconfirmed account that signed in with the right password: mail it a fresh link. */
+export async function resendConfirmation(user: { email: string; name: string; passwordHash: string }) {
+	await enqueue('sign-up', user.email, { name: user.name, passwordHash: user.passwordHash, next: null } satisfies SignUpPayload);
+}
+
+export async function findValidVerification(token: string) {
+	const [row] = await db
+		.select({ userId: emailVerifications.userId, email: users.email })
+		.from(emailVerifications)
+		.innerJoin(users, eq(users.id, emailVerifications.userId))
+		.where(
+			and(
+				eq(emailVerifications.tokenHash, hashToken(token)),
+				isNull(emailVerifications.usedAt),
+				isNull(users.emailVerifiedAt),
+				gt(emailVerifications.expiresAt, new Date())
+			)
+		);
+	return row ?? null;
+}
+
+/**
+ * Confirms the address with the link's token (once): the account takes the name and password of
+ * the sign-up that link was mailed for, and every other confirmation link of it stops working.
+ * Null for a dead token or an account already confirmed.
+ */
+export async function verifyEmail(token: string): Promise<{ userId: string; next: string | null } | null> {
+	return db.transaction(async (tx) => {
+		const [v] = await tx
+			.update(emailVerifications)
+			.set({ usedAt: new Date() })
+			.where(and(eq(emailVerifications.tokenHash, hashToken(token)), isNull(emailVerifications.usedAt), gt(emailVerifications.expiresAt, new Date())))
+			.returning();
+		if (!v) return null;
+		const [u] = await tx
+			.update(users)
+			.set({ emailVerifiedAt: new Date(), name: v.name, passwordHash: v.passwordHash })
+			.where(and(eq(users.id, v.userId), isNull(users.emailVerifiedAt)))
+			.returning({ id: users.id });
+		if (!u) return null;
+		await tx.update(emailVerifications).set({ usedAt: new Date() }).where(and(eq(emailVerifications.userId, v.userId), isNull(emailVerifications.usedAt)));
+		return { userId: v.userId, next: v.next };
 	});
 }
 
@@ -90,7 +147,17 @@ export async function resetPassword(token: string, password: string) {
 			)
 			.returning({ userId: passwordResets.userId });
 		if (!used) return null;
-		await tx.update(users).set({ passwordHash }).where(eq(users.id, used.userId));
+		// Every other reset link of the account dies with this one: a link mailed earlier, or one
+		// an attacker asked for, must not set the password again.
+		await tx
+			.update(passwordResets)
+			.set({ usedAt: new Date() })
+			.where(and(eq(passwordResets.userId, used.userId), isNull(passwordResets.usedAt)));
+		// The link came by mail, so the address is proven too.
+		await tx
+			.update(users)
+			.set({ passwordHash, emailVerifiedAt: sql`coalesce(${users.emailVerifiedAt}, now())` })
+			.where(eq(users.id, used.userId));
 		return used.userId;
 	});
 }
@@ -182,7 +249,11 @@ export async function acceptInvite(token: string, userId: string) {
 			.from(memberships)
 			.where(and(eq(memberships.studioId, inv.studioId), eq(memberships.userId, userId)));
 		if (!existing) await tx.insert(memberships).values({ studioId: inv.studioId, userId, role: inv.role });
-		await tx.update(users).set({ activeStudioId: inv.studioId }).where(eq(users.id, userId));
+		// The invitation reached this address (the page checks it is the signed-in one): proven.
+		await tx
+			.update(users)
+			.set({ activeStudioId: inv.studioId, emailVerifiedAt: sql`coalesce(${users.emailVerifiedAt}, now())` })
+			.where(eq(users.id, userId));
 		return inv.studioId;
 	});
 }

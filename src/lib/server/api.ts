@@ -3,6 +3,7 @@ import { error, json, type RequestEvent } from '@sveltejs/kit';
 import type { z } from 'zod';
 import { formatZodIssues, type FieldIssue } from '$lib/geometry';
 import { timingSafeEqual } from 'node:crypto';
+import { controlCharPath } from './boundary';
 import { config } from './config';
 import { enforce } from './limits';
 import { limits, type Limit } from './rate-limit';
@@ -25,6 +26,8 @@ export async function readJson<S extends z.ZodType>(request: Request, schema: S)
 	} catch {
 		badRequest('The body is not valid JSON.', []);
 	}
+	const bad = controlCharPath(body);
+	if (bad) badRequest('The request does not validate.', [{ path: bad, message: 'Contains control characters' }]);
 	const parsed = schema.safeParse(body);
 	if (!parsed.success) badRequest('The request does not validate.', formatZodIssues(parsed.error));
 	return parsed.data;

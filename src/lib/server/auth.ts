@@ -1,6 +1,11 @@
 /**
  * Sessions. Everything that touches the session library goes through this module, so it can be
  * replaced without touching routes (the library's authors have ended active development of v3).
+ *
+ * The cookie carries a random token (256 bits); the session table keeps only its SHA-256, used as
+ * the row's id. Someone who reads the table (a backup, a leaked dump) cannot use what they read:
+ * the cookie that works is the one whose hash it is. Lucia lets us choose the id when it creates a
+ * session, so the library still handles expiry and refresh.
  */
 import { DrizzlePostgreSQLAdapter } from '@lucia-auth/adapter-drizzle';
 import type { Cookies } from '@sveltejs/kit';
@@ -8,6 +13,7 @@ import { Lucia } from 'lucia';
 import { config } from './config';
 import { db } from './db';
 import { sessions, users } from './db/schema';
+import { hashToken, newToken } from './tokens';
 
 const adapter = new DrizzlePostgreSQLAdapter(db, sessions, users);
 
@@ -29,9 +35,16 @@ declare module 'lucia' {
 
 export type SessionUser = { id: string; email: string; name: string; activeStudioId: string | null };
 
+/** A new session; `token` goes to the cookie, `id` (its hash) is what the table holds. */
+export async function createSessionToken(userId: string): Promise<{ token: string; id: string }> {
+	const token = newToken();
+	const session = await lucia.createSession(userId, {}, { sessionId: hashToken(token) });
+	return { token, id: session.id };
+}
+
 export async function startSession(cookies: Cookies, userId: string) {
-	const session = await lucia.createSession(userId, {});
-	const cookie = lucia.createSessionCookie(session.id);
+	const { token } = await createSessionToken(userId);
+	const cookie = lucia.createSessionCookie(token);
 	cookies.set(cookie.name, cookie.value, { path: '/', ...cookie.attributes });
 }
 
@@ -47,13 +60,20 @@ export async function endAllSessions(cookies: Cookies, userId: string) {
 	cookies.set(blank.name, blank.value, { path: '/', ...blank.attributes });
 }
 
-/** Reads the cookie, validates and refreshes the session. */
+/** The longest cookie value looked up; ours are 43 characters. */
+const MAX_TOKEN_CHARS = 200;
+
+/**
+ * Reads the cookie, validates and refreshes the session. `session.id` is the hash, never the
+ * token; hashing first also means whatever the cookie holds (a NUL byte, 1 MB) never reaches a
+ * query as it is.
+ */
 export async function readSession(cookies: Cookies) {
-	const id = cookies.get(lucia.sessionCookieName);
-	if (!id) return { user: null, session: null };
-	const { session, user } = await lucia.validateSession(id);
+	const token = cookies.get(lucia.sessionCookieName);
+	if (!token) return { user: null, session: null };
+	const { session, user } = token.length > MAX_TOKEN_CHARS ? { session: null, user: null } : await lucia.validateSession(hashToken(token));
 	if (session?.fresh) {
-		const c = lucia.createSessionCookie(session.id);
+		const c = lucia.createSessionCookie(token);
 		cookies.set(c.name, c.value, { path: '/', ...c.attributes });
 	}
 	if (!session) {

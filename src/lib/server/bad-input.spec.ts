@@ -43,7 +43,7 @@ const forms: Form[] = [
 		session: () => undefined,
 		fields: { name: 'name', email: 'email', password: 'password' },
 		valid: () => ({ name: 'Ines Fitter', email: uniqueEmail('valid'), password: 'long-enough-1' }),
-		accepted: { status: 303, location: '/studios/new' }
+		accepted: { status: 303, location: '/check-mail' }
 	},
 	{
 		name: 'sign in',

@@ -7,6 +7,7 @@ import { error } from '@sveltejs/kit';
 import { and, eq } from 'drizzle-orm';
 import { z } from 'zod';
 import { reportFor, resolveScene } from '$lib/geometry';
+import { idField } from '$lib/schemas/common';
 import { orthographicViews, type DrawingRoom, type SheetDrawing } from '$lib/builds/orthographic';
 import { buildSheet, checklistKeys, type SheetModel } from '$lib/builds/sheet';
 import { formatMoney } from '$lib/components/client/money';
@@ -180,7 +181,7 @@ export async function loadSheet(locals: Locals, buildId: string, url: URL): Prom
 }
 
 export const tickSchema = z.object({
-	variantId: z.string().min(1, 'Required').max(120),
+	variantId: idField('Variant', 120),
 	key: z.string().min(1, 'Required').max(300),
 	ticked: z.enum(['1', '0'], { error: 'Must be 1 or 0' })
 });

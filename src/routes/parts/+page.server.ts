@@ -3,6 +3,7 @@ import { activeStudio, roleMay } from '$lib/server/access';
 import { partQueryOf } from '$lib/server/catalog/http';
 import { archivePart, duplicatePart, listParts, restorePart } from '$lib/server/catalog/parts';
 import { CATEGORIES } from '$lib/components/catalog/part-shape';
+import { idField } from '$lib/schemas/common';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals, url }) => {
@@ -27,9 +28,9 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 };
 
 async function withId(request: Request) {
-	const id = String((await request.formData()).get('id') ?? '');
-	if (!id) error(400, 'Which part?');
-	return id;
+	const id = idField('Part').safeParse((await request.formData()).get('id') ?? '');
+	if (!id.success) error(400, `Which part? ${id.error.issues[0].message}`);
+	return id.data;
 }
 
 export const actions: Actions = {

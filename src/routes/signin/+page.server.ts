@@ -1,5 +1,5 @@
 import { redirect } from '@sveltejs/kit';
-import { checkCredentials } from '$lib/server/accounts';
+import { checkCredentials, resendConfirmation } from '$lib/server/accounts';
 import { startSession } from '$lib/server/auth';
 import { formFail, parseForm } from '$lib/server/forms';
 import { enforce } from '$lib/server/limits';
@@ -9,7 +9,7 @@ import { signInSchema } from '$lib/schemas/account';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = ({ locals, url }) => {
-	if (locals.user) redirect(303, safeNext(url.searchParams.get('next')) ?? '/builds');
+	if (locals.user) redirect(303, safeNext(url.searchParams.get('next'), url.origin) ?? '/builds');
 	return { next: url.searchParams.get('next') ?? '', reset: url.searchParams.has('reset') };
 };
 
@@ -24,7 +24,12 @@ export const actions: Actions = {
 			// One answer for "no such e-mail" and "wrong password".
 			return formFail(400, { email: parsed.data.email }, { _: 'That e-mail and password do not match an account.' });
 		}
+		if (!user.emailVerifiedAt) {
+			// The right password, but the address was never confirmed: no session, a fresh link.
+			await resendConfirmation(user);
+			redirect(303, '/check-mail');
+		}
 		await startSession(event.cookies, user.id);
-		redirect(303, safeNext(parsed.raw.next) ?? '/builds');
+		redirect(303, safeNext(parsed.raw.next, event.url.origin) ?? '/builds');
 	}
 };

@@ -1,7 +1,7 @@
 import { redirect } from '@sveltejs/kit';
-import { RuleError, createUser } from '$lib/server/accounts';
+import { signUp } from '$lib/server/accounts';
 import { startSession } from '$lib/server/auth';
-import { formFail, parseForm } from '$lib/server/forms';
+import { parseForm } from '$lib/server/forms';
 import { enforce } from '$lib/server/limits';
 import { limits } from '$lib/server/rate-limit';
 import { signUpSchema } from '$lib/schemas/account';
@@ -9,7 +9,7 @@ import { safeNext } from '$lib/server/redirects';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = ({ locals, url }) => {
-	if (locals.user) redirect(303, safeNext(url.searchParams.get('next')) ?? '/builds');
+	if (locals.user) redirect(303, safeNext(url.searchParams.get('next'), url.origin) ?? '/builds');
 	return { next: url.searchParams.get('next') ?? '' };
 };
 
@@ -18,15 +18,14 @@ export const actions: Actions = {
 		await enforce(event, 'signup', limits.signUp);
 		const parsed = await parseForm(event.request, signUpSchema);
 		if (!parsed.ok) return parsed.failure;
-		try {
-			const userId = await createUser(parsed.data);
+		const next = safeNext(parsed.raw.next, event.url.origin);
+		const { userId } = await signUp({ ...parsed.data, next });
+		if (userId) {
+			// Signed up from an invitation mailed to this very address: the address is proven.
 			await startSession(event.cookies, userId);
-		} catch (e) {
-			if (e instanceof RuleError) {
-				return formFail(400, { name: parsed.data.name, email: parsed.data.email }, { [e.field]: e.message });
-			}
-			throw e;
+			redirect(303, next ?? '/studios/new');
 		}
-		redirect(303, safeNext(parsed.raw.next) ?? '/studios/new');
+		// The same answer for a new address and a known one: the mail says which it was.
+		redirect(303, '/check-mail');
 	}
 };

@@ -5,6 +5,7 @@
  */
 import { z } from 'zod';
 import { isCurrencyCode } from '../client/money';
+import { int4 } from '$lib/schemas/common';
 import {
 	COORD_LIMIT_MM,
 	enclosureDefSchema,
@@ -102,7 +103,7 @@ const wallKind = z.enum(['solid', 'mesh']);
 
 export const enclosureFormSchema = z.object({
 	/** The revision the form was loaded at; 0 for a new enclosure. */
-	revision: z.number().int().min(0).default(0),
+	revision: int4('Revision').default(0),
 	name: z.string().trim().min(1, 'Name is required').max(200, 'Name can be at most 200 characters'),
 	description: z.string().trim().max(2000, 'Description can be at most 2000 characters').default(''),
 	note: z.string().trim().max(500, 'Note can be at most 500 characters').default(''),
@@ -214,7 +215,7 @@ const optionalNumber = (label: string, max = 100_000) =>
 		.optional();
 
 export const partFormSchema = z.object({
-	revision: z.number().int().min(0).default(0),
+	revision: int4('Revision').default(0),
 	name: z.string().trim().min(1, 'Name is required').max(200, 'Name can be at most 200 characters'),
 	category: z.enum(
 		['board', 'cpu-block', 'gpu', 'pump', 'reservoir', 'pump-reservoir', 'radiator', 'fan', 'psu', 'fitting', 'drive', 'other'],

@@ -8,6 +8,7 @@ import { and, eq, inArray } from 'drizzle-orm';
 import type { PartDef, PartSpecs } from '$lib/geometry';
 import { bodySizeMm, isOneBox, oneBody } from '$lib/components/catalog/part-shape';
 import { checkPart } from '$lib/components/catalog/schemas';
+import { toCsv } from '$lib/csv';
 import { db } from '../db';
 import { parts } from '../db/schema';
 import { insertPart, updatePart, type PartRecord } from './parts';
@@ -95,12 +96,9 @@ export function partToCsvRow(p: PartRecord): Record<Column, string> {
 	return row;
 }
 
-/** Cells that start with = + - @ are quoted with a leading apostrophe, so spreadsheets never run them. */
+/** Through the one CSV writer, which neutralises cells a spreadsheet would run as formulas. */
 export function partsToCsv(records: PartRecord[]): string {
-	return Papa.unparse(
-		{ fields: [...CSV_COLUMNS], data: records.map((r) => CSV_COLUMNS.map((c) => partToCsvRow(r)[c])) },
-		{ escapeFormulae: true, newline: '\r\n' }
-	);
+	return toCsv(CSV_COLUMNS, records.map((r) => CSV_COLUMNS.map((c) => partToCsvRow(r)[c])));
 }
 
 /* ---------- import ---------- */

@@ -7,7 +7,9 @@ import { setError, superValidate, type SuperValidated } from 'sveltekit-superfor
 import { zod4 } from 'sveltekit-superforms/adapters';
 import type { FieldIssue } from '$lib/geometry';
 import { enclosureFormSchema, enclosureToForm, formFieldFor, formToEnclosure, type EnclosureForm } from '$lib/components/catalog/schemas';
+import { INT4_MAX } from '$lib/schemas/common';
 import type { StudioAccess } from '../access';
+import { controlCharField } from '../boundary';
 import { createEnclosure, updateEnclosure, type EnclosureDetail } from './enclosures';
 
 export const enclosureAdapter = zod4(enclosureFormSchema);
@@ -41,6 +43,12 @@ export async function saveEnclosureForm(request: Request, access: StudioAccess, 
 	const data = await request.formData();
 	const overwrite = Number(data.get('overwriteRevision'));
 	const form = await superValidate(data, enclosureAdapter);
+	const bad = controlCharField(data);
+	if (bad) {
+		if (bad in form.data) setError(form, bad as keyof EnclosureForm, 'Contains control characters.');
+		else setError(form, '', `${bad} contains control characters.`);
+		return refuse(400, form);
+	}
 	if (!form.valid) return refuse(400, form);
 	const { raw, featuresError } = formToEnclosure(form.data);
 	if (featuresError) {
@@ -54,7 +62,7 @@ export async function saveEnclosureForm(request: Request, access: StudioAccess, 
 		redirect(303, `/enclosures/${made.value.id}?saved=1`);
 	}
 	// "Save mine over theirs" after a conflict names the newer revision the user has now seen.
-	const revision = Number.isInteger(overwrite) && overwrite > 0 ? overwrite : form.data.revision;
+	const revision = Number.isInteger(overwrite) && overwrite > 0 && overwrite <= INT4_MAX ? overwrite : form.data.revision;
 	const saved = await updateEnclosure(access.studioId, id, revision, access.user.id, input);
 	if (saved.ok) redirect(303, `/enclosures/${id}?saved=${saved.created ? 'version' : '1'}`);
 	if (saved.status === 400) return placeIssues(form, saved.issues);

@@ -5,7 +5,9 @@
 import { error, json } from '@sveltejs/kit';
 import type { FieldIssue, PartCategory } from '$lib/geometry';
 import { partCategorySchema } from '$lib/geometry';
+import { INT4_MAX } from '$lib/schemas/common';
 import { activeStudio, requireStudio, type Action } from '../access';
+import { controlCharPath } from '../boundary';
 import { PART_SORTS, type PartQuery, type PartSort, type WriteResult } from './parts';
 
 type Event = { locals: App.Locals; url: URL };
@@ -23,11 +25,16 @@ export async function readJson(request: Request): Promise<Record<string, unknown
 	if (length > MAX_JSON_BYTES) error(413, 'The request body is larger than 1 MB.');
 	const text = await request.text();
 	if (text.length > MAX_JSON_BYTES) error(413, 'The request body is larger than 1 MB.');
+	let value: unknown;
 	try {
-		const value = JSON.parse(text) as unknown;
-		if (value && typeof value === 'object' && !Array.isArray(value)) return value as Record<string, unknown>;
+		value = JSON.parse(text);
 	} catch {
 		/* answered below */
+	}
+	if (value && typeof value === 'object' && !Array.isArray(value)) {
+		const bad = controlCharPath(value);
+		if (bad) error(400, `The request body has control characters in ${bad}.`);
+		return value as Record<string, unknown>;
 	}
 	error(400, 'The body must be a JSON object.');
 }
@@ -46,9 +53,11 @@ export function answer<T>(result: WriteResult<T>, okStatus = 200, key = 'value')
 
 export function revisionOf(body: Record<string, unknown>): number {
 	const r = body.revision;
-	if (typeof r !== 'number' || !Number.isInteger(r) || r < 0) error(400, 'Send the revision you loaded (a whole number) so a conflicting save can be detected.');
+	if (typeof r !== 'number' || !Number.isInteger(r) || r < 0 || r > INT4_MAX) error(400, 'Send the revision you loaded (a whole number) so a conflicting save can be detected.');
 	return r;
 }
+
+const MAX_PAGE = 1_000_000;
 
 /** The catalogue table's state from a query string, each value checked. */
 export function partQueryOf(params: URLSearchParams): PartQuery {
@@ -62,7 +71,8 @@ export function partQueryOf(params: URLSearchParams): PartQuery {
 		archived: params.get('archived') === '1',
 		sort: (PART_SORTS as readonly string[]).includes(sort ?? '') ? (sort as PartSort) : 'name',
 		dir: params.get('dir') === 'desc' ? 'desc' : 'asc',
-		page: Math.max(1, Math.floor(Number(params.get('page')) || 1)),
+		// Capped so the row offset stays far inside PostgreSQL's bigint; past the last page is empty anyway.
+		page: Math.min(MAX_PAGE, Math.max(1, Math.floor(Number(params.get('page')) || 1))),
 		pageSize: [10, 25, 50, 100].includes(Number(params.get('size'))) ? Number(params.get('size')) : 25
 	};
 }

@@ -8,7 +8,9 @@ import { zod4 } from 'sveltekit-superforms/adapters';
 import type { FieldIssue } from '$lib/geometry';
 import { formToPart, partFieldFor, partToForm } from '$lib/components/catalog/part-form';
 import { partFormSchema, type PartForm } from '$lib/components/catalog/schemas';
+import { INT4_MAX } from '$lib/schemas/common';
 import type { StudioAccess } from '../access';
+import { controlCharField } from '../boundary';
 import { createPart, updatePart, type PartRecord } from './parts';
 
 export const partAdapter = zod4(partFormSchema);
@@ -40,6 +42,12 @@ export async function savePartForm(request: Request, access: StudioAccess, id?: 
 	const data = await request.formData();
 	const overwrite = Number(data.get('overwriteRevision'));
 	const form = await superValidate(data, partAdapter);
+	const bad = controlCharField(data);
+	if (bad) {
+		if (bad in form.data) setError(form, bad as keyof PartForm, 'Contains control characters.');
+		else setError(form, '', `${bad} contains control characters.`);
+		return refuse(400, form);
+	}
 	if (!form.valid) return refuse(400, form);
 	const { input, errors } = formToPart(form.data);
 	if (!input) {
@@ -51,7 +59,7 @@ export async function savePartForm(request: Request, access: StudioAccess, id?: 
 		if (!made.ok) return made.status === 400 ? placeIssues(form, made.issues) : refuse(made.status, form);
 		redirect(303, `/parts/${made.value.id}?saved=1`);
 	}
-	const revision = Number.isInteger(overwrite) && overwrite > 0 ? overwrite : form.data.revision;
+	const revision = Number.isInteger(overwrite) && overwrite > 0 && overwrite <= INT4_MAX ? overwrite : form.data.revision;
 	const saved = await updatePart(access.studioId, id, revision, input);
 	if (saved.ok) redirect(303, `/parts/${id}?saved=1`);
 	if (saved.status === 400) return placeIssues(form, saved.issues);

@@ -1,8 +1,10 @@
 import { sql } from 'drizzle-orm';
 import {
+	bigserial,
 	check,
 	index,
 	integer,
+	jsonb,
 	pgEnum,
 	pgTable,
 	primaryKey,
@@ -24,6 +26,8 @@ export const users = pgTable(
 		name: text('name').notNull(),
 		passwordHash: text('password_hash').notNull(),
 		activeStudioId: text('active_studio_id'),
+		/** When the owner of the address proved it (a mailed link, an accepted invitation); null until then. */
+		emailVerifiedAt: ts('email_verified_at'),
 		createdAt: ts('created_at').notNull().defaultNow()
 	},
 	(t) => [uniqueIndex('user_email_key').on(t.email)]
@@ -32,6 +36,7 @@ export const users = pgTable(
 export const sessions = pgTable(
 	'session',
 	{
+		/** SHA-256 (hex) of the token in the cookie; the token itself is never stored. */
 		id: text('id').primaryKey(),
 		userId: text('user_id')
 			.notNull()
@@ -94,6 +99,53 @@ export const passwordResets = pgTable(
 		createdAt: ts('created_at').notNull().defaultNow()
 	},
 	(t) => [index('password_reset_user_idx').on(t.userId)]
+);
+
+/**
+ * A mailed link that confirms a new account's address. It carries what that sign-up chose (name,
+ * password hash, where to go next), so confirming applies the credentials of the sign-up whose
+ * mail was opened, not of whoever signed up with the address first.
+ */
+export const emailVerifications = pgTable(
+	'email_verification',
+	{
+		tokenHash: text('token_hash').primaryKey(),
+		userId: text('user_id')
+			.notNull()
+			.references(() => users.id, { onDelete: 'cascade' }),
+		name: text('name').notNull(),
+		passwordHash: text('password_hash').notNull(),
+		next: text('next'),
+		expiresAt: ts('expires_at').notNull(),
+		usedAt: ts('used_at'),
+		createdAt: ts('created_at').notNull().defaultNow()
+	},
+	(t) => [index('email_verification_user_idx').on(t.userId)]
+);
+
+/**
+ * Account mail waiting to be sent, drained in the background after the response. The request only
+ * adds a row, whatever the address, so neither the answer nor its timing says whether the address
+ * has an account; the drainer looks the address up and decides what (if anything) to send.
+ */
+export const mailOutbox = pgTable(
+	'mail_outbox',
+	{
+		id: bigserial('id', { mode: 'number' }).primaryKey(),
+		kind: text('kind', { enum: ['password-reset', 'sign-up'] }).notNull(),
+		recipient: text('recipient').notNull(),
+		/** What the job needs (for a sign-up: name, password hash, next); emptied once done. */
+		payload: jsonb('payload').notNull().default({}),
+		attempts: integer('attempts').notNull().default(0),
+		lastError: text('last_error'),
+		notBefore: ts('not_before').notNull().defaultNow(),
+		doneAt: ts('done_at'),
+		createdAt: ts('created_at').notNull().defaultNow()
+	},
+	(t) => [
+		index('mail_outbox_pending_idx').on(t.notBefore).where(sql`${t.doneAt} is null`),
+		check('mail_outbox_kind', sql`${t.kind} in ('password-reset', 'sign-up')`)
+	]
 );
 
 /** Fixed-window counters. Kept in PostgreSQL so limits hold across restarts and processes. */

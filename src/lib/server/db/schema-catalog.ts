@@ -4,11 +4,11 @@ import {
 	integer,
 	jsonb,
 	pgTable,
-	real,
 	text,
 	timestamp,
 	uniqueIndex
 } from 'drizzle-orm/pg-core';
+import { float4 } from './columns';
 import { studios, users } from './schema-auth';
 
 const ts = (name: string) => timestamp(name, { withTimezone: true, mode: 'date' });
@@ -24,7 +24,7 @@ export const enclosures = pgTable(
 		name: text('name').notNull(),
 		description: text('description').notNull().default(''),
 		/** Litres of inner volume of the current version, for search and sorting. */
-		volumeLitres: real('volume_litres').notNull(),
+		volumeLitres: float4('volume_litres').notNull(),
 		currentVersion: integer('current_version').notNull().default(1),
 		/** Bumped on every save; a save that names an older revision is a conflict. */
 		revision: integer('revision').notNull().default(1),
@@ -45,7 +45,7 @@ export const enclosureVersions = pgTable(
 		version: integer('version').notNull(),
 		/** The engine's EnclosureDef, validated with its zod schema before every write. */
 		definition: jsonb('definition').notNull(),
-		volumeLitres: real('volume_litres').notNull(),
+		volumeLitres: float4('volume_litres').notNull(),
 		/** What changed in this version, in the user's words or generated from the diff. */
 		note: text('note').notNull().default(''),
 		createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
@@ -65,14 +65,14 @@ export const parts = pgTable(
 		/** The engine's PartDef (bodies, keep-outs, ports, specs). */
 		definition: jsonb('definition').notNull(),
 		/** Bounding size of the bodies, millimetres, for sorting and search. */
-		widthMm: real('width_mm').notNull(),
-		heightMm: real('height_mm').notNull(),
-		depthMm: real('depth_mm').notNull(),
+		widthMm: float4('width_mm').notNull(),
+		heightMm: float4('height_mm').notNull(),
+		depthMm: float4('depth_mm').notNull(),
 		priceMinor: integer('price_minor'),
 		currency: text('currency').notNull().default('EUR'),
 		supplierNote: text('supplier_note').notNull().default(''),
 		provenance: text('provenance').notNull(),
-		toleranceMm: real('tolerance_mm').notNull().default(0),
+		toleranceMm: float4('tolerance_mm').notNull().default(0),
 		/** Where a standard part's numbers come from (document name). */
 		source: text('source').notNull().default(''),
 		isStandard: boolean('is_standard').notNull().default(false),

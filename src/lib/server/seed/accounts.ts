@@ -18,7 +18,7 @@ export async function seedAccounts() {
 	for (const u of DEMO_USERS) {
 		await db
 			.insert(users)
-			.values({ id: u.id, email: u.email, name: u.name, passwordHash, activeStudioId: DEMO_STUDIO.id })
+			.values({ id: u.id, email: u.email, name: u.name, passwordHash, activeStudioId: DEMO_STUDIO.id, emailVerifiedAt: new Date() })
 			.onConflictDoNothing();
 		const [m] = await db
 			.select()

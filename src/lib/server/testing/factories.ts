@@ -5,7 +5,7 @@
  */
 import { randomBytes } from 'node:crypto';
 import { and, count, eq, like, or, sql } from 'drizzle-orm';
-import { lucia } from '../auth';
+import { createSessionToken } from '../auth';
 import { db } from '../db';
 import { invites, memberships, passwordResets, rateLimits, sessions, studios, users, type Role } from '../db/schema';
 import { hashPassword } from '../passwords';
@@ -26,14 +26,15 @@ export function uniqueEmail(label = 'user'): string {
 
 export type TestUser = { id: string; email: string; name: string; password: string };
 
-export async function createUser(opts: { name?: string; email?: string; password?: string; activeStudioId?: string | null } = {}): Promise<TestUser> {
+/** A verified account (as if its owner had opened the confirmation mail), unless `verified: false`. */
+export async function createUser(opts: { name?: string; email?: string; password?: string; activeStudioId?: string | null; verified?: boolean } = {}): Promise<TestUser> {
 	testDatabaseUrl();
 	const password = opts.password ?? TEST_PASSWORD;
 	// One argon2 hash per process for the shared password (~50 ms each).
 	const passwordHash = opts.password ? await hashPassword(password) : await (defaultHash ??= hashPassword(TEST_PASSWORD));
 	const email = (opts.email ?? uniqueEmail()).toLowerCase();
 	const user = { id: newId(), email, name: opts.name ?? `Tester ${randomBytes(3).toString('hex')}`, password };
-	await db.insert(users).values({ id: user.id, email, name: user.name, passwordHash, activeStudioId: opts.activeStudioId ?? null });
+	await db.insert(users).values({ id: user.id, email, name: user.name, passwordHash, activeStudioId: opts.activeStudioId ?? null, emailVerifiedAt: opts.verified === false ? null : new Date() });
 	return user;
 }
 
@@ -51,10 +52,12 @@ export async function addMember(studioId: string, userId: string, role: Role) {
 	await db.update(users).set({ activeStudioId: studioId }).where(eq(users.id, userId));
 }
 
-/** A real session (the same library call sign-in makes); give its id to `Client.useSession`. */
+/**
+ * A real session (the same call sign-in makes); give the token it returns (what the cookie
+ * carries, not the stored hash) to `Client.useSession`.
+ */
 export async function createSession(userId: string): Promise<string> {
-	const session = await lucia.createSession(userId, {});
-	return session.id;
+	return (await createSessionToken(userId)).token;
 }
 
 /** A user with a session, member of `studioId` in `role`, working in it. */

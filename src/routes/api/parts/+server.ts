@@ -1,8 +1,11 @@
 import { json } from '@sveltejs/kit';
 import { partCategorySchema } from '$lib/geometry';
-import { answer, catalogAccess, partQueryOf, readJson } from '$lib/server/catalog/http';
+import { answer, catalogAccess, partQueryOf, problem, readJson } from '$lib/server/catalog/http';
 import { createPart, getPartsByIds, listParts, listPartsForStudio } from '$lib/server/catalog/parts';
 import type { RequestHandler } from './$types';
+
+/** A build places a few dozen parts; the editor asks for all of them in one call. */
+const MAX_IDS = 500;
 
 /**
  * `?ids=a,b` → those parts (archived and standard included, for builds that place them);
@@ -14,14 +17,18 @@ export const GET: RequestHandler = async (event) => {
 	const params = event.url.searchParams;
 	const ids = params.get('ids');
 	if (ids !== null) {
-		return json({ parts: await getPartsByIds(access.studioId, ids.split(',').filter(Boolean)) });
+		const list = ids.split(',').filter(Boolean);
+		if (list.length > MAX_IDS || list.some((id) => id.length > 64)) {
+			return problem(400, `ids: at most ${MAX_IDS} ids of at most 64 characters each.`, [{ path: 'ids', message: 'Too many or too long' }]);
+		}
+		return json({ parts: await getPartsByIds(access.studioId, list) });
 	}
 	if (params.get('search') === '1') {
 		const category = partCategorySchema.safeParse(params.get('category'));
 		const parts = await listPartsForStudio(access.studioId, {
 			q: (params.get('q') ?? '').slice(0, 200),
 			category: category.success ? category.data : undefined,
-			limit: Number(params.get('limit')) || 50
+			limit: Math.min(100, Math.max(1, Math.floor(Number(params.get('limit')) || 50)))
 		});
 		return json({ parts });
 	}

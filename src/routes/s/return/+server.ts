@@ -2,6 +2,7 @@ import { redirect } from '@sveltejs/kit';
 import { confirmReturn } from '$lib/server/payments';
 import { RETURN_COOKIE } from '$lib/server/sharing/client-actions';
 import { notifyDepositPaid } from '$lib/server/sharing/notify';
+import { safeNext } from '$lib/server/redirects';
 import type { RequestHandler } from './$types';
 
 /** Only our own client pages, so the cookie can never send anyone elsewhere. */
@@ -13,7 +14,8 @@ const PAGE = /^\/s\/([A-Za-z0-9_-]{43}|v\/[A-Za-z0-9_-]{1,64})$/;
  */
 export const GET: RequestHandler = async ({ url, cookies }) => {
 	const back = cookies.get(RETURN_COOKIE);
-	const page = back && PAGE.test(back) ? back : null;
+	const safe = safeNext(back, url.origin);
+	const page = safe && PAGE.test(safe) ? safe : null;
 	const sessionId = url.searchParams.get('session_id');
 	let outcome = url.searchParams.has('cancelled') ? 'cancelled' : 'pending';
 	if (sessionId) {

@@ -1,6 +1,6 @@
 import { fail } from '@sveltejs/kit';
 import { z } from 'zod';
-import { line } from '$lib/schemas/common';
+import { idField, line } from '$lib/schemas/common';
 import { requireBuild } from '$lib/server/access';
 import { parseForm } from '$lib/server/forms';
 import { MAX_PHOTO_BYTES, PhotoRejected, addPhoto, deletePhoto, photosOf, setCaption } from '$lib/server/sharing/photos';
@@ -38,14 +38,14 @@ export const actions: Actions = {
 	},
 	delete: async (event) => {
 		const { build } = await requireBuild(event.locals, event.params.id, 'build.photos', event.url);
-		const parsed = await parseForm(event.request, z.object({ photoId: z.string().min(1).max(64) }));
+		const parsed = await parseForm(event.request, z.object({ photoId: idField('Photo') }));
 		if (!parsed.ok) return parsed.failure;
 		if (!(await deletePhoto(build.id, parsed.data.photoId))) return fail(404, { errors: { photoId: 'That photo is already gone.' }, values: {} });
 		return { deleted: true };
 	},
 	caption: async (event) => {
 		const { build } = await requireBuild(event.locals, event.params.id, 'build.photos', event.url);
-		const parsed = await parseForm(event.request, z.object({ photoId: z.string().min(1).max(64), caption }));
+		const parsed = await parseForm(event.request, z.object({ photoId: idField('Photo'), caption }));
 		if (!parsed.ok) return parsed.failure;
 		if (!(await setCaption(build.id, parsed.data.photoId, parsed.data.caption))) return fail(404, { errors: { photoId: 'That photo is gone.' }, values: {} });
 		return { captioned: true };

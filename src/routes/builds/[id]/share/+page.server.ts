@@ -2,6 +2,7 @@ import { error, fail } from '@sveltejs/kit';
 import { and, eq, isNull, or, gt, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import { commentForm, EXPIRY_CHOICES, shareForm } from '$lib/components/client/forms';
+import { idField } from '$lib/schemas/common';
 import { requireBuild } from '$lib/server/access';
 import { loadVariant, variantsOf } from '$lib/server/builds';
 import { db } from '$lib/server/db';
@@ -53,7 +54,7 @@ export const load: PageServerLoad = async ({ locals, params, url }) => {
 	};
 };
 
-const revokeForm = z.object({ linkId: z.string().min(1).max(64) });
+const revokeForm = z.object({ linkId: idField('Link') });
 const studioCommentForm = z.object({ body: commentForm.shape.body, variantId: z.string().min(1).max(64), part: z.string().max(120).default('') });
 
 export const actions: Actions = {

@@ -1,5 +1,6 @@
 import { error, json } from '@sveltejs/kit';
 import { z } from 'zod';
+import { int4 } from '$lib/schemas/common';
 import { checkScene } from '$lib/geometry';
 import { variantSettingsSchema } from '$lib/builds/settings';
 import { requireBuild } from '$lib/server/access';
@@ -14,7 +15,8 @@ export const GET: RequestHandler = async (event) => {
 	return json({ version: variant.version, settings: variantSettingsSchema.parse(variant.settings), updatedAt: variant.updatedAt });
 };
 
-const body = z.object({ version: z.number().int().min(1), settings: z.unknown() });
+// The version column is a PostgreSQL integer: 2³¹ or more used to overflow it (a 500).
+const body = z.object({ version: int4('version', 1), settings: z.unknown() });
 
 /** Autosave. 409 with the stored scene when someone saved since `version`; nothing is lost. */
 export const PUT: RequestHandler = async (event) => {
