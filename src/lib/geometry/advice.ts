@@ -36,13 +36,16 @@ interface Mover {
 	id: string;
 	/** Box indexes that move together. */
 	boxes: number[];
-	contacts: Contact[];
+	/** Per axis: the pairs that can meet moving along it. */
+	contacts: [Contact[], Contact[], Contact[]];
 	/** For a part: how far its bodies reach past the inner box now, per axis, low and high side. */
 	past?: number[];
 	def?: DividerDef | BracketDef;
 	current?: number;
 	/** For a control: its allowed offsets, ascending. */
 	offsets?: number[];
+	/** blockedIntervals per axis and direction (slot 2 × axis + 1 for +), found once. */
+	blocked: ([number, number][] | undefined)[];
 }
 
 /** Caches per report: a mover's contacts are found once however many of its problems are advised. */
@@ -54,32 +57,42 @@ export function adviceCache(): AdviceCache {
 	return { movers: new Map() };
 }
 
-function axisOverlap(f: Float64Array, i: number, j: number, a: number): number {
-	return Math.min(f[i * 6 + 3 + a], f[j * 6 + 3 + a]) - Math.max(f[i * 6 + a], f[j * 6 + a]);
-}
-
 /** Every pair of a moving box and another box that share area seen along some axis and have a meaning. */
-function contactsOf(model: Model, boxes: readonly number[], axes: readonly AxisIndex[]): Contact[] {
+function contactsOf(model: Model, boxes: readonly number[], only: -1 | AxisIndex, ownerOf: number): [Contact[], Contact[], Contact[]] {
 	const f = model.flat;
-	const own = new Set(boxes);
-	const out: Contact[] = [];
+	const owner = model.owner;
+	const out: [Contact[], Contact[], Contact[]] = [[], [], []];
 	const n = model.boxes.length;
+	const single = boxes.length === 1 ? boxes[0] : -1;
 	for (const m of boxes) {
+		const mo = m * 6;
+		const mx0 = f[mo];
+		const my0 = f[mo + 1];
+		const mz0 = f[mo + 2];
+		const mx1 = f[mo + 3];
+		const my1 = f[mo + 4];
+		const mz1 = f[mo + 5];
 		for (let o = 0; o < n; o++) {
-			if (own.has(o)) continue;
-			const dx = axisOverlap(f, m, o, 0);
-			const dy = axisOverlap(f, m, o, 1);
+			// The mover's own boxes: a part's by owner, a control's is the one box.
+			if (ownerOf >= 0 ? owner[o] === ownerOf : o === single) continue;
+			const oo = o * 6;
+			const dx = Math.min(mx1, f[oo + 3]) - Math.max(mx0, f[oo]);
+			const dy = Math.min(my1, f[oo + 4]) - Math.max(my0, f[oo + 1]);
 			if (!(dx > EPSILON_MM) && !(dy > EPSILON_MM)) continue;
-			const dz = axisOverlap(f, m, o, 2);
-			let kind: OverlapKind | null | undefined;
-			for (const a of axes) {
-				// Seen along a, the boxes share area when they overlap on the other two axes.
-				const [d, u, v] = a === 0 ? [dx, dy, dz] : a === 1 ? [dy, dx, dz] : [dz, dx, dy];
-				if (!(u > EPSILON_MM && v > EPSILON_MM)) continue;
-				if (kind === undefined) kind = pairKind(model.boxes[m], model.boxes[o]);
-				if (!kind) break;
-				out.push({ m, o, axis: a, kind, depth0: d > EPSILON_MM ? d : 0 });
-			}
+			const dz = Math.min(mz1, f[oo + 5]) - Math.max(mz0, f[oo + 2]);
+			// Seen along an axis, the boxes share area when they overlap on the other two.
+			const ox = dx > EPSILON_MM;
+			const oy = dy > EPSILON_MM;
+			const oz = dz > EPSILON_MM;
+			const alongX = oy && oz && (only < 0 || only === 0);
+			const alongY = ox && oz && (only < 0 || only === 1);
+			const alongZ = ox && oy && (only < 0 || only === 2);
+			if (!alongX && !alongY && !alongZ) continue;
+			const kind = pairKind(model.boxes[m], model.boxes[o]);
+			if (!kind) continue;
+			if (alongX) out[0].push({ m, o, axis: 0, kind, depth0: ox ? dx : 0 });
+			if (alongY) out[1].push({ m, o, axis: 1, kind, depth0: oy ? dy : 0 });
+			if (alongZ) out[2].push({ m, o, axis: 2, kind, depth0: oz ? dz : 0 });
 		}
 	}
 	return out;
@@ -108,7 +121,7 @@ function moverOf(model: Model, cache: AdviceCache, i: number): Mover | null {
 		for (let a = 0; a < 3; a++) {
 			past.push(Math.max(0, inner.min[a] - rp.bounds.min[a]), Math.max(0, rp.bounds.max[a] - inner.max[a]));
 		}
-		mover = { kind: 'part', id: rp.placement.id, boxes, contacts: contactsOf(model, boxes, [0, 1, 2]), past };
+		mover = { kind: 'part', id: rp.placement.id, boxes, contacts: contactsOf(model, boxes, -1, p), past, blocked: [] };
 	} else if (box.kind === 'divider' || box.kind === 'bracket') {
 		const def = controlDef(model, box.kind, box.ownerId);
 		if (!def) return null;
@@ -116,52 +129,78 @@ function moverOf(model: Model, cache: AdviceCache, i: number): Mover | null {
 		const offsets = allowedPositions(def)
 			.map((q) => q.offsetMm)
 			.sort((x, y) => x - y);
-		mover = { kind: box.kind, id: def.id, boxes: [i], contacts: contactsOf(model, [i], [axisIndex(def.axis)]), def, current, offsets };
+		mover = { kind: box.kind, id: def.id, boxes: [i], contacts: contactsOf(model, [i], axisIndex(def.axis), -1), def, current, offsets, blocked: [] };
 	}
 	if (mover) cache.movers.set(key, mover);
 	return mover;
 }
 
 /**
- * Whether moving the mover by t (signed mm along a) clears the pair (mt, ot) and passes every
- * check: no collision or block it does not have now, none deeper than now, a part no further
- * past the inside than now.
+ * The distances d > 0 (in direction s along a) at which the mover would be worse off against the
+ * boxes it meets, as open intervals (lo, hi), sorted by lo: a box it does not overlap now is met
+ * from where their faces touch until it has passed it; one it overlaps now is deeper while the
+ * overlap is still growing (when the moving box trails it) and until it is back to its present
+ * depth. Warnings never stop a move.
  */
-function passes(model: Model, mover: Mover, a: AxisIndex, t: number, mt: number, ot: number): boolean {
+function blockedIntervals(model: Model, mover: Mover, a: AxisIndex, s: 1 | -1): [number, number][] {
+	const slot = 2 * a + (s > 0 ? 1 : 0);
+	const cached = mover.blocked[slot];
+	if (cached) return cached;
 	const f = model.flat;
-	if (Math.min(f[mt * 6 + 3 + a] + t, f[ot * 6 + 3 + a]) - Math.max(f[mt * 6 + a] + t, f[ot * 6 + a]) > EPSILON_MM) return false;
-	for (const c of mover.contacts) {
-		if (c.axis !== a || c.kind === 'warning') continue;
-		const d = Math.min(f[c.m * 6 + 3 + a] + t, f[c.o * 6 + 3 + a]) - Math.max(f[c.m * 6 + a] + t, f[c.o * 6 + a]);
-		if (d > EPSILON_MM && (c.depth0 === 0 || d > c.depth0 + EPSILON_MM)) return false;
+	const out: [number, number][] = [];
+	for (const c of mover.contacts[a]) {
+		if (c.kind === 'warning') continue;
+		const m0 = f[c.m * 6 + a];
+		const m1 = f[c.m * 6 + 3 + a];
+		const o0 = f[c.o * 6 + a];
+		const o1 = f[c.o * 6 + 3 + a];
+		const past = s > 0 ? o1 - m0 : m1 - o0;
+		if (c.depth0 === 0) {
+			const enter = s > 0 ? o0 - m1 : m0 - o1;
+			if (past > 0) out.push([enter, past]);
+		} else {
+			const trailing = s > 0 ? m0 < o0 - EPSILON_MM && m1 < o1 - EPSILON_MM : m1 > o1 + EPSILON_MM && m0 > o0 + EPSILON_MM;
+			if (trailing) out.push([0, past - c.depth0]);
+		}
 	}
-	if (mover.past) {
-		const rp = model.resolved.placements[model.owner[mover.boxes[0]]];
-		const inner = model.resolved.innerBox;
-		if (inner.min[a] - (rp.bounds.min[a] + t) > mover.past[2 * a] + EPSILON_MM) return false;
-		if (rp.bounds.max[a] + t - inner.max[a] > mover.past[2 * a + 1] + EPSILON_MM) return false;
+	out.sort((x, y) => x[0] - y[0]);
+	mover.blocked[slot] = out;
+	return out;
+}
+
+/** The first d ≥ from outside every open interval (lo, hi) of `blocked`, sorted by lo. */
+function firstFree(blocked: readonly [number, number][], from: number): number {
+	let d = from;
+	for (const [lo, hi] of blocked) {
+		if (lo + EPSILON_MM >= d) break;
+		if (hi - EPSILON_MM > d) d = hi;
 	}
-	return true;
+	return d;
+}
+
+/** Whether d lies inside one of the open intervals. */
+function isBlocked(blocked: readonly [number, number][], d: number): boolean {
+	for (const [lo, hi] of blocked) {
+		if (lo + EPSILON_MM >= d) return false;
+		if (hi - EPSILON_MM > d) return true;
+	}
+	return false;
+}
+
+/** Distance to clear the pair (mt, ot) moving mt in direction s along a. */
+function clearDistance(f: Float64Array, a: AxisIndex, s: 1 | -1, mt: number, ot: number): number {
+	return s > 0 ? f[ot * 6 + 3 + a] - f[mt * 6 + a] : f[mt * 6 + 3 + a] - f[ot * 6 + a];
 }
 
 /** Smallest passing move of a part along a in direction s, or null. */
 function partMove(model: Model, mover: Mover, a: AxisIndex, s: 1 | -1, mt: number, ot: number): ClearingMove | null {
-	const f = model.flat;
-	const clear = s > 0 ? f[ot * 6 + 3 + a] - f[mt * 6 + a] : f[mt * 6 + 3 + a] - f[ot * 6 + a];
-	const stops = [clear];
-	for (const c of mover.contacts) {
-		if (c.axis !== a || c.kind === 'warning') continue;
-		const past = s > 0 ? f[c.o * 6 + 3 + a] - f[c.m * 6 + a] : f[c.m * 6 + 3 + a] - f[c.o * 6 + a];
-		if (past > clear) stops.push(past);
-		if (c.depth0 > 0 && past - c.depth0 > clear) stops.push(past - c.depth0);
-	}
-	stops.sort((x, y) => x - y);
-	for (const d of stops) {
-		if (passes(model, mover, a, s * d, mt, ot)) {
-			return { targetId: mover.id, targetKind: 'part', axis: AXES[a], sign: s, distanceMm: d };
-		}
-	}
-	return null;
+	const d = firstFree(blockedIntervals(model, mover, a, s), clearDistance(model.flat, a, s, mt, ot));
+	// No further past the inside than the part is now.
+	const bounds = model.resolved.placements[model.owner[mover.boxes[0]]].bounds;
+	const inner = model.resolved.innerBox;
+	const limit = s > 0 ? inner.max[a] + mover.past![2 * a + 1] - bounds.max[a] : bounds.min[a] - inner.min[a] + mover.past![2 * a];
+	if (d > limit + EPSILON_MM) return null;
+	return { targetId: mover.id, targetKind: 'part', axis: AXES[a], sign: s, distanceMm: d };
 }
 
 /** The nearest allowed position of a divider or bracket in direction s that passes, or null. */
@@ -171,11 +210,12 @@ function controlMove(model: Model, mover: Mover, s: 1 | -1, mt: number, ot: numb
 	const offsets = mover.offsets!;
 	const current = mover.current!;
 	const here = offsets.findIndex((p) => Math.abs(p - current) <= EPSILON_MM);
+	const clear = clearDistance(model.flat, a, s, mt, ot);
+	const blocked = blockedIntervals(model, mover, a, s);
 	for (let k = here + s; k >= 0 && k < offsets.length; k += s) {
-		const t = offsets[k] - current;
-		if (passes(model, mover, a, t, mt, ot)) {
-			return { targetId: def.id, targetKind: mover.kind as 'divider' | 'bracket', axis: def.axis, sign: s, distanceMm: Math.abs(t), steps: Math.abs(k - here), toOffsetMm: offsets[k] };
-		}
+		const d = Math.abs(offsets[k] - current);
+		if (d < clear - EPSILON_MM || isBlocked(blocked, d)) continue;
+		return { targetId: def.id, targetKind: mover.kind as 'divider' | 'bracket', axis: def.axis, sign: s, distanceMm: d, steps: Math.abs(k - here), toOffsetMm: offsets[k] };
 	}
 	return null;
 }
