@@ -275,7 +275,7 @@ function noMoveText(model: Model, movers: Mover[], a: AxisIndex): string {
 	return `No move along ${AXIS_WORDS[a]} or any other single axis clears this without running into something else.`;
 }
 
-/** Room along a between the nearest fixed boxes (walls, dividers, brackets, plates) on either side of `bounds`. */
+/** Room along a between the nearest fixed boxes (walls, dividers, brackets, plates) wholly on either side of the centre of `bounds`. */
 function roomAlong(model: Model, bounds: { min: number[]; max: number[] }, a: AxisIndex, placementId: string): number {
 	const f = model.flat;
 	const inner = model.resolved.innerBox;
@@ -290,9 +290,10 @@ function roomAlong(model: Model, bounds: { min: number[]; max: number[] }, a: Ax
 			if (k !== a && Math.min(f[i * 6 + 3 + k], bounds.max[k]) - Math.max(f[i * 6 + k], bounds.min[k]) <= EPSILON_MM) shares = false;
 		}
 		if (!shares) continue;
-		const mid = (f[i * 6 + a] + f[i * 6 + 3 + a]) / 2;
-		if (mid < centre) lo = Math.max(lo, f[i * 6 + 3 + a]);
-		else hi = Math.min(hi, f[i * 6 + a]);
+		// Only boxes wholly on one side of the part's centre bound it; one across the centre is
+		// the obstacle itself, not a side of the space.
+		if (f[i * 6 + 3 + a] <= centre) lo = Math.max(lo, f[i * 6 + 3 + a]);
+		else if (f[i * 6 + a] >= centre) hi = Math.min(hi, f[i * 6 + a]);
 	}
 	return Math.max(0, hi - lo);
 }
