@@ -67,7 +67,7 @@ function oracleGap(scene: Scene, placementId: string, face: (typeof FACES)[numbe
 }
 
 describe('gaps against a brute-force nearest-box search (1,000 random scenes)', () => {
-	it('each face reports the nearest box ahead of it, and its worst case takes both tolerances off', () => {
+	it('each face reports the nearest box ahead of it, and its worst case takes both tolerances off', { timeout: 120_000 }, () => {
 		fc.assert(
 			fc.property(tolerancedArb, (scene) => {
 				const report = checkScene(scene);
