@@ -1,8 +1,8 @@
 /**
  * Fit-engine benchmark (`npm run bench`). Side by side, in one run, on the same seeded boxes:
  * the engine's overlap pairs + volumes, box-intersect's pair enumeration, and naive all pairs with
- * three.js Box3 (n ≤ 2,000); then checkScene on a 100-part enclosure and a 200-position sweep over
- * 100 boxes. Medians after warm-up. Prints a table, then one JSON object as the last line.
+ * three.js Box3 (n ≤ 2,000); then checkScene on a 100-part enclosure, on a 100-part one with 20
+ * problems (clearing advice included) and a 200-position sweep over 100 boxes. Medians after warm-up. Prints a table, then one JSON object as the last line.
  */
 import boxIntersect from 'box-intersect';
 import { loadavg } from 'node:os';
@@ -246,6 +246,32 @@ function sweepScene(): Scene {
 	} satisfies SceneInput);
 }
 
+/**
+ * 100 blocks 40 mm a side in 50 mm cells (10 × 5 × 2), every fifth pushed 15 mm right: into its
+ * neighbour (5 mm) or, at the end of a row, into the right panel. Exactly 20 problems, each
+ * with its clearing search against the whole scene.
+ */
+function problemScene(): Scene {
+	const placements = Array.from({ length: 100 }, (_, i) => {
+		const col = i % 10;
+		const row = Math.floor(i / 10) % 5;
+		const layer = Math.floor(i / 50);
+		const push = i % 5 === 0 ? 15 : 0;
+		return { id: `p${String(i).padStart(3, '0')}`, partId: 'block', position: [col * 50 + 5 + push, row * 50 + 5, layer * 50 + 5] as Vec3 };
+	});
+	return sceneSchema.parse({
+		format: 'interstice.scene',
+		version: 1,
+		enclosure: {
+			name: 'Problem enclosure',
+			outerMm: [504, 254, 104],
+			walls: { left: panel(), right: panel(), bottom: panel(), top: panel(), front: panel(), back: panel() }
+		},
+		parts: [{ id: 'block', name: 'Block', category: 'other', bodies: [{ id: 'body', label: 'body', box: { min: [0, 0, 0], max: [40, 40, 40] } }] }],
+		placements
+	} satisfies SceneInput);
+}
+
 function main(): void {
 	// The scene checks run first, before the 20,000-box sets have grown the heap.
 	const big = hundredPartScene();
@@ -253,6 +279,14 @@ function main(): void {
 	const report = check.result;
 	console.log(
 		`checkScene, 100 parts (${report.parts.length} placements, ${report.overlaps.length} overlaps): ${check.ms.toFixed(3)} ms median, ${check.p10.toFixed(3)} ms low decile`
+	);
+
+	const troubled = problemScene();
+	const problems = time(() => checkScene(troubled), 41, 20);
+	if (problems.result.overlaps.length !== 20) throw new Error(`problem scene: ${problems.result.overlaps.length} overlaps, expected 20`);
+	const advised = problems.result.overlaps.filter((o) => o.moves.length > 0).length;
+	console.log(
+		`checkScene, 100 parts with 20 problems (${advised} with a checked move): ${problems.ms.toFixed(3)} ms median, ${problems.p10.toFixed(3)} ms low decile`
 	);
 
 	const swept = sweepScene();
@@ -287,8 +321,10 @@ function main(): void {
 			n2000_vs_naive: round(byN(2000).engineMs / byN(2000).naiveMs!),
 			check100_ms: round(check.ms),
 			sweep200x100_ms: round(sw.ms),
+			check100_problems20_ms: round(problems.ms),
 			check100_p10_ms: round(check.p10),
 			sweep200x100_p10_ms: round(sw.p10),
+			check100_problems20_p10_ms: round(problems.p10),
 			load_average_1min: round(loadavg()[0]),
 			n50_vs_box_intersect: round(byN(50).engineMs / byN(50).boxIntersectMs),
 			n200_vs_box_intersect: round(byN(200).engineMs / byN(200).boxIntersectMs),

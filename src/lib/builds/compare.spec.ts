@@ -43,7 +43,8 @@ describe('compareVariants', () => {
 		expect(interference.cells[1].best).toBe(false);
 		expect(interference.cells[1].delta).toBeGreaterThan(0);
 		const cardStatus = rows.find((r) => r.key === 'part:card:status')!;
-		expect(cardStatus.cells.map((c) => c.text)).toEqual(['clear', 'collides']);
+		// Tight in the first: 2 mm to the right panel, 1 mm once the card's ±1 mm is taken off.
+		expect(cardStatus.cells.map((c) => c.text)).toEqual(['tight', 'collides']);
 		expect(cardStatus.cells[0].best).toBe(true);
 		expect(cardStatus.cells[1].best).toBe(false);
 	});

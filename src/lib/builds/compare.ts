@@ -4,6 +4,7 @@
  */
 import { FACES, STATUS_ORDER, type Face, type FitReport, type FitStatus } from '$lib/geometry';
 import { toCsv } from '$lib/csv';
+import { gapWords } from './words';
 
 export type CompareInput = { id: string; name: string; report: FitReport; marginMm: number };
 
@@ -69,7 +70,13 @@ export function compareVariants(inputs: CompareInput[]): DiffRow[] {
 		for (const face of FACES as readonly Face[]) {
 			const values = reports.map((r) => r?.gaps[face].gapMm ?? null);
 			if (values.every((v) => v === null)) continue;
-			rows.push(numberRow(`part:${id}:gap:${face}`, 'part', `${label} — gap ${FACE_LABEL[face]}`, values, 'higher', mmText, [id]));
+			const row = numberRow(`part:${id}:gap:${face}`, 'part', `${label} — gap ${FACE_LABEL[face]}`, values, 'higher', mmText, [id]);
+			// "2.0 mm (1.0 worst case)" where tolerances apply.
+			row.cells.forEach((c, i) => {
+				const g = reports[i]?.gaps[face];
+				if (g && g.gapMm !== null) c.text = gapWords(g);
+			});
+			rows.push(row);
 		}
 	}
 	const compartmentIds = [...new Set(inputs.flatMap((v) => v.report.compartments.map((c) => c.id)))].sort();

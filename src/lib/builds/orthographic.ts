@@ -139,6 +139,8 @@ function structureRects(scene: Scene, resolved: ResolvedScene, s: ViewSpec): Vie
 		out.push({ id: d.id, kind: 'divider', label: d.label, ...rectOf(d.box, s) });
 	}
 	for (const b of resolved.brackets) out.push({ id: b.id, kind: 'bracket', label: b.label, ...rectOf(b.box, s) });
+	// A mount's adapter plate or standoffs: fixed structure drawn like a bracket.
+	for (const b of resolved.plates) out.push({ id: b.id, kind: 'bracket', label: b.label, ...rectOf(b.box, s) });
 	return out;
 }
 
@@ -157,7 +159,7 @@ function partRects(resolved: ResolvedScene, report: FitReport, s: ViewSpec): Vie
 
 /** Every world box by id, to find what a gap is measured against. */
 function boxIndex(resolved: ResolvedScene): Map<string, Box> {
-	const all = [...resolved.walls, ...resolved.dividers, ...resolved.brackets, ...resolved.placements.flatMap((rp) => rp.bodies)];
+	const all = [...resolved.walls, ...resolved.dividers, ...resolved.brackets, ...resolved.plates, ...resolved.placements.flatMap((rp) => rp.bodies)];
 	return new Map(all.map((w) => [w.id, w.box]));
 }
 
@@ -177,6 +179,7 @@ interface GapPick {
 function gapPicks(resolved: ResolvedScene, report: FitReport, s: ViewSpec, marginMm: number): GapPick[] {
 	const boxes = boxIndex(resolved);
 	const picks: GapPick[] = [];
+	const extra: GapPick[] = [];
 	for (const pr of report.parts) {
 		const rp = resolved.placements.find((p) => p.placement.id === pr.placementId)!;
 		const candidates = (Object.entries(pr.gaps) as [Face, FitReport['parts'][number]['gaps'][Face]][])
@@ -184,13 +187,16 @@ function gapPicks(resolved: ResolvedScene, report: FitReport, s: ViewSpec, margi
 				const a = AXIS_NAMES.indexOf(f[1] as Axis);
 				return (a === s.h || a === s.v) && g.gapMm !== null && g.gapMm >= -EPSILON_MM && !g.held && g.against && boxes.has(g.against.id);
 			})
-			.map(([face, g]) => ({ placementId: pr.placementId, face, gapMm: g.gapMm!, against: boxes.get(g.against!.id)!, bounds: rp.bounds, tight: g.gapMm! < marginMm - EPSILON_MM }))
+			.map(([face, g]) => ({ placementId: pr.placementId, face, gapMm: g.gapMm!, against: boxes.get(g.against!.id)!, bounds: rp.bounds, tight: (g.worstCaseMm ?? g.gapMm!) < marginMm - EPSILON_MM }))
 			.sort((x, y) => x.gapMm - y.gapMm);
 		candidates.forEach((c, i) => {
-			if (i === 0 || c.tight) picks.push(c);
+			if (i === 0) picks.push(c);
+			else if (c.tight) extra.push(c);
 		});
 	}
-	return picks.sort((x, y) => x.gapMm - y.gapMm).slice(0, MAX_GAPS);
+	// Each part's smallest gap before a second tight one of the same part, so the cap drops repeats first.
+	const byGap = (x: GapPick, y: GapPick) => x.gapMm - y.gapMm;
+	return [...picks.sort(byGap), ...extra.sort(byGap)].slice(0, MAX_GAPS).sort(byGap);
 }
 
 type Area = { x: number; y: number; w: number; h: number };

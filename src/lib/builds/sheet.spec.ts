@@ -54,10 +54,11 @@ describe('the part list', () => {
 	});
 
 	it('names the nearest free gap with what it is against', () => {
-		// The block's top (turned to face +x) at 6 + 1.6 + 26 = 33.6 mm; the spine at 86 mm.
-		expect(byId['cpu-block'].smallestGap).toBe(`52.4${THIN}mm to the right (Spine)`);
-		// The card's far face at 107.36 + 2 × 20.32 = 148 mm; the right panel at 150 mm.
-		expect(byId.card.smallestGap).toBe(`2.0${THIN}mm to the right (Right panel)`);
+		// The block's top (turned to face +x) at 6 + 1.6 + 26 = 33.6 mm; the spine at 86 mm; the
+		// block is ±0.5 mm, the spine exact: 52.4 − 0.5 = 51.9 mm in the worst case.
+		expect(byId['cpu-block'].smallestGap).toBe(`52.4${THIN}mm (51.9 worst case) to the right (Spine)`);
+		// The card's far face at 107.36 + 2 × 20.32 = 148 mm; the right panel at 150 mm; ±1 mm.
+		expect(byId.card.smallestGap).toBe(`2.0${THIN}mm (1.0 worst case) to the right (Right panel)`);
 	});
 
 	it.each([
@@ -74,8 +75,14 @@ describe('the part list', () => {
 describe('the fit report', () => {
 	it('says everything fits at three slots, with the heat budget marked as an estimate', () => {
 		const fit = sheetOf().fit;
-		expect(fit.summary).toBe('Everything fits with the margin to spare.');
-		expect(fit.items).toEqual([]);
+		// The card (±1 mm) and the pump-reservoir (±0.5 mm) are 2 mm from the right panel: under
+		// the 2 mm margin in the worst case of their tolerances.
+		expect(fit.summary).toBe('Everything fits; 2 parts are tight.');
+		expect(fit.items.map((i) => [i.key, i.status])).toEqual([
+			['gap:card:+x', 'tight'],
+			['gap:pump-res:-x', 'tight'],
+			['gap:pump-res:+x', 'tight']
+		]);
 		const heat = fit.budgets.find((b) => b.key === 'heat')!;
 		// 65 W + 160 W against 280 mm of radiator at 100 W per 120 mm = 233 W.
 		expect(heat.text).toContain(`225${THIN}W of heat against about 233${THIN}W`);
@@ -94,10 +101,12 @@ describe('the fit report', () => {
 	});
 
 	it('reports a tight gap with how far under the margin it is', () => {
-		// Margin 3 mm: the card's 2 mm to the right panel is 1 mm short.
+		// Margin 3 mm: the card's 2 mm to the right panel is 1 mm short, 2 mm in the worst case of
+		// its ±1 mm tolerance (the panel has none).
 		const item = sheetOf((s) => (s.marginMm = 3)).fit.items.find((i) => i.key === 'gap:card:+x')!;
 		expect(item.status).toBe('tight');
-		expect(item.detail).toBe(`Under the 3.0${THIN}mm margin by 1.0${THIN}mm.`);
+		expect(item.title).toBe(`Compact graphics card, two slots, 185 mm: 2.0${THIN}mm (1.0 worst case) to the right (Right panel)`);
+		expect(item.detail).toBe(`Under the 3.0${THIN}mm margin by 2.0${THIN}mm in the worst case of the tolerances.`);
 	});
 });
 

@@ -30,6 +30,7 @@ import {
 } from '$lib/geometry';
 import { FROM_WORDS, assemblyPlan, fittingsByThread, type AssemblyStep, type OrderEdge } from './assembly';
 import { CAUTIONS, PLANNING_NOTE } from './cautions';
+import { gapWords, mountProblemDetail } from './words';
 import {
 	AXIS_ENDS,
 	AXIS_WORDS,
@@ -252,8 +253,11 @@ export function orientationText(rotation: { x: number; y: number; z: number }): 
 }
 
 function gapText(face: Face, g: FaceGap): string {
-	return `${mm(g.gapMm!)} ${FACE_SIDE[face]}${g.against ? ` (${g.against.label})` : ''}`;
+	return `${gapWords(g)} ${FACE_SIDE[face]}${g.against ? ` (${g.against.label})` : ''}`;
 }
+
+/** The gap a tight check reads: the worst case (gap less both sides' tolerances). */
+const worst = (g: FaceGap) => g.worstCaseMm ?? g.gapMm!;
 
 /** Free gaps that count: something is ahead, and it is not where the part is held. */
 function freeGaps(gaps: Record<Face, FaceGap>): [Face, FaceGap][] {
@@ -268,7 +272,7 @@ function partLines(scene: Scene, resolved: ResolvedScene, report: FitReport): Pa
 		const size = [0, 1, 2].map((i) => rp.bounds.max[i] - rp.bounds.min[i]) as Vec3;
 		const smallest = freeGaps(pr.gaps)
 			.filter(([, g]) => g.gapMm! >= -EPSILON_MM)
-			.sort((a, b) => a[1].gapMm! - b[1].gapMm!)[0];
+			.sort((a, b) => worst(a[1]) - worst(b[1]))[0];
 		return {
 			placementId: rp.placement.id,
 			name: rp.part.name,
@@ -312,9 +316,8 @@ function refText(ref: ItemRef, resolved: ResolvedScene): string {
 function overlapItem(o: Overlap, names: Map<string, string>, resolved: ResolvedScene): FitItem {
 	const [a, b] = o.a.kind === 'keepout' ? [o.b, o.a] : [o.a, o.b];
 	const depth = o.depthMm.map((d) => mm(d)).join(' × ');
-	const clears = [moveText(o.clearingMove, names)];
-	if (o.controlMove && o.controlMove !== o.clearingMove) clears.push(moveText(o.controlMove, names));
-	const sentence = `Overlap ${depth} (${cm3(o.volumeMm3)}); to clear it, ${clears.join(', or ')}.`;
+	const clears = o.moves.map((m) => moveText(m, names));
+	const sentence = clears.length ? `Overlap ${depth} (${cm3(o.volumeMm3)}); to clear it, ${clears.join(', or ')}.` : `Overlap ${depth} (${cm3(o.volumeMm3)}). ${o.noMove ?? 'No single move clears it.'}`;
 	const key = `overlap:${o.a.id}|${o.b.id}`;
 	if (o.kind === 'collides') {
 		return { key, status: 'collides', word: STATUS_WORDS.collides, title: `${refText(a, resolved)} collides with ${refText(b, resolved)}`, detail: sentence };
@@ -335,15 +338,18 @@ function fitItems(scene: Scene, resolved: ResolvedScene, report: FitReport, name
 			});
 			items.push({ key: `outside:${pr.placementId}`, status: 'outside', word: STATUS_WORDS.outside, title: `${pr.label} reaches outside the enclosure`, detail: `It crosses ${crossed.join(' and ')}.` });
 		}
-		const tight = freeGaps(pr.gaps).filter(([, g]) => g.gapMm! >= -EPSILON_MM && g.gapMm! < scene.marginMm - EPSILON_MM);
+		const tight = freeGaps(pr.gaps).filter(([, g]) => g.gapMm! >= -EPSILON_MM && worst(g) < scene.marginMm - EPSILON_MM);
 		for (const [face, g] of tight) {
 			items.push({
 				key: `gap:${pr.placementId}:${face}`,
 				status: 'tight',
 				word: STATUS_WORDS.tight,
 				title: `${pr.label}: ${gapText(face, g)}`,
-				detail: `Under the ${mm(scene.marginMm)} margin by ${mm(scene.marginMm - g.gapMm!)}.`
+				detail: `Under the ${mm(scene.marginMm)} margin by ${mm(scene.marginMm - worst(g))}${worst(g) !== g.gapMm ? ' in the worst case of the tolerances' : ''}.`
 			});
+		}
+		for (const problem of pr.mountProblems) {
+			items.push({ key: `mount-part:${pr.placementId}:${problem.mountId}:${problem.kind}`, status: problem.status, word: STATUS_WORDS[problem.status], title: `${pr.label}: on the ${problem.label}`, detail: `${mountProblemDetail(problem).replace(/^./, (c) => c.toUpperCase())}.` });
 		}
 	}
 	for (const m of report.mounts.filter((m) => m.status !== 'clear')) {
@@ -361,6 +367,7 @@ function mountText(m: FitReport['mounts'][number], names: Map<string, string>): 
 		bits.push(m.spareMm! >= 0 ? `${mm(m.spareMm!)} to spare` : `${mm(-m.spareMm!)} too thick`);
 	}
 	if (m.unaccepted.length) bits.push(`not made for ${m.unaccepted.map((id) => names.get(id) ?? id).join(', ')}`);
+	if (m.problems.length > 1) bits.push(`problems, worst first: ${m.problems.map(mountProblemDetail).join(', ')}`);
 	for (const o of m.overflow) {
 		const over = Object.entries(o.overflowMm).map(([f, v]) => `${mm(v!)} past its ${FACE_SIDE[f as Face].replace(/^to the /, '')} edge`);
 		bits.push(`${names.get(o.placementId) ?? o.placementId} reaches ${over.join(', ')}`);

@@ -2,7 +2,7 @@
  * Words for the editor's labels: faces, millimetres, the move that clears an overlap.
  * Shared by the editor, the client page and the build sheet.
  */
-import { formatMm, type ClearingMove, type Face, type FitReport, type Overlap, type PartReport } from '$lib/geometry';
+import { EPSILON_MM, formatMm, type ClearingMove, type Face, type FaceGap, type FitReport, type MountProblem, type Overlap, type PartReport } from '$lib/geometry';
 
 /** Which side of a part a gap is on, seen from the front. */
 export const FACE_WORDS: Record<Face, string> = {
@@ -18,6 +18,35 @@ export function mm(valueMm: number | null): string {
 	return valueMm === null ? '—' : formatMm(valueMm);
 }
 
+/**
+ * A gap with its worst case where tolerances apply: "2.0 mm (1.0 worst case)"; just "2.0 mm"
+ * when neither side has a tolerance.
+ */
+export function gapWords(g: Pick<FaceGap, 'gapMm' | 'worstCaseMm'>): string {
+	if (g.gapMm === null) return '—';
+	if (g.worstCaseMm === null || Math.abs(g.worstCaseMm - g.gapMm) <= EPSILON_MM) return formatMm(g.gapMm);
+	return `${formatMm(g.gapMm)} (${formatMm(g.worstCaseMm).replace(/\u2009mm$/, '')} worst case)`;
+}
+
+/** What is wrong with a mount's stack, in words: "stack 7.0 mm over its budget". */
+export function mountProblemDetail(m: MountProblem): string {
+	switch (m.kind) {
+		case 'over-budget':
+			return `stack ${formatMm(m.amountMm)} over its budget`;
+		case 'unaccepted':
+			return 'not a class this mount takes';
+		case 'overhang':
+			return `reaches ${formatMm(m.amountMm)} past the mount`;
+		case 'tight':
+			return `stack under the margin by ${formatMm(m.amountMm)}`;
+	}
+}
+
+/** A mount problem as a part's report item names it: "Front radiator mount: stack 7.0 mm over its budget". */
+export function mountProblemWords(m: MountProblem): string {
+	return `${m.label}: ${mountProblemDetail(m)}`;
+}
+
 const MOVE_WORDS: Record<ClearingMove['axis'], [string, string]> = { x: ['left', 'right'], y: ['down', 'up'], z: ['forward', 'back'] };
 
 function moveText(move: ClearingMove): string {
@@ -29,14 +58,11 @@ function moveText(move: ClearingMove): string {
 	return `move ${noun} ${formatMm(move.distanceMm)} ${way}`;
 }
 
-/** "Move the part 3.5 mm back", with the divider or bracket step that would clear it too. */
-export function moveSentence(clearing: ClearingMove, control?: ClearingMove): string {
-	const first = moveText(clearing);
-	const sentence = first.charAt(0).toUpperCase() + first.slice(1);
-	if (control && (control.targetId !== clearing.targetId || control.steps !== clearing.steps)) {
-		return `${sentence}, or ${moveText(control)}`;
-	}
-	return sentence;
+/** "Move the part 3.5 mm back, or move the divider 1 step left": the best two moves. */
+export function moveSentence(moves: readonly ClearingMove[], noMove?: string): string {
+	if (moves.length === 0) return noMove ?? 'No single move clears this.';
+	const text = moves.map(moveText).join(', or ');
+	return text.charAt(0).toUpperCase() + text.slice(1);
 }
 
 const AXIS_WORDS = { x: 'width', y: 'height', z: 'depth' } as const;
@@ -46,22 +72,27 @@ const BESIDE_WORDS: Record<Face, string> = { '-x': 'left of', '+x': 'right of', 
 
 /** "Card and support bracket overlap by 3.5 mm along depth; move the bracket 1 step back." */
 export function overlapSentence(o: Overlap): string {
-	const axis = o.clearingMove.axis;
+	const axis = o.axis;
 	const depth = o.depthMm[axis === 'x' ? 0 : axis === 'y' ? 1 : 2];
 	const keepout = o.a.kind === 'keepout' ? o.a : o.b.kind === 'keepout' ? o.b : null;
 	const other = keepout === o.a ? o.b : o.a;
 	const lead = keepout && o.kind !== 'collides' ? `${other.label} is in the keep-out ${keepout.label}` : `${o.a.label} and ${o.b.label} overlap`;
-	const move = moveSentence(o.clearingMove, o.controlMove);
+	if (o.moves.length === 0) return `${lead} by ${formatMm(depth)} along ${AXIS_WORDS[axis]}. ${o.noMove ?? 'No single move clears this.'}`;
+	const move = moveSentence(o.moves);
 	return `${lead} by ${formatMm(depth)} along ${AXIS_WORDS[axis]}; ${move.charAt(0).toLowerCase()}${move.slice(1)}.`;
 }
 
-/** The smallest free gap of a part (contacts where it rests are left out) and what it faces. */
-export function tightestGap(p: PartReport): { face: Face; gapMm: number; against: string } | null {
-	let best: { face: Face; gapMm: number; against: string } | null = null;
+/**
+ * The smallest free gap of a part by its worst case (contacts where it rests are left out), and
+ * what it faces.
+ */
+export function tightestGap(p: PartReport): { face: Face; gapMm: number; worstCaseMm: number; against: string } | null {
+	let best: { face: Face; gapMm: number; worstCaseMm: number; against: string } | null = null;
 	for (const face of Object.keys(p.gaps) as Face[]) {
 		const g = p.gaps[face];
 		if (g.gapMm === null || g.held) continue;
-		if (!best || g.gapMm < best.gapMm) best = { face, gapMm: g.gapMm, against: g.against?.label ?? 'the wall' };
+		const worst = g.worstCaseMm ?? g.gapMm;
+		if (!best || worst < best.worstCaseMm) best = { face, gapMm: g.gapMm, worstCaseMm: worst, against: g.against?.label ?? 'the wall' };
 	}
 	return best;
 }
@@ -77,11 +108,11 @@ export function fitSummary(report: FitReport): string {
 		].filter(Boolean);
 		return `Not yet: ${parts.join(', ')}.`;
 	}
-	let best: { label: string; face: Face; gapMm: number } | null = null;
+	let best: { label: string; face: Face; gapMm: number; worstCaseMm: number } | null = null;
 	for (const p of report.parts) {
 		const g = tightestGap(p);
-		if (g && (!best || g.gapMm < best.gapMm)) best = { label: p.label, face: g.face, gapMm: g.gapMm };
+		if (g && (!best || g.worstCaseMm < best.worstCaseMm)) best = { label: p.label, face: g.face, gapMm: g.gapMm, worstCaseMm: g.worstCaseMm };
 	}
 	if (!best) return 'Everything fits.';
-	return `Everything fits; the tightest gap is ${formatMm(best.gapMm)} ${BESIDE_WORDS[best.face]} the ${best.label}.`;
+	return `Everything fits; the tightest gap is ${gapWords(best)} ${BESIDE_WORDS[best.face]} the ${best.label}.`;
 }

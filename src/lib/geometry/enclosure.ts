@@ -54,8 +54,10 @@ export function innerVolumeLitres(enclosure: EnclosureDef): number {
 }
 
 /**
- * One box per wall with thickness, just outside the inner box; each reaches over the neighbouring
- * walls' thickness so the shell has no open edges.
+ * One box per wall with thickness, just outside the inner box. The shell has no open edges and no
+ * point in two walls: the side panels (X) take the edges and corners they meet, the bottom and top
+ * (Y) reach over the front and back panels' thickness but stop at the side panels, and the front
+ * and back (Z) cover only the inner width and height. So a part through a corner is counted once.
  */
 export function wallBoxes(enclosure: EnclosureDef): WorldBox[] {
 	const size = innerSizeMm(enclosure);
@@ -75,6 +77,10 @@ export function wallBoxes(enclosure: EnclosureDef): WorldBox[] {
 		const { axis, high } = FACE_AXES[face];
 		const min: Vec3 = [...lo];
 		const max: Vec3 = [...hi];
+		for (let i = 0; i < axis; i++) {
+			min[i] = 0;
+			max[i] = size[i];
+		}
 		min[axis] = high ? size[axis] : -spec.thicknessMm;
 		max[axis] = high ? size[axis] + spec.thicknessMm : 0;
 		out.push({

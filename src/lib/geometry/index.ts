@@ -19,6 +19,7 @@ export { rotationMap, rotateBox, rotatePoint, rotateDirection } from './rotation
 export { overlappingPairs, overlappingPairsFlat, overlapVolumes, flattenBoxes } from './broadphase';
 export { pairKind, isObstacle } from './pairs';
 export { checkScene, reportFor, compartmentOf } from './check';
-export { mountReport, mountReports, mountAccepts, partClasses } from './mounts';
+export { mountReport, mountReports, mountAccepts, mountPlates, partClasses, plateNeeded } from './mounts';
+export { unionVolume } from './union';
 export { heatBudget, powerBudget } from './budgets';
 export { sweep, sweepGrid, feasibleIntervals } from './sweep';

@@ -6,16 +6,19 @@
  */
 
 import { EPSILON_MM, compareText, faceOf, type Face } from './box';
+import { STATUS_ORDER } from './types';
 import { overlappingPairsFlat } from './broadphase';
 import { FACE_AXES } from './enclosure';
+import { mountReports } from './mounts';
 import { isObstacle, pairKind } from './pairs';
 import type { Box, Scene } from './schema';
-import type { FitStatus, OverlapKind, ResolvedScene, StatusCounts, WorldBox } from './types';
+import type { FitStatus, MountProblem, MountReport, OverlapKind, ResolvedScene, StatusCounts, WorldBox } from './types';
+import { unionVolume } from './union';
 
 export interface Model {
 	scene: Scene;
 	resolved: ResolvedScene;
-	/** Walls, dividers, brackets, then each placement's bodies and keep-outs (placements by id). */
+	/** Walls, dividers, brackets, plates, then each placement's bodies and keep-outs (placements by id). */
 	boxes: WorldBox[];
 	/** Six numbers a box, same order as `boxes`. */
 	flat: Float64Array;
@@ -34,13 +37,22 @@ export interface Model {
 	mountOf: (string | undefined)[];
 	/** Box index by id: controls move, their ids do not. */
 	indexOf: Map<string, number>;
+	/** Per box: for a wall, the face slot it bounds (2 × axis + 1 on the high side), else -1. */
+	wallSide: Int8Array;
+	/** Per placement: its part's toleranceMm. */
+	toleranceMm: Float64Array;
+	/** Mount reports (they do not depend on controls), and per placement the problems that mark it. */
+	mounts: MountReport[];
+	mountProblemsOf: MountProblem[][];
+	/** Per placement: STATUS_ORDER index of its worst mount problem (that of 'clear' when none). */
+	mountRank: Uint8Array;
 }
 
 /** Face slots in gap arrays: '-x', '+x', '-y', '+y', '-z', '+z'. */
 export const FACE_ORDER: readonly Face[] = ['-x', '+x', '-y', '+y', '-z', '+z'];
 
 export function buildModel(scene: Scene, resolved: ResolvedScene): Model {
-	const boxes: WorldBox[] = [...resolved.walls, ...resolved.dividers, ...resolved.brackets];
+	const boxes: WorldBox[] = [...resolved.walls, ...resolved.dividers, ...resolved.brackets, ...resolved.plates];
 	const owners: number[] = boxes.map(() => -1);
 	const bodiesOf: number[][] = [];
 	const mounts = new Map(scene.enclosure.mounts.map((m) => [m.id, m]));
@@ -70,7 +82,28 @@ export function buildModel(scene: Scene, resolved: ResolvedScene): Model {
 	});
 	const indexOf = new Map(boxes.map((b, i) => [b.id, i]));
 	const bodyBoxes = Int32Array.from(bodiesOf.flat());
-	return { scene, resolved, boxes, flat, owner, obstacle, bodiesOf, bodyBoxes, outsideFaces, mountFace, mountOf, indexOf };
+	const wallSide = Int8Array.from(boxes, (b) => {
+		if (b.kind !== 'wall') return -1;
+		const { axis, high } = FACE_AXES[b.face!];
+		return 2 * axis + (high ? 1 : 0);
+	});
+	const toleranceMm = Float64Array.from(resolved.placements, (rp) => rp.part.toleranceMm);
+	const reports = mountReports(scene, resolved);
+	const placementIndex = new Map(resolved.placements.map((rp, p) => [rp.placement.id, p]));
+	const mountProblemsOf: MountProblem[][] = resolved.placements.map(() => []);
+	const clearRank = STATUS_ORDER.indexOf('clear');
+	const mountRank = new Uint8Array(resolved.placements.length).fill(clearRank);
+	for (const m of reports) {
+		for (const problem of m.problems) {
+			for (const id of problem.placementIds) {
+				const p = placementIndex.get(id)!;
+				mountProblemsOf[p].push(problem);
+				mountRank[p] = Math.min(mountRank[p], STATUS_ORDER.indexOf(problem.status));
+			}
+		}
+	}
+	for (const list of mountProblemsOf) list.sort((x, y) => STATUS_ORDER.indexOf(x.status) - STATUS_ORDER.indexOf(y.status) || compareText(x.mountId, y.mountId));
+	return { scene, resolved, boxes, flat, owner, obstacle, bodiesOf, bodyBoxes, outsideFaces, mountFace, mountOf, indexOf, wallSide, toleranceMm, mounts: reports, mountProblemsOf, mountRank };
 }
 
 export function writeFlat(flat: Float64Array, i: number, box: Box): void {
@@ -105,7 +138,10 @@ export interface Tally {
 	/** Per placement × FACE_ORDER: nearest gap (mm, +Infinity when nothing is ahead) and its box. */
 	gap: Float64Array;
 	against: Int32Array;
+	/** Sum of the 'collides' pair volumes (see `regions` for the union). */
 	interferenceMm3: number;
+	/** The 'collides' overlap boxes, six numbers each, for the union volume. */
+	regions: number[];
 	keepoutMm3: number;
 	collisions: number;
 	/** In a sweep step: the placements the moved boxes touched; the rest keep their static status. */
@@ -120,6 +156,7 @@ export function emptyTally(placements: number, track = false): Tally {
 		gap: new Float64Array(placements * 6).fill(Infinity),
 		against: new Int32Array(placements * 6).fill(-1),
 		interferenceMm3: 0,
+		regions: [],
 		keepoutMm3: 0,
 		collisions: 0,
 		touched: track ? [] : null,
@@ -141,6 +178,8 @@ export function copyTallyInto(from: Tally, into: Tally): Tally {
 	into.gap.set(from.gap);
 	into.against.set(from.against);
 	into.interferenceMm3 = from.interferenceMm3;
+	into.regions.length = 0;
+	for (let k = 0; k < from.regions.length; k++) into.regions.push(from.regions[k]);
 	into.keepoutMm3 = from.keepoutMm3;
 	into.collisions = from.collisions;
 	if (into.touched) {
@@ -170,12 +209,22 @@ function flag(tally: Tally, flags: Uint8Array, p: number): void {
 	}
 }
 
-function addPair(model: Model, tally: Tally, i: number, j: number, kind: OverlapKind, volume: number): void {
+/** Union volume (mm³) of a tally's collision regions: each point inside a body counted once. */
+export function interferenceUnion(tally: Tally): number {
+	return unionVolume(tally.regions);
+}
+
+/** Boxes i (in fa) and j (in fb) overlap with this meaning. */
+function addPair(model: Model, tally: Tally, i: number, j: number, kind: OverlapKind, volume: number, fa: Float64Array, ia: number, fb: Float64Array, ib: number): void {
 	const pi = model.owner[i];
 	const pj = model.owner[j];
 	if (kind === 'collides') {
 		tally.collisions++;
 		tally.interferenceMm3 += volume;
+		const a = ia * 6;
+		const b = ib * 6;
+		for (let k = 0; k < 3; k++) tally.regions.push(Math.max(fa[a + k], fb[b + k]));
+		for (let k = 3; k < 6; k++) tally.regions.push(Math.min(fa[a + k], fb[b + k]));
 		flag(tally, tally.collides, pi);
 		flag(tally, tally.collides, pj);
 		return;
@@ -188,9 +237,13 @@ function addPair(model: Model, tally: Tally, i: number, j: number, kind: Overlap
 }
 
 /**
- * Nearest box ahead of each face of body `bi` (of placement p): a box is ahead on +a when it
- * shares area with the body seen along a and its centre is not behind the body's. Ties go to
- * the smaller id, so the answer does not depend on the order boxes are visited.
+ * Nearest box ahead of each face of body `bi` (of placement p). A box counts for the +a face when
+ * it shares area with the body seen along a and reaches past that face (its max beyond the body's
+ * max by more than EPSILON_MM), or lies within the body's span along a on the +a side of its
+ * centre (a thin divider the body went through): then the gap is its min − the body's max,
+ * negative when it overlaps the face. A wall is a half-space: it counts only for the face toward it (the right panel for +x),
+ * its gap measured to the inner face, so a body through it reports how far it has gone past.
+ * Ties go to the smaller id, so the answer does not depend on the order boxes are visited.
  */
 function addGap(
 	model: Model,
@@ -227,12 +280,24 @@ function gapAlong(
 	a: number,
 	obstacleIndex: number
 ): void {
-	const bodyCentre = fb[b + a] + fb[b + 3 + a];
-	const obstacleCentre = fo[o + a] + fo[o + 3 + a];
-	if (obstacleCentre >= bodyCentre) {
+	const side = model.wallSide[obstacleIndex];
+	if (side >= 0) {
+		if (side >> 1 !== a) return;
+		const inner = model.resolved.innerBox;
+		if (side & 1) offerGap(model, tally, p * 6 + 2 * a + 1, inner.max[a] - fb[b + 3 + a], obstacleIndex);
+		else offerGap(model, tally, p * 6 + 2 * a, fb[b + a] - inner.min[a], obstacleIndex);
+		return;
+	}
+	const beyondHigh = fo[o + 3 + a] > fb[b + 3 + a] + EPSILON_MM;
+	const beyondLow = fo[o + a] < fb[b + a] - EPSILON_MM;
+	// A box within the body's span along a (a thin divider the body went through) goes to the face
+	// on its side of the body's centre.
+	const within = !beyondHigh && !beyondLow;
+	const centre = fo[o + a] + fo[o + 3 + a] - fb[b + a] - fb[b + 3 + a];
+	if (beyondHigh || (within && centre >= 0)) {
 		offerGap(model, tally, p * 6 + 2 * a + 1, fo[o + a] - fb[b + 3 + a], obstacleIndex);
 	}
-	if (obstacleCentre <= bodyCentre) {
+	if (beyondLow || (within && centre <= 0)) {
 		offerGap(model, tally, p * 6 + 2 * a, fb[b + a] - fo[o + 3 + a], obstacleIndex);
 	}
 }
@@ -302,7 +367,7 @@ export function tallyStatic(model: Model, included: Uint8Array | null): { tally:
 		const kind = pairKind(model.boxes[i], model.boxes[j]);
 		if (!kind) continue;
 		const volumeMm3 = overlapVolume(model.flat, i, model.flat, j);
-		addPair(model, tally, i, j, kind, volumeMm3);
+		addPair(model, tally, i, j, kind, volumeMm3, model.flat, i, model.flat, j);
 		pairs.push({ i: Math.min(i, j), j: Math.max(i, j), kind, volumeMm3 });
 	}
 	const obstacles = ids.filter((i) => model.obstacle[i]);
@@ -394,7 +459,7 @@ export function tallyMoving(
 		for (let l = k + 1; l < moving.length; l++) {
 			const volume = overlapVolume(movingFlat, k, movingFlat, l);
 			const kind = volume > 0 ? pairKind(model.boxes[mi], model.boxes[moving[l]]) : null;
-			if (kind) addPair(model, tally, mi, moving[l], kind, volume);
+			if (kind) addPair(model, tally, mi, moving[l], kind, volume, movingFlat, k, movingFlat, l);
 		}
 		for (const p of extraPlacements) {
 			for (const bi of model.bodiesOf[p]) addGap(model, tally, p, model.flat, bi, movingFlat, k, mi);
@@ -407,7 +472,7 @@ function visitNear(model: Model, tally: Tally, mi: number, k: number, movingFlat
 	const volume = overlapVolume(movingFlat, k, model.flat, i);
 	if (volume > 0) {
 		const kind = pairKind(model.boxes[mi], model.boxes[i]);
-		if (kind) addPair(model, tally, mi, i, kind, volume);
+		if (kind) addPair(model, tally, mi, i, kind, volume, movingFlat, k, model.flat, i);
 	}
 	const p = model.owner[i];
 	if (p >= 0 && model.obstacle[i]) addGap(model, tally, p, model.flat, i, movingFlat, k, mi);
@@ -415,8 +480,8 @@ function visitNear(model: Model, tally: Tally, mi: number, k: number, movingFlat
 
 /**
  * Contact where a part is held does not make it tight: resting on what is below it (−y), and for
- * a mounted part its mount's panel (on the face toward it) and the other parts on the same mount
- * (fans butted together on a radiator, a block on its board).
+ * a mounted part its mount's panel, plate or standoffs (on the face toward the panel) and the other
+ * parts on the same mount (fans butted together on a radiator, a block on its board).
  */
 export function isHeldContact(model: Model, p: number, face: number, gap: number, against: number): boolean {
 	if (!(Math.abs(gap) <= EPSILON_MM) || against < 0) {
@@ -430,6 +495,9 @@ export function isHeldContact(model: Model, p: number, face: number, gap: number
 		return false;
 	}
 	const box = model.boxes[against];
+	if (box.kind === 'plate') {
+		return face === mountFace && box.mountId === model.mountOf[p];
+	}
 	if (box.kind === 'wall') {
 		const wallFace = FACE_AXES[box.face!];
 		return face === mountFace && 2 * wallFace.axis + (wallFace.high ? 1 : 0) === mountFace;
@@ -438,17 +506,30 @@ export function isHeldContact(model: Model, p: number, face: number, gap: number
 	return other >= 0 && model.mountOf[other] === model.mountOf[p];
 }
 
-export function placementStatus(model: Model, tally: Tally, p: number, marginMm: number): FitStatus {
+/** A gap's worst case: the gap less the part's tolerance and the other side's (0 for fixed boxes). */
+export function worstCaseGap(model: Model, p: number, gap: number, against: number): number {
+	const other = against < 0 ? -1 : model.owner[against];
+	return gap - model.toleranceMm[p] - (other >= 0 ? model.toleranceMm[other] : 0);
+}
+
+function geometricStatus(model: Model, tally: Tally, p: number, marginMm: number): FitStatus {
 	if (tally.collides[p]) return 'collides';
 	if (tally.blocked[p]) return 'blocked';
 	if (model.outsideFaces[p].length > 0) return 'outside';
 	for (let f = 0; f < 6; f++) {
 		const gap = tally.gap[p * 6 + f];
-		if (gap < marginMm - EPSILON_MM && !isHeldContact(model, p, f, gap, tally.against[p * 6 + f])) {
+		const against = tally.against[p * 6 + f];
+		if (against >= 0 && worstCaseGap(model, p, gap, against) < marginMm - EPSILON_MM && !isHeldContact(model, p, f, gap, against)) {
 			return 'tight';
 		}
 	}
 	return 'clear';
+}
+
+/** The worse of the part's own status and that of the mount stack it is on. */
+export function placementStatus(model: Model, tally: Tally, p: number, marginMm: number): FitStatus {
+	const own = STATUS_ORDER.indexOf(geometricStatus(model, tally, p, marginMm));
+	return STATUS_ORDER[Math.min(own, model.mountRank[p])];
 }
 
 export function emptyCounts(): StatusCounts {

@@ -6,8 +6,8 @@
 
 import { EPSILON_MM, compareText, faceOf, type Face } from './box';
 import { FACE_AXES } from './enclosure';
-import type { MountDef, PartDef, Scene } from './schema';
-import type { FitStatus, MountReport, ResolvedPlacement, ResolvedScene, StackEntry } from './types';
+import type { Box, EnclosureDef, MountDef, PartDef, Scene, Vec3 } from './schema';
+import type { FitStatus, MountProblem, MountReport, ResolvedPlacement, ResolvedScene, StackEntry, WorldBox } from './types';
 
 /** The classes a part answers to in a mount's `accepts`: '240', '120', 'SFX', 'Mini-ITX'. */
 export function partClasses(part: PartDef): string[] {
@@ -81,6 +81,53 @@ function stackLayers(mount: MountDef, mounted: ResolvedPlacement[], inner: numbe
 	return { entries, layersMm };
 }
 
+/**
+ * The adapter plate's thickness a mount counts for the parts on it: its plateMm when one of their
+ * classes is in plateFor (every class when plateFor is missing), 0 with no parts on it.
+ */
+export function plateNeeded(mount: MountDef, mounted: readonly { part: PartDef }[]): number {
+	if (mounted.length === 0) return 0;
+	const classes = new Set(mounted.flatMap((rp) => partClasses(rp.part)));
+	const needed = mount.plateFor === undefined || mount.plateFor.some((c) => classes.has(c));
+	return needed ? (mount.plateMm ?? 0) : 0;
+}
+
+/**
+ * The plate and the standoff layer as fixed boxes, so gaps, stack and the 3D view tell one story:
+ * over the mount's region on the panel's two axes, the plate from the panel inward, the standoffs
+ * (as one layer) on top of it. Only for a mount with parts on it, and only layers thicker than 0.
+ */
+export function mountPlates(enclosure: EnclosureDef, inner: Box, placements: readonly ResolvedPlacement[]): WorldBox[] {
+	const out: WorldBox[] = [];
+	for (const mount of [...enclosure.mounts].sort((a, b) => compareText(a.id, b.id))) {
+		const mounted = placements.filter((rp) => rp.placement.mountId === mount.id);
+		if (mounted.length === 0) continue;
+		const { axis, high } = FACE_AXES[mount.face];
+		const layers: [string, string, number][] = [
+			['plate', 'adapter plate', plateNeeded(mount, mounted)],
+			['standoff', 'standoffs', mount.standoffMm]
+		];
+		let from = 0;
+		for (const [kind, words, thickness] of layers) {
+			if (!(thickness > 0)) continue;
+			const min: Vec3 = [...mount.region.min];
+			const max: Vec3 = [...mount.region.max];
+			min[axis] = high ? inner.max[axis] - from - thickness : inner.min[axis] + from;
+			max[axis] = min[axis] + thickness;
+			from += thickness;
+			out.push({
+				id: `${kind}:${mount.id}`,
+				kind: 'plate',
+				label: `${mount.label} ${words}`,
+				box: { min, max },
+				ownerId: `${kind}:${mount.id}`,
+				mountId: mount.id
+			});
+		}
+	}
+	return out;
+}
+
 function overflowOf(mount: MountDef, rp: ResolvedPlacement): Partial<Record<Face, number>> {
 	const normal = FACE_AXES[mount.face].axis;
 	const out: Partial<Record<Face, number>> = {};
@@ -94,22 +141,11 @@ function overflowOf(mount: MountDef, rp: ResolvedPlacement): Partial<Record<Face
 	return out;
 }
 
-function worst(statuses: FitStatus[]): FitStatus {
-	for (const s of ['collides', 'blocked', 'outside', 'tight'] as const) {
-		if (statuses.includes(s)) return s;
-	}
-	return 'clear';
-}
-
 export function mountReport(mount: MountDef, scene: Scene, resolved: ResolvedScene): MountReport {
 	const mounted = resolved.placements.filter((rp) => rp.placement.mountId === mount.id);
 	const { axis } = FACE_AXES[mount.face];
 	const { entries, layersMm } = stackLayers(mount, mounted, resolved.innerBox.max[axis]);
-	const classes = new Set(mounted.flatMap((rp) => partClasses(rp.part)));
-	const needsPlate =
-		mounted.length > 0 &&
-		(mount.plateFor === undefined || mount.plateFor.some((c) => classes.has(c)));
-	const plateMm = needsPlate ? (mount.plateMm ?? 0) : 0;
+	const plateMm = plateNeeded(mount, mounted);
 	const usedMm = plateMm + mount.standoffMm + layersMm;
 	const budgetMm = mount.budgetMm ?? null;
 	const spareMm = budgetMm === null ? null : budgetMm - usedMm;
@@ -117,11 +153,19 @@ export function mountReport(mount: MountDef, scene: Scene, resolved: ResolvedSce
 	const overflow = mounted
 		.map((rp) => ({ placementId: rp.placement.id, overflowMm: overflowOf(mount, rp) }))
 		.filter((o) => Object.keys(o.overflowMm).length > 0);
-	const statuses: FitStatus[] = [];
-	if (spareMm !== null && spareMm < -EPSILON_MM) statuses.push('collides');
-	if (unaccepted.length > 0) statuses.push('blocked');
-	if (overflow.length > 0) statuses.push('outside');
-	if (spareMm !== null && spareMm < scene.marginMm - EPSILON_MM) statuses.push('tight');
+	const all = entries.map((e) => e.placementId).sort(compareText);
+	const problems: MountProblem[] = [];
+	const problem = (kind: MountProblem['kind'], status: FitStatus, placementIds: string[], amountMm: number) =>
+		problems.push({ mountId: mount.id, label: mount.label, kind, status, placementIds, amountMm });
+	if (spareMm !== null && spareMm < -EPSILON_MM) problem('over-budget', 'collides', all, -spareMm);
+	if (unaccepted.length > 0) problem('unaccepted', 'blocked', [...unaccepted].sort(compareText), 0);
+	if (overflow.length > 0) {
+		const most = Math.max(...overflow.flatMap((o) => Object.values(o.overflowMm)));
+		problem('overhang', 'outside', overflow.map((o) => o.placementId).sort(compareText), most);
+	}
+	if (spareMm !== null && spareMm >= -EPSILON_MM && spareMm < scene.marginMm - EPSILON_MM) {
+		problem('tight', 'tight', all, scene.marginMm - spareMm);
+	}
 	return {
 		mountId: mount.id,
 		label: mount.label,
@@ -135,7 +179,8 @@ export function mountReport(mount: MountDef, scene: Scene, resolved: ResolvedSce
 		spareMm,
 		unaccepted,
 		overflow,
-		status: worst(statuses)
+		problems,
+		status: problems[0]?.status ?? 'clear'
 	};
 }
 

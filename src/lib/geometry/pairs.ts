@@ -10,7 +10,9 @@ import type { OverlapKind, WorldBox } from './types';
  * - body against body, wall, divider or bracket: 'collides';
  * - bracket against wall, divider or bracket: 'collides' (a bar slid into the divider);
  * - a body or a solid fixed box in a keep-out: 'blocked' for an error keep-out, else 'warning';
- *   an airflow keep-out passes through a mesh panel.
+ *   an airflow keep-out passes through a mesh panel and through a mount's plate or standoffs
+ *   (they are open where the fans blow);
+ * - a mount's plate or standoffs: like a panel (a body or bracket in it collides).
  */
 export function pairKind(a: WorldBox, b: WorldBox): OverlapKind | null {
 	if (a.ownerId === b.ownerId) {
@@ -34,7 +36,7 @@ function keepoutPairKind(a: WorldBox, b: WorldBox): OverlapKind | null {
 	if (other.kind === 'keepout') {
 		return null;
 	}
-	if (other.kind === 'wall' && other.wallKind === 'mesh' && keepout.keepoutKind === 'airflow') {
+	if (keepout.keepoutKind === 'airflow' && ((other.kind === 'wall' && other.wallKind === 'mesh') || other.kind === 'plate')) {
 		return null;
 	}
 	return keepout.severity === 'warning' ? 'warning' : 'blocked';

@@ -10,6 +10,7 @@ import {
 	wallBoxes
 } from './enclosure';
 import { SceneError } from './errors';
+import { mountPlates } from './mounts';
 import { rotateBox, rotateDirection, rotatePoint, rotationMap } from './rotation';
 import { formatPath, type Box, type PartDef, type Placement, type Scene, type Vec3 } from './schema';
 import type { ResolvedPlacement, ResolvedScene, WorldBox } from './types';
@@ -37,7 +38,8 @@ export function placePart(part: PartDef, placement: Placement): ResolvedPlacemen
 			box: translateBox(turnedBodies[i], shift),
 			ownerId: placement.id,
 			placementId: placement.id,
-			partId: part.id
+			partId: part.id,
+			toleranceMm: part.toleranceMm
 		});
 	}
 	const keepouts: WorldBox[] = [];
@@ -50,6 +52,7 @@ export function placePart(part: PartDef, placement: Placement): ResolvedPlacemen
 			ownerId: placement.id,
 			placementId: placement.id,
 			partId: part.id,
+			toleranceMm: part.toleranceMm,
 			keepoutKind: k.kind,
 			severity: k.severity
 		});
@@ -108,11 +111,13 @@ export function resolveScene(scene: Scene): ResolvedScene {
 		return placePart(part, placement);
 	});
 	placements.sort((a, b) => compareText(a.placement.id, b.placement.id));
+	const innerBox = innerBoxOf(enclosure);
 	return {
-		innerBox: innerBoxOf(enclosure),
+		innerBox,
 		walls: wallBoxes(enclosure),
 		dividers,
 		brackets,
+		plates: mountPlates(enclosure, innerBox, placements),
 		placements,
 		compartments: compartmentsFor(enclosure, dividerPositions),
 		dividerPositions,

@@ -93,9 +93,11 @@ describe('power supplies in an SFX bay', () => {
 		expect(byWall['wall:right'].depthMm[0]).toBe(25);
 		expect(byWall['wall:top'].depthMm[1]).toBe(22.5);
 		expect(byWall['wall:back'].depthMm[2]).toBe(40);
-		expect(byWall['wall:right'].clearingMove).toMatchObject({ targetId: 'supply', axis: 'x', sign: -1, distanceMm: 25 });
-		expect(byWall['wall:top'].clearingMove).toMatchObject({ axis: 'y', sign: -1, distanceMm: 22.5 });
-		expect(byWall['wall:back'].clearingMove).toMatchObject({ axis: 'z', sign: -1, distanceMm: 40 });
+		// The supply already touches the left, bottom and front panels: no move clears it, the bay
+		// is too small on every axis.
+		expect(byWall['wall:right']).toMatchObject({ moves: [], clearingMove: null, noMove: 'No move along width clears this; the part is wider than the space (150.0\u2009mm with its keep-outs, 125.0\u2009mm between what bounds it).' });
+		expect(byWall['wall:top'].noMove).toMatch(/^No move along height clears this; the part is taller than the space/);
+		expect(byWall['wall:back'].noMove).toMatch(/^No move along depth clears this; the part is deeper than the space/);
 		expect(report.parts[0]).toMatchObject({ status: 'collides', outsideFaces: ['+x', '+y', '+z'] });
 		expect(report.mounts[0].overflow).toEqual([{ placementId: 'supply', overflowMm: { '+x': 25, '+y': 22.5, '+z': 40 } }]);
 		expect(report.mounts[0].unaccepted).toEqual(['supply']);
@@ -105,7 +107,8 @@ describe('power supplies in an SFX bay', () => {
 		const report = checkScene(sfxBay('std-sfx-l'));
 		expect(report.overlaps).toHaveLength(1);
 		expect(report.overlaps[0]).toMatchObject({ b: { id: 'wall:back' }, depthMm: [125, 63.5, 30] });
-		expect(report.overlaps[0].clearingMove).toMatchObject({ axis: 'z', sign: -1, distanceMm: 30 });
+		// 30 mm forward would push it 30 mm through the front panel: no move clears it.
+		expect(report.overlaps[0]).toMatchObject({ clearingMove: null, noMove: 'No move along depth clears this; the part is deeper than the space (130.0\u2009mm with its keep-outs, 100.0\u2009mm between what bounds it).' });
 		expect(report.mounts[0].overflow).toEqual([{ placementId: 'supply', overflowMm: { '+z': 30 } }]);
 	});
 

@@ -7,7 +7,7 @@
 import { FACES, compareText, type Face } from './box';
 import { bracketBoxAt, cutCompartments, dividerBoxAt, slabsFor } from './enclosure';
 import { SceneError } from './errors';
-import { buildModel, emptyTally, slideIndex, statusCounts, stepCounts, tallyMoving, tallyStatic, writeFlat, type Model, type Tally } from './model';
+import { buildModel, emptyTally, interferenceUnion, slideIndex, statusCounts, stepCounts, tallyMoving, tallyStatic, writeFlat, type Model, type Tally } from './model';
 import { allowedIndex, allowedPositions, type AllowedPosition } from './positions';
 import { resolveScene } from './resolve';
 import type { Box, BracketDef, DividerDef, Scene } from './schema';
@@ -96,7 +96,7 @@ function prepare(scene: Scene, controls: SweepControl[], gaps: GapRequest[] | un
 				compartments = cutCompartments(resolved.innerBox, slabs, labels);
 			}
 			return {
-				interferenceVolumeMm3: tally.interferenceMm3,
+				interferenceVolumeMm3: interferenceUnion(tally),
 				collisions: tally.collisions,
 				counts,
 				compartments: compartments.map((c) => ({ id: c.id, label: c.label, sizeMm: c.sizeMm })),

@@ -11,12 +11,14 @@ export const STATUS_ORDER = ['collides', 'blocked', 'outside', 'tight', 'clear']
 export type FitStatus = (typeof STATUS_ORDER)[number];
 export type StatusCounts = Record<FitStatus, number>;
 
-export type WorldBoxKind = 'wall' | 'divider' | 'bracket' | 'body' | 'keepout';
+/** `plate`: a mount's adapter plate or standoff layer, a fixed box once a mounted class needs it. */
+export type WorldBoxKind = 'wall' | 'divider' | 'bracket' | 'plate' | 'body' | 'keepout';
 
 /** One resolved box in inner coordinates. */
 export interface WorldBox {
 	/**
-	 * Unique in the scene: `wall:left`, `divider:<id>`, `bracket:<id>`, and for placed parts
+	 * Unique in the scene: `wall:left`, `divider:<id>`, `bracket:<id>`, `plate:<mountId>`,
+	 * `standoff:<mountId>`, and for placed parts
 	 * `<placementId>/<bodyId>` or `<placementId>/<keepoutId>`.
 	 */
 	id: string;
@@ -31,6 +33,10 @@ export interface WorldBox {
 	severity?: KeepoutDef['severity'];
 	wallKind?: 'solid' | 'mesh';
 	face?: FaceName;
+	/** For a plate or standoff layer: the mount it belongs to. */
+	mountId?: string;
+	/** ± mm a placed part's dimensions may be off by (its part's toleranceMm). */
+	toleranceMm?: number;
 }
 
 export interface Compartment {
@@ -57,6 +63,8 @@ export interface ResolvedScene {
 	walls: WorldBox[];
 	dividers: WorldBox[];
 	brackets: WorldBox[];
+	/** Adapter plates and standoff layers of mounts whose parts need them (see mountPlates). */
+	plates: WorldBox[];
 	placements: ResolvedPlacement[];
 	compartments: Compartment[];
 	/** Offsets actually used, after defaults for controls the scene left out. */
@@ -96,15 +104,28 @@ export interface Overlap {
 	volumeMm3: number;
 	/** Overlap extent per axis. */
 	depthMm: Vec3;
-	/** The smallest single-axis move that clears the pair. */
-	clearingMove: ClearingMove;
-	/** When a divider or bracket is involved: the nearest allowed position of it that clears. */
-	controlMove?: ClearingMove;
+	/** The axis the overlap is thinnest along: the one its depth is told on. */
+	axis: Axis;
+	/**
+	 * The best two single-axis moves of one movable thing (an unlocked part, or a divider or
+	 * bracket to an allowed position) that clear this pair without creating a collision or block
+	 * or deepening one the moved thing already has, checked against the whole scene; shortest first.
+	 */
+	moves: ClearingMove[];
+	/** moves[0], or null when no single-axis move clears it (then `noMove` says why). */
+	clearingMove: ClearingMove | null;
+	/** Words when `moves` is empty: "No move along depth clears this; the part is deeper than the space …". */
+	noMove?: string;
 }
 
 export interface FaceGap {
-	/** Free distance to the nearest box ahead of this face; negative when that box overlaps. */
+	/**
+	 * Free distance to the nearest box ahead of this face (one that reaches past the face in its
+	 * direction); negative when that box overlaps the face: then it is how far the face has gone in.
+	 */
 	gapMm: number | null;
+	/** gapMm − the part's toleranceMm − the other side's (0 for walls, dividers, brackets, plates). */
+	worstCaseMm: number | null;
 	against: ItemRef | null;
 	/**
 	 * Contact where the part is held (resting on what is below it, against its mount's panel or the
@@ -122,6 +143,23 @@ export interface PartReport {
 	/** Faces of the enclosure's inner box that the part's bodies cross. */
 	outsideFaces: Face[];
 	compartmentId: string | null;
+	/** Problems of the mount stack this part is on (over budget, overhang, class, tight), worst first. */
+	mountProblems: MountProblem[];
+}
+
+export type MountProblemKind = 'over-budget' | 'unaccepted' | 'overhang' | 'tight';
+
+export interface MountProblem {
+	mountId: string;
+	/** The mount's label, so a part's item can name it. */
+	label: string;
+	kind: MountProblemKind;
+	/** over-budget → collides, unaccepted → blocked, overhang → outside, tight → tight. */
+	status: FitStatus;
+	/** The placements it marks: the whole stack for budget problems, the parts concerned otherwise. */
+	placementIds: string[];
+	/** For over-budget and tight: mm over the budget / under the margin; for overhang: the largest overhang. */
+	amountMm: number;
 }
 
 export interface StackEntry {
@@ -149,6 +187,8 @@ export interface MountReport {
 	unaccepted: string[];
 	/** Placements that reach past the mount's region, with how far per face. */
 	overflow: { placementId: string; overflowMm: Partial<Record<Face, number>> }[];
+	/** Every problem the mount has, worst first; its status is the first one's (clear when none). */
+	problems: MountProblem[];
 	status: FitStatus;
 }
 
@@ -179,7 +219,10 @@ export interface FitReport {
 	mounts: MountReport[];
 	budgets: { heat: HeatBudget; power: PowerBudget };
 	totals: {
-		/** Sum of 'collides' overlap volumes. */
+		/**
+		 * Volume of the union of all 'collides' overlap boxes: a point where several obstacles overlap
+		 * a body counts once (per-pair volumes in `overlaps` stay pairwise).
+		 */
 		interferenceVolumeMm3: number;
 		/** Sum of 'blocked' and 'warning' overlap volumes. */
 		keepoutVolumeMm3: number;

@@ -13,11 +13,13 @@ export const STATUS_STYLE: Record<FitStatus, { color: string; edge: string; patt
 	outside: { color: '#8d939b', edge: '#c3c8ce', pattern: 'dashed', word: 'outside' }
 };
 
-/** Structure: walls, dividers and brackets in the graphite ground, the divider in brass. */
+/** Structure: walls, dividers, brackets and mount plates in the graphite ground, the divider in brass. */
 export const STRUCTURE_STYLE: Record<Exclude<WorldBoxKind, 'body' | 'keepout'>, { color: string; opacity: number }> = {
 	wall: { color: '#5c6778', opacity: 0.18 },
 	divider: { color: '#c1964a', opacity: 0.85 },
-	bracket: { color: '#aab3c0', opacity: 0.9 }
+	bracket: { color: '#aab3c0', opacity: 0.9 },
+	/** A mount's adapter plate or standoff layer: structure, a little lighter than a bracket. */
+	plate: { color: '#8a94a3', opacity: 0.7 }
 };
 
 export const KEEPOUT_STYLE = { color: '#d5dae1', opacity: 0.1 };

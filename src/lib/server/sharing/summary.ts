@@ -5,6 +5,7 @@
  */
 import { formatMm, type Face, type FitReport, type ItemRef, type PartCategory, type ResolvedScene } from '$lib/geometry';
 import { CATEGORY_WORDS as SHEET_CATEGORY_WORDS } from '$lib/builds/sheet-words';
+import { gapWords, mountProblemDetail } from '$lib/builds/words';
 import type { FitSummary } from '$lib/components/client/types';
 
 export type { FitSummary };
@@ -77,11 +78,12 @@ const cap = (s: string) => s.charAt(0).toUpperCase() + s.slice(1);
 
 /** The tightest free gap of any part face that is not resting or held against something. */
 function tightestGap(report: FitReport) {
-	let best: { placementId: string; face: Face; gapMm: number; against: ItemRef } | null = null;
+	let best: { placementId: string; face: Face; gapMm: number; worstCaseMm: number; against: ItemRef } | null = null;
 	for (const part of report.parts) {
 		for (const [face, g] of Object.entries(part.gaps) as [Face, FitReport['parts'][number]['gaps'][Face]][]) {
 			if (g.gapMm === null || g.against === null || g.held || g.gapMm < 0) continue;
-			if (!best || g.gapMm < best.gapMm) best = { placementId: part.placementId, face, gapMm: g.gapMm, against: g.against };
+			const worstCaseMm = g.worstCaseMm ?? g.gapMm;
+			if (!best || worstCaseMm < best.worstCaseMm) best = { placementId: part.placementId, face, gapMm: g.gapMm, worstCaseMm, against: g.against };
 		}
 	}
 	return best;
@@ -94,10 +96,10 @@ export function fitSummary(report: FitReport, resolved: Pick<ResolvedScene, 'pla
 	const details: string[] = [];
 
 	for (const o of report.overlaps) {
-		const depth = o.depthMm[{ x: 0, y: 1, z: 2 }[o.clearingMove.axis]];
+		const depth = o.depthMm[{ x: 0, y: 1, z: 2 }[o.axis]];
 		const a = refName(o.a, names);
 		const b = refName(o.b, names);
-		if (o.kind === 'collides') details.push(`${cap(a)} and ${b} run into each other by ${mm(depth)} ${AXIS_WORDS[o.clearingMove.axis]}.`);
+		if (o.kind === 'collides') details.push(`${cap(a)} and ${b} run into each other by ${mm(depth)} ${AXIS_WORDS[o.axis]}.`);
 		else if (o.kind === 'blocked') details.push(`${cap(o.a.kind === 'keepout' ? a : b)} is blocked by ${o.a.kind === 'keepout' ? b : a}, by ${mm(depth)}.`);
 		else details.push(`${cap(o.a.kind === 'keepout' ? a : b)} is partly taken by ${o.a.kind === 'keepout' ? b : a} (${mm(depth)}); it still fits, but is worth a look.`);
 	}
@@ -106,17 +108,19 @@ export function fitSummary(report: FitReport, resolved: Pick<ResolvedScene, 'pla
 	}
 	for (const m of report.mounts) {
 		if (m.status === 'collides' || m.status === 'outside' || m.unaccepted.length) {
-			details.push(`The ${m.label.toLowerCase()} stack does not fit its mount${m.budgetMm !== null ? ` (${mm(m.usedMm)} of ${mm(m.budgetMm)})` : ''}.`);
+			details.push(`The ${m.label.toLowerCase()} stack does not fit its mount${m.budgetMm !== null ? ` (${mm(m.usedMm)} of ${mm(m.budgetMm)})` : ''}: ${m.problems.filter((q) => q.kind !== 'tight').map(mountProblemDetail).join(', ')}.`);
 		}
 	}
 
 	const tight: string[] = [];
 	for (const p of report.parts) {
 		if (p.status !== 'tight') continue;
+		// Tight reads the worst case: the gap less both sides' tolerances.
+		const worst = (g: FitReport['parts'][number]['gaps'][Face]) => g.worstCaseMm ?? g.gapMm ?? 0;
 		const smallest = Object.entries(p.gaps)
-			.filter(([, g]) => g.gapMm !== null && !g.held && g.gapMm >= 0 && g.gapMm < marginMm)
-			.sort((x, y) => (x[1].gapMm ?? 0) - (y[1].gapMm ?? 0))[0];
-		if (smallest) tight.push(`${mm(smallest[1].gapMm!)} ${FACE_WORDS[smallest[0] as Face]} ${nameOf(p.placementId)}`);
+			.filter(([, g]) => g.gapMm !== null && !g.held && g.gapMm >= 0 && worst(g) < marginMm)
+			.sort((x, y) => worst(x[1]) - worst(y[1]))[0];
+		if (smallest) tight.push(`${gapWords(smallest[1])} ${FACE_WORDS[smallest[0] as Face]} ${nameOf(p.placementId)}`);
 	}
 
 	const problems = c.collides + c.blocked + c.outside;
@@ -136,7 +140,7 @@ export function fitSummary(report: FitReport, resolved: Pick<ResolvedScene, 'pla
 		verdict = 'fits';
 		const t = tightestGap(report);
 		headline = t
-			? `Everything fits; the tightest gap is ${mm(t.gapMm)} ${FACE_WORDS[t.face]} ${nameOf(t.placementId)}.`
+			? `Everything fits; the tightest gap is ${gapWords(t)} ${FACE_WORDS[t.face]} ${nameOf(t.placementId)}.`
 			: 'Everything fits.';
 	}
 
