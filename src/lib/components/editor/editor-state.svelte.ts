@@ -243,23 +243,28 @@ export class EditorState {
 	 * stack there), else into free space in the chosen compartment.
 	 */
 	addPart(part: PartDef, where: { mountId?: string; compartmentId?: string } = {}): string | { reason: string } {
+		return this.addPartTurned(part, where).result;
+	}
+
+	/** The same, with the quarter turn it used in words ("a quarter turn about Y"). */
+	addPartTurned(part: PartDef, where: { mountId?: string; compartmentId?: string } = {}): { result: string | { reason: string }; turn?: string } {
 		if (!this.partsById.has(part.id)) this.parts = [...this.parts, part];
 		const resolved = this.resolved;
-		if (!resolved) return { reason: 'Fix the scene’s errors first.' };
+		if (!resolved) return { result: { reason: 'Fix the scene’s errors first.' } };
 		const mount = where.mountId ? this.enclosure.mounts.find((m) => m.id === where.mountId) : undefined;
 		let landing: ReturnType<typeof landInRoom>;
 		if (mount) {
 			landing = landOnMount(resolved, mount, part);
 		} else {
-			const room = resolved.compartments.find((c) => c.id === where.compartmentId)?.box ?? resolved.innerBox;
-			landing = landInRoom(resolved, room, part);
+			const compartment = resolved.compartments.find((c) => c.id === where.compartmentId);
+			landing = landInRoom(resolved, compartment?.box ?? resolved.innerBox, part, { mounts: this.enclosure.mounts, roomLabel: compartment?.label ?? 'the enclosure' });
 		}
-		if ('reason' in landing) return landing;
+		if ('reason' in landing) return { result: landing };
 		const id = nextPlacementId(this.settings.placements);
 		const placement: Placement = { id, partId: part.id, position: landing.position, rotation: landing.rotation, ...(mount ? { mountId: mount.id } : {}) };
 		this.apply({ ...this.settings, placements: [...this.settings.placements, placement] });
 		this.selectedId = id;
-		return id;
+		return { result: id, turn: landing.turn };
 	}
 
 	// — saving —
