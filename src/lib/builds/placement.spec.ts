@@ -310,13 +310,13 @@ describe('placeInRoom turns parts to fit', () => {
 	 * at every 1 mm grid position of the room, checked with three.js Box3 for shared volume.
 	 */
 	function someTurnFits(room: Box, part: PartDef, blocked: Box[]): boolean {
-		for (let x = 0; x < 4; x++)
-			{for (let y = 0; y < 4; y++)
-				{for (let z = 0; z < 4; z++) {
-					const footprint = turnedFootprint(part, { x, y, z });
-					const spot = bruteForceSpot(room, footprint.size, blocked, 1);
-					if (spot) return true;
-				}}}
+		for (let x = 0; x < 4; x++) {
+			for (let y = 0; y < 4; y++) {
+				for (let z = 0; z < 4; z++) {
+					if (bruteForceSpot(room, turnedFootprint(part, { x, y, z }).size, blocked, 1)) return true;
+				}
+			}
+		}
 		return false;
 	}
 
