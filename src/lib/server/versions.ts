@@ -44,7 +44,7 @@ export async function latestVersions(variantIds: string[]): Promise<Map<string, 
 }
 
 /** A variant started from another's version N numbers its own from N + 1. */
-async function nextNumber(run: Run, variant: Pick<VariantRow, 'id' | 'basedOnVersionId'>): Promise<number> {
+export async function nextNumber(run: Run, variant: Pick<VariantRow, 'id' | 'basedOnVersionId'>): Promise<number> {
 	const [own] = await run.select({ n: max(variantVersions.number) }).from(variantVersions).where(eq(variantVersions.variantId, variant.id));
 	if (own?.n) return own.n + 1;
 	const base = variant.basedOnVersionId ? await versionById(variant.basedOnVersionId, run) : null;

@@ -99,9 +99,9 @@ export async function latestApproval(variantId: string): Promise<ApprovalRow | n
 
 
 /** `currentVersion` is the variant's latest version number (what the client sees now). */
-export function approvalState(approval: ApprovalRow | null, currentVersion: number): ApprovalState {
+export function approvalState(approval: ApprovalRow | null, currentVersion: number, reopened = false): ApprovalState {
 	if (!approval) return null;
-	return { version: approval.variantVersion, at: approval.createdAt, byName: approval.byName, current: approval.variantVersion === currentVersion };
+	return { version: approval.variantVersion, at: approval.createdAt, byName: approval.byName, current: approval.variantVersion === currentVersion, reopened };
 }
 
 /** Counts per variant, for the share page's overview. */

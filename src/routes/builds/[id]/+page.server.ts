@@ -3,7 +3,9 @@ import { z } from 'zod';
 import { requireBuild } from '$lib/server/access';
 import { SceneRejected, VariantRuleError, enclosureVersionDef, forkVariant, loadVariant, newerEnclosureVersion, variantsOf } from '$lib/server/builds';
 import { formFail, parseForm } from '$lib/server/forms';
-import { VariantFrozen, VersionError, canonicalJson, frozenState, latestVersion, saveVersion } from '$lib/server/versions';
+import { VariantFrozen, VersionError, canonicalJson, frozenState, latestVersion, nextNumber, saveVersion } from '$lib/server/versions';
+import { db } from '$lib/server/db';
+import { variantSettingsSchema } from '$lib/builds/settings';
 import { line } from '$lib/schemas/common';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -20,13 +22,14 @@ export const load: PageServerLoad = async ({ locals, params, url }) => {
 	if (!loaded) error(404, 'No such variant.');
 	const enc = await enclosureVersionDef(build.enclosureVersionId);
 	const variants = await variantsOf(build.id);
-	const [latest, frozen] = await Promise.all([latestVersion(loaded.variant.id), frozenState(loaded.variant.id)]);
+	const [latest, frozen, next] = await Promise.all([latestVersion(loaded.variant.id), frozenState(loaded.variant.id), nextNumber(db, loaded.variant)]);
 	return {
 		build: { id: build.id, name: build.name, clientName: build.clientName, notes: build.notes },
 		enclosure: { name: enc?.name ?? loaded.enclosure.name, version: enc?.version ?? 1, definition: loaded.enclosure, newer: await newerEnclosureVersion(build.enclosureVersionId) },
 		variant: { id: loaded.variant.id, name: loaded.variant.name, version: loaded.variant.version },
 		/** The last version the designer saved on purpose, and whether the variant changed since. */
-		savedVersion: latest ? { number: latest.number, note: latest.note, at: latest.createdAt, settingsJson: canonicalJson(latest.settings) } : null,
+		savedVersion: latest ? { number: latest.number, note: latest.note, at: latest.createdAt, settingsJson: canonicalJson(variantSettingsSchema.parse(latest.settings)) } : null,
+		nextVersion: next,
 		frozen: frozen.frozen ? { reason: frozen.reason, version: frozen.version } : null,
 		variants: variants.map((v) => ({ id: v.id, name: v.name, isProposal: v.isProposal })),
 		settings: loaded.settings,
