@@ -8,7 +8,7 @@ import type { Scene } from '$lib/geometry';
 import { db } from '../db';
 import { approvals, comments, variants, type ApprovalRow, type CommentRow } from '../db/schema';
 import { newId } from '../tokens';
-import { canonicalJson, latestVersion, recordRevision } from '../versions';
+import { canonicalJson, ensureVersion, recordRevision } from '../versions';
 import type { ApprovalState } from '$lib/components/client/types';
 
 export type Author = { userId: string | null; shareLinkId: string | null; name: string; side: 'studio' | 'client' };
@@ -53,7 +53,7 @@ export type ApproveResult = { ok: true; approval: ApprovalRow; comment: CommentR
 export async function approveVersion(input: Target & { author: Author; message: string; scene: Scene }): Promise<ApproveResult> {
 	return db.transaction(async (tx) => {
 		const [v] = await tx.select().from(variants).where(eq(variants.id, input.variantId)).for('update');
-		const latest = v ? await latestVersion(v.id, tx) : null;
+		const latest = v ? await ensureVersion(v, tx) : null;
 		if (!v || !latest || latest.number !== input.variantVersion) return { ok: false as const, reason: 'changed' as const, currentVersion: latest?.number ?? 0 };
 		const [already] = await tx.select().from(approvals).where(and(eq(approvals.variantId, input.variantId), eq(approvals.variantVersion, input.variantVersion)));
 		if (already) {
