@@ -62,7 +62,7 @@ test('approve as the client; the designer starts a new variant from it, changes 
 
 	// Send it to the client.
 	await page.goto(`/builds/${build.buildId}/share`);
-	await page.getByLabel('Variant').selectOption({ label: 'Variant A, after version 1 (version 2)' });
+	await page.getByRole('combobox', { name: 'Variant' }).selectOption({ label: 'Variant A, after version 1 (version 2)' });
 	await page.getByLabel("Client's e-mail").fill(clientMember.email);
 	await page.getByRole('button', { name: 'Create link' }).click();
 	await expect(page.getByTestId('created-link')).toContainText(`e-mailed to ${clientMember.email}`);
