@@ -10,7 +10,7 @@
  *   Renaming, reordering and choosing the proposal stay open: they change no part of what was
  *   approved. To change a frozen variant the designer starts a new variant from its version.
  */
-import { and, desc, eq, gt, inArray, max } from 'drizzle-orm';
+import { and, desc, eq, gt, inArray, lt, max } from 'drizzle-orm';
 import { canonicalJson, revisionsToPrune } from '$lib/builds/revisions';
 import { db, type Tx } from './db';
 import { approvals, comments, payments, variantRevisions, variantVersions, variants, type VariantRow, type VariantVersionRow } from './db/schema';
@@ -108,6 +108,17 @@ export async function recordRevision(tx: Tx, input: { variantId: string; revisio
 	const stamps = await tx.select({ id: variantRevisions.id, createdAt: variantRevisions.createdAt }).from(variantRevisions).where(eq(variantRevisions.variantId, input.variantId));
 	const prune = revisionsToPrune(stamps, now);
 	if (prune.length) await tx.delete(variantRevisions).where(inArray(variantRevisions.id, prune));
+}
+
+/** Up to `limit` earlier saved states, oldest first (the current one left out), for undo after a reload. */
+export async function recentRevisions(variantId: string, currentRevision: number, limit = 50): Promise<{ revision: number; settings: unknown }[]> {
+	const rows = await db
+		.select({ revision: variantRevisions.revision, settings: variantRevisions.settings })
+		.from(variantRevisions)
+		.where(and(eq(variantRevisions.variantId, variantId), lt(variantRevisions.revision, currentRevision)))
+		.orderBy(desc(variantRevisions.revision))
+		.limit(limit);
+	return rows.reverse();
 }
 
 export type SaveVersionResult = { ok: true; version: VariantVersionRow } | { ok: false; reason: 'stale'; revision: number } | { ok: false; reason: 'unchanged'; version: VariantVersionRow };

@@ -297,6 +297,19 @@ describe('autosave', () => {
 		expect(server.saves.map((s) => s.version)).toEqual([1, 2]);
 	});
 
+	it('undo reaches back into the saved revisions it was opened with (across a reload), and saves the state it goes back to', async () => {
+		const d = demo();
+		const earlier = { ...d.settings, marginMm: 3 };
+		const server = new FakeServer(2, d.settings, d.parts);
+		const editor = new EditorState({ buildId: 'b', variantId: 'v', enclosure: d.enclosure, parts: d.parts, settings: d.settings, version: 2, api: server, saveDelayMs: SAVE_DELAY_MS, checkDelayMs: CHECK_DELAY_MS, history: [earlier] });
+		expect(editor.canUndo).toBe(true);
+		editor.undo();
+		expect(editor.settings.marginMm).toBe(3);
+		await vi.advanceTimersByTimeAsync(SAVE_DELAY_MS);
+		expect(server.saves.map((s) => [s.version, s.settings.marginMm])).toEqual([[2, 3]]);
+		editor.dispose();
+	});
+
 	it('a read-only editor (approved by the client) changes nothing and saves nothing', async () => {
 		const d = demo();
 		const server = new FakeServer(1, d.settings, d.parts);

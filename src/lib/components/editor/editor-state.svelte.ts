@@ -102,9 +102,11 @@ export class EditorState {
 	/** The settings the server holds (the last save): a change back to them writes nothing. */
 	#saved: VariantSettings;
 
-	constructor(init: { buildId: string; variantId: string; enclosure: EnclosureDef; parts: PartDef[]; settings: VariantSettings; version: number; api: EditorApi; saveDelayMs?: number; checkDelayMs?: number; readOnly?: string | null }) {
+	constructor(init: { buildId: string; variantId: string; enclosure: EnclosureDef; parts: PartDef[]; settings: VariantSettings; version: number; api: EditorApi; saveDelayMs?: number; checkDelayMs?: number; readOnly?: string | null; history?: VariantSettings[] }) {
 		this.readOnly = init.readOnly ?? null;
 		this.#saved = init.settings;
+		// Earlier saved revisions, oldest first: undo steps back through them after a reload.
+		if (!this.readOnly && init.history?.length) this.#undo = init.history.slice(-HISTORY_LIMIT);
 		this.buildId = init.buildId;
 		this.variantId = init.variantId;
 		this.enclosure = init.enclosure;

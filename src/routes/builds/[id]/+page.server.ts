@@ -3,7 +3,7 @@ import { z } from 'zod';
 import { requireBuild } from '$lib/server/access';
 import { SceneRejected, VariantRuleError, enclosureVersionDef, forkVariant, loadVariant, newerEnclosureVersion, variantsOf } from '$lib/server/builds';
 import { formFail, parseForm } from '$lib/server/forms';
-import { VariantFrozen, VersionError, canonicalJson, frozenState, latestVersion, nextNumber, saveVersion } from '$lib/server/versions';
+import { VariantFrozen, VersionError, canonicalJson, frozenState, latestVersion, nextNumber, recentRevisions, saveVersion } from '$lib/server/versions';
 import { db } from '$lib/server/db';
 import { variantSettingsSchema } from '$lib/builds/settings';
 import { line } from '$lib/schemas/common';
@@ -22,7 +22,12 @@ export const load: PageServerLoad = async ({ locals, params, url }) => {
 	if (!loaded) error(404, 'No such variant.');
 	const enc = await enclosureVersionDef(build.enclosureVersionId);
 	const variants = await variantsOf(build.id);
-	const [latest, frozen, next] = await Promise.all([latestVersion(loaded.variant.id), frozenState(loaded.variant.id), nextNumber(db, loaded.variant)]);
+	const [latest, frozen, next, revisions] = await Promise.all([latestVersion(loaded.variant.id), frozenState(loaded.variant.id), nextNumber(db, loaded.variant), recentRevisions(loaded.variant.id, loaded.variant.version)]);
+	// Earlier saved states seed the undo history, so undo reaches back across a reload.
+	const history = revisions.flatMap((r) => {
+		const parsed = variantSettingsSchema.safeParse(r.settings);
+		return parsed.success ? [parsed.data] : [];
+	});
 	return {
 		build: { id: build.id, name: build.name, clientName: build.clientName, notes: build.notes },
 		enclosure: { name: enc?.name ?? loaded.enclosure.name, version: enc?.version ?? 1, definition: loaded.enclosure, newer: await newerEnclosureVersion(build.enclosureVersionId) },
@@ -33,6 +38,7 @@ export const load: PageServerLoad = async ({ locals, params, url }) => {
 		frozen: frozen.frozen ? { reason: frozen.reason, version: frozen.version } : null,
 		variants: variants.map((v) => ({ id: v.id, name: v.name, isProposal: v.isProposal })),
 		settings: loaded.settings,
+		history,
 		parts: loaded.parts,
 		role: access.role
 	};
