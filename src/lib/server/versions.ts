@@ -104,7 +104,11 @@ export async function assertNotFrozen(variantId: string, run: Run = db) {
 /** Records a saved state and thins the variant's older revisions by age, in the caller's transaction. */
 export async function recordRevision(tx: Tx, input: { variantId: string; revision: number; settings: unknown; userId?: string | null; now?: Date }) {
 	const now = input.now ?? new Date();
-	await tx.insert(variantRevisions).values({ id: newId(), variantId: input.variantId, revision: input.revision, settings: input.settings, createdBy: input.userId ?? null, createdAt: now }).onConflictDoNothing();
+	// A revision number seen again (a variant reset by hand) takes the newer state.
+	await tx
+		.insert(variantRevisions)
+		.values({ id: newId(), variantId: input.variantId, revision: input.revision, settings: input.settings, createdBy: input.userId ?? null, createdAt: now })
+		.onConflictDoUpdate({ target: [variantRevisions.variantId, variantRevisions.revision], set: { settings: input.settings, createdBy: input.userId ?? null, createdAt: now } });
 	const stamps = await tx.select({ id: variantRevisions.id, createdAt: variantRevisions.createdAt }).from(variantRevisions).where(eq(variantRevisions.variantId, input.variantId));
 	const prune = revisionsToPrune(stamps, now);
 	if (prune.length) await tx.delete(variantRevisions).where(inArray(variantRevisions.id, prune));
