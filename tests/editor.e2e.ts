@@ -50,11 +50,11 @@ async function openEditor(browser: Browser) {
 	await signIn(page);
 	await page.goto(BUILD);
 	await expect(page.getByTestId('editor')).toHaveAttribute('data-ready', 'true');
-	await expect(page.getByTestId('save-status')).toHaveText(/^Saved · version \d+$/);
+	await expect(page.getByTestId('save-status')).toHaveText(/^Saved · revision \d+$/);
 	return { context, page };
 }
 
-const versionOf = async (page: Page) => Number(/version (\d+)/.exec((await page.getByTestId('save-status').textContent()) ?? '')?.[1]);
+const versionOf = async (page: Page) => Number(/revision (\d+)/.exec((await page.getByTestId('save-status').textContent()) ?? '')?.[1]);
 
 test('the spine at "2 slots": the card collides in the report and in 3D; back at "3 slots" it fits, and the positions persist', async ({ browser }, testInfo) => {
 	const { context, page } = await openEditor(browser);
@@ -93,18 +93,18 @@ test('the spine at "2 slots": the card collides in the report and in 3D; back at
 	await expect(labels).toHaveCount(0);
 
 	// Autosave; the save went through (a new version), and a reload shows what was saved.
-	await expect(status).toHaveText(/^Saved · version \d+$/);
+	await expect(status).toHaveText(/^Saved · revision \d+$/);
 	await expect.poll(() => versionOf(page)).toBeGreaterThan(firstVersion);
 	const savedVersion = await versionOf(page);
 	await page.reload();
 	await expect(page.getByTestId('editor')).toHaveAttribute('data-ready', 'true');
 	await expect(spine).toHaveAttribute('aria-valuetext', '3 slots, 86.0\u2009mm');
-	await expect(status).toHaveText(`Saved · version ${savedVersion}`);
+	await expect(status).toHaveText(`Saved · revision ${savedVersion}`);
 
 	// A position other than the one it opened with persists too: "4 slots" with the −1 button.
 	await page.getByRole('button', { name: 'Spine: one position lower' }).click();
 	await expect(spine).toHaveAttribute('aria-valuetext', '4 slots, 65.68\u2009mm');
-	await expect(status).toHaveText(`Saved · version ${savedVersion + 1}`);
+	await expect(status).toHaveText(`Saved · revision ${savedVersion + 1}`);
 	await page.reload();
 	await expect(spine).toHaveAttribute('aria-valuetext', '4 slots, 65.68\u2009mm');
 	await expect(page.getByRole('slider', { name: 'Card support bar' })).toHaveAttribute('aria-valuetext', /^0\.0\u2009mm/);
@@ -138,20 +138,20 @@ test('a second browser saving first: the stale save gets the conflict view, and 
 
 	// B saves first: the spine to "4 slots".
 	await b.page.getByRole('button', { name: 'Spine: one position lower' }).click();
-	await expect(b.page.getByTestId('save-status')).toHaveText(`Saved · version ${opened + 1}`);
+	await expect(b.page.getByTestId('save-status')).toHaveText(`Saved · revision ${opened + 1}`);
 
 	// A, still on the version it opened, moves the spine the other way and autosaves: 409.
 	await a.page.getByRole('button', { name: 'Spine: one position higher' }).click();
 	const dialog = a.page.getByRole('dialog', { name: 'Someone saved this variant after you opened it' });
 	await expect(dialog).toBeVisible();
-	await expect(a.page.getByTestId('save-status')).toHaveText('Not saved: newer version exists');
+	await expect(a.page.getByTestId('save-status')).toHaveText('Not saved: someone saved a newer revision');
 	// Both scenes side by side: mine at "2 slots", theirs at "4 slots".
 	await expect(dialog.getByRole('heading', { name: 'Yours' }).locator('..')).toContainText('Spine: 106.32\u2009mm');
-	await expect(dialog.getByRole('heading', { name: `Saved (version ${opened + 1})` }).locator('..')).toContainText('Spine: 65.68\u2009mm');
+	await expect(dialog.getByRole('heading', { name: `Saved (revision ${opened + 1})` }).locator('..')).toContainText('Spine: 65.68\u2009mm');
 
 	await dialog.getByRole('button', { name: 'Keep mine and save it' }).click();
 	await expect(dialog).toBeHidden();
-	await expect(a.page.getByTestId('save-status')).toHaveText(`Saved · version ${opened + 2}`);
+	await expect(a.page.getByTestId('save-status')).toHaveText(`Saved · revision ${opened + 2}`);
 
 	// B reloads and sees A's scene.
 	await b.page.reload();
@@ -165,7 +165,7 @@ test('"use the saved version" takes the other browser’s scene and keeps mine o
 	const a = await openEditor(browser);
 	const b = await openEditor(browser);
 	await b.page.getByRole('button', { name: 'Spine: one position lower' }).click();
-	await expect(b.page.getByTestId('save-status')).toHaveText('Saved · version 2');
+	await expect(b.page.getByTestId('save-status')).toHaveText('Saved · revision 2');
 
 	await a.page.getByRole('button', { name: 'Spine: one position higher' }).click();
 	const dialog = a.page.getByRole('dialog', { name: 'Someone saved this variant after you opened it' });
@@ -173,7 +173,7 @@ test('"use the saved version" takes the other browser’s scene and keeps mine o
 	await expect(dialog).toBeHidden();
 	const spine = a.page.getByRole('slider', { name: 'Spine' });
 	await expect(spine).toHaveAttribute('aria-valuetext', '4 slots, 65.68\u2009mm');
-	await expect(a.page.getByTestId('save-status')).toHaveText('Saved · version 2');
+	await expect(a.page.getByTestId('save-status')).toHaveText('Saved · revision 2');
 	await a.page.getByRole('button', { name: 'Undo' }).click();
 	await expect(spine).toHaveAttribute('aria-valuetext', '2 slots, 106.32\u2009mm');
 	await a.context.close();

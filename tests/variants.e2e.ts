@@ -24,7 +24,7 @@ test('fork a variant, move the bracket in the fork, compare, cameras follow', as
 	await bar.focus();
 	await page.keyboard.press('ArrowRight');
 	await expect(page.getByTestId('ctl-value-bar')).toHaveText('10.0\u2009mm');
-	await expect(page.getByTestId('save-status')).toContainText('Saved · version 2', { timeout: 15_000 });
+	await expect(page.getByTestId('save-status')).toContainText('Saved · revision 2', { timeout: 15_000 });
 
 	await page.goto(`/builds/demo-build/compare?variants=demo-variant-a,${forkId}`);
 	const table = page.getByRole('table', { name: 'Differences between variants' });

@@ -30,8 +30,10 @@ export async function saveVariant(f: Fetch, buildId: string, variantId: string, 
 		body: JSON.stringify({ version, settings })
 	});
 	if (res.status === 409) {
-		const body = (await res.json()) as { conflict: { version: number; settings: VariantSettings; updatedAt: string } };
-		return { kind: 'conflict', ...body.conflict };
+		const body = (await res.json()) as { message?: string; conflict?: { version: number; settings: VariantSettings; updatedAt: string } };
+		// A 409 without a newer scene is a refusal (the variant is read-only), not a conflict.
+		if (body.conflict) return { kind: 'conflict', ...body.conflict };
+		return { kind: 'rejected', status: 409, problem: { message: body.message ?? 'Not saved.', issues: [] } };
 	}
 	if (!res.ok) return { kind: 'rejected', status: res.status, problem: await problemOf(res) };
 	const body = (await res.json()) as { version: number; report: FitReport };

@@ -9,6 +9,7 @@ import { describe, expect, it } from 'vitest';
 import {
 	allowedPositions,
 	checkScene,
+	placePart,
 	resolveScene,
 	sceneSchema,
 	type Box,
@@ -21,7 +22,7 @@ import {
 } from '$lib/geometry';
 import { DEMO_SPINE_OFFSETS, demoEnclosure, demoParts, demoScene, demoSceneInput, standardPart } from '$lib/geometry/fixtures';
 import { blockPart } from '$lib/geometry/factories.spec-util';
-import { freeSpot, landInRoom, landOnMount, nextPlacementId, placedBounds, snapToAllowed, stepAllowed, flatAlong } from './placement';
+import { allowedTurns, freeSpot, landInRoom, landOnMount, largestFreeBox, nextPlacementId, placeInRoom, placedBounds, snapToAllowed, stepAllowed, flatAlong, turnWords } from './placement';
 
 const toBox3 = (b: Box) => new Box3(new Vector3(...b.min), new Vector3(...b.max));
 
@@ -226,11 +227,16 @@ describe('landInRoom', () => {
 	});
 
 	it('says so when the compartment is full instead of landing on top of something', () => {
-		// The radiator bay holds a 30 mm radiator and 25 mm fans across nearly its whole face: a
-		// 40 mm deep block fits nowhere in its 64 mm.
+		// The radiator bay holds a 30 mm radiator and 25 mm fans across nearly its whole face: the
+		// free pockets are at most 30 mm (below the first fan, y 0–30) by 34 mm (z 30–64), so a
+		// 40 mm cube fits there in no turn …
 		const resolved = resolveScene(sceneOf(base));
 		const bay = resolved.compartments.find((c) => c.id === 'bulkhead.low')!;
-		expect(landInRoom(resolved, bay.box, extraParts[0])).toHaveProperty('reason');
+		const landing = landInRoom(resolved, bay.box, blockPart('cube-40', [40, 40, 40]), { roomLabel: bay.label });
+		expect(landing).toHaveProperty('reason');
+		expect((landing as { reason: string }).reason).toMatch(/largest free space in .* is .* mm; this part needs 40 × 40 × 40 mm/);
+		// … while a 20 × 30 × 40 block, too deep upright, goes in lying down.
+		expect(landAndCheck(DEMO_SPINE_OFFSETS['3 slots'], bay, extraParts[0])).toBe('landed');
 	});
 
 	it('random blocks, some with fitting room above, in every compartment: inside it and overlapping nothing (no body, no keep-out) whenever they land', () => {
@@ -297,3 +303,134 @@ describe('snapping and stepping over allowed positions', () => {
 		}
 	});
 });
+
+describe('placeInRoom turns parts to fit', () => {
+	/**
+	 * The oracle: every one of the 4³ = 64 turn triples (which cover the 24 distinct orientations)
+	 * at every 1 mm grid position of the room, checked with three.js Box3 for shared volume.
+	 */
+	function someTurnFits(room: Box, part: PartDef, blocked: Box[]): boolean {
+		for (let x = 0; x < 4; x++) {
+			for (let y = 0; y < 4; y++) {
+				for (let z = 0; z < 4; z++) {
+					if (bruteForceSpot(room, turnedFootprint(part, { x, y, z }).size, blocked, 1)) return true;
+				}
+			}
+		}
+		return false;
+	}
+
+	const int = (min: number, max: number) => fc.integer({ min, max });
+	const caseArb = fc.record({
+		roomSize: fc.tuple(int(2, 14), int(2, 14), int(2, 14)),
+		body: fc.tuple(int(1, 12), int(1, 9), int(1, 6)),
+		keepout: int(0, 4),
+		obstacles: fc.array(fc.tuple(int(-3, 14), int(-3, 14), int(-3, 14), int(1, 8), int(1, 8), int(1, 8)), { maxLength: 5 })
+	});
+
+	it('whenever some orientation fits (brute force over the 24 turns and a 1 mm grid), it finds a landing that is inside and overlaps nothing', () => {
+		let fitted = 0;
+		let full = 0;
+		fc.assert(
+			fc.property(caseArb, ({ roomSize, body, keepout, obstacles }) => {
+				const room: Box = { min: [0, 0, 0], max: roomSize as Vec3 };
+				const part = keepout ? blockWithRoom('turning', body as Vec3, keepout) : blockPart('turning', body as Vec3);
+				const blocked = obstacles.map(([x, y, z, w, h, d]) => boxAt([x, y, z], [w, h, d]));
+				const expected = someTurnFits(room, part, blocked);
+				const landing = placeInRoom(room, blocked, part);
+				if (!expected) {
+					full++;
+					expect(landing).toHaveProperty('reason');
+					return;
+				}
+				fitted++;
+				expect(landing, 'a turn fits, so placement must find one').not.toHaveProperty('reason');
+				if ('reason' in landing) return;
+				const placed = placePart(part, { id: 'n', partId: part.id, position: landing.position, rotation: landing.rotation });
+				for (const b of [...placed.bodies, ...placed.keepouts]) {
+					for (let a = 0; a < 3; a++) {
+						expect(b.box.min[a]).toBeGreaterThanOrEqual(room.min[a] - 1e-9);
+						expect(b.box.max[a]).toBeLessThanOrEqual(room.max[a] + 1e-9);
+					}
+					for (const o of blocked) expect(sharedVolume(o, b.box)).toBe(0);
+				}
+			}),
+			{ numRuns: 150 }
+		);
+		expect(fitted, 'the cases include parts that fit').toBeGreaterThan(20);
+		expect(full, 'and parts that fit nowhere').toBeGreaterThan(5);
+	});
+
+	it('a 185 mm card that fits only lying on its side is turned, and says so', () => {
+		// A narrow bay 60 wide, 130 tall, 200 deep: upright (185 along X) it cannot go in.
+		const card = demoParts().find((p) => p.id === 'demo-card')!;
+		const bare = { ...card, keepouts: [] };
+		const room: Box = { min: [0, 0, 0], max: [60, 130, 200] };
+		const landing = placeInRoom(room, [], bare);
+		expect(landing).not.toHaveProperty('reason');
+		if ('reason' in landing) return;
+		const b = placedBounds(bare, { id: 'c', partId: bare.id, position: landing.position, rotation: landing.rotation });
+		// 40.64 thick across X, 120 tall in Y, 185 long in Z: spare 19.36, 10 and 15 mm; the least is 10 mm.
+		expect(boxSizeOf(b)).toEqual([40.64, 120, 185].map((v) => expect.closeTo(v, 6)));
+		expect(landing.turn).not.toBe('as in the catalogue');
+		expect(landing.turn).toMatch(/about/);
+	});
+
+	it('keeps the catalogue’s own turn when it fits with as much room as any other', () => {
+		const cube = blockPart('cube', [10, 10, 10]);
+		const landing = placeInRoom({ min: [0, 0, 0], max: [50, 50, 50] }, [], cube);
+		expect(landing).toMatchObject({ rotation: { x: 0, y: 0, z: 0 }, turn: 'as in the catalogue' });
+	});
+
+	it('when nothing fits, names the largest free space and the closest turn (worked example)', () => {
+		// Card side 150 × 330 × 40 mm free; the card (no keep-outs) is 185 × 120 × 40.64: no turn fits,
+		// since its 185 mm length exceeds 150 and 40 on two axes and only 330 takes it, leaving 150 and 40
+		// for 120 and 40.64 — 40.64 > 40 by 0.64 mm, the closest attempt.
+		const card = { ...demoParts().find((p) => p.id === 'demo-card')!, keepouts: [] };
+		const landing = placeInRoom({ min: [0, 0, 0], max: [150, 330, 40] }, [], card, { roomLabel: 'the card side' });
+		expect(landing).toHaveProperty('reason');
+		if (!('reason' in landing)) return;
+		expect(landing.reason).toContain('the largest free space in the card side is 150 × 330 × 40 mm');
+		expect(landing.reason).toMatch(/this card needs (120 × 185 × 40\.6|120 × 185 × 40\.6) mm turned/);
+	});
+
+	it('a card with a slot mount only takes turns that put its length along the mount’s normal and its thickness across the slots', () => {
+		const card = demoParts().find((p) => p.id === 'demo-card')!;
+		const slots = { id: 'slots', label: 'Slots', kind: 'slots' as const, face: 'back' as const, region: { min: [0, 0, 230], max: [150, 60, 240] } as Box, accepts: [], standoffMm: 0, slotPitchMm: 20.32 };
+		const turns = allowedTurns(card, [slots]);
+		expect(turns.length).toBe(4);
+		for (const r of turns) {
+			const s = boxSizeOf(placedBounds({ ...card, keepouts: [] }, { id: 'c', partId: card.id, position: [0, 0, 0], rotation: r }));
+			expect(s[2]).toBeCloseTo(185, 6);
+			expect(s[0]).toBeCloseTo(40.64, 6);
+		}
+		expect(allowedTurns(blockPart('b', [1, 2, 3]), [slots]).length).toBe(24);
+		expect(allowedTurns(card, []).length).toBe(24);
+	});
+
+	it('largestFreeBox finds a box that is free, and the whole room when it is empty', () => {
+		const room: Box = { min: [0, 0, 0], max: [100, 50, 40] };
+		expect(largestFreeBox(room, [])).toEqual(room);
+		const blocked = [boxAt([0, 0, 0], [60, 50, 40])];
+		expect(largestFreeBox(room, blocked)).toEqual({ min: [60, 0, 0], max: [100, 50, 40] });
+		expect(largestFreeBox(room, [room])).toBeNull();
+	});
+
+	it('turnWords says the turn in the engine’s order', () => {
+		expect(turnWords({ x: 0, y: 0, z: 0 })).toBe('as in the catalogue');
+		expect(turnWords({ x: 1, y: 0, z: 2 })).toBe('a quarter turn about X, then a half turn about Z');
+	});
+});
+
+function boxSizeOf(b: Box): Vec3 {
+	return [b.max[0] - b.min[0], b.max[1] - b.min[1], b.max[2] - b.min[2]];
+}
+
+/** A turned part's footprint (bodies and keep-outs) size, through the engine's own placePart. */
+function turnedFootprint(part: PartDef, rotation: Placement['rotation']): { size: Vec3 } {
+	const rp = placePart(part, { id: 't', partId: part.id, position: [0, 0, 0], rotation });
+	const all = [...rp.bodies, ...rp.keepouts].map((b) => b.box);
+	const min = [0, 1, 2].map((a) => Math.min(...all.map((b) => b.min[a])));
+	const max = [0, 1, 2].map((a) => Math.max(...all.map((b) => b.max[a])));
+	return { size: [max[0] - min[0], max[1] - min[1], max[2] - min[2]] };
+}

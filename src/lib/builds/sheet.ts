@@ -52,6 +52,8 @@ export interface SheetInput {
 	clientName?: string;
 	variantName: string;
 	variantVersion: number;
+	/** "version 3" unless given ("version 3, with changes not yet saved as a version"). */
+	versionText?: string;
 	scene: Scene;
 	resolved: ResolvedScene;
 	report: FitReport;
@@ -154,7 +156,7 @@ export interface ChecklistGroup {
 }
 
 export interface SheetModel {
-	heading: { buildName: string; clientName: string; variantName: string; variantVersion: number; enclosureName: string };
+	heading: { buildName: string; clientName: string; variantName: string; variantVersion: number; versionText: string; enclosureName: string };
 	enclosure: {
 		outerText: string;
 		innerText: string;
@@ -476,6 +478,7 @@ export function buildSheet(input: SheetInput): SheetModel {
 			clientName: input.clientName ?? '',
 			variantName: input.variantName,
 			variantVersion: input.variantVersion,
+			versionText: input.versionText ?? `version ${input.variantVersion}`,
 			enclosureName: enclosure.name
 		},
 		enclosure: {

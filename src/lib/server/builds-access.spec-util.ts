@@ -6,7 +6,9 @@
  */
 import { demoSceneInput } from '$lib/geometry/fixtures';
 import { SIGN_IN, type MatrixFixture, type MatrixRow } from './testing/access-matrix';
+import { variantsOf } from './builds';
 import { buildCount, demoBuildIn, demoEnclosureIn, storedVariant } from './builds.spec-util';
+import { latestVersion } from './versions';
 
 async function withBuild(f: MatrixFixture) {
 	const b = await demoBuildIn(f.studio.id, f.owner.id);
@@ -26,6 +28,26 @@ export const buildRows: MatrixRow[] = [
 		path: (f) => `/builds/${f.vars.buildId}`,
 		setup: withBuild,
 		expect: { owner: 200, designer: 200, client: 403, outsider: 404, anonymous: SIGN_IN }
+	},
+	{
+		route: '/builds/[id]',
+		method: 'POST',
+		action: 'version',
+		path: (f) => `/builds/${f.vars.buildId}?/version`,
+		setup: withBuild,
+		form: (f) => ({ variantId: f.vars.variantId, revision: f.vars.version, note: 'Matrix version' }),
+		expect: { owner: 200, designer: 200, client: 403, outsider: 404, anonymous: SIGN_IN },
+		changes: { by: ['owner', 'designer'], check: async (f) => (await latestVersion(f.vars.variantId))?.note === 'Matrix version' }
+	},
+	{
+		route: '/builds/[id]',
+		method: 'POST',
+		action: 'startFrom',
+		path: (f) => `/builds/${f.vars.buildId}?/startFrom`,
+		setup: withBuild,
+		form: (f) => ({ variantId: f.vars.variantId }),
+		expect: { owner: { status: 303, location: /\?variant=/ }, designer: { status: 303, location: /\?variant=/ }, client: 403, outsider: 404, anonymous: SIGN_IN },
+		changes: { by: ['owner', 'designer'], check: async (f) => (await variantsOf(f.vars.buildId)).length === 2 }
 	},
 	// Acts on the visitor's own active studio: the outsider sees theirs.
 	{ route: '/builds/new', method: 'GET', expect: { owner: 200, designer: 200, client: 403, outsider: 200, anonymous: SIGN_IN } },

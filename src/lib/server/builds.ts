@@ -17,6 +17,8 @@ import { db, type Tx } from './db';
 import { builds, enclosureVersions, enclosures, memberships, parts, payments, photos, variants, type VariantRow } from './db/schema';
 import { deleteObjects } from './storage';
 import { newId } from './tokens';
+import { assertNotFrozen, frozenState, latestVersion, recordRevision } from './versions';
+import { variantVersions } from './db/schema';
 
 export class SceneRejected extends Error {
 	constructor(
@@ -92,7 +94,10 @@ export async function createBuild(input: { studioId: string; userId: string; nam
 	const id = newId();
 	await db.transaction(async (tx) => {
 		await tx.insert(builds).values({ id, studioId: input.studioId, name: input.name, clientName: input.clientName, notes: input.notes, enclosureVersionId: version.id, createdBy: input.userId });
-		await tx.insert(variants).values({ id: newId(), buildId: id, name: 'Variant A', sortOrder: 0, isProposal: true, settings: defaultSettings(definition) });
+		const variantId = newId();
+		const settings = defaultSettings(definition);
+		await tx.insert(variants).values({ id: variantId, buildId: id, name: 'Variant A', sortOrder: 0, isProposal: true, settings });
+		await tx.insert(variantVersions).values({ id: newId(), variantId, number: 1, note: 'First version', settings, revision: 1, createdBy: input.userId });
 	});
 	return id;
 }
@@ -109,14 +114,17 @@ export type LoadedVariant = {
 	scene: Scene;
 };
 
-/** A variant as the engine sees it. Throws SceneRejected if the stored scene no longer validates. */
-export async function loadVariant(buildId: string, studioId: string, enclosureVersionId: string, variantId?: string): Promise<LoadedVariant | null> {
+/**
+ * A variant as the engine sees it. Throws SceneRejected if the stored scene no longer validates.
+ * `versionSettings` loads one of its versions instead of its current state (the client page).
+ */
+export async function loadVariant(buildId: string, studioId: string, enclosureVersionId: string, variantId?: string, versionSettings?: unknown): Promise<LoadedVariant | null> {
 	const list = await variantsOf(buildId);
 	const variant = variantId ? list.find((v) => v.id === variantId) : (list.find((v) => v.isProposal) ?? list[0]);
 	if (!variant) return null;
 	const enc = await enclosureVersionDef(enclosureVersionId);
 	if (!enc) return null;
-	const settings = variantSettingsSchema.parse(variant.settings);
+	const settings = variantSettingsSchema.parse(versionSettings ?? variant.settings);
 	const { parts: defs } = await partsForStudio(studioId, settings.placements.map((p) => p.partId));
 	const scene = validateScene(enc.definition, defs, settings);
 	return { variant, settings, enclosure: enc.definition, parts: defs, scene };
@@ -140,10 +148,12 @@ export type SaveResult =
 	| { ok: false; conflict: { version: number; settings: VariantSettings; updatedAt: Date } };
 
 /**
- * Saves a variant's settings if nobody saved since `expectedVersion`. The server validates the
- * whole scene itself (positions allowed, parts this studio may use) before anything is written.
+ * Saves a variant's settings if nobody saved since `expectedVersion` (the revision number). The
+ * server validates the whole scene itself (positions allowed, parts this studio may use) before
+ * anything is written; a frozen variant (approved) refuses with VariantFrozen (409). Each save is a
+ * revision, kept and pruned by age.
  */
-export async function saveVariantSettings(input: { buildId: string; studioId: string; enclosureVersionId: string; variantId: string; expectedVersion: number; settings: unknown }): Promise<SaveResult> {
+export async function saveVariantSettings(input: { buildId: string; studioId: string; enclosureVersionId: string; variantId: string; expectedVersion: number; settings: unknown; userId?: string | null }): Promise<SaveResult> {
 	const parsed = variantSettingsSchema.safeParse(input.settings);
 	if (!parsed.success) throw new SceneRejected(formatZodIssues(parsed.error).map((i) => ({ ...i, path: `settings${i.path ? '.' + i.path : ''}` })));
 	const settings = parsed.data;
@@ -156,12 +166,16 @@ export async function saveVariantSettings(input: { buildId: string; studioId: st
 	if (!enc) throw new SceneRejected([{ path: 'enclosure', message: 'The build’s enclosure version is missing.' }], 409);
 	const scene = validateScene(enc.definition, defs, settings);
 	return db.transaction(async (tx) => {
+		// The row lock orders this save after an approval being written, so the freeze is seen.
+		const [locked] = await tx.select({ id: variants.id }).from(variants).where(and(eq(variants.id, input.variantId), eq(variants.buildId, input.buildId))).for('update');
+		if (locked) await assertNotFrozen(input.variantId, tx);
 		const [row] = await tx
 			.update(variants)
 			.set({ settings, version: input.expectedVersion + 1, updatedAt: new Date() })
 			.where(and(eq(variants.id, input.variantId), eq(variants.buildId, input.buildId), eq(variants.version, input.expectedVersion)))
 			.returning({ version: variants.version });
 		if (row) {
+			await recordRevision(tx, { variantId: input.variantId, revision: row.version, settings, userId: input.userId });
 			await tx.update(builds).set({ updatedAt: new Date() }).where(eq(builds.id, input.buildId));
 			return { ok: true as const, version: row.version, scene };
 		}
@@ -182,16 +196,26 @@ export class VariantRuleError extends Error {
 	}
 }
 
-/** A copy of a variant with all its settings and placements, right after it in the order. */
-export async function forkVariant(buildId: string, variantId: string, name?: string) {
+/**
+ * A copy of a variant with all its settings and placements, right after it in the order. With
+ * `fromVersion`, the copy starts from the source's latest version (what the client approved, not
+ * any later revision), remembers it, numbers its own versions on from it and becomes the proposal
+ * when the source was: "start a new variant from it".
+ */
+export async function forkVariant(buildId: string, variantId: string, name?: string, opts: { fromVersion?: boolean } = {}) {
 	return db.transaction(async (tx) => {
 		const list = await tx.select().from(variants).where(eq(variants.buildId, buildId)).orderBy(asc(variants.sortOrder), asc(variants.createdAt)).for('update');
 		const source = list.find((v) => v.id === variantId);
 		if (!source) throw new VariantRuleError('No such variant in this build.', 404);
+		const base = opts.fromVersion ? await latestVersion(source.id, tx) : null;
+		if (opts.fromVersion && !base) throw new VariantRuleError('This variant has no version to start from yet.', 409);
 		const id = newId();
 		const at = list.indexOf(source) + 1;
 		const ordered = [...list.slice(0, at).map((v) => v.id), id, ...list.slice(at).map((v) => v.id)];
-		await tx.insert(variants).values({ id, buildId, name: name ?? uniqueName(list.map((v) => v.name), `${source.name} (copy)`), sortOrder: at, isProposal: false, settings: source.settings });
+		const wanted = base ? `${source.name}, after version ${base.number}` : `${source.name} (copy)`;
+		const proposal = !!base && source.isProposal;
+		if (proposal) await tx.update(variants).set({ isProposal: false }).where(eq(variants.buildId, buildId));
+		await tx.insert(variants).values({ id, buildId, name: name ?? uniqueName(list.map((v) => v.name), wanted), sortOrder: at, isProposal: proposal, settings: base ? base.settings : source.settings, basedOnVersionId: base?.id ?? null });
 		await renumber(tx, ordered);
 		return id;
 	});
@@ -234,6 +258,8 @@ export async function deleteVariant(buildId: string, variantId: string) {
 		const target = list.find((v) => v.id === variantId);
 		if (!target) throw new VariantRuleError('No such variant in this build.', 404);
 		if (list.length === 1) throw new VariantRuleError('A build keeps at least one variant; this is the last one.', 409);
+		const frozen = await frozenState(variantId, tx);
+		if (frozen.frozen) throw new VariantRuleError(`Read-only: ${frozen.reason} It cannot be deleted.`, 409);
 		await tx.delete(variants).where(eq(variants.id, variantId));
 		const rest = list.filter((v) => v.id !== variantId);
 		if (target.isProposal) await tx.update(variants).set({ isProposal: true }).where(eq(variants.id, rest[0].id));
@@ -339,6 +365,10 @@ export async function moveOn(build: { id: string; studioId: string; enclosureVer
 	if (!plan?.to) throw new VariantRuleError('The build is already on the current version.', 409);
 	if (plan.to.id !== expectedToVersionId) throw new VariantRuleError('The enclosure changed again; look at the new changes first.', 409);
 	const to = plan.to;
+	for (const v of plan.variants) {
+		const frozen = await frozenState(v.id);
+		if (frozen.frozen) throw new VariantRuleError(`${v.name} is read-only: ${frozen.reason} Moving the build would change it.`, 409);
+	}
 	await db.transaction(async (tx) => {
 		const [row] = await tx.update(builds).set({ enclosureVersionId: to.id, updatedAt: new Date() }).where(and(eq(builds.id, build.id), eq(builds.enclosureVersionId, build.enclosureVersionId))).returning({ id: builds.id });
 		if (!row) throw new VariantRuleError('Someone moved this build at the same time.', 409);

@@ -144,7 +144,7 @@ function headingBlock(w: Writer, data: SheetData) {
 	const h = data.sheet.heading;
 	w.text('BUILD SHEET', { size: 7.5, font: w.fonts.bold, color: INK.dividerEdge, gapAfter: 0.5 });
 	w.text(h.buildName, { size: 18, font: w.fonts.bold, gapAfter: 0.6 });
-	w.text(`${h.variantName}, version ${h.variantVersion} · ${h.enclosureName}${h.clientName ? ` · for ${h.clientName}` : ''}`, { size: 9.5, color: INK.muted });
+	w.text(`${h.variantName}, ${h.versionText} · ${h.enclosureName}${h.clientName ? ` · for ${h.clientName}` : ''}`, { size: 9.5, color: INK.muted });
 	w.text(`${data.generatedAt.toLocaleDateString('en-GB', { day: 'numeric', month: 'long', year: 'numeric', timeZone: 'UTC' })} · ${PAPER[data.paper].label}`, { size: 8.5, color: INK.muted, gapAfter: 1.5 });
 	w.doc.moveTo(mmToPt(w.left), w.doc.y).lineTo(mmToPt(w.left + w.width), w.doc.y).lineWidth(0.9 * PT).stroke(INK.text);
 	w.yMm += 2;

@@ -14,6 +14,8 @@ import { formatMoney } from '$lib/components/client/money';
 import { requireBuild, requireVariant, roleMay, variantsSharedWithUser, type Locals } from './access';
 import type { SessionUser } from './auth';
 import { SceneRejected, loadVariant, variantsOf, type LoadedVariant } from './builds';
+import { canonicalJson, ensureVersion } from './versions';
+import { variantSettingsSchema } from '$lib/builds/settings';
 import { db } from './db';
 import { checklistTicks, users, type BuildRow } from './db/schema';
 import { photosOf } from './sharing/photos';
@@ -80,13 +82,15 @@ async function loadChecked(build: BuildRow, variantId: string | undefined) {
 	return { loaded, resolved, report: reportFor(loaded.scene, resolved) };
 }
 
-function sheetOf(build: BuildRow, checked: Awaited<ReturnType<typeof loadChecked>>): SheetModel {
+function sheetOf(build: BuildRow, checked: Awaited<ReturnType<typeof loadChecked>>, version?: { number: number; changed: boolean }): SheetModel {
 	const { loaded, resolved, report } = checked;
 	return buildSheet({
 		buildName: build.name,
 		clientName: build.clientName,
 		variantName: loaded.variant.name,
-		variantVersion: loaded.variant.version,
+		// The title names a version (what the client saw), saying so when the variant moved on since.
+		variantVersion: version?.number ?? loaded.variant.version,
+		versionText: version ? `version ${version.number}${version.changed ? ', with changes not yet saved as a version' : ''}` : undefined,
 		scene: loaded.scene,
 		resolved,
 		report
@@ -155,7 +159,8 @@ export async function loadSheet(locals: Locals, buildId: string, url: URL): Prom
 	const { visible, variantId } = await visibleVariants(locals, build, access.role, access.user, url.searchParams.get('variant'), url);
 	const paper = paperOf(url.searchParams.get('paper'));
 	const checked = await loadChecked(build, variantId);
-	const sheet = sheetOf(build, checked);
+	const shown = await ensureVersion(checked.loaded.variant);
+	const sheet = sheetOf(build, checked, { number: shown.number, changed: canonicalJson(variantSettingsSchema.parse(shown.settings)) !== canonicalJson(checked.loaded.settings) });
 	const numbers = new Map(sheet.parts.map((p, i) => [p.placementId, i + 1]));
 	const drawing = orthographicViews(checked.loaded.scene, checked.resolved, checked.report, drawingRoom(paper), numbers);
 	const variant = checked.loaded.variant;

@@ -29,15 +29,20 @@ export type ClientQuote = {
 export type ClientComment = { kind: 'comment' | 'approved' | 'changes'; body: string; authorName: string; side: 'studio' | 'client'; partLabel: string | null; partRef: string | null; at: Date; version: number };
 export type ClientPhoto = { ref: string; caption: string; width: number; height: number };
 export type DepositState = { paid: { amountMinor: number; currency: string; paidAt: Date } | null; dueMinor: number | null; currency: string | null; canPay: boolean; reason: string | null };
-export type ApprovalState = { version: number; at: Date; byName: string; current: boolean } | null;
+/** `reopened`: the client asked for changes after approving, so the studio may change it again. */
+export type ApprovalState = { version: number; at: Date; byName: string; current: boolean; reopened?: boolean } | null;
 
 export type ClientView = {
 	studioName: string;
 	buildName: string;
 	clientName: string;
 	variantName: string;
+	/** The version the client is shown (the latest the studio saved), its date and note. */
 	version: number;
 	updatedAt: Date;
+	versionNote: string;
+	/** What changed since the version before it (or the one it was started from), in words. */
+	changes: { since: number; lines: string[] } | null;
 	sharedBy: string | null;
 	enclosure: { name: string; outerMm: Vec3; innerLitres: number };
 	summary: FitSummary;

@@ -276,6 +276,53 @@ describe('parts', () => {
 });
 
 describe('autosave', () => {
+	it('an undo back to the saved state writes nothing (no revision for a nudge taken back)', async () => {
+		const { editor, server, initial } = track(setup());
+		editor.nudge('pump-res', 0, 1);
+		expect(editor.saveStatus).toBe('pending');
+		editor.undo();
+		expect(editor.settings).toBe(initial);
+		expect(editor.saveStatus).toBe('saved');
+		await vi.advanceTimersByTimeAsync(SAVE_DELAY_MS * 3);
+		expect(server.saves).toEqual([]);
+		expect(editor.version).toBe(1);
+	});
+
+	it('an undo after the nudge was saved is a change from the saved state, so it is saved', async () => {
+		const { editor, server } = track(setup());
+		editor.nudge('pump-res', 0, 1);
+		await vi.advanceTimersByTimeAsync(SAVE_DELAY_MS);
+		editor.undo();
+		await vi.advanceTimersByTimeAsync(SAVE_DELAY_MS);
+		expect(server.saves.map((s) => s.version)).toEqual([1, 2]);
+	});
+
+	it('undo reaches back into the saved revisions it was opened with (across a reload), and saves the state it goes back to', async () => {
+		const d = demo();
+		const earlier = { ...d.settings, marginMm: 3 };
+		const server = new FakeServer(2, d.settings, d.parts);
+		const editor = new EditorState({ buildId: 'b', variantId: 'v', enclosure: d.enclosure, parts: d.parts, settings: d.settings, version: 2, api: server, saveDelayMs: SAVE_DELAY_MS, checkDelayMs: CHECK_DELAY_MS, history: [earlier] });
+		expect(editor.canUndo).toBe(true);
+		editor.undo();
+		expect(editor.settings.marginMm).toBe(3);
+		await vi.advanceTimersByTimeAsync(SAVE_DELAY_MS);
+		expect(server.saves.map((s) => [s.version, s.settings.marginMm])).toEqual([[2, 3]]);
+		editor.dispose();
+	});
+
+	it('a read-only editor (approved by the client) changes nothing and saves nothing', async () => {
+		const d = demo();
+		const server = new FakeServer(1, d.settings, d.parts);
+		const editor = new EditorState({ buildId: 'b', variantId: 'v', enclosure: d.enclosure, parts: d.parts, settings: d.settings, version: 1, api: server, saveDelayMs: SAVE_DELAY_MS, checkDelayMs: CHECK_DELAY_MS, readOnly: 'Version 1 was approved.' });
+		editor.nudge('pump-res', 0, 1);
+		editor.setControl('divider', 'spine', 106.32);
+		expect(editor.settings).toBe(d.settings);
+		expect(editor.addPart(d.parts[0])).toEqual({ reason: 'Read-only: Version 1 was approved.' });
+		await vi.advanceTimersByTimeAsync(SAVE_DELAY_MS * 2);
+		expect(server.saves).toEqual([]);
+		editor.dispose();
+	});
+
 	it('saves once after a pause, with the last position of the drag, and counts the version up', async () => {
 		const { editor, server } = track(setup());
 		for (const offset of [10, 20, 30]) {

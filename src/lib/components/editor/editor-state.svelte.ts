@@ -23,6 +23,7 @@ import {
 import { composeScene, type VariantSettings } from '$lib/builds/settings';
 import { landInRoom, landOnMount, nextPlacementId, snapToAllowed, stepAllowed, turnQuarter } from '$lib/builds/placement';
 import { reportDigest } from '$lib/builds/report-digest';
+import { canonicalJson } from '$lib/builds/revisions';
 import type { Problem, SaveOutcome } from '$lib/api/client';
 import type { ViewName } from '$lib/components/scene/view';
 
@@ -38,6 +39,10 @@ type Computed =
 	| { ok: false; issues: FieldIssue[] };
 
 const HISTORY_LIMIT = 200;
+
+function sameSettings(a: VariantSettings, b: VariantSettings): boolean {
+	return a === b || canonicalJson(a) === canonicalJson(b);
+}
 
 function compute(enclosure: EnclosureDef, parts: PartDef[], settings: VariantSettings): Computed {
 	const parsed = sceneSchema.safeParse(composeScene(enclosure, parts, settings));
@@ -92,7 +97,16 @@ export class EditorState {
 	// eslint-disable-next-line svelte/prefer-svelte-reactivity
 	partsById = $derived(new Map(this.parts.map((p) => [p.id, p])));
 
-	constructor(init: { buildId: string; variantId: string; enclosure: EnclosureDef; parts: PartDef[]; settings: VariantSettings; version: number; api: EditorApi; saveDelayMs?: number; checkDelayMs?: number }) {
+	/** Set when the client approved this variant: nothing changes, nothing is saved. */
+	readOnly: string | null = null;
+	/** The settings the server holds (the last save): a change back to them writes nothing. */
+	#saved: VariantSettings;
+
+	constructor(init: { buildId: string; variantId: string; enclosure: EnclosureDef; parts: PartDef[]; settings: VariantSettings; version: number; api: EditorApi; saveDelayMs?: number; checkDelayMs?: number; readOnly?: string | null; history?: VariantSettings[] }) {
+		this.readOnly = init.readOnly ?? null;
+		this.#saved = init.settings;
+		// Earlier saved revisions, oldest first: undo steps back through them after a reload.
+		if (!this.readOnly && init.history?.length) this.#undo = init.history.slice(-HISTORY_LIMIT);
 		this.buildId = init.buildId;
 		this.variantId = init.variantId;
 		this.enclosure = init.enclosure;
@@ -109,6 +123,7 @@ export class EditorState {
 	 * drag, one held arrow key) make a single undo step.
 	 */
 	apply(next: VariantSettings, coalesce?: string) {
+		if (this.readOnly) return;
 		if (!(coalesce && coalesce === this.#coalesceKey)) {
 			this.#undo = [...this.#undo, this.settings].slice(-HISTORY_LIMIT);
 		}
@@ -128,7 +143,7 @@ export class EditorState {
 
 	undo() {
 		const prev = this.#undo.at(-1);
-		if (!prev) return;
+		if (!prev || this.readOnly) return;
 		this.#undo = this.#undo.slice(0, -1);
 		this.#redo = [...this.#redo, this.settings];
 		this.#coalesceKey = null;
@@ -138,7 +153,7 @@ export class EditorState {
 
 	redo() {
 		const next = this.#redo.at(-1);
-		if (!next) return;
+		if (!next || this.readOnly) return;
 		this.#redo = this.#redo.slice(0, -1);
 		this.#undo = [...this.#undo, this.settings];
 		this.#coalesceKey = null;
@@ -243,23 +258,29 @@ export class EditorState {
 	 * stack there), else into free space in the chosen compartment.
 	 */
 	addPart(part: PartDef, where: { mountId?: string; compartmentId?: string } = {}): string | { reason: string } {
+		return this.addPartTurned(part, where).result;
+	}
+
+	/** The same, with the quarter turn it used in words ("a quarter turn about Y"). */
+	addPartTurned(part: PartDef, where: { mountId?: string; compartmentId?: string } = {}): { result: string | { reason: string }; turn?: string } {
 		if (!this.partsById.has(part.id)) this.parts = [...this.parts, part];
 		const resolved = this.resolved;
-		if (!resolved) return { reason: 'Fix the scene’s errors first.' };
+		if (this.readOnly) return { result: { reason: `Read-only: ${this.readOnly}` } };
+		if (!resolved) return { result: { reason: 'Fix the scene’s errors first.' } };
 		const mount = where.mountId ? this.enclosure.mounts.find((m) => m.id === where.mountId) : undefined;
 		let landing: ReturnType<typeof landInRoom>;
 		if (mount) {
 			landing = landOnMount(resolved, mount, part);
 		} else {
-			const room = resolved.compartments.find((c) => c.id === where.compartmentId)?.box ?? resolved.innerBox;
-			landing = landInRoom(resolved, room, part);
+			const compartment = resolved.compartments.find((c) => c.id === where.compartmentId);
+			landing = landInRoom(resolved, compartment?.box ?? resolved.innerBox, part, { mounts: this.enclosure.mounts, roomLabel: compartment?.label ?? 'the enclosure' });
 		}
-		if ('reason' in landing) return landing;
+		if ('reason' in landing) return { result: landing };
 		const id = nextPlacementId(this.settings.placements);
 		const placement: Placement = { id, partId: part.id, position: landing.position, rotation: landing.rotation, ...(mount ? { mountId: mount.id } : {}) };
 		this.apply({ ...this.settings, placements: [...this.settings.placements, placement] });
 		this.selectedId = id;
-		return id;
+		return { result: id, turn: landing.turn };
 	}
 
 	// — saving —
@@ -269,7 +290,11 @@ export class EditorState {
 		this.serverAgrees = null;
 		clearTimeout(this.#saveTimer);
 		clearTimeout(this.#checkTimer);
-		if (!this.conflict) this.#saveTimer = setTimeout(() => void this.saveNow(), this.#saveDelayMs);
+		// Back to what the server holds (an undo of an unsaved change): nothing to write.
+		if (!this.conflict && !this.#inFlight && sameSettings(this.settings, this.#saved)) {
+			this.saveStatus = 'saved';
+			this.saveMessage = '';
+		} else if (!this.conflict) this.#saveTimer = setTimeout(() => void this.saveNow(), this.#saveDelayMs);
 		this.#checkTimer = setTimeout(() => void this.confirmWithServer(), this.#checkDelayMs);
 	}
 
@@ -299,6 +324,7 @@ export class EditorState {
 		}
 		if (outcome.kind === 'saved') {
 			this.version = outcome.version;
+			this.#saved = settings;
 			// A change made while the save was in flight is saved next.
 			if (this.settings === settings) {
 				this.saveStatus = 'saved';
@@ -324,6 +350,7 @@ export class EditorState {
 		this.#undo = [...this.#undo, c.settings].slice(-HISTORY_LIMIT);
 		this.#coalesceKey = null;
 		this.version = c.version;
+		this.#saved = c.settings;
 		this.conflict = null;
 		await this.saveNow();
 	}
@@ -337,6 +364,7 @@ export class EditorState {
 		this.#coalesceKey = null;
 		this.settings = c.settings;
 		this.version = c.version;
+		this.#saved = c.settings;
 		this.conflict = null;
 		this.saveStatus = 'saved';
 		this.saveMessage = '';

@@ -1,4 +1,4 @@
-import { boolean, index, integer, jsonb, pgTable, text, timestamp } from 'drizzle-orm/pg-core';
+import { boolean, index, integer, jsonb, pgTable, text, timestamp, uniqueIndex, type AnyPgColumn } from 'drizzle-orm/pg-core';
 import { studios, users } from './schema-auth';
 import { enclosureVersions } from './schema-catalog';
 
@@ -39,13 +39,63 @@ export const variants = pgTable(
 		isProposal: boolean('is_proposal').notNull().default(false),
 		/** The variant's own settings (not the enclosure or part definitions, which are referenced). */
 		settings: jsonb('settings').notNull(),
-		/** Incremented on every save; a save naming an older version gets 409. */
+		/**
+		 * The revision number: incremented on every save (autosave too); a save naming an older one gets
+		 * 409. Not what the client sees: that is a version (variant_version), made on purpose.
+		 */
 		version: integer('version').notNull().default(1),
+		/** For a variant started from another's version ("start a new variant from it"): that version. */
+		basedOnVersionId: text('based_on_version_id').references((): AnyPgColumn => variantVersions.id, { onDelete: 'set null' }),
 		createdAt: ts('created_at').notNull().defaultNow(),
 		updatedAt: ts('updated_at').notNull().defaultNow()
 	},
 	(t) => [index('variant_build_idx').on(t.buildId)]
 );
 
+/**
+ * Every saved state of a variant (each autosave), for undo across reloads and "what changed since";
+ * pruned by age (src/lib/builds/revisions.ts).
+ */
+export const variantRevisions = pgTable(
+	'variant_revision',
+	{
+		id: text('id').primaryKey(),
+		variantId: text('variant_id')
+			.notNull()
+			.references(() => variants.id, { onDelete: 'cascade' }),
+		/** The variant's revision number after this save. */
+		revision: integer('revision').notNull(),
+		settings: jsonb('settings').notNull(),
+		createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
+		createdAt: ts('created_at').notNull().defaultNow()
+	},
+	(t) => [uniqueIndex('variant_revision_key').on(t.variantId, t.revision), index('variant_revision_age_idx').on(t.variantId, t.createdAt)]
+);
+
+/**
+ * A named, numbered snapshot the designer makes on purpose ("Save as version 3 — moved the spine
+ * one slot"). Only versions reach clients: share links show the latest, approvals name one.
+ */
+export const variantVersions = pgTable(
+	'variant_version',
+	{
+		id: text('id').primaryKey(),
+		variantId: text('variant_id')
+			.notNull()
+			.references(() => variants.id, { onDelete: 'cascade' }),
+		/** 1, 2, 3 … per variant; a variant started from another's version N continues at N + 1. */
+		number: integer('number').notNull(),
+		note: text('note').notNull().default(''),
+		settings: jsonb('settings').notNull(),
+		/** The revision it was made from. */
+		revision: integer('revision').notNull(),
+		createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
+		createdAt: ts('created_at').notNull().defaultNow()
+	},
+	(t) => [uniqueIndex('variant_version_number_key').on(t.variantId, t.number)]
+);
+
 export type BuildRow = typeof builds.$inferSelect;
 export type VariantRow = typeof variants.$inferSelect;
+export type VariantRevisionRow = typeof variantRevisions.$inferSelect;
+export type VariantVersionRow = typeof variantVersions.$inferSelect;

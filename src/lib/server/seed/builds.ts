@@ -2,10 +2,12 @@
  * The demo build: the demo sandwich enclosure with the engine's demo parts placed, where everything
  * fits with the spine at "3 slots" and the card collides at "2 slots". Two variants to compare.
  */
+import { eq } from 'drizzle-orm';
 import { DEMO_SPINE_OFFSETS, demoSceneInput } from '$lib/geometry/fixtures';
 import { variantSettingsSchema } from '$lib/builds/settings';
 import { db } from '../db';
 import { builds, variants } from '../db/schema';
+import { ensureVersion } from '../versions';
 import { DEMO_STUDIO, DEMO_USERS } from './accounts';
 
 export const DEMO_BUILD_ID = 'demo-build';
@@ -38,4 +40,6 @@ export async function seedBuilds() {
 			{ id: 'demo-variant-b', buildId: DEMO_BUILD_ID, name: 'Spine at two slots', sortOrder: 1, isProposal: false, settings: { ...settings, dividerPositions: { ...settings.dividerPositions, spine: DEMO_SPINE_OFFSETS['2 slots'] } } }
 		])
 		.onConflictDoNothing();
+	// Each demo variant starts at version 1 = its seeded state (idempotent: kept once made).
+	for (const v of await db.select().from(variants).where(eq(variants.buildId, DEMO_BUILD_ID))) await ensureVersion(v);
 }

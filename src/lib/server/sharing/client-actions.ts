@@ -113,7 +113,7 @@ export async function approveAction(event: RequestEvent, actor: ClientActor) {
 		buildId: actor.build.id,
 		linkCreatedBy: actor.linkCreatedBy,
 		subject: `Approved: ${actor.build.name}`,
-		lines: [`${name} approved ${actor.variant.name}, version ${parsed.data.version}.`, ...(parsed.data.message ? ['', parsed.data.message] : []), '', 'That version is now frozen: any change makes a new version that needs a new approval.']
+		lines: [`${name} approved ${actor.variant.name}, version ${parsed.data.version}.`, ...(parsed.data.message ? ['', parsed.data.message] : []), '', 'The variant is now read-only in the editor. To change it, start a new variant from it (or wait until the client asks for changes).']
 	});
 	return { done: 'approved' as const };
 }
@@ -129,7 +129,7 @@ export async function changesAction(event: RequestEvent, actor: ClientActor) {
 		buildId: actor.build.id,
 		linkCreatedBy: actor.linkCreatedBy,
 		subject: `Changes asked for: ${actor.build.name}`,
-		lines: [`${name} asked for changes to ${actor.variant.name} (version ${parsed.data.version}):`, '', parsed.data.message]
+		lines: [`${name} asked for changes to ${actor.variant.name} (version ${parsed.data.version}):`, '', parsed.data.message, '', 'If the variant was approved, it is open for changes again.']
 	});
 	return { done: 'changes' as const };
 }

@@ -8,9 +8,11 @@ import type { ClientStatus } from '$lib/components/client/types';
 import { linksOfBuild } from './links';
 import { quoteOfVariant } from './quotes';
 import { approvalState, latestApproval } from './thread';
+import { latestVersions } from '../versions';
 
 export async function clientStatusOf(buildId: string): Promise<ClientStatus[]> {
 	const [variants, links] = await Promise.all([variantsOf(buildId), linksOfBuild(buildId)]);
+	const versions = await latestVersions(variants.map((v) => v.id));
 	return Promise.all(
 		variants.map(async (v) => {
 			const [approval, quote] = await Promise.all([latestApproval(v.id), quoteOfVariant(v.id)]);
@@ -18,8 +20,9 @@ export async function clientStatusOf(buildId: string): Promise<ClientStatus[]> {
 			return {
 				id: v.id,
 				name: v.name,
-				version: v.version,
-				approval: approvalState(approval, v.version),
+				// The version the client sees (0: none saved yet).
+				version: versions.get(v.id)?.number ?? 0,
+				approval: approvalState(approval, versions.get(v.id)?.number ?? 0),
 				quote: quote ? { status: quote.quote.status, currency: quote.quote.currency, totalMinor: quote.totals.totalMinor, depositMinor: quote.totals.depositMinor } : null,
 				deposit: paid ? { amountMinor: paid.amountMinor, currency: paid.currency, paidAt: paid.paidAt } : null,
 				links: links.filter((l) => l.variantId === v.id && l.state === 'active').length

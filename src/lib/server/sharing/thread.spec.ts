@@ -7,6 +7,7 @@ import { approvals, builds, studios } from '../db/schema';
 import { testDatabaseUrl } from '../testing/env';
 import { approvalState, approveVersion, latestApproval, requestChanges, threadOf, addComment, type Author } from './thread';
 import { sharedDemo, variantRow } from './test-factory';
+import { VariantFrozen, saveVersion } from '../versions';
 import { clientView } from './view';
 
 testDatabaseUrl();
@@ -20,35 +21,39 @@ async function sceneOf(s: Awaited<ReturnType<typeof sharedDemo>>) {
 }
 
 describe('approval freezes a version', () => {
-	it('approves exactly the version seen; an edit makes a new version that needs its own approval', async () => {
+	it('approves exactly the version seen; the variant is then read-only until the client asks for changes, and a newer version needs its own approval', async () => {
 		const s = await sharedDemo();
 		const v1 = await variantRow(s.variantId);
 		const scene1 = await sceneOf(s);
-		const first = await approveVersion({ buildId: s.buildId, variantId: s.variantId, variantVersion: v1.version, author: client(s.link.id), message: 'Looks right.', scene: scene1 });
+		const first = await approveVersion({ buildId: s.buildId, variantId: s.variantId, variantVersion: 1, author: client(s.link.id), message: 'Looks right.', scene: scene1 });
 		expect(first.ok).toBe(true);
-		expect(approvalState(await latestApproval(s.variantId), v1.version)?.current).toBe(true);
+		expect(approvalState(await latestApproval(s.variantId), 1)?.current).toBe(true);
 
-		// The designer moves the spine one step: a new version.
+		// The designer tries to move the spine one step: refused, the variant is frozen.
 		const moved = { ...s.settings, dividerPositions: { ...s.settings.dividerPositions, spine: 65.68 } };
-		const saved = await saveVariantSettings({ buildId: s.buildId, studioId: s.studio.id, enclosureVersionId: s.enclosureVersionId, variantId: s.variantId, expectedVersion: v1.version, settings: moved });
-		expect(saved.ok).toBe(true);
-		const v2 = await variantRow(s.variantId);
-		expect(v2.version).toBe(v1.version + 1);
+		const save = () => saveVariantSettings({ buildId: s.buildId, studioId: s.studio.id, enclosureVersionId: s.enclosureVersionId, variantId: s.variantId, expectedVersion: v1.version, settings: moved });
+		await expect(save()).rejects.toBeInstanceOf(VariantFrozen);
 
-		const state = approvalState(await latestApproval(s.variantId), v2.version);
-		expect(state).toMatchObject({ version: v1.version, current: false });
+		// The client asks for changes: the designer may change it and save version 2.
+		await requestChanges({ buildId: s.buildId, variantId: s.variantId, variantVersion: 1, author: client(s.link.id), message: 'The spine one slot over, please.' });
+		expect((await save()).ok).toBe(true);
+		const v2 = await saveVersion({ buildId: s.buildId, variantId: s.variantId, expectedRevision: v1.version + 1, note: 'Spine one slot over', userId: s.designer.id });
+		expect(v2).toMatchObject({ ok: true, version: { number: 2 } });
+
+		const state = approvalState(await latestApproval(s.variantId), 2);
+		expect(state).toMatchObject({ version: 1, current: false });
 		// The approved scene is kept as it was, not as it is now.
 		const [frozen] = await db.select().from(approvals).where(eq(approvals.variantId, s.variantId));
 		expect((frozen.scene as typeof scene1).dividerPositions.spine).toBe(scene1.dividerPositions.spine);
 		expect((frozen.scene as typeof scene1).dividerPositions.spine).not.toBe(65.68);
 
 		// Approving the old version again is refused: the client must look at the new one.
-		const stale = await approveVersion({ buildId: s.buildId, variantId: s.variantId, variantVersion: v1.version, author: client(s.link.id), message: '', scene: scene1 });
-		expect(stale).toMatchObject({ ok: false, reason: 'changed', currentVersion: v2.version });
+		const stale = await approveVersion({ buildId: s.buildId, variantId: s.variantId, variantVersion: 1, author: client(s.link.id), message: '', scene: scene1 });
+		expect(stale).toMatchObject({ ok: false, reason: 'changed', currentVersion: 2 });
 
-		const second = await approveVersion({ buildId: s.buildId, variantId: s.variantId, variantVersion: v2.version, author: client(s.link.id), message: '', scene: await sceneOf(s) });
+		const second = await approveVersion({ buildId: s.buildId, variantId: s.variantId, variantVersion: 2, author: client(s.link.id), message: '', scene: await sceneOf(s) });
 		expect(second.ok).toBe(true);
-		expect(approvalState(await latestApproval(s.variantId), v2.version)).toMatchObject({ version: v2.version, current: true });
+		expect(approvalState(await latestApproval(s.variantId), 2)).toMatchObject({ version: 2, current: true });
 	});
 
 	it('approving the same version twice keeps one approval', async () => {

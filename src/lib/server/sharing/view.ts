@@ -7,9 +7,11 @@
 import { createHash } from 'node:crypto';
 import { inArray } from 'drizzle-orm';
 import { boxSize, checkScene, innerVolumeLitres, resolveScene, type PartCategory, type PartDef, type Scene } from '$lib/geometry';
+import { versionChanges } from '$lib/builds/version-diff';
 import { loadVariant } from '../builds';
+import { ensureVersion, versionById, versionsOf } from '../versions';
 import { db } from '../db';
-import { parts as partsTable, type BuildRow, type VariantRow } from '../db/schema';
+import { parts as partsTable, type BuildRow, type VariantRow, type VariantVersionRow } from '../db/schema';
 import { paidDeposit } from '../payments';
 import { photosOf } from './photos';
 import { quoteOfVariant } from './quotes';
@@ -49,8 +51,11 @@ export type ViewerKind = { kind: 'link'; scopeKey: string; mayPay: boolean } | {
 
 export async function clientView(input: { build: BuildRow; variant: VariantRow; studioName: string; sharedBy: string | null; viewer: ViewerKind }): Promise<{ view: ClientView; placementIds: Map<string, string>; frozenScene: Scene }> {
 	const { build, variant } = input;
-	const loaded = await loadVariant(build.id, build.studioId, build.enclosureVersionId, variant.id);
+	// Clients see versions only: the latest one the studio saved, never later autosaved revisions.
+	const shown = await ensureVersion(variant);
+	const loaded = await loadVariant(build.id, build.studioId, build.enclosureVersionId, variant.id, shown.settings);
 	if (!loaded) throw new Error('The shared variant could not be loaded.');
+	const changes = await changesSince(input, shown, loaded);
 	const neutral = neutralScene(loaded.scene);
 	const scene = neutral.scene;
 	const report = checkScene(scene);
@@ -108,7 +113,8 @@ export async function clientView(input: { build: BuildRow; variant: VariantRow; 
 			}
 		: null;
 
-	const approvalNow = approvalState(approval, variant.version);
+	const reopened = !!approval && thread.some((c) => c.kind === 'changes' && c.createdAt > approval.createdAt);
+	const approvalNow = approvalState(approval, shown.number, reopened);
 	const paid = quoteData ? await paidDeposit(quoteData.quote.id) : null;
 	const deposit: DepositState = {
 		paid: paid && paid.paidAt ? { amountMinor: paid.amountMinor, currency: paid.currency, paidAt: paid.paidAt } : null,
@@ -119,7 +125,7 @@ export async function clientView(input: { build: BuildRow; variant: VariantRow; 
 	};
 	if (!deposit.paid) {
 		if (!quote) deposit.reason = 'The studio has not sent a quote yet.';
-		else if (!approvalNow?.current) deposit.reason = 'Approve the build first; the deposit is for the version you approve.';
+		else if (!approvalNow?.current || approvalNow.reopened) deposit.reason = 'Approve the build first; the deposit is for the version you approve.';
 		else if (!input.viewer.mayPay) deposit.reason = 'Only the client can pay the deposit.';
 		else deposit.canPay = true;
 	}
@@ -141,8 +147,10 @@ export async function clientView(input: { build: BuildRow; variant: VariantRow; 
 		buildName: build.name,
 		clientName: build.clientName,
 		variantName: variant.name,
-		version: variant.version,
-		updatedAt: variant.updatedAt,
+		version: shown.number,
+		updatedAt: shown.createdAt,
+		versionNote: shown.note,
+		changes,
 		sharedBy: input.sharedBy,
 		enclosure: { name: scene.enclosure.name, outerMm: scene.enclosure.outerMm, innerLitres: innerVolumeLitres(scene.enclosure) },
 		summary: fitSummary(report, resolved, scene.marginMm),
@@ -156,6 +164,27 @@ export async function clientView(input: { build: BuildRow; variant: VariantRow; 
 		photos: photoRows.map((p) => ({ ref: photoRef(input.viewer.scopeKey, p.id), caption: p.caption, width: p.width, height: p.height }))
 	};
 	return { view, placementIds: neutral.placementIds, frozenScene: loaded.scene };
+}
+
+/**
+ * The difference between the shown version and the one before it (of this variant, or the version
+ * it was started from), in words; null for a first version.
+ */
+async function changesSince(input: { build: BuildRow; variant: VariantRow }, shown: VariantVersionRow, loaded: NonNullable<Awaited<ReturnType<typeof loadVariant>>>) {
+	const older = (await versionsOf(input.variant.id)).find((v) => v.number < shown.number);
+	const before = older ?? (input.variant.basedOnVersionId ? await versionById(input.variant.basedOnVersionId) : null);
+	if (!before || before.id === shown.id) return null;
+	let prior;
+	try {
+		prior = await loadVariant(input.build.id, input.build.studioId, input.build.enclosureVersionId, input.variant.id, before.settings);
+	} catch {
+		// An old version that no longer validates (its enclosure moved on): no comparison to offer.
+		return null;
+	}
+	if (!prior) return null;
+	const parts = [...loaded.parts, ...prior.parts.filter((p) => !loaded.parts.some((q) => q.id === p.id))];
+	const lines = versionChanges(loaded.enclosure, parts, { settings: prior.settings, report: checkScene(prior.scene) }, { settings: loaded.settings, report: checkScene(loaded.scene) });
+	return { since: before.number, lines };
 }
 
 /** The photo id behind a reference, among this build's photos. */

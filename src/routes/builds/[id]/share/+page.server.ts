@@ -13,6 +13,7 @@ import { limits } from '$lib/server/rate-limit';
 import { createShareLink, linksOfBuild, revokeShareLink, sendShareMail, shareUrl } from '$lib/server/sharing/links';
 import { notifyClient } from '$lib/server/sharing/notify';
 import { clientStatusOf } from '$lib/server/sharing/status';
+import { ensureVersion } from '$lib/server/versions';
 import { placementNames } from '$lib/server/sharing/summary';
 import { addComment, threadOf } from '$lib/server/sharing/thread';
 import { resolveScene } from '$lib/geometry';
@@ -118,7 +119,8 @@ export const actions: Actions = {
 		await addComment({
 			buildId: build.id,
 			variantId: variant.id,
-			variantVersion: variant.version,
+			// Comments name the version the client sees, not the editor's revision.
+			variantVersion: (await ensureVersion(variant)).number,
 			author: { userId: access.user.id, shareLinkId: null, name: access.user.name, side: 'studio' },
 			placementId: parsed.data.part || null,
 			partLabel,

@@ -6,6 +6,7 @@ import { variantSettingsSchema } from '$lib/builds/settings';
 import { requireBuild } from '$lib/server/access';
 import { apiLimit, problem, readJson } from '$lib/server/api';
 import { SceneRejected, saveVariantSettings, variantsOf } from '$lib/server/builds';
+import { VariantFrozen } from '$lib/server/versions';
 import type { RequestHandler } from './$types';
 
 export const GET: RequestHandler = async (event) => {
@@ -18,7 +19,10 @@ export const GET: RequestHandler = async (event) => {
 // The version column is a PostgreSQL integer: 2³¹ or more used to overflow it (a 500).
 const body = z.object({ version: int4('version', 1), settings: z.unknown() });
 
-/** Autosave. 409 with the stored scene when someone saved since `version`; nothing is lost. */
+/**
+ * Autosave (one revision per save). 409 with the stored scene when someone saved since `version`;
+ * nothing is lost. 409 without a scene when the variant is read-only (approved by the client).
+ */
 export const PUT: RequestHandler = async (event) => {
 	const { build, access } = await requireBuild(event.locals, event.params.id, 'build.edit');
 	await apiLimit(event, access.user.id);
@@ -30,12 +34,14 @@ export const PUT: RequestHandler = async (event) => {
 			enclosureVersionId: build.enclosureVersionId,
 			variantId: event.params.variantId,
 			expectedVersion: input.version,
-			settings: input.settings
+			settings: input.settings,
+			userId: access.user.id
 		});
 		if (!result.ok) return json({ message: 'Someone saved this variant after you loaded it.', conflict: result.conflict }, { status: 409 });
 		return json({ version: result.version, report: checkScene(result.scene) });
 	} catch (e) {
 		if (e instanceof SceneRejected) return problem(e.status, 'The scene was not saved.', e.issues);
+		if (e instanceof VariantFrozen) return problem(409, e.message);
 		throw e;
 	}
 };
