@@ -54,8 +54,8 @@ describe('the part list', () => {
 	});
 
 	it('names the nearest free gap with what it is against', () => {
-		// The block's top (turned to face +x) at 6 + 1.6 + 26 = 33.6 mm; the spine at 86 mm.
-		expect(byId['cpu-block'].smallestGap).toBe(`52.4${THIN}mm to the right (Spine)`);
+		// The block's top (turned to face +x) at 11 + 1.6 + 26 = 38.6 mm; the spine at 86 mm.
+		expect(byId['cpu-block'].smallestGap).toBe(`47.4${THIN}mm to the right (Spine)`);
 		// The card's far face at 107.36 + 2 × 20.32 = 148 mm; the right panel at 150 mm.
 		expect(byId.card.smallestGap).toBe(`2.0${THIN}mm to the right (Right panel)`);
 	});

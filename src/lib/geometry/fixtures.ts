@@ -163,7 +163,9 @@ export function demoEnclosure(): EnclosureDef {
 				face: 'left',
 				region: box([0, 150, 68], [40, 320, 238]),
 				accepts: ['Mini-ITX'],
-				standoffMm: 6,
+				// A raised tray: the board sits 11 mm off the left panel, which leaves about 53 mm over
+				// it with the spine at '4 slots' (65.68 − 11 − 1.6 = 53.08 mm; common practice).
+				standoffMm: 11,
 				slotPitchMm: SLOT_PITCH_MM
 			},
 			{
@@ -191,8 +193,9 @@ export function demoParts(): PartDef[] {
 		}),
 		{
 			...solidPart('demo-cpu-block', 'Compact CPU block, 26 mm tall', 'cpu-block', [60, 26, 60]),
+			// 25 mm over the block for G 1/4 elbow fittings (common practice).
 			keepouts: [
-				{ id: 'fittings', label: 'fittings', kind: 'fitting', severity: 'error', box: box([5, 26, 10], [55, 56, 50]) }
+				{ id: 'fittings', label: 'fittings', kind: 'fitting', severity: 'error', box: box([5, 26, 10], [55, 51, 50]) }
 			],
 			ports: [
 				{ id: 'in', position: [20, 26, 30], direction: '+y', thread: 'G 1/4' },
@@ -247,8 +250,8 @@ export function demoSceneInput(): SceneInput {
 		dividerPositions: { bulkhead: 64, spine: DEMO_SPINE_OFFSETS['3 slots'] },
 		bracketOffsets: { bar: 0 },
 		placements: [
-			{ id: 'board', partId: 'std-mini-itx', position: [6, 150, 68], rotation: { x: 0, y: 0, z: 1 }, mountId: 'tray' },
-			{ id: 'cpu-block', partId: 'demo-cpu-block', position: [6 + BOARD_THICKNESS_MM, 205, 123], rotation: { x: 0, y: 0, z: 3 }, mountId: 'tray' },
+			{ id: 'board', partId: 'std-mini-itx', position: [11, 150, 68], rotation: { x: 0, y: 0, z: 1 }, mountId: 'tray' },
+			{ id: 'cpu-block', partId: 'demo-cpu-block', position: [11 + BOARD_THICKNESS_MM, 205, 123], rotation: { x: 0, y: 0, z: 3 }, mountId: 'tray' },
 			{ id: 'psu', partId: 'demo-psu', position: [0, 0, 70], rotation: { x: 0, y: 0, z: 1 }, mountId: 'psu' },
 			{ id: 'card', partId: 'demo-card', position: [107.36, 10, 100], rotation: { x: 1, y: 0, z: 1 } },
 			{ id: 'pump-res', partId: 'demo-pump-res', position: [90, 227, 110], rotation: { x: 0, y: 0, z: 0 } },
