@@ -1,6 +1,6 @@
 import { json } from '@sveltejs/kit';
 import { z } from 'zod';
-import { SceneError, allowedPositions, boxSchema, partCategorySchema, resolveScene, sceneSchema } from '$lib/geometry';
+import { SceneError, allowedPositions, boxSchema, partCategorySchema, resolveScene, sceneSchema, type PartDef } from '$lib/geometry';
 import { partsByPositions, radiatorCombinations, whatFits, type FitCandidate } from '$lib/builds/fits';
 import { apiLimit, problem, readJson } from '$lib/server/api';
 import { catalogAccess } from '$lib/server/catalog/http';
@@ -72,6 +72,11 @@ export const POST: RequestHandler = async (event) => {
 			fits: found.fits.slice(0, input.limit),
 			left: found.left.slice(0, input.limit)
 		};
+		// The listed parts' definitions, so the editor can place one without another request.
+		const byId = new Map(candidates.map((c) => [c.part.id, c.part]));
+		const parts: Record<string, PartDef> = {};
+		for (const r of found.fits.slice(0, input.limit)) parts[r.partId] = byId.get(r.partId)!;
+		out.parts = parts;
 		if (input.positions) {
 			const control = input.positions;
 			const def = control.kind === 'divider' ? input.scene.enclosure.dividers.find((d) => d.id === control.id) : input.scene.enclosure.brackets.find((b) => b.id === control.id);
@@ -87,7 +92,10 @@ export const POST: RequestHandler = async (event) => {
 			const [rads, fans] = await Promise.all(
 				(['radiator', 'fan'] as const).map((category) => listPartsForStudio(access.studioId, { category, limit: MAX_COMBINATION_PARTS }))
 			);
-			out.combinations = radiatorCombinations(input.scene, input.target.mountId, [...rads, ...fans].map(candidateOf), resolved);
+			const pool = [...rads, ...fans].map(candidateOf);
+			const combinations = radiatorCombinations(input.scene, input.target.mountId, pool, resolved);
+			for (const c of combinations) for (const p of pool) if (p.part.id === c.radiator.partId || p.part.id === c.fan.partId) parts[p.part.id] = p.part;
+			out.combinations = combinations;
 		}
 		return json(out);
 	} catch (e) {
