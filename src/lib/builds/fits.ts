@@ -239,14 +239,19 @@ export function partsByPositions(scene: Scene, target: FitTarget, candidates: re
 			});
 		}
 		candidates.forEach((c, i) => {
-			let row: FitRow | null = null;
 			if (landed) {
+				// A cell needs only the status and the spare: the probe alone, no row to build.
 				const l = landed[i];
-				row = typeof l === 'string' || l === null ? null : rowAt(prepared, c, l);
-			} else {
-				row = fitRow(prepared, c);
+				if (typeof l === 'string' || l === null) {
+					rows[i].cells.push({ status: 'outside', spareMm: null, fits: false });
+					return;
+				}
+				const r = probe(prepared.base, c.part, l);
+				rows[i].cells.push({ status: r.status, spareMm: r.spareMm, fits: FIT_STATUSES.includes(r.status) });
+				return;
 			}
-			rows[i].cells.push(row ? { status: row.status, spareMm: row.spareMm, fits: row.fits } : { status: 'outside', spareMm: null, fits: false });
+			const row = fitRow(prepared, c);
+			rows[i].cells.push(row.placement ? { status: row.status, spareMm: row.spareMm, fits: row.fits } : { status: 'outside', spareMm: null, fits: false });
 		});
 	}
 	return { control: { ...control, label: def.label }, positions: positions.map((p) => ({ label: p.label, offsetMm: p.offsetMm })), rows };

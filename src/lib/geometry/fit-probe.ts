@@ -29,6 +29,79 @@ export interface ProbeBase {
 	/** The mount of the placement a box belongs to, for held contact on a stack. */
 	mountOfBox: (string | undefined)[];
 	mounts: Map<string, MountDef>;
+	grid: Grid;
+}
+
+/**
+ * A uniform grid over the inner box: each cell lists the boxes reaching into it (walls, which
+ * lie outside, are kept apart and always visited). A candidate is tested only against the boxes
+ * in the cells it reaches, and a face's nearest box is searched cell layer by cell layer outward,
+ * stopping when the next layer is farther than the nearest found: the same boxes the full scan
+ * would pick, far fewer looked at.
+ */
+interface Grid {
+	origin: Vec3;
+	cell: number;
+	dims: [number, number, number];
+	cells: number[][];
+	always: number[];
+	/** Visit stamps, one per box, so a box in several cells is looked at once per query. */
+	seen: Uint32Array;
+	stamp: number;
+}
+
+function buildGrid(boxes: readonly WorldBox[], inner: Box): Grid {
+	const size = [0, 1, 2].map((i) => inner.max[i] - inner.min[i]);
+	const cell = Math.max(20, Math.cbrt((size[0] * size[1] * size[2]) / 512));
+	const dims = size.map((v) => Math.max(1, Math.ceil(v / cell))) as [number, number, number];
+	const cells: number[][] = Array.from({ length: dims[0] * dims[1] * dims[2] }, () => []);
+	const always: number[] = [];
+	const origin = [...inner.min] as Vec3;
+	boxes.forEach((b, i) => {
+		if (b.kind === 'wall') {
+			always.push(i);
+			return;
+		}
+		const lo = [0, 1, 2].map((a) => clampCell(Math.floor((b.box.min[a] - origin[a]) / cell), dims[a]));
+		const hi = [0, 1, 2].map((a) => clampCell(Math.floor((b.box.max[a] - origin[a]) / cell), dims[a]));
+		for (let x = lo[0]; x <= hi[0]; x++) for (let y = lo[1]; y <= hi[1]; y++) for (let z = lo[2]; z <= hi[2]; z++) cells[(x * dims[1] + y) * dims[2] + z].push(i);
+	});
+	return { origin, cell, dims, cells, always, seen: new Uint32Array(boxes.length), stamp: 0 };
+}
+
+function clampCell(v: number, n: number): number {
+	return v < 0 ? 0 : v >= n ? n - 1 : v;
+}
+
+/** Calls `visit` once for each box in the cells from lo to hi (cell indexes, inclusive), walls first. */
+function visitCells(g: Grid, lo: number[], hi: number[], visit: (j: number) => void, fresh: boolean): void {
+	if (fresh) {
+		g.stamp++;
+		if (g.stamp === 0xffffffff) {
+			g.seen.fill(0);
+			g.stamp = 1;
+		}
+		for (const j of g.always) {
+			g.seen[j] = g.stamp;
+			visit(j);
+		}
+	}
+	for (let x = lo[0]; x <= hi[0]; x++)
+		{for (let y = lo[1]; y <= hi[1]; y++)
+			{for (let z = lo[2]; z <= hi[2]; z++) {
+				for (const j of g.cells[(x * g.dims[1] + y) * g.dims[2] + z]) {
+					if (g.seen[j] === g.stamp) continue;
+					g.seen[j] = g.stamp;
+					visit(j);
+				}
+			}}}
+}
+
+function cellRange(g: Grid, box: Box, pad: number): { lo: number[]; hi: number[] } {
+	return {
+		lo: [0, 1, 2].map((a) => clampCell(Math.floor((box.min[a] - pad - g.origin[a]) / g.cell), g.dims[a])),
+		hi: [0, 1, 2].map((a) => clampCell(Math.floor((box.max[a] + pad - g.origin[a]) / g.cell), g.dims[a]))
+	};
 }
 
 export interface ProbeResult {
@@ -64,7 +137,7 @@ export function probeBase(scene: Scene, resolved: ResolvedScene, ignorePlacement
 		flat.set(b.box.max, i * 6 + 3);
 		obstacle[i] = isObstacle(b) ? 1 : 0;
 	});
-	return { scene, resolved, without, boxes, flat, obstacle, mountOfBox, mounts: new Map(scene.enclosure.mounts.map((m) => [m.id, m])) };
+	return { scene, resolved, without, boxes, flat, obstacle, mountOfBox, mounts: new Map(scene.enclosure.mounts.map((m) => [m.id, m])), grid: buildGrid(boxes, resolved.innerBox) };
 }
 
 function worst(a: FitStatus, b: FitStatus): FitStatus {
@@ -87,27 +160,36 @@ function overlapWith(box: Box, flat: Float64Array, j: number): number {
 export function probe(base: ProbeBase, part: PartDef, placement: Placement): ProbeResult {
 	const placed = placePart(part, placement);
 	const { flat, boxes, obstacle } = base;
-	const n = boxes.length;
 	const margin = base.scene.marginMm;
 	let collides = false;
 	let blocked = false;
 	const overlaps: ProbeResult['overlaps'] = [];
+	const g = base.grid;
 	for (const own of [...placed.bodies, ...placed.keepouts]) {
-		for (let j = 0; j < n; j++) {
-			if (overlapWith(own.box, flat, j) <= 0) continue;
-			const kind = pairKind(own, boxes[j]);
-			if (!kind) continue;
-			if (kind === 'collides') collides = true;
-			else if (kind === 'blocked') blocked = true;
-			overlaps.push({ with: boxes[j].id, label: boxes[j].label, kind });
-		}
+		const { lo, hi } = cellRange(g, own.box, 0);
+		visitCells(
+			g,
+			lo,
+			hi,
+			(j) => {
+				if (overlapWith(own.box, flat, j) <= 0) return;
+				const kind = pairKind(own, boxes[j]);
+				if (!kind) return;
+				if (kind === 'collides') collides = true;
+				else if (kind === 'blocked') blocked = true;
+				overlaps.push({ with: boxes[j].id, label: boxes[j].label, kind });
+			},
+			true
+		);
 	}
+	overlaps.sort((x, y) => compareText(x.with, y.with));
 	const inner = base.resolved.innerBox;
-	const outside = new Set<Face>();
+	// Faces of the inner box crossed, as bits in FACES order.
+	let outside = 0;
 	for (const b of placed.bodies) {
 		for (let a = 0; a < 3; a++) {
-			if (b.box.min[a] < inner.min[a] - EPSILON_MM) outside.add(FACES[2 * a]);
-			if (b.box.max[a] > inner.max[a] + EPSILON_MM) outside.add(FACES[2 * a + 1]);
+			if (b.box.min[a] < inner.min[a] - EPSILON_MM) outside |= 1 << (2 * a);
+			if (b.box.max[a] > inner.max[a] + EPSILON_MM) outside |= 1 << (2 * a + 1);
 		}
 	}
 	// Nearest obstacle ahead of each face, over all bodies: ties to the smaller box id.
@@ -121,12 +203,12 @@ export function probe(base: ProbeBase, part: PartDef, placement: Placement): Pro
 	};
 	for (const body of placed.bodies) {
 		const b = body.box;
-		for (let j = 0; j < n; j++) {
-			if (!obstacle[j]) continue;
+		const test = (j: number) => {
+			if (!obstacle[j]) return;
 			const o = j * 6;
 			const ox = Math.min(b.max[0], flat[o + 3]) - Math.max(b.min[0], flat[o]) > EPSILON_MM;
 			const oy = Math.min(b.max[1], flat[o + 4]) - Math.max(b.min[1], flat[o + 1]) > EPSILON_MM;
-			if (!ox && !oy) continue;
+			if (!ox && !oy) return;
 			const oz = Math.min(b.max[2], flat[o + 5]) - Math.max(b.min[2], flat[o + 2]) > EPSILON_MM;
 			for (let a = 0; a < 3; a++) {
 				const across = a === 0 ? oy && oz : a === 1 ? ox && oz : ox && oy;
@@ -135,6 +217,24 @@ export function probe(base: ProbeBase, part: PartDef, placement: Placement): Pro
 				const obstacleCentre = flat[o + a] + flat[o + 3 + a];
 				if (obstacleCentre >= bodyCentre) offer(2 * a + 1, flat[o + a] - b.max[a], j);
 				if (obstacleCentre <= bodyCentre) offer(2 * a, b.min[a] - flat[o + 3 + a], j);
+			}
+		};
+		// The cells the body covers, then layer by layer outward along each axis while a layer could
+		// still hold something nearer than the nearest found on that side.
+		const { lo, hi } = cellRange(g, b, EPSILON_MM);
+		visitCells(g, lo, hi, test, true);
+		for (let a = 0; a < 3; a++) {
+			for (const dir of [1, -1]) {
+				const slot = dir > 0 ? 2 * a + 1 : 2 * a;
+				for (let k = dir > 0 ? hi[a] + 1 : lo[a] - 1; k >= 0 && k < g.dims[a]; k += dir) {
+					const near = dir > 0 ? g.origin[a] + k * g.cell - b.max[a] : b.min[a] - (g.origin[a] + (k + 1) * g.cell);
+					if (near > gap[slot] + EPSILON_MM) break;
+					const l = [...lo];
+					const h = [...hi];
+					l[a] = k;
+					h[a] = k;
+					visitCells(g, l, h, test, false);
+				}
 			}
 		}
 	}
@@ -159,7 +259,7 @@ export function probe(base: ProbeBase, part: PartDef, placement: Placement): Pro
 	let partStatus: FitStatus = 'clear';
 	if (collides) partStatus = 'collides';
 	else if (blocked) partStatus = 'blocked';
-	else if (outside.size > 0) partStatus = 'outside';
+	else if (outside !== 0) partStatus = 'outside';
 	else if (gap.some((g, f) => g < margin - EPSILON_MM && !held(f))) partStatus = 'tight';
 	const gaps = {} as ProbeResult['gaps'];
 	let spareMm: number | null = null;
@@ -177,7 +277,7 @@ export function probe(base: ProbeBase, part: PartDef, placement: Placement): Pro
 		status = worst(status, report.status);
 		if (report.spareMm !== null && (spareMm === null || report.spareMm < spareMm)) spareMm = report.spareMm;
 	}
-	return { status, partStatus, gaps, spareMm, overlaps, outsideFaces: FACES.filter((f) => outside.has(f)), mount: report, placed };
+	return { status, partStatus, gaps, spareMm, overlaps, outsideFaces: FACES.filter((_f, i) => (outside & (1 << i)) !== 0), mount: report, placed };
 }
 
 /** Common practice: a G 1/4 fitting is about 22 mm across and stands about 20 mm off its port. */
