@@ -7,6 +7,7 @@
 import {
 	EPSILON_MM,
 	FACE_AXES,
+	placePart,
 	SceneError,
 	allowedPositions,
 	boxContains,
@@ -22,12 +23,13 @@ import {
 	type MountDef,
 	type PartDef,
 	type Placement,
+	type ResolvedPlacement,
 	type ResolvedScene,
 	type Rotation,
 	type Scene,
 	type Vec3
 } from '$lib/geometry';
-import { probe, probeBase, portUse, type PortUse, type ProbeBase } from '$lib/geometry/fit-probe';
+import { probe, probeBase, probePlaced, portUse, type PortUse, type ProbeBase } from '$lib/geometry/fit-probe';
 import { reach } from '$lib/geometry/room';
 import { flatAlong, landInRoom, landOnMount, nextPlacementId, placedBounds } from './placement';
 
@@ -226,7 +228,7 @@ export function partsByPositions(scene: Scene, target: FitTarget, candidates: re
 	const positions = allowedPositions(def);
 	const key = control.kind === 'divider' ? 'dividerPositions' : 'bracketOffsets';
 	const rows: PartsByPositions['rows'] = candidates.map((c) => ({ partId: c.part.id, name: c.part.name, cells: [] }));
-	let landed: (Placement | null | string)[] | null = null;
+	let landed: (ResolvedPlacement | null | string)[] | null = null;
 	for (const p of positions) {
 		const at: Scene = { ...scene, [key]: { ...scene[key], [control.id]: p.offsetMm } };
 		const prepared = prepareTarget(at, resolveScene(at), target);
@@ -235,7 +237,7 @@ export function partsByPositions(scene: Scene, target: FitTarget, candidates: re
 				if (prepared.mount && !mountAccepts(prepared.mount, c.part)) return `The ${prepared.mount.label} takes ${prepared.mount.accepts.join(', ')}.`;
 				const l = prepared.land(c.part);
 				if ('reason' in l) return l.reason;
-				return { id: prepared.placementId, partId: c.part.id, position: l.position, rotation: l.rotation, ...(prepared.mount ? { mountId: prepared.mount.id } : {}) };
+				return placePart(c.part, { id: prepared.placementId, partId: c.part.id, position: l.position, rotation: l.rotation, ...(prepared.mount ? { mountId: prepared.mount.id } : {}) });
 			});
 		}
 		candidates.forEach((c, i) => {
@@ -246,7 +248,7 @@ export function partsByPositions(scene: Scene, target: FitTarget, candidates: re
 					rows[i].cells.push({ status: 'outside', spareMm: null, fits: false });
 					return;
 				}
-				const r = probe(prepared.base, c.part, l);
+				const r = probePlaced(prepared.base, l);
 				rows[i].cells.push({ status: r.status, spareMm: r.spareMm, fits: FIT_STATUSES.includes(r.status) });
 				return;
 			}

@@ -158,7 +158,12 @@ function overlapWith(box: Box, flat: Float64Array, j: number): number {
 
 /** Probes one placement of `part` (its id must not be another placement's). */
 export function probe(base: ProbeBase, part: PartDef, placement: Placement): ProbeResult {
-	const placed = placePart(part, placement);
+	return probePlaced(base, placePart(part, placement));
+}
+
+/** `probe` for a placement already resolved (the same one tried at many positions of a control). */
+export function probePlaced(base: ProbeBase, placed: ResolvedPlacement): ProbeResult {
+	const placement = placed.placement;
 	const { flat, boxes, obstacle } = base;
 	const margin = base.scene.marginMm;
 	let collides = false;
