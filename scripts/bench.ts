@@ -10,6 +10,7 @@ import { Box3, Vector3 } from 'three';
 import {
 	checkScene,
 	overlapVolumes,
+	resolveScene,
 	sceneSchema,
 	sweep,
 	type Box,
@@ -17,6 +18,10 @@ import {
 	type SceneInput,
 	type Vec3
 } from '../src/lib/geometry/index';
+import { demoEnclosure } from '../src/lib/geometry/fixtures';
+import { roomTable } from '../src/lib/geometry/room';
+import { partsByPositions, type FitCandidate } from '../src/lib/builds/fits';
+import { landOnMount } from '../src/lib/builds/placement';
 
 const SEED = 20_240_601;
 
@@ -272,6 +277,59 @@ function problemScene(): Scene {
 	} satisfies SceneInput);
 }
 
+/** 5,000 invented one- or two-body parts, 10–150 mm a side, a third with a fitting keep-out on top. */
+function catalogue(n: number): FitCandidate[] {
+	const next = rng(SEED + 2);
+	return Array.from({ length: n }, (_, i) => {
+		const size: Vec3 = [10 + Math.round(next() * 140), 10 + Math.round(next() * 140), 5 + Math.round(next() * 60)];
+		const bodies = [{ id: 'body', label: 'body', box: { min: [0, 0, 0] as Vec3, max: size } }];
+		if (i % 4 === 0) bodies.push({ id: 'tab', label: 'tab', box: { min: [0, 0, size[2]], max: [size[0] / 2, size[1] / 2, size[2] + 5] } });
+		const keepouts = i % 3 === 0 ? [{ id: 'fit', label: 'fitting room', kind: 'fitting' as const, severity: 'error' as const, box: { min: [0, size[1], 0] as Vec3, max: [size[0], size[1] + 20, size[2]] as Vec3 } }] : [];
+		return { part: { id: `cat-${i}`, name: `Catalogue part ${i}`, category: 'other', bodies, keepouts, ports: [], specs: {}, provenance: 'estimate', toleranceMm: 0 } };
+	});
+}
+
+/**
+ * "What fits here" on one mount at every position of one control: the 100-part scene with a front
+ * fan mount added (the shelf's 9 positions), against the naive way (compose the scene with the
+ * candidate placed, run checkScene) timed on a sample and scaled to the same number of checks.
+ */
+function fitsRow() {
+	const base = hundredPartScene();
+	const scene = sceneSchema.parse({
+		...base,
+		enclosure: { ...base.enclosure, mounts: [{ id: 'front', label: 'Front mount', kind: 'fan', face: 'front', region: { min: [0, 0, 0], max: [600, 400, 60] }, accepts: [], budgetMm: 60 }] }
+	});
+	const cands = catalogue(5000);
+	const control = { kind: 'divider' as const, id: 'shelf' };
+	const fast = time(() => partsByPositions(scene, { kind: 'mount', mountId: 'front' }, cands, control), 5, 1);
+	const positions = fast.result.positions;
+	const sample = cands.slice(0, 40);
+	const mount = scene.enclosure.mounts[0];
+	const resolved = resolveScene(scene);
+	const naive = time(
+		() => {
+			let fits = 0;
+			for (const c of sample) {
+				const landing = landOnMount(resolved, mount, c.part);
+				if ('reason' in landing) continue;
+				for (const p of positions) {
+					const placed = sceneSchema.parse({ ...scene, dividerPositions: { shelf: p.offsetMm }, parts: [...scene.parts, c.part], placements: [...scene.placements, { id: 'cand', partId: c.part.id, ...landing, mountId: 'front' }] });
+					const report = checkScene(placed);
+					const status = report.parts.find((x) => x.placementId === 'cand')!.status;
+					if ((status === 'clear' || status === 'tight') && report.mounts[0].status !== 'collides') fits++;
+				}
+			}
+			return fits;
+		},
+		3,
+		1
+	);
+	const perCheck = naive.ms / (sample.length * positions.length);
+	const naiveMs = perCheck * cands.length * positions.length;
+	return { ms: fast.ms, p10: fast.p10, naiveMs, cells: cands.length * positions.length };
+}
+
 function main(): void {
 	// The scene checks run first, before the 20,000-box sets have grown the heap.
 	const big = hundredPartScene();
@@ -295,6 +353,11 @@ function main(): void {
 	console.log(
 		`sweep, ${sw.result.points.length} positions over 100 boxes (${sw.result.feasibleIntervals.length} feasible runs): ${sw.ms.toFixed(3)} ms median, ${sw.p10.toFixed(3)} ms low decile`
 	);
+
+	const fits = fitsRow();
+	console.log(`what fits here: 5,000 parts × ${fits.cells / 5000} positions on one mount: ${fits.ms.toFixed(1)} ms median, ${fits.p10.toFixed(1)} ms low decile; naive (checkScene per candidate, scaled from a sample) ${fits.naiveMs.toFixed(0)} ms`);
+	const room = time(() => roomTable(demoEnclosure()), 41, 20);
+	console.log(`clearance table, demo enclosure (${room.result.rows.length} rows): ${room.ms.toFixed(3)} ms median, ${room.p10.toFixed(3)} ms low decile`);
 
 	const rows = [50, 200, 2000, 20000].map(broadphaseRow);
 	const fmt = (v: number | null) => (v === null ? '—' : v.toFixed(3));
@@ -325,6 +388,11 @@ function main(): void {
 			check100_p10_ms: round(check.p10),
 			sweep200x100_p10_ms: round(sw.p10),
 			check100_problems20_p10_ms: round(problems.p10),
+			fits5000_ms: round(fits.ms),
+			fits5000_p10_ms: round(fits.p10),
+			fits5000_vs_naive: round(fits.ms / fits.naiveMs),
+			room_table_ms: round(room.ms),
+			room_table_p10_ms: round(room.p10),
 			load_average_1min: round(loadavg()[0]),
 			n50_vs_box_intersect: round(byN(50).engineMs / byN(50).boxIntersectMs),
 			n200_vs_box_intersect: round(byN(200).engineMs / byN(200).boxIntersectMs),

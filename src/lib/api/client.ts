@@ -4,6 +4,7 @@
  */
 import type { FieldIssue, FitReport, PartDef, SweepGridResult, SweepResult, SceneInput } from '$lib/geometry';
 import type { VariantSettings } from '$lib/builds/settings';
+import type { FitRow, FitTarget, PartsByPositions, RadiatorCombination } from '$lib/builds/fits';
 
 export type Problem = { message: string; issues: FieldIssue[] };
 
@@ -65,4 +66,30 @@ export async function searchParts(f: Fetch, q: string, category = ''): Promise<P
 	if (!res.ok) return [];
 	const body = (await res.json()) as { parts: PartHit[] };
 	return body.parts;
+}
+
+export type FitsRequest = {
+	scene: SceneInput;
+	target: FitTarget;
+	filters?: { category?: string; q?: string; partIds?: string[] };
+	sort?: 'spare' | 'price' | 'name';
+	limit?: number;
+	positions?: { kind: 'divider' | 'bracket'; id: string };
+	combinations?: boolean;
+};
+export type FitsAnswer = {
+	label: string;
+	counts: { fits: number; left: number };
+	fits: FitRow[];
+	left: FitRow[];
+	parts: Record<string, PartDef>;
+	partsByPositions?: PartsByPositions;
+	combinations?: RadiatorCombination[];
+};
+
+/** What fits at a target: the studio's parts and the standard library, ranked by the server. */
+export async function fitsOnServer(f: Fetch, body: FitsRequest): Promise<FitsAnswer | Problem> {
+	const res = await f('/api/fits', { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(body) });
+	if (!res.ok) return problemOf(res);
+	return (await res.json()) as FitsAnswer;
 }

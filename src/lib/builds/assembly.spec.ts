@@ -18,7 +18,7 @@ const order = (scene: Scene) => plan(scene).plan.steps.map((s) => s.placementId)
 
 describe('the demo sandwich (fixtures.ts), worked by hand', () => {
 	/*
-	 * Board on the left tray: its way in is the room to its right up to the spine (x 7.6 → 86),
+	 * Board on the left tray: its way in is the room to its right up to the spine (x 12.6 → 86),
 	 * over its own height and depth; the CPU block sits there, so the board goes first. The
 	 * radiator on the front mount comes in from behind (z 30 → 64, the bulkhead): both fans are in
 	 * that room, so it goes before them; fan 2 rests on fan 1. The card and the pump-reservoir

@@ -88,10 +88,10 @@ describe('dimensions', () => {
 		const { drawing } = drawingOf();
 		const front = drawing.views.find((v) => v.id === 'front')!;
 		expect(front.dims.find((d) => d.id === 'position:divider:spine')?.label).toBe('Spine x = 86.0\u2009mm');
-		// CPU block top at 33.6 mm (6 + 1.6 board + 26 block), spine at 86.0 mm.
+		// CPU block top at 38.6 mm (11 + 1.6 board + 26 block), spine at 86.0 mm.
 		const gap = front.dims.find((d) => d.id.startsWith('gap:cpu-block:+x'))!;
-		expect(gap.label).toBe('52.4\u2009mm');
-		expect(Math.min(gap.a[0], gap.b[0])).toBeCloseTo(33.6, 9);
+		expect(gap.label).toBe('47.4\u2009mm');
+		expect(Math.min(gap.a[0], gap.b[0])).toBeCloseTo(38.6, 9);
 		expect(Math.max(gap.a[0], gap.b[0])).toBeCloseTo(86, 9);
 	});
 

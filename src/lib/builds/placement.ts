@@ -107,8 +107,10 @@ export function freeSpot(room: Box, size: Vec3, blocked: Box[]): Vec3 | null {
 export function flatAlong(part: PartDef, axis: AxisIndex): Rotation {
 	let best = ORIENTATIONS[0];
 	let bestThickness = Infinity;
+	// Quarter turns take boxes to boxes, so the turned bodies' bounds are the turned bounds: one box to turn, not every body.
+	const bounds = boundsOf(part.bodies.map((b) => b.box));
 	for (const r of ORIENTATIONS) {
-		const t = turnedSize(part, r)[axis];
+		const t = boxSize(rotateBox(rotationMap(r), bounds))[axis];
 		if (t < bestThickness - EPSILON_MM) {
 			best = r;
 			bestThickness = t;

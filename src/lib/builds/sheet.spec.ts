@@ -54,9 +54,9 @@ describe('the part list', () => {
 	});
 
 	it('names the nearest free gap with what it is against', () => {
-		// The block's top (turned to face +x) at 6 + 1.6 + 26 = 33.6 mm; the spine at 86 mm; the
-		// block is ±0.5 mm, the spine exact: 52.4 − 0.5 = 51.9 mm in the worst case.
-		expect(byId['cpu-block'].smallestGap).toBe(`52.4${THIN}mm (51.9 worst case) to the right (Spine)`);
+		// The block's top (turned to face +x) at 11 + 1.6 + 26 = 38.6 mm; the spine at 86 mm; the
+		// block is ±0.5 mm, the spine exact: 47.4 − 0.5 = 46.9 mm in the worst case.
+		expect(byId['cpu-block'].smallestGap).toBe(`47.4${THIN}mm (46.9 worst case) to the right (Spine)`);
 		// The card's far face at 107.36 + 2 × 20.32 = 148 mm; the right panel at 150 mm; ±1 mm.
 		expect(byId.card.smallestGap).toBe(`2.0${THIN}mm (1.0 worst case) to the right (Right panel)`);
 	});

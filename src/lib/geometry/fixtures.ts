@@ -163,7 +163,9 @@ export function demoEnclosure(): EnclosureDef {
 				face: 'left',
 				region: box([0, 150, 68], [40, 320, 238]),
 				accepts: ['Mini-ITX'],
-				standoffMm: 6,
+				// A raised tray: the board sits 11 mm off the left panel, which leaves about 53 mm over
+				// it with the spine at '4 slots' (65.68 − 11 − 1.6 = 53.08 mm; common practice).
+				standoffMm: 11,
 				slotPitchMm: SLOT_PITCH_MM
 			},
 			{
@@ -173,6 +175,98 @@ export function demoEnclosure(): EnclosureDef {
 				face: 'left',
 				region: box([0, 0, 70], [63.5, 125, 170]),
 				accepts: ['SFX'],
+				standoffMm: 0,
+				slotPitchMm: SLOT_PITCH_MM
+			}
+		]
+	};
+}
+
+/** About 18 L: a small tower with a supply chamber under a shroud, top radiator, front fans. */
+export function demoTowerEnclosure(): EnclosureDef {
+	const panel = { thicknessMm: 2, kind: 'solid' as const, offsetMm: 0 };
+	return {
+		name: 'Small tower with supply chamber',
+		outerMm: [210, 380, 240],
+		walls: {
+			left: { ...panel },
+			right: { ...panel, thicknessMm: 3 },
+			bottom: { ...panel },
+			top: { ...panel, kind: 'mesh' },
+			front: { ...panel, kind: 'mesh' },
+			back: { ...panel }
+		},
+		dividers: [
+			{
+				id: 'shroud',
+				label: 'Supply shroud',
+				axis: 'y',
+				thicknessMm: 2,
+				positions: { kind: 'range', minMm: 90, maxMm: 120, stepMm: 10 },
+				sides: { low: 'supply chamber', high: 'main chamber' }
+			}
+		],
+		brackets: [
+			{
+				id: 'pump-bracket',
+				label: 'Pump bracket',
+				kind: 'pump',
+				box: { min: [20, 122, 170], max: [100, 125, 230] },
+				axis: 'z',
+				travel: { minMm: -60, maxMm: 0, stepMm: 10 }
+			}
+		],
+		mounts: [
+			{
+				id: 'top-radiator',
+				label: 'Top radiator mount',
+				kind: 'radiator',
+				face: 'top',
+				region: { min: [0, 325, 0], max: [205, 376, 236] },
+				accepts: ['240', '280'],
+				budgetMm: 50,
+				standoffMm: 0,
+				slotPitchMm: SLOT_PITCH_MM
+			},
+			{
+				id: 'front-fans',
+				label: 'Front fans',
+				kind: 'fan',
+				face: 'front',
+				region: { min: [0, 125, 0], max: [205, 376, 30] },
+				accepts: ['120', '140'],
+				budgetMm: 30,
+				standoffMm: 0,
+				slotPitchMm: SLOT_PITCH_MM
+			},
+			{
+				id: 'tray',
+				label: 'Board tray',
+				kind: 'board-tray',
+				face: 'right',
+				region: { min: [165, 125, 0], max: [205, 376, 236] },
+				accepts: ['Mini-ITX', 'microATX'],
+				standoffMm: 6,
+				slotPitchMm: SLOT_PITCH_MM
+			},
+			{
+				id: 'slots',
+				label: 'Expansion slots',
+				kind: 'slots',
+				face: 'back',
+				region: { min: [80, 125, 226], max: [165, 290, 236] },
+				accepts: [],
+				standoffMm: 0,
+				slotPitchMm: SLOT_PITCH_MM,
+				slotCount: 4
+			},
+			{
+				id: 'psu',
+				label: 'Supply bay',
+				kind: 'psu-bay',
+				face: 'bottom',
+				region: { min: [0, 0, 0], max: [155, 88, 170] },
+				accepts: ['SFX', 'SFX-L', 'ATX'],
 				standoffMm: 0,
 				slotPitchMm: SLOT_PITCH_MM
 			}
@@ -191,8 +285,9 @@ export function demoParts(): PartDef[] {
 		}),
 		{
 			...solidPart('demo-cpu-block', 'Compact CPU block, 26 mm tall', 'cpu-block', [60, 26, 60]),
+			// 25 mm over the block for G 1/4 elbow fittings (common practice).
 			keepouts: [
-				{ id: 'fittings', label: 'fittings', kind: 'fitting', severity: 'error', box: box([5, 26, 10], [55, 56, 50]) }
+				{ id: 'fittings', label: 'fittings', kind: 'fitting', severity: 'error', box: box([5, 26, 10], [55, 51, 50]) }
 			],
 			ports: [
 				{ id: 'in', position: [20, 26, 30], direction: '+y', thread: 'G 1/4' },
@@ -247,8 +342,8 @@ export function demoSceneInput(): SceneInput {
 		dividerPositions: { bulkhead: 64, spine: DEMO_SPINE_OFFSETS['3 slots'] },
 		bracketOffsets: { bar: 0 },
 		placements: [
-			{ id: 'board', partId: 'std-mini-itx', position: [6, 150, 68], rotation: { x: 0, y: 0, z: 1 }, mountId: 'tray' },
-			{ id: 'cpu-block', partId: 'demo-cpu-block', position: [6 + BOARD_THICKNESS_MM, 205, 123], rotation: { x: 0, y: 0, z: 3 }, mountId: 'tray' },
+			{ id: 'board', partId: 'std-mini-itx', position: [11, 150, 68], rotation: { x: 0, y: 0, z: 1 }, mountId: 'tray' },
+			{ id: 'cpu-block', partId: 'demo-cpu-block', position: [11 + BOARD_THICKNESS_MM, 205, 123], rotation: { x: 0, y: 0, z: 3 }, mountId: 'tray' },
 			{ id: 'psu', partId: 'demo-psu', position: [0, 0, 70], rotation: { x: 0, y: 0, z: 1 }, mountId: 'psu' },
 			{ id: 'card', partId: 'demo-card', position: [107.36, 10, 100], rotation: { x: 1, y: 0, z: 1 } },
 			{ id: 'pump-res', partId: 'demo-pump-res', position: [90, 227, 110], rotation: { x: 0, y: 0, z: 0 } },

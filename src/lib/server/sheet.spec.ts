@@ -56,9 +56,9 @@ describe('the PDF', () => {
 		const { text, pages } = await pdfText(pdf);
 		expect(pages).toBeGreaterThanOrEqual(4);
 		expect(text).toContain('Spine at position 3 slots, x = 86.0 mm');
-		// The CPU block's top at 6 mm standoff + 1.6 mm board + 26 mm block = 33.6 mm; spine at 86 mm.
-		// With the block's ±0.5 mm and the card's ±1 mm taken off for the worst case.
-		expect(text).toContain('52.4 mm (51.9 worst case) to the right (Spine)');
+		// The CPU block's top at 11 mm standoff + 1.6 mm board + 26 mm block = 38.6 mm; spine at 86 mm.
+		// With the block's ±0.5 mm taken off for the worst case.
+		expect(text).toContain('47.4 mm (46.9 worst case) to the right (Spine)');
 		// The card's far face at 107.36 + 2 × 20.32 mm (PCI Express CEM slot pitch) = 148 mm, 2 mm short of the right panel.
 		expect(text).toContain('2.0 mm (1.0 worst case) to the right (Right panel)');
 		expect(text).toContain('Leak-test with only the pump powered');

@@ -8,6 +8,7 @@ import { and, eq } from 'drizzle-orm';
 import { z } from 'zod';
 import { reportFor, resolveScene } from '$lib/geometry';
 import { idField } from '$lib/schemas/common';
+import { roomAt, type RoomFigure } from '$lib/geometry/room';
 import { orthographicViews, type DrawingRoom, type SheetDrawing } from '$lib/builds/orthographic';
 import { buildSheet, checklistKeys, type SheetModel } from '$lib/builds/sheet';
 import { formatMoney } from '$lib/components/client/money';
@@ -67,6 +68,8 @@ export type SheetData = {
 	canTick: boolean;
 	paper: Paper;
 	generatedAt: Date;
+	/** The clearance table's row for this variant's positions. */
+	room: RoomFigure[];
 };
 
 async function loadChecked(build: BuildRow, variantId: string | undefined) {
@@ -181,7 +184,8 @@ export async function loadSheet(locals: Locals, buildId: string, url: URL): Prom
 		photos: photoRows.map((p) => ({ id: p.id, caption: p.caption, width: p.width, height: p.height })),
 		canTick: studioSide,
 		paper,
-		generatedAt: new Date()
+		generatedAt: new Date(),
+		room: roomAt(checked.loaded.scene.enclosure, { dividerPositions: checked.resolved.dividerPositions, bracketOffsets: checked.resolved.bracketOffsets })
 	};
 }
 

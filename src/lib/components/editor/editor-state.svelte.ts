@@ -9,6 +9,7 @@ import {
 	reportFor,
 	resolveScene,
 	sceneSchema,
+	type Box,
 	type BracketDef,
 	type DividerDef,
 	type EnclosureDef,
@@ -69,6 +70,8 @@ export class EditorState {
 	view = $state<ViewName>('orbit');
 	showPanels = $state(true);
 	showKeepouts = $state(true);
+	/** A free-space box picked in "what fits here", drawn as a ghost in 3D. */
+	freeSpaceGhost = $state.raw<Box | null>(null);
 	dragTarget = $state.raw<{ kind: 'divider' | 'bracket'; id: string } | { kind: 'part'; id: string; axis: 'x' | 'y' | 'z' } | null>(null);
 
 	saveStatus = $state<SaveStatus>('saved');

@@ -4,7 +4,7 @@
  * demo rows a user has changed are left alone, standard-library rows follow the code.
  */
 import { SLOT_PITCH_MM, innerVolumeLitres, type EnclosureDef, type PartDef, type Vec3 } from '$lib/geometry';
-import { demoEnclosure, demoParts } from '$lib/geometry/fixtures';
+import { demoEnclosure, demoParts, demoTowerEnclosure } from '$lib/geometry/fixtures';
 import { categoryTemplate, oneBody } from '$lib/components/catalog/part-shape';
 import { checkEnclosure, checkPart, type PartExtras } from '$lib/components/catalog/schemas';
 import { db } from '../db';
@@ -185,96 +185,9 @@ function sandwich(): EnclosureDef {
 	return { ...demoEnclosure(), name: 'Compact sandwich, three spine positions' };
 }
 
-/** About 18 L: a small tower with a supply chamber under a shroud, top radiator, front fans. */
+/** About 18 L: the engine's demo small tower (supply chamber under a shroud, top radiator, front fans). */
 function smallTower(): EnclosureDef {
-	const panel = { thicknessMm: 2, kind: 'solid' as const, offsetMm: 0 };
-	return {
-		name: 'Small tower with supply chamber',
-		outerMm: [210, 380, 240],
-		walls: {
-			left: { ...panel },
-			right: { ...panel, thicknessMm: 3 },
-			bottom: { ...panel },
-			top: { ...panel, kind: 'mesh' },
-			front: { ...panel, kind: 'mesh' },
-			back: { ...panel }
-		},
-		dividers: [
-			{
-				id: 'shroud',
-				label: 'Supply shroud',
-				axis: 'y',
-				thicknessMm: 2,
-				positions: { kind: 'range', minMm: 90, maxMm: 120, stepMm: 10 },
-				sides: { low: 'supply chamber', high: 'main chamber' }
-			}
-		],
-		brackets: [
-			{
-				id: 'pump-bracket',
-				label: 'Pump bracket',
-				kind: 'pump',
-				box: { min: [20, 122, 170], max: [100, 125, 230] },
-				axis: 'z',
-				travel: { minMm: -60, maxMm: 0, stepMm: 10 }
-			}
-		],
-		mounts: [
-			{
-				id: 'top-radiator',
-				label: 'Top radiator mount',
-				kind: 'radiator',
-				face: 'top',
-				region: { min: [0, 325, 0], max: [205, 376, 236] },
-				accepts: ['240', '280'],
-				budgetMm: 50,
-				standoffMm: 0,
-				slotPitchMm: SLOT_PITCH_MM
-			},
-			{
-				id: 'front-fans',
-				label: 'Front fans',
-				kind: 'fan',
-				face: 'front',
-				region: { min: [0, 125, 0], max: [205, 376, 30] },
-				accepts: ['120', '140'],
-				budgetMm: 30,
-				standoffMm: 0,
-				slotPitchMm: SLOT_PITCH_MM
-			},
-			{
-				id: 'tray',
-				label: 'Board tray',
-				kind: 'board-tray',
-				face: 'right',
-				region: { min: [165, 125, 0], max: [205, 376, 236] },
-				accepts: ['Mini-ITX', 'microATX'],
-				standoffMm: 6,
-				slotPitchMm: SLOT_PITCH_MM
-			},
-			{
-				id: 'slots',
-				label: 'Expansion slots',
-				kind: 'slots',
-				face: 'back',
-				region: { min: [80, 125, 226], max: [165, 290, 236] },
-				accepts: [],
-				standoffMm: 0,
-				slotPitchMm: SLOT_PITCH_MM,
-				slotCount: 4
-			},
-			{
-				id: 'psu',
-				label: 'Supply bay',
-				kind: 'psu-bay',
-				face: 'bottom',
-				region: { min: [0, 0, 0], max: [155, 88, 170] },
-				accepts: ['SFX', 'SFX-L', 'ATX'],
-				standoffMm: 0,
-				slotPitchMm: SLOT_PITCH_MM
-			}
-		]
-	};
+	return demoTowerEnclosure();
 }
 
 export const DEMO_ENCLOSURES = [

@@ -1,0 +1,446 @@
+/**
+ * The clearance table of an enclosure: for every allowed position of its dividers and brackets
+ * (every combination when at most two of them move; one at a time, the others at their first
+ * position, when more do), the room it leaves — per compartment and per mount — before any part
+ * is chosen. Each figure says what bounds it. Millimetres, inner coordinates, Y up.
+ */
+
+import { AXES, EPSILON_MM, boxSize, type AxisIndex, type Face } from './box';
+import { FACE_AXES, bracketBoxAt, compartmentsFor, dividerBoxAt, innerBoxOf } from './enclosure';
+import { SceneError } from './errors';
+import { BOARD_THICKNESS_MM } from './fixtures';
+import { byVolume, containerLabels, faceBound, maximalEmptyBoxes, type LabelledBox } from './free-space';
+import { allowedPositions, formatMm, type AllowedPosition } from './positions';
+import { SLOT_PITCH_MM, type Box, type EnclosureDef, type FaceName, type MountDef, type Vec3 } from './schema';
+
+/**
+ * Board outlines by class, from the documents that define them. The thickness is not in them:
+ * 1.6 mm (0.062 in) is the usual board, from memory (BOARD_THICKNESS_MM).
+ */
+export const BOARD_CLASSES: Record<string, { widthMm: number; depthMm: number; source: string }> = {
+	'Mini-ITX': { widthMm: 170, depthMm: 170, source: 'Mini-ITX form factor addendum to the microATX specification (2001)' },
+	microATX: { widthMm: 244, depthMm: 244, source: 'microATX Motherboard Interface Specification 1.2' },
+	ATX: { widthMm: 305, depthMm: 244, source: 'ATX Specification 2.2' }
+};
+
+/** Common practice: a compact pump or reservoir stands on about 50 × 50 mm. */
+export const PUMP_FOOTPRINT_MM = 50;
+
+/** Most rows one table holds; a definition with more combinations gets the first ones and a note. */
+export const MAX_ROOM_ROWS = 2_000;
+
+export type RoomFigureKind = 'free-box' | 'over-board' | 'card-length' | 'card-slots' | 'stack' | 'pump-depth';
+
+export interface RoomFigure {
+	/** Stable across rows: `free-box:<compartment>`, `stack:<mount>:<class>`, `pump:<compartment>:<face>`. */
+	id: string;
+	kind: RoomFigureKind;
+	label: string;
+	/** The figure in mm (for card slots, the width the slots come from); null when there is no room. */
+	valueMm: number | null;
+	sizeMm?: Vec3;
+	slots?: number;
+	/** What bounds it, in words: "to the Spine", "from the Card support bar at 0.0 mm to the Top panel". */
+	boundedBy: string;
+	/** What was taken off or assumed: standoffs, plate, board thickness, footprint. */
+	note?: string;
+	/** The box the figure measures, for drawing it. */
+	box?: Box;
+}
+
+export interface RoomSetting {
+	kind: 'divider' | 'bracket';
+	id: string;
+	label: string;
+	offsetMm: number;
+	positionLabel: string;
+}
+
+export interface RoomRow {
+	/** `spine=65.68;bar=0`: the moving controls' offsets. */
+	key: string;
+	settings: RoomSetting[];
+	figures: RoomFigure[];
+}
+
+export interface RoomControl {
+	kind: 'divider' | 'bracket';
+	id: string;
+	label: string;
+	positions: AllowedPosition[];
+}
+
+export interface RoomTable {
+	controls: RoomControl[];
+	/** The controls the rows vary (more than one allowed position). */
+	moving: { kind: 'divider' | 'bracket'; id: string }[];
+	rows: RoomRow[];
+	/** Set when the table is incomplete or empty, in words. */
+	note: string | null;
+}
+
+const PANEL: Record<FaceName, string> = {
+	left: 'Left panel',
+	right: 'Right panel',
+	bottom: 'Bottom panel',
+	top: 'Top panel',
+	front: 'Front panel',
+	back: 'Back panel'
+};
+const FACE_WORD: Record<Face, string> = { '-x': 'left panel', '+x': 'right panel', '-y': 'bottom panel', '+y': 'top panel', '-z': 'front panel', '+z': 'back panel' };
+const FACE_NAME_OF: Record<Face, FaceName> = { '-x': 'left', '+x': 'right', '-y': 'bottom', '+y': 'top', '-z': 'front', '+z': 'back' };
+
+function clip(box: Box, to: Box): Box {
+	return {
+		min: [0, 1, 2].map((i) => Math.max(box.min[i], to.min[i])) as Vec3,
+		max: [0, 1, 2].map((i) => Math.min(box.max[i], to.max[i])) as Vec3
+	};
+}
+
+function shares(a: Box, b: Box, axis: number): boolean {
+	for (let i = 0; i < 3; i++) {
+		if (i !== axis && Math.min(a.max[i], b.max[i]) - Math.max(a.min[i], b.min[i]) <= EPSILON_MM) return false;
+	}
+	return true;
+}
+
+/**
+ * Free distance from `start` along `axis` (towards +1 or −1) over the cross-section of `cross`,
+ * to the nearest obstacle ahead or the panel; an obstacle across the start gives 0.
+ */
+export function reach(inner: Box, cross: Box, axis: AxisIndex, dir: 1 | -1, start: number, obstacles: readonly LabelledBox[]): { distanceMm: number; against: string } {
+	const panelFace = FACE_NAMES_BY_AXIS[axis][dir > 0 ? 1 : 0];
+	let best = { distanceMm: dir > 0 ? inner.max[axis] - start : start - inner.min[axis], against: PANEL[panelFace] };
+	for (const o of obstacles) {
+		if (!shares(o.box, cross, axis)) continue;
+		const near = dir > 0 ? o.box.min[axis] - start : start - o.box.max[axis];
+		const far = dir > 0 ? o.box.max[axis] - start : start - o.box.min[axis];
+		if (far <= EPSILON_MM) continue;
+		const d = Math.max(0, near);
+		if (d < best.distanceMm + EPSILON_MM) best = { distanceMm: d, against: o.label };
+	}
+	return best;
+}
+
+const FACE_NAMES_BY_AXIS: [FaceName, FaceName][] = [
+	['left', 'right'],
+	['bottom', 'top'],
+	['front', 'back']
+];
+
+function panelAt(mount: MountDef, inner: Box): { axis: AxisIndex; dir: 1 | -1; panel: number } {
+	const { axis, high } = FACE_AXES[mount.face];
+	return { axis, dir: high ? -1 : 1, panel: high ? inner.max[axis] : inner.min[axis] };
+}
+
+/** A slab on a panel: the mount's region across, `depth` in from the panel. */
+function slabOn(mount: MountDef, inner: Box, depth: number): Box {
+	const { axis, dir, panel } = panelAt(mount, inner);
+	const box = clip(mount.region, inner);
+	box.min[axis] = dir > 0 ? panel : panel - depth;
+	box.max[axis] = dir > 0 ? panel + depth : panel;
+	return box;
+}
+
+function plateFor(mount: MountDef, cls: string | null): number {
+	if (!mount.plateMm) return 0;
+	if (mount.plateFor === undefined) return mount.plateMm;
+	return cls !== null && mount.plateFor.includes(cls) ? mount.plateMm : 0;
+}
+
+function boardClassOf(mount: MountDef): string | null {
+	return mount.accepts.find((c) => c in BOARD_CLASSES) ?? null;
+}
+
+/** Board on its tray: plate (when it applies) + standoffs + a board of the tray's class. */
+function boardDepth(mount: MountDef): number {
+	return plateFor(mount, boardClassOf(mount)) + mount.standoffMm + BOARD_THICKNESS_MM;
+}
+
+/** The offsets one row uses. */
+export interface RoomPositions {
+	dividerPositions: Record<string, number>;
+	bracketOffsets: Record<string, number>;
+}
+
+/** The figures at one setting of the controls (each offset must be allowed). */
+/** What the obstacles reaching into a box are, as text: rows with the same key have the same figures there. */
+function keyOf(container: Box, obstacles: readonly LabelledBox[]): string {
+	let key = `${container.min[0]},${container.min[1]},${container.min[2]},${container.max[0]},${container.max[1]},${container.max[2]}`;
+	for (const o of obstacles) {
+		const b = o.box;
+		if (Math.min(b.max[0], container.max[0]) - Math.max(b.min[0], container.min[0]) <= EPSILON_MM) continue;
+		if (Math.min(b.max[1], container.max[1]) - Math.max(b.min[1], container.min[1]) <= EPSILON_MM) continue;
+		if (Math.min(b.max[2], container.max[2]) - Math.max(b.min[2], container.min[2]) <= EPSILON_MM) continue;
+		key += `|${o.label}:${b.min[0]},${b.min[1]},${b.min[2]},${b.max[0]},${b.max[1]},${b.max[2]}`;
+	}
+	return key;
+}
+
+export function roomAt(enclosure: EnclosureDef, at: RoomPositions, cache: Map<string, RoomFigure[]> = new Map()): RoomFigure[] {
+	const inner = innerBoxOf(enclosure);
+	const dividers: LabelledBox[] = enclosure.dividers.map((d) => ({
+		id: `divider:${d.id}`,
+		label: d.label,
+		box: dividerBoxAt(enclosure, d, at.dividerPositions[d.id] ?? allowedPositions(d)[0]?.offsetMm ?? 0)
+	}));
+	const bracketOffset = (id: string) => at.bracketOffsets[id] ?? 0;
+	const brackets: LabelledBox[] = enclosure.brackets.map((b) => ({
+		id: `bracket:${b.id}`,
+		label: `${b.label} at ${formatMm(bracketOffset(b.id))}`,
+		box: bracketBoxAt(b, bracketOffset(b.id))
+	}));
+	const trays = enclosure.mounts.filter((m) => m.kind === 'board-tray');
+	const boards: LabelledBox[] = trays.map((m) => ({ id: `board:${m.id}`, label: `board on the ${m.label}`, box: slabOn(m, inner, boardDepth(m)) }));
+	const stacks: LabelledBox[] = enclosure.mounts
+		.filter((m) => m.kind === 'radiator' || m.kind === 'fan')
+		.map((m) => {
+			const { axis } = FACE_AXES[m.face];
+			const regionDepth = clip(m.region, inner);
+			const depth = Math.min(m.budgetMm ?? Infinity, regionDepth.max[axis] - regionDepth.min[axis]);
+			return { id: `stack:${m.id}`, label: `${m.label} stack`, box: slabOn(m, inner, depth) };
+		});
+	const fixed = [...dividers, ...brackets, ...boards];
+	const reachObstacles = [...fixed, ...stacks];
+	const compartments = compartmentsFor(enclosure, at.dividerPositions);
+	const figures: RoomFigure[] = [];
+
+	// Per compartment: its free box, and the depth for a pump or reservoir from each of its panels.
+	// Rows share most compartments (one control moves at a time), so these are kept by what they
+	// depend on: the compartment and the obstacles that reach into it.
+	const perCompartment: RoomFigure[] = [];
+	for (const c of compartments) {
+		const key = `${c.id}#${keyOf(c.box, reachObstacles)}#${keyOf(c.box, fixed)}`;
+		let found = cache.get(key);
+		if (!found) {
+			found = compartmentFigures(c, inner, fixed, reachObstacles);
+			cache.set(key, found);
+		}
+		for (const f of found) (f.kind === 'free-box' ? figures : perCompartment).push(f);
+	}
+
+	// Height over a board on each tray.
+	for (const m of trays) {
+		const { axis, dir, panel } = panelAt(m, inner);
+		const depth = boardDepth(m);
+		const cls = boardClassOf(m);
+		const cross = clip(m.region, inner);
+		const others = fixed.filter((o) => o.id !== `board:${m.id}`);
+		const r = reach(inner, cross, axis, dir, panel + dir * depth, others);
+		const plate = plateFor(m, cls);
+		figures.push({
+			id: `over-board:${m.id}`,
+			kind: 'over-board',
+			label: `Over the ${cls ?? ''} board on the ${m.label}`.replace('  ', ' '),
+			valueMm: r.distanceMm,
+			boundedBy: `to the ${r.against}`,
+			note: `${plate ? `${formatMm(plate)} plate + ` : ''}${formatMm(m.standoffMm)} standoffs + ${formatMm(BOARD_THICKNESS_MM)} board taken off`
+		});
+	}
+
+	// Cards: standing on a support bracket, or hanging from an expansion-slot mount.
+	const stackAxis = trays.length ? FACE_AXES[trays[0].face].axis : null;
+	for (const b of enclosure.brackets.filter((x) => x.kind === 'card-support')) {
+		const box = bracketBoxAt(b, bracketOffset(b.id));
+		const L = AXES.indexOf(b.axis) as AxisIndex;
+		const centre = box.min.map((v, i) => (v + box.max[i]) / 2);
+		const room = compartments.find((c) => c.box.min.every((v, i) => v - EPSILON_MM <= centre[i] && centre[i] <= c.box.max[i] + EPSILON_MM)) ?? { box: inner, label: 'Inside', id: 'inside' };
+		const up = box.min[L] - room.box.min[L] <= room.box.max[L] - box.max[L];
+		const dir: 1 | -1 = up ? 1 : -1;
+		const cross = clip(box, room.box);
+		const others = reachObstacles.filter((o) => o.id !== `bracket:${b.id}`);
+		const r = reach(inner, cross, L, dir, up ? box.max[L] : box.min[L], others);
+		const label = `${b.label} at ${formatMm(bracketOffset(b.id))}`;
+		figures.push({
+			id: `card-length:${b.id}`,
+			kind: 'card-length',
+			label: `Longest card, standing on the ${b.label}`,
+			valueMm: r.distanceMm,
+			boundedBy: `from the ${label} to the ${r.against}`
+		});
+		const S = (stackAxis !== null && stackAxis !== L ? stackAxis : ([0, 1, 2].filter((i) => i !== L).sort((p, q) => room.box.max[p] - room.box.min[p] - (room.box.max[q] - room.box.min[q]))[0] as AxisIndex));
+		const width = room.box.max[S] - room.box.min[S];
+		const labels = containerLabels(room.box, inner, '');
+		const lo = labels[`-${AXES[S]}` as Face] || faceBound(room.box, `-${AXES[S]}` as Face, dividers.map((d) => ({ ...d, box: d.box })), labels);
+		const hi = labels[`+${AXES[S]}` as Face] || faceBound(room.box, `+${AXES[S]}` as Face, dividers, labels);
+		figures.push({
+			id: `card-slots:${b.id}`,
+			kind: 'card-slots',
+			label: `Widest card in ${room.label}`,
+			valueMm: width,
+			slots: Math.floor(width / SLOT_PITCH_MM + 1e-9),
+			boundedBy: `${lo || 'edge'} to ${hi || 'edge'}`,
+			note: `slots of ${formatMm(SLOT_PITCH_MM)} (PCI Express CEM)`
+		});
+	}
+	for (const m of enclosure.mounts.filter((x) => x.kind === 'slots')) {
+		const { axis, dir, panel } = panelAt(m, inner);
+		const cross = clip(m.region, inner);
+		const r = reach(inner, cross, axis, dir, panel, reachObstacles);
+		figures.push({ id: `card-length:${m.id}`, kind: 'card-length', label: `Longest card in the ${m.label}`, valueMm: r.distanceMm, boundedBy: `from the ${PANEL[m.face]} to the ${r.against}` });
+		const S = (stackAxis !== null && stackAxis !== axis ? stackAxis : ([0, 1, 2].filter((i) => i !== axis).sort((p, q) => cross.max[p] - cross.min[p] - (cross.max[q] - cross.min[q]))[0] as AxisIndex));
+		const width = cross.max[S] - cross.min[S];
+		const pitch = m.slotPitchMm || SLOT_PITCH_MM;
+		const byRoom = Math.floor(width / pitch + 1e-9);
+		const slots = m.slotCount !== undefined ? Math.min(m.slotCount, byRoom) : byRoom;
+		figures.push({
+			id: `card-slots:${m.id}`,
+			kind: 'card-slots',
+			label: `Widest card in the ${m.label}`,
+			valueMm: width,
+			slots,
+			boundedBy: m.slotCount !== undefined && m.slotCount <= byRoom ? `${m.slotCount} slots on the mount` : `the mount's ${formatMm(width)} across`,
+			note: `slots of ${formatMm(pitch)} (PCI Express CEM)`
+		});
+	}
+
+	// Stack budget on each radiator or fan mount, per class it takes, after its plate.
+	for (const m of enclosure.mounts.filter((x) => x.kind === 'radiator' || x.kind === 'fan')) {
+		const { axis, dir, panel } = panelAt(m, inner);
+		const cross = clip(m.region, inner);
+		const r = reach(inner, cross, axis, dir, panel, [...dividers, ...brackets]);
+		for (const cls of m.accepts.length ? m.accepts : [null]) {
+			const plate = plateFor(m, cls);
+			const budget = m.budgetMm;
+			const byBudget = budget !== undefined && budget <= r.distanceMm + EPSILON_MM;
+			const limit = byBudget ? budget! : r.distanceMm;
+			const why = byBudget
+				? Math.abs(budget! - r.distanceMm) <= EPSILON_MM
+					? `to the ${r.against} (the ${formatMm(budget!)} budget)`
+					: `the ${formatMm(budget!)} stack budget`
+				: `to the ${r.against}`;
+			const after = [plate ? `the ${formatMm(plate)} adapter plate` : '', m.standoffMm ? `${formatMm(m.standoffMm)} standoffs` : ''].filter(Boolean).join(' and ');
+			figures.push({
+				id: `stack:${m.id}:${cls ?? 'any'}`,
+				kind: 'stack',
+				label: `${m.label}${cls ? `, ${cls}` : ''}: ${m.kind === 'radiator' ? 'radiator + fans' : 'fans'}`,
+				valueMm: Math.max(0, limit - plate - m.standoffMm),
+				boundedBy: after ? `${why}, after ${after}` : why
+			});
+		}
+	}
+
+	return figures.concat(perCompartment);
+}
+
+/** A compartment's free box (after fixed obstacles) and its pump depths per panel (after stacks too). */
+function compartmentFigures(c: { id: string; label: string; box: Box }, inner: Box, fixed: readonly LabelledBox[], reachObstacles: readonly LabelledBox[]): RoomFigure[] {
+	const figures: RoomFigure[] = [];
+	const best = maximalEmptyBoxes(c.box, fixed.map((o) => o.box), 1).boxes.sort(byVolume)[0];
+	if (!best) {
+		figures.push({ id: `free-box:${c.id}`, kind: 'free-box', label: `${c.label}: free box`, valueMm: null, boundedBy: 'no free room' });
+		return figures;
+	}
+	const labels = containerLabels(best, inner, '');
+	const side = (f: Face) => labels[f] || faceBound(best, f, fixed, labels) || 'the compartment edge';
+	const size = boxSize(best);
+	figures.push({
+		id: `free-box:${c.id}`,
+		kind: 'free-box',
+		label: `${c.label}: free box`,
+		valueMm: null,
+		sizeMm: size,
+		boundedBy: `${side('-x')} to ${side('+x')}, ${side('-y')} to ${side('+y')}, ${side('-z')} to ${side('+z')}`,
+		box: best
+	});
+	const boxes = maximalEmptyBoxes(c.box, reachObstacles.map((o) => o.box), 1).boxes.sort(byVolume);
+	for (const f of ['-x', '+x', '-y', '+y', '-z', '+z'] as const) {
+		const { axis, high } = FACE_AXES[FACE_NAME_OF[f]];
+		const panel = high ? inner.max[axis] : inner.min[axis];
+		if (Math.abs((high ? c.box.max[axis] : c.box.min[axis]) - panel) > EPSILON_MM) continue;
+		let deep: Box | null = null;
+		for (const b of boxes) {
+			if (Math.abs((high ? b.max[axis] : b.min[axis]) - panel) > EPSILON_MM) continue;
+			const wide = [0, 1, 2].every((i) => i === axis || b.max[i] - b.min[i] >= PUMP_FOOTPRINT_MM - EPSILON_MM);
+			if (!wide) continue;
+			const d = b.max[axis] - b.min[axis];
+			if (!deep || d > deep.max[axis] - deep.min[axis] + EPSILON_MM || (Math.abs(d - (deep.max[axis] - deep.min[axis])) <= EPSILON_MM && byVolume(b, deep) < 0)) deep = b;
+		}
+		if (!deep) continue;
+		const far = `${high ? '-' : '+'}${AXES[axis]}` as Face;
+		const edges = containerLabels(deep, inner, '');
+		const bound = edges[far] || faceBound(deep, far, reachObstacles, edges) || 'the compartment edge';
+		figures.push({
+			id: `pump:${c.id}:${FACE_NAME_OF[f]}`,
+			kind: 'pump-depth',
+			label: `${c.label}: pump or reservoir on the ${FACE_WORD[f]}`,
+			valueMm: deep.max[axis] - deep.min[axis],
+			boundedBy: `to the ${bound}`,
+			note: `over ${formatMm(Math.min(...[0, 1, 2].filter((i) => i !== axis).map((i) => deep!.max[i] - deep!.min[i])))} × ${formatMm(Math.max(...[0, 1, 2].filter((i) => i !== axis).map((i) => deep!.max[i] - deep!.min[i])))} (a footprint of at least ${PUMP_FOOTPRINT_MM} × ${PUMP_FOOTPRINT_MM} mm)`,
+			box: deep
+		});
+	}
+	return figures;
+}
+
+/** Every row of the enclosure's clearance table; `note` says when there is no allowed position. */
+export function roomTable(enclosure: EnclosureDef): RoomTable {
+	const controls: RoomControl[] = [
+		...enclosure.dividers.map((d) => ({ kind: 'divider' as const, id: d.id, label: d.label, positions: allowedPositions(d) })),
+		...enclosure.brackets.map((b) => ({ kind: 'bracket' as const, id: b.id, label: b.label, positions: allowedPositions(b) }))
+	];
+	const empty = controls.filter((c) => c.positions.length === 0);
+	if (empty.length) {
+		return { controls, moving: [], rows: [], note: `${empty.map((c) => c.label).join(', ')} ${empty.length === 1 ? 'has' : 'have'} no allowed position, so there is no room to list.` };
+	}
+	const moving = controls.filter((c) => c.positions.length > 1);
+	const settingsList: RoomSetting[][] = [];
+	const base = controls.map((c) => ({ kind: c.kind, id: c.id, label: c.label, offsetMm: c.positions[0].offsetMm, positionLabel: c.positions[0].label }));
+	const withPos = (set: RoomSetting[], c: RoomControl, p: AllowedPosition) => set.map((s) => (s.kind === c.kind && s.id === c.id ? { ...s, offsetMm: p.offsetMm, positionLabel: p.label } : s));
+	let note: string | null = null;
+	if (moving.length <= 2) {
+		let sets: RoomSetting[][] = [base];
+		for (const c of moving) {
+			const next: RoomSetting[][] = [];
+			for (const s of sets) for (const p of c.positions) next.push(withPos(s, c, p));
+			sets = next;
+		}
+		settingsList.push(...sets);
+	} else {
+		note = `${moving.length} controls move: each one's positions are listed with the others at their first position.`;
+		settingsList.push(base);
+		for (const c of moving) for (const p of c.positions.slice(1)) settingsList.push(withPos(base, c, p));
+	}
+	if (settingsList.length > MAX_ROOM_ROWS) {
+		note = `${note ? `${note} ` : ''}Only the first ${MAX_ROOM_ROWS} of ${settingsList.length} combinations are listed.`;
+		settingsList.length = MAX_ROOM_ROWS;
+	}
+	const cache = new Map<string, RoomFigure[]>();
+	const rows = settingsList.map((settings) => {
+		const at: RoomPositions = { dividerPositions: {}, bracketOffsets: {} };
+		for (const s of settings) (s.kind === 'divider' ? at.dividerPositions : at.bracketOffsets)[s.id] = s.offsetMm;
+		const key = settings
+			.filter((s) => moving.some((m) => m.kind === s.kind && m.id === s.id))
+			.map((s) => `${s.id}=${s.offsetMm}`)
+			.join(';');
+		return { key, settings, figures: roomAt(enclosure, at, cache) };
+	});
+	return { controls, moving: moving.map((m) => ({ kind: m.kind, id: m.id })), rows, note };
+}
+
+/** The row of a table for the offsets a scene uses (controls left out take their first position). */
+export function roomRowFor(table: RoomTable, dividerPositions: Record<string, number>, bracketOffsets: Record<string, number>): RoomRow | null {
+	return (
+		table.rows.find((r) =>
+			r.settings.every((s) => {
+				const given = (s.kind === 'divider' ? dividerPositions : bracketOffsets)[s.id];
+				return given === undefined ? true : Math.abs(given - s.offsetMm) <= EPSILON_MM;
+			})
+		) ?? null
+	);
+}
+
+/** Throws SceneError naming the field when a requested offset is not allowed. */
+export function checkRoomPositions(enclosure: EnclosureDef, at: RoomPositions): void {
+	for (const [key, list] of [
+		['dividerPositions', enclosure.dividers],
+		['bracketOffsets', enclosure.brackets]
+	] as const) {
+		const given = at[key];
+		for (const [id, offset] of Object.entries(given)) {
+			const def = list.find((d) => d.id === id);
+			if (!def) throw new SceneError(`${key}.${id}`, 'No such control in this enclosure');
+			if (!allowedPositions(def).some((p) => Math.abs(p.offsetMm - offset) <= EPSILON_MM)) throw new SceneError(`${key}.${id}`, `${offset} mm is not an allowed position`);
+		}
+	}
+}

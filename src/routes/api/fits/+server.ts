@@ -1,0 +1,105 @@
+import { json } from '@sveltejs/kit';
+import { z } from 'zod';
+import { SceneError, allowedPositions, boxSchema, partCategorySchema, resolveScene, sceneSchema, type PartDef } from '$lib/geometry';
+import { partsByPositions, radiatorCombinations, whatFits, type FitCandidate } from '$lib/builds/fits';
+import { apiLimit, problem, readJson } from '$lib/server/api';
+import { catalogAccess } from '$lib/server/catalog/http';
+import { getPartsByIds, listPartsForStudio, type PartRecord } from '$lib/server/catalog/parts';
+import type { RequestHandler } from './$types';
+
+const id = z.string().min(1).max(120);
+const target = z.discriminatedUnion('kind', [
+	z.object({ kind: z.literal('mount'), mountId: id }),
+	z.object({ kind: z.literal('compartment'), compartmentId: z.string().min(1).max(400) }),
+	z.object({ kind: z.literal('space'), box: boxSchema }),
+	z.object({ kind: z.literal('replace'), placementId: id })
+]);
+
+/** Most candidates one call weighs, and most cells of a parts × positions table. */
+const MAX_CANDIDATES = 200;
+const MAX_CELLS = 20_000;
+/** Radiators and fans tried for combinations (each pair is placed and checked). */
+const MAX_COMBINATION_PARTS = 30;
+
+const body = z.object({
+	scene: sceneSchema,
+	target,
+	filters: z
+		.object({
+			category: partCategorySchema.optional(),
+			q: z.string().max(200).optional(),
+			/** Exactly these parts (the studio's or the standard library's), in place of a search. */
+			partIds: z.array(id).max(MAX_CANDIDATES).optional()
+		})
+		.default({}),
+	sort: z.enum(['spare', 'price', 'name']).default('spare'),
+	limit: z.number().int().min(1).max(MAX_CANDIDATES).default(50),
+	/** Parts × positions: every allowed position of this control. */
+	positions: z.object({ kind: z.enum(['divider', 'bracket']), id }).optional(),
+	/** Radiator + fan combinations for a radiator or fan mount. */
+	combinations: z.boolean().default(false)
+});
+
+const candidateOf = (p: PartRecord): FitCandidate => ({ part: { ...p.def, id: p.id, name: p.name }, priceMinor: p.priceMinor, isStandard: p.isStandard });
+
+/**
+ * A scene and a target (a mount, a compartment, a free-space box, a placed part to replace) → the
+ * studio's parts and the standard library ranked by what fits there, each placed by the same
+ * rules as "add part" and checked by the engine. Reads only; nothing is stored.
+ */
+export const POST: RequestHandler = async (event) => {
+	const access = await catalogAccess(event, 'catalog.view');
+	await apiLimit(event, access.user.id);
+	const input = await readJson(event.request, body);
+	let records: PartRecord[];
+	if (input.filters.partIds) {
+		records = await getPartsByIds(access.studioId, input.filters.partIds);
+		const found = new Set(records.map((r) => r.id));
+		const missing = input.filters.partIds.findIndex((p) => !found.has(p));
+		if (missing >= 0) return problem(400, 'No such part.', [{ path: `filters.partIds[${missing}]`, message: `No part with id ${input.filters.partIds[missing]}` }]);
+		const order = new Map(input.filters.partIds.map((p, i) => [p, i]));
+		records.sort((a, b) => order.get(a.id)! - order.get(b.id)!);
+	} else {
+		records = await listPartsForStudio(access.studioId, { q: input.filters.q, category: input.filters.category, limit: MAX_CANDIDATES });
+	}
+	const candidates = records.map(candidateOf);
+	try {
+		const resolved = resolveScene(input.scene);
+		const found = whatFits(input.scene, input.target, candidates, input.sort, resolved);
+		const out: Record<string, unknown> = {
+			label: found.label,
+			counts: { fits: found.fits.length, left: found.left.length },
+			fits: found.fits.slice(0, input.limit),
+			left: found.left.slice(0, input.limit)
+		};
+		// The listed parts' definitions, so the editor can place one without another request.
+		const byId = new Map(candidates.map((c) => [c.part.id, c.part]));
+		const parts: Record<string, PartDef> = {};
+		for (const r of found.fits.slice(0, input.limit)) parts[r.partId] = byId.get(r.partId)!;
+		out.parts = parts;
+		if (input.positions) {
+			const control = input.positions;
+			const def = control.kind === 'divider' ? input.scene.enclosure.dividers.find((d) => d.id === control.id) : input.scene.enclosure.brackets.find((b) => b.id === control.id);
+			if (!def) return problem(400, 'No such control.', [{ path: 'positions.id', message: `No ${control.kind} with id ${control.id}` }]);
+			const picked = candidates.slice(0, input.limit);
+			if (allowedPositions(def).length * picked.length > MAX_CELLS) {
+				return problem(400, 'Too many cells.', [{ path: 'positions.id', message: `${allowedPositions(def).length} positions × ${picked.length} parts is more than ${MAX_CELLS} cells; pick fewer parts` }]);
+			}
+			out.partsByPositions = partsByPositions(input.scene, input.target, picked, control);
+		}
+		if (input.combinations) {
+			if (input.target.kind !== 'mount') return problem(400, 'Combinations are for a mount.', [{ path: 'target.kind', message: 'Combinations need a radiator or fan mount' }]);
+			const [rads, fans] = await Promise.all(
+				(['radiator', 'fan'] as const).map((category) => listPartsForStudio(access.studioId, { category, limit: MAX_COMBINATION_PARTS }))
+			);
+			const pool = [...rads, ...fans].map(candidateOf);
+			const combinations = radiatorCombinations(input.scene, input.target.mountId, pool, resolved);
+			for (const c of combinations) for (const p of pool) if (p.part.id === c.radiator.partId || p.part.id === c.fan.partId) parts[p.part.id] = p.part;
+			out.combinations = combinations;
+		}
+		return json(out);
+	} catch (e) {
+		if (e instanceof SceneError) return problem(400, e.message, [{ path: e.path, message: e.message }]);
+		throw e;
+	}
+};
