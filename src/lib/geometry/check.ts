@@ -2,6 +2,7 @@
 
 import { AXES, EPSILON_MM, axisIndex, boxContains, boxSize, compareText, intersectBoxes, type Face } from './box';
 import { heatBudget, powerBudget } from './budgets';
+import { MAX_LISTED_OVERLAPS, firstPairsById } from './cost';
 import { buildModel, FACE_ORDER, isHeldContact, statusCounts, tallyStatic, type FoundPair, type Model } from './model';
 import { mountReports } from './mounts';
 import { allowedPositions } from './positions';
@@ -176,11 +177,17 @@ function gapsOf(model: Model, gap: Float64Array, against: Int32Array, p: number)
 	return out;
 }
 
+export interface ReportOptions {
+	/** Overlaps listed at most (default MAX_LISTED_OVERLAPS); totals and statuses count them all. */
+	maxListedOverlaps?: number;
+}
+
 /** Report for a scene already resolved (so callers that resolved once need not do it again). */
-export function reportFor(scene: Scene, resolved = resolveScene(scene)): FitReport {
+export function reportFor(scene: Scene, resolved = resolveScene(scene), options: ReportOptions = {}): FitReport {
 	const model = buildModel(scene, resolved);
 	const { tally, pairs } = tallyStatic(model, null);
-	const overlaps = pairs
+	const maxListed = options.maxListedOverlaps ?? MAX_LISTED_OVERLAPS;
+	const overlaps = firstPairsById(model.boxes.map((b) => b.id), pairs, maxListed)
 		.map((pair) => overlapOf(model, pair))
 		.sort((x, y) => compareText(x.a.id, y.a.id) || compareText(x.b.id, y.b.id));
 	const { statuses, counts } = statusCounts(model, tally, scene.marginMm);
@@ -195,6 +202,7 @@ export function reportFor(scene: Scene, resolved = resolveScene(scene)): FitRepo
 	}));
 	return {
 		overlaps,
+		overlapsNotListed: pairs.length - overlaps.length,
 		parts,
 		mounts: mountReports(scene, resolved),
 		budgets: { heat: heatBudget(scene, resolved), power: powerBudget(scene, resolved) },
@@ -208,6 +216,6 @@ export function reportFor(scene: Scene, resolved = resolveScene(scene)): FitRepo
 }
 
 /** The fit report of a parsed scene (see sceneSchema). Throws SceneError for positions not allowed. */
-export function checkScene(scene: Scene): FitReport {
-	return reportFor(scene, resolveScene(scene));
+export function checkScene(scene: Scene, options: ReportOptions = {}): FitReport {
+	return reportFor(scene, resolveScene(scene), options);
 }
