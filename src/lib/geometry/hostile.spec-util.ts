@@ -16,8 +16,8 @@ export function pileSceneInput(n: number): SceneInput {
 			name: 'Pile test enclosure',
 			outerMm: [304, 304, 304],
 			walls: { left: panel, right: panel, bottom: panel, top: panel, front: panel, back: panel },
-			dividers: [{ id: 'shelf', label: 'Shelf', axis: 'y', thicknessMm: 2, positions: { kind: 'range', minMm: 100, maxMm: 200, stepMm: 1 } }],
-			brackets: [{ id: 'bar', label: 'Bar', kind: 'other', box: { min: [0, 0, 280], max: [300, 8, 300] }, axis: 'y', travel: { minMm: 0, maxMm: 100, stepMm: 1 } }],
+			dividers: [{ id: 'shelf', label: 'Shelf', axis: 'y', thicknessMm: 2, positions: { kind: 'range', minMm: 100, maxMm: 199, stepMm: 1 } }],
+			brackets: [{ id: 'bar', label: 'Bar', kind: 'other', box: { min: [0, 0, 280], max: [300, 8, 300] }, axis: 'y', travel: { minMm: 0, maxMm: 99, stepMm: 1 } }],
 			mounts: []
 		},
 		parts: [{ id: 'block', name: 'Block', category: 'other', bodies: [{ id: 'body', label: 'body', box: { min: [0, 0, 0], max: [20, 20, 20] } }] }],
@@ -25,6 +25,9 @@ export function pileSceneInput(n: number): SceneInput {
 		placements: Array.from({ length: n }, (_, i) => ({ id: `p${i}`, partId: 'block', position: [10, 10, 10] }))
 	};
 }
+
+/** The pile's divider and bracket have 100 allowed positions each: a grid of 10,000 cells. */
+export const PILE_CONTROL_POSITIONS = 100;
 
 /** The largest pile the cost limits allow (found by bisection on the cost model itself). */
 export function largestAllowedPile(): number {

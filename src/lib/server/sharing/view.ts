@@ -6,7 +6,8 @@
  */
 import { createHash } from 'node:crypto';
 import { inArray } from 'drizzle-orm';
-import { boxSize, checkScene, innerVolumeLitres, resolveScene, type PartCategory, type PartDef, type Scene } from '$lib/geometry';
+import { boxSize, innerVolumeLitres, resolveScene, type PartCategory, type PartDef, type Scene } from '$lib/geometry';
+import { checkInPool } from '../engine/pool';
 import { loadVariant } from '../builds';
 import { db } from '../db';
 import { parts as partsTable, type BuildRow, type VariantRow } from '../db/schema';
@@ -53,7 +54,7 @@ export async function clientView(input: { build: BuildRow; variant: VariantRow; 
 	if (!loaded) throw new Error('The shared variant could not be loaded.');
 	const neutral = neutralScene(loaded.scene);
 	const scene = neutral.scene;
-	const report = checkScene(scene);
+	const report = await checkInPool(scene);
 	const resolved = resolveScene(scene);
 	const names = placementNames(resolved);
 	const statusOf = new Map(report.parts.map((p) => [p.placementId, p.status]));
