@@ -9,13 +9,14 @@
 import { eq } from 'drizzle-orm';
 import { describe, expect, it } from 'vitest';
 import { MAX_CHECK_BOXES, MAX_GRID_CELLS, MAX_SWEEP_WORK, type FitReport } from '$lib/geometry';
-import { demoParts } from '$lib/geometry/fixtures';
+import { demoParts, demoSceneInput } from '$lib/geometry/fixtures';
 import { PILE_CONTROL_POSITIONS, largestAllowedPile, pileSceneInput } from '$lib/geometry/hostile.spec-util';
 import { demoBuildIn, storedVariant } from './builds.spec-util';
 import { db } from './db';
 import { variants } from './db/schema';
 import { sharedDemo } from './sharing/test-factory';
 import { createMember, createStudio } from './testing/factories';
+import { Client, startApp } from './testing/app-server';
 import { useApp } from './testing/suite';
 
 const app = useApp();
@@ -113,6 +114,25 @@ describe('bounded work per request', () => {
 		expect(homeDoneAt).toBeLessThan(checksDoneAt);
 		// Generous bound; the figure above is the measurement.
 		expect(Math.max(...latencies)).toBeLessThan(2_000);
+	});
+
+	it('a check over the time budget is stopped with 503, and the server keeps answering', async () => {
+		// A budget of 1 ms on a server of its own: the heaviest allowed check cannot meet it.
+		const tight = await startApp({ env: { ENGINE_TIME_BUDGET_MS: '1' } });
+		try {
+			const studio = await createStudio();
+			const designer = await createMember(studio.id, 'designer');
+			const c = new Client(tight.baseURL).useSession(designer.session);
+			const res = await c.request('POST', '/api/check', { body: JSON.stringify(pileSceneInput(largestAllowedPile())), headers: { 'content-type': 'application/json', accept: 'application/json', origin: tight.baseURL } });
+			expect(res.status, res.text.slice(0, 300)).toBe(503);
+			expect(res.text).toContain('budget');
+			expect((await new Client(tight.baseURL).get('/')).status).toBe(200);
+			// The pool replaces the stopped worker: a cheap check still answers.
+			const demo = await c.request('POST', '/api/check', { body: JSON.stringify(demoSceneInput()), headers: { 'content-type': 'application/json', accept: 'application/json', origin: tight.baseURL } });
+			expect(demo.status).toBe(200);
+		} finally {
+			await tight.stop();
+		}
 	});
 
 	it('the same pile as a variant save → 422 naming the limit, nothing stored', async () => {

@@ -7,7 +7,8 @@
 import { error } from '@sveltejs/kit';
 import { availableParallelism } from 'node:os';
 import { Piscina } from 'piscina';
-import { checkExcess, resolveScene, sceneBoxCount, sweepExcess, type CostExcess, type FieldIssue, type FitReport, type Scene, type SweepGridResult, type SweepResult } from '$lib/geometry';
+import { MAX_CHECK_BOXES, SceneError, checkExcess, checkScene, resolveScene, sceneBoxCount, sceneCost, sceneExcess, sweepExcess, type CostExcess, type FieldIssue, type FitReport, type Scene, type SweepGridResult, type SweepResult } from '$lib/geometry';
+// Types only: a value import would fold the worker into this chunk and change its import.meta.url.
 import type { EngineAnswer, EngineTask } from './worker';
 
 /** Wall time one task may take (ms); the heaviest scene the limits allow takes well under 1 s here. */
@@ -87,12 +88,33 @@ function valueOf<T>(answer: EngineAnswer, prefix: string): T {
 }
 
 /**
+ * Checks this cheap run on the request thread: a few milliseconds at most (the 100-part benchmark
+ * scene, about 300 boxes and a few thousand candidate pairs, takes under 2 ms), less than the
+ * round trip to a worker costs in copying. Everything above goes to the pool.
+ */
+const INLINE_MAX_BOXES = 400;
+const INLINE_MAX_PAIRS = 10_000;
+
+function inline(scene: Scene): EngineAnswer {
+	try {
+		return { ok: true, value: checkScene(scene) };
+	} catch (e) {
+		if (e instanceof SceneError) return { ok: false, path: e.path, message: e.message };
+		throw e;
+	}
+}
+
+/**
  * The fit report of a parsed scene, refused with 422 when it is over a cost limit (`prefix` puts
- * the field under the request's own name, like `scene`), computed in a worker otherwise.
+ * the field under the request's own name, like `settings`); computed on the request thread when
+ * it is cheap, in a worker otherwise.
  */
 export async function checkInPool(scene: Scene, prefix = ''): Promise<FitReport> {
-	const excess = checkExcess(scene);
+	const boxes = sceneBoxCount(scene);
+	const cost = boxes > MAX_CHECK_BOXES ? { boxes, candidatePairs: 0, overlapPairsBound: 0 } : sceneCost(scene);
+	const excess = sceneExcess(cost);
 	if (excess) refuseCost(excess, prefix);
+	if (cost.boxes <= INLINE_MAX_BOXES && cost.candidatePairs <= INLINE_MAX_PAIRS) return valueOf<FitReport>(inline(scene), prefix);
 	return valueOf<FitReport>(await run({ kind: 'check', scene }), prefix);
 }
 
