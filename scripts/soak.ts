@@ -72,7 +72,7 @@ async function main() {
 		let k = 0;
 		while (Date.now() < endAt) {
 			// Every 25th request is the heaviest scene the limits allow, to the worker pool.
-			const [name, run, ok] = ++k % 25 === 0 ? (['heavy check', () => designer.request('POST', '/api/check', { body: heavy, headers: jsonHeaders }), [200]] as const) : actions[Math.floor(Math.random() * actions.length)];
+			const [name, run, ok] = ++k % 25 === 0 ? (['heavy check', () => designer.request('POST', '/api/check', { body: heavy, headers: jsonHeaders }), [200] as number[]] as const) : actions[Math.floor(Math.random() * actions.length)];
 			try {
 				const res = await run();
 				requests++;
