@@ -187,7 +187,7 @@ export function reportFor(scene: Scene, resolved = resolveScene(scene), options:
 	const model = buildModel(scene, resolved);
 	const { tally, pairs } = tallyStatic(model, null);
 	const maxListed = options.maxListedOverlaps ?? MAX_LISTED_OVERLAPS;
-	const overlaps = firstPairsById(model.boxes.map((b) => b.id), pairs, maxListed)
+	const overlaps = firstPairsById(model.boxes, pairs, maxListed)
 		.map((pair) => overlapOf(model, pair))
 		.sort((x, y) => compareText(x.a.id, y.a.id) || compareText(x.b.id, y.b.id));
 	const { statuses, counts } = statusCounts(model, tally, scene.marginMm);

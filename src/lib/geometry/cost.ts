@@ -200,14 +200,14 @@ export function checkExcess(scene: Scene, path = 'placements'): CostExcess | nul
 
 /**
  * The first `max` pairs in the fit report's order (by the lower box id, then the higher), so a
- * capped list is the start of the full one. Pairs are `{i, j}` box indexes into `ids`. One numeric
+ * capped list is the start of the full one. Pairs are `{i, j}` indexes into `boxes`. One numeric
  * key a pair and a typed-array sort: no comparator runs per pair.
  */
-export function firstPairsById<P extends { i: number; j: number }>(ids: readonly string[], pairs: readonly P[], max: number): P[] {
-	if (pairs.length <= max) return [...pairs];
+export function firstPairsById<P extends { i: number; j: number }>(boxes: readonly { id: string }[], pairs: readonly P[], max: number): readonly P[] {
+	if (pairs.length <= max) return pairs;
 	if (max <= 0) return [];
-	const n = ids.length;
-	const order = Array.from({ length: n }, (_, k) => k).sort((a, b) => compareText(ids[a], ids[b]));
+	const n = boxes.length;
+	const order = Array.from({ length: n }, (_, k) => k).sort((a, b) => compareText(boxes[a].id, boxes[b].id));
 	const rank = new Float64Array(n);
 	order.forEach((k, r) => (rank[k] = r));
 	const keys = new Float64Array(pairs.length);
