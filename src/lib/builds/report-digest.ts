@@ -11,5 +11,6 @@ export function reportDigest(report: FitReport): string {
 	const parts = report.parts.map((p) => `${p.placementId}:${p.status}:${Object.values(p.gaps).map((g) => r(g.gapMm)).join(',')}`);
 	const mounts = report.mounts.map((m) => `${m.mountId}:${m.status}:${r(m.spareMm)}`);
 	const b = report.budgets;
+	if (report.overlapsNotListed > 0) overlaps.push(`+${report.overlapsNotListed}`);
 	return [overlaps.join(';'), parts.join(';'), mounts.join(';'), `${r(b.heat.heatW)}/${r(b.heat.capacityW)}`, `${r(b.power.drawW)}/${r(b.power.ratingW)}`].join('\n');
 }

@@ -330,6 +330,9 @@ function overlapItem(o: Overlap, names: Map<string, string>, resolved: ResolvedS
 
 function fitItems(scene: Scene, resolved: ResolvedScene, report: FitReport, names: Map<string, string>): FitItem[] {
 	const items = report.overlaps.map((o) => overlapItem(o, names, resolved));
+	if (report.overlapsNotListed > 0) {
+		items.push({ key: 'overlap:more', status: 'collides', word: STATUS_WORDS.collides, title: `…and ${report.overlapsNotListed} more overlaps`, detail: 'Not listed one by one; the totals include them.' });
+	}
 	for (const pr of report.parts) {
 		const rp = resolved.placements.find((p) => p.placement.id === pr.placementId)!;
 		if (pr.outsideFaces.length > 0) {

@@ -3,6 +3,7 @@
 import { adviceCache, adviseOverlap, type AdviceCache } from './advice';
 import { AXES, EPSILON_MM, boxContains, boxSize, compareText, intersectBoxes, type AxisIndex, type Face } from './box';
 import { heatBudget, powerBudget } from './budgets';
+import { MAX_LISTED_OVERLAPS, firstPairsById } from './cost';
 import { buildModel, FACE_ORDER, interferenceUnion, isHeldContact, statusCounts, tallyStatic, worstCaseGap, type FoundPair, type Model } from './model';
 import { resolveScene } from './resolve';
 import type { Box, Scene } from './schema';
@@ -79,13 +80,19 @@ function gapsOf(model: Model, gap: Float64Array, against: Int32Array, p: number)
 	return out;
 }
 
+export interface ReportOptions {
+	/** Overlaps listed at most (default MAX_LISTED_OVERLAPS); totals and statuses count them all. */
+	maxListedOverlaps?: number;
+}
+
 /** Report for a scene already resolved (so callers that resolved once need not do it again). */
-export function reportFor(scene: Scene, resolved = resolveScene(scene)): FitReport {
+export function reportFor(scene: Scene, resolved = resolveScene(scene), options: ReportOptions = {}): FitReport {
 	const model = buildModel(scene, resolved);
 	const { tally, pairs } = tallyStatic(model, null);
-	// The clearing search runs only for the problems found; movers' contacts are shared between them.
+	// The clearing search runs only for the problems listed; movers' contacts are shared between them.
 	const cache = adviceCache();
-	const overlaps = pairs
+	const maxListed = options.maxListedOverlaps ?? MAX_LISTED_OVERLAPS;
+	const overlaps = firstPairsById(model.boxes, pairs, maxListed)
 		.map((pair) => overlapOf(model, cache, pair))
 		.sort((x, y) => compareText(x.a.id, y.a.id) || compareText(x.b.id, y.b.id));
 	const { statuses, counts } = statusCounts(model, tally, scene.marginMm);
@@ -101,6 +108,7 @@ export function reportFor(scene: Scene, resolved = resolveScene(scene)): FitRepo
 	}));
 	return {
 		overlaps,
+		overlapsNotListed: pairs.length - overlaps.length,
 		parts,
 		mounts: model.mounts,
 		budgets: { heat: heatBudget(scene, resolved), power: powerBudget(scene, resolved) },
@@ -114,6 +122,6 @@ export function reportFor(scene: Scene, resolved = resolveScene(scene)): FitRepo
 }
 
 /** The fit report of a parsed scene (see sceneSchema). Throws SceneError for positions not allowed. */
-export function checkScene(scene: Scene): FitReport {
-	return reportFor(scene, resolveScene(scene));
+export function checkScene(scene: Scene, options: ReportOptions = {}): FitReport {
+	return reportFor(scene, resolveScene(scene), options);
 }

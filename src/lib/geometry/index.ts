@@ -18,7 +18,8 @@ export {
 export { rotationMap, rotateBox, rotatePoint, rotateDirection } from './rotation';
 export { overlappingPairs, overlappingPairsFlat, overlapVolumes, flattenBoxes } from './broadphase';
 export { pairKind, isObstacle } from './pairs';
-export { checkScene, reportFor, compartmentOf } from './check';
+export { checkScene, reportFor, compartmentOf, type ReportOptions } from './check';
+export * from './cost';
 export { mountReport, mountReports, mountAccepts, mountPlates, partClasses, plateNeeded } from './mounts';
 export { unionVolume } from './union';
 export { heatBudget, powerBudget } from './budgets';

@@ -214,7 +214,10 @@ export interface PowerBudget {
 }
 
 export interface FitReport {
+	/** The first overlaps by id (at most the report's cap; see MAX_LISTED_OVERLAPS). */
 	overlaps: Overlap[];
+	/** Overlaps found but not listed; the totals and statuses count them all. */
+	overlapsNotListed: number;
 	parts: PartReport[];
 	mounts: MountReport[];
 	budgets: { heat: HeatBudget; power: PowerBudget };

@@ -2,6 +2,7 @@
 import { and, asc, eq, inArray, isNull, or, type SQL } from 'drizzle-orm';
 import {
 	allowedIndex,
+	checkExcess,
 	enclosureDefSchema,
 	formatZodIssues,
 	sceneSchema,
@@ -165,6 +166,10 @@ export async function saveVariantSettings(input: { buildId: string; studioId: st
 	const enc = await enclosureVersionDef(input.enclosureVersionId);
 	if (!enc) throw new SceneRejected([{ path: 'enclosure', message: 'The build’s enclosure version is missing.' }], 409);
 	const scene = validateScene(enc.definition, defs, settings);
+	// A stored variant is checked on every later load of the editor, sheet and client page, so
+	// one over the cost limits is refused here rather than stored.
+	const excess = checkExcess(scene, 'settings.placements');
+	if (excess) throw new SceneRejected([{ path: excess.path, message: excess.message }], 422);
 	return db.transaction(async (tx) => {
 		// The row lock orders this save after an approval being written, so the freeze is seen.
 		const [locked] = await tx.select({ id: variants.id }).from(variants).where(and(eq(variants.id, input.variantId), eq(variants.buildId, input.buildId))).for('update');

@@ -1,6 +1,6 @@
 /** Loading two or three variants of a build and comparing them with the engine's reports. */
 import { error } from '@sveltejs/kit';
-import { checkScene } from '$lib/geometry';
+import { checkInPool } from './engine/pool';
 import { compareVariants, type CompareInput } from '$lib/builds/compare';
 import type { BuildRow } from './db/schema';
 import { loadVariant, variantsOf } from './builds';
@@ -15,10 +15,12 @@ export async function loadComparison(build: BuildRow, param: string | null) {
 	const unknown = ids.filter((id) => !all.some((v) => v.id === id));
 	if (unknown.length) error(404, 'A variant named in the address is not in this build.');
 	const loaded = await Promise.all(ids.map((id) => loadVariant(build.id, build.studioId, build.enclosureVersionId, id)));
-	const items = loaded.map((l) => {
-		if (!l) error(404, 'Variant not found.');
-		return { id: l.variant.id, name: l.variant.name, scene: l.scene, report: checkScene(l.scene), marginMm: l.settings.marginMm };
-	});
+	const items = await Promise.all(
+		loaded.map(async (l) => {
+			if (!l) error(404, 'Variant not found.');
+			return { id: l.variant.id, name: l.variant.name, scene: l.scene, report: await checkInPool(l.scene), marginMm: l.settings.marginMm };
+		})
+	);
 	const inputs: CompareInput[] = items.map((i) => ({ id: i.id, name: i.name, report: i.report, marginMm: i.marginMm }));
 	return { all, items, inputs, rows: compareVariants(inputs) };
 }

@@ -6,9 +6,10 @@
 import { error } from '@sveltejs/kit';
 import { and, eq } from 'drizzle-orm';
 import { z } from 'zod';
-import { reportFor, resolveScene } from '$lib/geometry';
+import { resolveScene } from '$lib/geometry';
 import { idField } from '$lib/schemas/common';
 import { roomAt, type RoomFigure } from '$lib/geometry/room';
+import { checkInPool } from './engine/pool';
 import { orthographicViews, type DrawingRoom, type SheetDrawing } from '$lib/builds/orthographic';
 import { buildSheet, checklistKeys, type SheetModel } from '$lib/builds/sheet';
 import { formatMoney } from '$lib/components/client/money';
@@ -82,7 +83,7 @@ async function loadChecked(build: BuildRow, variantId: string | undefined) {
 	}
 	if (!loaded) error(404, 'No such variant in this build.');
 	const resolved = resolveScene(loaded.scene);
-	return { loaded, resolved, report: reportFor(loaded.scene, resolved) };
+	return { loaded, resolved, report: await checkInPool(loaded.scene) };
 }
 
 function sheetOf(build: BuildRow, checked: Awaited<ReturnType<typeof loadChecked>>, version?: { number: number; changed: boolean }): SheetModel {

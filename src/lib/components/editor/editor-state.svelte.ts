@@ -6,6 +6,7 @@
 import { getContext, setContext } from 'svelte';
 import {
 	formatZodIssues,
+	checkExcess,
 	reportFor,
 	resolveScene,
 	sceneSchema,
@@ -48,6 +49,9 @@ function sameSettings(a: VariantSettings, b: VariantSettings): boolean {
 function compute(enclosure: EnclosureDef, parts: PartDef[], settings: VariantSettings): Computed {
 	const parsed = sceneSchema.safeParse(composeScene(enclosure, parts, settings));
 	if (!parsed.success) return { ok: false, issues: formatZodIssues(parsed.error) };
+	// Over the cost limits the browser would stall on it (and the server refuses to save it).
+	const excess = checkExcess(parsed.data);
+	if (excess) return { ok: false, issues: [{ path: excess.path, message: `Too large to check: ${excess.message}` }] };
 	try {
 		const resolved = resolveScene(parsed.data);
 		return { ok: true, scene: parsed.data, resolved, report: reportFor(parsed.data, resolved), issues: [] };

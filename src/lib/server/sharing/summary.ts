@@ -103,6 +103,7 @@ export function fitSummary(report: FitReport, resolved: Pick<ResolvedScene, 'pla
 		else if (o.kind === 'blocked') details.push(`${cap(o.a.kind === 'keepout' ? a : b)} is blocked by ${o.a.kind === 'keepout' ? b : a}, by ${mm(depth)}.`);
 		else details.push(`${cap(o.a.kind === 'keepout' ? a : b)} is partly taken by ${o.a.kind === 'keepout' ? b : a} (${mm(depth)}); it still fits, but is worth a look.`);
 	}
+	if (report.overlapsNotListed > 0) details.push(`…and ${report.overlapsNotListed} more places where parts overlap.`);
 	for (const p of report.parts) {
 		if (p.outsideFaces.length) details.push(`${cap(nameOf(p.placementId))} reaches outside the enclosure.`);
 	}

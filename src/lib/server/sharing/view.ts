@@ -6,8 +6,9 @@
  */
 import { createHash } from 'node:crypto';
 import { inArray } from 'drizzle-orm';
-import { boxSize, checkScene, innerVolumeLitres, resolveScene, type PartCategory, type PartDef, type Scene } from '$lib/geometry';
+import { boxSize, innerVolumeLitres, resolveScene, type PartCategory, type PartDef, type Scene } from '$lib/geometry';
 import { versionChanges } from '$lib/builds/version-diff';
+import { checkInPool } from '../engine/pool';
 import { loadVariant } from '../builds';
 import { ensureVersion, versionById, versionsOf } from '../versions';
 import { db } from '../db';
@@ -58,7 +59,7 @@ export async function clientView(input: { build: BuildRow; variant: VariantRow; 
 	const changes = await changesSince(input, shown, loaded);
 	const neutral = neutralScene(loaded.scene);
 	const scene = neutral.scene;
-	const report = checkScene(scene);
+	const report = await checkInPool(scene);
 	const resolved = resolveScene(scene);
 	const names = placementNames(resolved);
 	const statusOf = new Map(report.parts.map((p) => [p.placementId, p.status]));
@@ -183,7 +184,8 @@ async function changesSince(input: { build: BuildRow; variant: VariantRow }, sho
 	}
 	if (!prior) return null;
 	const parts = [...loaded.parts, ...prior.parts.filter((p) => !loaded.parts.some((q) => q.id === p.id))];
-	const lines = versionChanges(loaded.enclosure, parts, { settings: prior.settings, report: checkScene(prior.scene) }, { settings: loaded.settings, report: checkScene(loaded.scene) });
+	const [priorReport, shownReport] = await Promise.all([checkInPool(prior.scene), checkInPool(loaded.scene)]);
+	const lines = versionChanges(loaded.enclosure, parts, { settings: prior.settings, report: priorReport }, { settings: loaded.settings, report: shownReport });
 	return { since: before.number, lines };
 }
 

@@ -4,6 +4,8 @@ import { SceneError, allowedPositions, boxSchema, partCategorySchema, resolveSce
 import { partsByPositions, radiatorCombinations, whatFits, type FitCandidate } from '$lib/builds/fits';
 import { apiLimit, problem, readJson } from '$lib/server/api';
 import { catalogAccess } from '$lib/server/catalog/http';
+import { refuseCost } from '$lib/server/engine/pool';
+import { checkExcess, sceneBoxCount } from '$lib/geometry/cost';
 import { getPartsByIds, listPartsForStudio, type PartRecord } from '$lib/server/catalog/parts';
 import type { RequestHandler } from './$types';
 
@@ -20,6 +22,8 @@ const MAX_CANDIDATES = 200;
 const MAX_CELLS = 20_000;
 /** Radiators and fans tried for combinations (each pair is placed and checked). */
 const MAX_COMBINATION_PARTS = 30;
+/** Boxes × candidate placements one call may weigh: the same bound as a sweep's positions × boxes. */
+const MAX_BOX_PLACEMENTS = 2_000_000;
 
 const body = z.object({
 	scene: sceneSchema,
@@ -51,6 +55,9 @@ export const POST: RequestHandler = async (event) => {
 	const access = await catalogAccess(event, 'catalog.view');
 	await apiLimit(event, access.user.id);
 	const input = await readJson(event.request, body);
+	// The same cost limits as /api/check, decided before any work.
+	const excess = checkExcess(input.scene);
+	if (excess) refuseCost(excess, 'scene');
 	let records: PartRecord[];
 	if (input.filters.partIds) {
 		records = await getPartsByIds(access.studioId, input.filters.partIds);
@@ -84,6 +91,10 @@ export const POST: RequestHandler = async (event) => {
 			const picked = candidates.slice(0, input.limit);
 			if (allowedPositions(def).length * picked.length > MAX_CELLS) {
 				return problem(400, 'Too many cells.', [{ path: 'positions.id', message: `${allowedPositions(def).length} positions × ${picked.length} parts is more than ${MAX_CELLS} cells; pick fewer parts` }]);
+			}
+			const boxPlacements = sceneBoxCount(input.scene) * allowedPositions(def).length * picked.length;
+			if (boxPlacements > MAX_BOX_PLACEMENTS) {
+				return problem(422, 'Too much work for one call.', [{ path: 'positions.id', message: `${boxPlacements} box placements (boxes × positions × parts) is more than ${MAX_BOX_PLACEMENTS}; pick fewer parts` }]);
 			}
 			out.partsByPositions = partsByPositions(input.scene, input.target, picked, control);
 		}

@@ -1,8 +1,9 @@
 import { json } from '@sveltejs/kit';
 import { z } from 'zod';
-import { FACES, SceneError, sceneSchema, sweep, sweepGrid } from '$lib/geometry';
+import { FACES, MAX_SWEEP_POINTS, allowedPositions, sceneSchema, type Scene, type SweepControl } from '$lib/geometry';
 import { requireUser } from '$lib/server/access';
-import { apiLimit, problem, readJson } from '$lib/server/api';
+import { apiLimit, readJson } from '$lib/server/api';
+import { gridInPool, sweepInPool } from '$lib/server/engine/pool';
 import type { RequestHandler } from './$types';
 
 const control = z.object({ kind: z.enum(['divider', 'bracket']), id: z.string().min(1).max(120) });
@@ -11,20 +12,28 @@ const body = z.object({
 	control,
 	/** A second control makes it a grid sweep. */
 	controlB: control.optional(),
-	positions: z.array(z.number()).max(10_000).optional(),
+	positions: z.array(z.number()).max(MAX_SWEEP_POINTS).optional(),
 	gaps: z.array(z.object({ placementId: z.string().max(120), face: z.enum(FACES) })).max(100).optional()
 });
 
-/** Runs the fit report at every allowed position of one control (or a grid of two). */
+/** Allowed positions of a control (0 for an unknown one: the sweep itself names that error). */
+function positionCount(scene: Scene, c: SweepControl): number {
+	const def = c.kind === 'divider' ? scene.enclosure.dividers.find((d) => d.id === c.id) : scene.enclosure.brackets.find((b) => b.id === c.id);
+	return def ? allowedPositions(def).length : 0;
+}
+
+/**
+ * Runs the fit report at every allowed position of one control (or a grid of two), in a worker;
+ * counted first, so a sweep over the limits is refused with 422 naming the limit.
+ */
 export const POST: RequestHandler = async (event) => {
 	const user = requireUser(event.locals);
 	await apiLimit(event, user.id);
 	const input = await readJson(event.request, body);
-	try {
-		if (input.controlB) return json(sweepGrid(input.scene, input.control, input.controlB));
-		return json(sweep(input.scene, { control: input.control, positions: input.positions, gaps: input.gaps }));
-	} catch (e) {
-		if (e instanceof SceneError) return problem(400, e.message, [{ path: e.path, message: e.message }]);
-		throw e;
+	if (input.controlB) {
+		const cells = positionCount(input.scene, input.control) * positionCount(input.scene, input.controlB);
+		return json(await gridInPool({ kind: 'grid', scene: input.scene, controlA: input.control, controlB: input.controlB, gaps: input.gaps }, cells));
 	}
+	const points = input.positions?.length ?? positionCount(input.scene, input.control);
+	return json(await sweepInPool({ kind: 'sweep', scene: input.scene, control: input.control, positions: input.positions, gaps: input.gaps }, points));
 };

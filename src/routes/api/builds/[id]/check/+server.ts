@@ -1,10 +1,11 @@
 import { error, json } from '@sveltejs/kit';
 import { z } from 'zod';
-import { checkScene, type EnclosureDef } from '$lib/geometry';
+import type { EnclosureDef } from '$lib/geometry';
 import { variantSettingsSchema } from '$lib/builds/settings';
 import { requireUser, roleMay } from '$lib/server/access';
 import { apiLimit, problem, readJson } from '$lib/server/api';
 import { SceneRejected, checkContext, partsForBuildStudio, validateScene } from '$lib/server/builds';
+import { checkInPool } from '$lib/server/engine/pool';
 import type { RequestHandler } from './$types';
 
 const body = z.object({ settings: variantSettingsSchema });
@@ -30,10 +31,12 @@ export const POST: RequestHandler = async (event) => {
 	if (found.status === 'rejected') throw found.reason;
 	const { parts, forbidden } = found.value;
 	if (forbidden.length) return problem(403, 'A placed part is not in this studio’s catalogue.', [{ path: 'settings.placements', message: forbidden.join(', ') }]);
+	let scene;
 	try {
-		return json(checkScene(validateScene(ctx.value.definition as EnclosureDef, parts, settings)));
+		scene = validateScene(ctx.value.definition as EnclosureDef, parts, settings);
 	} catch (e) {
 		if (e instanceof SceneRejected) return problem(e.status, 'The scene does not validate.', e.issues);
 		throw e;
 	}
+	return json(await checkInPool(scene, 'settings'));
 };

@@ -1,12 +1,13 @@
 import { error, json } from '@sveltejs/kit';
 import { z } from 'zod';
 import { int4 } from '$lib/schemas/common';
-import { checkScene } from '$lib/geometry';
+import type { FitReport } from '$lib/geometry';
 import { variantSettingsSchema } from '$lib/builds/settings';
 import { requireBuild } from '$lib/server/access';
 import { apiLimit, problem, readJson } from '$lib/server/api';
 import { SceneRejected, saveVariantSettings, variantsOf } from '$lib/server/builds';
 import { VariantFrozen } from '$lib/server/versions';
+import { checkInPool } from '$lib/server/engine/pool';
 import type { RequestHandler } from './$types';
 
 export const GET: RequestHandler = async (event) => {
@@ -38,7 +39,7 @@ export const PUT: RequestHandler = async (event) => {
 			userId: access.user.id
 		});
 		if (!result.ok) return json({ message: 'Someone saved this variant after you loaded it.', conflict: result.conflict }, { status: 409 });
-		return json({ version: result.version, report: checkScene(result.scene) });
+		return json({ version: result.version, report: await checkInPool(result.scene, 'settings') });
 	} catch (e) {
 		if (e instanceof SceneRejected) return problem(e.status, 'The scene was not saved.', e.issues);
 		if (e instanceof VariantFrozen) return problem(409, e.message);
@@ -46,5 +47,5 @@ export const PUT: RequestHandler = async (event) => {
 	}
 };
 
-export type SaveResponse = { version: number; report: ReturnType<typeof checkScene> };
+export type SaveResponse = { version: number; report: FitReport };
 export type ConflictResponse = { message: string; conflict: { version: number; settings: z.infer<typeof variantSettingsSchema>; updatedAt: string } };

@@ -1,0 +1,32 @@
+/**
+ * The pool as Vitest and `vite dev` run it: the worker loads the TypeScript source through tsx,
+ * and its answers are the engine's own (compared with checkScene on this thread).
+ */
+import { afterAll, describe, expect, it } from 'vitest';
+import { checkScene, sceneSchema } from '$lib/geometry';
+import { demoScene } from '$lib/geometry/fixtures';
+import { largestAllowedPile, pileSceneInput } from '$lib/geometry/hostile.spec-util';
+import { checkInPool, closeEnginePool, sweepInPool } from './pool';
+
+afterAll(closeEnginePool);
+
+describe('the engine pool in development', () => {
+	it('a heavy check goes to a worker and answers what the engine answers here', async () => {
+		const scene = sceneSchema.parse(pileSceneInput(largestAllowedPile()));
+		expect(await checkInPool(scene)).toEqual(checkScene(scene));
+	});
+
+	it('a cheap check (the demo) answers the same', async () => {
+		expect(await checkInPool(demoScene())).toEqual(checkScene(demoScene()));
+	});
+
+	it('an engine error in the worker comes back as a 400 naming the field', async () => {
+		const scene = sceneSchema.parse(pileSceneInput(300));
+		const refused = sweepInPool({ kind: 'sweep', scene, control: { kind: 'divider', id: 'nope' } }, 0);
+		await expect(refused).rejects.toMatchObject({ status: 400, body: { issues: [{ path: 'control.id' }] } });
+	});
+
+	it('over the limits: 422 before any work', async () => {
+		await expect(checkInPool(sceneSchema.parse(pileSceneInput(4_900)), 'scene')).rejects.toMatchObject({ status: 422, body: { issues: [{ path: 'scene.placements' }] } });
+	});
+});
