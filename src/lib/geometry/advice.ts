@@ -18,101 +18,33 @@ import type { Model } from './model';
 import { pairKind } from './pairs';
 import { allowedPositions, formatMm } from './positions';
 import type { BracketDef, DividerDef } from './schema';
-import type { ClearingMove, OverlapKind } from './types';
+import type { ClearingMove } from './types';
 
-/** One box of the moving thing against one it can meet along `axis`, with its present depth. */
-interface Contact {
-	m: number;
-	o: number;
-	axis: AxisIndex;
-	/** 'warning' contacts are not problems and never stop a move. */
-	kind: OverlapKind;
-	/** Present overlap along the axis, or 0 when the boxes do not overlap now. */
-	depth0: number;
-}
+/** Open intervals (lo, hi) of move distance, sorted by lo: where a move would be worse off. */
+type Intervals = [number, number][];
 
 interface Mover {
 	kind: 'part' | 'divider' | 'bracket';
 	id: string;
 	/** Box indexes that move together. */
 	boxes: number[];
-	/** Per axis: the pairs that can meet moving along it. */
-	contacts: [Contact[], Contact[], Contact[]];
 	/** For a part: how far its bodies reach past the inner box now, per axis, low and high side. */
 	past?: number[];
 	def?: DividerDef | BracketDef;
 	current?: number;
 	/** For a control: its allowed offsets, ascending. */
 	offsets?: number[];
-	/** blockedIntervals per axis and direction (slot 2 × axis + 1 for +), found once. */
-	blocked: ([number, number][] | undefined)[];
+	/** Per axis and direction (slot 2 × axis + 1 for +): see blockedIntervals, found once. */
+	blocked: Intervals[];
 }
 
-/** Caches per report: a mover's contacts are found once however many of its problems are advised. */
+/** Caches per report: a mover's blocked intervals are found once however many of its problems are advised. */
 export interface AdviceCache {
 	movers: Map<string, Mover>;
 }
 
 export function adviceCache(): AdviceCache {
 	return { movers: new Map() };
-}
-
-/** Every pair of a moving box and another box that share area seen along some axis and have a meaning. */
-function contactsOf(model: Model, boxes: readonly number[], only: -1 | AxisIndex, ownerOf: number): [Contact[], Contact[], Contact[]] {
-	const f = model.flat;
-	const owner = model.owner;
-	const out: [Contact[], Contact[], Contact[]] = [[], [], []];
-	const n = model.boxes.length;
-	const single = boxes.length === 1 ? boxes[0] : -1;
-	// Boxes that share area with none of the mover's boxes along any axis are left out at once,
-	// tested against the bounds of all of them: one test per box instead of one per pair.
-	const lo = [Infinity, Infinity, Infinity];
-	const hi = [-Infinity, -Infinity, -Infinity];
-	for (const m of boxes) {
-		for (let k = 0; k < 3; k++) {
-			lo[k] = Math.min(lo[k], f[m * 6 + k]);
-			hi[k] = Math.max(hi[k], f[m * 6 + 3 + k]);
-		}
-	}
-	const near: number[] = [];
-	for (let o = 0; o < n; o++) {
-		if (ownerOf >= 0 ? owner[o] === ownerOf : o === single) continue;
-		const oo = o * 6;
-		const ox = Math.min(hi[0], f[oo + 3]) - Math.max(lo[0], f[oo]) > EPSILON_MM;
-		const oy = Math.min(hi[1], f[oo + 4]) - Math.max(lo[1], f[oo + 1]) > EPSILON_MM;
-		const oz = Math.min(hi[2], f[oo + 5]) - Math.max(lo[2], f[oo + 2]) > EPSILON_MM;
-		if ((ox && oy) || (ox && oz) || (oy && oz)) near.push(o);
-	}
-	for (const m of boxes) {
-		const mo = m * 6;
-		const mx0 = f[mo];
-		const my0 = f[mo + 1];
-		const mz0 = f[mo + 2];
-		const mx1 = f[mo + 3];
-		const my1 = f[mo + 4];
-		const mz1 = f[mo + 5];
-		for (const o of near) {
-			const oo = o * 6;
-			const dx = Math.min(mx1, f[oo + 3]) - Math.max(mx0, f[oo]);
-			const dy = Math.min(my1, f[oo + 4]) - Math.max(my0, f[oo + 1]);
-			if (!(dx > EPSILON_MM) && !(dy > EPSILON_MM)) continue;
-			const dz = Math.min(mz1, f[oo + 5]) - Math.max(mz0, f[oo + 2]);
-			// Seen along an axis, the boxes share area when they overlap on the other two.
-			const ox = dx > EPSILON_MM;
-			const oy = dy > EPSILON_MM;
-			const oz = dz > EPSILON_MM;
-			const alongX = oy && oz && (only < 0 || only === 0);
-			const alongY = ox && oz && (only < 0 || only === 1);
-			const alongZ = ox && oy && (only < 0 || only === 2);
-			if (!alongX && !alongY && !alongZ) continue;
-			const kind = pairKind(model.boxes[m], model.boxes[o]);
-			if (!kind) continue;
-			if (alongX) out[0].push({ m, o, axis: 0, kind, depth0: ox ? dx : 0 });
-			if (alongY) out[1].push({ m, o, axis: 1, kind, depth0: oy ? dy : 0 });
-			if (alongZ) out[2].push({ m, o, axis: 2, kind, depth0: oz ? dz : 0 });
-		}
-	}
-	return out;
 }
 
 function controlDef(model: Model, kind: 'divider' | 'bracket', id: string): DividerDef | BracketDef | undefined {
@@ -138,7 +70,7 @@ function moverOf(model: Model, cache: AdviceCache, i: number): Mover | null {
 		for (let a = 0; a < 3; a++) {
 			past.push(Math.max(0, inner.min[a] - rp.bounds.min[a]), Math.max(0, rp.bounds.max[a] - inner.max[a]));
 		}
-		mover = { kind: 'part', id: rp.placement.id, boxes, contacts: contactsOf(model, boxes, -1, p), past, blocked: [] };
+		mover = { kind: 'part', id: rp.placement.id, boxes, past, blocked: blockedIntervals(model, boxes, -1, p) };
 	} else if (box.kind === 'divider' || box.kind === 'bracket') {
 		const def = controlDef(model, box.kind, box.ownerId);
 		if (!def) return null;
@@ -146,7 +78,7 @@ function moverOf(model: Model, cache: AdviceCache, i: number): Mover | null {
 		const offsets = allowedPositions(def)
 			.map((q) => q.offsetMm)
 			.sort((x, y) => x - y);
-		mover = { kind: box.kind, id: def.id, boxes: [i], contacts: contactsOf(model, [i], axisIndex(def.axis), -1), def, current, offsets, blocked: [] };
+		mover = { kind: box.kind, id: def.id, boxes: [i], def, current, offsets, blocked: blockedIntervals(model, [i], axisIndex(def.axis), -1) };
 	}
 	if (mover) cache.movers.set(key, mover);
 	return mover;
@@ -154,34 +86,75 @@ function moverOf(model: Model, cache: AdviceCache, i: number): Mover | null {
 
 /**
  * The distances d > 0 (in direction s along a) at which the mover would be worse off against the
- * boxes it meets, as open intervals (lo, hi), sorted by lo: a box it does not overlap now is met
- * from where their faces touch until it has passed it; one it overlaps now is deeper while the
- * overlap is still growing (when the moving box trails it) and until it is back to its present
- * depth. Warnings never stop a move.
+ * boxes it meets, as open intervals (lo, hi), sorted by lo, per axis and direction: a box it does
+ * not overlap now is met from where their faces touch until it has passed it; one it overlaps now
+ * is deeper while the overlap is still growing (when the moving box trails it) and until it is back
+ * to its present depth. Only pairs that share area seen along the axis can meet, and warnings never
+ * stop a move. Found in one pass over the scene's boxes per mover, straight into intervals: the
+ * search reads nothing else about the pairs.
  */
-function blockedIntervals(model: Model, mover: Mover, a: AxisIndex, s: 1 | -1): [number, number][] {
-	const slot = 2 * a + (s > 0 ? 1 : 0);
-	const cached = mover.blocked[slot];
-	if (cached) return cached;
+function blockedIntervals(model: Model, boxes: readonly number[], only: -1 | AxisIndex, ownerOf: number): Intervals[] {
 	const f = model.flat;
-	const out: [number, number][] = [];
-	for (const c of mover.contacts[a]) {
-		if (c.kind === 'warning') continue;
-		const m0 = f[c.m * 6 + a];
-		const m1 = f[c.m * 6 + 3 + a];
-		const o0 = f[c.o * 6 + a];
-		const o1 = f[c.o * 6 + 3 + a];
-		const past = s > 0 ? o1 - m0 : m1 - o0;
-		if (c.depth0 === 0) {
-			const enter = s > 0 ? o0 - m1 : m0 - o1;
-			if (past > 0) out.push([enter, past]);
-		} else {
-			const trailing = s > 0 ? m0 < o0 - EPSILON_MM && m1 < o1 - EPSILON_MM : m1 > o1 + EPSILON_MM && m0 > o0 + EPSILON_MM;
-			if (trailing) out.push([0, past - c.depth0]);
+	const owner = model.owner;
+	const out: Intervals[] = [[], [], [], [], [], []];
+	const n = model.boxes.length;
+	const single = boxes.length === 1 ? boxes[0] : -1;
+	// Boxes that share area with none of the mover's boxes along any axis are left out at once,
+	// tested against the bounds of all of them: one test per box instead of one per pair.
+	const lo = [Infinity, Infinity, Infinity];
+	const hi = [-Infinity, -Infinity, -Infinity];
+	for (const m of boxes) {
+		for (let k = 0; k < 3; k++) {
+			lo[k] = Math.min(lo[k], f[m * 6 + k]);
+			hi[k] = Math.max(hi[k], f[m * 6 + 3 + k]);
 		}
 	}
-	out.sort((x, y) => x[0] - y[0]);
-	mover.blocked[slot] = out;
+	const near: number[] = [];
+	for (let o = 0; o < n; o++) {
+		if (ownerOf >= 0 ? owner[o] === ownerOf : o === single) continue;
+		const oo = o * 6;
+		const ox = Math.min(hi[0], f[oo + 3]) - Math.max(lo[0], f[oo]) > EPSILON_MM;
+		const oy = Math.min(hi[1], f[oo + 4]) - Math.max(lo[1], f[oo + 1]) > EPSILON_MM;
+		const oz = Math.min(hi[2], f[oo + 5]) - Math.max(lo[2], f[oo + 2]) > EPSILON_MM;
+		if ((ox && oy) || (ox && oz) || (oy && oz)) near.push(o);
+	}
+	const overlapsOn = [false, false, false];
+	const depth = [0, 0, 0];
+	for (const m of boxes) {
+		const mo = m * 6;
+		for (const o of near) {
+			const oo = o * 6;
+			let sharing = 0;
+			for (let k = 0; k < 3; k++) {
+				depth[k] = Math.min(f[mo + 3 + k], f[oo + 3 + k]) - Math.max(f[mo + k], f[oo + k]);
+				overlapsOn[k] = depth[k] > EPSILON_MM;
+				if (overlapsOn[k]) sharing++;
+			}
+			// Seen along an axis, the boxes share area when they overlap on the other two.
+			if (sharing < 2) continue;
+			const kind = pairKind(model.boxes[m], model.boxes[o]);
+			if (!kind || kind === 'warning') continue;
+			for (let a = 0; a < 3; a++) {
+				if (only >= 0 && only !== a) continue;
+				if (!overlapsOn[(a + 1) % 3] || !overlapsOn[(a + 2) % 3]) continue;
+				const m0 = f[mo + a];
+				const m1 = f[mo + 3 + a];
+				const o0 = f[oo + a];
+				const o1 = f[oo + 3 + a];
+				for (const s of [1, -1] as const) {
+					const past = s > 0 ? o1 - m0 : m1 - o0;
+					if (!overlapsOn[a]) {
+						const enter = s > 0 ? o0 - m1 : m0 - o1;
+						if (past > 0) out[2 * a + (s > 0 ? 1 : 0)].push([enter, past]);
+					} else {
+						const trailing = s > 0 ? m0 < o0 - EPSILON_MM && m1 < o1 - EPSILON_MM : m1 > o1 + EPSILON_MM && m0 > o0 + EPSILON_MM;
+						if (trailing) out[2 * a + (s > 0 ? 1 : 0)].push([0, past - depth[a]]);
+					}
+				}
+			}
+		}
+	}
+	for (const intervals of out) intervals.sort((x, y) => x[0] - y[0]);
 	return out;
 }
 
@@ -211,7 +184,7 @@ function clearDistance(f: Float64Array, a: AxisIndex, s: 1 | -1, mt: number, ot:
 
 /** Smallest passing move of a part along a in direction s, or null. */
 function partMove(model: Model, mover: Mover, a: AxisIndex, s: 1 | -1, mt: number, ot: number): ClearingMove | null {
-	const d = firstFree(blockedIntervals(model, mover, a, s), clearDistance(model.flat, a, s, mt, ot));
+	const d = firstFree(mover.blocked[2 * a + (s > 0 ? 1 : 0)], clearDistance(model.flat, a, s, mt, ot));
 	// No further past the inside than the part is now.
 	const bounds = model.resolved.placements[model.owner[mover.boxes[0]]].bounds;
 	const inner = model.resolved.innerBox;
@@ -228,7 +201,7 @@ function controlMove(model: Model, mover: Mover, s: 1 | -1, mt: number, ot: numb
 	const current = mover.current!;
 	const here = offsets.findIndex((p) => Math.abs(p - current) <= EPSILON_MM);
 	const clear = clearDistance(model.flat, a, s, mt, ot);
-	const blocked = blockedIntervals(model, mover, a, s);
+	const blocked = mover.blocked[2 * a + (s > 0 ? 1 : 0)];
 	for (let k = here + s; k >= 0 && k < offsets.length; k += s) {
 		const d = Math.abs(offsets[k] - current);
 		if (d < clear - EPSILON_MM || isBlocked(blocked, d)) continue;
