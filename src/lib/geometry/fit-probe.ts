@@ -261,11 +261,13 @@ export function probePlaced(base: ProbeBase, placed: ResolvedPlacement): ProbeRe
 		}
 		return base.mountOfBox[j] !== undefined && base.mountOfBox[j] === placement.mountId;
 	};
+	const worstCase = (f: number) => gap[f] - placed.part.toleranceMm - (boxes[against[f]].toleranceMm ?? 0);
 	let partStatus: FitStatus = 'clear';
 	if (collides) partStatus = 'collides';
 	else if (blocked) partStatus = 'blocked';
 	else if (outside !== 0) partStatus = 'outside';
-	else if (gap.some((g, f) => g < margin - EPSILON_MM && !held(f))) partStatus = 'tight';
+	// Tight on the worst case: the gap less both sides' tolerances (docs/scene-format.md, "Gaps").
+	else if (gap.some((g, f) => against[f] >= 0 && worstCase(f) < margin - EPSILON_MM && !held(f))) partStatus = 'tight';
 	const gaps = {} as ProbeResult['gaps'];
 	let spareMm: number | null = null;
 	FACES.forEach((face, f) => {
