@@ -57,8 +57,29 @@ function compressedVolume(f: ArrayLike<number>, group: readonly number[]): numbe
 	return total;
 }
 
-/** Volume of the union of the boxes in `flat` (six numbers a box: min x, y, z, max x, y, z). */
-export function unionVolume(flat: ArrayLike<number>): number {
+/**
+ * The boxes of `flat` with exact repeats left out: a repeat adds nothing to a union, and a pile of
+ * identical parts repeats one overlap box once per pair (n² of them), which would make the
+ * pairwise linking below quadratic in the pairs.
+ */
+function distinctBoxes(flat: ArrayLike<number>): ArrayLike<number> {
+	const n = Math.floor(flat.length / 6);
+	if (n < 2) return flat;
+	const seen = new Set<string>();
+	const out: number[] = [];
+	for (let i = 0; i < n; i++) {
+		const o = i * 6;
+		const key = `${flat[o]},${flat[o + 1]},${flat[o + 2]},${flat[o + 3]},${flat[o + 4]},${flat[o + 5]}`;
+		if (seen.has(key)) continue;
+		seen.add(key);
+		for (let k = 0; k < 6; k++) out.push(flat[o + k]);
+	}
+	return out.length === flat.length ? flat : out;
+}
+
+/** Volume of the union of the boxes in `all` (six numbers a box: min x, y, z, max x, y, z). */
+export function unionVolume(all: ArrayLike<number>): number {
+	const flat = distinctBoxes(all);
 	const n = Math.floor(flat.length / 6);
 	if (n === 0) return 0;
 	if (n === 1) return volumeOf(flat, 0);
