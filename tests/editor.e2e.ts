@@ -6,24 +6,12 @@
  * seeded row before and after, so other tests see the seed.
  */
 import { expect, test, type Browser, type Page } from '@playwright/test';
-import { eq } from 'drizzle-orm';
-import { demoSceneInput } from '../src/lib/geometry/fixtures';
-import { closeDb, db } from '../src/lib/server/db';
-import { variants } from '../src/lib/server/db/schema';
+import { closeDb } from '../src/lib/server/db';
 import { clearRateLimits } from '../src/lib/server/testing/factories';
-import { testDatabaseUrl } from '../src/lib/server/testing/env';
+import { restoreDemoVariant } from './helpers/demo-variant';
 
 const BUILD = '/builds/demo-build';
-const VARIANT = 'demo-variant-a';
 const DESIGNER = { email: 'designer@demo.interstice.test', password: 'demo-password-1' };
-
-/** The demo variant exactly as scripts/seed.ts writes it: version 1, the demo scene's settings. */
-async function restoreDemoVariant() {
-	testDatabaseUrl();
-	const s = demoSceneInput();
-	const settings = { dividerPositions: s.dividerPositions, bracketOffsets: s.bracketOffsets, placements: s.placements, marginMm: s.marginMm, budgets: s.budgets };
-	await db.update(variants).set({ settings, version: 1, updatedAt: new Date() }).where(eq(variants.id, VARIANT));
-}
 
 test.describe.configure({ mode: 'serial' });
 test.beforeAll(async () => {

@@ -5,21 +5,10 @@
  * from the right panel: 2.0 mm spare (tight in the worst case). The variant is put back to its seeded row before and after.
  */
 import { expect, test } from '@playwright/test';
-import { eq } from 'drizzle-orm';
-import { demoSceneInput } from '../src/lib/geometry/fixtures';
-import { closeDb, db } from '../src/lib/server/db';
-import { variants } from '../src/lib/server/db/schema';
+import { closeDb } from '../src/lib/server/db';
 import { clearRateLimits } from '../src/lib/server/testing/factories';
-import { testDatabaseUrl } from '../src/lib/server/testing/env';
+import { restoreDemoVariant } from './helpers/demo-variant';
 
-const VARIANT = 'demo-variant-a';
-
-async function restoreDemoVariant() {
-	testDatabaseUrl();
-	const s = demoSceneInput();
-	const settings = { dividerPositions: s.dividerPositions, bracketOffsets: s.bracketOffsets, placements: s.placements, marginMm: s.marginMm, budgets: s.budgets };
-	await db.update(variants).set({ settings, version: 1, updatedAt: new Date() }).where(eq(variants.id, VARIANT));
-}
 
 test.describe.configure({ mode: 'serial' });
 test.beforeAll(async () => {

@@ -48,7 +48,8 @@ class PairBuffer {
 	}
 }
 
-function overlapsFlat(f: Float64Array, i: number, j: number): boolean {
+/** Boxes i and j of a flat list (six numbers a box) share volume: more than EPSILON_MM on every axis. */
+export function overlapsFlat(f: ArrayLike<number>, i: number, j: number): boolean {
 	const a = i * 6;
 	const b = j * 6;
 	return (

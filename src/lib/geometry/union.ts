@@ -6,17 +6,7 @@
  * A few dozen boxes per group at most in a real scene, so the O(k⁴) cell walk is small.
  */
 
-import { EPSILON_MM } from './box';
-
-function overlaps(f: ArrayLike<number>, i: number, j: number): boolean {
-	const a = i * 6;
-	const b = j * 6;
-	return (
-		Math.min(f[a + 3], f[b + 3]) - Math.max(f[a], f[b]) > EPSILON_MM &&
-		Math.min(f[a + 4], f[b + 4]) - Math.max(f[a + 1], f[b + 1]) > EPSILON_MM &&
-		Math.min(f[a + 5], f[b + 5]) - Math.max(f[a + 2], f[b + 2]) > EPSILON_MM
-	);
-}
+import { overlapsFlat as overlaps } from './broadphase';
 
 function volumeOf(f: ArrayLike<number>, i: number): number {
 	const o = i * 6;

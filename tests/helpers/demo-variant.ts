@@ -1,0 +1,18 @@
+/**
+ * The seeded demo variant, put back exactly as scripts/seed.ts writes it (version 1, the demo
+ * scene's settings), so browser tests that change it leave the seed for the others.
+ */
+import { eq } from 'drizzle-orm';
+import { demoSceneInput } from '../../src/lib/geometry/fixtures';
+import { db } from '../../src/lib/server/db';
+import { variants } from '../../src/lib/server/db/schema';
+import { testDatabaseUrl } from '../../src/lib/server/testing/env';
+
+export const DEMO_VARIANT = 'demo-variant-a';
+
+export async function restoreDemoVariant() {
+	testDatabaseUrl();
+	const s = demoSceneInput();
+	const settings = { dividerPositions: s.dividerPositions, bracketOffsets: s.bracketOffsets, placements: s.placements, marginMm: s.marginMm, budgets: s.budgets };
+	await db.update(variants).set({ settings, version: 1, updatedAt: new Date() }).where(eq(variants.id, DEMO_VARIANT));
+}
