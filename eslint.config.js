@@ -5,19 +5,39 @@ import ts from 'typescript-eslint';
 import svelteConfig from './svelte.config.js';
 
 export default ts.config(
-	{ ignores: ['build/', '.svelte-kit/', 'node_modules/', '.data/', 'drizzle/', 'test-results/', 'playwright-report/'] },
+	{
+		ignores: [
+			'build/',
+			'.svelte-kit/',
+			'node_modules/',
+			'.data/',
+			'drizzle/',
+			'test-results/',
+			'playwright-report/'
+		]
+	},
 	js.configs.recommended,
 	...ts.configs.recommended,
 	...svelte.configs.recommended,
 	{
 		languageOptions: {
 			globals: { ...globals.browser, ...globals.node },
-			parserOptions: { projectService: true, extraFileExtensions: ['.svelte'], tsconfigRootDir: import.meta.dirname }
+			parserOptions: {
+				projectService: true,
+				extraFileExtensions: ['.svelte'],
+				tsconfigRootDir: import.meta.dirname
+			}
 		},
 		rules: {
 			'@typescript-eslint/no-floating-promises': 'error',
-			'@typescript-eslint/no-misused-promises': ['error', { checksVoidReturn: { attributes: false } }],
-			'@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_' }],
+			'@typescript-eslint/no-misused-promises': [
+				'error',
+				{ checksVoidReturn: { attributes: false } }
+			],
+			'@typescript-eslint/no-unused-vars': [
+				'error',
+				{ argsIgnorePattern: '^_', varsIgnorePattern: '^_' }
+			],
 			curly: ['error', 'multi-line'],
 			'svelte/button-has-type': 'error',
 			'svelte/no-navigation-without-resolve': 'off',
@@ -37,7 +57,20 @@ export default ts.config(
 				'error',
 				{
 					patterns: [
-						{ group: ['svelte', 'svelte/*', '$app/*', '$lib/server/*', '$lib/components/*', 'three', 'three/*', 'node:*', '@sveltejs/*'], message: 'The geometry module stays pure.' }
+						{
+							group: [
+								'svelte',
+								'svelte/*',
+								'$app/*',
+								'$lib/server/*',
+								'$lib/components/*',
+								'three',
+								'three/*',
+								'node:*',
+								'@sveltejs/*'
+							],
+							message: 'The geometry module stays pure.'
+						}
 					]
 				}
 			],

@@ -12,7 +12,9 @@ export default defineConfig({
 	retries: 0,
 	timeout: 60_000,
 	expect: { timeout: 10_000 },
-	reporter: process.env.PW_JSON ? [['list'], ['json', { outputFile: process.env.PW_JSON }]] : 'list',
+	reporter: process.env.PW_JSON
+		? [['list'], ['json', { outputFile: process.env.PW_JSON }]]
+		: 'list',
 	outputDir: 'test-results',
 	use: {
 		baseURL,

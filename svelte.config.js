@@ -10,7 +10,12 @@ const config = {
 		outDir: process.env.KIT_OUT_DIR ?? '.svelte-kit',
 		typescript: {
 			config(tsconfig) {
-				tsconfig.include.push('../scripts/**/*.ts', '../drizzle.config.ts', '../tailwind.config.ts', '../playwright.config.ts');
+				tsconfig.include.push(
+					'../scripts/**/*.ts',
+					'../drizzle.config.ts',
+					'../tailwind.config.ts',
+					'../playwright.config.ts'
+				);
 			}
 		},
 		csp: {

@@ -1,6 +1,17 @@
 /** The part of autocannon's programmatic API that scripts/bench-http.ts uses (it ships no types). */
 declare module 'autocannon' {
-	type Histogram = { average: number; mean: number; stddev: number; min: number; max: number; total: number; p50: number; p90: number; p97_5: number; p99: number };
+	type Histogram = {
+		average: number;
+		mean: number;
+		stddev: number;
+		min: number;
+		max: number;
+		total: number;
+		p50: number;
+		p90: number;
+		p97_5: number;
+		p99: number;
+	};
 	export type Result = {
 		url: string;
 		duration: number;

@@ -31,24 +31,47 @@ let store: string;
 let admin: postgres.Sql;
 
 function script(args: string[], env: Record<string, string> = {}) {
-	return run('bash', args, { cwd: repo, env: { ...process.env, DATABASE_URL: url, STORAGE_DIR: store, BACKUP_DIR: join(work, 'backups'), ...env }, timeout: 120_000 }).then(
+	return run('bash', args, {
+		cwd: repo,
+		env: {
+			...process.env,
+			DATABASE_URL: url,
+			STORAGE_DIR: store,
+			BACKUP_DIR: join(work, 'backups'),
+			...env
+		},
+		timeout: 120_000
+	}).then(
 		(r) => ({ code: 0, out: r.stdout + r.stderr }),
-		(e: { code?: number; stdout?: string; stderr?: string }) => ({ code: e.code ?? -1, out: `${e.stdout ?? ''}${e.stderr ?? ''}` })
+		(e: { code?: number; stdout?: string; stderr?: string }) => ({
+			code: e.code ?? -1,
+			out: `${e.stdout ?? ''}${e.stderr ?? ''}`
+		})
 	);
 }
 
 async function snapshot() {
 	const sql = postgres(url, { max: 1, onnotice: () => {} });
 	try {
-		const tables = await sql<{ s: string; t: string }[]>`select table_schema as s, table_name as t from information_schema.tables where table_type = 'BASE TABLE' and table_schema not in ('pg_catalog', 'information_schema') order by 1, 2`;
+		const tables = await sql<
+			{ s: string; t: string }[]
+		>`select table_schema as s, table_name as t from information_schema.tables where table_type = 'BASE TABLE' and table_schema not in ('pg_catalog', 'information_schema') order by 1, 2`;
 		const counts: Record<string, number> = {};
-		for (const { s, t } of tables) counts[`${s}.${t}`] = Number((await sql`select count(*)::int as n from ${sql(s)}.${sql(t)}`)[0].n);
+		for (const { s, t } of tables) {
+			counts[`${s}.${t}`] = Number(
+				(await sql`select count(*)::int as n from ${sql(s)}.${sql(t)}`)[0].n
+			);
+		}
 		// A build's saved scenes: every variant's id, version and settings, in id order.
 		const scenes = await sql<{ id: string; hash: string }[]>`
 			select b.id, md5(coalesce(string_agg(v.id || ':' || v.version || ':' || v.settings::text, ',' order by v.id), '')) as hash
 			from build b left join variant v on v.build_id = b.id group by b.id order by b.id`;
 		const files: Record<string, string> = {};
-		for (const o of (await listObjects()).objects) files[o.key] = createHash('sha256').update(await readFile(join(store, o.key))).digest('hex');
+		for (const o of (await listObjects()).objects) {
+			files[o.key] = createHash('sha256')
+				.update(await readFile(join(store, o.key)))
+				.digest('hex');
+		}
 		return { counts, scenes: Object.fromEntries(scenes.map((r) => [r.id, r.hash])), files };
 	} finally {
 		await sql.end({ timeout: 5 });
@@ -65,13 +88,34 @@ beforeAll(async () => {
 	await admin`drop database if exists ${admin(dbName)} with (force)`;
 	await admin`create database ${admin(dbName)}`;
 	await runMigrations(url);
-	await run(join(repo, 'node_modules/.bin/tsx'), ['scripts/seed.ts'], { cwd: repo, env: { ...process.env, DATABASE_URL: url } });
+	await run(join(repo, 'node_modules/.bin/tsx'), ['scripts/seed.ts'], {
+		cwd: repo,
+		env: { ...process.env, DATABASE_URL: url }
+	});
 	const [user] = await db.select({ id: users.id }).from(users).limit(1);
 	const [build] = await db.select({ id: builds.id }).from(builds).limit(1);
-	const picture = (r: number) => sharp({ create: { width: 80, height: 60, channels: 3, background: { r, g: 120, b: 60 } } }).png().toBuffer();
-	await addPhoto({ buildId: build.id, uploadedBy: user.id, bytes: await picture(200), caption: 'Loop filled' });
-	await addPhoto({ buildId: build.id, uploadedBy: user.id, bytes: await picture(90), caption: 'Tubes cut' });
-	await addPhoto({ buildId: build.id, uploadedBy: user.id, bytes: await picture(30), caption: 'Leak test' });
+	const picture = (r: number) =>
+		sharp({ create: { width: 80, height: 60, channels: 3, background: { r, g: 120, b: 60 } } })
+			.png()
+			.toBuffer();
+	await addPhoto({
+		buildId: build.id,
+		uploadedBy: user.id,
+		bytes: await picture(200),
+		caption: 'Loop filled'
+	});
+	await addPhoto({
+		buildId: build.id,
+		uploadedBy: user.id,
+		bytes: await picture(90),
+		caption: 'Tubes cut'
+	});
+	await addPhoto({
+		buildId: build.id,
+		uploadedBy: user.id,
+		bytes: await picture(30),
+		caption: 'Leak test'
+	});
 }, 120_000);
 
 afterAll(async () => {
@@ -90,14 +134,18 @@ describe('backup and restore', () => {
 
 		const made = await script(['scripts/backup.sh', 'backup']);
 		expect(made.code, made.out).toBe(0);
-		const m = made.out.match(/^backup: (.+\.tar) \((\d+\.\d) (kB|MB): database interstice_backup_test, 6 photo files\)$/m);
+		const m = made.out.match(
+			/^backup: (.+\.tar) \((\d+\.\d) (kB|MB): database interstice_backup_test, 6 photo files\)$/m
+		);
 		expect(m, made.out).not.toBeNull();
 		const file = resolve(repo, m![1]);
 		expect(file.startsWith(join(work, 'backups'))).toBe(true);
 		expect(file).toMatch(/interstice-interstice_backup_test-\d{8}-\d{6}Z\.tar$/);
 		const info = await stat(file);
 		expect(info.mode & 0o777).toBe(0o600);
-		expect(Math.abs(info.size / (m![3] === 'MB' ? 1024 * 1024 : 1024) - Number(m![2]))).toBeLessThan(0.1);
+		expect(
+			Math.abs(info.size / (m![3] === 'MB' ? 1024 * 1024 : 1024) - Number(m![2]))
+		).toBeLessThan(0.1);
 
 		// Without --yes (and no terminal to ask on) nothing happens.
 		const unconfirmed = await script(['scripts/backup.sh', 'restore', file]);
@@ -130,7 +178,10 @@ describe('backup and restore', () => {
 		// A tar with the right file names but somebody else's manifest.
 		const fake = join(work, 'fake');
 		await mkdir(fake, { recursive: true });
-		await writeFile(join(fake, 'manifest.json'), JSON.stringify({ format: 'some-other-tool', version: 1 }));
+		await writeFile(
+			join(fake, 'manifest.json'),
+			JSON.stringify({ format: 'some-other-tool', version: 1 })
+		);
 		await writeFile(join(fake, 'database.dump'), 'PGDMP');
 		await run('tar', ['-cf', join(work, 'fake.tar'), '-C', fake, 'manifest.json', 'database.dump']);
 		const foreign = await script(['scripts/backup.sh', 'restore', join(work, 'fake.tar'), '--yes']);
@@ -146,8 +197,21 @@ describe('backup and restore', () => {
 		const dump = await readFile(join(x, 'database.dump'));
 		dump[dump.length - 1] ^= 0xff;
 		await writeFile(join(x, 'database.dump'), dump);
-		await run('tar', ['-cf', join(work, 'damaged.tar'), '-C', x, 'manifest.json', 'database.dump', 'storage']);
-		const damaged = await script(['scripts/backup.sh', 'restore', join(work, 'damaged.tar'), '--yes']);
+		await run('tar', [
+			'-cf',
+			join(work, 'damaged.tar'),
+			'-C',
+			x,
+			'manifest.json',
+			'database.dump',
+			'storage'
+		]);
+		const damaged = await script([
+			'scripts/backup.sh',
+			'restore',
+			join(work, 'damaged.tar'),
+			'--yes'
+		]);
 		expect(damaged.code).toBe(2);
 		expect(damaged.out).toContain('damaged');
 

@@ -30,10 +30,12 @@ import { join, resolve } from 'node:path';
 import { databaseUrl } from './env';
 import { Client, freePort } from '../src/lib/server/testing/app-server';
 
-const args = new Map<string, string | undefined>(process.argv.slice(2).map((a) => {
-	const [k, v] = a.replace(/^--/, '').split('=');
-	return [k, v];
-}));
+const args = new Map<string, string | undefined>(
+	process.argv.slice(2).map((a) => {
+		const [k, v] = a.replace(/^--/, '').split('=');
+		return [k, v];
+	})
+);
 const DURATION_S = Number(args.get('duration') ?? 20);
 const CONNECTIONS = Number(args.get('connections') ?? 50);
 const WARMUP_S = Number(args.get('warmup') ?? 3);
@@ -55,12 +57,18 @@ const buildDir = resolve(root, 'build');
 function preparedBuild(): string {
 	if (!existsSync(join(buildDir, 'index.js'))) {
 		console.log('bench:http: no build/ yet, running vite build');
-		const r = spawnSync(process.execPath, [resolve(root, 'node_modules/vite/bin/vite.js'), 'build', '--logLevel', 'warn'], { cwd: root, stdio: 'inherit' });
+		const r = spawnSync(
+			process.execPath,
+			[resolve(root, 'node_modules/vite/bin/vite.js'), 'build', '--logLevel', 'warn'],
+			{ cwd: root, stdio: 'inherit' }
+		);
 		if (r.status !== 0) throw new Error('vite build failed');
 	}
 	const copy = resolve(root, '.data', `bench-http-build-${process.pid}`);
 	cpSync(buildDir, copy, { recursive: true });
-	if (!existsSync(join(copy, 'index.js'))) throw new Error('build/ changed while it was copied (someone is building); run again');
+	if (!existsSync(join(copy, 'index.js'))) {
+		throw new Error('build/ changed while it was copied (someone is building); run again');
+	}
 	process.once('exit', () => rmSync(copy, { recursive: true, force: true }));
 	return copy;
 }
@@ -132,12 +140,21 @@ async function signIn(baseURL: string): Promise<string> {
 	const client = new Client(baseURL);
 	const res = await client.signIn(DESIGNER.email, DESIGNER.password);
 	if (res.status !== 303 || !client.sessionId) {
-		throw new Error(`signing in as ${DESIGNER.email} answered ${res.status}; is the development database seeded (npm run db:seed)?`);
+		throw new Error(
+			`signing in as ${DESIGNER.email} answered ${res.status}; is the development database seeded (npm run db:seed)?`
+		);
 	}
 	return `interstice_session=${client.sessionId}`;
 }
 
-type Row = { name: string; rps: number; p50Ms: number; p99Ms: number; errors: number; statuses: Record<string, number> };
+type Row = {
+	name: string;
+	rps: number;
+	p50Ms: number;
+	p99Ms: number;
+	errors: number;
+	statuses: Record<string, number>;
+};
 
 /** Responses of one endpoint over all its rounds. */
 class Tally {
@@ -151,20 +168,48 @@ class Tally {
 	add(r: Result) {
 		this.seconds += r.duration;
 		this.errors += r.errors + r.timeouts + r.non2xx;
-		for (const [code, s] of Object.entries(r.statusCodeStats)) this.statuses[code] = (this.statuses[code] ?? 0) + s.count;
+		for (const [code, s] of Object.entries(r.statusCodeStats)) {
+			this.statuses[code] = (this.statuses[code] ?? 0) + s.count;
+		}
 	}
 
 	row(): Row {
 		const sorted = [...this.latenciesMs].sort((a, b) => a - b);
-		const at = (q: number) => sorted[Math.min(sorted.length - 1, Math.ceil(q * sorted.length) - 1)] ?? NaN;
+		const at = (q: number) =>
+			sorted[Math.min(sorted.length - 1, Math.ceil(q * sorted.length) - 1)] ?? NaN;
 		const round = (v: number) => Math.round(v * 10) / 10;
-		return { name: this.name, rps: round(sorted.length / this.seconds), p50Ms: round(at(0.5)), p99Ms: round(at(0.99)), errors: this.errors, statuses: this.statuses };
+		return {
+			name: this.name,
+			rps: round(sorted.length / this.seconds),
+			p50Ms: round(at(0.5)),
+			p99Ms: round(at(0.99)),
+			errors: this.errors,
+			statuses: this.statuses
+		};
 	}
 }
 
-async function load(url: string, headers: Record<string, string>, body: string, durationS: number, tally?: Tally) {
-	const run = autocannon({ url, method: 'POST', headers, body, connections: CONNECTIONS, duration: durationS, timeout: 10 });
-	if (tally) run.on('response', (_client: unknown, _status: number, _bytes: number, ms: number) => tally.latenciesMs.push(ms));
+async function load(
+	url: string,
+	headers: Record<string, string>,
+	body: string,
+	durationS: number,
+	tally?: Tally
+) {
+	const run = autocannon({
+		url,
+		method: 'POST',
+		headers,
+		body,
+		connections: CONNECTIONS,
+		duration: durationS,
+		timeout: 10
+	});
+	if (tally) {
+		run.on('response', (_client: unknown, _status: number, _bytes: number, ms: number) =>
+			tally.latenciesMs.push(ms)
+		);
+	}
 	const result = await run;
 	tally?.add(result);
 	return result;
@@ -183,7 +228,11 @@ function areaOf(url: string, functionName: string): string {
 /** Self time in a V8 CPU profile: per area and per function, as shares of the sampled time. */
 function profileSummary(file: string, n = 20) {
 	type Node = { id: number; callFrame: { functionName: string; url: string; lineNumber: number } };
-	const profile = JSON.parse(readFileSync(file, 'utf8')) as { nodes: Node[]; samples: number[]; timeDeltas: number[] };
+	const profile = JSON.parse(readFileSync(file, 'utf8')) as {
+		nodes: Node[];
+		samples: number[];
+		timeDeltas: number[];
+	};
 	const byNode = new Map(profile.nodes.map((nd) => [nd.id, nd]));
 	const byFunction = new Map<string, number>();
 	const byArea = new Map<string, number>();
@@ -193,14 +242,20 @@ function profileSummary(file: string, n = 20) {
 		const nd = byNode.get(id);
 		if (!nd) return;
 		const { functionName, url, lineNumber } = nd.callFrame;
-		const where = url ? `${url.replace(/^file:\/\//, '').replace(root + '/', '')}:${lineNumber + 1}` : '';
+		const where = url
+			? `${url.replace(/^file:\/\//, '').replace(root + '/', '')}:${lineNumber + 1}`
+			: '';
 		const key = `${functionName || '(anonymous)'} ${where}`.trim();
 		byFunction.set(key, (byFunction.get(key) ?? 0) + dt);
 		const area = areaOf(url.replace(/^file:\/\//, ''), functionName);
 		byArea.set(area, (byArea.get(area) ?? 0) + dt);
 		total += dt;
 	});
-	const top = (m: Map<string, number>) => [...m].sort((a, b) => b[1] - a[1]).slice(0, n).map(([name, us]) => ({ name, pct: Math.round((1000 * us) / total) / 10 }));
+	const top = (m: Map<string, number>) =>
+		[...m]
+			.sort((a, b) => b[1] - a[1])
+			.slice(0, n)
+			.map(([name, us]) => ({ name, pct: Math.round((1000 * us) / total) / 10 }));
 	return { areas: top(byArea), functions: top(byFunction) };
 }
 
@@ -212,21 +267,37 @@ async function main() {
 	let noop: Row, check: Row;
 	try {
 		const cookie = await signIn(server.baseURL);
-		const variant = await fetch(`${server.baseURL}/api/builds/${BUILD_ID}/variants/${VARIANT_ID}`, { headers: { cookie, accept: 'application/json' } });
-		if (!variant.ok) throw new Error(`GET the demo variant answered ${variant.status}; seed the development database (npm run db:seed)`);
+		const variant = await fetch(`${server.baseURL}/api/builds/${BUILD_ID}/variants/${VARIANT_ID}`, {
+			headers: { cookie, accept: 'application/json' }
+		});
+		if (!variant.ok) {
+			throw new Error(
+				`GET the demo variant answered ${variant.status}; seed the development database (npm run db:seed)`
+			);
+		}
 		const { settings } = (await variant.json()) as { settings: unknown };
 		const body = JSON.stringify({ settings });
-		const headers = { cookie, 'content-type': 'application/json', accept: 'application/json', origin: server.baseURL, 'x-interstice-bench': token };
+		const headers = {
+			cookie,
+			'content-type': 'application/json',
+			accept: 'application/json',
+			origin: server.baseURL,
+			'x-interstice-bench': token
+		};
 		const checkURL = `${server.baseURL}/api/builds/${BUILD_ID}/check`;
 		const noopURL = `${server.baseURL}/api/noop`;
 
 		// One request each, to fail early with a readable message instead of 20 s of errors.
 		for (const url of [checkURL, noopURL]) {
 			const r = await fetch(url, { method: 'POST', headers, body });
-			if (!r.ok) throw new Error(`POST ${url} answered ${r.status}: ${(await r.text()).slice(0, 300)}`);
+			if (!r.ok) {
+				throw new Error(`POST ${url} answered ${r.status}: ${(await r.text()).slice(0, 300)}`);
+			}
 		}
 
-		console.log(`bench:http: ${server.baseURL}, ${CONNECTIONS} connections, ${DURATION_S} s per endpoint in ${ROUNDS} alternating rounds (after ${WARMUP_S} s warm-up), body ${body.length} bytes`);
+		console.log(
+			`bench:http: ${server.baseURL}, ${CONNECTIONS} connections, ${DURATION_S} s per endpoint in ${ROUNDS} alternating rounds (after ${WARMUP_S} s warm-up), body ${body.length} bytes`
+		);
 		if (WARMUP_S > 0) {
 			await load(noopURL, headers, body, WARMUP_S);
 			await load(checkURL, headers, body, WARMUP_S);
@@ -249,35 +320,79 @@ async function main() {
 		const profiled = await startServer(app, token, profileDir);
 		try {
 			const cookie = await signIn(profiled.baseURL);
-			const variant = (await (await fetch(`${profiled.baseURL}/api/builds/${BUILD_ID}/variants/${VARIANT_ID}`, { headers: { cookie } })).json()) as { settings: unknown };
-			const headers = { cookie, 'content-type': 'application/json', origin: profiled.baseURL, 'x-interstice-bench': token };
-			await load(`${profiled.baseURL}/api/builds/${BUILD_ID}/check`, headers, JSON.stringify({ settings: variant.settings }), Math.min(DURATION_S, 10));
+			const variant = (await (
+				await fetch(`${profiled.baseURL}/api/builds/${BUILD_ID}/variants/${VARIANT_ID}`, {
+					headers: { cookie }
+				})
+			).json()) as { settings: unknown };
+			const headers = {
+				cookie,
+				'content-type': 'application/json',
+				origin: profiled.baseURL,
+				'x-interstice-bench': token
+			};
+			await load(
+				`${profiled.baseURL}/api/builds/${BUILD_ID}/check`,
+				headers,
+				JSON.stringify({ settings: variant.settings }),
+				Math.min(DURATION_S, 10)
+			);
 		} finally {
 			await profiled.stop();
 		}
 		const file = readdirSync(profileDir).find((f) => f.endsWith('.cpuprofile'));
-		if (!file) console.log('bench:http: the profiled server did not exit cleanly, so it wrote no profile');
+		if (!file) {
+			console.log('bench:http: the profiled server did not exit cleanly, so it wrote no profile');
+		}
 		if (file) {
 			const summary = profileSummary(join(profileDir, file));
-			console.log(`\nserver CPU profile under the check's load (${join(profileDir, file)}), self time by area:`);
+			console.log(
+				`\nserver CPU profile under the check's load (${join(profileDir, file)}), self time by area:`
+			);
 			for (const t of summary.areas) console.log(`${String(t.pct).padStart(6)} %  ${t.name}`);
 			console.log('by function:');
 			for (const t of summary.functions) console.log(`${String(t.pct).padStart(6)} %  ${t.name}`);
 		}
 	}
 
-	if (check.statuses['429']) console.log('bench:http: the check answered 429: build/ predates the bench token (src/lib/server/api.ts); run npx vite build');
+	if (check.statuses['429']) {
+		console.log(
+			'bench:http: the check answered 429: build/ predates the bench token (src/lib/server/api.ts); run npx vite build'
+		);
+	}
 	const ratio = check.rps / noop.rps;
-	const pass = ratio >= TARGET.ratio && check.p99Ms <= TARGET.p99Ms && check.errors === TARGET.errors && noop.errors === 0;
+	const pass =
+		ratio >= TARGET.ratio &&
+		check.p99Ms <= TARGET.p99Ms &&
+		check.errors === TARGET.errors &&
+		noop.errors === 0;
 	console.log('');
 	console.log('endpoint                                  req/s    p50 ms   p99 ms   errors');
 	for (const r of [noop, check]) {
-		console.log(`${r.name.padEnd(40)} ${r.rps.toFixed(0).padStart(6)}  ${String(r.p50Ms).padStart(7)}  ${String(r.p99Ms).padStart(7)}  ${String(r.errors).padStart(7)}`);
+		console.log(
+			`${r.name.padEnd(40)} ${r.rps.toFixed(0).padStart(6)}  ${String(r.p50Ms).padStart(7)}  ${String(r.p99Ms).padStart(7)}  ${String(r.errors).padStart(7)}`
+		);
 	}
-	console.log(`check / noop: ${(100 * ratio).toFixed(1)} % of the no-op's rate (target ≥ ${TARGET.ratio * 100} %), check p99 ${check.p99Ms} ms (target ≤ ${TARGET.p99Ms} ms): ${pass ? 'on target' : 'OFF TARGET'}`);
+	console.log(
+		`check / noop: ${(100 * ratio).toFixed(1)} % of the no-op's rate (target ≥ ${TARGET.ratio * 100} %), check p99 ${check.p99Ms} ms (target ≤ ${TARGET.p99Ms} ms): ${pass ? 'on target' : 'OFF TARGET'}`
+	);
 	const load1m = Math.round(loadavg()[0] * 100) / 100;
-	console.log(`machine load average (1 min) at the end: ${load1m} on ${availableParallelism()} cores`);
-	console.log(JSON.stringify({ connections: CONNECTIONS, durationS: DURATION_S, rounds: ROUNDS, loadAverage1m: load1m, noop, check, ratio: Math.round(ratio * 1000) / 1000, target: TARGET, pass }));
+	console.log(
+		`machine load average (1 min) at the end: ${load1m} on ${availableParallelism()} cores`
+	);
+	console.log(
+		JSON.stringify({
+			connections: CONNECTIONS,
+			durationS: DURATION_S,
+			rounds: ROUNDS,
+			loadAverage1m: load1m,
+			noop,
+			check,
+			ratio: Math.round(ratio * 1000) / 1000,
+			target: TARGET,
+			pass
+		})
+	);
 }
 
 await main();

@@ -63,7 +63,11 @@ function median(values: number[]): number {
  * Median wall time (ms) of `runs` calls after `warmup` untimed ones, and the 10th percentile: on a
  * machine shared with other work the median carries the others' load, the low decile much less.
  */
-function time<T>(fn: () => T, runs: number, warmup: number): { ms: number; p10: number; result: T } {
+function time<T>(
+	fn: () => T,
+	runs: number,
+	warmup: number
+): { ms: number; p10: number; result: T } {
 	let result = fn();
 	for (let i = 1; i < warmup; i++) result = fn();
 	const samples: number[] = [];
@@ -80,7 +84,11 @@ function time<T>(fn: () => T, runs: number, warmup: number): { ms: number; p10: 
  * Median ms of each contender, the contenders taking turns within every round so that a busy
  * machine slows them alike and the ratios stay fair.
  */
-function interleaved<T>(contenders: Record<string, () => T>, runs: number, warmup: number): Record<string, { ms: number; result: T }> {
+function interleaved<T>(
+	contenders: Record<string, () => T>,
+	runs: number,
+	warmup: number
+): Record<string, { ms: number; result: T }> {
 	const names = Object.keys(contenders);
 	const samples: Record<string, number[]> = Object.fromEntries(names.map((k) => [k, []]));
 	const results: Record<string, T> = {};
@@ -158,13 +166,25 @@ function broadphaseRow(n: number): Row {
 	const mine = enginePairs(boxes);
 	const theirs = new Set<number>();
 	for (let k = 0; k < bi.result.length; k += 2) theirs.add(pairKey(bi.result[k], bi.result[k + 1]));
-	if (!sameSet(mine, theirs)) throw new Error(`n=${n}: engine and box-intersect disagree (${mine.size} vs ${theirs.size})`);
+	if (!sameSet(mine, theirs)) {
+		throw new Error(`n=${n}: engine and box-intersect disagree (${mine.size} vs ${theirs.size})`);
+	}
 	if (naive) {
 		const plain = new Set<number>();
-		for (let k = 0; k < naive.result.length; k += 3) plain.add(pairKey(naive.result[k], naive.result[k + 1]));
-		if (!sameSet(mine, plain)) throw new Error(`n=${n}: engine and naive Box3 disagree (${mine.size} vs ${plain.size})`);
+		for (let k = 0; k < naive.result.length; k += 3) {
+			plain.add(pairKey(naive.result[k], naive.result[k + 1]));
+		}
+		if (!sameSet(mine, plain)) {
+			throw new Error(`n=${n}: engine and naive Box3 disagree (${mine.size} vs ${plain.size})`);
+		}
 	}
-	return { n, pairs: mine.size, engineMs: engine.ms, boxIntersectMs: bi.ms, naiveMs: naive ? naive.ms : null };
+	return {
+		n,
+		pairs: mine.size,
+		engineMs: engine.ms,
+		boxIntersectMs: bi.ms,
+		naiveMs: naive ? naive.ms : null
+	};
 }
 
 const panel = (kind: 'solid' | 'mesh' = 'solid') => ({ thicknessMm: 2, kind, offsetMm: 0 });
@@ -180,14 +200,26 @@ function hundredPartScene(): Scene {
 		const w = 20 + Math.round(next() * 40);
 		const h = 15 + Math.round(next() * 30);
 		const d = 20 + Math.round(next() * 40);
-		const bodies = [{ id: 'body', label: 'body', box: { min: [0, 0, 0] as Vec3, max: [w, h, d] as Vec3 } }];
-		if (k % 2 === 0) bodies.push({ id: 'cap', label: 'cap', box: { min: [4, h, 4], max: [w - 4, h + 6, d - 4] } });
+		const bodies = [
+			{ id: 'body', label: 'body', box: { min: [0, 0, 0] as Vec3, max: [w, h, d] as Vec3 } }
+		];
+		if (k % 2 === 0) {
+			bodies.push({ id: 'cap', label: 'cap', box: { min: [4, h, 4], max: [w - 4, h + 6, d - 4] } });
+		}
 		return {
 			id: `kind-${k}`,
 			name: `Generic part ${k}`,
 			category: 'other' as const,
 			bodies,
-			keepouts: [{ id: 'room', label: 'service room', kind: 'service' as const, severity: (k % 3 === 0 ? 'warning' : 'error') as 'warning' | 'error', box: { min: [0, -8, 0] as Vec3, max: [w, 0, d] as Vec3 } }]
+			keepouts: [
+				{
+					id: 'room',
+					label: 'service room',
+					kind: 'service' as const,
+					severity: (k % 3 === 0 ? 'warning' : 'error') as 'warning' | 'error',
+					box: { min: [0, -8, 0] as Vec3, max: [w, 0, d] as Vec3 }
+				}
+			]
 		};
 	});
 	const placements = Array.from({ length: 100 }, (_, i) => {
@@ -197,7 +229,11 @@ function hundredPartScene(): Scene {
 		return {
 			id: `p${String(i).padStart(3, '0')}`,
 			partId: `kind-${Math.floor(next() * 10)}`,
-			position: [col * 58 + 4 + Math.round(next() * 10), 10 + layer * 180 + Math.round(next() * 20), row * 96 + 4 + Math.round(next() * 20)] as Vec3,
+			position: [
+				col * 58 + 4 + Math.round(next() * 10),
+				10 + layer * 180 + Math.round(next() * 20),
+				row * 96 + 4 + Math.round(next() * 20)
+			] as Vec3,
 			rotation: { x: 0, y: Math.floor(next() * 4), z: 0 }
 		};
 	});
@@ -207,9 +243,33 @@ function hundredPartScene(): Scene {
 		enclosure: {
 			name: 'Benchmark enclosure',
 			outerMm: [604, 404, 504],
-			walls: { left: panel(), right: panel(), bottom: panel(), top: panel(), front: panel('mesh'), back: panel() },
-			dividers: [{ id: 'shelf', label: 'Shelf', axis: 'y', thicknessMm: 2, positions: { kind: 'range', minMm: 120, maxMm: 200, stepMm: 10 } }],
-			brackets: [{ id: 'bar', label: 'Bar', kind: 'other', box: { min: [0, 380, 0], max: [600, 390, 20] }, axis: 'z', travel: { minMm: 0, maxMm: 400, stepMm: 20 } }],
+			walls: {
+				left: panel(),
+				right: panel(),
+				bottom: panel(),
+				top: panel(),
+				front: panel('mesh'),
+				back: panel()
+			},
+			dividers: [
+				{
+					id: 'shelf',
+					label: 'Shelf',
+					axis: 'y',
+					thicknessMm: 2,
+					positions: { kind: 'range', minMm: 120, maxMm: 200, stepMm: 10 }
+				}
+			],
+			brackets: [
+				{
+					id: 'bar',
+					label: 'Bar',
+					kind: 'other',
+					box: { min: [0, 380, 0], max: [600, 390, 20] },
+					axis: 'z',
+					travel: { minMm: 0, maxMm: 400, stepMm: 20 }
+				}
+			],
 			mounts: []
 		},
 		parts,
@@ -234,7 +294,11 @@ function sweepScene(): Scene {
 	const placements = cells.slice(0, 94).map((c, i) => ({
 		id: `p${String(i).padStart(3, '0')}`,
 		partId: 'block',
-		position: [(c % 20) * 50 + 5, (Math.floor(c / 20) % 6) * 50 + 5, Math.floor(c / 120) * 50 + 5] as Vec3
+		position: [
+			(c % 20) * 50 + 5,
+			(Math.floor(c / 20) % 6) * 50 + 5,
+			Math.floor(c / 120) * 50 + 5
+		] as Vec3
 	}));
 	return sceneSchema.parse({
 		format: 'interstice.scene',
@@ -242,10 +306,32 @@ function sweepScene(): Scene {
 		enclosure: {
 			name: 'Sweep enclosure',
 			outerMm: [1004, 304, 304],
-			walls: { left: panel(), right: panel(), bottom: panel(), top: panel(), front: panel(), back: panel() },
-			dividers: [{ id: 'wall', label: 'Divider', axis: 'x', thicknessMm: 2, positions: { kind: 'range', minMm: 100, maxMm: 896, stepMm: 4 } }]
+			walls: {
+				left: panel(),
+				right: panel(),
+				bottom: panel(),
+				top: panel(),
+				front: panel(),
+				back: panel()
+			},
+			dividers: [
+				{
+					id: 'wall',
+					label: 'Divider',
+					axis: 'x',
+					thicknessMm: 2,
+					positions: { kind: 'range', minMm: 100, maxMm: 896, stepMm: 4 }
+				}
+			]
 		},
-		parts: [{ id: 'block', name: 'Block', category: 'other', bodies: [{ id: 'body', label: 'body', box: { min: [0, 0, 0], max: [40, 40, 40] } }] }],
+		parts: [
+			{
+				id: 'block',
+				name: 'Block',
+				category: 'other',
+				bodies: [{ id: 'body', label: 'body', box: { min: [0, 0, 0], max: [40, 40, 40] } }]
+			}
+		],
 		dividerPositions: { wall: 100 },
 		placements
 	} satisfies SceneInput);
@@ -262,7 +348,11 @@ function problemScene(): Scene {
 		const row = Math.floor(i / 10) % 5;
 		const layer = Math.floor(i / 50);
 		const push = i % 5 === 0 ? 15 : 0;
-		return { id: `p${String(i).padStart(3, '0')}`, partId: 'block', position: [col * 50 + 5 + push, row * 50 + 5, layer * 50 + 5] as Vec3 };
+		return {
+			id: `p${String(i).padStart(3, '0')}`,
+			partId: 'block',
+			position: [col * 50 + 5 + push, row * 50 + 5, layer * 50 + 5] as Vec3
+		};
 	});
 	return sceneSchema.parse({
 		format: 'interstice.scene',
@@ -270,9 +360,23 @@ function problemScene(): Scene {
 		enclosure: {
 			name: 'Problem enclosure',
 			outerMm: [504, 254, 104],
-			walls: { left: panel(), right: panel(), bottom: panel(), top: panel(), front: panel(), back: panel() }
+			walls: {
+				left: panel(),
+				right: panel(),
+				bottom: panel(),
+				top: panel(),
+				front: panel(),
+				back: panel()
+			}
 		},
-		parts: [{ id: 'block', name: 'Block', category: 'other', bodies: [{ id: 'body', label: 'body', box: { min: [0, 0, 0], max: [40, 40, 40] } }] }],
+		parts: [
+			{
+				id: 'block',
+				name: 'Block',
+				category: 'other',
+				bodies: [{ id: 'body', label: 'body', box: { min: [0, 0, 0], max: [40, 40, 40] } }]
+			}
+		],
 		placements
 	} satisfies SceneInput);
 }
@@ -281,11 +385,44 @@ function problemScene(): Scene {
 function catalogue(n: number): FitCandidate[] {
 	const next = rng(SEED + 2);
 	return Array.from({ length: n }, (_, i) => {
-		const size: Vec3 = [10 + Math.round(next() * 140), 10 + Math.round(next() * 140), 5 + Math.round(next() * 60)];
+		const size: Vec3 = [
+			10 + Math.round(next() * 140),
+			10 + Math.round(next() * 140),
+			5 + Math.round(next() * 60)
+		];
 		const bodies = [{ id: 'body', label: 'body', box: { min: [0, 0, 0] as Vec3, max: size } }];
-		if (i % 4 === 0) bodies.push({ id: 'tab', label: 'tab', box: { min: [0, 0, size[2]], max: [size[0] / 2, size[1] / 2, size[2] + 5] } });
-		const keepouts = i % 3 === 0 ? [{ id: 'fit', label: 'fitting room', kind: 'fitting' as const, severity: 'error' as const, box: { min: [0, size[1], 0] as Vec3, max: [size[0], size[1] + 20, size[2]] as Vec3 } }] : [];
-		return { part: { id: `cat-${i}`, name: `Catalogue part ${i}`, category: 'other', bodies, keepouts, ports: [], specs: {}, provenance: 'estimate', toleranceMm: 0 } };
+		if (i % 4 === 0) {
+			bodies.push({
+				id: 'tab',
+				label: 'tab',
+				box: { min: [0, 0, size[2]], max: [size[0] / 2, size[1] / 2, size[2] + 5] }
+			});
+		}
+		const keepouts =
+			i % 3 === 0
+				? [
+						{
+							id: 'fit',
+							label: 'fitting room',
+							kind: 'fitting' as const,
+							severity: 'error' as const,
+							box: { min: [0, size[1], 0] as Vec3, max: [size[0], size[1] + 20, size[2]] as Vec3 }
+						}
+					]
+				: [];
+		return {
+			part: {
+				id: `cat-${i}`,
+				name: `Catalogue part ${i}`,
+				category: 'other',
+				bodies,
+				keepouts,
+				ports: [],
+				specs: {},
+				provenance: 'estimate',
+				toleranceMm: 0
+			}
+		};
 	});
 }
 
@@ -298,11 +435,28 @@ function fitsRow() {
 	const base = hundredPartScene();
 	const scene = sceneSchema.parse({
 		...base,
-		enclosure: { ...base.enclosure, mounts: [{ id: 'front', label: 'Front mount', kind: 'fan', face: 'front', region: { min: [0, 0, 0], max: [600, 400, 60] }, accepts: [], budgetMm: 60 }] }
+		enclosure: {
+			...base.enclosure,
+			mounts: [
+				{
+					id: 'front',
+					label: 'Front mount',
+					kind: 'fan',
+					face: 'front',
+					region: { min: [0, 0, 0], max: [600, 400, 60] },
+					accepts: [],
+					budgetMm: 60
+				}
+			]
+		}
 	});
 	const cands = catalogue(5000);
 	const control = { kind: 'divider' as const, id: 'shelf' };
-	const fast = time(() => partsByPositions(scene, { kind: 'mount', mountId: 'front' }, cands, control), 5, 1);
+	const fast = time(
+		() => partsByPositions(scene, { kind: 'mount', mountId: 'front' }, cands, control),
+		5,
+		1
+	);
 	const positions = fast.result.positions;
 	const sample = cands.slice(0, 40);
 	const mount = scene.enclosure.mounts[0];
@@ -314,10 +468,23 @@ function fitsRow() {
 				const landing = landOnMount(resolved, mount, c.part);
 				if ('reason' in landing) continue;
 				for (const p of positions) {
-					const placed = sceneSchema.parse({ ...scene, dividerPositions: { shelf: p.offsetMm }, parts: [...scene.parts, c.part], placements: [...scene.placements, { id: 'cand', partId: c.part.id, ...landing, mountId: 'front' }] });
+					const placed = sceneSchema.parse({
+						...scene,
+						dividerPositions: { shelf: p.offsetMm },
+						parts: [...scene.parts, c.part],
+						placements: [
+							...scene.placements,
+							{ id: 'cand', partId: c.part.id, ...landing, mountId: 'front' }
+						]
+					});
 					const report = checkScene(placed);
 					const status = report.parts.find((x) => x.placementId === 'cand')!.status;
-					if ((status === 'clear' || status === 'tight') && report.mounts[0].status !== 'collides') fits++;
+					if (
+						(status === 'clear' || status === 'tight') &&
+						report.mounts[0].status !== 'collides'
+					) {
+						fits++;
+					}
 				}
 			}
 			return fits;
@@ -341,7 +508,9 @@ function main(): void {
 
 	const troubled = problemScene();
 	const problems = time(() => checkScene(troubled), 41, 20);
-	if (problems.result.overlaps.length !== 20) throw new Error(`problem scene: ${problems.result.overlaps.length} overlaps, expected 20`);
+	if (problems.result.overlaps.length !== 20) {
+		throw new Error(`problem scene: ${problems.result.overlaps.length} overlaps, expected 20`);
+	}
 	const advised = problems.result.overlaps.filter((o) => o.moves.length > 0).length;
 	console.log(
 		`checkScene, 100 parts with 20 problems (${advised} with a checked move): ${problems.ms.toFixed(3)} ms median, ${problems.p10.toFixed(3)} ms low decile`
@@ -349,20 +518,36 @@ function main(): void {
 
 	const swept = sweepScene();
 	const control = { kind: 'divider' as const, id: 'wall' };
-	const sw = time(() => sweep(swept, { control, gaps: [{ placementId: 'p000', face: '+x' }] }), 31, 10);
+	const sw = time(
+		() => sweep(swept, { control, gaps: [{ placementId: 'p000', face: '+x' }] }),
+		31,
+		10
+	);
 	console.log(
 		`sweep, ${sw.result.points.length} positions over 100 boxes (${sw.result.feasibleIntervals.length} feasible runs): ${sw.ms.toFixed(3)} ms median, ${sw.p10.toFixed(3)} ms low decile`
 	);
 
 	const fits = fitsRow();
-	console.log(`what fits here: 5,000 parts × ${fits.cells / 5000} positions on one mount: ${fits.ms.toFixed(1)} ms median, ${fits.p10.toFixed(1)} ms low decile; naive (checkScene per candidate, scaled from a sample) ${fits.naiveMs.toFixed(0)} ms`);
+	console.log(
+		`what fits here: 5,000 parts × ${fits.cells / 5000} positions on one mount: ${fits.ms.toFixed(1)} ms median, ${fits.p10.toFixed(1)} ms low decile; naive (checkScene per candidate, scaled from a sample) ${fits.naiveMs.toFixed(0)} ms`
+	);
 	const room = time(() => roomTable(demoEnclosure()), 41, 20);
-	console.log(`clearance table, demo enclosure (${room.result.rows.length} rows): ${room.ms.toFixed(3)} ms median, ${room.p10.toFixed(3)} ms low decile`);
+	console.log(
+		`clearance table, demo enclosure (${room.result.rows.length} rows): ${room.ms.toFixed(3)} ms median, ${room.p10.toFixed(3)} ms low decile`
+	);
 
 	const rows = [50, 200, 2000, 20000].map(broadphaseRow);
 	const fmt = (v: number | null) => (v === null ? '—' : v.toFixed(3));
 	console.log('broadphase: overlap pairs + volumes, median ms (same boxes for every contender)');
-	console.log('n'.padStart(7), 'pairs'.padStart(7), 'engine'.padStart(9), 'box-int'.padStart(9), 'naive'.padStart(9), '÷box-int'.padStart(9), '÷naive'.padStart(9));
+	console.log(
+		'n'.padStart(7),
+		'pairs'.padStart(7),
+		'engine'.padStart(9),
+		'box-int'.padStart(9),
+		'naive'.padStart(9),
+		'÷box-int'.padStart(9),
+		'÷naive'.padStart(9)
+	);
 	for (const r of rows) {
 		console.log(
 			String(r.n).padStart(7),

@@ -12,7 +12,14 @@ const smtpPort = Number(process.env.SMTP_PORT ?? 2525);
 const httpPort = Number(process.env.MAIL_CATCHER_HTTP_PORT ?? 2526);
 const maxKept = 500;
 
-type Caught = { id: number; from: string; to: string[]; subject: string; text: string; date: string };
+type Caught = {
+	id: number;
+	from: string;
+	to: string[];
+	subject: string;
+	text: string;
+	date: string;
+};
 const messages: Caught[] = [];
 let nextId = 1;
 
@@ -67,14 +74,21 @@ const http = createServer((req, res) => {
 	res.end(JSON.stringify([...list].reverse()));
 });
 
-const esc = (s: string) => s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
+const esc = (s: string) =>
+	s.replace(
+		/[&<>"']/g,
+		(c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!
+	);
 
 /** The newest 100 messages, plain text as sent. */
 function logPage(): string {
 	const items = [...messages]
 		.reverse()
 		.slice(0, 100)
-		.map((m) => `<article><h2>${esc(m.subject)}</h2><p class="meta">${esc(m.date)} · to ${esc(m.to.join(', '))}</p><pre>${esc(m.text)}</pre></article>`)
+		.map(
+			(m) =>
+				`<article><h2>${esc(m.subject)}</h2><p class="meta">${esc(m.date)} · to ${esc(m.to.join(', '))}</p><pre>${esc(m.text)}</pre></article>`
+		)
 		.join('');
 	return `<!doctype html><html lang="en"><head><meta charset="utf-8"><title>Local mail catcher</title>
 <style>body{font-family:system-ui,sans-serif;max-width:50rem;margin:2rem auto;padding:0 1rem}article{border-top:1px solid #ccc;padding:.5rem 0}h2{font-size:1rem;margin:.3rem 0}.meta{color:#555;font-size:.85rem;margin:0}pre{white-space:pre-wrap}</style>
@@ -83,6 +97,8 @@ function logPage(): string {
 
 smtp.listen(smtpPort, '127.0.0.1', () => {
 	http.listen(httpPort, '127.0.0.1', () => {
-		console.log(`mail catcher: SMTP 127.0.0.1:${smtpPort}, read at http://127.0.0.1:${httpPort}/ (JSON: /messages)`);
+		console.log(
+			`mail catcher: SMTP 127.0.0.1:${smtpPort}, read at http://127.0.0.1:${httpPort}/ (JSON: /messages)`
+		);
 	});
 });

@@ -23,10 +23,18 @@ import { Client } from '../src/lib/server/testing/client';
 const root = resolve(import.meta.dirname, '..');
 const PAGES = ['/builds', '/parts', '/enclosures', '/builds/demo-build'];
 const DESIGNER = { email: 'designer@demo.interstice.test', password: 'demo-password-1' };
-const CHROMIUM_ARGS = ['--headless', '--no-sandbox', '--disable-gpu', '--use-angle=swiftshader', '--enable-unsafe-swiftshader', '--disable-background-networking'];
+const CHROMIUM_ARGS = [
+	'--headless',
+	'--no-sandbox',
+	'--disable-gpu',
+	'--use-angle=swiftshader',
+	'--enable-unsafe-swiftshader',
+	'--disable-background-networking'
+];
 
 /** KB here are KiB (1024 bytes). Strings only three.js's own code carries (its warnings are prefixed "THREE."). */
-const isThree = (code: string) => code.includes('THREE.WebGLRenderer') || code.includes('THREE.Object3D');
+const isThree = (code: string) =>
+	code.includes('THREE.WebGLRenderer') || code.includes('THREE.Object3D');
 
 function gzipSize(urlPath: string): number {
 	const file = resolve(root, 'build/client', `.${urlPath}`);
@@ -116,15 +124,32 @@ async function recheckBundle(): Promise<string> {
 
 async function main() {
 	const app = await startApp();
-	const browser = await chromium.launch({ executablePath: '/usr/bin/chromium', args: CHROMIUM_ARGS });
+	const browser = await chromium.launch({
+		executablePath: '/usr/bin/chromium',
+		args: CHROMIUM_ARGS
+	});
 	try {
 		const client = new Client(app.baseURL);
 		const signedIn = await client.signIn(DESIGNER.email, DESIGNER.password);
-		if (signedIn.status !== 303 || !client.sessionId) throw new Error(`sign-in answered ${signedIn.status}; seed the database first`);
-		const context = await browser.newContext({ baseURL: app.baseURL, viewport: { width: 1440, height: 900 } });
-		await context.addCookies([{ name: 'interstice_session', value: client.sessionId, url: app.baseURL }]);
+		if (signedIn.status !== 303 || !client.sessionId) {
+			throw new Error(`sign-in answered ${signedIn.status}; seed the database first`);
+		}
+		const context = await browser.newContext({
+			baseURL: app.baseURL,
+			viewport: { width: 1440, height: 900 }
+		});
+		await context.addCookies([
+			{ name: 'interstice_session', value: client.sessionId, url: app.baseURL }
+		]);
 
-		const pages: { path: string; scripts: number; gzipKB: number; threeKB: number; threeChunks: string[]; largest: string[] }[] = [];
+		const pages: {
+			path: string;
+			scripts: number;
+			gzipKB: number;
+			threeKB: number;
+			threeChunks: string[];
+			largest: string[];
+		}[] = [];
 		for (const path of PAGES) {
 			const page = await context.newPage();
 			const scripts = new Set<string>();
@@ -147,8 +172,18 @@ async function main() {
 					threeChunks.push(s.split('/').pop() ?? s);
 				}
 			}
-			const largest = sizes.sort((a, b) => b[1] - a[1]).slice(0, 5).map(([name, size]) => `${name} ${(size / 1024).toFixed(1)}`);
-			pages.push({ path, scripts: scripts.size, gzipKB: Math.round(gzip / 102.4) / 10, threeKB: Math.round(three / 102.4) / 10, threeChunks, largest });
+			const largest = sizes
+				.sort((a, b) => b[1] - a[1])
+				.slice(0, 5)
+				.map(([name, size]) => `${name} ${(size / 1024).toFixed(1)}`);
+			pages.push({
+				path,
+				scripts: scripts.size,
+				gzipKB: Math.round(gzip / 102.4) / 10,
+				threeKB: Math.round(three / 102.4) / 10,
+				threeChunks,
+				largest
+			});
 			await page.close();
 		}
 
@@ -156,15 +191,28 @@ async function main() {
 		const page = await browser.newPage();
 		await page.goto('about:blank');
 		await page.addScriptTag({ content: await recheckBundle() });
-		const recheck = await page.evaluate(() => (window as unknown as { __measure: () => unknown }).__measure()) as Record<'demo' | 'hundred', { placements: number; overlapsAtLast: number; medianMs: number; p95Ms: number; maxMs: number }>;
+		const recheck = (await page.evaluate(() =>
+			(window as unknown as { __measure: () => unknown }).__measure()
+		)) as Record<
+			'demo' | 'hundred',
+			{ placements: number; overlapsAtLast: number; medianMs: number; p95Ms: number; maxMs: number }
+		>;
 
 		console.log('page                    scripts   JS gzip KB   of it three.js KB');
 		for (const p of pages) {
-			console.log(`${p.path.padEnd(22)} ${String(p.scripts).padStart(8)} ${p.gzipKB.toFixed(1).padStart(12)} ${p.threeKB.toFixed(1).padStart(19)}  ${p.threeChunks.join(', ')}`);
+			console.log(
+				`${p.path.padEnd(22)} ${String(p.scripts).padStart(8)} ${p.gzipKB.toFixed(1).padStart(12)} ${p.threeKB.toFixed(1).padStart(19)}  ${p.threeChunks.join(', ')}`
+			);
 			console.log(`${''.padEnd(22)} largest (KB gzip): ${p.largest.join(' · ')}`);
 		}
-		console.log('\nre-check in Chromium (compose + parse + resolve + report, as EditorState does on each change):');
-		for (const [name, r] of Object.entries(recheck)) console.log(`${name.padEnd(8)} ${r.placements} placements: median ${r.medianMs.toFixed(2)} ms, p95 ${r.p95Ms.toFixed(2)} ms, max ${r.maxMs.toFixed(2)} ms`);
+		console.log(
+			'\nre-check in Chromium (compose + parse + resolve + report, as EditorState does on each change):'
+		);
+		for (const [name, r] of Object.entries(recheck)) {
+			console.log(
+				`${name.padEnd(8)} ${r.placements} placements: median ${r.medianMs.toFixed(2)} ms, p95 ${r.p95Ms.toFixed(2)} ms, max ${r.maxMs.toFixed(2)} ms`
+			);
+		}
 		console.log(JSON.stringify({ pages, recheck }));
 	} finally {
 		await browser.close();

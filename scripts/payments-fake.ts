@@ -47,16 +47,33 @@ type Session = {
 	line_items_summary: { name: string; quantity: number; unit_amount: number }[];
 };
 
-type Refund = { id: string; object: 'refund'; amount: number; currency: string; payment_intent: string; status: 'succeeded'; created: number; metadata: Record<string, string> };
+type Refund = {
+	id: string;
+	object: 'refund';
+	amount: number;
+	currency: string;
+	payment_intent: string;
+	status: 'succeeded';
+	created: number;
+	metadata: Record<string, string>;
+};
 
-type Delivery = { eventId: string; type: string; url: string; body: string; attempts: number; lastStatus: number | null };
+type Delivery = {
+	eventId: string;
+	type: string;
+	url: string;
+	body: string;
+	attempts: number;
+	lastStatus: number | null;
+};
 
 const sessions = new Map<string, Session>();
 const idempotent = new Map<string, { status: number; body: string }>();
 const deliveries: Delivery[] = [];
 const refunds: Refund[] = [];
 
-const id = (prefix: string) => `${prefix}_test_${randomBytes(18).toString('base64url').replace(/[-_]/g, 'x')}`;
+const id = (prefix: string) =>
+	`${prefix}_test_${randomBytes(18).toString('base64url').replace(/[-_]/g, 'x')}`;
 const now = () => Math.floor(Date.now() / 1000);
 
 /** `a[b][0][c]=1` form bodies, as the SDK encodes its parameters, into nested objects and arrays. */
@@ -81,18 +98,41 @@ function parseForm(body: string): Record<string, unknown> {
 }
 
 function sign(payload: string, timestamp = now()): string {
-	const v1 = createHmac('sha256', webhookSecret).update(`${timestamp}.${payload}`, 'utf8').digest('hex');
+	const v1 = createHmac('sha256', webhookSecret)
+		.update(`${timestamp}.${payload}`, 'utf8')
+		.digest('hex');
 	return `t=${timestamp},v1=${v1}`;
 }
 
-function send(res: ServerResponse, status: number, body: unknown, headers: Record<string, string> = {}) {
+function send(
+	res: ServerResponse,
+	status: number,
+	body: unknown,
+	headers: Record<string, string> = {}
+) {
 	const text = typeof body === 'string' ? body : JSON.stringify(body);
-	res.writeHead(status, { 'content-type': typeof body === 'string' ? 'text/html; charset=utf-8' : 'application/json', ...headers });
+	res.writeHead(status, {
+		'content-type': typeof body === 'string' ? 'text/html; charset=utf-8' : 'application/json',
+		...headers
+	});
 	res.end(text);
 }
 
-function apiError(res: ServerResponse, status: number, message: string, param?: string, code?: string) {
-	send(res, status, { error: { type: status === 401 ? 'invalid_request_error' : 'invalid_request_error', message, param, code } });
+function apiError(
+	res: ServerResponse,
+	status: number,
+	message: string,
+	param?: string,
+	code?: string
+) {
+	send(res, status, {
+		error: {
+			type: status === 401 ? 'invalid_request_error' : 'invalid_request_error',
+			message,
+			param,
+			code
+		}
+	});
 }
 
 async function readBody(req: IncomingMessage, limit = 1024 * 1024): Promise<string> {
@@ -133,27 +173,60 @@ function expireIfDue(s: Session) {
 	}
 }
 
-function createSession(params: Record<string, unknown>): { session?: Session; error?: [string, string] } {
+function createSession(params: Record<string, unknown>): {
+	session?: Session;
+	error?: [string, string];
+} {
 	if (params.mode !== 'payment') return { error: ['Only mode=payment is supported here.', 'mode'] };
-	if (!isHttpUrl(params.success_url)) return { error: ['success_url must be an http(s) URL.', 'success_url'] };
-	if (params.cancel_url !== undefined && !isHttpUrl(params.cancel_url)) return { error: ['cancel_url must be an http(s) URL.', 'cancel_url'] };
+	if (!isHttpUrl(params.success_url)) {
+		return { error: ['success_url must be an http(s) URL.', 'success_url'] };
+	}
+	if (params.cancel_url !== undefined && !isHttpUrl(params.cancel_url)) {
+		return { error: ['cancel_url must be an http(s) URL.', 'cancel_url'] };
+	}
 	const items = params.line_items;
-	if (!Array.isArray(items) || items.length === 0) return { error: ['line_items is required.', 'line_items'] };
+	if (!Array.isArray(items) || items.length === 0) {
+		return { error: ['line_items is required.', 'line_items'] };
+	}
 	let currency = '';
 	let total = 0;
 	const summary: Session['line_items_summary'] = [];
 	for (const [i, raw] of items.entries()) {
-		const item = raw as { quantity?: string; price_data?: { currency?: string; unit_amount?: string; product_data?: { name?: string } } };
+		const item = raw as {
+			quantity?: string;
+			price_data?: { currency?: string; unit_amount?: string; product_data?: { name?: string } };
+		};
 		const quantity = Number(item.quantity ?? 1);
 		const unit = Number(item.price_data?.unit_amount);
 		const cur = String(item.price_data?.currency ?? '').toLowerCase();
-		if (!Number.isInteger(quantity) || quantity < 1) return { error: ['quantity must be a positive integer.', `line_items[${i}][quantity]`] };
-		if (!Number.isInteger(unit) || unit < 1) return { error: ['unit_amount must be a positive integer of minor units.', `line_items[${i}][price_data][unit_amount]`] };
-		if (!/^[a-z]{3}$/.test(cur)) return { error: ['currency must be a three-letter code.', `line_items[${i}][price_data][currency]`] };
-		if (currency && cur !== currency) return { error: ['All line items must share one currency.', `line_items[${i}][price_data][currency]`] };
+		if (!Number.isInteger(quantity) || quantity < 1) {
+			return { error: ['quantity must be a positive integer.', `line_items[${i}][quantity]`] };
+		}
+		if (!Number.isInteger(unit) || unit < 1) {
+			return {
+				error: [
+					'unit_amount must be a positive integer of minor units.',
+					`line_items[${i}][price_data][unit_amount]`
+				]
+			};
+		}
+		if (!/^[a-z]{3}$/.test(cur)) {
+			return {
+				error: ['currency must be a three-letter code.', `line_items[${i}][price_data][currency]`]
+			};
+		}
+		if (currency && cur !== currency) {
+			return {
+				error: ['All line items must share one currency.', `line_items[${i}][price_data][currency]`]
+			};
+		}
 		currency = cur;
 		total += quantity * unit;
-		summary.push({ name: String(item.price_data?.product_data?.name ?? 'Item'), quantity, unit_amount: unit });
+		summary.push({
+			name: String(item.price_data?.product_data?.name ?? 'Item'),
+			quantity,
+			unit_amount: unit
+		});
 	}
 	const sid = id('cs');
 	const created = now();
@@ -163,7 +236,8 @@ function createSession(params: Record<string, unknown>): { session?: Session; er
 		amount_subtotal: total,
 		amount_total: total,
 		currency,
-		client_reference_id: typeof params.client_reference_id === 'string' ? params.client_reference_id : null,
+		client_reference_id:
+			typeof params.client_reference_id === 'string' ? params.client_reference_id : null,
 		customer_email: typeof params.customer_email === 'string' ? params.customer_email : null,
 		created,
 		expires_at: created + SESSION_LIFETIME_SEC,
@@ -195,7 +269,15 @@ function webhookUrlFor(s: Session): string {
 async function post(d: Delivery): Promise<number> {
 	d.attempts++;
 	try {
-		const r = await fetch(d.url, { method: 'POST', headers: { 'content-type': 'application/json', 'stripe-signature': sign(d.body), 'user-agent': 'payments-fake/1' }, body: d.body });
+		const r = await fetch(d.url, {
+			method: 'POST',
+			headers: {
+				'content-type': 'application/json',
+				'stripe-signature': sign(d.body),
+				'user-agent': 'payments-fake/1'
+			},
+			body: d.body
+		});
 		d.lastStatus = r.status;
 	} catch {
 		d.lastStatus = 0;
@@ -216,7 +298,14 @@ async function deliver(s: Session, type: string): Promise<Delivery> {
 		request: { id: null, idempotency_key: null },
 		type
 	};
-	const d: Delivery = { eventId: event.id, type, url: webhookUrlFor(s), body: JSON.stringify(event), attempts: 0, lastStatus: null };
+	const d: Delivery = {
+		eventId: event.id,
+		type,
+		url: webhookUrlFor(s),
+		body: JSON.stringify(event),
+		attempts: 0,
+		lastStatus: null
+	};
 	deliveries.push(d);
 	if (deliveries.length > 500) deliveries.shift();
 	const status = await post(d);
@@ -232,15 +321,25 @@ async function deliver(s: Session, type: string): Promise<Delivery> {
 	return d;
 }
 
-const esc = (s: string) => s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
+const esc = (s: string) =>
+	s.replace(
+		/[&<>"']/g,
+		(c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!
+	);
 
 function money(minor: number, currency: string) {
-	const digits = new Intl.NumberFormat('en', { style: 'currency', currency }).resolvedOptions().maximumFractionDigits ?? 2;
-	return new Intl.NumberFormat('en-GB', { style: 'currency', currency }).format(minor / 10 ** digits);
+	const digits =
+		new Intl.NumberFormat('en', { style: 'currency', currency }).resolvedOptions()
+			.maximumFractionDigits ?? 2;
+	return new Intl.NumberFormat('en-GB', { style: 'currency', currency }).format(
+		minor / 10 ** digits
+	);
 }
 
 function checkoutPage(s: Session, error = ''): string {
-	const items = s.line_items_summary.map((i) => `<li>${esc(i.name)}${i.quantity > 1 ? ` × ${i.quantity}` : ''}</li>`).join('');
+	const items = s.line_items_summary
+		.map((i) => `<li>${esc(i.name)}${i.quantity > 1 ? ` × ${i.quantity}` : ''}</li>`)
+		.join('');
 	return `<!doctype html><html lang="en"><head><meta charset="utf-8"><meta name="viewport" content="width=device-width,initial-scale=1">
 <title>Test checkout</title>
 <style>
@@ -318,20 +417,66 @@ async function handle(req: IncomingMessage, res: ServerResponse) {
 		}
 		if (req.method === 'POST' && path === '/v1/refunds') {
 			const params = parseForm(await readBody(req));
-			const paid = [...sessions.values()].find((x) => x.payment_intent !== null && x.payment_intent === params.payment_intent);
-			if (!paid) return apiError(res, 400, `No such payment_intent: '${String(params.payment_intent ?? '')}'`, 'payment_intent', 'resource_missing');
-			const left = paid.amount_total - refunds.filter((r) => r.payment_intent === paid.payment_intent).reduce((sum, r) => sum + r.amount, 0);
+			const paid = [...sessions.values()].find(
+				(x) => x.payment_intent !== null && x.payment_intent === params.payment_intent
+			);
+			if (!paid) {
+				return apiError(
+					res,
+					400,
+					`No such payment_intent: '${String(params.payment_intent ?? '')}'`,
+					'payment_intent',
+					'resource_missing'
+				);
+			}
+			const left =
+				paid.amount_total -
+				refunds
+					.filter((r) => r.payment_intent === paid.payment_intent)
+					.reduce((sum, r) => sum + r.amount, 0);
 			const amount = params.amount === undefined ? left : Number(params.amount);
-			if (left <= 0) return apiError(res, 400, 'The charge has already been refunded.', 'payment_intent', 'charge_already_refunded');
-			if (!Number.isInteger(amount) || amount < 1 || amount > left) return apiError(res, 400, `amount must be a whole number of minor units from 1 to ${left}.`, 'amount');
-			const refund: Refund = { id: id('re'), object: 'refund', amount, currency: paid.currency, payment_intent: paid.payment_intent!, status: 'succeeded', created: now(), metadata: (params.metadata as Record<string, string>) ?? {} };
+			if (left <= 0) {
+				return apiError(
+					res,
+					400,
+					'The charge has already been refunded.',
+					'payment_intent',
+					'charge_already_refunded'
+				);
+			}
+			if (!Number.isInteger(amount) || amount < 1 || amount > left) {
+				return apiError(
+					res,
+					400,
+					`amount must be a whole number of minor units from 1 to ${left}.`,
+					'amount'
+				);
+			}
+			const refund: Refund = {
+				id: id('re'),
+				object: 'refund',
+				amount,
+				currency: paid.currency,
+				payment_intent: paid.payment_intent!,
+				status: 'succeeded',
+				created: now(),
+				metadata: (params.metadata as Record<string, string>) ?? {}
+			};
 			refunds.push(refund);
 			return reply(200, refund);
 		}
 		const m = /^\/v1\/checkout\/sessions\/([A-Za-z0-9_]+)(\/expire)?$/.exec(path);
 		if (m) {
 			const s = sessions.get(m[1]);
-			if (!s) return apiError(res, 404, `No such checkout.session: '${m[1]}'`, 'session', 'resource_missing');
+			if (!s) {
+				return apiError(
+					res,
+					404,
+					`No such checkout.session: '${m[1]}'`,
+					'session',
+					'resource_missing'
+				);
+			}
 			expireIfDue(s);
 			if (m[2] && req.method === 'POST') {
 				if (s.status !== 'open') return apiError(res, 400, 'Only open sessions can be expired.');
@@ -350,7 +495,13 @@ async function handle(req: IncomingMessage, res: ServerResponse) {
 		const s = sessions.get(pay[1]);
 		if (!s) return send(res, 404, '<!doctype html><p>This checkout does not exist.</p>');
 		expireIfDue(s);
-		if (s.status === 'expired') return send(res, 410, '<!doctype html><p>This checkout has expired. Go back and start again.</p>');
+		if (s.status === 'expired') {
+			return send(
+				res,
+				410,
+				'<!doctype html><p>This checkout has expired. Go back and start again.</p>'
+			);
+		}
 		if (s.status === 'complete') {
 			res.writeHead(303, { location: s.success_url.replace('{CHECKOUT_SESSION_ID}', s.id) });
 			return res.end();
@@ -374,16 +525,32 @@ async function handle(req: IncomingMessage, res: ServerResponse) {
 	// Test helpers: what was delivered, and delivering an event again exactly as before (a replay).
 	if (path === '/_fake/deliveries' && req.method === 'GET') {
 		const session = url.searchParams.get('session');
-		const list = deliveries.filter((d) => !session || JSON.parse(d.body).data.object.id === session);
-		return send(res, 200, list.map(({ body: _, ...d }) => d));
+		const list = deliveries.filter(
+			(d) => !session || JSON.parse(d.body).data.object.id === session
+		);
+		return send(
+			res,
+			200,
+			list.map(({ body: _, ...d }) => d)
+		);
 	}
 	if (path === '/_fake/sessions' && req.method === 'GET') {
 		const quote = url.searchParams.get('quote');
-		return send(res, 200, [...sessions.values()].filter((x) => !quote || x.metadata.quote_id === quote).map(publicSession));
+		return send(
+			res,
+			200,
+			[...sessions.values()]
+				.filter((x) => !quote || x.metadata.quote_id === quote)
+				.map(publicSession)
+		);
 	}
 	if (path === '/_fake/refunds' && req.method === 'GET') {
 		const pi = url.searchParams.get('payment_intent');
-		return send(res, 200, refunds.filter((r) => !pi || r.payment_intent === pi));
+		return send(
+			res,
+			200,
+			refunds.filter((r) => !pi || r.payment_intent === pi)
+		);
 	}
 	const replay = /^\/_fake\/deliveries\/(evt_[A-Za-z0-9_]+)\/replay$/.exec(path);
 	if (replay && req.method === 'POST') {
@@ -398,8 +565,14 @@ async function handle(req: IncomingMessage, res: ServerResponse) {
 const server = createServer((req, res) => {
 	handle(req, res).catch((e: unknown) => {
 		console.error(e);
-		if (!res.headersSent) send(res, 500, { error: { type: 'api_error', message: 'The fake failed.' } });
+		if (!res.headersSent) {
+			send(res, 500, { error: { type: 'api_error', message: 'The fake failed.' } });
+		}
 	});
 });
 
-server.listen(port, host, () => console.log(`payments fake on ${publicOrigin} (webhooks → ${fixedWebhookUrl || 'success_url origin'})`));
+server.listen(port, host, () =>
+	console.log(
+		`payments fake on ${publicOrigin} (webhooks → ${fixedWebhookUrl || 'success_url origin'})`
+	)
+);

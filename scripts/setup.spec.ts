@@ -47,18 +47,29 @@ async function cloneInto(parentLabel: string, name: string): Promise<Clone> {
 function db_sh(clone: Clone, args: string[], env: Record<string, string> = {}) {
 	return run('bash', ['scripts/db.sh', ...args], {
 		cwd: clone.dir,
-		env: { ...process.env, PGPORT: String(clone.port), DB_CLUSTER: 'app', PGDATABASE: 'interstice', ...env },
+		env: {
+			...process.env,
+			PGPORT: String(clone.port),
+			DB_CLUSTER: 'app',
+			PGDATABASE: 'interstice',
+			...env
+		},
 		timeout: 120_000
 	}).then(
 		(r) => ({ code: 0, out: r.stdout + r.stderr }),
-		(e: { code?: number; stdout?: string; stderr?: string }) => ({ code: e.code ?? -1, out: `${e.stdout ?? ''}${e.stderr ?? ''}` })
+		(e: { code?: number; stdout?: string; stderr?: string }) => ({
+			code: e.code ?? -1,
+			out: `${e.stdout ?? ''}${e.stderr ?? ''}`
+		})
 	);
 }
 
 async function settingsOf(url: string) {
 	const sql = postgres(url, { max: 1, onnotice: () => {} });
 	try {
-		const rows = await sql<{ name: string; setting: string }[]>`select name, setting from pg_settings where name in ('fsync', 'full_page_writes', 'synchronous_commit') order by name`;
+		const rows = await sql<
+			{ name: string; setting: string }[]
+		>`select name, setting from pg_settings where name in ('fsync', 'full_page_writes', 'synchronous_commit') order by name`;
 		return Object.fromEntries(rows.map((r) => [r.name, r.setting]));
 	} finally {
 		await sql.end({ timeout: 5 });
@@ -83,7 +94,11 @@ async function checkStartStatusStop(clone: Clone) {
 	expect(status).toMatchObject({ code: 0 });
 	expect(status.out).toContain(`running on 127.0.0.1:${clone.port}`);
 	// npm start's cluster keeps PostgreSQL's durability defaults.
-	expect(await settingsOf(`postgres://postgres@127.0.0.1:${clone.port}/interstice`)).toEqual({ fsync: 'on', full_page_writes: 'on', synchronous_commit: 'on' });
+	expect(await settingsOf(`postgres://postgres@127.0.0.1:${clone.port}/interstice`)).toEqual({
+		fsync: 'on',
+		full_page_writes: 'on',
+		synchronous_commit: 'on'
+	});
 	expect((await db_sh(clone, ['stop'])).out).toContain('db: stopped');
 	expect(await db_sh(clone, ['status'])).toMatchObject({ code: 3 });
 }
@@ -105,26 +120,47 @@ describe('scripts/db.sh in a fresh clone', () => {
 	}, 180_000);
 
 	// As root, the same as an ordinary user would run it: the server runs as that user, in the clone.
-	it.runIf(isRoot)('runs the server as the invoking user when that is not root', async () => {
-		const clone = await cloneInto('interstice-user-', 'interstice');
-		await run('chown', ['-R', 'nobody', clone.made]);
-		const as = (args: string[]) =>
-			run('runuser', ['-u', 'nobody', '--', 'env', `PGPORT=${clone.port}`, 'DB_CLUSTER=app', 'PGDATABASE=interstice', 'bash', 'scripts/db.sh', ...args], { cwd: clone.dir, timeout: 120_000 }).then(
-				(r) => r.stdout + r.stderr,
-				(e: { stdout?: string; stderr?: string }) => `${e.stdout ?? ''}${e.stderr ?? ''}`
-			);
-		try {
-			const started = await as(['start']);
-			expect(started).toContain(`db: app cluster in ${join(clone.dir, '.data', 'pg')}`);
-			expect(started).toContain(`started on 127.0.0.1:${clone.port}`);
-			const owner = (await run('stat', ['-c', '%U', join(clone.dir, '.data', 'pg', 'postmaster.pid')])).stdout.trim();
-			expect(owner).toBe('nobody');
-			expect(await as(['stop'])).toContain('db: stopped');
-		} finally {
-			await as(['destroy', '--yes']);
-			await run('chown', ['-R', 'root', clone.made]);
-		}
-	}, 180_000);
+	it.runIf(isRoot)(
+		'runs the server as the invoking user when that is not root',
+		async () => {
+			const clone = await cloneInto('interstice-user-', 'interstice');
+			await run('chown', ['-R', 'nobody', clone.made]);
+			const as = (args: string[]) =>
+				run(
+					'runuser',
+					[
+						'-u',
+						'nobody',
+						'--',
+						'env',
+						`PGPORT=${clone.port}`,
+						'DB_CLUSTER=app',
+						'PGDATABASE=interstice',
+						'bash',
+						'scripts/db.sh',
+						...args
+					],
+					{ cwd: clone.dir, timeout: 120_000 }
+				).then(
+					(r) => r.stdout + r.stderr,
+					(e: { stdout?: string; stderr?: string }) => `${e.stdout ?? ''}${e.stderr ?? ''}`
+				);
+			try {
+				const started = await as(['start']);
+				expect(started).toContain(`db: app cluster in ${join(clone.dir, '.data', 'pg')}`);
+				expect(started).toContain(`started on 127.0.0.1:${clone.port}`);
+				const owner = (
+					await run('stat', ['-c', '%U', join(clone.dir, '.data', 'pg', 'postmaster.pid')])
+				).stdout.trim();
+				expect(owner).toBe('nobody');
+				expect(await as(['stop'])).toContain('db: stopped');
+			} finally {
+				await as(['destroy', '--yes']);
+				await run('chown', ['-R', 'root', clone.made]);
+			}
+		},
+		180_000
+	);
 
 	it('keeps npm test’s throwaway cluster apart, with crash safety traded for speed', async () => {
 		const clone = clones[1] ?? (await cloneInto('interstice-space-', 'inter stice'));
@@ -133,15 +169,31 @@ describe('scripts/db.sh in a fresh clone', () => {
 		expect(started.code, started.out).toBe(0);
 		const where = (await db_sh(clone, ['where'], test)).out.trim();
 		expect(where).toBe(join(dirname((await db_sh(clone, ['where'])).out.trim()), 'pg-test'));
-		expect(await settingsOf(`postgres://postgres@127.0.0.1:${test.PGPORT}/interstice`)).toEqual({ fsync: 'off', full_page_writes: 'off', synchronous_commit: 'off' });
-		expect((await db_sh(clone, ['destroy', '--yes'], test)).out).toContain('removed the test cluster');
+		expect(await settingsOf(`postgres://postgres@127.0.0.1:${test.PGPORT}/interstice`)).toEqual({
+			fsync: 'off',
+			full_page_writes: 'off',
+			synchronous_commit: 'off'
+		});
+		expect((await db_sh(clone, ['destroy', '--yes'], test)).out).toContain(
+			'removed the test cluster'
+		);
 		expect(existsSync(where)).toBe(false);
 	}, 180_000);
 });
 
 /** pg_ctl's immediate shutdown: no checkpoint, as if the server had crashed. */
 async function killPostgres(clone: Clone) {
-	const bin = (await run('bash', ['-c', 'source scripts/lib.sh && find_pg_bindir "$0"', (await db_sh(clone, ['where'])).out.trim()], { cwd: clone.dir })).stdout.trim();
+	const bin = (
+		await run(
+			'bash',
+			[
+				'-c',
+				'source scripts/lib.sh && find_pg_bindir "$0"',
+				(await db_sh(clone, ['where'])).out.trim()
+			],
+			{ cwd: clone.dir }
+		)
+	).stdout.trim();
 	const data = (await db_sh(clone, ['where'])).out.trim();
 	const cmd = [join(bin, 'pg_ctl'), '-D', data, '-m', 'immediate', '-w', 'stop'];
 	if (isRoot) await run('runuser', ['-u', 'postgres', '--', ...cmd], { cwd: '/' });
@@ -157,7 +209,15 @@ describe('a crash', () => {
 	let variantId: string;
 	let version: number;
 	let settings: Record<string, unknown>;
-	const put = (id: string, body: unknown) => client.request('PUT', `/api/builds/${buildId}/variants/${id}`, { body: JSON.stringify(body), headers: { 'content-type': 'application/json', accept: 'application/json', origin: app!.baseURL } });
+	const put = (id: string, body: unknown) =>
+		client.request('PUT', `/api/builds/${buildId}/variants/${id}`, {
+			body: JSON.stringify(body),
+			headers: {
+				'content-type': 'application/json',
+				accept: 'application/json',
+				origin: app!.baseURL
+			}
+		});
 
 	beforeAll(async () => {
 		clone = clones[0] ?? (await cloneInto('interstice-home-', 'interstice'));
@@ -194,20 +254,34 @@ describe('a crash', () => {
 		expect(row.version).toBe(version + 1);
 		expect(row.settings).toEqual(saved);
 		// And the app, whose connections died with the server, reads it back too.
-		let back = await client.request('GET', `/api/builds/${buildId}/variants/${variantId}`, { headers: { accept: 'application/json' } });
+		let back = await client.request('GET', `/api/builds/${buildId}/variants/${variantId}`, {
+			headers: { accept: 'application/json' }
+		});
 		for (let i = 0; i < 20 && back.status !== 200; i++) {
 			await new Promise((r) => setTimeout(r, 250));
-			back = await client.request('GET', `/api/builds/${buildId}/variants/${variantId}`, { headers: { accept: 'application/json' } });
+			back = await client.request('GET', `/api/builds/${buildId}/variants/${variantId}`, {
+				headers: { accept: 'application/json' }
+			});
 		}
 		expect(back.status, back.text).toBe(200);
-		expect(back.json<{ settings: unknown; version: number }>()).toMatchObject({ settings: saved, version: version + 1 });
+		expect(back.json<{ settings: unknown; version: number }>()).toMatchObject({
+			settings: saved,
+			version: version + 1
+		});
 	}, 120_000);
 
 	it('leaves each save of a burst whole or absent when the app is killed', async () => {
 		const ids: string[] = [];
 		for (let i = 0; i < 24; i++) ids.push(await forkVariant(buildId, variantId, `Burst ${i}`));
-		const before = new Map((await db.select().from(variants).where(eq(variants.buildId, buildId))).map((v) => [v.id, v]));
-		const sent = new Map(ids.map((id, i) => [id, { ...(before.get(id)!.settings as Record<string, unknown>), marginMm: 1 + i / 8 }]));
+		const before = new Map(
+			(await db.select().from(variants).where(eq(variants.buildId, buildId))).map((v) => [v.id, v])
+		);
+		const sent = new Map(
+			ids.map((id, i) => [
+				id,
+				{ ...(before.get(id)!.settings as Record<string, unknown>), marginMm: 1 + i / 8 }
+			])
+		);
 		// Kill it once a third of the saves have answered: some are done, some in flight, some not begun.
 		let answered = 0;
 		let third!: () => void;
@@ -244,7 +318,9 @@ describe('a crash', () => {
 		}
 		// Every save the app answered 200 for is there.
 		ids.forEach((id, i) => {
-			if (statuses[i] === 200) expect(after.find((v) => v.id === id)!.version, id).toBe(before.get(id)!.version + 1);
+			if (statuses[i] === 200) {
+				expect(after.find((v) => v.id === id)!.version, id).toBe(before.get(id)!.version + 1);
+			}
 		});
 		expect(whole).toBeGreaterThanOrEqual(ids.length / 3);
 		expect(await db.$count(variants, and(eq(variants.buildId, buildId)))).toBe(ids.length + 1);

@@ -17,19 +17,30 @@ import { closeDb } from '../src/lib/server/db';
 import { sharedDemo } from '../src/lib/server/sharing/test-factory';
 import { Client, startApp } from '../src/lib/server/testing/app-server';
 
-const args = new Map(process.argv.slice(2).map((a) => a.replace(/^--/, '').split('=') as [string, string]));
+const args = new Map(
+	process.argv.slice(2).map((a) => a.replace(/^--/, '').split('=') as [string, string])
+);
 const MINUTES = Number(args.get('minutes') ?? 10);
 const ACCOUNTS = Number(args.get('accounts') ?? 4);
 const PAUSE_MS = Number(args.get('pause-ms') ?? 100);
 
 type Memory = { rss: number; heapUsed: number; heapTotal: number; external: number };
 const mb = (b: number) => `${(b / 1024 / 1024).toFixed(1)} MB`;
-const show = (m: Memory | null) => (m ? `rss ${mb(m.rss)}, heap used ${mb(m.heapUsed)} of ${mb(m.heapTotal)}, external ${mb(m.external)}` : 'unknown');
+const show = (m: Memory | null) =>
+	m
+		? `rss ${mb(m.rss)}, heap used ${mb(m.heapUsed)} of ${mb(m.heapTotal)}, external ${mb(m.external)}`
+		: 'unknown';
 
 async function main() {
-	const app = await startApp({ env: { NODE_OPTIONS: `--import ${resolve(import.meta.dirname, 'soak-memory.mjs')}` } });
+	const app = await startApp({
+		env: { NODE_OPTIONS: `--import ${resolve(import.meta.dirname, 'soak-memory.mjs')}` }
+	});
 	const memory = (): Memory | null => {
-		const line = app.output().split('\n').reverse().find((l) => l.startsWith('soak-memory '));
+		const line = app
+			.output()
+			.split('\n')
+			.reverse()
+			.find((l) => l.startsWith('soak-memory '));
 		return line ? (JSON.parse(line.slice('soak-memory '.length)) as Memory) : null;
 	};
 	const accounts = await Promise.all(Array.from({ length: ACCOUNTS }, () => sharedDemo()));
@@ -39,7 +50,11 @@ async function main() {
 	const errors: string[] = [];
 	let requests = 0;
 
-	const jsonHeaders = { 'content-type': 'application/json', accept: 'application/json', origin: app.baseURL };
+	const jsonHeaders = {
+		'content-type': 'application/json',
+		accept: 'application/json',
+		origin: app.baseURL
+	};
 	await new Promise((r) => setTimeout(r, 5500));
 	const start = memory();
 	console.log(`soak: ${MINUTES} min, ${ACCOUNTS} accounts, server at ${app.baseURL}`);
@@ -49,16 +64,35 @@ async function main() {
 	async function account(a: (typeof accounts)[number]) {
 		const designer = new Client(app.baseURL).useSession(a.designer.session);
 		const visitor = new Client(app.baseURL);
-		let version = (await designer.get(`/api/builds/${a.buildId}/variants/${a.variantId}`, { accept: 'application/json' })).json<{ version: number }>().version;
+		let version = (
+			await designer.get(`/api/builds/${a.buildId}/variants/${a.variantId}`, {
+				accept: 'application/json'
+			})
+		).json<{ version: number }>().version;
 		let margin = 2;
 		const actions: [string, () => Promise<{ status: number; text: string }>, number[]][] = [
 			['editor', () => designer.get(`/builds/${a.buildId}`), [200]],
-			['server check', () => designer.request('POST', `/api/builds/${a.buildId}/check`, { body: JSON.stringify({ settings: a.settings }), headers: jsonHeaders }), [200]],
+			[
+				'server check',
+				() =>
+					designer.request('POST', `/api/builds/${a.buildId}/check`, {
+						body: JSON.stringify({ settings: a.settings }),
+						headers: jsonHeaders
+					}),
+				[200]
+			],
 			[
 				'save',
 				async () => {
 					margin = margin === 2 ? 2.5 : 2;
-					const res = await designer.request('PUT', `/api/builds/${a.buildId}/variants/${a.variantId}`, { body: JSON.stringify({ version, settings: { ...a.settings, marginMm: margin } }), headers: jsonHeaders });
+					const res = await designer.request(
+						'PUT',
+						`/api/builds/${a.buildId}/variants/${a.variantId}`,
+						{
+							body: JSON.stringify({ version, settings: { ...a.settings, marginMm: margin } }),
+							headers: jsonHeaders
+						}
+					);
 					if (res.status === 200) version = res.json<{ version: number }>().version;
 					return res;
 				},
@@ -66,18 +100,42 @@ async function main() {
 			],
 			['sheet pdf', () => designer.get(`/builds/${a.buildId}/sheet.pdf`), [200]],
 			['client page', () => visitor.get(`/s/${a.token}`), [200]],
-			['api check', () => designer.request('POST', '/api/check', { body: demo, headers: jsonHeaders }), [200]],
-			['sweep', () => designer.request('POST', '/api/sweep', { body: JSON.stringify({ scene: JSON.parse(demo), control: { kind: 'divider', id: 'spine' } }), headers: jsonHeaders }), [200]]
+			[
+				'api check',
+				() => designer.request('POST', '/api/check', { body: demo, headers: jsonHeaders }),
+				[200]
+			],
+			[
+				'sweep',
+				() =>
+					designer.request('POST', '/api/sweep', {
+						body: JSON.stringify({
+							scene: JSON.parse(demo),
+							control: { kind: 'divider', id: 'spine' }
+						}),
+						headers: jsonHeaders
+					}),
+				[200]
+			]
 		];
 		let k = 0;
 		while (Date.now() < endAt) {
 			// Every 25th request is the heaviest scene the limits allow, to the worker pool.
-			const [name, run, ok] = ++k % 25 === 0 ? (['heavy check', () => designer.request('POST', '/api/check', { body: heavy, headers: jsonHeaders }), [200] as number[]] as const) : actions[Math.floor(Math.random() * actions.length)];
+			const [name, run, ok] =
+				++k % 25 === 0
+					? ([
+							'heavy check',
+							() => designer.request('POST', '/api/check', { body: heavy, headers: jsonHeaders }),
+							[200] as number[]
+						] as const)
+					: actions[Math.floor(Math.random() * actions.length)];
 			try {
 				const res = await run();
 				requests++;
 				counts.set(`${name} ${res.status}`, (counts.get(`${name} ${res.status}`) ?? 0) + 1);
-				if (!ok.includes(res.status)) errors.push(`${name}: ${res.status} ${res.text.slice(0, 160)}`);
+				if (!ok.includes(res.status)) {
+					errors.push(`${name}: ${res.status} ${res.text.slice(0, 160)}`);
+				}
 			} catch (e) {
 				requests++;
 				errors.push(`${name}: ${(e as Error).message}`);
@@ -86,7 +144,13 @@ async function main() {
 		}
 	}
 
-	const ticker = setInterval(() => console.log(`  ${new Date().toISOString()} ${requests} requests, ${errors.length} errors; ${show(memory())}`), 60_000);
+	const ticker = setInterval(
+		() =>
+			console.log(
+				`  ${new Date().toISOString()} ${requests} requests, ${errors.length} errors; ${show(memory())}`
+			),
+		60_000
+	);
 	await Promise.all(accounts.map(account));
 	clearInterval(ticker);
 	await new Promise((r) => setTimeout(r, 5500));
@@ -97,7 +161,18 @@ async function main() {
 	console.log(`memory at end:   ${show(end)}`);
 	console.log(`errors: ${errors.length}`);
 	for (const e of errors.slice(0, 20)) console.log(`  ${e}`);
-	console.log(JSON.stringify({ minutes: MINUTES, accounts: ACCOUNTS, requests, errors: errors.length, rssStartMb: start && +(start.rss / 2 ** 20).toFixed(1), rssEndMb: end && +(end.rss / 2 ** 20).toFixed(1), heapStartMb: start && +(start.heapUsed / 2 ** 20).toFixed(1), heapEndMb: end && +(end.heapUsed / 2 ** 20).toFixed(1) }));
+	console.log(
+		JSON.stringify({
+			minutes: MINUTES,
+			accounts: ACCOUNTS,
+			requests,
+			errors: errors.length,
+			rssStartMb: start && +(start.rss / 2 ** 20).toFixed(1),
+			rssEndMb: end && +(end.rss / 2 ** 20).toFixed(1),
+			heapStartMb: start && +(start.heapUsed / 2 ** 20).toFixed(1),
+			heapEndMb: end && +(end.heapUsed / 2 ** 20).toFixed(1)
+		})
+	);
 	await app.stop();
 	await closeDb();
 	process.exit(errors.length ? 1 : 0);

@@ -12,7 +12,14 @@ import { deleteObjects, deleteStray, listObjects, storeLocation } from '../src/l
 const remove = process.argv.includes('--delete-orphans');
 const minAgeMs = Number(process.env.ORPHAN_AGE_MIN ?? 15) * 60_000;
 
-const rows = await db.select({ id: photos.id, buildId: photos.buildId, storageKey: photos.storageKey, thumbKey: photos.thumbKey }).from(photos);
+const rows = await db
+	.select({
+		id: photos.id,
+		buildId: photos.buildId,
+		storageKey: photos.storageKey,
+		thumbKey: photos.thumbKey
+	})
+	.from(photos);
 const named = new Map<string, { id: string; buildId: string }>();
 for (const r of rows) {
 	named.set(r.storageKey, r);
@@ -36,7 +43,9 @@ if (remove) {
 	await deleteObjects(old.map((o) => o.key));
 	for (const s of strays) await deleteStray(s);
 	left -= old.length + strays.length;
-	console.log(`deleted ${old.length + strays.length} files with no row${left ? `; ${left} newer than ${minAgeMs / 60_000} min kept` : ''}`);
+	console.log(
+		`deleted ${old.length + strays.length} files with no row${left ? `; ${left} newer than ${minAgeMs / 60_000} min kept` : ''}`
+	);
 }
 await closeDb();
 process.exit(left + missing.length > 0 ? 1 : 0);

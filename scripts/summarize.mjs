@@ -14,7 +14,9 @@ if (existsSync(vitestFile)) {
 	failed += v.numFailedTests;
 	skipped += v.numPendingTests + (v.numTodoTests ?? 0);
 	// A suite that failed to load has no tests but is a failure.
-	const brokenSuites = v.testResults.filter((r) => r.status === 'failed' && r.assertionResults.length === 0).length;
+	const brokenSuites = v.testResults.filter(
+		(r) => r.status === 'failed' && r.assertionResults.length === 0
+	).length;
 	failed += brokenSuites;
 	lines.push(`vitest: ${v.numPassedTests} passed, ${v.numFailedTests + brokenSuites} failed`);
 } else if (vitestRc !== '0') {

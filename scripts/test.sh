@@ -43,6 +43,7 @@ step() {
 	if "$@"; then steps_pass=$((steps_pass + 1)); echo "$name: ok" >>"$results/steps"; else steps_fail=$((steps_fail + 1)); echo "$name: FAILED" >>"$results/steps"; fi
 }
 
+step "format (prettier --check)" node_modules/.bin/prettier --check --log-level warn .
 step "lint (eslint)" node_modules/.bin/eslint .
 step "types (svelte-check)" node_modules/.bin/svelte-check --tsconfig ./tsconfig.json --threshold error --output human
 step "build (vite)" node_modules/.bin/vite build --logLevel warn

@@ -14,7 +14,9 @@ import { scheduleDrain } from '$lib/server/outbox';
 export const init: ServerInit = () => {
 	const problems = productionProblems();
 	if (problems.length) {
-		console.error(`Interstice will not start in production mode (NODE_ENV=production):\n${problems.map((p) => `  - ${p}`).join('\n')}`);
+		console.error(
+			`Interstice will not start in production mode (NODE_ENV=production):\n${problems.map((p) => `  - ${p}`).join('\n')}`
+		);
 		process.exit(1);
 	}
 	// Send account mail a previous process queued but did not get to, and keep sweeping.
@@ -54,11 +56,15 @@ const securityHeaders: Handle = async ({ event, resolve }) => {
 };
 
 /** Development tools answer only when they are on; otherwise the request goes on to a 404. */
-const devTools: Handle = async ({ event, resolve }) => (config.devTools && (await devToolsHandle(event))) || resolve(event);
+const devTools: Handle = async ({ event, resolve }) =>
+	(config.devTools && (await devToolsHandle(event))) || resolve(event);
 
 export const handle = sequence(securityHeaders, refuseControlCharsInAddress, session, devTools);
 
 export const handleError: HandleServerError = ({ error, status }) => {
 	if (status >= 500) console.error(error);
-	return { message: status === 404 ? 'There is nothing at this address.' : 'Something went wrong on our side.' };
+	return {
+		message:
+			status === 404 ? 'There is nothing at this address.' : 'Something went wrong on our side.'
+	};
 };

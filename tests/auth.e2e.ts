@@ -4,7 +4,15 @@
  * browser, signs up (the invitation proves the address), accepts, and works in the studio.
  */
 import { expect, test } from '@playwright/test';
-import { clearBrowserRateLimits, closeDb, createInvite, createUser, signInAs, studioWithMembers, uniqueEmail } from './helpers/accounts';
+import {
+	clearBrowserRateLimits,
+	closeDb,
+	createInvite,
+	createUser,
+	signInAs,
+	studioWithMembers,
+	uniqueEmail
+} from './helpers/accounts';
 import { extractLink, waitForMail } from './helpers/mail';
 
 test.beforeAll(async () => {
@@ -14,7 +22,11 @@ test.afterAll(async () => {
 	await closeDb();
 });
 
-test('sign up, make a studio, invite a designer who signs up from the mail and sees the studio', async ({ page, browser, baseURL }, testInfo) => {
+test('sign up, make a studio, invite a designer who signs up from the mail and sees the studio', async ({
+	page,
+	browser,
+	baseURL
+}, testInfo) => {
 	const ownerEmail = uniqueEmail('owner');
 	const designerEmail = uniqueEmail('designer');
 	const studioName = `Dockside Bench ${Date.now().toString(36)}`;
@@ -42,7 +54,10 @@ test('sign up, make a studio, invite a designer who signs up from the mail and s
 	await expect(page.getByRole('heading', { name: 'Builds', exact: true })).toBeVisible();
 	await expect(page.getByRole('banner')).toContainText(`${studioName} · owner`);
 
-	await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Members' }).click();
+	await page
+		.getByRole('navigation', { name: 'Main' })
+		.getByRole('link', { name: 'Members' })
+		.click();
 	await expect(page.getByRole('heading', { name: `Members of ${studioName}` })).toBeVisible();
 	await page.getByLabel('E-mail').fill(designerEmail);
 	await page.getByRole('combobox', { name: 'Role', exact: true }).selectOption('designer');
@@ -73,7 +88,9 @@ test('sign up, make a studio, invite a designer who signs up from the mail and s
 	await expect(designer.getByRole('banner')).toContainText(`${studioName} · designer`);
 	await expect(designer.getByRole('heading', { name: 'Builds', exact: true })).toBeVisible();
 	// Designers do not manage members.
-	await expect(designer.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Members' })).toHaveCount(0);
+	await expect(
+		designer.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Members' })
+	).toHaveCount(0);
 	await designerContext.close();
 
 	// The owner sees the designer among the members, and no invitation left open.
@@ -83,7 +100,10 @@ test('sign up, make a studio, invite a designer who signs up from the mail and s
 	await expect(row.getByLabel('Role of Dev Designer')).toHaveValue('designer');
 	await expect(page.getByText('No open invitations.')).toBeVisible();
 	await page.screenshot({ path: testInfo.outputPath('members.png'), fullPage: true });
-	await testInfo.attach('members page', { path: testInfo.outputPath('members.png'), contentType: 'image/png' });
+	await testInfo.attach('members page', {
+		path: testInfo.outputPath('members.png'),
+		contentType: 'image/png'
+	});
 });
 
 /** The forms work without JavaScript too (plain posts), and each mode is a separate browser here. */
@@ -91,20 +111,29 @@ for (const javaScript of [true, false]) {
 	test.describe(javaScript ? 'with JavaScript' : 'without JavaScript', () => {
 		test.use({ javaScriptEnabled: javaScript });
 
-		test('forgot password: the mailed link sets a new one, and works only once', async ({ page }) => {
+		test('forgot password: the mailed link sets a new one, and works only once', async ({
+			page
+		}) => {
 			const user = await createUser();
 			await page.goto('/signin');
 			await page.getByRole('link', { name: 'Forgot your password?' }).click();
 			await page.getByLabel('E-mail').fill(user.email);
 			await page.getByRole('button', { name: 'Send the link' }).click();
-			await expect(page.getByRole('status')).toContainText('a link to choose a new password is on its way');
+			await expect(page.getByRole('status')).toContainText(
+				'a link to choose a new password is on its way'
+			);
 
-			const link = extractLink((await waitForMail(user.email, { subject: 'Reset your Interstice password' })).text, '/reset/');
+			const link = extractLink(
+				(await waitForMail(user.email, { subject: 'Reset your Interstice password' })).text,
+				'/reset/'
+			);
 			await page.goto(link);
 			await page.getByLabel('New password').fill('fresh-password-2');
 			await page.getByRole('button', { name: 'Save password' }).click();
 			await expect(page).toHaveURL(/\/signin\?reset=1$/);
-			await expect(page.getByRole('status')).toHaveText('Your password was changed. Sign in with the new one.');
+			await expect(page.getByRole('status')).toHaveText(
+				'Your password was changed. Sign in with the new one.'
+			);
 
 			await page.getByLabel('E-mail').fill(user.email);
 			await page.getByLabel('Password').fill('fresh-password-2');
@@ -115,17 +144,28 @@ for (const javaScript of [true, false]) {
 			await expect(page.getByRole('heading', { name: 'This link no longer works' })).toBeVisible();
 		});
 
-		test('an invitation is accepted by someone already signed in', async ({ page, context, baseURL }) => {
+		test('an invitation is accepted by someone already signed in', async ({
+			page,
+			context,
+			baseURL
+		}) => {
 			const f = await studioWithMembers();
 			const invitee = await createUser();
-			const inv = await createInvite({ studioId: f.studio.id, role: 'client', email: invitee.email, invitedBy: f.owner.id });
+			const inv = await createInvite({
+				studioId: f.studio.id,
+				role: 'client',
+				email: invitee.email,
+				invitedBy: f.owner.id
+			});
 			await signInAs(context, baseURL ?? '', invitee.id);
 			await page.goto(`/invite/${inv.token}`);
 			await expect(page.getByRole('heading', { name: `Join ${f.studio.name}` })).toBeVisible();
 			await page.getByRole('button', { name: 'Accept invitation' }).click();
 			await expect(page).toHaveURL(/\/builds$/);
 			await expect(page.getByRole('banner')).toContainText(`${f.studio.name} · client`);
-			await expect(page.getByRole('heading', { name: 'Nothing shared with you yet' })).toBeVisible();
+			await expect(
+				page.getByRole('heading', { name: 'Nothing shared with you yet' })
+			).toBeVisible();
 		});
 	});
 }

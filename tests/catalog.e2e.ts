@@ -17,7 +17,11 @@ async function designerIn(context: Parameters<typeof signInAs>[0], baseURL: stri
 	return { studio, designer };
 }
 
-test('a designer creates an enclosure with a divider and sees the 3D preview and the litres', async ({ page, context, baseURL }, testInfo) => {
+test('a designer creates an enclosure with a divider and sees the 3D preview and the litres', async ({
+	page,
+	context,
+	baseURL
+}, testInfo) => {
 	await designerIn(context, baseURL!);
 	await page.goto('/enclosures');
 	await page.getByRole('link', { name: 'New enclosure' }).click();
@@ -40,21 +44,34 @@ test('a designer creates an enclosure with a divider and sees the 3D preview and
 
 	const preview = page.getByRole('complementary', { name: 'Preview' });
 	await preview.getByLabel('Show Divider 1 at').selectOption({ label: '3 slots (113.04 mm)' });
-	await expect(preview.getByRole('row', { name: /card side/ })).toContainText(/60\.96\smm × 316\.0\smm × 236\.0\smm/);
-	await expect(preview.getByRole('row', { name: /CPU side/ })).toContainText(/113\.04\smm × 316\.0\smm × 236\.0\smm/);
+	await expect(preview.getByRole('row', { name: /card side/ })).toContainText(
+		/60\.96\smm × 316\.0\smm × 236\.0\smm/
+	);
+	await expect(preview.getByRole('row', { name: /CPU side/ })).toContainText(
+		/113\.04\smm × 316\.0\smm × 236\.0\smm/
+	);
 	await expect(page.getByTestId('preview-canvas').locator('canvas')).toBeVisible();
 
 	await page.getByRole('button', { name: 'Create enclosure' }).click();
 	await expect(page).toHaveURL(/\/enclosures\/\w+\?saved=1$/);
 	await expect(page.getByRole('heading', { name: 'Bench sandwich' })).toBeVisible();
 	await expect(page.getByTestId('inner-litres')).toHaveText('13.13 L');
-	await expect(page.getByRole('group', { name: 'Divider 1' }).getByLabel('Position name').first()).toHaveValue('2 slots');
+	await expect(
+		page.getByRole('group', { name: 'Divider 1' }).getByLabel('Position name').first()
+	).toHaveValue('2 slots');
 	await expect(page.getByTestId('preview-canvas').locator('canvas')).toBeVisible();
 	await page.waitForTimeout(500);
-	await testInfo.attach('enclosure editor', { body: await page.screenshot({ fullPage: true }), contentType: 'image/png' });
+	await testInfo.attach('enclosure editor', {
+		body: await page.screenshot({ fullPage: true }),
+		contentType: 'image/png'
+	});
 });
 
-test('a designer imports a CSV with one bad row, commits the good rows and finds a part by searching', async ({ page, context, baseURL }, testInfo) => {
+test('a designer imports a CSV with one bad row, commits the good rows and finds a part by searching', async ({
+	page,
+	context,
+	baseURL
+}, testInfo) => {
 	await designerIn(context, baseURL!);
 	const tag = Date.now().toString(36);
 	const csv = [
@@ -66,14 +83,23 @@ test('a designer imports a CSV with one bad row, commits the good rows and finds
 
 	await page.goto('/parts');
 	await page.getByRole('link', { name: 'Import CSV' }).click();
-	await page.getByLabel(/CSV file/).setInputFiles({ name: 'bench.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) });
+	await page
+		.getByLabel(/CSV file/)
+		.setInputFiles({ name: 'bench.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) });
 	await page.getByRole('button', { name: 'Check the file' }).click();
 	await expect(page.getByRole('heading', { name: /2 rows ready, 1 with problems/ })).toBeVisible();
-	await expect(page.getByRole('row', { name: new RegExp(`Short pump ${tag}`) })).toContainText('row 3: depth must be a positive number in mm');
-	await testInfo.attach('import preview', { body: await page.screenshot({ fullPage: true }), contentType: 'image/png' });
+	await expect(page.getByRole('row', { name: new RegExp(`Short pump ${tag}`) })).toContainText(
+		'row 3: depth must be a positive number in mm'
+	);
+	await testInfo.attach('import preview', {
+		body: await page.screenshot({ fullPage: true }),
+		contentType: 'image/png'
+	});
 
 	await page.getByRole('button', { name: 'Import 2 valid rows' }).click();
-	await expect(page.getByRole('heading', { name: 'Imported: 2 created, 0 updated, 1 skipped' })).toBeVisible();
+	await expect(
+		page.getByRole('heading', { name: 'Imported: 2 created, 0 updated, 1 skipped' })
+	).toBeVisible();
 
 	await page.goto('/parts');
 	await page.getByRole('searchbox', { name: 'Search' }).fill(`meter ${tag}`);
@@ -83,10 +109,17 @@ test('a designer imports a CSV with one bad row, commits the good rows and finds
 	await expect(table.getByRole('link', { name: `Tall reservoir ${tag}` })).toHaveCount(0);
 	await expect(table.getByRole('link', { name: `Short pump ${tag}` })).toHaveCount(0);
 	await expect(page.getByText('1 part · page 1 of 1')).toBeVisible();
-	await testInfo.attach('search', { body: await page.screenshot({ fullPage: true }), contentType: 'image/png' });
+	await testInfo.attach('search', {
+		body: await page.screenshot({ fullPage: true }),
+		contentType: 'image/png'
+	});
 });
 
-test('a second save of the same enclosure is stopped, keeps what was typed and offers the newer version', async ({ page, context, baseURL }) => {
+test('a second save of the same enclosure is stopped, keeps what was typed and offers the newer version', async ({
+	page,
+	context,
+	baseURL
+}) => {
 	await designerIn(context, baseURL!);
 	await page.goto('/enclosures/new');
 	await page.getByLabel('Name', { exact: true }).fill('Shared bench box');
@@ -112,7 +145,9 @@ test('a second save of the same enclosure is stopped, keeps what was typed and o
 
 	await page.getByLabel('Name', { exact: true }).fill('Typed here');
 	await page.getByRole('button', { name: 'Save enclosure' }).click();
-	await expect(page.getByRole('alert').filter({ hasText: 'Not saved: someone else saved first' })).toBeVisible();
+	await expect(
+		page.getByRole('alert').filter({ hasText: 'Not saved: someone else saved first' })
+	).toBeVisible();
 	await expect(page.getByLabel('Name', { exact: true })).toHaveValue('Typed here');
 	await page.getByRole('button', { name: 'Load their version into the form' }).click();
 	await expect(page.getByLabel('Width (X), mm')).toHaveValue('210');

@@ -6,7 +6,14 @@
  */
 import { expect, test, type Page } from '@playwright/test';
 import { demoBuild } from '../src/lib/server/sharing/test-factory';
-import { clearBrowserRateLimits, closeDb, createMember, createStudio, signInAs, uniqueEmail } from './helpers/accounts';
+import {
+	clearBrowserRateLimits,
+	closeDb,
+	createMember,
+	createStudio,
+	signInAs,
+	uniqueEmail
+} from './helpers/accounts';
 import { extractLink, waitForMail } from './helpers/mail';
 
 test.beforeAll(async () => {
@@ -22,11 +29,20 @@ async function shot(page: Page, testInfo: import('@playwright/test').TestInfo, n
 	await testInfo.attach(name, { path, contentType: 'image/png' });
 }
 
-test('share by e-mail, the client reviews, comments, approves and pays the deposit', async ({ page, context, browser, baseURL }, testInfo) => {
+test('share by e-mail, the client reviews, comments, approves and pays the deposit', async ({
+	page,
+	context,
+	browser,
+	baseURL
+}, testInfo) => {
 	test.setTimeout(120_000);
 	const studio = await createStudio();
 	const designer = await createMember(studio.id, 'designer');
-	const build = await demoBuild({ studioId: studio.id, createdBy: designer.id, name: 'Walnut desk build' });
+	const build = await demoBuild({
+		studioId: studio.id,
+		createdBy: designer.id,
+		name: 'Walnut desk build'
+	});
 	const clientEmail = uniqueEmail('client');
 
 	// The designer shares Variant A with the client by e-mail, and shows the quote.
@@ -62,7 +78,9 @@ test('share by e-mail, the client reviews, comments, approves and pays the depos
 	await client.goto(link);
 	await expect(client.getByRole('heading', { name: 'Walnut desk build' })).toBeVisible();
 	// The demo's card (±1 mm) is 2 mm from the right panel: under the 2 mm margin in the worst case.
-	await expect(client.getByTestId('fit-headline')).toHaveText(/^Everything fits, but 2 places are closer than .*2\.0\u2009mm \(1\.0 worst case\) to the right of the graphics card/);
+	await expect(client.getByTestId('fit-headline')).toHaveText(
+		/^Everything fits, but 2 places are closer than .*2\.0\u2009mm \(1\.0 worst case\) to the right of the graphics card/
+	);
 	await expect(client.getByRole('heading', { name: 'Good to know' })).toBeVisible();
 	await expect(client.getByTestId('quote-total')).toHaveText('€1,426.08');
 
@@ -90,10 +108,14 @@ test('share by e-mail, the client reviews, comments, approves and pays the depos
 	const picked = preview.locator('..').getByText(/\(width × height × depth\)/);
 	await expect(picked).toBeVisible();
 	await client.getByRole('button', { name: 'Comment on this part' }).click();
-	const pinned = await client.getByLabel('About').evaluate((s: HTMLSelectElement) => s.selectedOptions[0].textContent ?? '');
+	const pinned = await client
+		.getByLabel('About')
+		.evaluate((s: HTMLSelectElement) => s.selectedOptions[0].textContent ?? '');
 	expect(pinned).toMatch(/^.+ — .+$/);
 	const partName = pinned.split(' — ')[1];
-	await client.getByLabel('Comment', { exact: true }).fill('Is there room to reach the <b>fittings</b> here?');
+	await client
+		.getByLabel('Comment', { exact: true })
+		.fill('Is there room to reach the <b>fittings</b> here?');
 	await client.getByRole('button', { name: 'Post comment' }).click();
 	const thread = client.getByTestId('thread');
 	await expect(thread).toContainText('Is there room to reach the <b>fittings</b> here?');
@@ -124,7 +146,9 @@ test('share by e-mail, the client reviews, comments, approves and pays the depos
 	await client.setViewportSize({ width: 390, height: 844 });
 	await client.goto(link);
 	await expect(client.getByTestId('fit-headline')).toBeVisible();
-	await expect(client.getByTestId('preview')).toHaveAttribute('data-ready', 'yes', { timeout: 30_000 });
+	await expect(client.getByTestId('preview')).toHaveAttribute('data-ready', 'yes', {
+		timeout: 30_000
+	});
 	const width = await client.evaluate(() => document.documentElement.scrollWidth);
 	expect(width, 'nothing wider than the phone').toBeLessThanOrEqual(390);
 	await shot(client, testInfo, 'client-page-phone');
@@ -144,7 +168,12 @@ test('a revoked link shows a clear page, and so does one that never existed', as
 	const designer = await createMember(studio.id, 'designer');
 	const build = await demoBuild({ studioId: studio.id, createdBy: designer.id });
 	const { createShareLink, revokeShareLink } = await import('../src/lib/server/sharing/links');
-	const { link, token } = await createShareLink({ studioId: studio.id, buildId: build.buildId, variantId: build.variantId, createdBy: designer.id });
+	const { link, token } = await createShareLink({
+		studioId: studio.id,
+		buildId: build.buildId,
+		variantId: build.variantId,
+		createdBy: designer.id
+	});
 	await revokeShareLink(build.buildId, link.id);
 	const res = await page.goto(`/s/${token}`);
 	expect(res?.status()).toBe(410);
@@ -155,20 +184,38 @@ test('a revoked link shows a clear page, and so does one that never existed', as
 	await expect(page.getByRole('heading', { name: 'This link does not work' })).toBeVisible();
 });
 
-test('photos: the designer uploads with progress, a disguised file is refused, the client sees the photo', async ({ page, context, browser, baseURL }) => {
+test('photos: the designer uploads with progress, a disguised file is refused, the client sees the photo', async ({
+	page,
+	context,
+	browser,
+	baseURL
+}) => {
 	const sharp = (await import('sharp')).default;
 	const studio = await createStudio();
 	const designer = await createMember(studio.id, 'designer');
 	const build = await demoBuild({ studioId: studio.id, createdBy: designer.id });
 	const { createShareLink } = await import('../src/lib/server/sharing/links');
-	const { token } = await createShareLink({ studioId: studio.id, buildId: build.buildId, variantId: build.variantId, createdBy: designer.id });
-	const photo = await sharp({ create: { width: 1600, height: 1200, channels: 3, background: '#7f8b9c' } }).jpeg({ quality: 90 }).toBuffer();
+	const { token } = await createShareLink({
+		studioId: studio.id,
+		buildId: build.buildId,
+		variantId: build.variantId,
+		createdBy: designer.id
+	});
+	const photo = await sharp({
+		create: { width: 1600, height: 1200, channels: 3, background: '#7f8b9c' }
+	})
+		.jpeg({ quality: 90 })
+		.toBuffer();
 
 	await signInAs(context, baseURL!, designer.id);
 	await page.goto(`/builds/${build.buildId}/photos`);
 	await page.getByLabel(/^Photos \(JPEG, PNG or WebP/).setInputFiles([
 		{ name: 'bench.jpg', mimeType: 'image/jpeg', buffer: photo },
-		{ name: 'notes.jpg', mimeType: 'image/jpeg', buffer: Buffer.from('a text file wearing a photo name') }
+		{
+			name: 'notes.jpg',
+			mimeType: 'image/jpeg',
+			buffer: Buffer.from('a text file wearing a photo name')
+		}
 	]);
 	await page.getByLabel('Caption (optional)').fill('Loop filled, leak test running');
 	await page.getByRole('button', { name: 'Upload' }).click();

@@ -42,9 +42,12 @@ async function openEditor(browser: Browser) {
 	return { context, page };
 }
 
-const versionOf = async (page: Page) => Number(/revision (\d+)/.exec((await page.getByTestId('save-status').textContent()) ?? '')?.[1]);
+const versionOf = async (page: Page) =>
+	Number(/revision (\d+)/.exec((await page.getByTestId('save-status').textContent()) ?? '')?.[1]);
 
-test('the spine at "2 slots": the card collides in the report and in 3D; back at "3 slots" it fits, and the positions persist', async ({ browser }, testInfo) => {
+test('the spine at "2 slots": the card collides in the report and in 3D; back at "3 slots" it fits, and the positions persist', async ({
+	browser
+}, testInfo) => {
 	const { context, page } = await openEditor(browser);
 	const spine = page.getByRole('slider', { name: 'Spine' });
 	const collides = page.getByRole('group', { name: /^collides \(\d+\)$/ });
@@ -66,11 +69,17 @@ test('the spine at "2 slots": the card collides in the report and in 3D; back at
 	// The fit report: a "collides" group naming the card and the spine, with the 0.96 mm.
 	await expect(collides).toBeVisible();
 	await expect(collides).toHaveAttribute('data-status', 'collides');
-	await expect(collides.getByRole('button', { name: /graphics card.*and Spine overlap by 0\.96\smm along width/ })).toBeVisible();
+	await expect(
+		collides.getByRole('button', {
+			name: /graphics card.*and Spine overlap by 0\.96\smm along width/
+		})
+	).toBeVisible();
 	// The scene: an interference box with its label (volume, depth, the move that clears it).
 	await expect(labels.filter({ hasText: /21\.3\scm³/ })).toBeVisible();
 	await expect(labels.filter({ hasText: /21\.3\scm³/ })).toContainText(/mm deep/);
-	await expect(labels.filter({ hasText: /21\.3\scm³/ })).toContainText(/move the divider 1 step left/);
+	await expect(labels.filter({ hasText: /21\.3\scm³/ })).toContainText(
+		/move the divider 1 step left/
+	);
 	await page.screenshot({ path: testInfo.outputPath('spine-at-two-slots.png') });
 	await scene.screenshot({ path: testInfo.outputPath('scene-at-two-slots.png') });
 
@@ -97,11 +106,16 @@ test('the spine at "2 slots": the card collides in the report and in 3D; back at
 	await expect(status).toHaveText(`Saved · revision ${savedVersion + 1}`);
 	await page.reload();
 	await expect(spine).toHaveAttribute('aria-valuetext', '4 slots, 65.68\u2009mm');
-	await expect(page.getByRole('slider', { name: 'Card support bar' })).toHaveAttribute('aria-valuetext', /^0\.0\u2009mm/);
+	await expect(page.getByRole('slider', { name: 'Card support bar' })).toHaveAttribute(
+		'aria-valuetext',
+		/^0\.0\u2009mm/
+	);
 	await context.close();
 });
 
-test('a sweep of the spine loads its charts on demand and says where nothing collides', async ({ browser }) => {
+test('a sweep of the spine loads its charts on demand and says where nothing collides', async ({
+	browser
+}) => {
 	await restoreDemoVariant();
 	const { context, page } = await openEditor(browser);
 	await page.getByRole('button', { name: 'every position at once' }).click();
@@ -114,13 +128,20 @@ test('a sweep of the spine loads its charts on demand and says where nothing col
 	await expect(table.getByRole('row', { name: /^2 slots.*37\.3/ })).toBeVisible();
 	await expect(page.getByText(/Nothing collides at 65\.68\smm – 86\.0\smm/)).toBeVisible();
 	await expect(page.getByText(/Compartment size along the spine's axis/)).toBeVisible();
-	await expect(page.getByRole('region', { name: 'Build view' }).locator('svg').first()).toBeVisible();
+	await expect(
+		page.getByRole('region', { name: 'Build view' }).locator('svg').first()
+	).toBeVisible();
 	await table.getByRole('button', { name: 'Use 2 slots' }).click();
-	await expect(page.getByRole('slider', { name: 'Spine' })).toHaveAttribute('aria-valuetext', '2 slots, 106.32\u2009mm');
+	await expect(page.getByRole('slider', { name: 'Spine' })).toHaveAttribute(
+		'aria-valuetext',
+		'2 slots, 106.32\u2009mm'
+	);
 	await context.close();
 });
 
-test('a second browser saving first: the stale save gets the conflict view, and "keep mine" saves over it', async ({ browser }) => {
+test('a second browser saving first: the stale save gets the conflict view, and "keep mine" saves over it', async ({
+	browser
+}) => {
 	await restoreDemoVariant();
 	const a = await openEditor(browser);
 	const b = await openEditor(browser);
@@ -132,12 +153,20 @@ test('a second browser saving first: the stale save gets the conflict view, and 
 
 	// A, still on the version it opened, moves the spine the other way and autosaves: 409.
 	await a.page.getByRole('button', { name: 'Spine: one position higher' }).click();
-	const dialog = a.page.getByRole('dialog', { name: 'Someone saved this variant after you opened it' });
+	const dialog = a.page.getByRole('dialog', {
+		name: 'Someone saved this variant after you opened it'
+	});
 	await expect(dialog).toBeVisible();
-	await expect(a.page.getByTestId('save-status')).toHaveText('Not saved: someone saved a newer revision');
+	await expect(a.page.getByTestId('save-status')).toHaveText(
+		'Not saved: someone saved a newer revision'
+	);
 	// Both scenes side by side: mine at "2 slots", theirs at "4 slots".
-	await expect(dialog.getByRole('heading', { name: 'Yours' }).locator('..')).toContainText('Spine: 106.32\u2009mm');
-	await expect(dialog.getByRole('heading', { name: `Saved (revision ${opened + 1})` }).locator('..')).toContainText('Spine: 65.68\u2009mm');
+	await expect(dialog.getByRole('heading', { name: 'Yours' }).locator('..')).toContainText(
+		'Spine: 106.32\u2009mm'
+	);
+	await expect(
+		dialog.getByRole('heading', { name: `Saved (revision ${opened + 1})` }).locator('..')
+	).toContainText('Spine: 65.68\u2009mm');
 
 	await dialog.getByRole('button', { name: 'Keep mine and save it' }).click();
 	await expect(dialog).toBeHidden();
@@ -145,12 +174,17 @@ test('a second browser saving first: the stale save gets the conflict view, and 
 
 	// B reloads and sees A's scene.
 	await b.page.reload();
-	await expect(b.page.getByRole('slider', { name: 'Spine' })).toHaveAttribute('aria-valuetext', '2 slots, 106.32\u2009mm');
+	await expect(b.page.getByRole('slider', { name: 'Spine' })).toHaveAttribute(
+		'aria-valuetext',
+		'2 slots, 106.32\u2009mm'
+	);
 	await a.context.close();
 	await b.context.close();
 });
 
-test('"use the saved version" takes the other browser’s scene and keeps mine one undo away', async ({ browser }) => {
+test('"use the saved version" takes the other browser’s scene and keeps mine one undo away', async ({
+	browser
+}) => {
 	await restoreDemoVariant();
 	const a = await openEditor(browser);
 	const b = await openEditor(browser);
@@ -158,7 +192,9 @@ test('"use the saved version" takes the other browser’s scene and keeps mine o
 	await expect(b.page.getByTestId('save-status')).toHaveText('Saved · revision 2');
 
 	await a.page.getByRole('button', { name: 'Spine: one position higher' }).click();
-	const dialog = a.page.getByRole('dialog', { name: 'Someone saved this variant after you opened it' });
+	const dialog = a.page.getByRole('dialog', {
+		name: 'Someone saved this variant after you opened it'
+	});
 	await dialog.getByRole('button', { name: 'Use the saved version' }).click();
 	await expect(dialog).toBeHidden();
 	const spine = a.page.getByRole('slider', { name: 'Spine' });

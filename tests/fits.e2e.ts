@@ -9,7 +9,6 @@ import { closeDb } from '../src/lib/server/db';
 import { clearRateLimits } from '../src/lib/server/testing/factories';
 import { restoreDemoVariant } from './helpers/demo-variant';
 
-
 test.describe.configure({ mode: 'serial' });
 test.beforeAll(async () => {
 	await restoreDemoVariant();
@@ -32,7 +31,9 @@ async function openEditor(page: import('@playwright/test').Page) {
 	await expect(page.getByTestId('save-status')).toHaveText(/^Saved · revision \d+$/);
 }
 
-test('the front radiator mount: combinations with spare mm; placing one updates the report', async ({ page }) => {
+test('the front radiator mount: combinations with spare mm; placing one updates the report', async ({
+	page
+}) => {
 	await openEditor(page);
 	const stack = page.getByRole('meter', { name: 'Front radiator mount stack' });
 	await expect(stack).toHaveAttribute('aria-valuetext', '55.0 of 64.0 mm');
@@ -41,14 +42,18 @@ test('the front radiator mount: combinations with spare mm; placing one updates 
 	const combos = page.getByRole('list', { name: 'Radiator and fan combinations' });
 	const slim = combos.locator('[data-combination="demo-radiator-280+2xstd-fan-140-15"]');
 	await expect(slim).toContainText('19.0\u2009mm spare');
-	await expect(combos.locator('[data-combination="demo-radiator-280+2xstd-fan-140-25"]')).toContainText('9.0\u2009mm spare');
+	await expect(
+		combos.locator('[data-combination="demo-radiator-280+2xstd-fan-140-25"]')
+	).toContainText('9.0\u2009mm spare');
 	await slim.getByRole('button', { name: /^Place / }).click();
 	// The report follows: the stack is 30 + 15 = 45 mm of 64.
 	await expect(stack).toHaveAttribute('aria-valuetext', '45.0 of 64.0 mm');
 	await expect(page.getByTestId('save-status')).toHaveText(/^Saved · revision \d+$/);
 });
 
-test('parts × positions for two cards: the demo card at 3 slots has 2.0 mm spare, at 2 slots it collides', async ({ page }) => {
+test('parts × positions for two cards: the demo card at 3 slots has 2.0 mm spare, at 2 slots it collides', async ({
+	page
+}) => {
 	await restoreDemoVariant();
 	await openEditor(page);
 	await page.getByLabel('What fits here: the place').selectOption('replace:card');
@@ -56,10 +61,14 @@ test('parts × positions for two cards: the demo card at 3 slots has 2.0 mm spar
 	await page.getByRole('button', { name: 'Find what fits' }).click();
 	const fits = page.getByRole('list', { name: 'Parts that fit here' });
 	await expect(fits.locator('[data-fit="demo-card"]')).toBeVisible();
-	await fits.getByLabel('Compare Compact graphics card, two slots, 185 mm across positions').check();
+	await fits
+		.getByLabel('Compare Compact graphics card, two slots, 185 mm across positions')
+		.check();
 	// A second card that does not fit in the card's place at 3 slots: the one-slot 268 mm card.
 	await page.getByText(/that do not fit$/).click();
-	await page.getByLabel('Compare Graphics card with full-cover block, one slot, 268 mm across positions').check();
+	await page
+		.getByLabel('Compare Graphics card with full-cover block, one slot, 268 mm across positions')
+		.check();
 	await page.getByLabel('Control for parts × positions').selectOption({ label: 'Spine' });
 	await page.getByRole('button', { name: 'Parts × positions' }).click();
 	const grid = page.getByRole('table', { name: 'Parts × positions' });

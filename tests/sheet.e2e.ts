@@ -8,7 +8,13 @@ import { eq } from 'drizzle-orm';
 import { db } from '../src/lib/server/db';
 import { builds } from '../src/lib/server/db/schema';
 import { clearTicks, createSheetBuild } from '../src/lib/server/sheet-test-build';
-import { clearBrowserRateLimits, closeDb, createMember, createStudio, signInAs } from './helpers/accounts';
+import {
+	clearBrowserRateLimits,
+	closeDb,
+	createMember,
+	createStudio,
+	signInAs
+} from './helpers/accounts';
 
 const DEMO_BUILD = 'demo-build';
 const DEMO_DESIGNER = 'demo-designer';
@@ -19,7 +25,11 @@ async function demoBuild(): Promise<{ buildId: string; userId: string }> {
 	if (seeded) return { buildId: seeded.id, userId: DEMO_DESIGNER };
 	const studio = await createStudio();
 	const designer = await createMember(studio.id, 'designer');
-	const built = await createSheetBuild({ studioId: studio.id, userId: designer.id, name: 'Quiet desk build' });
+	const built = await createSheetBuild({
+		studioId: studio.id,
+		userId: designer.id,
+		name: 'Quiet desk build'
+	});
 	return { buildId: built.buildId, userId: designer.id };
 }
 
@@ -36,7 +46,11 @@ test.afterAll(async () => {
 
 const tickBox = (page: Page, name: RegExp) => page.getByRole('checkbox', { name });
 
-test('open the sheet, print it, tick two items, reload: still ticked', async ({ page, context, baseURL }, testInfo) => {
+test('open the sheet, print it, tick two items, reload: still ticked', async ({
+	page,
+	context,
+	baseURL
+}, testInfo) => {
 	await signInAs(context, baseURL!, target.userId);
 	await page.goto(`/builds/${target.buildId}/sheet`);
 	await expect(page.getByText('Build sheet', { exact: true })).toBeVisible();

@@ -24,7 +24,9 @@ test('fork a variant, move the bracket in the fork, compare, cameras follow', as
 	await bar.focus();
 	await page.keyboard.press('ArrowRight');
 	await expect(page.getByTestId('ctl-value-bar')).toHaveText('10.0\u2009mm');
-	await expect(page.getByTestId('save-status')).toContainText('Saved · revision 2', { timeout: 15_000 });
+	await expect(page.getByTestId('save-status')).toContainText('Saved · revision 2', {
+		timeout: 15_000
+	});
 
 	await page.goto(`/builds/demo-build/compare?variants=demo-variant-a,${forkId}`);
 	const table = page.getByRole('table', { name: 'Differences between variants' });
@@ -60,7 +62,9 @@ test('fork a variant, move the bracket in the fork, compare, cameras follow', as
 
 	// Clean up: delete the fork so other tests see the seeded build.
 	await page.goto('/builds/demo-build/variants');
-	const item = page.locator('li', { has: page.locator(`input[name="variantId"][value="${forkId}"]`) }).first();
+	const item = page
+		.locator('li', { has: page.locator(`input[name="variantId"][value="${forkId}"]`) })
+		.first();
 	await item.getByLabel('sure').check();
 	await item.getByRole('button', { name: 'Delete' }).click();
 	await expect(page.getByRole('status')).toContainText('Deleted');

@@ -6,7 +6,13 @@
 import { expect, test } from '@playwright/test';
 import { createShareLink } from '../src/lib/server/sharing/links';
 import { demoBuild } from '../src/lib/server/sharing/test-factory';
-import { clearBrowserRateLimits, closeDb, createMember, createStudio, signInAs } from './helpers/accounts';
+import {
+	clearBrowserRateLimits,
+	closeDb,
+	createMember,
+	createStudio,
+	signInAs
+} from './helpers/accounts';
 
 test.beforeAll(async () => {
 	await clearBrowserRateLimits();
@@ -15,20 +21,38 @@ test.afterAll(async () => {
 	await closeDb();
 });
 
-test('approve as the client; the designer starts a new variant from it, changes it and sends version 2; the client sees what changed', async ({ page, context, browser, baseURL }) => {
+test('approve as the client; the designer starts a new variant from it, changes it and sends version 2; the client sees what changed', async ({
+	page,
+	context,
+	browser,
+	baseURL
+}) => {
 	test.setTimeout(120_000);
 	const studio = await createStudio();
 	const designer = await createMember(studio.id, 'designer');
 	const clientMember = await createMember(studio.id, 'client');
-	const build = await demoBuild({ studioId: studio.id, createdBy: designer.id, name: 'Oak shelf build' });
-	await createShareLink({ studioId: studio.id, buildId: build.buildId, variantId: build.variantId, createdBy: designer.id, recipientEmail: clientMember.email, recipientName: 'Sam Client' });
+	const build = await demoBuild({
+		studioId: studio.id,
+		createdBy: designer.id,
+		name: 'Oak shelf build'
+	});
+	await createShareLink({
+		studioId: studio.id,
+		buildId: build.buildId,
+		variantId: build.variantId,
+		createdBy: designer.id,
+		recipientEmail: clientMember.email,
+		recipientName: 'Sam Client'
+	});
 
 	// The client member finds it on the builds page, waiting for them, and approves version 1.
 	const clientContext = await browser.newContext();
 	await signInAs(clientContext, baseURL!, clientMember.id);
 	const client = await clientContext.newPage();
 	await client.goto('/builds');
-	const card = client.getByRole('list', { name: 'Shared with you' }).getByRole('link', { name: /Oak shelf build/ });
+	const card = client
+		.getByRole('list', { name: 'Shared with you' })
+		.getByRole('link', { name: /Oak shelf build/ });
 	await expect(card).toContainText('waiting for you');
 	await card.click();
 	await expect(client.getByTestId('client-version')).toHaveText('version 1');
@@ -42,7 +66,9 @@ test('approve as the client; the designer starts a new variant from it, changes 
 	await expect(page.getByTestId('editor')).toHaveAttribute('data-ready', 'true');
 	const band = page.getByTestId('read-only-band');
 	await expect(band).toContainText('Read-only: approved by the client.');
-	await expect(band).toContainText(/Version 1 was approved by .+ on \d{1,2} \w{3} \d{4}\. To change it, start a new variant from it\./);
+	await expect(band).toContainText(
+		/Version 1 was approved by .+ on \d{1,2} \w{3} \d{4}\. To change it, start a new variant from it\./
+	);
 	await band.getByRole('button', { name: 'Start a new variant from it' }).click();
 
 	// The new variant is open for changes: move the spine one slot, save it as version 2.
@@ -62,21 +88,29 @@ test('approve as the client; the designer starts a new variant from it, changes 
 
 	// Send it to the client.
 	await page.goto(`/builds/${build.buildId}/share`);
-	await page.getByRole('combobox', { name: 'Variant' }).selectOption({ label: 'Variant A, after version 1 (version 2)' });
+	await page
+		.getByRole('combobox', { name: 'Variant' })
+		.selectOption({ label: 'Variant A, after version 1 (version 2)' });
 	await page.getByLabel("Client's e-mail").fill(clientMember.email);
 	await page.getByRole('button', { name: 'Create link' }).click();
 	await expect(page.getByTestId('created-link')).toContainText(`e-mailed to ${clientMember.email}`);
 
 	// The client sees version 2 and what changed since the version they approved.
 	await client.goto('/builds');
-	const next = client.getByRole('list', { name: 'Shared with you' }).getByRole('link', { name: /after version 1/ });
+	const next = client
+		.getByRole('list', { name: 'Shared with you' })
+		.getByRole('link', { name: /after version 1/ });
 	await expect(next).toContainText('version 2');
 	await expect(next).toContainText('waiting for you');
 	await next.click();
 	await expect(client.getByTestId('client-version')).toHaveText('version 2');
 	const changed = client.getByTestId('what-changed');
 	await expect(changed).toContainText('What changed since version 1');
-	await expect(changed).toContainText('Spine moved from 3 slots (86.0\u2009mm) to 4 slots (65.68\u2009mm).');
-	await expect(client.getByText('Studio’s note: Spine one slot over, more room for the card')).toBeVisible();
+	await expect(changed).toContainText(
+		'Spine moved from 3 slots (86.0\u2009mm) to 4 slots (65.68\u2009mm).'
+	);
+	await expect(
+		client.getByText('Studio’s note: Spine one slot over, more room for the card')
+	).toBeVisible();
 	await clientContext.close();
 });

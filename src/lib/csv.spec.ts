@@ -25,7 +25,10 @@ describe('toCsv', () => {
 	});
 
 	it('leaves numbers, plain text and empty cells alone, and quotes what RFC 4180 asks', () => {
-		const csv = toCsv(['a', 'b', 'c', 'd', 'e'], [[-3.5, 'plain, with comma', null, 'say "hi"', 'it\'s']]);
+		const csv = toCsv(
+			['a', 'b', 'c', 'd', 'e'],
+			[[-3.5, 'plain, with comma', null, 'say "hi"', "it's"]]
+		);
 		expect(csv).toBe('a,b,c,d,e\r\n-3.5,"plain, with comma",,"say ""hi""",it\'s\r\n');
 		expect(neutraliseCell(Number.NaN)).toBe('');
 	});

@@ -23,7 +23,10 @@ export function neutraliseCell(cell: CsvCell): string | number {
 
 export function toCsv(header: readonly string[], rows: readonly (readonly CsvCell[])[]): string {
 	const text = Papa.unparse(
-		{ fields: header.map(neutraliseCell) as string[], data: rows.map((r) => r.map(neutraliseCell)) },
+		{
+			fields: header.map(neutraliseCell) as string[],
+			data: rows.map((r) => r.map(neutraliseCell))
+		},
 		// Already neutralised above; papaparse only quotes.
 		{ newline: '\r\n', escapeFormulae: false, quotes: false }
 	);

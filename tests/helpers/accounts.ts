@@ -21,7 +21,9 @@ export { closeDb };
 /** Puts a fresh session of this user into the browser context. */
 export async function signInAs(context: BrowserContext, baseURL: string, userId: string) {
 	const session = await createSession(userId);
-	await context.addCookies([{ name: 'interstice_session', value: session, url: baseURL, httpOnly: true, sameSite: 'Lax' }]);
+	await context.addCookies([
+		{ name: 'interstice_session', value: session, url: baseURL, httpOnly: true, sameSite: 'Lax' }
+	]);
 }
 
 /**

@@ -13,6 +13,15 @@ export const DEMO_VARIANT = 'demo-variant-a';
 export async function restoreDemoVariant() {
 	testDatabaseUrl();
 	const s = demoSceneInput();
-	const settings = { dividerPositions: s.dividerPositions, bracketOffsets: s.bracketOffsets, placements: s.placements, marginMm: s.marginMm, budgets: s.budgets };
-	await db.update(variants).set({ settings, version: 1, updatedAt: new Date() }).where(eq(variants.id, DEMO_VARIANT));
+	const settings = {
+		dividerPositions: s.dividerPositions,
+		bracketOffsets: s.bracketOffsets,
+		placements: s.placements,
+		marginMm: s.marginMm,
+		budgets: s.budgets
+	};
+	await db
+		.update(variants)
+		.set({ settings, version: 1, updatedAt: new Date() })
+		.where(eq(variants.id, DEMO_VARIANT));
 }

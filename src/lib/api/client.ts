@@ -2,7 +2,14 @@
  * The few fetch calls the browser makes. Components never call fetch directly; they go through
  * here, so the request and response shapes live in one place.
  */
-import type { FieldIssue, FitReport, PartDef, SweepGridResult, SweepResult, SceneInput } from '$lib/geometry';
+import type {
+	FieldIssue,
+	FitReport,
+	PartDef,
+	SweepGridResult,
+	SweepResult,
+	SceneInput
+} from '$lib/geometry';
 import type { VariantSettings } from '$lib/builds/settings';
 import type { FitRow, FitTarget, PartsByPositions, RadiatorCombination } from '$lib/builds/fits';
 
@@ -24,24 +31,44 @@ async function problemOf(res: Response): Promise<Problem> {
 	}
 }
 
-export async function saveVariant(f: Fetch, buildId: string, variantId: string, version: number, settings: VariantSettings): Promise<SaveOutcome> {
-	const res = await f(`/api/builds/${encodeURIComponent(buildId)}/variants/${encodeURIComponent(variantId)}`, {
-		method: 'PUT',
-		headers: { 'content-type': 'application/json' },
-		body: JSON.stringify({ version, settings })
-	});
+export async function saveVariant(
+	f: Fetch,
+	buildId: string,
+	variantId: string,
+	version: number,
+	settings: VariantSettings
+): Promise<SaveOutcome> {
+	const res = await f(
+		`/api/builds/${encodeURIComponent(buildId)}/variants/${encodeURIComponent(variantId)}`,
+		{
+			method: 'PUT',
+			headers: { 'content-type': 'application/json' },
+			body: JSON.stringify({ version, settings })
+		}
+	);
 	if (res.status === 409) {
-		const body = (await res.json()) as { message?: string; conflict?: { version: number; settings: VariantSettings; updatedAt: string } };
+		const body = (await res.json()) as {
+			message?: string;
+			conflict?: { version: number; settings: VariantSettings; updatedAt: string };
+		};
 		// A 409 without a newer scene is a refusal (the variant is read-only), not a conflict.
 		if (body.conflict) return { kind: 'conflict', ...body.conflict };
-		return { kind: 'rejected', status: 409, problem: { message: body.message ?? 'Not saved.', issues: [] } };
+		return {
+			kind: 'rejected',
+			status: 409,
+			problem: { message: body.message ?? 'Not saved.', issues: [] }
+		};
 	}
 	if (!res.ok) return { kind: 'rejected', status: res.status, problem: await problemOf(res) };
 	const body = (await res.json()) as { version: number; report: FitReport };
 	return { kind: 'saved', ...body };
 }
 
-export async function checkOnServer(f: Fetch, buildId: string, settings: VariantSettings): Promise<FitReport | Problem> {
+export async function checkOnServer(
+	f: Fetch,
+	buildId: string,
+	settings: VariantSettings
+): Promise<FitReport | Problem> {
 	const res = await f(`/api/builds/${encodeURIComponent(buildId)}/check`, {
 		method: 'POST',
 		headers: { 'content-type': 'application/json' },
@@ -51,13 +78,33 @@ export async function checkOnServer(f: Fetch, buildId: string, settings: Variant
 	return (await res.json()) as FitReport;
 }
 
-export async function sweepOnServer(f: Fetch, body: { scene: SceneInput; control: { kind: 'divider' | 'bracket'; id: string }; controlB?: { kind: 'divider' | 'bracket'; id: string } }): Promise<SweepResult | SweepGridResult | Problem> {
-	const res = await f('/api/sweep', { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(body) });
+export async function sweepOnServer(
+	f: Fetch,
+	body: {
+		scene: SceneInput;
+		control: { kind: 'divider' | 'bracket'; id: string };
+		controlB?: { kind: 'divider' | 'bracket'; id: string };
+	}
+): Promise<SweepResult | SweepGridResult | Problem> {
+	const res = await f('/api/sweep', {
+		method: 'POST',
+		headers: { 'content-type': 'application/json' },
+		body: JSON.stringify(body)
+	});
 	if (!res.ok) return problemOf(res);
 	return res.json();
 }
 
-export type PartHit = { id: string; name: string; category: string; widthMm: number; heightMm: number; depthMm: number; isStandard: boolean; def: PartDef };
+export type PartHit = {
+	id: string;
+	name: string;
+	category: string;
+	widthMm: number;
+	heightMm: number;
+	depthMm: number;
+	isStandard: boolean;
+	def: PartDef;
+};
 
 export async function searchParts(f: Fetch, q: string, category = ''): Promise<PartHit[]> {
 	const params = new URLSearchParams({ search: '1', q, limit: '20' });
@@ -89,7 +136,11 @@ export type FitsAnswer = {
 
 /** What fits at a target: the studio's parts and the standard library, ranked by the server. */
 export async function fitsOnServer(f: Fetch, body: FitsRequest): Promise<FitsAnswer | Problem> {
-	const res = await f('/api/fits', { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(body) });
+	const res = await f('/api/fits', {
+		method: 'POST',
+		headers: { 'content-type': 'application/json' },
+		body: JSON.stringify(body)
+	});
 	if (!res.ok) return problemOf(res);
 	return (await res.json()) as FitsAnswer;
 }

@@ -29,7 +29,16 @@ describe('the demo sandwich (fixtures.ts), worked by hand', () => {
 	const { plan: p } = plan(demoScene());
 
 	it('orders the parts', () => {
-		expect(p.steps.map((s) => s.placementId)).toEqual(['board', 'cpu-block', 'psu', 'card', 'radiator', 'fan-1', 'fan-2', 'pump-res']);
+		expect(p.steps.map((s) => s.placementId)).toEqual([
+			'board',
+			'cpu-block',
+			'psu',
+			'card',
+			'radiator',
+			'fan-1',
+			'fan-2',
+			'pump-res'
+		]);
 	});
 
 	it('gives the reasons it found, and no others', () => {
@@ -43,8 +52,17 @@ describe('the demo sandwich (fixtures.ts), worked by hand', () => {
 	});
 
 	it('brings mounted parts in along their mount and free parts through the nearest panel', () => {
-		const dir = Object.fromEntries(p.steps.map((s) => [s.placementId, `${s.direction}/${s.directionFrom}`]));
-		expect(dir).toMatchObject({ board: '+x/mount', psu: '+x/mount', radiator: '+z/mount', 'fan-1': '+z/mount', card: '+x/free', 'pump-res': '+x/free' });
+		const dir = Object.fromEntries(
+			p.steps.map((s) => [s.placementId, `${s.direction}/${s.directionFrom}`])
+		);
+		expect(dir).toMatchObject({
+			board: '+x/mount',
+			psu: '+x/mount',
+			radiator: '+z/mount',
+			'fan-1': '+z/mount',
+			card: '+x/free',
+			'pump-res': '+x/free'
+		});
 	});
 
 	it('counts the fittings per thread: two ports on the CPU block, two on the pump-reservoir', () => {
@@ -64,13 +82,43 @@ describe('the demo sandwich (fixtures.ts), worked by hand', () => {
 
 /** A 200 mm cube inside, a floor mount and a mount on each side panel. */
 function bench(placements: Scene['placements'], parts: PartDef[]): Scene {
-	const region = { min: [0, 0, 0] as [number, number, number], max: [200, 200, 200] as [number, number, number] };
+	const region = {
+		min: [0, 0, 0] as [number, number, number],
+		max: [200, 200, 200] as [number, number, number]
+	};
 	return makeScene({
 		enclosure: plainEnclosure([200, 200, 200], 2, {
 			mounts: [
-				{ id: 'floor', label: 'Floor mount', kind: 'radiator', face: 'bottom', region, accepts: [], standoffMm: 0, slotPitchMm: 20.32 },
-				{ id: 'left', label: 'Left mount', kind: 'fan', face: 'left', region, accepts: [], standoffMm: 0, slotPitchMm: 20.32 },
-				{ id: 'right', label: 'Right mount', kind: 'fan', face: 'right', region, accepts: [], standoffMm: 0, slotPitchMm: 20.32 }
+				{
+					id: 'floor',
+					label: 'Floor mount',
+					kind: 'radiator',
+					face: 'bottom',
+					region,
+					accepts: [],
+					standoffMm: 0,
+					slotPitchMm: 20.32
+				},
+				{
+					id: 'left',
+					label: 'Left mount',
+					kind: 'fan',
+					face: 'left',
+					region,
+					accepts: [],
+					standoffMm: 0,
+					slotPitchMm: 20.32
+				},
+				{
+					id: 'right',
+					label: 'Right mount',
+					kind: 'fan',
+					face: 'right',
+					region,
+					accepts: [],
+					standoffMm: 0,
+					slotPitchMm: 20.32
+				}
 			]
 		}),
 		parts,
@@ -78,7 +126,13 @@ function bench(placements: Scene['placements'], parts: PartDef[]): Scene {
 	});
 }
 
-const at = (id: string, partId: string, position: [number, number, number], mountId?: string) => ({ id, partId, position, rotation: { x: 0, y: 0, z: 0 }, ...(mountId ? { mountId } : {}) });
+const at = (id: string, partId: string, position: [number, number, number], mountId?: string) => ({
+	id,
+	partId,
+	position,
+	rotation: { x: 0, y: 0, z: 0 },
+	...(mountId ? { mountId } : {})
+});
 
 describe('a hand-made bench scene', () => {
 	const radiator = blockPart('rad', [120, 30, 150], { name: 'Radiator', category: 'radiator' });
@@ -104,7 +158,15 @@ describe('a hand-made bench scene', () => {
 	const boardWithScrews = blockPart('panel-board', [5, 60, 60], {
 		name: 'Side board',
 		category: 'board',
-		keepouts: [{ id: 'screws', label: 'screw access', kind: 'service', severity: 'warning', box: { min: [0, 60, 0], max: [5, 70, 60] } }]
+		keepouts: [
+			{
+				id: 'screws',
+				label: 'screw access',
+				kind: 'service',
+				severity: 'warning',
+				box: { min: [0, 60, 0], max: [5, 70, 60] }
+			}
+		]
 	});
 	const cover = blockPart('cover', [8, 10, 30], { name: 'Cover', category: 'other' });
 
@@ -133,7 +195,15 @@ describe('a hand-made bench scene', () => {
 
 	it('finds every reason, by kind', () => {
 		const edges = plan(scene).plan.edges.map((e) => `${e.before}>${e.after}:${e.reason.kind}`);
-		expect(edges).toEqual(expect.arrayContaining(['rad>fan:path', 'rad>pump:path', 'fan>pump:path', 'block>fit:port', 'board>cover:access']));
+		expect(edges).toEqual(
+			expect.arrayContaining([
+				'rad>fan:path',
+				'rad>pump:path',
+				'fan>pump:path',
+				'block>fit:port',
+				'board>cover:access'
+			])
+		);
 		expect(edges).toHaveLength(5);
 	});
 
@@ -168,7 +238,10 @@ describe('parts in each other’s way', () => {
 	 * in the other's way in. The order cannot keep both free; the second says so.
 	 */
 	const plate = blockPart('plate', [10, 80, 80], { name: 'Plate', category: 'other' });
-	const scene = bench([at('a', 'plate', [0, 50, 50], 'left'), at('b', 'plate', [190, 50, 50], 'right')], [plate]);
+	const scene = bench(
+		[at('a', 'plate', [0, 50, 50], 'left'), at('b', 'plate', [190, 50, 50], 'right')],
+		[plate]
+	);
 
 	it('flags the conflict on the step that breaks a rule', () => {
 		const steps = plan(scene).plan.steps;
@@ -179,8 +252,14 @@ describe('parts in each other’s way', () => {
 });
 
 describe('pathBox', () => {
-	const room = { min: [0, 0, 0] as [number, number, number], max: [100, 100, 100] as [number, number, number] };
-	const part = { min: [10, 20, 30] as [number, number, number], max: [20, 40, 60] as [number, number, number] };
+	const room = {
+		min: [0, 0, 0] as [number, number, number],
+		max: [100, 100, 100] as [number, number, number]
+	};
+	const part = {
+		min: [10, 20, 30] as [number, number, number],
+		max: [20, 40, 60] as [number, number, number]
+	};
 
 	it.each([
 		['+x', { min: [20, 20, 30], max: [100, 40, 60] }],

@@ -27,7 +27,14 @@
  */
 
 import { EPSILON_MM, boxesOverlap, compareText, type Face } from '$lib/geometry';
-import type { Box, FitReport, PartCategory, ResolvedPlacement, ResolvedScene, Scene } from '$lib/geometry';
+import type {
+	Box,
+	FitReport,
+	PartCategory,
+	ResolvedPlacement,
+	ResolvedScene,
+	Scene
+} from '$lib/geometry';
 
 /** Tie-break when geometry leaves parts unordered (common practice, see the module comment). */
 const CATEGORY_RANK: Record<PartCategory, number> = {
@@ -141,20 +148,32 @@ function bodiesIn(rp: ResolvedPlacement, box: Box): boolean {
 	return rp.bodies.some((b) => boxesOverlap(b.box, box));
 }
 
-function chooseDirection(rp: ResolvedPlacement, scene: Scene, resolved: ResolvedScene, room: Box): { direction: Face; from: AssemblyStep['directionFrom'] } {
-	const mount = rp.placement.mountId === undefined ? undefined : scene.enclosure.mounts.find((m) => m.id === rp.placement.mountId);
+function chooseDirection(
+	rp: ResolvedPlacement,
+	scene: Scene,
+	resolved: ResolvedScene,
+	room: Box
+): { direction: Face; from: AssemblyStep['directionFrom'] } {
+	const mount =
+		rp.placement.mountId === undefined
+			? undefined
+			: scene.enclosure.mounts.find((m) => m.id === rp.placement.mountId);
 	if (mount) return { direction: mountDirection(mount.face), from: 'mount' };
 	const fixed = [...resolved.dividers, ...resolved.brackets];
 	const inner = resolved.innerBox;
 	const opensToPanel = (d: Face) => {
 		const a = axisOf(d);
-		return signOf(d) > 0 ? room.max[a] >= inner.max[a] - EPSILON_MM : room.min[a] <= inner.min[a] + EPSILON_MM;
+		return signOf(d) > 0
+			? room.max[a] >= inner.max[a] - EPSILON_MM
+			: room.min[a] <= inner.min[a] + EPSILON_MM;
 	};
 	let best: { direction: Face; score: [number, number, number] } | null = null;
 	for (const direction of FREE_DIRECTIONS) {
 		const path = pathBox(rp.bounds, room, direction);
 		if (path && fixed.some((f) => boxesOverlap(f.box, path))) continue;
-		const crossed = path ? resolved.placements.filter((o) => o !== rp && bodiesIn(o, path)).length : 0;
+		const crossed = path
+			? resolved.placements.filter((o) => o !== rp && bodiesIn(o, path)).length
+			: 0;
 		const a = axisOf(direction);
 		const travel = path ? path.max[a] - path.min[a] : 0;
 		// Through a panel before through a divider, then fewest parts in the way, then the shortest way.
@@ -182,7 +201,12 @@ function pointIn(box: Box, p: readonly number[]): boolean {
 	return [0, 1, 2].every((i) => p[i] >= box.min[i] - EPSILON_MM && p[i] <= box.max[i] + EPSILON_MM);
 }
 
-function edgesFor(resolved: ResolvedScene, report: FitReport, directions: Map<string, Face>, rooms: Map<string, Box>): OrderEdge[] {
+function edgesFor(
+	resolved: ResolvedScene,
+	report: FitReport,
+	directions: Map<string, Face>,
+	rooms: Map<string, Box>
+): OrderEdge[] {
 	const edges: OrderEdge[] = [];
 	const seen = new Set<string>();
 	const add = (before: string, after: string, reason: OrderReason) => {
@@ -195,14 +219,21 @@ function edgesFor(resolved: ResolvedScene, report: FitReport, directions: Map<st
 		const path = pathBox(a.bounds, rooms.get(a.placement.id)!, direction);
 		for (const b of resolved.placements) {
 			if (b === a) continue;
-			if (path && bodiesIn(b, path)) add(a.placement.id, b.placement.id, { kind: 'path', direction });
+			if (path && bodiesIn(b, path)) {
+				add(a.placement.id, b.placement.id, { kind: 'path', direction });
+			}
 		}
 		for (const k of a.keepouts) {
 			if (!ACCESS_KINDS.has(k.keepoutKind ?? '')) continue;
-			const label = a.part.keepouts.find((d) => k.id === `${a.placement.id}/${d.id}`)?.label ?? k.label;
+			const label =
+				a.part.keepouts.find((d) => k.id === `${a.placement.id}/${d.id}`)?.label ?? k.label;
 			for (const b of resolved.placements) {
 				if (b !== a && bodiesIn(b, k.box)) {
-					add(a.placement.id, b.placement.id, { kind: 'access', keepoutLabel: label, keepoutKind: k.keepoutKind! });
+					add(a.placement.id, b.placement.id, {
+						kind: 'access',
+						keepoutLabel: label,
+						keepoutKind: k.keepoutKind!
+					});
 				}
 			}
 		}
@@ -217,7 +248,9 @@ function edgesFor(resolved: ResolvedScene, report: FitReport, directions: Map<st
 	for (const part of report.parts) {
 		const below = part.gaps['-y'];
 		const under = below.against?.placementId;
-		if (under && below.gapMm !== null && Math.abs(below.gapMm) <= EPSILON_MM) add(under, part.placementId, { kind: 'rests' });
+		if (under && below.gapMm !== null && Math.abs(below.gapMm) <= EPSILON_MM) {
+			add(under, part.placementId, { kind: 'rests' });
+		}
 	}
 	return edges.sort((x, y) => compareText(x.before, y.before) || compareText(x.after, y.after));
 }
@@ -226,10 +259,16 @@ function edgesFor(resolved: ResolvedScene, report: FitReport, directions: Map<st
  * The assembly plan of a scene: one step per placed part, in an order that keeps every part's
  * way in and working room free while it goes in (see the module comment for the rules).
  */
-export function assemblyPlan(scene: Scene, resolved: ResolvedScene, report: FitReport): AssemblyPlan {
+export function assemblyPlan(
+	scene: Scene,
+	resolved: ResolvedScene,
+	report: FitReport
+): AssemblyPlan {
 	const directions = new Map<string, Face>();
 	const directionFrom = new Map<string, AssemblyStep['directionFrom']>();
-	const rooms = new Map(resolved.placements.map((rp) => [rp.placement.id, roomOf(rp, resolved, report)]));
+	const rooms = new Map(
+		resolved.placements.map((rp) => [rp.placement.id, roomOf(rp, resolved, report)])
+	);
 	for (const rp of resolved.placements) {
 		const chosen = chooseDirection(rp, scene, resolved, rooms.get(rp.placement.id)!);
 		directions.set(rp.placement.id, chosen.direction);
@@ -246,7 +285,9 @@ export function assemblyPlan(scene: Scene, resolved: ResolvedScene, report: FitR
 		const remaining = [...byId.keys()].filter((id) => !placed.has(id));
 		const ready = remaining.filter((id) => waitingOn(id).length === 0).sort(tieBreak);
 		// Nothing is free: the parts left stand in each other's way. Take the one held by fewest.
-		const next = ready[0] ?? [...remaining].sort((x, y) => waitingOn(x).length - waitingOn(y).length || tieBreak(x, y))[0];
+		const next =
+			ready[0] ??
+			[...remaining].sort((x, y) => waitingOn(x).length - waitingOn(y).length || tieBreak(x, y))[0];
 		const conflicts = waitingOn(next).map((e) => e.before);
 		placed.add(next);
 		const rp = byId.get(next)!;

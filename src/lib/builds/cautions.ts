@@ -14,7 +14,8 @@ export const CAUTIONS: readonly Caution[] = [
 	{
 		id: 'unplug',
 		text: 'Unplug from the mains before working inside. Never open the power supply.',
-		detail: 'Mains voltage. Switching off is not enough: pull the plug, every time you reach inside.'
+		detail:
+			'Mains voltage. Switching off is not enough: pull the plug, every time you reach inside.'
 	},
 	{
 		id: 'edges',
@@ -44,7 +45,8 @@ export const CAUTIONS: readonly Caution[] = [
 	{
 		id: 'rules',
 		text: 'Selling the system to a client? Check the local electrical-safety and product rules that apply to it.',
-		detail: 'An assembled system sold to a client may fall under them; this sheet claims nothing about compliance.'
+		detail:
+			'An assembled system sold to a client may fall under them; this sheet claims nothing about compliance.'
 	}
 ];
 

@@ -25,7 +25,11 @@ describe('compareVariants', () => {
 		// the only part above it is the pump-reservoir: its gap below must shrink by one step, 10 mm.
 		const withoutCard = (bar: number) => {
 			const input = demoSceneInput();
-			return sceneSchema.parse({ ...input, placements: input.placements!.filter((p) => p.id !== 'card'), bracketOffsets: { bar } });
+			return sceneSchema.parse({
+				...input,
+				placements: input.placements!.filter((p) => p.id !== 'card'),
+				bracketOffsets: { bar }
+			});
 		};
 		const rows = compareVariants([variant('a', withoutCard(0)), variant('b', withoutCard(10))]);
 		const changed = rows.filter((r) => r.differs);
@@ -36,7 +40,10 @@ describe('compareVariants', () => {
 
 	it('marks the better value: a bigger gap, less interference, a better status', () => {
 		const fits = sceneSchema.parse({ ...demoSceneInput() });
-		const clash = sceneSchema.parse({ ...demoSceneInput(), dividerPositions: { bulkhead: 64, spine: 106.32 } });
+		const clash = sceneSchema.parse({
+			...demoSceneInput(),
+			dividerPositions: { bulkhead: 64, spine: 106.32 }
+		});
 		const rows = compareVariants([variant('fits', fits), variant('clash', clash)]);
 		const interference = rows.find((r) => r.key === 'total:interference')!;
 		expect(interference.cells[0].best).toBe(true);

@@ -8,7 +8,13 @@ import { gapWords } from './words';
 
 export type CompareInput = { id: string; name: string; report: FitReport; marginMm: number };
 
-export type Cell = { value: number | null; text: string; status?: FitStatus; delta: number | null; best: boolean };
+export type Cell = {
+	value: number | null;
+	text: string;
+	status?: FitStatus;
+	delta: number | null;
+	best: boolean;
+};
 
 export type DiffRow = {
 	key: string;
@@ -26,23 +32,46 @@ const EPS = 1e-6;
 /** STATUS_ORDER runs worst first, so a higher index is a better status. */
 const rank = (s: FitStatus) => STATUS_ORDER.indexOf(s);
 
-function numberRow(key: string, group: DiffRow['group'], label: string, values: (number | null)[], better: DiffRow['better'], format: (v: number) => string, highlight: string[] = [], statuses?: (FitStatus | undefined)[]): DiffRow {
+function numberRow(
+	key: string,
+	group: DiffRow['group'],
+	label: string,
+	values: (number | null)[],
+	better: DiffRow['better'],
+	format: (v: number) => string,
+	highlight: string[] = [],
+	statuses?: (FitStatus | undefined)[]
+): DiffRow {
 	const ref = values[0];
 	const present = values.filter((v): v is number => v !== null);
-	const bestValue = present.length < 2 || better === 'none' ? null : better === 'higher' ? Math.max(...present) : Math.min(...present);
+	const bestValue =
+		present.length < 2 || better === 'none'
+			? null
+			: better === 'higher'
+				? Math.max(...present)
+				: Math.min(...present);
 	const spread = present.length ? Math.max(...present) - Math.min(...present) : 0;
-	const differs = values.some((v) => (v === null) !== (ref === null)) || spread > EPS || (statuses ? new Set(statuses).size > 1 : false);
+	const differs =
+		values.some((v) => (v === null) !== (ref === null)) ||
+		spread > EPS ||
+		(statuses ? new Set(statuses).size > 1 : false);
 	const cells = values.map((v, i) => ({
 		value: v,
 		text: v === null ? '—' : format(v),
 		status: statuses?.[i],
 		delta: i === 0 || v === null || ref === null ? null : v - ref,
-		best: differs && bestValue !== null && v !== null && Math.abs(v - bestValue) <= EPS && spread > EPS
+		best:
+			differs && bestValue !== null && v !== null && Math.abs(v - bestValue) <= EPS && spread > EPS
 	}));
 	return { key, group, label, better, cells, differs, highlight };
 }
 
-function statusRow(key: string, label: string, statuses: (FitStatus | undefined)[], highlight: string[]): DiffRow {
+function statusRow(
+	key: string,
+	label: string,
+	statuses: (FitStatus | undefined)[],
+	highlight: string[]
+): DiffRow {
 	const present = statuses.filter((s): s is FitStatus => !!s);
 	const bestRank = present.length ? Math.max(...present.map(rank)) : 0;
 	const differs = new Set(statuses).size > 1;
@@ -53,7 +82,13 @@ function statusRow(key: string, label: string, statuses: (FitStatus | undefined)
 		better: 'status',
 		differs,
 		highlight,
-		cells: statuses.map((s) => ({ value: null, text: s ?? 'not placed', status: s, delta: null, best: differs && !!s && rank(s) === bestRank }))
+		cells: statuses.map((s) => ({
+			value: null,
+			text: s ?? 'not placed',
+			status: s,
+			delta: null,
+			best: differs && !!s && rank(s) === bestRank
+		}))
 	};
 }
 
@@ -62,15 +97,32 @@ const mmText = (v: number) => `${v.toFixed(1)}\u2009mm`;
 /** Rows for every part (status + six gaps), compartment, mount stack and the totals. */
 export function compareVariants(inputs: CompareInput[]): DiffRow[] {
 	const rows: DiffRow[] = [];
-	const placementIds = [...new Set(inputs.flatMap((v) => v.report.parts.map((p) => p.placementId)))].sort();
+	const placementIds = [
+		...new Set(inputs.flatMap((v) => v.report.parts.map((p) => p.placementId)))
+	].sort();
 	for (const id of placementIds) {
 		const reports = inputs.map((v) => v.report.parts.find((p) => p.placementId === id));
 		const label = reports.find((r) => r)?.label ?? id;
-		rows.push(statusRow(`part:${id}:status`, `${label} — status`, reports.map((r) => r?.status), [id]));
+		rows.push(
+			statusRow(
+				`part:${id}:status`,
+				`${label} — status`,
+				reports.map((r) => r?.status),
+				[id]
+			)
+		);
 		for (const face of FACES as readonly Face[]) {
 			const values = reports.map((r) => r?.gaps[face].gapMm ?? null);
 			if (values.every((v) => v === null)) continue;
-			const row = numberRow(`part:${id}:gap:${face}`, 'part', `${label} — gap ${FACE_LABEL[face]}`, values, 'higher', mmText, [id]);
+			const row = numberRow(
+				`part:${id}:gap:${face}`,
+				'part',
+				`${label} — gap ${FACE_LABEL[face]}`,
+				values,
+				'higher',
+				mmText,
+				[id]
+			);
 			// "2.0 mm (1.0 worst case)" where tolerances apply.
 			row.cells.forEach((c, i) => {
 				const g = reports[i]?.gaps[face];
@@ -79,32 +131,111 @@ export function compareVariants(inputs: CompareInput[]): DiffRow[] {
 			rows.push(row);
 		}
 	}
-	const compartmentIds = [...new Set(inputs.flatMap((v) => v.report.compartments.map((c) => c.id)))].sort();
+	const compartmentIds = [
+		...new Set(inputs.flatMap((v) => v.report.compartments.map((c) => c.id)))
+	].sort();
 	for (const id of compartmentIds) {
 		const found = inputs.map((v) => v.report.compartments.find((c) => c.id === id));
 		const label = found.find((c) => c)?.label ?? id;
 		(['width', 'height', 'depth'] as const).forEach((dim, axis) => {
-			rows.push(numberRow(`room:${id}:${dim}`, 'compartment', `${label} — ${dim}`, found.map((c) => c?.sizeMm[axis] ?? null), 'none', mmText));
+			rows.push(
+				numberRow(
+					`room:${id}:${dim}`,
+					'compartment',
+					`${label} — ${dim}`,
+					found.map((c) => c?.sizeMm[axis] ?? null),
+					'none',
+					mmText
+				)
+			);
 		});
 	}
-	const mountIds = [...new Set(inputs.flatMap((v) => v.report.mounts.filter((m) => m.stack.length).map((m) => m.mountId)))].sort();
+	const mountIds = [
+		...new Set(
+			inputs.flatMap((v) => v.report.mounts.filter((m) => m.stack.length).map((m) => m.mountId))
+		)
+	].sort();
 	for (const id of mountIds) {
 		const found = inputs.map((v) => v.report.mounts.find((m) => m.mountId === id));
 		const label = found.find((m) => m)?.label ?? id;
 		const ids = [...new Set(found.flatMap((m) => m?.stack.map((s) => s.placementId) ?? []))];
-		rows.push(numberRow(`mount:${id}:used`, 'mount', `${label} — stack`, found.map((m) => m?.usedMm ?? null), 'none', mmText, ids, found.map((m) => m?.status)));
-		rows.push(numberRow(`mount:${id}:spare`, 'mount', `${label} — spare`, found.map((m) => m?.spareMm ?? null), 'higher', mmText, ids));
+		rows.push(
+			numberRow(
+				`mount:${id}:used`,
+				'mount',
+				`${label} — stack`,
+				found.map((m) => m?.usedMm ?? null),
+				'none',
+				mmText,
+				ids,
+				found.map((m) => m?.status)
+			)
+		);
+		rows.push(
+			numberRow(
+				`mount:${id}:spare`,
+				'mount',
+				`${label} — spare`,
+				found.map((m) => m?.spareMm ?? null),
+				'higher',
+				mmText,
+				ids
+			)
+		);
 	}
-	rows.push(numberRow('total:interference', 'total', 'Interference volume', inputs.map((v) => v.report.totals.interferenceVolumeMm3 / 1000), 'lower', (v) => `${v.toFixed(1)}\u2009cm³`));
+	rows.push(
+		numberRow(
+			'total:interference',
+			'total',
+			'Interference volume',
+			inputs.map((v) => v.report.totals.interferenceVolumeMm3 / 1000),
+			'lower',
+			(v) => `${v.toFixed(1)}\u2009cm³`
+		)
+	);
 	for (const s of STATUS_ORDER) {
-		rows.push(numberRow(`total:count:${s}`, 'total', `Parts ${s}`, inputs.map((v) => v.report.totals.counts[s]), s === 'clear' ? 'higher' : 'lower', (v) => String(v)));
+		rows.push(
+			numberRow(
+				`total:count:${s}`,
+				'total',
+				`Parts ${s}`,
+				inputs.map((v) => v.report.totals.counts[s]),
+				s === 'clear' ? 'higher' : 'lower',
+				(v) => String(v)
+			)
+		);
 	}
-	rows.push(numberRow('total:heat-spare', 'total', 'Radiator estimate minus heat', inputs.map((v) => v.report.budgets.heat.capacityW - v.report.budgets.heat.heatW), 'higher', (v) => `${Math.round(v)}\u2009W (estimate)`));
-	rows.push(numberRow('total:power-spare', 'total', 'Supply rating minus draw with headroom', inputs.map((v) => v.report.budgets.power.ratingW - v.report.budgets.power.requiredW), 'higher', (v) => `${Math.round(v)}\u2009W`));
+	rows.push(
+		numberRow(
+			'total:heat-spare',
+			'total',
+			'Radiator estimate minus heat',
+			inputs.map((v) => v.report.budgets.heat.capacityW - v.report.budgets.heat.heatW),
+			'higher',
+			(v) => `${Math.round(v)}\u2009W (estimate)`
+		)
+	);
+	rows.push(
+		numberRow(
+			'total:power-spare',
+			'total',
+			'Supply rating minus draw with headroom',
+			inputs.map((v) => v.report.budgets.power.ratingW - v.report.budgets.power.requiredW),
+			'higher',
+			(v) => `${Math.round(v)}\u2009W`
+		)
+	);
 	return rows;
 }
 
-const FACE_LABEL: Record<Face, string> = { '-x': 'left', '+x': 'right', '-y': 'below', '+y': 'above', '-z': 'front', '+z': 'behind' };
+const FACE_LABEL: Record<Face, string> = {
+	'-x': 'left',
+	'+x': 'right',
+	'-y': 'below',
+	'+y': 'above',
+	'-z': 'front',
+	'+z': 'behind'
+};
 
 /** "+2.0" / "−20.3": the change against the first variant, in the row's unit. */
 export function deltaText(delta: number | null): string {
@@ -114,7 +245,12 @@ export function deltaText(delta: number | null): string {
 
 /** The difference table as CSV: one column per variant and one change column per later variant. */
 export function compareCsv(inputs: CompareInput[], rows: DiffRow[]): string {
-	const header = ['group', 'item', ...inputs.map((v) => v.name), ...inputs.slice(1).map((v) => `change in ${v.name}`)];
+	const header = [
+		'group',
+		'item',
+		...inputs.map((v) => v.name),
+		...inputs.slice(1).map((v) => `change in ${v.name}`)
+	];
 	const round = (x: number) => Math.round(x * 1000) / 1000;
 	const lines = rows.map((r) => [
 		r.group,

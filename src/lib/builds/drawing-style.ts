@@ -7,7 +7,10 @@ import type { FitStatus } from '$lib/geometry';
 
 export type Pattern = 'plain' | 'hatch' | 'dots' | 'solid' | 'dashed';
 
-export const STATUS_INK: Record<FitStatus, { fill: string; edge: string; pattern: Pattern; word: string }> = {
+export const STATUS_INK: Record<
+	FitStatus,
+	{ fill: string; edge: string; pattern: Pattern; word: string }
+> = {
 	clear: { fill: '#2e9d83', edge: '#1f6e5c', pattern: 'plain', word: 'clear' },
 	tight: { fill: '#e0a526', edge: '#9c6f0e', pattern: 'hatch', word: 'tight' },
 	blocked: { fill: '#8b5fd1', edge: '#5d3a99', pattern: 'dots', word: 'blocked' },
@@ -48,7 +51,13 @@ export const WEIGHT = {
  * Fill opacity of part bodies, so what lies behind still shows through: faint where all is well,
  * stronger where something needs the builder's eye.
  */
-export const BODY_OPACITY: Record<FitStatus, number> = { clear: 0.13, tight: 0.3, blocked: 0.3, collides: 0.55, outside: 0 };
+export const BODY_OPACITY: Record<FitStatus, number> = {
+	clear: 0.13,
+	tight: 0.3,
+	blocked: 0.3,
+	collides: 0.55,
+	outside: 0
+};
 
 /** Pattern spacing in paper millimetres. */
 export const PATTERN_MM = { hatch: 1.6, dots: 1.4, dotRadius: 0.28, dash: 1.2 } as const;

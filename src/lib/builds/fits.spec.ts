@@ -5,15 +5,41 @@
  */
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { STATUS_ORDER, checkScene, sceneSchema, type FitStatus, type PartDef, type Scene, type SceneInput } from '$lib/geometry';
+import {
+	STATUS_ORDER,
+	checkScene,
+	sceneSchema,
+	type FitStatus,
+	type PartDef,
+	type Scene,
+	type SceneInput
+} from '$lib/geometry';
 import { blockPart, makeScene } from '$lib/geometry/factories.spec-util';
-import { demoEnclosure, demoParts, demoScene, demoSceneInput, standardPart } from '$lib/geometry/fixtures';
-import { partsByPositions, radiatorCombinations, whatFits, type FitCandidate, type FitTarget } from './fits';
+import {
+	demoEnclosure,
+	demoParts,
+	demoScene,
+	demoSceneInput,
+	standardPart
+} from '$lib/geometry/fixtures';
+import {
+	partsByPositions,
+	radiatorCombinations,
+	whatFits,
+	type FitCandidate,
+	type FitTarget
+} from './fits';
 
-const worst = (a: FitStatus, b: FitStatus) => (STATUS_ORDER.indexOf(a) <= STATUS_ORDER.indexOf(b) ? a : b);
+const worst = (a: FitStatus, b: FitStatus) =>
+	STATUS_ORDER.indexOf(a) <= STATUS_ORDER.indexOf(b) ? a : b;
 
 /** The candidate placed as the row says, checked by the whole engine: its part status, with its mount's. */
-function engineStatus(scene: Scene, part: PartDef, placement: NonNullable<ReturnType<typeof whatFits>['fits'][number]['placement']>, replaces: string | null): FitStatus {
+function engineStatus(
+	scene: Scene,
+	part: PartDef,
+	placement: NonNullable<ReturnType<typeof whatFits>['fits'][number]['placement']>,
+	replaces: string | null
+): FitStatus {
 	const input = {
 		...scene,
 		parts: [...scene.parts.filter((p) => p.id !== part.id), part],
@@ -21,96 +47,184 @@ function engineStatus(scene: Scene, part: PartDef, placement: NonNullable<Return
 	};
 	const report = checkScene(sceneSchema.parse(input));
 	const own = report.parts.find((p) => p.placementId === placement.id)!.status;
-	const mount = placement.mountId ? report.mounts.find((m) => m.mountId === placement.mountId)!.status : 'clear';
+	const mount = placement.mountId
+		? report.mounts.find((m) => m.mountId === placement.mountId)!.status
+		: 'clear';
 	return worst(own, mount);
 }
 
 const partArb = (i: number) =>
 	fc
 		.record({
-			size: fc.tuple(fc.integer({ min: 5, max: 200 }), fc.integer({ min: 5, max: 200 }), fc.integer({ min: 5, max: 80 })),
+			size: fc.tuple(
+				fc.integer({ min: 5, max: 200 }),
+				fc.integer({ min: 5, max: 200 }),
+				fc.integer({ min: 5, max: 80 })
+			),
 			kind: fc.constantFrom('radiator', 'fan', 'pump', 'other', 'gpu'),
-			keepout: fc.option(fc.tuple(fc.integer({ min: 0, max: 40 }), fc.constantFrom('error', 'warning')), { nil: null }),
+			keepout: fc.option(
+				fc.tuple(fc.integer({ min: 0, max: 40 }), fc.constantFrom('error', 'warning')),
+				{ nil: null }
+			),
 			cls: fc.constantFrom(240, 280),
 			tolerance: fc.constantFrom(0, 0.5)
 		})
 		.map(({ size, kind, keepout, cls, tolerance }) => {
 			const specs: PartDef['specs'] =
-				kind === 'radiator' ? { radiatorClass: cls } : kind === 'fan' ? { fanSizeMm: cls === 240 ? 120 : 140, fanThicknessMm: size[2] } : {};
+				kind === 'radiator'
+					? { radiatorClass: cls }
+					: kind === 'fan'
+						? { fanSizeMm: cls === 240 ? 120 : 140, fanThicknessMm: size[2] }
+						: {};
 			const keepouts: PartDef['keepouts'] = keepout
-				? [{ id: 'room', label: 'fitting room', kind: 'fitting', severity: keepout[1] as 'error' | 'warning', box: { min: [0, size[1], 0], max: [size[0], size[1] + keepout[0] + 1, size[2]] } }]
+				? [
+						{
+							id: 'room',
+							label: 'fitting room',
+							kind: 'fitting',
+							severity: keepout[1] as 'error' | 'warning',
+							box: { min: [0, size[1], 0], max: [size[0], size[1] + keepout[0] + 1, size[2]] }
+						}
+					]
 				: [];
-			return blockPart(`c${i}`, size, { category: kind as PartDef['category'], specs, keepouts, toleranceMm: tolerance });
+			return blockPart(`c${i}`, size, {
+				category: kind as PartDef['category'],
+				specs,
+				keepouts,
+				toleranceMm: tolerance
+			});
 		});
 
-const catalogueArb = fc.integer({ min: 1, max: 8 }).chain((n) => fc.tuple(...Array.from({ length: n }, (_, i) => partArb(i))));
+const catalogueArb = fc
+	.integer({ min: 1, max: 8 })
+	.chain((n) => fc.tuple(...Array.from({ length: n }, (_, i) => partArb(i))));
 
 const targets: { target: FitTarget; scene: () => Scene; replaces: string | null }[] = [
-	{ target: { kind: 'mount', mountId: 'radiator' }, scene: () => sceneSchema.parse({ ...demoSceneInput(), placements: demoSceneInput().placements!.filter((p) => p.mountId !== 'radiator') }), replaces: null },
+	{
+		target: { kind: 'mount', mountId: 'radiator' },
+		scene: () =>
+			sceneSchema.parse({
+				...demoSceneInput(),
+				placements: demoSceneInput().placements!.filter((p) => p.mountId !== 'radiator')
+			}),
+		replaces: null
+	},
 	{ target: { kind: 'mount', mountId: 'radiator' }, scene: demoScene, replaces: null },
-	{ target: { kind: 'compartment', compartmentId: 'bulkhead.high+spine.high' }, scene: demoScene, replaces: null },
-	{ target: { kind: 'compartment', compartmentId: 'bulkhead.high+spine.low' }, scene: demoScene, replaces: null },
+	{
+		target: { kind: 'compartment', compartmentId: 'bulkhead.high+spine.high' },
+		scene: demoScene,
+		replaces: null
+	},
+	{
+		target: { kind: 'compartment', compartmentId: 'bulkhead.high+spine.low' },
+		scene: demoScene,
+		replaces: null
+	},
 	{ target: { kind: 'replace', placementId: 'card' }, scene: demoScene, replaces: 'card' },
 	{ target: { kind: 'replace', placementId: 'radiator' }, scene: demoScene, replaces: 'radiator' },
-	{ target: { kind: 'space', box: { min: [88, 195, 66], max: [150, 340, 240] } }, scene: demoScene, replaces: null }
+	{
+		target: { kind: 'space', box: { min: [88, 195, 66], max: [150, 340, 240] } },
+		scene: demoScene,
+		replaces: null
+	}
 ];
 
 describe('what fits here against checkScene', () => {
 	it('lists exactly the candidates the full engine passes, with the same status (random catalogues, every kind of target)', () => {
 		fc.assert(
-			fc.property(catalogueArb, fc.integer({ min: 0, max: targets.length - 1 }), fc.constantFrom(0, 2, 5), (parts, t, margin) => {
-				const { target, replaces } = targets[t];
-				const scene = { ...targets[t].scene(), marginMm: margin };
-				const result = whatFits(scene, target, parts.map((part) => ({ part })));
-				expect(result.fits.length + result.left.length).toBe(parts.length);
-				for (const row of result.fits) {
-					const part = parts.find((p) => p.id === row.partId)!;
-					expect(['clear', 'tight']).toContain(engineStatus(scene, part, row.placement!, replaces));
-					expect(engineStatus(scene, part, row.placement!, replaces)).toBe(row.status);
+			fc.property(
+				catalogueArb,
+				fc.integer({ min: 0, max: targets.length - 1 }),
+				fc.constantFrom(0, 2, 5),
+				(parts, t, margin) => {
+					const { target, replaces } = targets[t];
+					const scene = { ...targets[t].scene(), marginMm: margin };
+					const result = whatFits(
+						scene,
+						target,
+						parts.map((part) => ({ part }))
+					);
+					expect(result.fits.length + result.left.length).toBe(parts.length);
+					for (const row of result.fits) {
+						const part = parts.find((p) => p.id === row.partId)!;
+						expect(['clear', 'tight']).toContain(
+							engineStatus(scene, part, row.placement!, replaces)
+						);
+						expect(engineStatus(scene, part, row.placement!, replaces)).toBe(row.status);
+					}
+					for (const row of result.left) {
+						expect(row.reason).toBeTruthy();
+						if (!row.placement) continue;
+						const part = parts.find((p) => p.id === row.partId)!;
+						const status = engineStatus(scene, part, row.placement, replaces);
+						expect(['clear', 'tight']).not.toContain(status);
+						expect(status).toBe(row.status);
+					}
 				}
-				for (const row of result.left) {
-					expect(row.reason).toBeTruthy();
-					if (!row.placement) continue;
-					const part = parts.find((p) => p.id === row.partId)!;
-					const status = engineStatus(scene, part, row.placement, replaces);
-					expect(['clear', 'tight']).not.toContain(status);
-					expect(status).toBe(row.status);
-				}
-			}),
+			),
 			{ numRuns: 150 }
 		);
 	});
 
 	it('ranks by spare room, clear before tight; by price and by name on request', () => {
 		const scene = demoScene();
-		const parts = [blockPart('small', [20, 20, 20]), blockPart('mid', [40, 40, 40]), blockPart('big', [61, 60, 60])];
-		const cands: FitCandidate[] = parts.map((part, i) => ({ part, priceMinor: [300, 100, 200][i] }));
+		const parts = [
+			blockPart('small', [20, 20, 20]),
+			blockPart('mid', [40, 40, 40]),
+			blockPart('big', [61, 60, 60])
+		];
+		const cands: FitCandidate[] = parts.map((part, i) => ({
+			part,
+			priceMinor: [300, 100, 200][i]
+		}));
 		const target: FitTarget = { kind: 'compartment', compartmentId: 'bulkhead.high+spine.high' };
 		const bySpare = whatFits(scene, target, cands).fits;
-		expect(bySpare.map((r) => r.status)).toEqual([...bySpare.map((r) => r.status)].sort((a, b) => (a === b ? 0 : a === 'clear' ? -1 : 1)));
+		expect(bySpare.map((r) => r.status)).toEqual(
+			[...bySpare.map((r) => r.status)].sort((a, b) => (a === b ? 0 : a === 'clear' ? -1 : 1))
+		);
 		const clear = bySpare.filter((r) => r.status === 'clear');
-		expect(clear.map((r) => r.spareMm)).toEqual([...clear.map((r) => r.spareMm)].sort((a, b) => b! - a!));
-		expect(whatFits(scene, target, cands, 'name').fits.filter((r) => r.status === 'clear').map((r) => r.name)).toEqual(clear.map((r) => r.name).sort());
+		expect(clear.map((r) => r.spareMm)).toEqual(
+			[...clear.map((r) => r.spareMm)].sort((a, b) => b! - a!)
+		);
+		expect(
+			whatFits(scene, target, cands, 'name')
+				.fits.filter((r) => r.status === 'clear')
+				.map((r) => r.name)
+		).toEqual(clear.map((r) => r.name).sort());
 	});
 
 	it('names the field for an unknown id or a box outside', () => {
 		const scene = demoScene();
-		expect(() => whatFits(scene, { kind: 'mount', mountId: 'nope' }, [])).toThrow(expect.objectContaining({ path: 'target.mountId' }));
-		expect(() => whatFits(scene, { kind: 'compartment', compartmentId: 'nope' }, [])).toThrow(expect.objectContaining({ path: 'target.compartmentId' }));
-		expect(() => whatFits(scene, { kind: 'replace', placementId: 'nope' }, [])).toThrow(expect.objectContaining({ path: 'target.placementId' }));
-		expect(() => whatFits(scene, { kind: 'space', box: { min: [0, 0, 0], max: [151, 10, 10] } }, [])).toThrow(expect.objectContaining({ path: 'target.box' }));
+		expect(() => whatFits(scene, { kind: 'mount', mountId: 'nope' }, [])).toThrow(
+			expect.objectContaining({ path: 'target.mountId' })
+		);
+		expect(() => whatFits(scene, { kind: 'compartment', compartmentId: 'nope' }, [])).toThrow(
+			expect.objectContaining({ path: 'target.compartmentId' })
+		);
+		expect(() => whatFits(scene, { kind: 'replace', placementId: 'nope' }, [])).toThrow(
+			expect.objectContaining({ path: 'target.placementId' })
+		);
+		expect(() =>
+			whatFits(scene, { kind: 'space', box: { min: [0, 0, 0], max: [151, 10, 10] } }, [])
+		).toThrow(expect.objectContaining({ path: 'target.box' }));
 	});
 
 	it('ports: the demo pump-reservoir keeps both ports in its place (13 mm under the top panel, its fittings need 10)', () => {
 		const scene = demoScene();
 		const pump = demoParts().find((p) => p.id === 'demo-pump-res')!;
-		const row = whatFits(scene, { kind: 'replace', placementId: 'pump-res' }, [{ part: pump }]).fits[0];
+		const row = whatFits(scene, { kind: 'replace', placementId: 'pump-res' }, [{ part: pump }])
+			.fits[0];
 		expect(row.ports.map((p) => [p.id, p.usable])).toEqual([
 			['in', true],
 			['out', true]
 		]);
 		// Flush against the top panel its upward ports have no room: 227 + 13 = 240 → body top at 340.
-		const flush = sceneSchema.parse({ ...demoSceneInput(), placements: demoSceneInput().placements!.map((p) => (p.id === 'pump-res' ? { ...p, position: [90, 240, 110] } : p)) });
+		const flush = sceneSchema.parse({
+			...demoSceneInput(),
+			placements: demoSceneInput().placements!.map((p) =>
+				p.id === 'pump-res' ? { ...p, position: [90, 240, 110] } : p
+			)
+		});
 		const high = whatFits(flush, { kind: 'replace', placementId: 'pump-res' }, [{ part: pump }]);
 		const rows = [...high.fits, ...high.left];
 		expect(rows[0].ports.map((p) => [p.id, p.usable, p.blockedBy])).toEqual([
@@ -124,8 +238,19 @@ describe('parts × positions', () => {
 	it('the demo card fits at 4 and 3 slots and collides at 2; a 3-slot card only at 4 slots', () => {
 		const scene = demoScene();
 		const card = demoParts().find((p) => p.id === 'demo-card')!;
-		const thick = { ...card, id: 'thick-card', name: 'Three-slot card', bodies: [{ ...card.bodies[0], box: { min: [0, 0, 0], max: [185, 120, 3 * 20.32] } }], keepouts: [] } as PartDef;
-		const table = partsByPositions(scene, { kind: 'replace', placementId: 'card' }, [{ part: card }, { part: thick }], { kind: 'divider', id: 'spine' });
+		const thick = {
+			...card,
+			id: 'thick-card',
+			name: 'Three-slot card',
+			bodies: [{ ...card.bodies[0], box: { min: [0, 0, 0], max: [185, 120, 3 * 20.32] } }],
+			keepouts: []
+		} as PartDef;
+		const table = partsByPositions(
+			scene,
+			{ kind: 'replace', placementId: 'card' },
+			[{ part: card }, { part: thick }],
+			{ kind: 'divider', id: 'spine' }
+		);
 		expect(table.positions.map((p) => p.label)).toEqual(['4 slots', '3 slots', '2 slots']);
 		// The card stands at x 107.36 → 148 (its corner kept): at '3 slots' the spine's right face is at
 		// 88, 19.36 mm away; the right panel is 2 mm away on the other side: the spare is 2. The card
@@ -139,7 +264,10 @@ describe('parts × positions', () => {
 
 describe('radiator + fans on the demo front mount (hand arithmetic)', () => {
 	const radiator = (cls: 240 | 280, t: number) =>
-		blockPart(`rad-${cls}-${t}`, cls === 240 ? [124, 275, t] : [143, 315, t], { category: 'radiator', specs: { radiatorClass: cls, radiatorThicknessMm: t } });
+		blockPart(`rad-${cls}-${t}`, cls === 240 ? [124, 275, t] : [143, 315, t], {
+			category: 'radiator',
+			specs: { radiatorClass: cls, radiatorThicknessMm: t }
+		});
 	const scene = (marginMm: number) => {
 		const input: SceneInput = { ...demoSceneInput(), marginMm };
 		return makeScene(input);
@@ -157,32 +285,67 @@ describe('radiator + fans on the demo front mount (hand arithmetic)', () => {
 		const combos = radiatorCombinations(scene(3), 'radiator', cands);
 		const by = (k: string) => combos.find((c) => c.key === k)!;
 		// 64 budget − 1 plate − 0 standoffs = 63 available.
-		expect(by('rad-240-45+2xstd-fan-120-15')).toMatchObject({ availableMm: 63, plateMm: 1, stackMm: 60, spareMm: 3, status: 'clear' });
+		expect(by('rad-240-45+2xstd-fan-120-15')).toMatchObject({
+			availableMm: 63,
+			plateMm: 1,
+			stackMm: 60,
+			spareMm: 3,
+			status: 'clear'
+		});
 		// Placed, the radiator sits on the plate 1 mm off the panel; the report may count that
 		// millimetre as a gap under the margin, so the checked scene is clear or tight, never worse.
 		expect(['clear', 'tight']).toContain(by('rad-240-45+2xstd-fan-120-15').checkedStatus);
 		// 36 + 25 = 61: 2 spare, under the 3 mm margin.
-		expect(by('rad-240-36+2xstd-fan-120-25')).toMatchObject({ stackMm: 61, spareMm: 2, status: 'tight', checkedStatus: 'tight' });
+		expect(by('rad-240-36+2xstd-fan-120-25')).toMatchObject({
+			stackMm: 61,
+			spareMm: 2,
+			status: 'tight',
+			checkedStatus: 'tight'
+		});
 		// 45 + 25 = 70: 7 over; the fans run into the bulkhead.
-		expect(by('rad-240-45+2xstd-fan-120-25')).toMatchObject({ stackMm: 70, spareMm: -7, status: 'collides', checkedStatus: 'collides' });
+		expect(by('rad-240-45+2xstd-fan-120-25')).toMatchObject({
+			stackMm: 70,
+			spareMm: -7,
+			status: 'collides',
+			checkedStatus: 'collides'
+		});
 		// Heat estimate: 240 / 120 × 100 W = 200 W; price 5000 + 2 × 1000.
-		expect(by('rad-240-45+2xstd-fan-120-15')).toMatchObject({ heatCapacityW: 200, priceMinor: 7000 });
+		expect(by('rad-240-45+2xstd-fan-120-15')).toMatchObject({
+			heatCapacityW: 200,
+			priceMinor: 7000
+		});
 		// Best spare first.
-		expect(combos.map((c) => c.spareMm)).toEqual([...combos.map((c) => c.spareMm)].sort((a, b) => b - a));
+		expect(combos.map((c) => c.spareMm)).toEqual(
+			[...combos.map((c) => c.spareMm)].sort((a, b) => b - a)
+		);
 	});
 
 	it('the 280: 64 mm, no plate; 30 + 25 leaves 9; two 140 fans; it replaces what the mount holds', () => {
 		const combos = radiatorCombinations(scene(2), 'radiator', cands);
 		const c = combos.find((x) => x.key === 'rad-280-30+2xstd-fan-140-25')!;
-		expect(c).toMatchObject({ availableMm: 64, plateMm: 0, stackMm: 55, spareMm: 9, status: 'clear', checkedStatus: 'clear', heatCapacityW: 280 / 120 * 100 });
+		expect(c).toMatchObject({
+			availableMm: 64,
+			plateMm: 0,
+			stackMm: 55,
+			spareMm: 9,
+			status: 'clear',
+			checkedStatus: 'clear',
+			heatCapacityW: (280 / 120) * 100
+		});
 		expect(c.fan.count).toBe(2);
 		expect(c.replaces.sort()).toEqual(['fan-1', 'fan-2', 'radiator']);
 		// No 120 fans on a 280, no 140 fans on a 240.
-		expect(combos.some((x) => x.key.startsWith('rad-280') && x.fan.partId.includes('120'))).toBe(false);
-		expect(combos.some((x) => x.key.startsWith('rad-240') && x.fan.partId.includes('140'))).toBe(false);
+		expect(combos.some((x) => x.key.startsWith('rad-280') && x.fan.partId.includes('120'))).toBe(
+			false
+		);
+		expect(combos.some((x) => x.key.startsWith('rad-240') && x.fan.partId.includes('140'))).toBe(
+			false
+		);
 	});
 
 	it('a mount that is not for radiators or fans has no combinations', () => {
-		expect(radiatorCombinations(makeScene({ enclosure: demoEnclosure() }), 'tray', cands)).toEqual([]);
+		expect(radiatorCombinations(makeScene({ enclosure: demoEnclosure() }), 'tray', cands)).toEqual(
+			[]
+		);
 	});
 });

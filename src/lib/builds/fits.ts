@@ -29,7 +29,14 @@ import {
 	type Scene,
 	type Vec3
 } from '$lib/geometry';
-import { probe, probeBase, probePlaced, portUse, type PortUse, type ProbeBase } from '$lib/geometry/fit-probe';
+import {
+	probe,
+	probeBase,
+	probePlaced,
+	portUse,
+	type PortUse,
+	type ProbeBase
+} from '$lib/geometry/fit-probe';
 import { reach } from '$lib/geometry/room';
 import { flatAlong, landInRoom, landOnMount, nextPlacementId, placedBounds } from './placement';
 
@@ -92,22 +99,58 @@ export function prepareTarget(scene: Scene, resolved: ResolvedScene, target: Fit
 	if (target.kind === 'mount') {
 		const mount = scene.enclosure.mounts.find((m) => m.id === target.mountId);
 		if (!mount) throw new SceneError('target.mountId', `No mount with id ${target.mountId}`);
-		return { ...common, base: probeBase(scene, resolved), label: mount.label, placementId: nextPlacementId(scene.placements), mount, movesWithControls: false, land: (part) => landOnMount(resolved, mount, part) };
+		return {
+			...common,
+			base: probeBase(scene, resolved),
+			label: mount.label,
+			placementId: nextPlacementId(scene.placements),
+			mount,
+			movesWithControls: false,
+			land: (part) => landOnMount(resolved, mount, part)
+		};
 	}
 	if (target.kind === 'compartment') {
 		const room = resolved.compartments.find((c) => c.id === target.compartmentId);
-		if (!room) throw new SceneError('target.compartmentId', `No compartment with id ${target.compartmentId}`);
-		return { ...common, base: probeBase(scene, resolved), label: room.label, placementId: nextPlacementId(scene.placements), mount: null, movesWithControls: true, land: (part) => landInRoom(resolved, room.box, part) };
+		if (!room) {
+			throw new SceneError(
+				'target.compartmentId',
+				`No compartment with id ${target.compartmentId}`
+			);
+		}
+		return {
+			...common,
+			base: probeBase(scene, resolved),
+			label: room.label,
+			placementId: nextPlacementId(scene.placements),
+			mount: null,
+			movesWithControls: true,
+			land: (part) => landInRoom(resolved, room.box, part)
+		};
 	}
 	if (target.kind === 'space') {
-		if (!insideBox(resolved.innerBox, target.box)) throw new SceneError('target.box', 'The box is not inside the enclosure');
+		if (!insideBox(resolved.innerBox, target.box)) {
+			throw new SceneError('target.box', 'The box is not inside the enclosure');
+		}
 		const size = target.box.max.map((v, i) => formatMm(v - target.box.min[i])).join(' × ');
-		return { ...common, base: probeBase(scene, resolved), label: `free space ${size}`, placementId: nextPlacementId(scene.placements), mount: null, movesWithControls: true, land: (part) => landInRoom(resolved, target.box, part) };
+		return {
+			...common,
+			base: probeBase(scene, resolved),
+			label: `free space ${size}`,
+			placementId: nextPlacementId(scene.placements),
+			mount: null,
+			movesWithControls: true,
+			land: (part) => landInRoom(resolved, target.box, part)
+		};
 	}
 	const old = resolved.placements.find((rp) => rp.placement.id === target.placementId);
-	if (!old) throw new SceneError('target.placementId', `No placement with id ${target.placementId}`);
+	if (!old) {
+		throw new SceneError('target.placementId', `No placement with id ${target.placementId}`);
+	}
 	const base = probeBase(scene, resolved, old.placement.id);
-	const mount = old.placement.mountId === undefined ? null : (scene.enclosure.mounts.find((m) => m.id === old.placement.mountId) ?? null);
+	const mount =
+		old.placement.mountId === undefined
+			? null
+			: (scene.enclosure.mounts.find((m) => m.id === old.placement.mountId) ?? null);
 	return {
 		...common,
 		base,
@@ -116,20 +159,29 @@ export function prepareTarget(scene: Scene, resolved: ResolvedScene, target: Fit
 		mount,
 		movesWithControls: false,
 		// On a mount it lands as a new part would there; standing free it takes the old one's corner and turn.
-		land: (part) => (mount ? landOnMount(base.without, mount, part) : { position: [...old.placement.position] as Vec3, rotation: { ...old.placement.rotation } })
+		land: (part) =>
+			mount
+				? landOnMount(base.without, mount, part)
+				: { position: [...old.placement.position] as Vec3, rotation: { ...old.placement.rotation } }
 	};
 }
 
 function reasonOf(status: FitStatus, r: ReturnType<typeof probe>): string | null {
 	if (status === 'clear' || status === 'tight') return null;
 	if (r.partStatus === 'collides' || r.partStatus === 'blocked') {
-		const first = r.overlaps.find((o) => o.kind === (r.partStatus === 'collides' ? 'collides' : 'blocked'));
+		const first = r.overlaps.find(
+			(o) => o.kind === (r.partStatus === 'collides' ? 'collides' : 'blocked')
+		);
 		return `${r.partStatus === 'collides' ? 'Runs into' : 'Its fitting or cable room is blocked by'} ${first ? first.label : 'another box'}.`;
 	}
-	if (r.partStatus === 'outside') return `Reaches outside the enclosure (${r.outsideFaces.join(', ')}).`;
+	if (r.partStatus === 'outside') {
+		return `Reaches outside the enclosure (${r.outsideFaces.join(', ')}).`;
+	}
 	if (r.mount) {
 		if (r.mount.unaccepted.length) return `The ${r.mount.label} does not take this class.`;
-		if (r.mount.spareMm !== null && r.mount.spareMm < 0) return `The stack is ${formatMm(-r.mount.spareMm)} over the ${r.mount.label}'s budget.`;
+		if (r.mount.spareMm !== null && r.mount.spareMm < 0) {
+			return `The stack is ${formatMm(-r.mount.spareMm)} over the ${r.mount.label}'s budget.`;
+		}
 		if (r.mount.overflow.length) return `Reaches past the ${r.mount.label}.`;
 	}
 	return 'Does not fit.';
@@ -138,16 +190,48 @@ function reasonOf(status: FitStatus, r: ReturnType<typeof probe>): string | null
 /** One candidate at a prepared target. */
 export function fitRow(prepared: Prepared, candidate: FitCandidate): FitRow {
 	const part = candidate.part;
-	const common = { partId: part.id, name: part.name, category: part.category, isStandard: candidate.isStandard ?? part.provenance === 'standard', priceMinor: candidate.priceMinor ?? null };
+	const common = {
+		partId: part.id,
+		name: part.name,
+		category: part.category,
+		isStandard: candidate.isStandard ?? part.provenance === 'standard',
+		priceMinor: candidate.priceMinor ?? null
+	};
 	const none = { '-x': null, '+x': null, '-y': null, '+y': null, '-z': null, '+z': null };
 	if (prepared.mount && !mountAccepts(prepared.mount, part)) {
-		return { ...common, status: 'blocked', fits: false, spareMm: null, spareByFace: none, stack: null, ports: [], placement: null, reason: `The ${prepared.mount.label} takes ${prepared.mount.accepts.join(', ')}.` };
+		return {
+			...common,
+			status: 'blocked',
+			fits: false,
+			spareMm: null,
+			spareByFace: none,
+			stack: null,
+			ports: [],
+			placement: null,
+			reason: `The ${prepared.mount.label} takes ${prepared.mount.accepts.join(', ')}.`
+		};
 	}
 	const landing = prepared.land(part);
 	if ('reason' in landing) {
-		return { ...common, status: 'outside', fits: false, spareMm: null, spareByFace: none, stack: null, ports: [], placement: null, reason: landing.reason };
+		return {
+			...common,
+			status: 'outside',
+			fits: false,
+			spareMm: null,
+			spareByFace: none,
+			stack: null,
+			ports: [],
+			placement: null,
+			reason: landing.reason
+		};
 	}
-	const placement: Placement = { id: prepared.placementId, partId: part.id, position: landing.position, rotation: landing.rotation, ...(prepared.mount ? { mountId: prepared.mount.id } : {}) };
+	const placement: Placement = {
+		id: prepared.placementId,
+		partId: part.id,
+		position: landing.position,
+		rotation: landing.rotation,
+		...(prepared.mount ? { mountId: prepared.mount.id } : {})
+	};
 	return rowAt(prepared, candidate, placement);
 }
 
@@ -155,7 +239,9 @@ function rowAt(prepared: Prepared, candidate: FitCandidate, placement: Placement
 	const part = candidate.part;
 	const r = probe(prepared.base, part, placement);
 	const spareByFace = {} as Record<Face, number | null>;
-	for (const [face, g] of Object.entries(r.gaps) as [Face, (typeof r.gaps)[Face]][]) spareByFace[face] = g.gapMm === null || g.held ? null : g.gapMm;
+	for (const [face, g] of Object.entries(r.gaps) as [Face, (typeof r.gaps)[Face]][]) {
+		spareByFace[face] = g.gapMm === null || g.held ? null : g.gapMm;
+	}
 	return {
 		partId: part.id,
 		name: part.name,
@@ -166,7 +252,9 @@ function rowAt(prepared: Prepared, candidate: FitCandidate, placement: Placement
 		fits: FIT_STATUSES.includes(r.status),
 		spareMm: r.spareMm,
 		spareByFace,
-		stack: r.mount ? { usedMm: r.mount.usedMm, budgetMm: r.mount.budgetMm, spareMm: r.mount.spareMm } : null,
+		stack: r.mount
+			? { usedMm: r.mount.usedMm, budgetMm: r.mount.budgetMm, spareMm: r.mount.spareMm }
+			: null,
 		ports: r.placed.ports.length ? portUse(prepared.base, r.placed) : [],
 		placement,
 		reason: reasonOf(r.status, r)
@@ -174,12 +262,19 @@ function rowAt(prepared: Prepared, candidate: FitCandidate, placement: Placement
 }
 
 export function sortRows(rows: FitRow[], sort: FitSort): FitRow[] {
-	const name = (a: FitRow, b: FitRow) => a.name.localeCompare(b.name, 'en') || (a.partId < b.partId ? -1 : a.partId > b.partId ? 1 : 0);
-	const spare = (a: FitRow, b: FitRow) => (b.spareMm ?? Infinity) - (a.spareMm ?? Infinity) || name(a, b);
-	const price = (a: FitRow, b: FitRow) => (a.priceMinor ?? Infinity) - (b.priceMinor ?? Infinity) || spare(a, b);
+	const name = (a: FitRow, b: FitRow) =>
+		a.name.localeCompare(b.name, 'en') || (a.partId < b.partId ? -1 : a.partId > b.partId ? 1 : 0);
+	const spare = (a: FitRow, b: FitRow) =>
+		(b.spareMm ?? Infinity) - (a.spareMm ?? Infinity) || name(a, b);
+	const price = (a: FitRow, b: FitRow) =>
+		(a.priceMinor ?? Infinity) - (b.priceMinor ?? Infinity) || spare(a, b);
 	const order = sort === 'name' ? name : sort === 'price' ? price : spare;
 	// Clear before tight, then the chosen order.
-	return [...rows].sort((a, b) => (a.status === b.status ? 0 : a.status === 'clear' ? -1 : b.status === 'clear' ? 1 : 0) || order(a, b));
+	return [...rows].sort(
+		(a, b) =>
+			(a.status === b.status ? 0 : a.status === 'clear' ? -1 : b.status === 'clear' ? 1 : 0) ||
+			order(a, b)
+	);
 }
 
 export interface WhatFits {
@@ -190,13 +285,25 @@ export interface WhatFits {
 }
 
 /** The candidates that fit at the target, ranked; the others with their reason. */
-export function whatFits(scene: Scene, target: FitTarget, candidates: readonly FitCandidate[], sort: FitSort = 'spare', resolved = resolveScene(scene)): WhatFits {
+export function whatFits(
+	scene: Scene,
+	target: FitTarget,
+	candidates: readonly FitCandidate[],
+	sort: FitSort = 'spare',
+	resolved = resolveScene(scene)
+): WhatFits {
 	const prepared = prepareTarget(scene, resolved, target);
 	const rows = candidates.map((c) => fitRow(prepared, c));
 	return {
 		label: prepared.label,
-		fits: sortRows(rows.filter((r) => r.fits), sort),
-		left: sortRows(rows.filter((r) => !r.fits), 'name')
+		fits: sortRows(
+			rows.filter((r) => r.fits),
+			sort
+		),
+		left: sortRows(
+			rows.filter((r) => !r.fits),
+			'name'
+		)
 	};
 }
 
@@ -210,11 +317,18 @@ export interface PositionsControl {
 export interface PartsByPositions {
 	control: PositionsControl & { label: string };
 	positions: { label: string; offsetMm: number }[];
-	rows: { partId: string; name: string; cells: { status: FitStatus; spareMm: number | null; fits: boolean }[] }[];
+	rows: {
+		partId: string;
+		name: string;
+		cells: { status: FitStatus; spareMm: number | null; fits: boolean }[];
+	}[];
 }
 
 function controlDef(scene: Scene, control: PositionsControl): DividerDef | BracketDef {
-	const def = control.kind === 'divider' ? scene.enclosure.dividers.find((d) => d.id === control.id) : scene.enclosure.brackets.find((b) => b.id === control.id);
+	const def =
+		control.kind === 'divider'
+			? scene.enclosure.dividers.find((d) => d.id === control.id)
+			: scene.enclosure.brackets.find((b) => b.id === control.id);
 	if (!def) throw new SceneError('control.id', `No ${control.kind} with id ${control.id}`);
 	return def;
 }
@@ -223,21 +337,38 @@ function controlDef(scene: Scene, control: PositionsControl): DividerDef | Brack
  * Each candidate at every allowed position of one control: status and spare mm per cell. Where a
  * part lands on a mount (or in place of a part) does not depend on the controls, so it lands once.
  */
-export function partsByPositions(scene: Scene, target: FitTarget, candidates: readonly FitCandidate[], control: PositionsControl): PartsByPositions {
+export function partsByPositions(
+	scene: Scene,
+	target: FitTarget,
+	candidates: readonly FitCandidate[],
+	control: PositionsControl
+): PartsByPositions {
 	const def = controlDef(scene, control);
 	const positions = allowedPositions(def);
 	const key = control.kind === 'divider' ? 'dividerPositions' : 'bracketOffsets';
-	const rows: PartsByPositions['rows'] = candidates.map((c) => ({ partId: c.part.id, name: c.part.name, cells: [] }));
+	const rows: PartsByPositions['rows'] = candidates.map((c) => ({
+		partId: c.part.id,
+		name: c.part.name,
+		cells: []
+	}));
 	let landed: (ResolvedPlacement | null | string)[] | null = null;
 	for (const p of positions) {
 		const at: Scene = { ...scene, [key]: { ...scene[key], [control.id]: p.offsetMm } };
 		const prepared = prepareTarget(at, resolveScene(at), target);
 		if (!prepared.movesWithControls && landed === null) {
 			landed = candidates.map((c) => {
-				if (prepared.mount && !mountAccepts(prepared.mount, c.part)) return `The ${prepared.mount.label} takes ${prepared.mount.accepts.join(', ')}.`;
+				if (prepared.mount && !mountAccepts(prepared.mount, c.part)) {
+					return `The ${prepared.mount.label} takes ${prepared.mount.accepts.join(', ')}.`;
+				}
 				const l = prepared.land(c.part);
 				if ('reason' in l) return l.reason;
-				return placePart(c.part, { id: prepared.placementId, partId: c.part.id, position: l.position, rotation: l.rotation, ...(prepared.mount ? { mountId: prepared.mount.id } : {}) });
+				return placePart(c.part, {
+					id: prepared.placementId,
+					partId: c.part.id,
+					position: l.position,
+					rotation: l.rotation,
+					...(prepared.mount ? { mountId: prepared.mount.id } : {})
+				});
 			});
 		}
 		candidates.forEach((c, i) => {
@@ -249,14 +380,26 @@ export function partsByPositions(scene: Scene, target: FitTarget, candidates: re
 					return;
 				}
 				const r = probePlaced(prepared.base, l);
-				rows[i].cells.push({ status: r.status, spareMm: r.spareMm, fits: FIT_STATUSES.includes(r.status) });
+				rows[i].cells.push({
+					status: r.status,
+					spareMm: r.spareMm,
+					fits: FIT_STATUSES.includes(r.status)
+				});
 				return;
 			}
 			const row = fitRow(prepared, c);
-			rows[i].cells.push(row.placement ? { status: row.status, spareMm: row.spareMm, fits: row.fits } : { status: 'outside', spareMm: null, fits: false });
+			rows[i].cells.push(
+				row.placement
+					? { status: row.status, spareMm: row.spareMm, fits: row.fits }
+					: { status: 'outside', spareMm: null, fits: false }
+			);
 		});
 	}
-	return { control: { ...control, label: def.label }, positions: positions.map((p) => ({ label: p.label, offsetMm: p.offsetMm })), rows };
+	return {
+		control: { ...control, label: def.label },
+		positions: positions.map((p) => ({ label: p.label, offsetMm: p.offsetMm })),
+		rows
+	};
 }
 
 // — radiator + fans on a radiator mount —
@@ -294,7 +437,12 @@ export interface RadiatorCombination {
 
 /** The part's thickness along the mount's normal when laid flat on it, as landOnMount turns it. */
 function thicknessAlong(part: PartDef, axis: 0 | 1 | 2): number {
-	const b = placedBounds(part, { id: 'probe', partId: part.id, position: [0, 0, 0], rotation: flatAlong(part, axis) });
+	const b = placedBounds(part, {
+		id: 'probe',
+		partId: part.id,
+		position: [0, 0, 0],
+		rotation: flatAlong(part, axis)
+	});
 	return b.max[axis] - b.min[axis];
 }
 
@@ -305,26 +453,61 @@ const STATUS_RANK: FitStatus[] = ['collides', 'blocked', 'outside', 'tight', 'cl
  * stack against the mount's room by arithmetic, then checked in the scene in place of what the
  * mount holds now. Best spare first.
  */
-export function radiatorCombinations(scene: Scene, mountId: string, candidates: readonly FitCandidate[], resolved = resolveScene(scene)): RadiatorCombination[] {
+export function radiatorCombinations(
+	scene: Scene,
+	mountId: string,
+	candidates: readonly FitCandidate[],
+	resolved = resolveScene(scene)
+): RadiatorCombination[] {
 	const mount = scene.enclosure.mounts.find((m) => m.id === mountId);
 	if (!mount) throw new SceneError('target.mountId', `No mount with id ${mountId}`);
 	if (mount.kind !== 'radiator' && mount.kind !== 'fan') return [];
 	const { axis, high } = FACE_AXES[mount.face];
 	const inner = resolved.innerBox;
-	const region: Box = { min: [0, 1, 2].map((i) => Math.max(mount.region.min[i], inner.min[i])) as Vec3, max: [0, 1, 2].map((i) => Math.min(mount.region.max[i], inner.max[i])) as Vec3 };
-	const room = reach(inner, region, axis, high ? -1 : 1, high ? inner.max[axis] : inner.min[axis], [...resolved.dividers, ...resolved.brackets].map((b) => ({ box: b.box, label: b.label, id: b.id })));
+	const region: Box = {
+		min: [0, 1, 2].map((i) => Math.max(mount.region.min[i], inner.min[i])) as Vec3,
+		max: [0, 1, 2].map((i) => Math.min(mount.region.max[i], inner.max[i])) as Vec3
+	};
+	const room = reach(
+		inner,
+		region,
+		axis,
+		high ? -1 : 1,
+		high ? inner.max[axis] : inner.min[axis],
+		[...resolved.dividers, ...resolved.brackets].map((b) => ({
+			box: b.box,
+			label: b.label,
+			id: b.id
+		}))
+	);
 	const budget = mount.budgetMm ?? Infinity;
 	const limit = Math.min(budget, room.distanceMm);
-	const boundedBy = budget <= room.distanceMm + EPSILON_MM ? `the ${formatMm(budget)} budget` : `the room to the ${room.against}`;
-	const radiators = candidates.filter((c) => c.part.category === 'radiator' && c.part.specs.radiatorClass !== undefined && mountAccepts(mount, c.part));
-	const fans = candidates.filter((c) => c.part.category === 'fan' && c.part.specs.fanSizeMm !== undefined);
+	const boundedBy =
+		budget <= room.distanceMm + EPSILON_MM
+			? `the ${formatMm(budget)} budget`
+			: `the room to the ${room.against}`;
+	const radiators = candidates.filter(
+		(c) =>
+			c.part.category === 'radiator' &&
+			c.part.specs.radiatorClass !== undefined &&
+			mountAccepts(mount, c.part)
+	);
+	const fans = candidates.filter(
+		(c) => c.part.category === 'fan' && c.part.specs.fanSizeMm !== undefined
+	);
 	const replaces = scene.placements.filter((p) => p.mountId === mount.id).map((p) => p.id);
-	const emptied: Scene = { ...scene, placements: scene.placements.filter((p) => p.mountId !== mount.id) };
+	const emptied: Scene = {
+		...scene,
+		placements: scene.placements.filter((p) => p.mountId !== mount.id)
+	};
 	const out: RadiatorCombination[] = [];
 	for (const rad of radiators) {
 		const cls = rad.part.specs.radiatorClass!;
 		const fanSize = fanSizeOf(cls);
-		const plateMm = mount.plateMm && (mount.plateFor === undefined || mount.plateFor.includes(String(cls))) ? mount.plateMm : 0;
+		const plateMm =
+			mount.plateMm && (mount.plateFor === undefined || mount.plateFor.includes(String(cls)))
+				? mount.plateMm
+				: 0;
 		const availableMm = limit - plateMm - mount.standoffMm;
 		const radT = thicknessAlong(rad.part, axis);
 		for (const fan of fans) {
@@ -333,9 +516,18 @@ export function radiatorCombinations(scene: Scene, mountId: string, candidates: 
 			const fanT = thicknessAlong(fan.part, axis);
 			const stackMm = radT + fanT;
 			const spareMm = availableMm - stackMm;
-			const status: FitStatus = spareMm < -EPSILON_MM ? 'collides' : spareMm < scene.marginMm - EPSILON_MM ? 'tight' : 'clear';
+			const status: FitStatus =
+				spareMm < -EPSILON_MM
+					? 'collides'
+					: spareMm < scene.marginMm - EPSILON_MM
+						? 'tight'
+						: 'clear';
 			// Place it: radiator on the panel (past plate and standoffs), then the fans on it.
-			const parts = [...emptied.parts.filter((p) => p.id !== rad.part.id && p.id !== fan.part.id), rad.part, fan.part];
+			const parts = [
+				...emptied.parts.filter((p) => p.id !== rad.part.id && p.id !== fan.part.id),
+				rad.part,
+				fan.part
+			];
 			let working: Scene = { ...emptied, parts };
 			const placed: Placement[] = [];
 			let landedAll = true;
@@ -346,27 +538,56 @@ export function radiatorCombinations(scene: Scene, mountId: string, candidates: 
 					landedAll = false;
 					break;
 				}
-				const p: Placement = { id: nextPlacementId([...scene.placements, ...working.placements]), partId: part.id, position: l.position, rotation: l.rotation, mountId: mount.id };
+				const p: Placement = {
+					id: nextPlacementId([...scene.placements, ...working.placements]),
+					partId: part.id,
+					position: l.position,
+					rotation: l.rotation,
+					mountId: mount.id
+				};
 				placed.push(p);
 				working = { ...working, placements: [...working.placements, p] };
 			}
 			let checkedStatus: FitStatus = 'outside';
 			if (landedAll) {
 				// A radiator sits centred on its mount (common practice): the stack moves as one.
-				const bounds = placed.map((p) => placedBounds(p.partId === rad.part.id ? rad.part : fan.part, p));
-				const shift = [0, 1, 2].map((i) => (i === axis ? 0 : (region.min[i] + region.max[i]) / 2 - (Math.min(...bounds.map((b) => b.min[i])) + Math.max(...bounds.map((b) => b.max[i]))) / 2));
-				const centred = placed.map((p) => ({ ...p, position: p.position.map((v, i) => v + shift[i]) as Vec3 }));
+				const bounds = placed.map((p) =>
+					placedBounds(p.partId === rad.part.id ? rad.part : fan.part, p)
+				);
+				const shift = [0, 1, 2].map((i) =>
+					i === axis
+						? 0
+						: (region.min[i] + region.max[i]) / 2 -
+							(Math.min(...bounds.map((b) => b.min[i])) +
+								Math.max(...bounds.map((b) => b.max[i]))) /
+								2
+				);
+				const centred = placed.map((p) => ({
+					...p,
+					position: p.position.map((v, i) => v + shift[i]) as Vec3
+				}));
 				placed.splice(0, placed.length, ...centred);
 				working = { ...working, placements: [...emptied.placements, ...centred] };
 				const report = checkScene(working);
 				const ids = new Set(placed.map((p) => p.id));
-				const statuses = [...report.parts.filter((p) => ids.has(p.placementId)).map((p) => p.status), report.mounts.find((m) => m.mountId === mount.id)!.status];
+				const statuses = [
+					...report.parts.filter((p) => ids.has(p.placementId)).map((p) => p.status),
+					report.mounts.find((m) => m.mountId === mount.id)!.status
+				];
 				checkedStatus = STATUS_RANK.find((s) => statuses.includes(s)) ?? 'clear';
 			}
-			const price = rad.priceMinor == null || fan.priceMinor == null ? null : rad.priceMinor + count * fan.priceMinor;
+			const price =
+				rad.priceMinor == null || fan.priceMinor == null
+					? null
+					: rad.priceMinor + count * fan.priceMinor;
 			out.push({
 				key: `${rad.part.id}+${count}x${fan.part.id}`,
-				radiator: { partId: rad.part.id, name: rad.part.name, thicknessMm: radT, radiatorClass: cls },
+				radiator: {
+					partId: rad.part.id,
+					name: rad.part.name,
+					thicknessMm: radT,
+					radiatorClass: cls
+				},
 				fan: { partId: fan.part.id, name: fan.part.name, thicknessMm: fanT, count },
 				plateMm,
 				standoffMm: mount.standoffMm,

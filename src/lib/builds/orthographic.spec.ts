@@ -37,34 +37,37 @@ function cameraFor(inner: Box, view: 'front' | 'top' | 'side') {
 describe('views agree with the 3D view’s cameras', () => {
 	const { resolved, drawing } = drawingOf();
 
-	it.each(['front', 'top', 'side'] as const)('%s: every body lands where three.js sees it', (id) => {
-		const view = drawing.views.find((v) => v.id === id) as OrthoView;
-		const project = cameraFor(resolved.innerBox, id);
-		// Fit drawing = k · ndc + c from the inner box's corners, then check every body against it
-		// (to a micrometre: the top camera sits 0.001 mm off the vertical, as in the 3D view).
-		const a = project(resolved.innerBox.min);
-		const b = project(resolved.innerBox.max);
-		const h = view.h === 'x' ? 0 : view.h === 'y' ? 1 : 2;
-		const v = view.v === 'x' ? 0 : view.v === 'y' ? 1 : 2;
-		const kx = (resolved.innerBox.max[h] - resolved.innerBox.min[h]) / (b.x - a.x);
-		const ky = (-resolved.innerBox.max[v] + resolved.innerBox.min[v]) / (b.y - a.y);
-		// Same handedness: right on screen is right on paper, up on screen is up on paper (y down).
-		expect(kx).toBeGreaterThan(0);
-		expect(ky).toBeLessThan(0);
-		for (const rp of resolved.placements) {
-			for (const body of rp.bodies) {
-				const rect = view.rects.find((r) => r.id === body.id)!;
-				const p = project(body.box.min);
-				const q = project(body.box.max);
-				const left = Math.min(p.x, q.x);
-				const top = Math.max(p.y, q.y);
-				expect(rect.x).toBeCloseTo(resolved.innerBox.min[h] + (left - a.x) * kx, 3);
-				expect(rect.y).toBeCloseTo(-resolved.innerBox.min[v] + (top - a.y) * ky, 3);
-				expect(rect.w).toBeCloseTo(Math.abs(q.x - p.x) * kx, 3);
-				expect(rect.h).toBeCloseTo(Math.abs(q.y - p.y) * -ky, 3);
+	it.each(['front', 'top', 'side'] as const)(
+		'%s: every body lands where three.js sees it',
+		(id) => {
+			const view = drawing.views.find((v) => v.id === id) as OrthoView;
+			const project = cameraFor(resolved.innerBox, id);
+			// Fit drawing = k · ndc + c from the inner box's corners, then check every body against it
+			// (to a micrometre: the top camera sits 0.001 mm off the vertical, as in the 3D view).
+			const a = project(resolved.innerBox.min);
+			const b = project(resolved.innerBox.max);
+			const h = view.h === 'x' ? 0 : view.h === 'y' ? 1 : 2;
+			const v = view.v === 'x' ? 0 : view.v === 'y' ? 1 : 2;
+			const kx = (resolved.innerBox.max[h] - resolved.innerBox.min[h]) / (b.x - a.x);
+			const ky = (-resolved.innerBox.max[v] + resolved.innerBox.min[v]) / (b.y - a.y);
+			// Same handedness: right on screen is right on paper, up on screen is up on paper (y down).
+			expect(kx).toBeGreaterThan(0);
+			expect(ky).toBeLessThan(0);
+			for (const rp of resolved.placements) {
+				for (const body of rp.bodies) {
+					const rect = view.rects.find((r) => r.id === body.id)!;
+					const p = project(body.box.min);
+					const q = project(body.box.max);
+					const left = Math.min(p.x, q.x);
+					const top = Math.max(p.y, q.y);
+					expect(rect.x).toBeCloseTo(resolved.innerBox.min[h] + (left - a.x) * kx, 3);
+					expect(rect.y).toBeCloseTo(-resolved.innerBox.min[v] + (top - a.y) * ky, 3);
+					expect(rect.w).toBeCloseTo(Math.abs(q.x - p.x) * kx, 3);
+					expect(rect.h).toBeCloseTo(Math.abs(q.y - p.y) * -ky, 3);
+				}
 			}
 		}
-	});
+	);
 
 	it('leaves out what faces the viewer: no front or back panel in the front view, no spine in the side view', () => {
 		const front = drawing.views.find((v) => v.id === 'front')!;
@@ -77,7 +80,9 @@ describe('views agree with the 3D view’s cameras', () => {
 
 	it('paints bodies far to near, so nearer parts cover farther ones', () => {
 		const front = drawing.views.find((v) => v.id === 'front')!;
-		const bodies = front.rects.filter((r) => r.kind === 'body').map((r) => resolved.placements.flatMap((p) => p.bodies).find((b) => b.id === r.id)!);
+		const bodies = front.rects
+			.filter((r) => r.kind === 'body')
+			.map((r) => resolved.placements.flatMap((p) => p.bodies).find((b) => b.id === r.id)!);
 		const near = bodies.map((b) => b.box.min[2]);
 		expect(near).toEqual([...near].sort((x, y) => y - x));
 	});
@@ -87,7 +92,9 @@ describe('dimensions', () => {
 	it('labels the divider position and measures gaps face to face', () => {
 		const { drawing } = drawingOf();
 		const front = drawing.views.find((v) => v.id === 'front')!;
-		expect(front.dims.find((d) => d.id === 'position:divider:spine')?.label).toBe('Spine x = 86.0\u2009mm');
+		expect(front.dims.find((d) => d.id === 'position:divider:spine')?.label).toBe(
+			'Spine x = 86.0\u2009mm'
+		);
 		// CPU block top at 38.6 mm (11 + 1.6 board + 26 block), spine at 86.0 mm.
 		const gap = front.dims.find((d) => d.id.startsWith('gap:cpu-block:+x'))!;
 		expect(gap.label).toBe('47.4\u2009mm');
@@ -101,7 +108,14 @@ describe('dimensions', () => {
 		const hit = front.rects.filter((r) => r.kind === 'interference');
 		// The spine (106.32–108.32 mm) cuts the card from 107.36 mm (0.96 mm) and passes right
 		// through the pump-reservoir (x 90–148 mm: the spine's full 2 mm).
-		expect(hit.map((r) => [r.id.includes('card/') ? 'card' : r.id.includes('pump-res/') ? 'pump-res' : r.id, Math.round(r.w * 1000) / 1000]).sort()).toEqual([
+		expect(
+			hit
+				.map((r) => [
+					r.id.includes('card/') ? 'card' : r.id.includes('pump-res/') ? 'pump-res' : r.id,
+					Math.round(r.w * 1000) / 1000
+				])
+				.sort()
+		).toEqual([
 			['card', 0.96],
 			['pump-res', 2]
 		]);
@@ -115,7 +129,9 @@ describe('scale', () => {
 		expect(layoutFits(drawing.views, drawing.scale, room)).toBe(true);
 		const larger = SCALES.filter((s) => s > drawing.scale);
 		expect(larger.length).toBeGreaterThan(0);
-		for (const s of larger) expect(layoutFits(viewsAt(scene, resolved, report, s).views, s, room)).toBe(false);
+		for (const s of larger) {
+			expect(layoutFits(viewsAt(scene, resolved, report, s).views, s, room)).toBe(false);
+		}
 		expect(drawing.scaleText).toBe(`1:${Math.round(10 / drawing.scale) / 10}`);
 	});
 });

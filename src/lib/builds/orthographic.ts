@@ -19,7 +19,17 @@
  * inside between the two faces with a tag for the number.
  */
 
-import { EPSILON_MM, type Axis, type Box, type Face, type FitReport, type FitStatus, type ResolvedScene, type Scene, type WorldBox } from '$lib/geometry';
+import {
+	EPSILON_MM,
+	type Axis,
+	type Box,
+	type Face,
+	type FitReport,
+	type FitStatus,
+	type ResolvedScene,
+	type Scene,
+	type WorldBox
+} from '$lib/geometry';
 import { AXIS_WORDS, mm } from './sheet-words';
 
 export type ViewId = 'front' | 'top' | 'side';
@@ -112,18 +122,43 @@ const MAX_GAPS = 8;
 const PAPER = { textMm: 2.4, tagMm: 2.2, lineMm: 0.25, dimGapMm: 4, dimStepMm: 4.5 };
 
 /** Scales a sheet may print at, largest first: paper mm per world mm. */
-export const SCALES = [1, 1 / 2, 1 / 2.5, 1 / 3, 1 / 4, 1 / 5, 1 / 6, 1 / 8, 1 / 10, 1 / 15, 1 / 20];
+export const SCALES = [
+	1,
+	1 / 2,
+	1 / 2.5,
+	1 / 3,
+	1 / 4,
+	1 / 5,
+	1 / 6,
+	1 / 8,
+	1 / 10,
+	1 / 15,
+	1 / 20
+];
 
 function rectOf(box: Box, s: ViewSpec): { x: number; y: number; w: number; h: number } {
-	return { x: box.min[s.h], y: -box.max[s.v], w: box.max[s.h] - box.min[s.h], h: box.max[s.v] - box.min[s.v] };
+	return {
+		x: box.min[s.h],
+		y: -box.max[s.v],
+		w: box.max[s.h] - box.min[s.h],
+		h: box.max[s.v] - box.min[s.v]
+	};
 }
 
 /** Farthest first, so nearer boxes are painted over farther ones. */
 function farFirst(s: ViewSpec) {
-	return (a: WorldBox, b: WorldBox) => (s.nearHigh ? a.box.max[s.depth] - b.box.max[s.depth] : b.box.min[s.depth] - a.box.min[s.depth]);
+	return (a: WorldBox, b: WorldBox) =>
+		s.nearHigh ? a.box.max[s.depth] - b.box.max[s.depth] : b.box.min[s.depth] - a.box.min[s.depth];
 }
 
-const WALL_AXIS: Record<string, number> = { left: 0, right: 0, bottom: 1, top: 1, front: 2, back: 2 };
+const WALL_AXIS: Record<string, number> = {
+	left: 0,
+	right: 0,
+	bottom: 1,
+	top: 1,
+	front: 2,
+	back: 2
+};
 
 function structureRects(scene: Scene, resolved: ResolvedScene, s: ViewSpec): ViewRect[] {
 	const out: ViewRect[] = [];
@@ -138,28 +173,57 @@ function structureRects(scene: Scene, resolved: ResolvedScene, s: ViewSpec): Vie
 		if (def && AXIS_NAMES.indexOf(def.axis) === s.depth) continue;
 		out.push({ id: d.id, kind: 'divider', label: d.label, ...rectOf(d.box, s) });
 	}
-	for (const b of resolved.brackets) out.push({ id: b.id, kind: 'bracket', label: b.label, ...rectOf(b.box, s) });
+	for (const b of resolved.brackets) {
+		out.push({ id: b.id, kind: 'bracket', label: b.label, ...rectOf(b.box, s) });
+	}
 	// A mount's adapter plate or standoffs: fixed structure drawn like a bracket.
-	for (const b of resolved.plates) out.push({ id: b.id, kind: 'bracket', label: b.label, ...rectOf(b.box, s) });
+	for (const b of resolved.plates) {
+		out.push({ id: b.id, kind: 'bracket', label: b.label, ...rectOf(b.box, s) });
+	}
 	return out;
 }
 
 function partRects(resolved: ResolvedScene, report: FitReport, s: ViewSpec): ViewRect[] {
 	const status = new Map(report.parts.map((p) => [p.placementId, p.status]));
 	const bodies = resolved.placements.flatMap((rp) => rp.bodies).sort(farFirst(s));
-	const out: ViewRect[] = bodies.map((b) => ({ id: b.id, kind: 'body', label: b.label, placementId: b.placementId, status: status.get(b.placementId!), ...rectOf(b.box, s) }));
+	const out: ViewRect[] = bodies.map((b) => ({
+		id: b.id,
+		kind: 'body',
+		label: b.label,
+		placementId: b.placementId,
+		status: status.get(b.placementId!),
+		...rectOf(b.box, s)
+	}));
 	for (const k of resolved.placements.flatMap((rp) => rp.keepouts)) {
-		out.push({ id: k.id, kind: 'keepout', label: k.label, placementId: k.placementId, ...rectOf(k.box, s) });
+		out.push({
+			id: k.id,
+			kind: 'keepout',
+			label: k.label,
+			placementId: k.placementId,
+			...rectOf(k.box, s)
+		});
 	}
 	for (const o of report.overlaps.filter((o) => o.kind === 'collides')) {
-		out.push({ id: `overlap:${o.a.id}|${o.b.id}`, kind: 'interference', label: `${o.a.label} × ${o.b.label}`, status: 'collides', ...rectOf(o.box, s) });
+		out.push({
+			id: `overlap:${o.a.id}|${o.b.id}`,
+			kind: 'interference',
+			label: `${o.a.label} × ${o.b.label}`,
+			status: 'collides',
+			...rectOf(o.box, s)
+		});
 	}
 	return out;
 }
 
 /** Every world box by id, to find what a gap is measured against. */
 function boxIndex(resolved: ResolvedScene): Map<string, Box> {
-	const all = [...resolved.walls, ...resolved.dividers, ...resolved.brackets, ...resolved.plates, ...resolved.placements.flatMap((rp) => rp.bodies)];
+	const all = [
+		...resolved.walls,
+		...resolved.dividers,
+		...resolved.brackets,
+		...resolved.plates,
+		...resolved.placements.flatMap((rp) => rp.bodies)
+	];
 	return new Map(all.map((w) => [w.id, w.box]));
 }
 
@@ -176,18 +240,39 @@ interface GapPick {
  * Gaps worth drawing in a view: for each part, its smallest free gap on a face that lies in the
  * view's plane, and every tight one; held contact is not a gap.
  */
-function gapPicks(resolved: ResolvedScene, report: FitReport, s: ViewSpec, marginMm: number): GapPick[] {
+function gapPicks(
+	resolved: ResolvedScene,
+	report: FitReport,
+	s: ViewSpec,
+	marginMm: number
+): GapPick[] {
 	const boxes = boxIndex(resolved);
 	const picks: GapPick[] = [];
 	const extra: GapPick[] = [];
 	for (const pr of report.parts) {
 		const rp = resolved.placements.find((p) => p.placement.id === pr.placementId)!;
-		const candidates = (Object.entries(pr.gaps) as [Face, FitReport['parts'][number]['gaps'][Face]][])
+		const candidates = (
+			Object.entries(pr.gaps) as [Face, FitReport['parts'][number]['gaps'][Face]][]
+		)
 			.filter(([f, g]) => {
 				const a = AXIS_NAMES.indexOf(f[1] as Axis);
-				return (a === s.h || a === s.v) && g.gapMm !== null && g.gapMm >= -EPSILON_MM && !g.held && g.against && boxes.has(g.against.id);
+				return (
+					(a === s.h || a === s.v) &&
+					g.gapMm !== null &&
+					g.gapMm >= -EPSILON_MM &&
+					!g.held &&
+					g.against &&
+					boxes.has(g.against.id)
+				);
 			})
-			.map(([face, g]) => ({ placementId: pr.placementId, face, gapMm: g.gapMm!, against: boxes.get(g.against!.id)!, bounds: rp.bounds, tight: (g.worstCaseMm ?? g.gapMm!) < marginMm - EPSILON_MM }))
+			.map(([face, g]) => ({
+				placementId: pr.placementId,
+				face,
+				gapMm: g.gapMm!,
+				against: boxes.get(g.against!.id)!,
+				bounds: rp.bounds,
+				tight: (g.worstCaseMm ?? g.gapMm!) < marginMm - EPSILON_MM
+			}))
 			.sort((x, y) => x.gapMm - y.gapMm);
 		candidates.forEach((c, i) => {
 			if (i === 0) picks.push(c);
@@ -201,7 +286,8 @@ function gapPicks(resolved: ResolvedScene, report: FitReport, s: ViewSpec, margi
 
 type Area = { x: number; y: number; w: number; h: number };
 
-const overlaps = (a: Area, b: Area) => a.x < b.x + b.w && b.x < a.x + a.w && a.y < b.y + b.h && b.y < a.y + a.h;
+const overlaps = (a: Area, b: Area) =>
+	a.x < b.x + b.w && b.x < a.x + a.w && a.y < b.y + b.h && b.y < a.y + a.h;
 
 /** The first candidate area that is clear of every area already taken (else the first). */
 function firstClear(candidates: Area[], taken: Area[]): number {
@@ -218,7 +304,8 @@ function gapDim(p: GapPick, s: ViewSpec, k: number, scale: number, taken: Area[]
 	const lo = Math.max(p.bounds.min[other], p.against.min[other]);
 	const hi = Math.min(p.bounds.max[other], p.against.max[other]);
 	const across = (lo + hi) / 2;
-	const point = (along: number, perp: number): [number, number] => (a === s.h ? [along, -perp] : [perp, -along]);
+	const point = (along: number, perp: number): [number, number] =>
+		a === s.h ? [along, -perp] : [perp, -along];
 	const pa = point(start, across);
 	const pb = point(end, across);
 	const mid = point((start + end) / 2, across);
@@ -229,11 +316,32 @@ function gapDim(p: GapPick, s: ViewSpec, k: number, scale: number, taken: Area[]
 	// Beside the line first (above a horizontal one, right of a vertical one), then further out.
 	const offsets: [number, number][] =
 		a === s.h
-			? [[0, -1], [0, 1], [0, -2], [0, 2], [0, -3], [0, 3], [-1, -1], [1, -1]]
-			: [[1, 0], [-1, 0], [1, -1], [1, 1], [-1, -1], [-1, 1], [1, -2], [1, 2]];
+			? [
+					[0, -1],
+					[0, 1],
+					[0, -2],
+					[0, 2],
+					[0, -3],
+					[0, 3],
+					[-1, -1],
+					[1, -1]
+				]
+			: [
+					[1, 0],
+					[-1, 0],
+					[1, -1],
+					[1, 1],
+					[-1, -1],
+					[-1, 1],
+					[1, -2],
+					[1, 2]
+				];
 	const candidates = offsets.map(([dx, dy]) => {
 		const cx = a === s.h ? mid[0] + dx * w : mid[0] + dx * (w / 2 + tag * 0.6);
-		const cy = a === s.h ? mid[1] + dy * (h * 0.5 + tag * 0.25) * (Math.abs(dy) > 1 ? 1.4 : 1) : mid[1] + dy * h * 1.1;
+		const cy =
+			a === s.h
+				? mid[1] + dy * (h * 0.5 + tag * 0.25) * (Math.abs(dy) > 1 ? 1.4 : 1)
+				: mid[1] + dy * h * 1.1;
 		return { x: cx - w / 2, y: cy - h / 2, w, h };
 	});
 	const pick = firstClear(candidates, taken);
@@ -241,7 +349,10 @@ function gapDim(p: GapPick, s: ViewSpec, k: number, scale: number, taken: Area[]
 	taken.push(box);
 	const cx = box.x + w / 2;
 	const cy = box.y + h / 2;
-	const near: [number, number] = [Math.min(Math.max(mid[0], box.x), box.x + w), Math.min(Math.max(mid[1], box.y), box.y + h)];
+	const near: [number, number] = [
+		Math.min(Math.max(mid[0], box.x), box.x + w),
+		Math.min(Math.max(mid[1], box.y), box.y + h)
+	];
 	const moved = Math.hypot(near[0] - mid[0], near[1] - mid[1]) > tag * 0.8;
 	return {
 		id: `gap:${p.placementId}:${p.face}:${k}`,
@@ -255,26 +366,58 @@ function gapDim(p: GapPick, s: ViewSpec, k: number, scale: number, taken: Area[]
 		vertical: false,
 		tight: p.tight,
 		tagBox: box,
-		...(moved ? { leader: [near[0], near[1], mid[0], mid[1]] as [number, number, number, number] } : {})
+		...(moved
+			? { leader: [near[0], near[1], mid[0], mid[1]] as [number, number, number, number] }
+			: {})
 	};
 }
 
 /** Part-number tags at the centre of each part's outline, moved aside when they would overlap. */
-function partTags(resolved: ResolvedScene, s: ViewSpec, scale: number, numbers: Map<string, number>, taken: Area[]): ViewTag[] {
+function partTags(
+	resolved: ResolvedScene,
+	s: ViewSpec,
+	scale: number,
+	numbers: Map<string, number>,
+	taken: Area[]
+): ViewTag[] {
 	const r = (PAPER.tagMm * 0.85) / scale;
 	return resolved.placements.map((rp) => {
 		const o = rectOf(rp.bounds, s);
 		const c: [number, number] = [o.x + o.w / 2, o.y + o.h / 2];
-		const offsets: [number, number][] = [[0, 0], [0, -2.4], [0, 2.4], [2.4, 0], [-2.4, 0], [0, -4.8], [0, 4.8]];
-		const candidates = offsets.map(([dx, dy]) => ({ x: c[0] + dx * r - r, y: c[1] + dy * r - r, w: 2 * r, h: 2 * r }));
+		const offsets: [number, number][] = [
+			[0, 0],
+			[0, -2.4],
+			[0, 2.4],
+			[2.4, 0],
+			[-2.4, 0],
+			[0, -4.8],
+			[0, 4.8]
+		];
+		const candidates = offsets.map(([dx, dy]) => ({
+			x: c[0] + dx * r - r,
+			y: c[1] + dy * r - r,
+			w: 2 * r,
+			h: 2 * r
+		}));
 		const box = candidates[firstClear(candidates, taken)];
 		taken.push(box);
-		return { placementId: rp.placement.id, text: String(numbers.get(rp.placement.id) ?? ''), x: box.x + r, y: box.y + r };
+		return {
+			placementId: rp.placement.id,
+			text: String(numbers.get(rp.placement.id) ?? ''),
+			x: box.x + r,
+			y: box.y + r
+		};
 	});
 }
 
 /** Overall inner sizes and divider/bracket positions, outside the drawing. */
-function outsideDims(scene: Scene, resolved: ResolvedScene, s: ViewSpec, scale: number, shell: Box): ViewDim[] {
+function outsideDims(
+	scene: Scene,
+	resolved: ResolvedScene,
+	s: ViewSpec,
+	scale: number,
+	shell: Box
+): ViewDim[] {
 	const inner = resolved.innerBox;
 	const gap = PAPER.dimGapMm / scale;
 	const step = PAPER.dimStepMm / scale;
@@ -312,7 +455,9 @@ function outsideDims(scene: Scene, resolved: ResolvedScene, s: ViewSpec, scale: 
 		vertical: true,
 		tight: false
 	});
-	const axisOf = new Map<string, Axis>([...scene.enclosure.dividers, ...scene.enclosure.brackets].map((d) => [d.id, d.axis]));
+	const axisOf = new Map<string, Axis>(
+		[...scene.enclosure.dividers, ...scene.enclosure.brackets].map((d) => [d.id, d.axis])
+	);
 	let above = 0;
 	let right = 0;
 	for (const c of [...resolved.dividers, ...resolved.brackets]) {
@@ -406,12 +551,22 @@ function frameOf(rects: ViewRect[], dims: ViewDim[], scale: number): OrthoView['
 	return { x: x0 - pad, y: y0 - pad, w: x1 - x0 + 2 * pad, h: y1 - y0 + 2 * pad };
 }
 
-function viewAt(s: ViewSpec, scene: Scene, resolved: ResolvedScene, report: FitReport, scale: number, numbers: Map<string, number>): OrthoView {
+function viewAt(
+	s: ViewSpec,
+	scene: Scene,
+	resolved: ResolvedScene,
+	report: FitReport,
+	scale: number,
+	numbers: Map<string, number>
+): OrthoView {
 	const shell = shellBox(resolved);
 	const rects = [...structureRects(scene, resolved, s), ...partRects(resolved, report, s)];
 	const taken: Area[] = [];
 	const tags = partTags(resolved, s, scale, numbers, taken);
-	const dims = [...outsideDims(scene, resolved, s, scale, shell), ...gapPicks(resolved, report, s, scene.marginMm).map((p, k) => gapDim(p, s, k, scale, taken))];
+	const dims = [
+		...outsideDims(scene, resolved, s, scale, shell),
+		...gapPicks(resolved, report, s, scene.marginMm).map((p, k) => gapDim(p, s, k, scale, taken))
+	];
 	const h = AXIS_NAMES[s.h];
 	const v = AXIS_NAMES[s.v];
 	return {
@@ -450,7 +605,13 @@ export function layoutFits(views: OrthoView[], scale: number, room: DrawingRoom)
  * The three views at the largest scale from a fixed list (1:1, 1:2, 1:2.5, …) that fits `room`.
  * `numbers` labels each part with its number in the part list.
  */
-export function orthographicViews(scene: Scene, resolved: ResolvedScene, report: FitReport, room: DrawingRoom, numbers: Map<string, number> = new Map()): SheetDrawing {
+export function orthographicViews(
+	scene: Scene,
+	resolved: ResolvedScene,
+	report: FitReport,
+	room: DrawingRoom,
+	numbers: Map<string, number> = new Map()
+): SheetDrawing {
 	for (const scale of SCALES) {
 		const drawing = viewsAt(scene, resolved, report, scale, numbers);
 		if (layoutFits(drawing.views, scale, room)) return drawing;
@@ -459,8 +620,19 @@ export function orthographicViews(scene: Scene, resolved: ResolvedScene, report:
 }
 
 /** The three views at one scale (paper mm per world mm), whether or not they fit a page. */
-export function viewsAt(scene: Scene, resolved: ResolvedScene, report: FitReport, scale: number, numbers: Map<string, number> = new Map()): SheetDrawing {
+export function viewsAt(
+	scene: Scene,
+	resolved: ResolvedScene,
+	report: FitReport,
+	scale: number,
+	numbers: Map<string, number> = new Map()
+): SheetDrawing {
 	const views = SPECS.map((s) => viewAt(s, scene, resolved, report, scale, numbers));
 	const denominator = Math.round((1 / scale) * 10) / 10;
-	return { scale, scaleText: `1:${denominator}`, paper: { textMm: PAPER.textMm, tagMm: PAPER.tagMm, lineMm: PAPER.lineMm }, views };
+	return {
+		scale,
+		scaleText: `1:${denominator}`,
+		paper: { textMm: PAPER.textMm, tagMm: PAPER.tagMm, lineMm: PAPER.lineMm },
+		views
+	};
 }

@@ -20,9 +20,29 @@ import {
 	type ResolvedScene,
 	type Vec3
 } from '$lib/geometry';
-import { DEMO_SPINE_OFFSETS, demoEnclosure, demoParts, demoScene, demoSceneInput, standardPart } from '$lib/geometry/fixtures';
+import {
+	DEMO_SPINE_OFFSETS,
+	demoEnclosure,
+	demoParts,
+	demoScene,
+	demoSceneInput,
+	standardPart
+} from '$lib/geometry/fixtures';
 import { blockPart } from '$lib/geometry/factories.spec-util';
-import { allowedTurns, freeSpot, landInRoom, landOnMount, largestFreeBox, nextPlacementId, placeInRoom, placedBounds, snapToAllowed, stepAllowed, flatAlong, turnWords } from './placement';
+import {
+	allowedTurns,
+	freeSpot,
+	landInRoom,
+	landOnMount,
+	largestFreeBox,
+	nextPlacementId,
+	placeInRoom,
+	placedBounds,
+	snapToAllowed,
+	stepAllowed,
+	flatAlong,
+	turnWords
+} from './placement';
 
 const toBox3 = (b: Box) => new Box3(new Vector3(...b.min), new Vector3(...b.max));
 
@@ -64,13 +84,19 @@ describe('freeSpot', () => {
 		roomMin: fc.tuple(int(-3, 3), int(-3, 3), int(-3, 3)),
 		roomSize: fc.tuple(int(1, 9), int(1, 9), int(1, 9)),
 		size: fc.tuple(int(1, 5), int(1, 5), int(1, 5)),
-		obstacles: fc.array(fc.tuple(int(-5, 12), int(-5, 12), int(-5, 12), int(1, 7), int(1, 7), int(1, 7)), { maxLength: 7 })
+		obstacles: fc.array(
+			fc.tuple(int(-5, 12), int(-5, 12), int(-5, 12), int(1, 7), int(1, 7), int(1, 7)),
+			{ maxLength: 7 }
+		)
 	});
 
 	it('finds exactly the spot a brute-force search over every position finds (or none when it finds none)', () => {
 		fc.assert(
 			fc.property(caseArb, ({ roomMin, roomSize, size, obstacles }) => {
-				const room: Box = { min: roomMin as Vec3, max: [roomMin[0] + roomSize[0], roomMin[1] + roomSize[1], roomMin[2] + roomSize[2]] };
+				const room: Box = {
+					min: roomMin as Vec3,
+					max: [roomMin[0] + roomSize[0], roomMin[1] + roomSize[1], roomMin[2] + roomSize[2]]
+				};
 				const blocked = obstacles.map(([x, y, z, w, h, d]) => boxAt([x, y, z], [w, h, d]));
 				const expected = bruteForceSpot(room, size as Vec3, blocked, 1);
 				expect(freeSpot(room, size as Vec3, blocked)).toEqual(expected);
@@ -80,11 +106,15 @@ describe('freeSpot', () => {
 	});
 
 	it('on a half-millimetre grid too', () => {
-		const half = (min: number, max: number) => fc.integer({ min: min * 2, max: max * 2 }).map((v) => v / 2);
+		const half = (min: number, max: number) =>
+			fc.integer({ min: min * 2, max: max * 2 }).map((v) => v / 2);
 		fc.assert(
 			fc.property(
 				fc.tuple(half(1, 5), half(1, 5), half(1, 5)),
-				fc.array(fc.tuple(half(-2, 7), half(-2, 7), half(-2, 7), half(0.5, 4), half(0.5, 4), half(0.5, 4)), { maxLength: 6 }),
+				fc.array(
+					fc.tuple(half(-2, 7), half(-2, 7), half(-2, 7), half(0.5, 4), half(0.5, 4), half(0.5, 4)),
+					{ maxLength: 6 }
+				),
 				(size, obstacles) => {
 					const room: Box = { min: [0, 0, 0], max: [7, 6, 6] };
 					const blocked = obstacles.map(([x, y, z, w, h, d]) => boxAt([x, y, z], [w, h, d]));
@@ -96,18 +126,51 @@ describe('freeSpot', () => {
 	});
 
 	it.each([
-		['an empty room: its corner', { min: [0, 0, 0], max: [10, 10, 10] } as Box, [4, 4, 4] as Vec3, [] as Box[], [0, 0, 0]],
-		['touching faces are free: right against the obstacle', { min: [0, 0, 0], max: [10, 10, 10] } as Box, [5, 10, 10] as Vec3, [boxAt([0, 0, 0], [5, 10, 10])], [5, 0, 0]],
-		['a room filled exactly: nowhere', { min: [0, 0, 0], max: [10, 10, 10] } as Box, [1, 1, 1] as Vec3, [boxAt([0, 0, 0], [10, 10, 10])], null],
-		['bigger than the room: nowhere', { min: [0, 0, 0], max: [10, 10, 10] } as Box, [11, 1, 1] as Vec3, [], null]
+		[
+			'an empty room: its corner',
+			{ min: [0, 0, 0], max: [10, 10, 10] } as Box,
+			[4, 4, 4] as Vec3,
+			[] as Box[],
+			[0, 0, 0]
+		],
+		[
+			'touching faces are free: right against the obstacle',
+			{ min: [0, 0, 0], max: [10, 10, 10] } as Box,
+			[5, 10, 10] as Vec3,
+			[boxAt([0, 0, 0], [5, 10, 10])],
+			[5, 0, 0]
+		],
+		[
+			'a room filled exactly: nowhere',
+			{ min: [0, 0, 0], max: [10, 10, 10] } as Box,
+			[1, 1, 1] as Vec3,
+			[boxAt([0, 0, 0], [10, 10, 10])],
+			null
+		],
+		[
+			'bigger than the room: nowhere',
+			{ min: [0, 0, 0], max: [10, 10, 10] } as Box,
+			[11, 1, 1] as Vec3,
+			[],
+			null
+		]
 	])('%s', (_name, room, size, blocked, expected) => {
 		expect(freeSpot(room, size, blocked)).toEqual(expected);
 	});
 });
 
-function demoResolved(placements: Placement[], spine: number = DEMO_SPINE_OFFSETS['3 slots']): ResolvedScene {
+function demoResolved(
+	placements: Placement[],
+	spine: number = DEMO_SPINE_OFFSETS['3 slots']
+): ResolvedScene {
 	const input = demoSceneInput();
-	return resolveScene(sceneSchema.parse({ ...input, placements, dividerPositions: { ...input.dividerPositions, spine } }));
+	return resolveScene(
+		sceneSchema.parse({
+			...input,
+			placements,
+			dividerPositions: { ...input.dividerPositions, spine }
+		})
+	);
 }
 
 function part(id: string): PartDef {
@@ -128,7 +191,13 @@ describe('landOnMount on the demo enclosure', () => {
 		for (const p of parts) {
 			const landing = landOnMount(demoResolved(placements), mount, p);
 			if ('reason' in landing) throw new Error(landing.reason);
-			placements.push({ id: nextPlacementId(placements), partId: p.id, position: landing.position, rotation: landing.rotation, mountId: mount.id });
+			placements.push({
+				id: nextPlacementId(placements),
+				partId: p.id,
+				position: landing.position,
+				rotation: landing.rotation,
+				mountId: mount.id
+			});
 		}
 		return placements;
 	}
@@ -140,7 +209,10 @@ describe('landOnMount on the demo enclosure', () => {
 		expect([b.max[0] - b.min[0], b.max[1] - b.min[1], b.max[2] - b.min[2]]).toEqual([143, 315, 30]);
 		// The mount's adapter plate is for 240 radiators only (plateFor), so a 280 sits on the panel.
 		expect(b.min[2]).toBe(0);
-		expect(checkScene(sceneOf([r])).mounts.find((m) => m.mountId === 'radiator')).toMatchObject({ plateMm: 0, usedMm: 30 });
+		expect(checkScene(sceneOf([r])).mounts.find((m) => m.mountId === 'radiator')).toMatchObject({
+			plateMm: 0,
+			usedMm: 30
+		});
 	});
 
 	it('puts two 140 fans side by side on it, each against the radiator and inside its face', () => {
@@ -161,7 +233,10 @@ describe('landOnMount on the demo enclosure', () => {
 		const report = checkScene(sceneOf(placed));
 		expect(report.overlaps.filter((o) => o.kind === 'collides')).toEqual([]);
 		// Stack: radiator 30 + one layer of 25 mm fans = 55 mm of the 64 mm budget.
-		expect(report.mounts.find((m) => m.mountId === 'radiator')).toMatchObject({ usedMm: 55, spareMm: 9 });
+		expect(report.mounts.find((m) => m.mountId === 'radiator')).toMatchObject({
+			usedMm: 55,
+			spareMm: 9
+		});
 	});
 
 	it('refuses a part the mount does not take', () => {
@@ -170,40 +245,85 @@ describe('landOnMount on the demo enclosure', () => {
 	});
 });
 
-function sceneOf(placements: Placement[], spine: number = DEMO_SPINE_OFFSETS['3 slots'], more: PartDef[] = []) {
+function sceneOf(
+	placements: Placement[],
+	spine: number = DEMO_SPINE_OFFSETS['3 slots'],
+	more: PartDef[] = []
+) {
 	const input = demoSceneInput();
-	return sceneSchema.parse({ ...input, parts: [...(input.parts ?? []), ...extraParts, ...more.filter((m) => !extraParts.some((e) => e.id === m.id))], placements, dividerPositions: { ...input.dividerPositions, spine } });
+	return sceneSchema.parse({
+		...input,
+		parts: [
+			...(input.parts ?? []),
+			...extraParts,
+			...more.filter((m) => !extraParts.some((e) => e.id === m.id))
+		],
+		placements,
+		dividerPositions: { ...input.dividerPositions, spine }
+	});
 }
 
 /** A block with fitting room above it, as a pump or CPU block has. */
 function blockWithRoom(id: string, size: Vec3, roomMm: number): PartDef {
-	return blockPart(id, size, { keepouts: [{ id: 'room', label: 'fitting room', kind: 'fitting', severity: 'error', box: { min: [0, size[1], 0], max: [size[0], size[1] + roomMm, size[2]] } }] });
+	return blockPart(id, size, {
+		keepouts: [
+			{
+				id: 'room',
+				label: 'fitting room',
+				kind: 'fitting',
+				severity: 'error',
+				box: { min: [0, size[1], 0], max: [size[0], size[1] + roomMm, size[2]] }
+			}
+		]
+	});
 }
 
 /** Small generic blocks to drop into compartments. */
-const extraParts: PartDef[] = [blockPart('block-a', [20, 30, 40]), blockPart('block-b', [40, 10, 10]), blockPart('block-c', [8, 8, 8]), blockWithRoom('block-k', [30, 20, 30], 25)];
+const extraParts: PartDef[] = [
+	blockPart('block-a', [20, 30, 40]),
+	blockPart('block-b', [40, 10, 10]),
+	blockPart('block-c', [8, 8, 8]),
+	blockWithRoom('block-k', [30, 20, 30], 25)
+];
 
 describe('landInRoom', () => {
 	const spines = Object.values(DEMO_SPINE_OFFSETS);
 	const base = demoScene().placements;
 
 	/** Lands `p` in `room`; when it lands, checks it is inside the room and overlaps nothing. */
-	function landAndCheck(spine: number, room: { id: string; box: Box }, p: PartDef): 'landed' | 'full' {
+	function landAndCheck(
+		spine: number,
+		room: { id: string; box: Box },
+		p: PartDef
+	): 'landed' | 'full' {
 		const resolved = resolveScene(sceneOf(base, spine, [p]));
 		const landing = landInRoom(resolved, room.box, p);
 		if ('reason' in landing) return 'full';
-		const placement: Placement = { id: 'new', partId: p.id, position: landing.position, rotation: landing.rotation };
+		const placement: Placement = {
+			id: 'new',
+			partId: p.id,
+			position: landing.position,
+			rotation: landing.rotation
+		};
 		const bounds = placedBounds(p, placement);
 		for (let a = 0; a < 3; a++) {
 			expect(bounds.min[a]).toBeGreaterThanOrEqual(room.box.min[a] - 1e-9);
 			expect(bounds.max[a]).toBeLessThanOrEqual(room.box.max[a] + 1e-9);
 		}
 		// Overlaps no wall, divider, bracket or placed body (three.js Box3) …
-		const others = [...resolved.walls, ...resolved.dividers, ...resolved.brackets, ...resolved.placements.flatMap((rp) => rp.bodies)];
+		const others = [
+			...resolved.walls,
+			...resolved.dividers,
+			...resolved.brackets,
+			...resolved.placements.flatMap((rp) => rp.bodies)
+		];
 		for (const o of others) expect(sharedVolume(o.box, bounds), `${room.id} vs ${o.label}`).toBe(0);
 		// … and the engine agrees: no overlap item (body or keep-out) names the new part.
 		const report = checkScene(sceneOf([...base, placement], spine, [p]));
-		expect(report.overlaps.filter((o) => o.a.placementId === 'new' || o.b.placementId === 'new'), room.id).toEqual([]);
+		expect(
+			report.overlaps.filter((o) => o.a.placementId === 'new' || o.b.placementId === 'new'),
+			room.id
+		).toEqual([]);
 		return 'landed';
 	}
 
@@ -223,7 +343,13 @@ describe('landInRoom', () => {
 	it('keeps out of the fitting room of parts already placed (a block 20 × 33 × 45 on the card side)', () => {
 		const rooms = resolveScene(sceneOf(base)).compartments;
 		const cardSide = rooms.find((c) => c.id === 'bulkhead.high+spine.high')!;
-		expect(landAndCheck(DEMO_SPINE_OFFSETS['3 slots'], cardSide, blockPart('found-by-fast-check', [20, 33, 45]))).toBe('landed');
+		expect(
+			landAndCheck(
+				DEMO_SPINE_OFFSETS['3 slots'],
+				cardSide,
+				blockPart('found-by-fast-check', [20, 33, 45])
+			)
+		).toBe('landed');
 	});
 
 	it('says so when the compartment is full instead of landing on top of something', () => {
@@ -232,9 +358,13 @@ describe('landInRoom', () => {
 		// 40 mm cube fits there in no turn …
 		const resolved = resolveScene(sceneOf(base));
 		const bay = resolved.compartments.find((c) => c.id === 'bulkhead.low')!;
-		const landing = landInRoom(resolved, bay.box, blockPart('cube-40', [40, 40, 40]), { roomLabel: bay.label });
+		const landing = landInRoom(resolved, bay.box, blockPart('cube-40', [40, 40, 40]), {
+			roomLabel: bay.label
+		});
 		expect(landing).toHaveProperty('reason');
-		expect((landing as { reason: string }).reason).toMatch(/largest free space in .* is .* mm; this part needs 40 × 40 × 40 mm/);
+		expect((landing as { reason: string }).reason).toMatch(
+			/largest free space in .* is .* mm; this part needs 40 × 40 × 40 mm/
+		);
 		// … while a 20 × 30 × 40 block, too deep upright, goes in lying down.
 		expect(landAndCheck(DEMO_SPINE_OFFSETS['3 slots'], bay, extraParts[0])).toBe('landed');
 	});
@@ -244,11 +374,18 @@ describe('landInRoom', () => {
 		let landed = 0;
 		fc.assert(
 			fc.property(
-				fc.tuple(fc.integer({ min: 1, max: 80 }), fc.integer({ min: 1, max: 80 }), fc.integer({ min: 1, max: 80 })),
+				fc.tuple(
+					fc.integer({ min: 1, max: 80 }),
+					fc.integer({ min: 1, max: 80 }),
+					fc.integer({ min: 1, max: 80 })
+				),
 				fc.integer({ min: 0, max: 30 }),
 				fc.integer({ min: 0, max: rooms.length - 1 }),
 				(size, roomMm, r) => {
-					const p = roomMm === 0 ? blockPart('random-block', size as Vec3) : blockWithRoom('random-block', size as Vec3, roomMm);
+					const p =
+						roomMm === 0
+							? blockPart('random-block', size as Vec3)
+							: blockWithRoom('random-block', size as Vec3, roomMm);
 					if (landAndCheck(DEMO_SPINE_OFFSETS['3 slots'], rooms[r], p) === 'landed') landed++;
 				}
 			),
@@ -298,7 +435,12 @@ describe('snapping and stepping over allowed positions', () => {
 	it('flatAlong lays a 140 × 140 × 25 fan thin along each axis', () => {
 		const fan = standardPart('std-fan-140-25');
 		for (const axis of [0, 1, 2] as const) {
-			const b = placedBounds(fan, { id: 'f', partId: fan.id, position: [0, 0, 0], rotation: flatAlong(fan, axis) });
+			const b = placedBounds(fan, {
+				id: 'f',
+				partId: fan.id,
+				position: [0, 0, 0],
+				rotation: flatAlong(fan, axis)
+			});
 			expect(b.max[axis] - b.min[axis]).toBe(25);
 		}
 	});
@@ -313,7 +455,9 @@ describe('placeInRoom turns parts to fit', () => {
 		for (let x = 0; x < 4; x++) {
 			for (let y = 0; y < 4; y++) {
 				for (let z = 0; z < 4; z++) {
-					if (bruteForceSpot(room, turnedFootprint(part, { x, y, z }).size, blocked, 1)) return true;
+					if (bruteForceSpot(room, turnedFootprint(part, { x, y, z }).size, blocked, 1)) {
+						return true;
+					}
 				}
 			}
 		}
@@ -325,7 +469,10 @@ describe('placeInRoom turns parts to fit', () => {
 		roomSize: fc.tuple(int(2, 14), int(2, 14), int(2, 14)),
 		body: fc.tuple(int(1, 12), int(1, 9), int(1, 6)),
 		keepout: int(0, 4),
-		obstacles: fc.array(fc.tuple(int(-3, 14), int(-3, 14), int(-3, 14), int(1, 8), int(1, 8), int(1, 8)), { maxLength: 5 })
+		obstacles: fc.array(
+			fc.tuple(int(-3, 14), int(-3, 14), int(-3, 14), int(1, 8), int(1, 8), int(1, 8)),
+			{ maxLength: 5 }
+		)
 	});
 
 	it('whenever some orientation fits (brute force over the 24 turns and a 1 mm grid), it finds a landing that is inside and overlaps nothing', () => {
@@ -334,7 +481,9 @@ describe('placeInRoom turns parts to fit', () => {
 		fc.assert(
 			fc.property(caseArb, ({ roomSize, body, keepout, obstacles }) => {
 				const room: Box = { min: [0, 0, 0], max: roomSize as Vec3 };
-				const part = keepout ? blockWithRoom('turning', body as Vec3, keepout) : blockPart('turning', body as Vec3);
+				const part = keepout
+					? blockWithRoom('turning', body as Vec3, keepout)
+					: blockPart('turning', body as Vec3);
 				const blocked = obstacles.map(([x, y, z, w, h, d]) => boxAt([x, y, z], [w, h, d]));
 				const expected = someTurnFits(room, part, blocked);
 				const landing = placeInRoom(room, blocked, part);
@@ -346,7 +495,12 @@ describe('placeInRoom turns parts to fit', () => {
 				fitted++;
 				expect(landing, 'a turn fits, so placement must find one').not.toHaveProperty('reason');
 				if ('reason' in landing) return;
-				const placed = placePart(part, { id: 'n', partId: part.id, position: landing.position, rotation: landing.rotation });
+				const placed = placePart(part, {
+					id: 'n',
+					partId: part.id,
+					position: landing.position,
+					rotation: landing.rotation
+				});
 				for (const b of [...placed.bodies, ...placed.keepouts]) {
 					for (let a = 0; a < 3; a++) {
 						expect(b.box.min[a]).toBeGreaterThanOrEqual(room.min[a] - 1e-9);
@@ -369,7 +523,12 @@ describe('placeInRoom turns parts to fit', () => {
 		const landing = placeInRoom(room, [], bare);
 		expect(landing).not.toHaveProperty('reason');
 		if ('reason' in landing) return;
-		const b = placedBounds(bare, { id: 'c', partId: bare.id, position: landing.position, rotation: landing.rotation });
+		const b = placedBounds(bare, {
+			id: 'c',
+			partId: bare.id,
+			position: landing.position,
+			rotation: landing.rotation
+		});
 		// 40.64 thick across X, 120 tall in Y, 185 long in Z: spare 19.36, 10 and 15 mm; the least is 10 mm.
 		expect(boxSizeOf(b)).toEqual([40.64, 120, 185].map((v) => expect.closeTo(v, 6)));
 		expect(landing.turn).not.toBe('as in the catalogue');
@@ -387,20 +546,40 @@ describe('placeInRoom turns parts to fit', () => {
 		// since its 185 mm length exceeds 150 and 40 on two axes and only 330 takes it, leaving 150 and 40
 		// for 120 and 40.64 — 40.64 > 40 by 0.64 mm, the closest attempt.
 		const card = { ...demoParts().find((p) => p.id === 'demo-card')!, keepouts: [] };
-		const landing = placeInRoom({ min: [0, 0, 0], max: [150, 330, 40] }, [], card, { roomLabel: 'the card side' });
+		const landing = placeInRoom({ min: [0, 0, 0], max: [150, 330, 40] }, [], card, {
+			roomLabel: 'the card side'
+		});
 		expect(landing).toHaveProperty('reason');
 		if (!('reason' in landing)) return;
-		expect(landing.reason).toContain('the largest free space in the card side is 150 × 330 × 40 mm');
-		expect(landing.reason).toMatch(/this card needs (120 × 185 × 40\.6|120 × 185 × 40\.6) mm turned/);
+		expect(landing.reason).toContain(
+			'the largest free space in the card side is 150 × 330 × 40 mm'
+		);
+		expect(landing.reason).toMatch(
+			/this card needs (120 × 185 × 40\.6|120 × 185 × 40\.6) mm turned/
+		);
 	});
 
 	it('a card with a slot mount only takes turns that put its length along the mount’s normal and its thickness across the slots', () => {
 		const card = demoParts().find((p) => p.id === 'demo-card')!;
-		const slots = { id: 'slots', label: 'Slots', kind: 'slots' as const, face: 'back' as const, region: { min: [0, 0, 230], max: [150, 60, 240] } as Box, accepts: [], standoffMm: 0, slotPitchMm: 20.32 };
+		const slots = {
+			id: 'slots',
+			label: 'Slots',
+			kind: 'slots' as const,
+			face: 'back' as const,
+			region: { min: [0, 0, 230], max: [150, 60, 240] } as Box,
+			accepts: [],
+			standoffMm: 0,
+			slotPitchMm: 20.32
+		};
 		const turns = allowedTurns(card, [slots]);
 		expect(turns.length).toBe(4);
 		for (const r of turns) {
-			const s = boxSizeOf(placedBounds({ ...card, keepouts: [] }, { id: 'c', partId: card.id, position: [0, 0, 0], rotation: r }));
+			const s = boxSizeOf(
+				placedBounds(
+					{ ...card, keepouts: [] },
+					{ id: 'c', partId: card.id, position: [0, 0, 0], rotation: r }
+				)
+			);
 			expect(s[2]).toBeCloseTo(185, 6);
 			expect(s[0]).toBeCloseTo(40.64, 6);
 		}
@@ -418,7 +597,9 @@ describe('placeInRoom turns parts to fit', () => {
 
 	it('turnWords says the turn in the engine’s order', () => {
 		expect(turnWords({ x: 0, y: 0, z: 0 })).toBe('as in the catalogue');
-		expect(turnWords({ x: 1, y: 0, z: 2 })).toBe('a quarter turn about X, then a half turn about Z');
+		expect(turnWords({ x: 1, y: 0, z: 2 })).toBe(
+			'a quarter turn about X, then a half turn about Z'
+		);
 	});
 });
 

@@ -25,13 +25,14 @@ import {
 	type Vec3
 } from '$lib/geometry';
 
-
 /** The 24 quarter-turn orientations, fewest turns first, so the simplest one wins a tie. */
 const ORIENTATIONS: Rotation[] = (() => {
 	const seen = new Set<string>();
 	const out: Rotation[] = [];
 	const all: Rotation[] = [];
-	for (let x = 0; x < 4; x++) for (let y = 0; y < 4; y++) for (let z = 0; z < 4; z++) all.push({ x, y, z });
+	for (let x = 0; x < 4; x++) {
+		for (let y = 0; y < 4; y++) for (let z = 0; z < 4; z++) all.push({ x, y, z });
+	}
 	all.sort((a, b) => a.x + a.y + a.z - (b.x + b.y + b.z));
 	for (const r of all) {
 		const m = rotationMap(r);
@@ -64,7 +65,10 @@ function inside(inner: Box, b: Box): boolean {
 }
 
 function boxAt(position: Vec3, size: Vec3): Box {
-	return { min: [...position], max: [position[0] + size[0], position[1] + size[1], position[2] + size[2]] };
+	return {
+		min: [...position],
+		max: [position[0] + size[0], position[1] + size[1], position[2] + size[2]]
+	};
 }
 
 /**
@@ -75,7 +79,9 @@ function obstacles(resolved: ResolvedScene, ignore?: string): Box[] {
 	return [
 		...resolved.dividers.map((d) => d.box),
 		...resolved.brackets.map((b) => b.box),
-		...resolved.placements.filter((p) => p.placement.id !== ignore).flatMap((p) => [...p.bodies, ...p.keepouts].map((b) => b.box))
+		...resolved.placements
+			.filter((p) => p.placement.id !== ignore)
+			.flatMap((p) => [...p.bodies, ...p.keepouts].map((b) => b.box))
 	];
 }
 
@@ -87,7 +93,11 @@ function obstacles(resolved: ResolvedScene, ignore?: string): Box[] {
 export function freeSpot(room: Box, size: Vec3, blocked: Box[]): Vec3 | null {
 	const coords = [0, 1, 2].map((a) => {
 		const values = new Set<number>([room.min[a]]);
-		for (const b of blocked) if (b.max[a] >= room.min[a] && b.max[a] + size[a] <= room.max[a] + EPSILON_MM) values.add(b.max[a]);
+		for (const b of blocked) {
+			if (b.max[a] >= room.min[a] && b.max[a] + size[a] <= room.max[a] + EPSILON_MM) {
+				values.add(b.max[a]);
+			}
+		}
 		return [...values].sort((p, q) => p - q);
 	});
 	const near = blocked.filter((b) => overlaps(b, room));
@@ -126,8 +136,16 @@ export type LandingError = { reason: string };
  * the adapter plate and the standoffs), or on top of the stack already there; side by side with
  * parts in the same layer (two fans on a 240).
  */
-export function landOnMount(resolved: ResolvedScene, mount: MountDef, part: PartDef): Landing | LandingError {
-	if (!mountAccepts(mount, part)) return { reason: `${mount.label} does not take this part (it takes ${mount.accepts.join(', ') || 'anything'}).` };
+export function landOnMount(
+	resolved: ResolvedScene,
+	mount: MountDef,
+	part: PartDef
+): Landing | LandingError {
+	if (!mountAccepts(mount, part)) {
+		return {
+			reason: `${mount.label} does not take this part (it takes ${mount.accepts.join(', ') || 'anything'}).`
+		};
+	}
 	const { axis, high } = FACE_AXES[mount.face];
 	const rotation = mount.kind === 'psu-bay' ? { x: 0, y: 0, z: 0 } : flatAlong(part, axis);
 	const size = turnedSize(part, rotation);
@@ -135,10 +153,15 @@ export function landOnMount(resolved: ResolvedScene, mount: MountDef, part: Part
 	const mounted = resolved.placements.filter((p) => p.placement.mountId === mount.id);
 	// The adapter plate sits under the stack only for the classes that need it, as the engine counts it.
 	const classes = new Set([part, ...mounted.map((p) => p.part)].flatMap(partClasses));
-	const plate = mount.plateFor === undefined || mount.plateFor.some((c) => classes.has(c)) ? (mount.plateMm ?? 0) : 0;
+	const plate =
+		mount.plateFor === undefined || mount.plateFor.some((c) => classes.has(c))
+			? (mount.plateMm ?? 0)
+			: 0;
 	// Depth from the panel inward already used by the stack.
 	let used = plate + mount.standoffMm;
-	const layers = mounted.map((p) => (high ? inner.max[axis] - p.bounds.min[axis] : p.bounds.max[axis] - inner.min[axis]));
+	const layers = mounted.map((p) =>
+		high ? inner.max[axis] - p.bounds.min[axis] : p.bounds.max[axis] - inner.min[axis]
+	);
 	const region = mount.region;
 	const tryLayer = (depth: number) => {
 		const room: Box = { min: [...region.min], max: [...region.max] };
@@ -153,7 +176,11 @@ export function landOnMount(resolved: ResolvedScene, mount: MountDef, part: Part
 		// A fan joins the outermost layer when that layer holds fans and has room beside them.
 		const sameKind = outerLayer.every((p) => p.part.category === part.category);
 		if (sameKind) {
-			const layerDepth = Math.min(...outerLayer.map((p) => (high ? inner.max[axis] - p.bounds.max[axis] : p.bounds.min[axis] - inner.min[axis])));
+			const layerDepth = Math.min(
+				...outerLayer.map((p) =>
+					high ? inner.max[axis] - p.bounds.max[axis] : p.bounds.min[axis] - inner.min[axis]
+				)
+			);
 			const spot = tryLayer(layerDepth);
 			if (spot) return { position: spot, rotation, turn: turnWords(rotation) };
 		}
@@ -173,7 +200,9 @@ const TURN_WORDS = ['', 'a quarter turn', 'a half turn', 'three quarter turns'];
 
 /** A rotation in words, in the order the engine applies it (X, then Y, then Z). */
 export function turnWords(rotation: Rotation): string {
-	const parts = (['x', 'y', 'z'] as const).filter((a) => rotation[a] % 4 !== 0).map((a) => `${TURN_WORDS[rotation[a] % 4]} about ${a.toUpperCase()}`);
+	const parts = (['x', 'y', 'z'] as const)
+		.filter((a) => rotation[a] % 4 !== 0)
+		.map((a) => `${TURN_WORDS[rotation[a] % 4]} about ${a.toUpperCase()}`);
 	return parts.length === 0 ? 'as in the catalogue' : parts.join(', then ');
 }
 
@@ -213,7 +242,9 @@ function roomAround(room: Box, box: Box, blocked: Box[]): number {
 		let lo = room.min[a];
 		let hi = room.max[a];
 		for (const b of blocked) {
-			const across = [0, 1, 2].every((k) => k === a || (b.max[k] - box.min[k] > EPSILON_MM && box.max[k] - b.min[k] > EPSILON_MM));
+			const across = [0, 1, 2].every(
+				(k) => k === a || (b.max[k] - box.min[k] > EPSILON_MM && box.max[k] - b.min[k] > EPSILON_MM)
+			);
 			if (!across) continue;
 			if (b.max[a] <= box.min[a] + EPSILON_MM) lo = Math.max(lo, b.max[a]);
 			if (b.min[a] >= box.max[a] - EPSILON_MM) hi = Math.min(hi, b.min[a]);
@@ -230,8 +261,20 @@ function roomAround(room: Box, box: Box, blocked: Box[]): number {
  */
 export function largestFreeBox(room: Box, blocked: Box[]): Box | null {
 	const near = blocked.filter((b) => overlaps(b, room));
-	const coords = [0, 1, 2].map((a) => [...new Set([room.min[a], ...near.map((b) => b.max[a]).filter((v) => v > room.min[a] && v < room.max[a])])]);
-	const orders = [[0, 1, 2], [0, 2, 1], [1, 0, 2], [1, 2, 0], [2, 0, 1], [2, 1, 0]];
+	const coords = [0, 1, 2].map((a) => [
+		...new Set([
+			room.min[a],
+			...near.map((b) => b.max[a]).filter((v) => v > room.min[a] && v < room.max[a])
+		])
+	]);
+	const orders = [
+		[0, 1, 2],
+		[0, 2, 1],
+		[1, 0, 2],
+		[1, 2, 0],
+		[2, 0, 1],
+		[2, 1, 0]
+	];
 	let best: Box | null = null;
 	let bestVolume = 0;
 	for (const x of coords[0]) {
@@ -244,11 +287,24 @@ export function largestFreeBox(room: Box, blocked: Box[]): Box | null {
 					const grown: Box = { min: [x, y, z], max: [x, y, z] };
 					for (const a of order) {
 						// Other axes not yet grown count as the seed's sliver.
-						const probe: Box = { min: [...grown.min], max: grown.max.map((v, k) => (v - grown.min[k] > 0 ? v : grown.min[k] + 1e-3)) as Vec3 };
+						const probe: Box = {
+							min: [...grown.min],
+							max: grown.max.map((v, k) => (v - grown.min[k] > 0 ? v : grown.min[k] + 1e-3)) as Vec3
+						};
 						let hi = room.max[a];
 						for (const b of near) {
-							const across = [0, 1, 2].every((k) => k === a || (b.max[k] - probe.min[k] > EPSILON_MM && probe.max[k] - b.min[k] > EPSILON_MM));
-							if (across && b.min[a] >= probe.min[a] - EPSILON_MM && b.max[a] > probe.min[a] + EPSILON_MM) hi = Math.min(hi, b.min[a]);
+							const across = [0, 1, 2].every(
+								(k) =>
+									k === a ||
+									(b.max[k] - probe.min[k] > EPSILON_MM && probe.max[k] - b.min[k] > EPSILON_MM)
+							);
+							if (
+								across &&
+								b.min[a] >= probe.min[a] - EPSILON_MM &&
+								b.max[a] > probe.min[a] + EPSILON_MM
+							) {
+								hi = Math.min(hi, b.min[a]);
+							}
 						}
 						grown.max[a] = hi;
 					}
@@ -273,38 +329,60 @@ const size3 = (v: Vec3) => v.map((n) => `${Math.round(n * 10) / 10}`).join(' × 
  * catalogue's own turn wins a tie. When none fits, the reason names the largest free space there and
  * the turn that came closest. `roomLabel` names the room in that sentence ("the card side").
  */
-export function placeInRoom(room: Box, blocked: Box[], part: PartDef, options: { turns?: Rotation[]; roomLabel?: string } = {}): Landing | LandingError {
+export function placeInRoom(
+	room: Box,
+	blocked: Box[],
+	part: PartDef,
+	options: { turns?: Rotation[]; roomLabel?: string } = {}
+): Landing | LandingError {
 	const turns = options.turns ?? ORIENTATIONS;
 	let best: (Landing & { room: number }) | null = null;
 	for (const rotation of turns) {
 		const map = rotationMap(rotation);
 		const bodies = boundsOf(part.bodies.map((b) => rotateBox(map, b.box)));
-		const footprint = boundsOf([...part.bodies, ...part.keepouts].map((b) => rotateBox(map, b.box)));
+		const footprint = boundsOf(
+			[...part.bodies, ...part.keepouts].map((b) => rotateBox(map, b.box))
+		);
 		const size = boxSize(footprint);
 		const spot = freeSpot(room, size, blocked);
 		if (!spot) continue;
 		const spare = roomAround(room, boxAt(spot, size), blocked);
 		if (best && spare <= best.room + EPSILON_MM) continue;
-		best = { position: [0, 1, 2].map((a) => spot[a] + bodies.min[a] - footprint.min[a]) as Vec3, rotation, turn: turnWords(rotation), room: spare };
+		best = {
+			position: [0, 1, 2].map((a) => spot[a] + bodies.min[a] - footprint.min[a]) as Vec3,
+			rotation,
+			turn: turnWords(rotation),
+			room: spare
+		};
 	}
 	if (best) return { position: best.position, rotation: best.rotation, turn: best.turn };
 	const where = options.roomLabel ?? 'there';
 	const free = largestFreeBox(room, blocked);
 	const noun = isCard(part) ? 'this card' : 'this part';
-	if (!free) return { reason: `There is no free space ${where === 'there' ? 'there' : `in ${where}`}; make room first or choose another place.` };
+	if (!free) {
+		return {
+			reason: `There is no free space ${where === 'there' ? 'there' : `in ${where}`}; make room first or choose another place.`
+		};
+	}
 	const freeSize = boxSize(free);
 	// The closest attempt: the turn whose worst overshoot of that free space is the least.
 	let closest = turns[0];
 	let closestOver = Infinity;
 	for (const rotation of turns) {
-		const size = boxSize(boundsOf([...part.bodies, ...part.keepouts].map((b) => rotateBox(rotationMap(rotation), b.box))));
+		const size = boxSize(
+			boundsOf(
+				[...part.bodies, ...part.keepouts].map((b) => rotateBox(rotationMap(rotation), b.box))
+			)
+		);
 		const over = Math.max(...size.map((v, a) => v - freeSize[a]));
 		if (over < closestOver - EPSILON_MM) {
 			closest = rotation;
 			closestOver = over;
 		}
 	}
-	const turnedSize = boxSize(boundsOf([...part.bodies, ...part.keepouts].map((b) => rotateBox(rotationMap(closest), b.box))));
+	const turnedSize = boxSize(
+		boundsOf([...part.bodies, ...part.keepouts].map((b) => rotateBox(rotationMap(closest), b.box)))
+	);
 	const turn = turnWords(closest);
 	return {
 		reason: `Nothing fits: the largest free space ${where === 'there' ? 'there' : `in ${where}`} is ${size3(freeSize)}; ${noun} needs ${size3(turnedSize)} ${turn === 'as in the catalogue' ? 'as in the catalogue' : `turned ${turn}`} (with its keep-outs). Make room first or choose another place.`
@@ -316,8 +394,16 @@ export function placeInRoom(room: Box, blocked: Box[], part: PartDef, options: {
  * placeInRoom); a card turns only as the enclosure's slot mount needs. The position is where its
  * bodies' min corner lands.
  */
-export function landInRoom(resolved: ResolvedScene, room: Box, part: PartDef, options: { mounts?: readonly MountDef[]; roomLabel?: string } = {}): Landing | LandingError {
-	return placeInRoom(room, obstacles(resolved), part, { turns: allowedTurns(part, options.mounts), roomLabel: options.roomLabel });
+export function landInRoom(
+	resolved: ResolvedScene,
+	room: Box,
+	part: PartDef,
+	options: { mounts?: readonly MountDef[]; roomLabel?: string } = {}
+): Landing | LandingError {
+	return placeInRoom(room, obstacles(resolved), part, {
+		turns: allowedTurns(part, options.mounts),
+		roomLabel: options.roomLabel
+	});
 }
 
 /** A placement id not yet used in the scene: `p1`, `p2`, … */
@@ -329,20 +415,29 @@ export function nextPlacementId(placements: readonly Placement[]): string {
 }
 
 /** The nearest allowed position to a free value (for dragging), in the definition's order. */
-export function snapToAllowed(def: DividerDef | BracketDef, offsetMm: number): { index: number; offsetMm: number; label: string } {
+export function snapToAllowed(
+	def: DividerDef | BracketDef,
+	offsetMm: number
+): { index: number; offsetMm: number; label: string } {
 	const options = allowedPositions(def);
 	let index = 0;
 	for (let i = 1; i < options.length; i++) {
-		if (Math.abs(options[i].offsetMm - offsetMm) < Math.abs(options[index].offsetMm - offsetMm)) index = i;
+		if (Math.abs(options[i].offsetMm - offsetMm) < Math.abs(options[index].offsetMm - offsetMm)) {
+			index = i;
+		}
 	}
 	return { index, ...options[index] };
 }
 
 /** The allowed position `delta` steps away in offset order, held at the ends. */
 export function stepAllowed(def: DividerDef | BracketDef, offsetMm: number, delta: number): number {
-	const sorted = allowedPositions(def).map((p) => p.offsetMm).sort((a, b) => a - b);
+	const sorted = allowedPositions(def)
+		.map((p) => p.offsetMm)
+		.sort((a, b) => a - b);
 	let i = 0;
-	for (let k = 1; k < sorted.length; k++) if (Math.abs(sorted[k] - offsetMm) < Math.abs(sorted[i] - offsetMm)) i = k;
+	for (let k = 1; k < sorted.length; k++) {
+		if (Math.abs(sorted[k] - offsetMm) < Math.abs(sorted[i] - offsetMm)) i = k;
+	}
 	return sorted[Math.max(0, Math.min(sorted.length - 1, i + delta))];
 }
 

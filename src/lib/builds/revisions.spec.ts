@@ -7,7 +7,11 @@ const at = (iso: string, id: string) => ({ id, createdAt: new Date(iso) });
 
 describe('revisionsToPrune', () => {
 	it('keeps every revision of the last day', () => {
-		const list = [at('2026-12-01T11:59:00Z', 'a'), at('2026-12-01T11:58:00Z', 'b'), at('2026-11-30T12:00:01Z', 'c')];
+		const list = [
+			at('2026-12-01T11:59:00Z', 'a'),
+			at('2026-12-01T11:58:00Z', 'b'),
+			at('2026-11-30T12:00:01Z', 'c')
+		];
 		expect(revisionsToPrune(list, NOW)).toEqual([]);
 	});
 
@@ -32,7 +36,13 @@ describe('revisionsToPrune', () => {
 	});
 
 	it('a day boundary: 24 h + 1 s old is thinned, 24 h − 1 s is not', () => {
-		const list = [at('2026-12-01T11:00:00Z', 'head'), at('2026-11-30T12:00:01Z', 'young-a'), at('2026-11-30T12:00:02Z', 'young-b'), at('2026-11-30T11:59:58Z', 'old-a'), at('2026-11-30T11:59:59Z', 'old-b')];
+		const list = [
+			at('2026-12-01T11:00:00Z', 'head'),
+			at('2026-11-30T12:00:01Z', 'young-a'),
+			at('2026-11-30T12:00:02Z', 'young-b'),
+			at('2026-11-30T11:59:58Z', 'old-a'),
+			at('2026-11-30T11:59:59Z', 'old-b')
+		];
 		// old-a and old-b share the 11:00 hour; the newer (old-b) stays.
 		expect(revisionsToPrune(list, NOW)).toEqual(['old-a']);
 	});

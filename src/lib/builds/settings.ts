@@ -15,13 +15,23 @@ import {
 	type SceneInput
 } from '$lib/geometry';
 
-const offsets = z.record(z.string().max(120), z.number({ error: 'Must be a finite number' }).min(-10_000).max(10_000));
+const offsets = z.record(
+	z.string().max(120),
+	z.number({ error: 'Must be a finite number' }).min(-10_000).max(10_000)
+);
 
 export const variantSettingsSchema = z.object({
 	dividerPositions: offsets.default({}),
 	bracketOffsets: offsets.default({}),
-	placements: z.array(placementSchema).max(MAX_BOXES, `At most ${MAX_BOXES} placed parts`).default([]),
-	marginMm: z.number({ error: 'Must be a finite number' }).min(0, 'Must not be negative').max(100, 'At most 100 mm').default(2),
+	placements: z
+		.array(placementSchema)
+		.max(MAX_BOXES, `At most ${MAX_BOXES} placed parts`)
+		.default([]),
+	marginMm: z
+		.number({ error: 'Must be a finite number' })
+		.min(0, 'Must not be negative')
+		.max(100, 'At most 100 mm')
+		.default(2),
 	budgets: budgetsSchema.default({ wattsPer120mm: 100, psuHeadroomPct: 30 })
 });
 export type VariantSettings = z.infer<typeof variantSettingsSchema>;
@@ -29,8 +39,12 @@ export type VariantSettings = z.infer<typeof variantSettingsSchema>;
 /** Every divider and bracket at its first allowed position; nothing placed. */
 export function defaultSettings(enclosure: EnclosureDef): VariantSettings {
 	return {
-		dividerPositions: Object.fromEntries(enclosure.dividers.map((d) => [d.id, allowedPositions(d)[0].offsetMm])),
-		bracketOffsets: Object.fromEntries(enclosure.brackets.map((b) => [b.id, allowedPositions(b)[0].offsetMm])),
+		dividerPositions: Object.fromEntries(
+			enclosure.dividers.map((d) => [d.id, allowedPositions(d)[0].offsetMm])
+		),
+		bracketOffsets: Object.fromEntries(
+			enclosure.brackets.map((b) => [b.id, allowedPositions(b)[0].offsetMm])
+		),
 		placements: [],
 		marginMm: 2,
 		budgets: { wattsPer120mm: 100, psuHeadroomPct: 30 }
@@ -38,7 +52,11 @@ export function defaultSettings(enclosure: EnclosureDef): VariantSettings {
 }
 
 /** The scene the engine checks: the pinned enclosure, the parts placed, the variant's settings. */
-export function composeScene(enclosure: EnclosureDef, parts: PartDef[], settings: VariantSettings): SceneInput {
+export function composeScene(
+	enclosure: EnclosureDef,
+	parts: PartDef[],
+	settings: VariantSettings
+): SceneInput {
 	const used = new Set(settings.placements.map((p) => p.partId));
 	return {
 		format: SCENE_FORMAT,

@@ -3,7 +3,14 @@
  * enclosures. Pure, shared by the page and the PDF so both say exactly the same.
  */
 
-import { formatMm, type Axis, type Face, type FitStatus, type PartCategory, type Vec3 } from '$lib/geometry';
+import {
+	formatMm,
+	type Axis,
+	type Face,
+	type FitStatus,
+	type PartCategory,
+	type Vec3
+} from '$lib/geometry';
 
 export const THIN = '\u2009';
 
@@ -52,7 +59,11 @@ export const FACE_PANEL: Record<Face, string> = {
 
 /** Moving along an axis, in the builder's words. */
 export function moveWord(axis: Axis, sign: 1 | -1): string {
-	const words: Record<Axis, [string, string]> = { x: ['left', 'right'], y: ['down', 'up'], z: ['forward', 'back'] };
+	const words: Record<Axis, [string, string]> = {
+		x: ['left', 'right'],
+		y: ['down', 'up'],
+		z: ['forward', 'back']
+	};
 	return words[axis][sign > 0 ? 1 : 0];
 }
 
@@ -67,7 +78,11 @@ export const POINTS_WORDS: Record<Face, string> = {
 };
 
 /** The two ends of a travel along an axis, low end first. */
-export const AXIS_ENDS: Record<Axis, [string, string]> = { x: ['left', 'right'], y: ['bottom', 'top'], z: ['front', 'back'] };
+export const AXIS_ENDS: Record<Axis, [string, string]> = {
+	x: ['left', 'right'],
+	y: ['bottom', 'top'],
+	z: ['front', 'back']
+};
 
 export const CATEGORY_WORDS: Record<PartCategory, string> = {
 	board: 'board',

@@ -16,7 +16,15 @@ function sheetOf(change: (s: ReturnType<typeof demoSceneInput>) => void = () => 
 	change(input);
 	const scene: Scene = sceneSchema.parse(input);
 	const resolved = resolveScene(scene);
-	return buildSheet({ buildName: 'Desk build', clientName: 'A client', variantName: 'Variant A', variantVersion: 3, scene, resolved, report: checkScene(scene) });
+	return buildSheet({
+		buildName: 'Desk build',
+		clientName: 'A client',
+		variantName: 'Variant A',
+		variantVersion: 3,
+		scene,
+		resolved,
+		report: checkScene(scene)
+	});
 }
 
 describe('enclosure settings in words and numbers', () => {
@@ -28,16 +36,24 @@ describe('enclosure settings in words and numbers', () => {
 
 	it('counts bracket steps from the low end of its travel', () => {
 		// The bar travels 0–150 mm in 10 mm steps along Y; at 20 mm it is two steps up.
-		const bar = sheetOf((s) => (s.bracketOffsets = { bar: 20 })).enclosure.settings.find((s) => s.id === 'bar')!;
-		expect(bar.text).toBe(`Card support bar 2 steps from the bottom, y = 20.0${THIN}mm (steps of 10.0${THIN}mm).`);
+		const bar = sheetOf((s) => (s.bracketOffsets = { bar: 20 })).enclosure.settings.find(
+			(s) => s.id === 'bar'
+		)!;
+		expect(bar.text).toBe(
+			`Card support bar 2 steps from the bottom, y = 20.0${THIN}mm (steps of 10.0${THIN}mm).`
+		);
 		const low = sheetOf().enclosure.settings.find((s) => s.id === 'bar')!;
 		expect(low.text).toContain('at the bottom of its travel');
-		const high = sheetOf((s) => (s.bracketOffsets = { bar: 150 })).enclosure.settings.find((s) => s.id === 'bar')!;
+		const high = sheetOf((s) => (s.bracketOffsets = { bar: 150 })).enclosure.settings.find(
+			(s) => s.id === 'bar'
+		)!;
 		expect(high.text).toContain('at the top of its travel, 15 steps from the bottom');
 	});
 
 	it('gives the compartments the spine leaves: 86 mm on the CPU side, 150 − 88 = 62 mm on the card side', () => {
-		const sizes = Object.fromEntries(sheetOf().enclosure.compartments.map((c) => [c.label, c.sizeText]));
+		const sizes = Object.fromEntries(
+			sheetOf().enclosure.compartments.map((c) => [c.label, c.sizeText])
+		);
 		expect(sizes['CPU side']).toBe(`86.0 × 340.0 × 174.0${THIN}mm`);
 		expect(sizes['card side']).toBe(`62.0 × 340.0 × 174.0${THIN}mm`);
 	});
@@ -56,7 +72,9 @@ describe('the part list', () => {
 	it('names the nearest free gap with what it is against', () => {
 		// The block's top (turned to face +x) at 11 + 1.6 + 26 = 38.6 mm; the spine at 86 mm; the
 		// block is ±0.5 mm, the spine exact: 47.4 − 0.5 = 46.9 mm in the worst case.
-		expect(byId['cpu-block'].smallestGap).toBe(`47.4${THIN}mm (46.9 worst case) to the right (Spine)`);
+		expect(byId['cpu-block'].smallestGap).toBe(
+			`47.4${THIN}mm (46.9 worst case) to the right (Spine)`
+		);
 		// The card's far face at 107.36 + 2 × 20.32 = 148 mm; the right panel at 150 mm; ±1 mm.
 		expect(byId.card.smallestGap).toBe(`2.0${THIN}mm (1.0 worst case) to the right (Right panel)`);
 	});
@@ -91,7 +109,9 @@ describe('the fit report', () => {
 
 	it('lists the collision at two slots with its overlap and a move that clears it', () => {
 		// The spine at 106.32–108.32 mm reaches 108.32 − 107.36 = 0.96 mm into the card.
-		const fit = sheetOf((s) => (s.dividerPositions = { ...s.dividerPositions, spine: DEMO_SPINE_OFFSETS['2 slots'] })).fit;
+		const fit = sheetOf(
+			(s) => (s.dividerPositions = { ...s.dividerPositions, spine: DEMO_SPINE_OFFSETS['2 slots'] })
+		).fit;
 		expect(fit.summary).toMatch(/^Not ready to build: /);
 		const hit = fit.items.find((i) => i.status === 'collides')!;
 		expect(hit.title).toContain('collides with');
@@ -105,8 +125,12 @@ describe('the fit report', () => {
 		// its ±1 mm tolerance (the panel has none).
 		const item = sheetOf((s) => (s.marginMm = 3)).fit.items.find((i) => i.key === 'gap:card:+x')!;
 		expect(item.status).toBe('tight');
-		expect(item.title).toBe(`Compact graphics card, two slots, 185 mm: 2.0${THIN}mm (1.0 worst case) to the right (Right panel)`);
-		expect(item.detail).toBe(`Under the 3.0${THIN}mm margin by 2.0${THIN}mm in the worst case of the tolerances.`);
+		expect(item.title).toBe(
+			`Compact graphics card, two slots, 185 mm: 2.0${THIN}mm (1.0 worst case) to the right (Right panel)`
+		);
+		expect(item.detail).toBe(
+			`Under the 3.0${THIN}mm margin by 2.0${THIN}mm in the worst case of the tolerances.`
+		);
 	});
 });
 
@@ -115,8 +139,16 @@ describe('the checklist', () => {
 
 	it('holds the settings, every part in order, the fittings per thread and every caution', () => {
 		const groups = Object.fromEntries(sheet.checklist.map((g) => [g.id, g.items]));
-		expect(groups.settings.map((i) => i.key)).toEqual(['setting:divider:bulkhead', 'setting:divider:spine', 'setting:bracket:bar']);
-		expect(groups.order.map((i) => i.key)).toEqual(['board', 'cpu-block', 'psu', 'card', 'radiator', 'fan-1', 'fan-2', 'pump-res'].map((id) => `part:${id}`));
+		expect(groups.settings.map((i) => i.key)).toEqual([
+			'setting:divider:bulkhead',
+			'setting:divider:spine',
+			'setting:bracket:bar'
+		]);
+		expect(groups.order.map((i) => i.key)).toEqual(
+			['board', 'cpu-block', 'psu', 'card', 'radiator', 'fan-1', 'fan-2', 'pump-res'].map(
+				(id) => `part:${id}`
+			)
+		);
 		expect(groups.fittings.map((i) => i.text)).toEqual([
 			'4 × G 1/4 fittings or stop plugs: 2 on Compact CPU block, 26 mm tall; 2 on Compact pump-reservoir, 58 mm thick.'
 		]);
@@ -125,18 +157,29 @@ describe('the checklist', () => {
 	});
 
 	it('carries the cautions the trade asks for (docs/safety.md)', () => {
-		const text = sheet.checklist.find((g) => g.id === 'cautions')!.items.map((i) => i.text).join(' ');
+		const text = sheet.checklist
+			.find((g) => g.id === 'cautions')!
+			.items.map((i) => i.text)
+			.join(' ');
 		expect(text).toMatch(/only the pump powered/);
 		expect(text).toMatch(/Unplug from the mains/);
 		expect(text).toMatch(/glycol/);
 		expect(text).toMatch(/heat guns burn/i);
-		expect(sheet.planningNote).toMatch(/manufacturers’ instructions, local codes or licensed practice/);
+		expect(sheet.planningNote).toMatch(
+			/manufacturers’ instructions, local codes or licensed practice/
+		);
 	});
 
 	it('says why a step comes where it does', () => {
-		const block = sheet.checklist.find((g) => g.id === 'order')!.items.find((i) => i.key === 'part:cpu-block')!;
-		expect(block.text).toBe('2. Compact CPU block, 26 mm tall — onto Board tray, moving it towards the left panel.');
-		expect(block.detail).toBe('After Mini-ITX board: this part would be in its way in (from the right).');
+		const block = sheet.checklist
+			.find((g) => g.id === 'order')!
+			.items.find((i) => i.key === 'part:cpu-block')!;
+		expect(block.text).toBe(
+			'2. Compact CPU block, 26 mm tall — onto Board tray, moving it towards the left panel.'
+		);
+		expect(block.detail).toBe(
+			'After Mini-ITX board: this part would be in its way in (from the right).'
+		);
 	});
 });
 

@@ -28,7 +28,13 @@ import {
 	type StatusCounts,
 	type Vec3
 } from '$lib/geometry';
-import { FROM_WORDS, assemblyPlan, fittingsByThread, type AssemblyStep, type OrderEdge } from './assembly';
+import {
+	FROM_WORDS,
+	assemblyPlan,
+	fittingsByThread,
+	type AssemblyStep,
+	type OrderEdge
+} from './assembly';
 import { CAUTIONS, PLANNING_NOTE } from './cautions';
 import { gapWords, mountProblemDetail } from './words';
 import {
@@ -156,7 +162,14 @@ export interface ChecklistGroup {
 }
 
 export interface SheetModel {
-	heading: { buildName: string; clientName: string; variantName: string; variantVersion: number; versionText: string; enclosureName: string };
+	heading: {
+		buildName: string;
+		clientName: string;
+		variantName: string;
+		variantVersion: number;
+		versionText: string;
+		enclosureName: string;
+	};
 	enclosure: {
 		outerText: string;
 		innerText: string;
@@ -167,7 +180,13 @@ export interface SheetModel {
 		mounts: MountLine[];
 	};
 	parts: PartLine[];
-	fit: { summary: string; counts: StatusCounts; items: FitItem[]; budgets: BudgetLine[]; marginText: string };
+	fit: {
+		summary: string;
+		counts: StatusCounts;
+		items: FitItem[];
+		budgets: BudgetLine[];
+		marginText: string;
+	};
 	assembly: { steps: StepLine[]; rule: string[] };
 	fittings: FittingLine[];
 	checklist: ChecklistGroup[];
@@ -183,7 +202,9 @@ export const ORDER_RULE: readonly string[] = [
 
 function settingLines(scene: Scene, resolved: ResolvedScene): SettingLine[] {
 	const lines: SettingLine[] = [];
-	for (const d of scene.enclosure.dividers) lines.push(dividerLine(d, resolved.dividerPositions[d.id]));
+	for (const d of scene.enclosure.dividers) {
+		lines.push(dividerLine(d, resolved.dividerPositions[d.id]));
+	}
 	for (const b of scene.enclosure.brackets) {
 		const box = resolved.brackets.find((w) => w.ownerId === b.id)!.box;
 		lines.push(bracketLine(b, resolved.bracketOffsets[b.id], box.min['xyz'.indexOf(b.axis)]));
@@ -200,7 +221,11 @@ function dividerLine(d: DividerDef, offsetMm: number): SettingLine {
 	const thick = `; ${mm(d.thicknessMm)} thick.`;
 	const rest = named
 		? { before: 'at position ', em: positionLabel, after: `, ${coordinateText}${thick}` }
-		: { before: `at ${coordinateText} (position ${index + 1} of ${positions.length})${thick}`, em: '', after: '' };
+		: {
+				before: `at ${coordinateText} (position ${index + 1} of ${positions.length})${thick}`,
+				em: '',
+				after: ''
+			};
 	return {
 		key: `setting:divider:${d.id}`,
 		kind: 'divider',
@@ -239,7 +264,11 @@ function bracketLine(b: BracketDef, offsetMm: number, lowFaceMm: number): Settin
 		axis: b.axis,
 		coordinateMm: lowFaceMm,
 		coordinateText,
-		rest: { before: `${where}, ${coordinateText} (steps of ${mm(b.travel.stepMm)}).`, em: '', after: '' },
+		rest: {
+			before: `${where}, ${coordinateText} (steps of ${mm(b.travel.stepMm)}).`,
+			em: '',
+			after: ''
+		},
 		text: `${b.label} ${where}, ${coordinateText} (steps of ${mm(b.travel.stepMm)}).`
 	};
 }
@@ -263,7 +292,9 @@ const worst = (g: FaceGap) => g.worstCaseMm ?? g.gapMm!;
 
 /** Free gaps that count: something is ahead, and it is not where the part is held. */
 function freeGaps(gaps: Record<Face, FaceGap>): [Face, FaceGap][] {
-	return FACES.map((f) => [f, gaps[f]] as [Face, FaceGap]).filter(([, g]) => g.gapMm !== null && !g.held);
+	return FACES.map((f) => [f, gaps[f]] as [Face, FaceGap]).filter(
+		([, g]) => g.gapMm !== null && !g.held
+	);
 }
 
 function partLines(scene: Scene, resolved: ResolvedScene, report: FitReport): PartLine[] {
@@ -288,7 +319,10 @@ function partLines(scene: Scene, resolved: ResolvedScene, report: FitReport): Pa
 			mountLabel: rp.placement.mountId ? (mounts.get(rp.placement.mountId) ?? null) : null,
 			compartmentLabel: pr.compartmentId ? (compartments.get(pr.compartmentId) ?? null) : null,
 			status: pr.status,
-			provenance: rp.part.toleranceMm > 0 ? `${rp.part.provenance}, ±${mm(rp.part.toleranceMm)}` : rp.part.provenance,
+			provenance:
+				rp.part.toleranceMm > 0
+					? `${rp.part.provenance}, ±${mm(rp.part.toleranceMm)}`
+					: rp.part.provenance,
 			smallestGap: smallest ? gapText(smallest[0], smallest[1]) : null,
 			ports: rp.ports.length
 		};
@@ -308,42 +342,84 @@ function moveText(move: ClearingMove, names: Map<string, string>): string {
  * has several), a keep-out as "the <room> of <part>", structure by its own label.
  */
 function refText(ref: ItemRef, resolved: ResolvedScene): string {
-	const rp = ref.placementId ? resolved.placements.find((p) => p.placement.id === ref.placementId) : undefined;
+	const rp = ref.placementId
+		? resolved.placements.find((p) => p.placement.id === ref.placementId)
+		: undefined;
 	if (!rp) return ref.label;
 	const own = ref.id.slice(rp.placement.id.length + 1);
-	if (ref.kind === 'keepout') return `the ${rp.part.keepouts.find((k) => k.id === own)?.label ?? 'keep-out'} of ${rp.part.name}`;
-	return rp.part.bodies.length > 1 ? `${rp.part.name} (${rp.part.bodies.find((b) => b.id === own)?.label ?? own})` : rp.part.name;
+	if (ref.kind === 'keepout') {
+		return `the ${rp.part.keepouts.find((k) => k.id === own)?.label ?? 'keep-out'} of ${rp.part.name}`;
+	}
+	return rp.part.bodies.length > 1
+		? `${rp.part.name} (${rp.part.bodies.find((b) => b.id === own)?.label ?? own})`
+		: rp.part.name;
 }
 
 function overlapItem(o: Overlap, names: Map<string, string>, resolved: ResolvedScene): FitItem {
 	const [a, b] = o.a.kind === 'keepout' ? [o.b, o.a] : [o.a, o.b];
 	const depth = o.depthMm.map((d) => mm(d)).join(' × ');
 	const clears = o.moves.map((m) => moveText(m, names));
-	const sentence = clears.length ? `Overlap ${depth} (${cm3(o.volumeMm3)}); to clear it, ${clears.join(', or ')}.` : `Overlap ${depth} (${cm3(o.volumeMm3)}). ${o.noMove ?? 'No single move clears it.'}`;
+	const sentence = clears.length
+		? `Overlap ${depth} (${cm3(o.volumeMm3)}); to clear it, ${clears.join(', or ')}.`
+		: `Overlap ${depth} (${cm3(o.volumeMm3)}). ${o.noMove ?? 'No single move clears it.'}`;
 	const key = `overlap:${o.a.id}|${o.b.id}`;
 	if (o.kind === 'collides') {
-		return { key, status: 'collides', word: STATUS_WORDS.collides, title: `${refText(a, resolved)} collides with ${refText(b, resolved)}`, detail: sentence };
+		return {
+			key,
+			status: 'collides',
+			word: STATUS_WORDS.collides,
+			title: `${refText(a, resolved)} collides with ${refText(b, resolved)}`,
+			detail: sentence
+		};
 	}
 	const blocked = o.kind === 'blocked';
-	return { key, status: blocked ? 'blocked' : 'tight', word: blocked ? STATUS_WORDS.blocked : 'warning', title: `${refText(a, resolved)} reaches into ${refText(b, resolved)}`, detail: sentence };
+	return {
+		key,
+		status: blocked ? 'blocked' : 'tight',
+		word: blocked ? STATUS_WORDS.blocked : 'warning',
+		title: `${refText(a, resolved)} reaches into ${refText(b, resolved)}`,
+		detail: sentence
+	};
 }
 
-function fitItems(scene: Scene, resolved: ResolvedScene, report: FitReport, names: Map<string, string>): FitItem[] {
+function fitItems(
+	scene: Scene,
+	resolved: ResolvedScene,
+	report: FitReport,
+	names: Map<string, string>
+): FitItem[] {
 	const items = report.overlaps.map((o) => overlapItem(o, names, resolved));
 	if (report.overlapsNotListed > 0) {
-		items.push({ key: 'overlap:more', status: 'collides', word: STATUS_WORDS.collides, title: `…and ${report.overlapsNotListed} more overlaps`, detail: 'Not listed one by one; the totals include them.' });
+		items.push({
+			key: 'overlap:more',
+			status: 'collides',
+			word: STATUS_WORDS.collides,
+			title: `…and ${report.overlapsNotListed} more overlaps`,
+			detail: 'Not listed one by one; the totals include them.'
+		});
 	}
 	for (const pr of report.parts) {
 		const rp = resolved.placements.find((p) => p.placement.id === pr.placementId)!;
 		if (pr.outsideFaces.length > 0) {
 			const crossed = pr.outsideFaces.map((f) => {
 				const a = 'xyz'.indexOf(f[1]);
-				const by = f[0] === '+' ? rp.bounds.max[a] - resolved.innerBox.max[a] : resolved.innerBox.min[a] - rp.bounds.min[a];
+				const by =
+					f[0] === '+'
+						? rp.bounds.max[a] - resolved.innerBox.max[a]
+						: resolved.innerBox.min[a] - rp.bounds.min[a];
 				return `the ${FACE_PANEL[f]} by ${mm(by)}`;
 			});
-			items.push({ key: `outside:${pr.placementId}`, status: 'outside', word: STATUS_WORDS.outside, title: `${pr.label} reaches outside the enclosure`, detail: `It crosses ${crossed.join(' and ')}.` });
+			items.push({
+				key: `outside:${pr.placementId}`,
+				status: 'outside',
+				word: STATUS_WORDS.outside,
+				title: `${pr.label} reaches outside the enclosure`,
+				detail: `It crosses ${crossed.join(' and ')}.`
+			});
 		}
-		const tight = freeGaps(pr.gaps).filter(([, g]) => g.gapMm! >= -EPSILON_MM && worst(g) < scene.marginMm - EPSILON_MM);
+		const tight = freeGaps(pr.gaps).filter(
+			([, g]) => g.gapMm! >= -EPSILON_MM && worst(g) < scene.marginMm - EPSILON_MM
+		);
 		for (const [face, g] of tight) {
 			items.push({
 				key: `gap:${pr.placementId}:${face}`,
@@ -354,11 +430,23 @@ function fitItems(scene: Scene, resolved: ResolvedScene, report: FitReport, name
 			});
 		}
 		for (const problem of pr.mountProblems) {
-			items.push({ key: `mount-part:${pr.placementId}:${problem.mountId}:${problem.kind}`, status: problem.status, word: STATUS_WORDS[problem.status], title: `${pr.label}: on the ${problem.label}`, detail: `${mountProblemDetail(problem).replace(/^./, (c) => c.toUpperCase())}.` });
+			items.push({
+				key: `mount-part:${pr.placementId}:${problem.mountId}:${problem.kind}`,
+				status: problem.status,
+				word: STATUS_WORDS[problem.status],
+				title: `${pr.label}: on the ${problem.label}`,
+				detail: `${mountProblemDetail(problem).replace(/^./, (c) => c.toUpperCase())}.`
+			});
 		}
 	}
 	for (const m of report.mounts.filter((m) => m.status !== 'clear')) {
-		items.push({ key: `mount:${m.mountId}`, status: m.status, word: STATUS_WORDS[m.status], title: `${m.label}: the stack does not fit as it should`, detail: mountText(m, names) });
+		items.push({
+			key: `mount:${m.mountId}`,
+			status: m.status,
+			word: STATUS_WORDS[m.status],
+			title: `${m.label}: the stack does not fit as it should`,
+			detail: mountText(m, names)
+		});
 	}
 	const rank = (s: FitStatus) => ['collides', 'blocked', 'outside', 'tight', 'clear'].indexOf(s);
 	return items.sort((x, y) => rank(x.status) - rank(y.status));
@@ -368,13 +456,21 @@ function mountText(m: FitReport['mounts'][number], names: Map<string, string>): 
 	const parts = m.stack.map((s) => names.get(s.placementId) ?? s.placementId);
 	const bits = [parts.length ? `Holds ${parts.join(' + ')}` : 'Empty'];
 	if (m.budgetMm !== null) {
-		bits.push(`stack ${mm(m.usedMm)} of ${mm(m.budgetMm)}${m.plateMm ? ` (plate ${mm(m.plateMm)} included)` : ''}`);
+		bits.push(
+			`stack ${mm(m.usedMm)} of ${mm(m.budgetMm)}${m.plateMm ? ` (plate ${mm(m.plateMm)} included)` : ''}`
+		);
 		bits.push(m.spareMm! >= 0 ? `${mm(m.spareMm!)} to spare` : `${mm(-m.spareMm!)} too thick`);
 	}
-	if (m.unaccepted.length) bits.push(`not made for ${m.unaccepted.map((id) => names.get(id) ?? id).join(', ')}`);
-	if (m.problems.length > 1) bits.push(`problems, worst first: ${m.problems.map(mountProblemDetail).join(', ')}`);
+	if (m.unaccepted.length) {
+		bits.push(`not made for ${m.unaccepted.map((id) => names.get(id) ?? id).join(', ')}`);
+	}
+	if (m.problems.length > 1) {
+		bits.push(`problems, worst first: ${m.problems.map(mountProblemDetail).join(', ')}`);
+	}
 	for (const o of m.overflow) {
-		const over = Object.entries(o.overflowMm).map(([f, v]) => `${mm(v!)} past its ${FACE_SIDE[f as Face].replace(/^to the /, '')} edge`);
+		const over = Object.entries(o.overflowMm).map(
+			([f, v]) => `${mm(v!)} past its ${FACE_SIDE[f as Face].replace(/^to the /, '')} edge`
+		);
 		bits.push(`${names.get(o.placementId) ?? o.placementId} reaches ${over.join(', ')}`);
 	}
 	return `${bits.join('; ')}.`;
@@ -390,7 +486,8 @@ function budgetLines(report: FitReport): BudgetLine[] {
 			heat.status === 'unknown'
 				? `${heat.heatW}\u2009W of heat; no radiator placed, so the loop's capacity is not known.`
 				: `${heat.heatW}\u2009W of heat against about ${Math.round(heat.capacityW)}\u2009W of radiator capacity (${heat.radiatorLengthMm}\u2009mm of radiator at ${heat.wattsPer120mm}\u2009W per 120\u2009mm).`,
-		estimateNote: 'Estimate: watts per 120 mm of radiator is a rule of thumb (common practice), not a measurement.'
+		estimateNote:
+			'Estimate: watts per 120 mm of radiator is a rule of thumb (common practice), not a measurement.'
 	};
 	const powerLine: BudgetLine = {
 		key: 'power',
@@ -400,18 +497,27 @@ function budgetLines(report: FitReport): BudgetLine[] {
 			power.status === 'unknown'
 				? `${power.drawW}\u2009W of sustained draw; no power supply rating given.`
 				: `${power.drawW}\u2009W of sustained draw; with ${power.headroomPct}\u2009% headroom ${Math.round(power.requiredW)}\u2009W needed; supply rated ${power.ratingW}\u2009W.`,
-		estimateNote: power.headroomPct > 0 ? 'The headroom for transient spikes is a rule of thumb (common practice).' : null
+		estimateNote:
+			power.headroomPct > 0
+				? 'The headroom for transient spikes is a rule of thumb (common practice).'
+				: null
 	};
 	return [heatLine, powerLine];
 }
 
 function summaryOf(counts: StatusCounts, items: FitItem[]): string {
 	const problems = counts.collides + counts.blocked + counts.outside;
-	const mountProblems = items.filter((i) => i.key.startsWith('mount:') && i.status !== 'tight').length;
+	const mountProblems = items.filter(
+		(i) => i.key.startsWith('mount:') && i.status !== 'tight'
+	).length;
 	if (problems + mountProblems === 0) {
-		return counts.tight > 0 ? `Everything fits; ${plural(counts.tight, 'part is', 'parts are')} tight.` : 'Everything fits with the margin to spare.';
+		return counts.tight > 0
+			? `Everything fits; ${plural(counts.tight, 'part is', 'parts are')} tight.`
+			: 'Everything fits with the margin to spare.';
 	}
-	const words = (['collides', 'blocked', 'outside', 'tight', 'clear'] as const).filter((s) => counts[s] > 0).map((s) => `${counts[s]} ${STATUS_WORDS[s]}`);
+	const words = (['collides', 'blocked', 'outside', 'tight', 'clear'] as const)
+		.filter((s) => counts[s] > 0)
+		.map((s) => `${counts[s]} ${STATUS_WORDS[s]}`);
 	return `Not ready to build: ${words.join(', ')}${mountProblems ? `; ${plural(mountProblems, 'mount')} over budget` : ''}.`;
 }
 
@@ -429,7 +535,11 @@ function reasonText(e: OrderEdge, names: Map<string, string>): string {
 	}
 }
 
-function stepLine(step: AssemblyStep, names: Map<string, string>, mounts: Map<string, { label: string; face: string }>): StepLine {
+function stepLine(
+	step: AssemblyStep,
+	names: Map<string, string>,
+	mounts: Map<string, { label: string; face: string }>
+): StepLine {
 	const mount = step.mountId ? mounts.get(step.mountId) : undefined;
 	const where = mount
 		? `onto ${mount.label}, moving it towards the ${mount.face} panel`
@@ -453,7 +563,9 @@ function stepLine(step: AssemblyStep, names: Map<string, string>, mounts: Map<st
 export function buildSheet(input: SheetInput): SheetModel {
 	const { scene, resolved, report } = input;
 	const enclosure = scene.enclosure;
-	const names = new Map<string, string>(resolved.placements.map((rp) => [rp.placement.id, rp.part.name]));
+	const names = new Map<string, string>(
+		resolved.placements.map((rp) => [rp.placement.id, rp.part.name])
+	);
 	for (const d of enclosure.dividers) names.set(d.id, d.label);
 	for (const b of enclosure.brackets) names.set(b.id, b.label);
 	const mountNames = new Map(enclosure.mounts.map((m) => [m.id, { label: m.label, face: m.face }]));
@@ -490,24 +602,55 @@ export function buildSheet(input: SheetInput): SheetModel {
 			volumeText: litres(innerVolumeLitres(enclosure)),
 			walls,
 			settings,
-			compartments: report.compartments.map((c) => ({ id: c.id, label: c.label, sizeText: sizeText(c.sizeMm) })),
+			compartments: report.compartments.map((c) => ({
+				id: c.id,
+				label: c.label,
+				sizeText: sizeText(c.sizeMm)
+			})),
 			mounts: report.mounts
 				.filter((m) => m.stack.length > 0)
-				.map((m) => ({ mountId: m.mountId, label: m.label, status: m.status, text: mountText(m, names) }))
+				.map((m) => ({
+					mountId: m.mountId,
+					label: m.label,
+					status: m.status,
+					text: mountText(m, names)
+				}))
 		},
 		parts: partLines(scene, resolved, report),
-		fit: { summary: summaryOf(report.totals.counts, items), counts: report.totals.counts, items, budgets: budgetLines(report), marginText: mm(scene.marginMm) },
+		fit: {
+			summary: summaryOf(report.totals.counts, items),
+			counts: report.totals.counts,
+			items,
+			budgets: budgetLines(report),
+			marginText: mm(scene.marginMm)
+		},
 		assembly: { steps, rule: [...ORDER_RULE] },
 		fittings,
 		checklist: [
-			{ id: 'settings', title: 'Set the enclosure', items: settings.map((s) => ({ key: s.key, text: s.text, detail: null })) },
+			{
+				id: 'settings',
+				title: 'Set the enclosure',
+				items: settings.map((s) => ({ key: s.key, text: s.text, detail: null }))
+			},
 			{
 				id: 'order',
 				title: 'Fit the parts in this order',
-				items: steps.map((s) => ({ key: s.key, text: `${s.order}. ${s.text}`, detail: [s.conflict, ...s.reasons].filter(Boolean).join(' ') || null }))
+				items: steps.map((s) => ({
+					key: s.key,
+					text: `${s.order}. ${s.text}`,
+					detail: [s.conflict, ...s.reasons].filter(Boolean).join(' ') || null
+				}))
 			},
-			{ id: 'fittings', title: 'Fittings per port thread', items: fittings.map((f) => ({ key: f.key, text: f.text, detail: null })) },
-			{ id: 'cautions', title: 'Before power-on, and always', items: CAUTIONS.map((c) => ({ key: `caution:${c.id}`, text: c.text, detail: c.detail })) }
+			{
+				id: 'fittings',
+				title: 'Fittings per port thread',
+				items: fittings.map((f) => ({ key: f.key, text: f.text, detail: null }))
+			},
+			{
+				id: 'cautions',
+				title: 'Before power-on, and always',
+				items: CAUTIONS.map((c) => ({ key: `caution:${c.id}`, text: c.text, detail: c.detail }))
+			}
 		].filter((g) => g.items.length > 0) as ChecklistGroup[],
 		planningNote: PLANNING_NOTE
 	};

@@ -8,17 +8,31 @@
  */
 import { describe, expect, it } from 'vitest';
 import { checkScene, sceneSchema } from '$lib/geometry';
-import { DEMO_SPINE_OFFSETS, demoEnclosure, demoParts, demoSceneInput } from '$lib/geometry/fixtures';
+import {
+	DEMO_SPINE_OFFSETS,
+	demoEnclosure,
+	demoParts,
+	demoSceneInput
+} from '$lib/geometry/fixtures';
 import { composeScene, type VariantSettings } from './settings';
 import { versionChanges } from './version-diff';
 
 function side(settings: VariantSettings) {
-	return { settings, report: checkScene(sceneSchema.parse(composeScene(demoEnclosure(), demoParts(), settings))) };
+	return {
+		settings,
+		report: checkScene(sceneSchema.parse(composeScene(demoEnclosure(), demoParts(), settings)))
+	};
 }
 
 describe('versionChanges', () => {
 	const input = demoSceneInput();
-	const v1: VariantSettings = { dividerPositions: { ...input.dividerPositions }, bracketOffsets: { ...input.bracketOffsets }, placements: input.placements!.map((p) => ({ ...p })), marginMm: 2, budgets: input.budgets! } as VariantSettings;
+	const v1: VariantSettings = {
+		dividerPositions: { ...input.dividerPositions },
+		bracketOffsets: { ...input.bracketOffsets },
+		placements: input.placements!.map((p) => ({ ...p })),
+		marginMm: 2,
+		budgets: input.budgets!
+	} as VariantSettings;
 
 	it('says nothing when nothing changed', () => {
 		expect(versionChanges(demoEnclosure(), demoParts(), side(v1), side(v1))).toEqual([]);
@@ -30,8 +44,17 @@ describe('versionChanges', () => {
 			dividerPositions: { ...v1.dividerPositions, spine: DEMO_SPINE_OFFSETS['2 slots'] },
 			bracketOffsets: { bar: 20 },
 			placements: [
-				...v1.placements.filter((p) => p.id !== 'cpu-block').map((p) => (p.id === 'pump-res' ? { ...p, position: [80, 227, 110] as [number, number, number] } : p)),
-				{ id: 'fan-3', partId: 'std-fan-140-25', position: [110, 0, 210], rotation: { x: 0, y: 0, z: 0 } }
+				...v1.placements
+					.filter((p) => p.id !== 'cpu-block')
+					.map((p) =>
+						p.id === 'pump-res' ? { ...p, position: [80, 227, 110] as [number, number, number] } : p
+					),
+				{
+					id: 'fan-3',
+					partId: 'std-fan-140-25',
+					position: [110, 0, 210],
+					rotation: { x: 0, y: 0, z: 0 }
+				}
 			]
 		};
 		const words = versionChanges(demoEnclosure(), demoParts(), side(v1), side(v2));
@@ -42,6 +65,8 @@ describe('versionChanges', () => {
 		expect(words).toContain('Compact pump-reservoir, 58 mm thick moved 10.0\u2009mm left.');
 		// The card is tight in the first version: 2 mm from the right panel, 1 mm in the worst case (±1 mm).
 		expect(words).toContain('Compact graphics card, two slots, 185 mm: now collides (was tight).');
-		expect(words.some((w) => /^Interference: now [\d.]+\u2009cm³ \(was 0\.0\u2009cm³\)\.$/.test(w))).toBe(true);
+		expect(
+			words.some((w) => /^Interference: now [\d.]+\u2009cm³ \(was 0\.0\u2009cm³\)\.$/.test(w))
+		).toBe(true);
 	});
 });

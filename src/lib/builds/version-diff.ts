@@ -3,7 +3,13 @@
  * added, removed, moved or turned, and fit items whose status changed. The fit part comes from the
  * compare view's own difference engine (compareVariants), so both say the same thing.
  */
-import { allowedPositions, formatMm, type EnclosureDef, type FitReport, type PartDef } from '$lib/geometry';
+import {
+	allowedPositions,
+	formatMm,
+	type EnclosureDef,
+	type FitReport,
+	type PartDef
+} from '$lib/geometry';
 import { compareVariants } from './compare';
 import type { VariantSettings } from './settings';
 
@@ -18,30 +24,52 @@ const EPS = 1e-6;
 
 /** "3 slots (86.0 mm)" for a named list position, else just the millimetres. */
 function positionWords(def: Parameters<typeof allowedPositions>[0], offsetMm: number): string {
-	const named = 'positions' in def && def.positions.kind === 'list' ? allowedPositions(def).find((p) => Math.abs(p.offsetMm - offsetMm) <= EPS) : undefined;
-	return named && named.label !== formatMm(offsetMm) ? `${named.label} (${formatMm(offsetMm)})` : formatMm(offsetMm);
+	const named =
+		'positions' in def && def.positions.kind === 'list'
+			? allowedPositions(def).find((p) => Math.abs(p.offsetMm - offsetMm) <= EPS)
+			: undefined;
+	return named && named.label !== formatMm(offsetMm)
+		? `${named.label} (${formatMm(offsetMm)})`
+		: formatMm(offsetMm);
 }
 
 /** Sentences, most telling first: controls, then parts, then fit. Empty when nothing changed. */
-export function versionChanges(enclosure: EnclosureDef, parts: readonly PartDef[], before: VersionSide, after: VersionSide): string[] {
+export function versionChanges(
+	enclosure: EnclosureDef,
+	parts: readonly PartDef[],
+	before: VersionSide,
+	after: VersionSide
+): string[] {
 	const out: string[] = [];
 	for (const d of enclosure.dividers) {
 		const a = before.settings.dividerPositions[d.id];
 		const b = after.settings.dividerPositions[d.id];
-		if (a !== undefined && b !== undefined && Math.abs(a - b) > EPS) out.push(`${d.label} moved from ${positionWords(d, a)} to ${positionWords(d, b)}.`);
+		if (a !== undefined && b !== undefined && Math.abs(a - b) > EPS) {
+			out.push(`${d.label} moved from ${positionWords(d, a)} to ${positionWords(d, b)}.`);
+		}
 	}
 	for (const br of enclosure.brackets) {
 		const a = before.settings.bracketOffsets[br.id];
 		const b = after.settings.bracketOffsets[br.id];
-		if (a !== undefined && b !== undefined && Math.abs(a - b) > EPS) out.push(`${br.label} moved from ${formatMm(a)} to ${formatMm(b)}.`);
+		if (a !== undefined && b !== undefined && Math.abs(a - b) > EPS) {
+			out.push(`${br.label} moved from ${formatMm(a)} to ${formatMm(b)}.`);
+		}
 	}
-	if (Math.abs(before.settings.marginMm - after.settings.marginMm) > EPS) out.push(`The clearance asked for changed from ${formatMm(before.settings.marginMm)} to ${formatMm(after.settings.marginMm)}.`);
+	if (Math.abs(before.settings.marginMm - after.settings.marginMm) > EPS) {
+		out.push(
+			`The clearance asked for changed from ${formatMm(before.settings.marginMm)} to ${formatMm(after.settings.marginMm)}.`
+		);
+	}
 
 	const nameOf = (partId: string) => parts.find((p) => p.id === partId)?.name ?? 'A part';
 	const beforeById = new Map(before.settings.placements.map((p) => [p.id, p]));
 	const afterById = new Map(after.settings.placements.map((p) => [p.id, p]));
-	for (const p of after.settings.placements) if (!beforeById.has(p.id)) out.push(`Added: ${nameOf(p.partId)}.`);
-	for (const p of before.settings.placements) if (!afterById.has(p.id)) out.push(`Removed: ${nameOf(p.partId)}.`);
+	for (const p of after.settings.placements) {
+		if (!beforeById.has(p.id)) out.push(`Added: ${nameOf(p.partId)}.`);
+	}
+	for (const p of before.settings.placements) {
+		if (!afterById.has(p.id)) out.push(`Removed: ${nameOf(p.partId)}.`);
+	}
 	for (const p of after.settings.placements) {
 		const was = beforeById.get(p.id);
 		if (!was) continue;
@@ -53,8 +81,14 @@ export function versionChanges(enclosure: EnclosureDef, parts: readonly PartDef[
 			.map((a) => ({ a, d: p.position[a] - was.position[a] }))
 			.filter(({ d }) => Math.abs(d) > EPS)
 			.map(({ a, d }) => `${formatMm(Math.abs(d))} ${AXIS_WAYS[a][d > 0 ? 1 : 0]}`);
-		const turned = (['x', 'y', 'z'] as const).some((k) => ((was.rotation[k] - p.rotation[k]) % 4 + 4) % 4 !== 0);
-		if (moves.length || turned) out.push(`${nameOf(p.partId)} ${[moves.length ? `moved ${moves.join(', ')}` : '', turned ? 'turned' : ''].filter(Boolean).join(' and ')}.`);
+		const turned = (['x', 'y', 'z'] as const).some(
+			(k) => (((was.rotation[k] - p.rotation[k]) % 4) + 4) % 4 !== 0
+		);
+		if (moves.length || turned) {
+			out.push(
+				`${nameOf(p.partId)} ${[moves.length ? `moved ${moves.join(', ')}` : '', turned ? 'turned' : ''].filter(Boolean).join(' and ')}.`
+			);
+		}
 	}
 
 	// Fit: the compare engine's rows between the two reports; statuses and the interference total.

@@ -2,7 +2,17 @@
  * Words for the editor's labels: faces, millimetres, the move that clears an overlap.
  * Shared by the editor, the client page and the build sheet.
  */
-import { EPSILON_MM, formatMm, type ClearingMove, type Face, type FaceGap, type FitReport, type MountProblem, type Overlap, type PartReport } from '$lib/geometry';
+import {
+	EPSILON_MM,
+	formatMm,
+	type ClearingMove,
+	type Face,
+	type FaceGap,
+	type FitReport,
+	type MountProblem,
+	type Overlap,
+	type PartReport
+} from '$lib/geometry';
 
 /** Which side of a part a gap is on, seen from the front. */
 export const FACE_WORDS: Record<Face, string> = {
@@ -24,7 +34,9 @@ export function mm(valueMm: number | null): string {
  */
 export function gapWords(g: Pick<FaceGap, 'gapMm' | 'worstCaseMm'>): string {
 	if (g.gapMm === null) return '—';
-	if (g.worstCaseMm === null || Math.abs(g.worstCaseMm - g.gapMm) <= EPSILON_MM) return formatMm(g.gapMm);
+	if (g.worstCaseMm === null || Math.abs(g.worstCaseMm - g.gapMm) <= EPSILON_MM) {
+		return formatMm(g.gapMm);
+	}
 	return `${formatMm(g.gapMm)} (${formatMm(g.worstCaseMm).replace(/\u2009mm$/, '')} worst case)`;
 }
 
@@ -47,7 +59,11 @@ export function mountProblemWords(m: MountProblem): string {
 	return `${m.label}: ${mountProblemDetail(m)}`;
 }
 
-const MOVE_WORDS: Record<ClearingMove['axis'], [string, string]> = { x: ['left', 'right'], y: ['down', 'up'], z: ['forward', 'back'] };
+const MOVE_WORDS: Record<ClearingMove['axis'], [string, string]> = {
+	x: ['left', 'right'],
+	y: ['down', 'up'],
+	z: ['forward', 'back']
+};
 
 function moveText(move: ClearingMove): string {
 	const way = MOVE_WORDS[move.axis][move.sign > 0 ? 1 : 0];
@@ -68,7 +84,14 @@ export function moveSentence(moves: readonly ClearingMove[], noMove?: string): s
 const AXIS_WORDS = { x: 'width', y: 'height', z: 'depth' } as const;
 
 /** Where a gap is, as a preposition: "2.0 mm above the CPU block". */
-const BESIDE_WORDS: Record<Face, string> = { '-x': 'left of', '+x': 'right of', '-y': 'below', '+y': 'above', '-z': 'in front of', '+z': 'behind' };
+const BESIDE_WORDS: Record<Face, string> = {
+	'-x': 'left of',
+	'+x': 'right of',
+	'-y': 'below',
+	'+y': 'above',
+	'-z': 'in front of',
+	'+z': 'behind'
+};
 
 /** "Card and support bracket overlap by 3.5 mm along depth; move the bracket 1 step back." */
 export function overlapSentence(o: Overlap): string {
@@ -76,8 +99,13 @@ export function overlapSentence(o: Overlap): string {
 	const depth = o.depthMm[axis === 'x' ? 0 : axis === 'y' ? 1 : 2];
 	const keepout = o.a.kind === 'keepout' ? o.a : o.b.kind === 'keepout' ? o.b : null;
 	const other = keepout === o.a ? o.b : o.a;
-	const lead = keepout && o.kind !== 'collides' ? `${other.label} is in the keep-out ${keepout.label}` : `${o.a.label} and ${o.b.label} overlap`;
-	if (o.moves.length === 0) return `${lead} by ${formatMm(depth)} along ${AXIS_WORDS[axis]}. ${o.noMove ?? 'No single move clears this.'}`;
+	const lead =
+		keepout && o.kind !== 'collides'
+			? `${other.label} is in the keep-out ${keepout.label}`
+			: `${o.a.label} and ${o.b.label} overlap`;
+	if (o.moves.length === 0) {
+		return `${lead} by ${formatMm(depth)} along ${AXIS_WORDS[axis]}. ${o.noMove ?? 'No single move clears this.'}`;
+	}
 	const move = moveSentence(o.moves);
 	return `${lead} by ${formatMm(depth)} along ${AXIS_WORDS[axis]}; ${move.charAt(0).toLowerCase()}${move.slice(1)}.`;
 }
@@ -86,13 +114,17 @@ export function overlapSentence(o: Overlap): string {
  * The smallest free gap of a part by its worst case (contacts where it rests are left out), and
  * what it faces.
  */
-export function tightestGap(p: PartReport): { face: Face; gapMm: number; worstCaseMm: number; against: string } | null {
+export function tightestGap(
+	p: PartReport
+): { face: Face; gapMm: number; worstCaseMm: number; against: string } | null {
 	let best: { face: Face; gapMm: number; worstCaseMm: number; against: string } | null = null;
 	for (const face of Object.keys(p.gaps) as Face[]) {
 		const g = p.gaps[face];
 		if (g.gapMm === null || g.held) continue;
 		const worst = g.worstCaseMm ?? g.gapMm;
-		if (!best || worst < best.worstCaseMm) best = { face, gapMm: g.gapMm, worstCaseMm: worst, against: g.against?.label ?? 'the wall' };
+		if (!best || worst < best.worstCaseMm) {
+			best = { face, gapMm: g.gapMm, worstCaseMm: worst, against: g.against?.label ?? 'the wall' };
+		}
 	}
 	return best;
 }
@@ -111,7 +143,9 @@ export function fitSummary(report: FitReport): string {
 	let best: { label: string; face: Face; gapMm: number; worstCaseMm: number } | null = null;
 	for (const p of report.parts) {
 		const g = tightestGap(p);
-		if (g && (!best || g.worstCaseMm < best.worstCaseMm)) best = { label: p.label, face: g.face, gapMm: g.gapMm, worstCaseMm: g.worstCaseMm };
+		if (g && (!best || g.worstCaseMm < best.worstCaseMm)) {
+			best = { label: p.label, face: g.face, gapMm: g.gapMm, worstCaseMm: g.worstCaseMm };
+		}
 	}
 	if (!best) return 'Everything fits.';
 	return `Everything fits; the tightest gap is ${gapWords(best)} ${BESIDE_WORDS[best.face]} the ${best.label}.`;

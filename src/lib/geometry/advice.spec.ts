@@ -16,18 +16,27 @@ import type { Box, Scene, Vec3 } from './schema';
 import type { ClearingMove, Overlap, WorldBox } from './types';
 
 /** Random scenes where some placements are locked. */
-const lockedSceneArb = fc.tuple(sceneArb, fc.array(fc.boolean(), { minLength: 8, maxLength: 8 })).map(([scene, locks]) => ({
-	...scene,
-	placements: scene.placements.map((p, i) => (locks[i] ? { ...p, locked: true } : p))
-}));
+const lockedSceneArb = fc
+	.tuple(sceneArb, fc.array(fc.boolean(), { minLength: 8, maxLength: 8 }))
+	.map(([scene, locks]) => ({
+		...scene,
+		placements: scene.placements.map((p, i) => (locks[i] ? { ...p, locked: true } : p))
+	}));
 
 function allBoxes(scene: Scene): WorldBox[] {
 	const r = resolveScene(scene);
-	return [...r.walls, ...r.dividers, ...r.brackets, ...r.plates, ...r.placements.flatMap((p) => [...p.bodies, ...p.keepouts])];
+	return [
+		...r.walls,
+		...r.dividers,
+		...r.brackets,
+		...r.plates,
+		...r.placements.flatMap((p) => [...p.bodies, ...p.keepouts])
+	];
 }
 
 /** Overlap along one axis of two boxes. */
-const along = (a: Box, b: Box, k: number) => Math.min(a.max[k], b.max[k]) - Math.max(a.min[k], b.min[k]);
+const along = (a: Box, b: Box, k: number) =>
+	Math.min(a.max[k], b.max[k]) - Math.max(a.min[k], b.min[k]);
 const overlapVolume = (a: Box, b: Box) => {
 	const d = [0, 1, 2].map((k) => along(a, b, k));
 	return d.every((v) => v > EPSILON_MM) ? d[0] * d[1] * d[2] : 0;
@@ -53,8 +62,18 @@ function problems(boxes: readonly WorldBox[], owner?: string): Map<string, numbe
 }
 
 function applyMove(scene: Scene, move: ClearingMove): Scene {
-	if (move.targetKind === 'divider') return { ...scene, dividerPositions: { ...scene.dividerPositions, [move.targetId]: move.toOffsetMm! } };
-	if (move.targetKind === 'bracket') return { ...scene, bracketOffsets: { ...scene.bracketOffsets, [move.targetId]: move.toOffsetMm! } };
+	if (move.targetKind === 'divider') {
+		return {
+			...scene,
+			dividerPositions: { ...scene.dividerPositions, [move.targetId]: move.toOffsetMm! }
+		};
+	}
+	if (move.targetKind === 'bracket') {
+		return {
+			...scene,
+			bracketOffsets: { ...scene.bracketOffsets, [move.targetId]: move.toOffsetMm! }
+		};
+	}
 	const a = 'xyz'.indexOf(move.axis);
 	return {
 		...scene,
@@ -72,42 +91,51 @@ function overlapsByKey(overlaps: readonly Overlap[]): Map<string, Overlap> {
 }
 
 describe('clearing moves, applied and re-checked (1,000 random scenes)', () => {
-	it('clear their problem, create no collision or block, deepen none; never a locked part; controls land on allowed positions', { timeout: 120_000 }, () => {
-		fc.assert(
-			fc.property(lockedSceneArb, (scene) => {
-				const report = checkScene(scene);
-				const before = overlapsByKey(report.overlaps);
-				const locked = new Set(scene.placements.filter((p) => p.locked).map((p) => p.id));
-				for (const o of report.overlaps) {
-					expect(o.moves.length).toBeLessThanOrEqual(2);
-					expect(o.clearingMove).toEqual(o.moves[0] ?? null);
-					expect(o.moves.length === 0).toBe(o.noMove !== undefined);
-					for (const move of o.moves) {
-						expect(move.distanceMm).toBeGreaterThan(0);
-						if (move.targetKind === 'part') {
-							expect(locked.has(move.targetId)).toBe(false);
-						} else {
-							const defs: { id: string; axis: string }[] = move.targetKind === 'divider' ? scene.enclosure.dividers : scene.enclosure.brackets;
-							const def = scene.enclosure[move.targetKind === 'divider' ? 'dividers' : 'brackets'].find((d) => d.id === move.targetId)!;
-							expect(defs.some((d) => d.id === move.targetId)).toBe(true);
-							expect(move.axis).toBe(def.axis);
-							expect(allowedIndex(def, move.toOffsetMm!)).toBeGreaterThanOrEqual(0);
-						}
-						const after = checkScene(applyMove(scene, move));
-						const now = overlapsByKey(after.overlaps);
-						expect(now.has(key(o.a.id, o.b.id))).toBe(false);
-						for (const [k, n] of now) {
-							if (n.kind === 'warning') continue;
-							const old = before.get(k);
-							expect(old, `${k} is new after ${JSON.stringify(move)}`).toBeDefined();
-							expect(n.volumeMm3).toBeLessThanOrEqual(old!.volumeMm3 + 1e-6);
+	it(
+		'clear their problem, create no collision or block, deepen none; never a locked part; controls land on allowed positions',
+		{ timeout: 120_000 },
+		() => {
+			fc.assert(
+				fc.property(lockedSceneArb, (scene) => {
+					const report = checkScene(scene);
+					const before = overlapsByKey(report.overlaps);
+					const locked = new Set(scene.placements.filter((p) => p.locked).map((p) => p.id));
+					for (const o of report.overlaps) {
+						expect(o.moves.length).toBeLessThanOrEqual(2);
+						expect(o.clearingMove).toEqual(o.moves[0] ?? null);
+						expect(o.moves.length === 0).toBe(o.noMove !== undefined);
+						for (const move of o.moves) {
+							expect(move.distanceMm).toBeGreaterThan(0);
+							if (move.targetKind === 'part') {
+								expect(locked.has(move.targetId)).toBe(false);
+							} else {
+								const defs: { id: string; axis: string }[] =
+									move.targetKind === 'divider'
+										? scene.enclosure.dividers
+										: scene.enclosure.brackets;
+								const def = scene.enclosure[
+									move.targetKind === 'divider' ? 'dividers' : 'brackets'
+								].find((d) => d.id === move.targetId)!;
+								expect(defs.some((d) => d.id === move.targetId)).toBe(true);
+								expect(move.axis).toBe(def.axis);
+								expect(allowedIndex(def, move.toOffsetMm!)).toBeGreaterThanOrEqual(0);
+							}
+							const after = checkScene(applyMove(scene, move));
+							const now = overlapsByKey(after.overlaps);
+							expect(now.has(key(o.a.id, o.b.id))).toBe(false);
+							for (const [k, n] of now) {
+								if (n.kind === 'warning') continue;
+								const old = before.get(k);
+								expect(old, `${k} is new after ${JSON.stringify(move)}`).toBeDefined();
+								expect(n.volumeMm3).toBeLessThanOrEqual(old!.volumeMm3 + 1e-6);
+							}
 						}
 					}
-				}
-			}),
-			{ numRuns: 1000 }
-		);
-	});
+				}),
+				{ numRuns: 1000 }
+			);
+		}
+	);
 
 	it('when the engine finds no move, a search every 0.5 mm along each axis and over every allowed position finds none', () => {
 		let none = 0;
@@ -130,7 +158,9 @@ describe('clearing moves, applied and re-checked (1,000 random scenes)', () => {
 						if (moving.kind === 'body' || moving.kind === 'keepout') {
 							const placement = scene.placements.find((p) => p.id === owner)!;
 							if (placement.locked) continue;
-							const bodies = resolved.placements.find((rp) => rp.placement.id === owner)!.bodies.map((b) => b.box);
+							const bodies = resolved.placements
+								.find((rp) => rp.placement.id === owner)!
+								.bodies.map((b) => b.box);
 							for (let a = 0; a < 3; a++) {
 								const low = Math.min(...bodies.map((b) => b.min[a]));
 								const high = Math.max(...bodies.map((b) => b.max[a]));
@@ -140,14 +170,25 @@ describe('clearing moves, applied and re-checked (1,000 random scenes)', () => {
 								for (let t = -Math.ceil(span * 2) / 2; t <= span; t += 0.5) {
 									if (t === 0) continue;
 									// Within the enclosure: no further past the inside than the part is now.
-									if (inner.min[a] - (low + t) > pastLow + EPSILON_MM || high + t - inner.max[a] > pastHigh + EPSILON_MM) continue;
+									if (
+										inner.min[a] - (low + t) > pastLow + EPSILON_MM ||
+										high + t - inner.max[a] > pastHigh + EPSILON_MM
+									) {
+										continue;
+									}
 									moves.push({ axis: a, shifted: (b) => shift(b.box, a, t) });
 								}
 							}
 						} else if (moving.kind === 'divider' || moving.kind === 'bracket') {
-							const def = moving.kind === 'divider' ? scene.enclosure.dividers.find((d) => d.id === owner)! : scene.enclosure.brackets.find((b) => b.id === owner)!;
+							const def =
+								moving.kind === 'divider'
+									? scene.enclosure.dividers.find((d) => d.id === owner)!
+									: scene.enclosure.brackets.find((b) => b.id === owner)!;
 							const a = 'xyz'.indexOf(def.axis);
-							const current = moving.kind === 'divider' ? resolved.dividerPositions[owner] : resolved.bracketOffsets[owner];
+							const current =
+								moving.kind === 'divider'
+									? resolved.dividerPositions[owner]
+									: resolved.bracketOffsets[owner];
 							for (const p of allowedPositions(def)) {
 								if (Math.abs(p.offsetMm - current) <= EPSILON_MM) continue;
 								moves.push({ axis: a, shifted: (b) => shift(b.box, a, p.offsetMm - current) });
@@ -158,14 +199,29 @@ describe('clearing moves, applied and re-checked (1,000 random scenes)', () => {
 						// Moving along one axis, only boxes that share area with a moved box seen along it
 						// can ever meet it: the others are left out of the pair search for that axis.
 						const own = boxes.filter((b) => b.ownerId === owner);
-						const meets = [0, 1, 2].map((a) => boxes.filter((b) => b.ownerId === owner || own.some((m) => [0, 1, 2].every((k) => k === a || along(m.box, b.box, k) > EPSILON_MM))));
+						const meets = [0, 1, 2].map((a) =>
+							boxes.filter(
+								(b) =>
+									b.ownerId === owner ||
+									own.some((m) =>
+										[0, 1, 2].every((k) => k === a || along(m.box, b.box, k) > EPSILON_MM)
+									)
+							)
+						);
 						for (const m of moves) {
-							const moved = meets[m.axis].map((b) => (b.ownerId === owner ? { ...b, box: m.shifted(b) } : b));
+							const moved = meets[m.axis].map((b) =>
+								b.ownerId === owner ? { ...b, box: m.shifted(b) } : b
+							);
 							const movedTarget = moved.find((b) => b.id === moving.id)!;
 							if (overlapVolume(movedTarget.box, other.box) > 0) continue;
 							const after = problems(moved, owner);
-							const worse = [...after].some(([k, v]) => !before.has(k) || v > before.get(k)! + 1e-6);
-							expect(worse, `${moving.id} could move along ${'xyz'[m.axis]} to clear ${o.a.id}|${o.b.id}`).toBe(true);
+							const worse = [...after].some(
+								([k, v]) => !before.has(k) || v > before.get(k)! + 1e-6
+							);
+							expect(
+								worse,
+								`${moving.id} could move along ${'xyz'[m.axis]} to clear ${o.a.id}|${o.b.id}`
+							).toBe(true);
 						}
 					}
 				}

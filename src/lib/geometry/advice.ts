@@ -47,9 +47,15 @@ export function adviceCache(): AdviceCache {
 	return { movers: new Map() };
 }
 
-function controlDef(model: Model, kind: 'divider' | 'bracket', id: string): DividerDef | BracketDef | undefined {
+function controlDef(
+	model: Model,
+	kind: 'divider' | 'bracket',
+	id: string
+): DividerDef | BracketDef | undefined {
 	const enclosure = model.scene.enclosure;
-	return kind === 'divider' ? enclosure.dividers.find((d) => d.id === id) : enclosure.brackets.find((b) => b.id === id);
+	return kind === 'divider'
+		? enclosure.dividers.find((d) => d.id === id)
+		: enclosure.brackets.find((b) => b.id === id);
 }
 
 /** The thing box `i` moves with, or null for a wall, a plate or a locked part. */
@@ -68,17 +74,37 @@ function moverOf(model: Model, cache: AdviceCache, i: number): Mover | null {
 		const inner = model.resolved.innerBox;
 		const past: number[] = [];
 		for (let a = 0; a < 3; a++) {
-			past.push(Math.max(0, inner.min[a] - rp.bounds.min[a]), Math.max(0, rp.bounds.max[a] - inner.max[a]));
+			past.push(
+				Math.max(0, inner.min[a] - rp.bounds.min[a]),
+				Math.max(0, rp.bounds.max[a] - inner.max[a])
+			);
 		}
-		mover = { kind: 'part', id: rp.placement.id, boxes, past, blocked: blockedIntervals(model, boxes, -1, p) };
+		mover = {
+			kind: 'part',
+			id: rp.placement.id,
+			boxes,
+			past,
+			blocked: blockedIntervals(model, boxes, -1, p)
+		};
 	} else if (box.kind === 'divider' || box.kind === 'bracket') {
 		const def = controlDef(model, box.kind, box.ownerId);
 		if (!def) return null;
-		const current = box.kind === 'divider' ? model.resolved.dividerPositions[def.id] : model.resolved.bracketOffsets[def.id];
+		const current =
+			box.kind === 'divider'
+				? model.resolved.dividerPositions[def.id]
+				: model.resolved.bracketOffsets[def.id];
 		const offsets = allowedPositions(def)
 			.map((q) => q.offsetMm)
 			.sort((x, y) => x - y);
-		mover = { kind: box.kind, id: def.id, boxes: [i], def, current, offsets, blocked: blockedIntervals(model, [i], axisIndex(def.axis), -1) };
+		mover = {
+			kind: box.kind,
+			id: def.id,
+			boxes: [i],
+			def,
+			current,
+			offsets,
+			blocked: blockedIntervals(model, [i], axisIndex(def.axis), -1)
+		};
 	}
 	if (mover) cache.movers.set(key, mover);
 	return mover;
@@ -93,7 +119,12 @@ function moverOf(model: Model, cache: AdviceCache, i: number): Mover | null {
  * stop a move. Found in one pass over the scene's boxes per mover, straight into intervals: the
  * search reads nothing else about the pairs.
  */
-function blockedIntervals(model: Model, boxes: readonly number[], only: -1 | AxisIndex, ownerOf: number): Intervals[] {
+function blockedIntervals(
+	model: Model,
+	boxes: readonly number[],
+	only: -1 | AxisIndex,
+	ownerOf: number
+): Intervals[] {
 	const f = model.flat;
 	const owner = model.owner;
 	const out: Intervals[] = [[], [], [], [], [], []];
@@ -147,7 +178,10 @@ function blockedIntervals(model: Model, boxes: readonly number[], only: -1 | Axi
 						const enter = s > 0 ? o0 - m1 : m0 - o1;
 						if (past > 0) out[2 * a + (s > 0 ? 1 : 0)].push([enter, past]);
 					} else {
-						const trailing = s > 0 ? m0 < o0 - EPSILON_MM && m1 < o1 - EPSILON_MM : m1 > o1 + EPSILON_MM && m0 > o0 + EPSILON_MM;
+						const trailing =
+							s > 0
+								? m0 < o0 - EPSILON_MM && m1 < o1 - EPSILON_MM
+								: m1 > o1 + EPSILON_MM && m0 > o0 + EPSILON_MM;
 						if (trailing) out[2 * a + (s > 0 ? 1 : 0)].push([0, past - depth[a]]);
 					}
 				}
@@ -183,18 +217,37 @@ function clearDistance(f: Float64Array, a: AxisIndex, s: 1 | -1, mt: number, ot:
 }
 
 /** Smallest passing move of a part along a in direction s, or null. */
-function partMove(model: Model, mover: Mover, a: AxisIndex, s: 1 | -1, mt: number, ot: number): ClearingMove | null {
-	const d = firstFree(mover.blocked[2 * a + (s > 0 ? 1 : 0)], clearDistance(model.flat, a, s, mt, ot));
+function partMove(
+	model: Model,
+	mover: Mover,
+	a: AxisIndex,
+	s: 1 | -1,
+	mt: number,
+	ot: number
+): ClearingMove | null {
+	const d = firstFree(
+		mover.blocked[2 * a + (s > 0 ? 1 : 0)],
+		clearDistance(model.flat, a, s, mt, ot)
+	);
 	// No further past the inside than the part is now.
 	const bounds = model.resolved.placements[model.owner[mover.boxes[0]]].bounds;
 	const inner = model.resolved.innerBox;
-	const limit = s > 0 ? inner.max[a] + mover.past![2 * a + 1] - bounds.max[a] : bounds.min[a] - inner.min[a] + mover.past![2 * a];
+	const limit =
+		s > 0
+			? inner.max[a] + mover.past![2 * a + 1] - bounds.max[a]
+			: bounds.min[a] - inner.min[a] + mover.past![2 * a];
 	if (d > limit + EPSILON_MM) return null;
 	return { targetId: mover.id, targetKind: 'part', axis: AXES[a], sign: s, distanceMm: d };
 }
 
 /** The nearest allowed position of a divider or bracket in direction s that passes, or null. */
-function controlMove(model: Model, mover: Mover, s: 1 | -1, mt: number, ot: number): ClearingMove | null {
+function controlMove(
+	model: Model,
+	mover: Mover,
+	s: 1 | -1,
+	mt: number,
+	ot: number
+): ClearingMove | null {
 	const def = mover.def!;
 	const a = axisIndex(def.axis);
 	const offsets = mover.offsets!;
@@ -205,7 +258,15 @@ function controlMove(model: Model, mover: Mover, s: 1 | -1, mt: number, ot: numb
 	for (let k = here + s; k >= 0 && k < offsets.length; k += s) {
 		const d = Math.abs(offsets[k] - current);
 		if (d < clear - EPSILON_MM || isBlocked(blocked, d)) continue;
-		return { targetId: def.id, targetKind: mover.kind as 'divider' | 'bracket', axis: def.axis, sign: s, distanceMm: d, steps: Math.abs(k - here), toOffsetMm: offsets[k] };
+		return {
+			targetId: def.id,
+			targetKind: mover.kind as 'divider' | 'bracket',
+			axis: def.axis,
+			sign: s,
+			distanceMm: d,
+			steps: Math.abs(k - here),
+			toOffsetMm: offsets[k]
+		};
 	}
 	return null;
 }
@@ -237,7 +298,9 @@ function noMoveText(model: Model, movers: Mover[], a: AxisIndex): string {
 	}
 	if (part) {
 		const rp = model.resolved.placements[model.owner[part.boxes[0]]];
-		const need = [...rp.bodies, ...rp.keepouts.filter((k) => k.severity === 'error')].map((b) => b.box);
+		const need = [...rp.bodies, ...rp.keepouts.filter((k) => k.severity === 'error')].map(
+			(b) => b.box
+		);
 		const lo = Math.min(...need.map((b) => b.min[a]));
 		const hi = Math.max(...need.map((b) => b.max[a]));
 		const room = roomAlong(model, rp.bounds, a, part.id);
@@ -249,7 +312,12 @@ function noMoveText(model: Model, movers: Mover[], a: AxisIndex): string {
 }
 
 /** Room along a between the nearest fixed boxes (walls, dividers, brackets, plates) wholly on either side of the centre of `bounds`. */
-function roomAlong(model: Model, bounds: { min: number[]; max: number[] }, a: AxisIndex, placementId: string): number {
+function roomAlong(
+	model: Model,
+	bounds: { min: number[]; max: number[] },
+	a: AxisIndex,
+	placementId: string
+): number {
 	const f = model.flat;
 	const inner = model.resolved.innerBox;
 	const centre = (bounds.min[a] + bounds.max[a]) / 2;
@@ -260,7 +328,13 @@ function roomAlong(model: Model, bounds: { min: number[]; max: number[] }, a: Ax
 		if (model.owner[i] >= 0 || box.kind === 'wall' || box.ownerId === placementId) continue;
 		let shares = true;
 		for (let k = 0; k < 3; k++) {
-			if (k !== a && Math.min(f[i * 6 + 3 + k], bounds.max[k]) - Math.max(f[i * 6 + k], bounds.min[k]) <= EPSILON_MM) shares = false;
+			if (
+				k !== a &&
+				Math.min(f[i * 6 + 3 + k], bounds.max[k]) - Math.max(f[i * 6 + k], bounds.min[k]) <=
+					EPSILON_MM
+			) {
+				shares = false;
+			}
 		}
 		if (!shares) continue;
 		// Only boxes wholly on one side of the part's centre bound it; one across the centre is
@@ -272,7 +346,13 @@ function roomAlong(model: Model, bounds: { min: number[]; max: number[] }, a: Ax
 }
 
 /** Moves (best two) that clear the overlapping pair of boxes i and j, or words when none does. */
-export function adviseOverlap(model: Model, cache: AdviceCache, i: number, j: number, axis: AxisIndex): { moves: ClearingMove[]; noMove?: string } {
+export function adviseOverlap(
+	model: Model,
+	cache: AdviceCache,
+	i: number,
+	j: number,
+	axis: AxisIndex
+): { moves: ClearingMove[]; noMove?: string } {
 	const movers: { mover: Mover; mt: number; ot: number }[] = [];
 	for (const [mt, ot] of [
 		[i, j],
@@ -297,5 +377,12 @@ export function adviseOverlap(model: Model, cache: AdviceCache, i: number, j: nu
 	}
 	options.sort(byDistance);
 	if (options.length > 0) return { moves: options.slice(0, 2) };
-	return { moves: [], noMove: noMoveText(model, movers.map((m) => m.mover), axis) };
+	return {
+		moves: [],
+		noMove: noMoveText(
+			model,
+			movers.map((m) => m.mover),
+			axis
+		)
+	};
 }

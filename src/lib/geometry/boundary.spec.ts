@@ -42,14 +42,24 @@ describe('module boundary', () => {
 
 	it('finds the engine sources', () => {
 		expect(files.map((f) => f.slice(here.length + 1))).toEqual(
-			expect.arrayContaining(['schema.ts', 'check.ts', 'sweep.ts', 'broadphase.ts', 'fixtures.ts', 'index.ts'])
+			expect.arrayContaining([
+				'schema.ts',
+				'check.ts',
+				'sweep.ts',
+				'broadphase.ts',
+				'fixtures.ts',
+				'index.ts'
+			])
 		);
 	});
 
-	it.each(sourceFiles(here).map((f) => [f.slice(here.length + 1), f]))('%s imports only zod and the module itself', (_name, file) => {
-		const bad = importsOf(readFileSync(file, 'utf8')).filter((s) => !allowed(s, file));
-		expect(bad).toEqual([]);
-	});
+	it.each(sourceFiles(here).map((f) => [f.slice(here.length + 1), f]))(
+		'%s imports only zod and the module itself',
+		(_name, file) => {
+			const bad = importsOf(readFileSync(file, 'utf8')).filter((s) => !allowed(s, file));
+			expect(bad).toEqual([]);
+		}
+	);
 
 	it.each([
 		["import { T } from 'three';", ['three']],

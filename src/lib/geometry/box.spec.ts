@@ -2,13 +2,23 @@
 import fc from 'fast-check';
 import { Box3, Vector3 } from 'three';
 import { describe, expect, it } from 'vitest';
-import { EPSILON_MM, boxContains, boxesOverlap, boxVolume, intersectBoxes, translateBox } from './box';
+import {
+	EPSILON_MM,
+	boxContains,
+	boxesOverlap,
+	boxVolume,
+	intersectBoxes,
+	translateBox
+} from './box';
 import { boxArb, gridMm } from './factories.spec-util';
 import type { Box, Vec3 } from './schema';
 
 /** three.js Box3, the oracle, from and to engine boxes. */
 const toBox3 = (box: Box) => new Box3(new Vector3(...box.min), new Vector3(...box.max));
-const fromBox3 = (b: Box3): Box => ({ min: [b.min.x, b.min.y, b.min.z], max: [b.max.x, b.max.y, b.max.z] });
+const fromBox3 = (b: Box3): Box => ({
+	min: [b.min.x, b.min.y, b.min.z],
+	max: [b.max.x, b.max.y, b.max.z]
+});
 
 const b = (min: Vec3, max: Vec3): Box => ({ min, max });
 
@@ -18,12 +28,24 @@ describe('overlap edge cases', () => {
 		['faces touch on y', b([0, 0, 0], [10, 10, 10]), b([0, 10, 0], [10, 20, 10]), false, 0],
 		['edges touch', b([0, 0, 0], [10, 10, 10]), b([10, 10, 0], [20, 20, 10]), false, 0],
 		['corners touch', b([0, 0, 0], [10, 10, 10]), b([10, 10, 10], [20, 20, 20]), false, 0],
-		['touch after rounding (0.1 + 0.2)', b([0, 0, 0], [0.1 + 0.2, 1, 1]), b([0.3, 0, 0], [1, 1, 1]), false, 0],
+		[
+			'touch after rounding (0.1 + 0.2)',
+			b([0, 0, 0], [0.1 + 0.2, 1, 1]),
+			b([0.3, 0, 0], [1, 1, 1]),
+			false,
+			0
+		],
 		['apart', b([0, 0, 0], [10, 10, 10]), b([10.5, 0, 0], [20, 10, 10]), false, 0],
 		['overlap by 1 mm', b([0, 0, 0], [10, 10, 10]), b([9, 0, 0], [20, 10, 10]), true, 100],
 		['nested', b([0, 0, 0], [10, 10, 10]), b([2, 2, 2], [4, 4, 4]), true, 8],
 		['identical', b([0, 0, 0], [10, 10, 10]), b([0, 0, 0], [10, 10, 10]), true, 1000],
-		['overlap below epsilon', b([0, 0, 0], [10, 10, 10]), b([10 - EPSILON_MM / 2, 0, 0], [20, 10, 10]), false, 0]
+		[
+			'overlap below epsilon',
+			b([0, 0, 0], [10, 10, 10]),
+			b([10 - EPSILON_MM / 2, 0, 0], [20, 10, 10]),
+			false,
+			0
+		]
 	])('%s', (_name, a, c, overlaps, volume) => {
 		expect(boxesOverlap(a, c)).toBe(overlaps);
 		expect(boxesOverlap(c, a)).toBe(overlaps);
@@ -75,13 +97,18 @@ describe('against three.js Box3 (1,000 random pairs each)', () => {
 
 	it('symmetric and translation invariant', () => {
 		fc.assert(
-			fc.property(boxArb(), boxArb(), fc.tuple(gridMm(-500, 500), gridMm(-500, 500), gridMm(-500, 500)), (a, c, t) => {
-				expect(intersectBoxes(a, c)).toEqual(intersectBoxes(c, a));
-				const moved = intersectBoxes(translateBox(a, t), translateBox(c, t));
-				const here = intersectBoxes(a, c);
-				expect(moved === null).toBe(here === null);
-				if (here && moved) expect(moved).toEqual(translateBox(here, t));
-			}),
+			fc.property(
+				boxArb(),
+				boxArb(),
+				fc.tuple(gridMm(-500, 500), gridMm(-500, 500), gridMm(-500, 500)),
+				(a, c, t) => {
+					expect(intersectBoxes(a, c)).toEqual(intersectBoxes(c, a));
+					const moved = intersectBoxes(translateBox(a, t), translateBox(c, t));
+					const here = intersectBoxes(a, c);
+					expect(moved === null).toBe(here === null);
+					if (here && moved) expect(moved).toEqual(translateBox(here, t));
+				}
+			),
 			{ numRuns: 1000 }
 		);
 	});

@@ -61,16 +61,8 @@ export function intersectBoxes(a: Box, b: Box): Box | null {
 		return null;
 	}
 	return {
-		min: [
-			Math.max(a.min[0], b.min[0]),
-			Math.max(a.min[1], b.min[1]),
-			Math.max(a.min[2], b.min[2])
-		],
-		max: [
-			Math.min(a.max[0], b.max[0]),
-			Math.min(a.max[1], b.max[1]),
-			Math.min(a.max[2], b.max[2])
-		]
+		min: [Math.max(a.min[0], b.min[0]), Math.max(a.min[1], b.min[1]), Math.max(a.min[2], b.min[2])],
+		max: [Math.min(a.max[0], b.max[0]), Math.min(a.max[1], b.max[1]), Math.min(a.max[2], b.max[2])]
 	};
 }
 

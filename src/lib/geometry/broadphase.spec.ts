@@ -31,12 +31,16 @@ function oraclePairs(boxes: Box[]): string[] {
 const mine = (boxes: Box[]) => overlappingPairs(boxes).map(key).sort();
 
 /** A mix of small boxes and a few long ones (walls, shelves) that span many grid cells. */
-const boxSetArb = fc.integer({ min: 0, max: 400 }).chain((n) =>
-	fc.tuple(
-		fc.array(boxArb(0, 300, 40), { minLength: n, maxLength: n }),
-		fc.array(boxArb(0, 300, 300), { maxLength: 4 })
-	).map(([small, big]) => [...small, ...big])
-);
+const boxSetArb = fc
+	.integer({ min: 0, max: 400 })
+	.chain((n) =>
+		fc
+			.tuple(
+				fc.array(boxArb(0, 300, 40), { minLength: n, maxLength: n }),
+				fc.array(boxArb(0, 300, 300), { maxLength: 4 })
+			)
+			.map(([small, big]) => [...small, ...big])
+	);
 
 describe('overlappingPairs', () => {
 	it('finds exactly the pairs box-intersect finds (1,000 random box sets, 0–404 boxes)', () => {
@@ -53,9 +57,13 @@ describe('overlappingPairs', () => {
 
 	it('is translation invariant', () => {
 		fc.assert(
-			fc.property(boxSetArb, fc.tuple(gridMm(-5000, 5000), gridMm(-5000, 5000), gridMm(-5000, 5000)), (boxes, t) => {
-				expect(mine(boxes.map((b) => translateBox(b, t)))).toEqual(mine(boxes));
-			}),
+			fc.property(
+				boxSetArb,
+				fc.tuple(gridMm(-5000, 5000), gridMm(-5000, 5000), gridMm(-5000, 5000)),
+				(boxes, t) => {
+					expect(mine(boxes.map((b) => translateBox(b, t)))).toEqual(mine(boxes));
+				}
+			),
 			{ numRuns: 200 }
 		);
 	});
@@ -63,7 +71,9 @@ describe('overlappingPairs', () => {
 	it('does not depend on the order of the boxes', () => {
 		fc.assert(
 			fc.property(boxSetArb, fc.nat(), (boxes, seed) => {
-				const order = boxes.map((_, i) => i).sort((a, b) => ((a * 7919 + seed) % 101) - ((b * 7919 + seed) % 101));
+				const order = boxes
+					.map((_, i) => i)
+					.sort((a, b) => ((a * 7919 + seed) % 101) - ((b * 7919 + seed) % 101));
 				const shuffled = order.map((i) => boxes[i]);
 				const back = overlappingPairs(shuffled)
 					.map(([i, j]) => [order[i], order[j]].sort((x, y) => x - y) as [number, number])
@@ -76,9 +86,30 @@ describe('overlappingPairs', () => {
 	});
 
 	it.each([
-		['a row of touching boxes', Array.from({ length: 100 }, (_, i) => ({ min: [i * 10, 0, 0], max: [i * 10 + 10, 10, 10] }) as Box), 0],
-		['a stack of identical boxes', Array.from({ length: 60 }, () => ({ min: [0, 0, 0], max: [10, 10, 10] }) as Box), (60 * 59) / 2],
-		['one big box over a grid of small ones', [{ min: [0, 0, 0], max: [1000, 1000, 1000] } as Box, ...Array.from({ length: 99 }, (_, i) => ({ min: [i * 10 + 1, 1, 1], max: [i * 10 + 5, 5, 5] }) as Box)], 99],
+		[
+			'a row of touching boxes',
+			Array.from(
+				{ length: 100 },
+				(_, i) => ({ min: [i * 10, 0, 0], max: [i * 10 + 10, 10, 10] }) as Box
+			),
+			0
+		],
+		[
+			'a stack of identical boxes',
+			Array.from({ length: 60 }, () => ({ min: [0, 0, 0], max: [10, 10, 10] }) as Box),
+			(60 * 59) / 2
+		],
+		[
+			'one big box over a grid of small ones',
+			[
+				{ min: [0, 0, 0], max: [1000, 1000, 1000] } as Box,
+				...Array.from(
+					{ length: 99 },
+					(_, i) => ({ min: [i * 10 + 1, 1, 1], max: [i * 10 + 5, 5, 5] }) as Box
+				)
+			],
+			99
+		],
 		['empty input', [] as Box[], 0]
 	])('%s', (_name, boxes, count) => {
 		expect(overlappingPairs(boxes)).toHaveLength(count);

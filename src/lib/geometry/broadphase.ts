@@ -256,7 +256,11 @@ export function overlappingPairs(boxes: readonly Box[]): [number, number][] {
  * Overlapping pairs with their overlap volumes (mm³), straight from typed arrays: what the
  * interference markers and the benchmark need without building a Box per pair.
  */
-export function overlapVolumes(boxes: readonly Box[]): { pairs: Int32Array; volumesMm3: Float64Array; count: number } {
+export function overlapVolumes(boxes: readonly Box[]): {
+	pairs: Int32Array;
+	volumesMm3: Float64Array;
+	count: number;
+} {
 	const flat = flattenBoxes(boxes);
 	const { pairs, count } = overlappingPairsFlat(flat, boxes.length);
 	const volumesMm3 = new Float64Array(count);

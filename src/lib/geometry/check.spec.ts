@@ -12,11 +12,19 @@ import type { WorldBox } from './types';
 
 /** three.js Box3, the oracle, from and to engine boxes. */
 const toBox3 = (box: Box) => new Box3(new Vector3(...box.min), new Vector3(...box.max));
-const fromBox3 = (b: Box3): Box => ({ min: [b.min.x, b.min.y, b.min.z], max: [b.max.x, b.max.y, b.max.z] });
+const fromBox3 = (b: Box3): Box => ({
+	min: [b.min.x, b.min.y, b.min.z],
+	max: [b.max.x, b.max.y, b.max.z]
+});
 
 function worldBoxes(scene: Scene): WorldBox[] {
 	const r = resolveScene(scene);
-	return [...r.walls, ...r.dividers, ...r.brackets, ...r.placements.flatMap((p) => [...p.bodies, ...p.keepouts])];
+	return [
+		...r.walls,
+		...r.dividers,
+		...r.brackets,
+		...r.placements.flatMap((p) => [...p.bodies, ...p.keepouts])
+	];
 }
 
 const pairKey = (a: string, b: string) => (a < b ? `${a}|${b}` : `${b}|${a}`);
@@ -36,12 +44,17 @@ describe('fit report against three.js Box3 (1,000 random scenes)', () => {
 						const shared = A.clone().intersect(B);
 						const s = shared.getSize(new Vector3());
 						if (s.x > EPSILON_MM && s.y > EPSILON_MM && s.z > EPSILON_MM) {
-							expected.set(pairKey(boxes[i].id, boxes[j].id), { box: fromBox3(shared), volume: s.x * s.y * s.z });
+							expected.set(pairKey(boxes[i].id, boxes[j].id), {
+								box: fromBox3(shared),
+								volume: s.x * s.y * s.z
+							});
 						}
 					}
 				}
 				const report = checkScene(scene);
-				expect(report.overlaps.map((o) => pairKey(o.a.id, o.b.id)).sort()).toEqual([...expected.keys()].sort());
+				expect(report.overlaps.map((o) => pairKey(o.a.id, o.b.id)).sort()).toEqual(
+					[...expected.keys()].sort()
+				);
 				for (const o of report.overlaps) {
 					const e = expected.get(pairKey(o.a.id, o.b.id))!;
 					expect(o.box).toEqual(e.box);
@@ -79,7 +92,11 @@ describe('invariants', () => {
 			fc.property(sceneArb, (scene) => {
 				const report = checkScene(scene);
 				expect(checkScene(structuredClone(scene))).toEqual(report);
-				const reordered = { ...scene, parts: [...scene.parts].reverse(), placements: [...scene.placements].reverse() };
+				const reordered = {
+					...scene,
+					parts: [...scene.parts].reverse(),
+					placements: [...scene.placements].reverse()
+				};
 				expect(checkScene(reordered)).toEqual(report);
 			}),
 			{ numRuns: 300 }
@@ -97,19 +114,47 @@ describe('invariants', () => {
 
 	it('moving every part by the same step (far from the walls) keeps every part-to-part overlap', () => {
 		const enclosure = plainEnclosure([4000, 4000, 4000]);
-		const placed = fc.array(fc.record({ size: fc.tuple(fc.integer({ min: 1, max: 80 }), fc.integer({ min: 1, max: 80 }), fc.integer({ min: 1, max: 80 })), at: fc.tuple(fc.integer({ min: 1000, max: 1150 }), fc.integer({ min: 1000, max: 1150 }), fc.integer({ min: 1000, max: 1150 })), turn: fc.integer({ min: 0, max: 3 }) }), { minLength: 1, maxLength: 10 });
-		fc.assert(
-			fc.property(placed, fc.tuple(fc.integer({ min: -900, max: 900 }), fc.integer({ min: -900, max: 900 }), fc.integer({ min: -900, max: 900 })), (items, t) => {
-				const parts: PartDef[] = items.map((it, i) => blockPart(`p${i}`, it.size as Vec3));
-				const at = (shift: Vec3) =>
-					makeScene({
-						enclosure,
-						parts,
-						placements: items.map((it, i) => ({ id: `pl${i}`, partId: `p${i}`, position: it.at.map((v, k) => v + shift[k]) as Vec3, rotation: { x: 0, y: it.turn, z: 0 } }))
-					});
-				const strip = (s: Scene) => checkScene(s).overlaps.map((o) => ({ ...o, box: undefined }));
-				expect(strip(at(t as Vec3))).toEqual(strip(at([0, 0, 0])));
+		const placed = fc.array(
+			fc.record({
+				size: fc.tuple(
+					fc.integer({ min: 1, max: 80 }),
+					fc.integer({ min: 1, max: 80 }),
+					fc.integer({ min: 1, max: 80 })
+				),
+				at: fc.tuple(
+					fc.integer({ min: 1000, max: 1150 }),
+					fc.integer({ min: 1000, max: 1150 }),
+					fc.integer({ min: 1000, max: 1150 })
+				),
+				turn: fc.integer({ min: 0, max: 3 })
 			}),
+			{ minLength: 1, maxLength: 10 }
+		);
+		fc.assert(
+			fc.property(
+				placed,
+				fc.tuple(
+					fc.integer({ min: -900, max: 900 }),
+					fc.integer({ min: -900, max: 900 }),
+					fc.integer({ min: -900, max: 900 })
+				),
+				(items, t) => {
+					const parts: PartDef[] = items.map((it, i) => blockPart(`p${i}`, it.size as Vec3));
+					const at = (shift: Vec3) =>
+						makeScene({
+							enclosure,
+							parts,
+							placements: items.map((it, i) => ({
+								id: `pl${i}`,
+								partId: `p${i}`,
+								position: it.at.map((v, k) => v + shift[k]) as Vec3,
+								rotation: { x: 0, y: it.turn, z: 0 }
+							}))
+						});
+					const strip = (s: Scene) => checkScene(s).overlaps.map((o) => ({ ...o, box: undefined }));
+					expect(strip(at(t as Vec3))).toEqual(strip(at([0, 0, 0])));
+				}
+			),
 			{ numRuns: 300 }
 		);
 	});
@@ -117,7 +162,13 @@ describe('invariants', () => {
 
 describe('edge cases', () => {
 	const enclosure = plainEnclosure([200, 200, 200]);
-	const two = (a: Vec3, b: Vec3, sizeA: Vec3 = [50, 50, 50], sizeB: Vec3 = [50, 50, 50], rotB = { x: 0, y: 0, z: 0 }) =>
+	const two = (
+		a: Vec3,
+		b: Vec3,
+		sizeA: Vec3 = [50, 50, 50],
+		sizeB: Vec3 = [50, 50, 50],
+		rotB = { x: 0, y: 0, z: 0 }
+	) =>
 		checkScene(
 			makeScene({
 				enclosure,
@@ -172,7 +223,13 @@ describe('edge cases', () => {
 		expect(o.b.id).toBe('wall:left');
 		expect(o.kind).toBe('collides');
 		expect(o.depthMm).toEqual([1.5, 50, 50]);
-		expect(o.clearingMove).toEqual({ targetId: 'a', targetKind: 'part', axis: 'x', sign: 1, distanceMm: 1.5 });
+		expect(o.clearingMove).toEqual({
+			targetId: 'a',
+			targetKind: 'part',
+			axis: 'x',
+			sign: 1,
+			distanceMm: 1.5
+		});
 		expect(report.parts.find((p) => p.placementId === 'a')!.outsideFaces).toEqual(['-x']);
 	});
 
@@ -192,12 +249,18 @@ describe('edge cases', () => {
 	describe('keep-outs', () => {
 		const fan = (kind: 'airflow' | 'fitting', severity: 'error' | 'warning' = 'error') =>
 			blockPart('F', [120, 120, 25], {
-				keepouts: [{ id: 'k', label: 'air', kind, severity, box: { min: [0, 0, -10], max: [120, 120, 0] } }]
+				keepouts: [
+					{ id: 'k', label: 'air', kind, severity, box: { min: [0, 0, -10], max: [120, 120, 0] } }
+				]
 			});
 		const sceneWith = (frontKind: 'solid' | 'mesh', part: PartDef) => {
 			const e = plainEnclosure([200, 200, 200]);
 			e.walls.front.kind = frontKind;
-			return makeScene({ enclosure: e, parts: [part], placements: [{ id: 'fan', partId: 'F', position: [40, 40, 5] }] });
+			return makeScene({
+				enclosure: e,
+				parts: [part],
+				placements: [{ id: 'fan', partId: 'F', position: [40, 40, 5] }]
+			});
 		};
 
 		it.each([
@@ -214,7 +277,15 @@ describe('edge cases', () => {
 		it('a body in another part’s keep-out blocks both; status precedence puts collides first', () => {
 			const e = plainEnclosure([300, 200, 200]);
 			const withKeepout = blockPart('K', [50, 50, 50], {
-				keepouts: [{ id: 'room', label: 'fittings', kind: 'fitting', severity: 'error', box: { min: [50, 0, 0], max: [80, 50, 50] } }]
+				keepouts: [
+					{
+						id: 'room',
+						label: 'fittings',
+						kind: 'fitting',
+						severity: 'error',
+						box: { min: [50, 0, 0], max: [80, 50, 50] }
+					}
+				]
 			});
 			const report = checkScene(
 				makeScene({

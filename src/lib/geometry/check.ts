@@ -1,10 +1,29 @@
 /** The fit report for one scene: overlaps, per-part status and gaps, mount stacks, budgets. */
 
 import { adviceCache, adviseOverlap, type AdviceCache } from './advice';
-import { AXES, EPSILON_MM, boxContains, boxSize, compareText, intersectBoxes, type AxisIndex, type Face } from './box';
+import {
+	AXES,
+	EPSILON_MM,
+	boxContains,
+	boxSize,
+	compareText,
+	intersectBoxes,
+	type AxisIndex,
+	type Face
+} from './box';
 import { heatBudget, powerBudget } from './budgets';
 import { MAX_LISTED_OVERLAPS, firstPairsById } from './cost';
-import { buildModel, FACE_ORDER, interferenceUnion, isHeldContact, statusCounts, tallyStatic, worstCaseGap, type FoundPair, type Model } from './model';
+import {
+	buildModel,
+	FACE_ORDER,
+	interferenceUnion,
+	isHeldContact,
+	statusCounts,
+	tallyStatic,
+	worstCaseGap,
+	type FoundPair,
+	type Model
+} from './model';
 import { resolveScene } from './resolve';
 import type { Box, Scene } from './schema';
 import type {
@@ -63,11 +82,18 @@ export function compartmentOf(compartments: readonly Compartment[], bounds: Box)
 	const holding = compartments.find((c) => boxContains(c.box, bounds));
 	if (holding) return holding.id;
 	const centre = bounds.min.map((v, i) => (v + bounds.max[i]) / 2);
-	const around = compartments.find((c) => c.box.min.every((v, i) => v <= centre[i] && centre[i] <= c.box.max[i]));
+	const around = compartments.find((c) =>
+		c.box.min.every((v, i) => v <= centre[i] && centre[i] <= c.box.max[i])
+	);
 	return around ? around.id : null;
 }
 
-function gapsOf(model: Model, gap: Float64Array, against: Int32Array, p: number): Record<Face, FaceGap> {
+function gapsOf(
+	model: Model,
+	gap: Float64Array,
+	against: Int32Array,
+	p: number
+): Record<Face, FaceGap> {
 	const out = {} as Record<Face, FaceGap>;
 	FACE_ORDER.forEach((face, f) => {
 		const g = gap[p * 6 + f];
@@ -75,7 +101,12 @@ function gapsOf(model: Model, gap: Float64Array, against: Int32Array, p: number)
 		out[face] =
 			idx < 0
 				? { gapMm: null, worstCaseMm: null, against: null, held: false }
-				: { gapMm: g, worstCaseMm: worstCaseGap(model, p, g, idx), against: itemRef(model.boxes[idx]), held: isHeldContact(model, p, f, g, idx) };
+				: {
+						gapMm: g,
+						worstCaseMm: worstCaseGap(model, p, g, idx),
+						against: itemRef(model.boxes[idx]),
+						held: isHeldContact(model, p, f, g, idx)
+					};
 	});
 	return out;
 }
@@ -86,7 +117,11 @@ export interface ReportOptions {
 }
 
 /** Report for a scene already resolved (so callers that resolved once need not do it again). */
-export function reportFor(scene: Scene, resolved = resolveScene(scene), options: ReportOptions = {}): FitReport {
+export function reportFor(
+	scene: Scene,
+	resolved = resolveScene(scene),
+	options: ReportOptions = {}
+): FitReport {
 	const model = buildModel(scene, resolved);
 	const { tally, pairs } = tallyStatic(model, null);
 	// The clearing search runs only for the problems listed; movers' contacts are shared between them.

@@ -28,7 +28,8 @@ import { largestAllowedPile, pileSceneInput } from './hostile.spec-util';
 import { resolveScene } from './resolve';
 import { sceneSchema, type Box } from './schema';
 
-const shared = (a: Box, b: Box, axis: number) => Math.min(a.max[axis], b.max[axis]) - Math.max(a.min[axis], b.min[axis]) > EPSILON_MM;
+const shared = (a: Box, b: Box, axis: number) =>
+	Math.min(a.max[axis], b.max[axis]) - Math.max(a.min[axis], b.min[axis]) > EPSILON_MM;
 
 /** Brute force: pairs overlapping in 3D, and pairs sharing area seen along each axis (the gap pass). */
 function bruteCounts(boxes: Box[]) {
@@ -53,13 +54,20 @@ const spreadBoxes = fc.array(boxArb(-200, 400, 60), { minLength: 0, maxLength: 6
 describe('intervalPairs', () => {
 	it('counts the pairs of closed intervals that meet, as brute force does', () => {
 		fc.assert(
-			fc.property(fc.array(fc.tuple(gridMm(-50, 50), gridMm(0, 30)), { maxLength: 80 }), (spans) => {
-				const lo = Float64Array.from(spans.map(([a]) => a));
-				const hi = Float64Array.from(spans.map(([a, w]) => a + w));
-				let brute = 0;
-				for (let i = 0; i < spans.length; i++) for (let j = i + 1; j < spans.length; j++) if (lo[i] <= hi[j] && lo[j] <= hi[i]) brute++;
-				expect(intervalPairs(lo, hi)).toBe(brute);
-			}),
+			fc.property(
+				fc.array(fc.tuple(gridMm(-50, 50), gridMm(0, 30)), { maxLength: 80 }),
+				(spans) => {
+					const lo = Float64Array.from(spans.map(([a]) => a));
+					const hi = Float64Array.from(spans.map(([a, w]) => a + w));
+					let brute = 0;
+					for (let i = 0; i < spans.length; i++) {
+						for (let j = i + 1; j < spans.length; j++) {
+							if (lo[i] <= hi[j] && lo[j] <= hi[i]) brute++;
+						}
+					}
+					expect(intervalPairs(lo, hi)).toBe(brute);
+				}
+			),
 			{ numRuns: 300 }
 		);
 	});
@@ -75,7 +83,9 @@ describe('boxesCost', () => {
 				expect(cost.overlapPairsBound).toBeGreaterThanOrEqual(brute.overlap);
 				expect(cost.candidatePairs).toBeGreaterThanOrEqual(brute.overlap + brute.beams);
 				// Never more than four times all pairs: why any scene of up to 500 boxes passes.
-				expect(cost.candidatePairs).toBeLessThanOrEqual((4 * boxes.length * (boxes.length - 1)) / 2);
+				expect(cost.candidatePairs).toBeLessThanOrEqual(
+					(4 * boxes.length * (boxes.length - 1)) / 2
+				);
 			}),
 			{ numRuns: 300 }
 		);
@@ -94,7 +104,11 @@ describe('boxesCost', () => {
 				const report = checkScene(scene, { maxListedOverlaps: Infinity });
 				expect(sceneCost(scene).overlapPairsBound).toBeGreaterThanOrEqual(report.overlaps.length);
 				const resolved = resolveScene(scene);
-				const boxes = resolved.walls.length + resolved.dividers.length + resolved.brackets.length + resolved.placements.reduce((n, rp) => n + rp.bodies.length + rp.keepouts.length, 0);
+				const boxes =
+					resolved.walls.length +
+					resolved.dividers.length +
+					resolved.brackets.length +
+					resolved.placements.reduce((n, rp) => n + rp.bodies.length + rp.keepouts.length, 0);
 				expect(sceneBoxCount(scene)).toBe(boxes);
 			}),
 			{ numRuns: 150 }
@@ -119,24 +133,43 @@ describe('limits', () => {
 
 	it('the crash scene (4,900 identical placements) is refused on its box count, naming the limit', () => {
 		const excess = checkExcess(sceneSchema.parse(pileSceneInput(4_900)));
-		expect(excess).toMatchObject({ limit: 'boxes', path: 'placements', value: 4_908, max: MAX_CHECK_BOXES });
+		expect(excess).toMatchObject({
+			limit: 'boxes',
+			path: 'placements',
+			value: 4_908,
+			max: MAX_CHECK_BOXES
+		});
 		expect(excess!.message).toContain('2,000 boxes');
 	});
 
 	it('a pile under the box limit is refused on its candidate pairs', () => {
 		const excess = checkExcess(sceneSchema.parse(pileSceneInput(1_500)), 'settings.placements');
-		expect(excess).toMatchObject({ limit: 'candidatePairs', path: 'settings.placements', max: MAX_CANDIDATE_PAIRS });
+		expect(excess).toMatchObject({
+			limit: 'candidatePairs',
+			path: 'settings.placements',
+			max: MAX_CANDIDATE_PAIRS
+		});
 		expect(excess!.message).toContain('500,000 candidate pairs');
 	});
 
 	it('sweeps: grid cells, positions, positions × boxes and answer rows', () => {
-		expect(sweepExcess({ boxes: 30, points: 100 * 100, grid: true, path: 'controlB' })).toMatchObject({ limit: 'gridCells', max: MAX_GRID_CELLS, path: 'controlB' });
+		expect(
+			sweepExcess({ boxes: 30, points: 100 * 100, grid: true, path: 'controlB' })
+		).toMatchObject({ limit: 'gridCells', max: MAX_GRID_CELLS, path: 'controlB' });
 		expect(sweepExcess({ boxes: 30, points: 50 * 50, grid: true, path: 'controlB' })).toBeNull();
-		expect(sweepExcess({ boxes: 30, points: MAX_SWEEP_POINTS + 1, grid: false, path: 'positions' })).toMatchObject({ limit: 'sweepPoints' });
-		expect(sweepExcess({ boxes: 1_000, points: 5_000, grid: false, path: 'control' })).toMatchObject({ limit: 'sweepWork', max: MAX_SWEEP_WORK, value: 5_000_000 });
-		expect(sweepExcess({ boxes: 100, points: 10_000, grid: false, path: 'control', rowsPerPoint: 30 })).toMatchObject({ limit: 'sweepRows', max: MAX_SWEEP_ROWS, path: 'gaps' });
+		expect(
+			sweepExcess({ boxes: 30, points: MAX_SWEEP_POINTS + 1, grid: false, path: 'positions' })
+		).toMatchObject({ limit: 'sweepPoints' });
+		expect(
+			sweepExcess({ boxes: 1_000, points: 5_000, grid: false, path: 'control' })
+		).toMatchObject({ limit: 'sweepWork', max: MAX_SWEEP_WORK, value: 5_000_000 });
+		expect(
+			sweepExcess({ boxes: 100, points: 10_000, grid: false, path: 'control', rowsPerPoint: 30 })
+		).toMatchObject({ limit: 'sweepRows', max: MAX_SWEEP_ROWS, path: 'gaps' });
 		// The benchmark's sweep: 200 positions over 100 boxes.
-		expect(sweepExcess({ boxes: 100, points: 200, grid: false, path: 'control', rowsPerPoint: 3 })).toBeNull();
+		expect(
+			sweepExcess({ boxes: 100, points: 200, grid: false, path: 'control', rowsPerPoint: 3 })
+		).toBeNull();
 	});
 });
 

@@ -126,7 +126,13 @@ export function sceneExcess(cost: SceneCost, path = 'placements'): CostExcess | 
  * over a scene of `boxes` boxes, each position answering `rowsPerPoint` rows (1 + gaps asked for +
  * compartments).
  */
-export function sweepExcess(input: { boxes: number; points: number; grid: boolean; path: string; rowsPerPoint?: number }): CostExcess | null {
+export function sweepExcess(input: {
+	boxes: number;
+	points: number;
+	grid: boolean;
+	path: string;
+	rowsPerPoint?: number;
+}): CostExcess | null {
 	const { boxes, points, grid, path } = input;
 	const rows = points * (input.rowsPerPoint ?? 1);
 	if (grid && points > MAX_GRID_CELLS) {
@@ -180,7 +186,9 @@ export function sceneBoxCount(scene: Scene): number {
 
 /** The cost of checking a scene at its current positions (resolving is linear in the boxes). */
 export function sceneCost(scene: Scene, resolved: ResolvedScene = resolveScene(scene)): SceneCost {
-	const boxes: Box[] = [...resolved.walls, ...resolved.dividers, ...resolved.brackets].map((w) => w.box);
+	const boxes: Box[] = [...resolved.walls, ...resolved.dividers, ...resolved.brackets].map(
+		(w) => w.box
+	);
 	for (const rp of resolved.placements) {
 		for (const b of rp.bodies) boxes.push(b.box);
 		for (const b of rp.keepouts) boxes.push(b.box);
@@ -194,7 +202,9 @@ export function sceneCost(scene: Scene, resolved: ResolvedScene = resolveScene(s
  */
 export function checkExcess(scene: Scene, path = 'placements'): CostExcess | null {
 	const boxes = sceneBoxCount(scene);
-	if (boxes > MAX_CHECK_BOXES) return sceneExcess({ boxes, candidatePairs: 0, overlapPairsBound: 0 }, path);
+	if (boxes > MAX_CHECK_BOXES) {
+		return sceneExcess({ boxes, candidatePairs: 0, overlapPairsBound: 0 }, path);
+	}
 	return sceneExcess(sceneCost(scene), path);
 }
 
@@ -203,11 +213,17 @@ export function checkExcess(scene: Scene, path = 'placements'): CostExcess | nul
  * capped list is the start of the full one. Pairs are `{i, j}` indexes into `boxes`. One numeric
  * key a pair and a typed-array sort: no comparator runs per pair.
  */
-export function firstPairsById<P extends { i: number; j: number }>(boxes: readonly { id: string }[], pairs: readonly P[], max: number): readonly P[] {
+export function firstPairsById<P extends { i: number; j: number }>(
+	boxes: readonly { id: string }[],
+	pairs: readonly P[],
+	max: number
+): readonly P[] {
 	if (pairs.length <= max) return pairs;
 	if (max <= 0) return [];
 	const n = boxes.length;
-	const order = Array.from({ length: n }, (_, k) => k).sort((a, b) => compareText(boxes[a].id, boxes[b].id));
+	const order = Array.from({ length: n }, (_, k) => k).sort((a, b) =>
+		compareText(boxes[a].id, boxes[b].id)
+	);
 	const rank = new Float64Array(n);
 	order.forEach((k, r) => (rank[k] = r));
 	const keys = new Float64Array(pairs.length);

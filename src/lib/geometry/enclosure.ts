@@ -122,7 +122,11 @@ export function bracketBoxAt(bracket: BracketDef, offsetMm: number): Box {
 	return { min, max };
 }
 
-export function dividerWorldBox(enclosure: EnclosureDef, divider: DividerDef, offsetMm: number): WorldBox {
+export function dividerWorldBox(
+	enclosure: EnclosureDef,
+	divider: DividerDef,
+	offsetMm: number
+): WorldBox {
 	return {
 		id: `divider:${divider.id}`,
 		kind: 'divider',
@@ -182,11 +186,17 @@ interface Cell {
 
 /** True when the slab cuts the cell in two: strictly inside on its axis, covering it on the others. */
 function cuts(slab: Box, axis: AxisIndex, cell: Box): boolean {
-	if (slab.min[axis] <= cell.min[axis] + EPSILON_MM || slab.max[axis] >= cell.max[axis] - EPSILON_MM) {
+	if (
+		slab.min[axis] <= cell.min[axis] + EPSILON_MM ||
+		slab.max[axis] >= cell.max[axis] - EPSILON_MM
+	) {
 		return false;
 	}
 	for (let i = 0; i < 3; i++) {
-		if (i !== axis && (slab.min[i] > cell.min[i] + EPSILON_MM || slab.max[i] < cell.max[i] - EPSILON_MM)) {
+		if (
+			i !== axis &&
+			(slab.min[i] > cell.min[i] + EPSILON_MM || slab.max[i] < cell.max[i] - EPSILON_MM)
+		) {
 			return false;
 		}
 	}
@@ -219,7 +229,10 @@ export interface Slab {
 	box: Box;
 }
 
-export function slabsFor(enclosure: EnclosureDef, dividerPositions: Record<string, number>): Slab[] {
+export function slabsFor(
+	enclosure: EnclosureDef,
+	dividerPositions: Record<string, number>
+): Slab[] {
 	return enclosure.dividers.map((d) => ({
 		def: d,
 		axis: axisIndex(d.axis),
@@ -243,7 +256,11 @@ export function compartmentsFor(
  * compartmentsFor on slabs already placed. A sweep passes one `labels` map for all its steps: a
  * compartment's label follows from its id, so it is built once.
  */
-export function cutCompartments(inner: Box, slabs: readonly Slab[], labels = new Map<string, string>()): Compartment[] {
+export function cutCompartments(
+	inner: Box,
+	slabs: readonly Slab[],
+	labels = new Map<string, string>()
+): Compartment[] {
 	let cells: Cell[] = [{ box: inner, sides: [] }];
 	let split = true;
 	while (split) {

@@ -1,15 +1,37 @@
 /** Test data: small factories and fast-check arbitraries for enclosures, parts and scenes. */
 
 import fc from 'fast-check';
-import { SLOT_PITCH_MM, enclosureDefSchema, sceneSchema, type Box, type EnclosureDef, type EnclosureInput, type PartDef, type Scene, type SceneInput, type Vec3 } from './schema';
+import {
+	SLOT_PITCH_MM,
+	enclosureDefSchema,
+	sceneSchema,
+	type Box,
+	type EnclosureDef,
+	type EnclosureInput,
+	type PartDef,
+	type Scene,
+	type SceneInput,
+	type Vec3
+} from './schema';
 
 /** A plain enclosure: `innerMm` inside, every panel `wallMm` thick and solid. */
-export function plainEnclosure(innerMm: Vec3, wallMm = 2, extra: Partial<EnclosureInput> = {}): EnclosureDef {
+export function plainEnclosure(
+	innerMm: Vec3,
+	wallMm = 2,
+	extra: Partial<EnclosureInput> = {}
+): EnclosureDef {
 	const panel = () => ({ thicknessMm: wallMm, kind: 'solid' as const, offsetMm: 0 });
 	return enclosureDefSchema.parse({
 		name: 'Test enclosure',
 		outerMm: [innerMm[0] + 2 * wallMm, innerMm[1] + 2 * wallMm, innerMm[2] + 2 * wallMm],
-		walls: { left: panel(), right: panel(), bottom: panel(), top: panel(), front: panel(), back: panel() },
+		walls: {
+			left: panel(),
+			right: panel(),
+			bottom: panel(),
+			top: panel(),
+			front: panel(),
+			back: panel()
+		},
 		dividers: [],
 		brackets: [],
 		mounts: [],
@@ -42,7 +64,15 @@ export const gridMm = (min: number, max: number) =>
 	fc.integer({ min: Math.round(min * 2), max: Math.round(max * 2) }).map((v) => v / 2);
 
 export const boxArb = (lo = -20, hi = 150, maxSize = 80): fc.Arbitrary<Box> =>
-	fc.tuple(gridMm(lo, hi), gridMm(lo, hi), gridMm(lo, hi), gridMm(0.5, maxSize), gridMm(0.5, maxSize), gridMm(0.5, maxSize))
+	fc
+		.tuple(
+			gridMm(lo, hi),
+			gridMm(lo, hi),
+			gridMm(lo, hi),
+			gridMm(0.5, maxSize),
+			gridMm(0.5, maxSize),
+			gridMm(0.5, maxSize)
+		)
 		.map(([x, y, z, w, h, d]) => ({ min: [x, y, z] as Vec3, max: [x + w, y + h, z + d] as Vec3 }));
 
 const rotationArb = fc.record({
@@ -77,22 +107,42 @@ const partArb = (id: string): fc.Arbitrary<PartDef> =>
 export const sceneArb: fc.Arbitrary<Scene> = fc
 	.record({
 		inner: fc.tuple(gridMm(60, 300), gridMm(60, 300), gridMm(60, 300)),
-		walls: fc.array(fc.record({ t: gridMm(0, 4), mesh: fc.boolean() }), { minLength: 6, maxLength: 6 }),
+		walls: fc.array(fc.record({ t: gridMm(0, 4), mesh: fc.boolean() }), {
+			minLength: 6,
+			maxLength: 6
+		}),
 		dividers: fc.array(
 			fc.record({
 				axis: fc.constantFrom('x' as const, 'y' as const, 'z' as const),
 				t: gridMm(0.5, 4),
-				fractions: fc.array(fc.double({ min: 0.05, max: 0.85, noNaN: true }), { minLength: 1, maxLength: 3 }),
+				fractions: fc.array(fc.double({ min: 0.05, max: 0.85, noNaN: true }), {
+					minLength: 1,
+					maxLength: 3
+				}),
 				range: fc.boolean(),
 				partial: fc.boolean(),
 				pick: fc.nat()
 			}),
 			{ maxLength: 2 }
 		),
-		bracket: fc.option(fc.record({ box: boxArb(0, 100, 40), axis: fc.constantFrom('x' as const, 'y' as const, 'z' as const), steps: fc.integer({ min: 1, max: 6 }), pick: fc.nat() })),
-		parts: fc.integer({ min: 1, max: 4 }).chain((n) => fc.tuple(...Array.from({ length: n }, (_, i) => partArb(`part${i}`)))),
+		bracket: fc.option(
+			fc.record({
+				box: boxArb(0, 100, 40),
+				axis: fc.constantFrom('x' as const, 'y' as const, 'z' as const),
+				steps: fc.integer({ min: 1, max: 6 }),
+				pick: fc.nat()
+			})
+		),
+		parts: fc
+			.integer({ min: 1, max: 4 })
+			.chain((n) => fc.tuple(...Array.from({ length: n }, (_, i) => partArb(`part${i}`)))),
 		placements: fc.array(
-			fc.record({ part: fc.nat(), position: fc.tuple(gridMm(-30, 260), gridMm(-30, 260), gridMm(-30, 260)), rotation: rotationArb, mesh: fc.boolean() }),
+			fc.record({
+				part: fc.nat(),
+				position: fc.tuple(gridMm(-30, 260), gridMm(-30, 260), gridMm(-30, 260)),
+				rotation: rotationArb,
+				mesh: fc.boolean()
+			}),
 			{ maxLength: 8 }
 		),
 		margin: gridMm(0, 5)
@@ -100,7 +150,10 @@ export const sceneArb: fc.Arbitrary<Scene> = fc
 	.map((r) => {
 		const faces = ['left', 'right', 'bottom', 'top', 'front', 'back'] as const;
 		const walls = Object.fromEntries(
-			faces.map((f, i) => [f, { thicknessMm: r.walls[i].t, kind: r.walls[i].mesh ? 'mesh' : 'solid', offsetMm: 0 }])
+			faces.map((f, i) => [
+				f,
+				{ thicknessMm: r.walls[i].t, kind: r.walls[i].mesh ? 'mesh' : 'solid', offsetMm: 0 }
+			])
 		) as EnclosureDef['walls'];
 		const outer: Vec3 = [
 			r.inner[0] + r.walls[0].t + r.walls[1].t,
@@ -113,16 +166,37 @@ export const sceneArb: fc.Arbitrary<Scene> = fc
 			const offsets = d.fractions.map((f) => Math.round(f * r.inner[a] * 2) / 2);
 			const id = `d${i}`;
 			const positions = d.range
-				? { kind: 'range' as const, minMm: offsets[0], maxMm: offsets[0] + 2 * SLOT_PITCH_MM, stepMm: SLOT_PITCH_MM }
-				: { kind: 'list' as const, options: offsets.map((o, k) => ({ label: `p${k}`, offsetMm: o })) };
-			dividerPositions[id] = d.range ? offsets[0] + (d.pick % 3) * SLOT_PITCH_MM : offsets[d.pick % offsets.length];
+				? {
+						kind: 'range' as const,
+						minMm: offsets[0],
+						maxMm: offsets[0] + 2 * SLOT_PITCH_MM,
+						stepMm: SLOT_PITCH_MM
+					}
+				: {
+						kind: 'list' as const,
+						options: offsets.map((o, k) => ({ label: `p${k}`, offsetMm: o }))
+					};
+			dividerPositions[id] = d.range
+				? offsets[0] + (d.pick % 3) * SLOT_PITCH_MM
+				: offsets[d.pick % offsets.length];
 			const other = (a + 1) % 3;
-			const span = d.partial ? { [('xyz' as const)[other]]: { minMm: 0, maxMm: r.inner[other] / 2 } } : undefined;
+			const span = d.partial
+				? { [('xyz' as const)[other]]: { minMm: 0, maxMm: r.inner[other] / 2 } }
+				: undefined;
 			return { id, label: `Divider ${i}`, axis: d.axis, thicknessMm: d.t, positions, span };
 		});
 		const bracketOffsets: Record<string, number> = {};
 		const brackets = r.bracket
-			? [{ id: 'br', label: 'Bracket', kind: 'other' as const, box: r.bracket.box, axis: r.bracket.axis, travel: { minMm: -20, maxMm: -20 + 10 * r.bracket.steps, stepMm: 10 } }]
+			? [
+					{
+						id: 'br',
+						label: 'Bracket',
+						kind: 'other' as const,
+						box: r.bracket.box,
+						axis: r.bracket.axis,
+						travel: { minMm: -20, maxMm: -20 + 10 * r.bracket.steps, stepMm: 10 }
+					}
+				]
 			: [];
 		if (r.bracket) bracketOffsets.br = -20 + 10 * (r.bracket.pick % (r.bracket.steps + 1));
 		const parts = r.parts as PartDef[];

@@ -15,7 +15,14 @@ import { mountReport } from './mounts';
 import { isObstacle, pairKind } from './pairs';
 import { placePart } from './resolve';
 import type { Box, MountDef, PartDef, Placement, Scene, Vec3 } from './schema';
-import { STATUS_ORDER, type FitStatus, type MountReport, type ResolvedPlacement, type ResolvedScene, type WorldBox } from './types';
+import {
+	STATUS_ORDER,
+	type FitStatus,
+	type MountReport,
+	type ResolvedPlacement,
+	type ResolvedScene,
+	type WorldBox
+} from './types';
 
 export interface ProbeBase {
 	scene: Scene;
@@ -62,9 +69,17 @@ function buildGrid(boxes: readonly WorldBox[], inner: Box): Grid {
 			always.push(i);
 			return;
 		}
-		const lo = [0, 1, 2].map((a) => clampCell(Math.floor((b.box.min[a] - origin[a]) / cell), dims[a]));
-		const hi = [0, 1, 2].map((a) => clampCell(Math.floor((b.box.max[a] - origin[a]) / cell), dims[a]));
-		for (let x = lo[0]; x <= hi[0]; x++) for (let y = lo[1]; y <= hi[1]; y++) for (let z = lo[2]; z <= hi[2]; z++) cells[(x * dims[1] + y) * dims[2] + z].push(i);
+		const lo = [0, 1, 2].map((a) =>
+			clampCell(Math.floor((b.box.min[a] - origin[a]) / cell), dims[a])
+		);
+		const hi = [0, 1, 2].map((a) =>
+			clampCell(Math.floor((b.box.max[a] - origin[a]) / cell), dims[a])
+		);
+		for (let x = lo[0]; x <= hi[0]; x++) {
+			for (let y = lo[1]; y <= hi[1]; y++) {
+				for (let z = lo[2]; z <= hi[2]; z++) cells[(x * dims[1] + y) * dims[2] + z].push(i);
+			}
+		}
 	});
 	return { origin, cell, dims, cells, always, seen: new Uint32Array(boxes.length), stamp: 0 };
 }
@@ -74,7 +89,13 @@ function clampCell(v: number, n: number): number {
 }
 
 /** Calls `visit` once for each box in the cells from lo to hi (cell indexes, inclusive), walls first. */
-function visitCells(g: Grid, lo: number[], hi: number[], visit: (j: number) => void, fresh: boolean): void {
+function visitCells(
+	g: Grid,
+	lo: number[],
+	hi: number[],
+	visit: (j: number) => void,
+	fresh: boolean
+): void {
 	if (fresh) {
 		g.stamp++;
 		if (g.stamp === 0xffffffff) {
@@ -86,21 +107,27 @@ function visitCells(g: Grid, lo: number[], hi: number[], visit: (j: number) => v
 			visit(j);
 		}
 	}
-	for (let x = lo[0]; x <= hi[0]; x++)
-		{for (let y = lo[1]; y <= hi[1]; y++)
-			{for (let z = lo[2]; z <= hi[2]; z++) {
+	for (let x = lo[0]; x <= hi[0]; x++) {
+		for (let y = lo[1]; y <= hi[1]; y++) {
+			for (let z = lo[2]; z <= hi[2]; z++) {
 				for (const j of g.cells[(x * g.dims[1] + y) * g.dims[2] + z]) {
 					if (g.seen[j] === g.stamp) continue;
 					g.seen[j] = g.stamp;
 					visit(j);
 				}
-			}}}
+			}
+		}
+	}
 }
 
 function cellRange(g: Grid, box: Box, pad: number): { lo: number[]; hi: number[] } {
 	return {
-		lo: [0, 1, 2].map((a) => clampCell(Math.floor((box.min[a] - pad - g.origin[a]) / g.cell), g.dims[a])),
-		hi: [0, 1, 2].map((a) => clampCell(Math.floor((box.max[a] + pad - g.origin[a]) / g.cell), g.dims[a]))
+		lo: [0, 1, 2].map((a) =>
+			clampCell(Math.floor((box.min[a] - pad - g.origin[a]) / g.cell), g.dims[a])
+		),
+		hi: [0, 1, 2].map((a) =>
+			clampCell(Math.floor((box.max[a] + pad - g.origin[a]) / g.cell), g.dims[a])
+		)
 	};
 }
 
@@ -119,9 +146,14 @@ export interface ProbeResult {
 }
 
 /** Prepares a scene for probing; `ignorePlacementId` leaves one placement out (for a replacement). */
-export function probeBase(scene: Scene, resolved: ResolvedScene, ignorePlacementId?: string): ProbeBase {
+export function probeBase(
+	scene: Scene,
+	resolved: ResolvedScene,
+	ignorePlacementId?: string
+): ProbeBase {
 	const placements = resolved.placements.filter((rp) => rp.placement.id !== ignorePlacementId);
-	const without: ResolvedScene = ignorePlacementId === undefined ? resolved : { ...resolved, placements };
+	const without: ResolvedScene =
+		ignorePlacementId === undefined ? resolved : { ...resolved, placements };
 	const boxes: WorldBox[] = [...resolved.walls, ...resolved.dividers, ...resolved.brackets];
 	const mountOfBox: (string | undefined)[] = boxes.map(() => undefined);
 	for (const rp of placements) {
@@ -137,7 +169,17 @@ export function probeBase(scene: Scene, resolved: ResolvedScene, ignorePlacement
 		flat.set(b.box.max, i * 6 + 3);
 		obstacle[i] = isObstacle(b) ? 1 : 0;
 	});
-	return { scene, resolved, without, boxes, flat, obstacle, mountOfBox, mounts: new Map(scene.enclosure.mounts.map((m) => [m.id, m])), grid: buildGrid(boxes, resolved.innerBox) };
+	return {
+		scene,
+		resolved,
+		without,
+		boxes,
+		flat,
+		obstacle,
+		mountOfBox,
+		mounts: new Map(scene.enclosure.mounts.map((m) => [m.id, m])),
+		grid: buildGrid(boxes, resolved.innerBox)
+	};
 }
 
 function worst(a: FitStatus, b: FitStatus): FitStatus {
@@ -201,7 +243,10 @@ export function probePlaced(base: ProbeBase, placed: ResolvedPlacement): ProbeRe
 	const gap = [Infinity, Infinity, Infinity, Infinity, Infinity, Infinity];
 	const against = [-1, -1, -1, -1, -1, -1];
 	const offer = (slot: number, g: number, j: number) => {
-		if (g < gap[slot] || (g === gap[slot] && compareText(boxes[j].id, boxes[against[slot]].id) < 0)) {
+		if (
+			g < gap[slot] ||
+			(g === gap[slot] && compareText(boxes[j].id, boxes[against[slot]].id) < 0)
+		) {
 			gap[slot] = g;
 			against[slot] = j;
 		}
@@ -232,7 +277,10 @@ export function probePlaced(base: ProbeBase, placed: ResolvedPlacement): ProbeRe
 			for (const dir of [1, -1]) {
 				const slot = dir > 0 ? 2 * a + 1 : 2 * a;
 				for (let k = dir > 0 ? hi[a] + 1 : lo[a] - 1; k >= 0 && k < g.dims[a]; k += dir) {
-					const near = dir > 0 ? g.origin[a] + k * g.cell - b.max[a] : b.min[a] - (g.origin[a] + (k + 1) * g.cell);
+					const near =
+						dir > 0
+							? g.origin[a] + k * g.cell - b.max[a]
+							: b.min[a] - (g.origin[a] + (k + 1) * g.cell);
 					if (near > gap[slot] + EPSILON_MM) break;
 					const l = [...lo];
 					const h = [...hi];
@@ -261,19 +309,25 @@ export function probePlaced(base: ProbeBase, placed: ResolvedPlacement): ProbeRe
 		}
 		return base.mountOfBox[j] !== undefined && base.mountOfBox[j] === placement.mountId;
 	};
-	const worstCase = (f: number) => gap[f] - placed.part.toleranceMm - (boxes[against[f]].toleranceMm ?? 0);
+	const worstCase = (f: number) =>
+		gap[f] - placed.part.toleranceMm - (boxes[against[f]].toleranceMm ?? 0);
 	let partStatus: FitStatus = 'clear';
 	if (collides) partStatus = 'collides';
 	else if (blocked) partStatus = 'blocked';
 	else if (outside !== 0) partStatus = 'outside';
 	// Tight on the worst case: the gap less both sides' tolerances (docs/scene-format.md, "Gaps").
-	else if (gap.some((g, f) => against[f] >= 0 && worstCase(f) < margin - EPSILON_MM && !held(f))) partStatus = 'tight';
+	else if (gap.some((g, f) => against[f] >= 0 && worstCase(f) < margin - EPSILON_MM && !held(f))) {
+		partStatus = 'tight';
+	}
 	const gaps = {} as ProbeResult['gaps'];
 	let spareMm: number | null = null;
 	FACES.forEach((face, f) => {
 		const j = against[f];
 		const h = held(f);
-		gaps[face] = j < 0 ? { gapMm: null, against: null, held: false } : { gapMm: gap[f], against: boxes[j].label, held: h };
+		gaps[face] =
+			j < 0
+				? { gapMm: null, against: null, held: false }
+				: { gapMm: gap[f], against: boxes[j].label, held: h };
 		if (j >= 0 && !h && (spareMm === null || gap[f] < spareMm)) spareMm = gap[f];
 	});
 	let report: MountReport | null = null;
@@ -282,9 +336,20 @@ export function probePlaced(base: ProbeBase, placed: ResolvedPlacement): ProbeRe
 		const stacked = base.without.placements.filter((rp) => rp.placement.mountId === mount.id);
 		report = mountReport(mount, base.scene, { ...base.without, placements: [...stacked, placed] });
 		status = worst(status, report.status);
-		if (report.spareMm !== null && (spareMm === null || report.spareMm < spareMm)) spareMm = report.spareMm;
+		if (report.spareMm !== null && (spareMm === null || report.spareMm < spareMm)) {
+			spareMm = report.spareMm;
+		}
 	}
-	return { status, partStatus, gaps, spareMm, overlaps, outsideFaces: FACES.filter((_f, i) => (outside & (1 << i)) !== 0), mount: report, placed };
+	return {
+		status,
+		partStatus,
+		gaps,
+		spareMm,
+		overlaps,
+		outsideFaces: FACES.filter((_f, i) => (outside & (1 << i)) !== 0),
+		mount: report,
+		placed
+	};
 }
 
 /** Common practice: a G 1/4 fitting is about 22 mm across and stands about 20 mm off its port. */
@@ -322,7 +387,11 @@ export function portUse(base: ProbeBase, placed: ResolvedPlacement): PortUse[] {
 		if (sign > 0) max[axis] += FITTING_DEPTH_MM;
 		else min[axis] -= FITTING_DEPTH_MM;
 		let box: Box = { min, max };
-		const own = fittings.find((k) => k.box.min.every((v, i) => v - EPSILON_MM <= p.position[i] && p.position[i] <= k.box.max[i] + EPSILON_MM));
+		const own = fittings.find((k) =>
+			k.box.min.every(
+				(v, i) => v - EPSILON_MM <= p.position[i] && p.position[i] <= k.box.max[i] + EPSILON_MM
+			)
+		);
 		if (own) {
 			// The keep-out's share in front of this port: its cross-section within the square, out to its far face.
 			const b: Box = { min: [...own.box.min], max: [...own.box.max] };

@@ -49,10 +49,16 @@ export const BOARD_THICKNESS_MM = 1.6;
 /** The read-only library of standard form factors, each with the document its size comes from. */
 export function standardParts(): PartDef[] {
 	const fan = (size: 120 | 140, thickness: 25 | 15): PartDef =>
-		solidPart(`std-fan-${size}-${thickness}`, `${size} mm fan, ${thickness} mm`, 'fan', [size, size, thickness], {
-			specs: { fanSizeMm: size, fanThicknessMm: thickness },
-			source: `Common practice: ${size} mm square frame, ${thickness === 25 ? '25 mm standard' : 'about 15 mm slim'} thickness`
-		});
+		solidPart(
+			`std-fan-${size}-${thickness}`,
+			`${size} mm fan, ${thickness} mm`,
+			'fan',
+			[size, size, thickness],
+			{
+				specs: { fanSizeMm: size, fanThicknessMm: thickness },
+				source: `Common practice: ${size} mm square frame, ${thickness === 25 ? '25 mm standard' : 'about 15 mm slim'} thickness`
+			}
+		);
 	return [
 		solidPart('std-mini-itx', 'Mini-ITX board', 'board', [170, BOARD_THICKNESS_MM, 170], {
 			specs: { boardFormFactor: 'Mini-ITX' },
@@ -65,11 +71,13 @@ export function standardParts(): PartDef[] {
 		}),
 		solidPart('std-sfx-l', 'SFX-L power supply', 'psu', [125, 63.5, 130], {
 			specs: { psuFormFactor: 'SFX-L' },
-			source: 'Common practice: a longer SFX body, 125 × 63.5 × 130 mm (not in the SFX12V design guide)'
+			source:
+				'Common practice: a longer SFX body, 125 × 63.5 × 130 mm (not in the SFX12V design guide)'
 		}),
 		solidPart('std-atx-psu', 'ATX power supply', 'psu', [150, 86, 140], {
 			specs: { psuFormFactor: 'ATX' },
-			source: "ATX12V Power Supply Design Guide: 150 W × 86 H × 140 D mm (the guide's nominal depth)"
+			source:
+				"ATX12V Power Supply Design Guide: 150 W × 86 H × 140 D mm (the guide's nominal depth)"
 		}),
 		fan(120, 25),
 		fan(120, 15),
@@ -126,7 +134,10 @@ export function demoEnclosure(): EnclosureDef {
 				thicknessMm: 2,
 				positions: {
 					kind: 'list',
-					options: Object.entries(DEMO_SPINE_OFFSETS).map(([label, offsetMm]) => ({ label, offsetMm }))
+					options: Object.entries(DEMO_SPINE_OFFSETS).map(([label, offsetMm]) => ({
+						label,
+						offsetMm
+					}))
 				},
 				span: { z: { minMm: 66, maxMm: 240 } },
 				sides: { low: 'CPU side', high: 'card side' }
@@ -287,7 +298,13 @@ export function demoParts(): PartDef[] {
 			...solidPart('demo-cpu-block', 'Compact CPU block, 26 mm tall', 'cpu-block', [60, 26, 60]),
 			// 25 mm over the block for G 1/4 elbow fittings (common practice).
 			keepouts: [
-				{ id: 'fittings', label: 'fittings', kind: 'fitting', severity: 'error', box: box([5, 26, 10], [55, 51, 50]) }
+				{
+					id: 'fittings',
+					label: 'fittings',
+					kind: 'fitting',
+					severity: 'error',
+					box: box([5, 26, 10], [55, 51, 50])
+				}
 			],
 			ports: [
 				{ id: 'in', position: [20, 26, 30], direction: '+y', thread: 'G 1/4' },
@@ -299,18 +316,39 @@ export function demoParts(): PartDef[] {
 			toleranceMm: 0.5
 		},
 		{
-			...solidPart('demo-card', 'Compact graphics card, two slots, 185 mm', 'gpu', [185, 120, 2 * SLOT_PITCH_MM]),
+			...solidPart('demo-card', 'Compact graphics card, two slots, 185 mm', 'gpu', [
+				185,
+				120,
+				2 * SLOT_PITCH_MM
+			]),
 			keepouts: [
-				{ id: 'power', label: 'power cable bend', kind: 'cable', severity: 'error', box: box([185, 80, 0], [215, 120, 2 * SLOT_PITCH_MM]) }
+				{
+					id: 'power',
+					label: 'power cable bend',
+					kind: 'cable',
+					severity: 'error',
+					box: box([185, 80, 0], [215, 120, 2 * SLOT_PITCH_MM])
+				}
 			],
 			specs: { heatW: 160, powerDrawW: 170, cardLengthMm: 185, cardSlots: 2 },
 			provenance: 'estimate',
 			toleranceMm: 1
 		},
 		{
-			...solidPart('demo-pump-res', 'Compact pump-reservoir, 58 mm thick', 'pump-reservoir', [58, 100, 80]),
+			...solidPart(
+				'demo-pump-res',
+				'Compact pump-reservoir, 58 mm thick',
+				'pump-reservoir',
+				[58, 100, 80]
+			),
 			keepouts: [
-				{ id: 'fittings', label: 'fittings', kind: 'fitting', severity: 'error', box: box([9, 100, 20], [49, 110, 60]) }
+				{
+					id: 'fittings',
+					label: 'fittings',
+					kind: 'fitting',
+					severity: 'error',
+					box: box([9, 100, 20], [49, 110, 60])
+				}
 			],
 			ports: [
 				{ id: 'in', position: [19, 100, 40], direction: '+y', thread: 'G 1/4' },
@@ -323,7 +361,13 @@ export function demoParts(): PartDef[] {
 		{
 			...solidPart('demo-radiator-280', 'Slim 280 radiator, 30 mm', 'radiator', [143, 315, 30]),
 			keepouts: [
-				{ id: 'fittings', label: 'fittings', kind: 'fitting', severity: 'error', box: box([25, 315, 0], [115, 325, 30]) }
+				{
+					id: 'fittings',
+					label: 'fittings',
+					kind: 'fitting',
+					severity: 'error',
+					box: box([25, 315, 0], [115, 325, 30])
+				}
 			],
 			specs: { radiatorClass: 280, radiatorThicknessMm: 30 },
 			provenance: 'estimate',
@@ -342,14 +386,60 @@ export function demoSceneInput(): SceneInput {
 		dividerPositions: { bulkhead: 64, spine: DEMO_SPINE_OFFSETS['3 slots'] },
 		bracketOffsets: { bar: 0 },
 		placements: [
-			{ id: 'board', partId: 'std-mini-itx', position: [11, 150, 68], rotation: { x: 0, y: 0, z: 1 }, mountId: 'tray' },
-			{ id: 'cpu-block', partId: 'demo-cpu-block', position: [11 + BOARD_THICKNESS_MM, 205, 123], rotation: { x: 0, y: 0, z: 3 }, mountId: 'tray' },
-			{ id: 'psu', partId: 'demo-psu', position: [0, 0, 70], rotation: { x: 0, y: 0, z: 1 }, mountId: 'psu' },
-			{ id: 'card', partId: 'demo-card', position: [107.36, 10, 100], rotation: { x: 1, y: 0, z: 1 } },
-			{ id: 'pump-res', partId: 'demo-pump-res', position: [90, 227, 110], rotation: { x: 0, y: 0, z: 0 } },
-			{ id: 'radiator', partId: 'demo-radiator-280', position: [3.5, 12.5, 0], rotation: { x: 0, y: 0, z: 0 }, mountId: 'radiator' },
-			{ id: 'fan-1', partId: 'std-fan-140-25', position: [5, 30, 30], rotation: { x: 0, y: 0, z: 0 }, mountId: 'radiator' },
-			{ id: 'fan-2', partId: 'std-fan-140-25', position: [5, 170, 30], rotation: { x: 0, y: 0, z: 0 }, mountId: 'radiator' }
+			{
+				id: 'board',
+				partId: 'std-mini-itx',
+				position: [11, 150, 68],
+				rotation: { x: 0, y: 0, z: 1 },
+				mountId: 'tray'
+			},
+			{
+				id: 'cpu-block',
+				partId: 'demo-cpu-block',
+				position: [11 + BOARD_THICKNESS_MM, 205, 123],
+				rotation: { x: 0, y: 0, z: 3 },
+				mountId: 'tray'
+			},
+			{
+				id: 'psu',
+				partId: 'demo-psu',
+				position: [0, 0, 70],
+				rotation: { x: 0, y: 0, z: 1 },
+				mountId: 'psu'
+			},
+			{
+				id: 'card',
+				partId: 'demo-card',
+				position: [107.36, 10, 100],
+				rotation: { x: 1, y: 0, z: 1 }
+			},
+			{
+				id: 'pump-res',
+				partId: 'demo-pump-res',
+				position: [90, 227, 110],
+				rotation: { x: 0, y: 0, z: 0 }
+			},
+			{
+				id: 'radiator',
+				partId: 'demo-radiator-280',
+				position: [3.5, 12.5, 0],
+				rotation: { x: 0, y: 0, z: 0 },
+				mountId: 'radiator'
+			},
+			{
+				id: 'fan-1',
+				partId: 'std-fan-140-25',
+				position: [5, 30, 30],
+				rotation: { x: 0, y: 0, z: 0 },
+				mountId: 'radiator'
+			},
+			{
+				id: 'fan-2',
+				partId: 'std-fan-140-25',
+				position: [5, 170, 30],
+				rotation: { x: 0, y: 0, z: 0 },
+				mountId: 'radiator'
+			}
 		],
 		marginMm: 2,
 		budgets: { wattsPer120mm: 100, psuHeadroomPct: 30 }

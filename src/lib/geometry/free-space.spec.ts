@@ -14,11 +14,16 @@ import type { Box, Vec3 } from './schema';
 const int = (min: number, max: number) => fc.integer({ min, max });
 const caseArb = fc.record({
 	size: fc.tuple(int(1, 7), int(1, 7), int(1, 7)),
-	obstacles: fc.array(fc.tuple(int(-2, 7), int(-2, 7), int(-2, 7), int(1, 5), int(1, 5), int(1, 5)), { maxLength: 6 })
+	obstacles: fc.array(
+		fc.tuple(int(-2, 7), int(-2, 7), int(-2, 7), int(1, 5), int(1, 5), int(1, 5)),
+		{ maxLength: 6 }
+	)
 });
 
 function shared(a: Box, b: Box): boolean {
-	for (let i = 0; i < 3; i++) if (Math.min(a.max[i], b.max[i]) - Math.max(a.min[i], b.min[i]) <= 0) return false;
+	for (let i = 0; i < 3; i++) {
+		if (Math.min(a.max[i], b.max[i]) - Math.max(a.min[i], b.min[i]) <= 0) return false;
+	}
 	return true;
 }
 
@@ -26,15 +31,20 @@ function shared(a: Box, b: Box): boolean {
 function bruteForce(container: Box, obstacles: Box[]) {
 	const [X, Y, Z] = container.max;
 	const empty: Box[] = [];
-	for (let x0 = 0; x0 < X; x0++)
-		{for (let x1 = x0 + 1; x1 <= X; x1++)
-			{for (let y0 = 0; y0 < Y; y0++)
-				{for (let y1 = y0 + 1; y1 <= Y; y1++)
-					{for (let z0 = 0; z0 < Z; z0++)
-						{for (let z1 = z0 + 1; z1 <= Z; z1++) {
+	for (let x0 = 0; x0 < X; x0++) {
+		for (let x1 = x0 + 1; x1 <= X; x1++) {
+			for (let y0 = 0; y0 < Y; y0++) {
+				for (let y1 = y0 + 1; y1 <= Y; y1++) {
+					for (let z0 = 0; z0 < Z; z0++) {
+						for (let z1 = z0 + 1; z1 <= Z; z1++) {
 							const b: Box = { min: [x0, y0, z0], max: [x1, y1, z1] };
 							if (!obstacles.some((o) => shared(o, b))) empty.push(b);
-						}}}}}}
+						}
+					}
+				}
+			}
+		}
+	}
 	return empty;
 }
 
@@ -58,19 +68,26 @@ describe('maximalEmptyBoxes', () => {
 		fc.assert(
 			fc.property(caseArb, ({ size, obstacles }) => {
 				const container: Box = { min: [0, 0, 0], max: size as Vec3 };
-				const obs = obstacles.map(([x, y, z, w, h, d]) => ({ min: [x, y, z], max: [x + w, y + h, z + d] }) as Box);
+				const obs = obstacles.map(
+					([x, y, z, w, h, d]) => ({ min: [x, y, z], max: [x + w, y + h, z + d] }) as Box
+				);
 				const { boxes, complete } = maximalEmptyBoxes(container, obs);
 				expect(complete).toBe(true);
 				const empty = bruteForce(container, obs);
 				for (const b of boxes) {
 					expect(obs.some((o) => shared(o, b))).toBe(false);
-					expect(b.min.every((v, i) => v >= container.min[i] && b.max[i] <= container.max[i])).toBe(true);
+					expect(b.min.every((v, i) => v >= container.min[i] && b.max[i] <= container.max[i])).toBe(
+						true
+					);
 					expect(canGrow(b, container, obs)).toBe(false);
 				}
 				const largest = Math.max(0, ...boxes.map(boxVolume));
 				expect(Math.max(0, ...empty.map(boxVolume))).toBe(largest);
 				// And nothing is missed: the grid's maximal boxes are the same set.
-				const maximal = empty.filter((b) => !canGrow(b, container, obs)).map(key).sort();
+				const maximal = empty
+					.filter((b) => !canGrow(b, container, obs))
+					.map(key)
+					.sort();
 				expect(boxes.map(key).sort()).toEqual(maximal);
 			}),
 			{ numRuns: 300 }
@@ -90,10 +107,16 @@ describe('free space in the demo scene (keep-outs of placed parts count)', () =>
 		// (120, 200, 180): on the card side (x 88 → 150 at 3 slots), above the card (y 195).
 		const { boxes } = freeSpaceAround(resolved, [120, 200, 180]);
 		expect(boxes.length).toBeGreaterThan(0);
-		for (const b of boxes) expect(b.box.min.every((v, i) => v <= [120, 200, 180][i] && [120, 200, 180][i] <= b.box.max[i])).toBe(true);
+		for (const b of boxes) {
+			expect(
+				b.box.min.every((v, i) => v <= [120, 200, 180][i] && [120, 200, 180][i] <= b.box.max[i])
+			).toBe(true);
+		}
 		const all = resolved.placements.flatMap((p) => [...p.bodies, ...p.keepouts]).map((b) => b.box);
 		for (const b of boxes) expect(all.some((o) => shared(o, b.box))).toBe(false);
-		expect(boxes.map((b) => b.volumeMm3)).toEqual([...boxes.map((b) => b.volumeMm3)].sort((a, b) => b - a));
+		expect(boxes.map((b) => b.volumeMm3)).toEqual(
+			[...boxes.map((b) => b.volumeMm3)].sort((a, b) => b - a)
+		);
 	});
 
 	it('in a compartment: every box inside it and empty', () => {
@@ -101,7 +124,11 @@ describe('free space in the demo scene (keep-outs of placed parts count)', () =>
 		const { boxes } = freeSpaceIn(resolved, cpu.box);
 		const all = resolved.placements.flatMap((p) => [...p.bodies, ...p.keepouts]).map((b) => b.box);
 		for (const b of boxes) {
-			expect(b.box.min.every((v, i) => v >= cpu.box.min[i] - 1e-9 && b.box.max[i] <= cpu.box.max[i] + 1e-9)).toBe(true);
+			expect(
+				b.box.min.every(
+					(v, i) => v >= cpu.box.min[i] - 1e-9 && b.box.max[i] <= cpu.box.max[i] + 1e-9
+				)
+			).toBe(true);
 			expect(all.some((o) => shared(o, b.box))).toBe(false);
 		}
 	});
@@ -111,6 +138,8 @@ describe('free space in the demo scene (keep-outs of placed parts count)', () =>
 		const { boxes } = freeSpaceAtMount(resolved, mount);
 		// The radiator spans x 3.5 → 146.5 and y 12.5 → 327.5 from z 0: what touches the panel is the rim around it.
 		for (const b of boxes) expect(b.box.min[2]).toBe(0);
-		expect(Math.max(...boxes.map((b) => Math.min(b.sizeMm[0], b.sizeMm[1])))).toBeLessThanOrEqual(12.5 + 1e-9);
+		expect(Math.max(...boxes.map((b) => Math.min(b.sizeMm[0], b.sizeMm[1])))).toBeLessThanOrEqual(
+			12.5 + 1e-9
+		);
 	});
 });

@@ -42,7 +42,9 @@ function overlaps(a: Box, b: Box): boolean {
 
 function contains(outer: Box, inner: Box): boolean {
 	for (let i = 0; i < 3; i++) {
-		if (inner.min[i] < outer.min[i] - EPSILON_MM || inner.max[i] > outer.max[i] + EPSILON_MM) return false;
+		if (inner.min[i] < outer.min[i] - EPSILON_MM || inner.max[i] > outer.max[i] + EPSILON_MM) {
+			return false;
+		}
 	}
 	return true;
 }
@@ -51,7 +53,11 @@ function contains(outer: Box, inner: Box): boolean {
  * The maximal empty boxes of `container` among `obstacles` (which may reach outside it). Boxes
  * thinner than `minSizeMm` on any axis are left out (they never grow back: later splits only cut).
  */
-export function maximalEmptyBoxes(container: Box, obstacles: readonly Box[], minSizeMm = EPSILON_MM): { boxes: Box[]; complete: boolean } {
+export function maximalEmptyBoxes(
+	container: Box,
+	obstacles: readonly Box[],
+	minSizeMm = EPSILON_MM
+): { boxes: Box[]; complete: boolean } {
 	let spaces: Box[] = [{ min: [...container.min], max: [...container.max] }];
 	let complete = true;
 	const near = obstacles.filter((o) => overlaps(o, container));
@@ -109,23 +115,39 @@ const FACE_AXIS: Record<Face, [number, boolean]> = {
 };
 
 /** The label of what a face of `box` rests against: the first obstacle touching it over some area, else the container's face. */
-export function faceBound(box: Box, face: Face, obstacles: readonly LabelledBox[], containerLabels: Record<Face, string>): string {
+export function faceBound(
+	box: Box,
+	face: Face,
+	obstacles: readonly LabelledBox[],
+	containerLabels: Record<Face, string>
+): string {
 	const [a, high] = FACE_AXIS[face];
 	const at = high ? box.max[a] : box.min[a];
 	let best: LabelledBox | null = null;
 	for (const o of obstacles) {
-		const touching = high ? Math.abs(o.box.min[a] - at) <= EPSILON_MM : Math.abs(o.box.max[a] - at) <= EPSILON_MM;
+		const touching = high
+			? Math.abs(o.box.min[a] - at) <= EPSILON_MM
+			: Math.abs(o.box.max[a] - at) <= EPSILON_MM;
 		if (!touching) continue;
 		let shares = true;
 		for (let i = 0; i < 3 && shares; i++) {
-			if (i !== a && Math.min(box.max[i], o.box.max[i]) - Math.max(box.min[i], o.box.min[i]) <= EPSILON_MM) shares = false;
+			if (
+				i !== a &&
+				Math.min(box.max[i], o.box.max[i]) - Math.max(box.min[i], o.box.min[i]) <= EPSILON_MM
+			) {
+				shares = false;
+			}
 		}
 		if (shares && (!best || compareText(o.id ?? o.label, best.id ?? best.label) < 0)) best = o;
 	}
 	return best ? best.label : containerLabels[face];
 }
 
-export function describeFreeBox(box: Box, obstacles: readonly LabelledBox[], containerLabels: Record<Face, string>): FreeBox {
+export function describeFreeBox(
+	box: Box,
+	obstacles: readonly LabelledBox[],
+	containerLabels: Record<Face, string>
+): FreeBox {
 	const boundedBy = {} as Record<Face, string>;
 	for (const f of FACES) boundedBy[f] = faceBound(box, f, obstacles, containerLabels);
 	return { box, sizeMm: boxSize(box), volumeMm3: boxVolume(box), boundedBy };
@@ -147,14 +169,17 @@ export function sameLabels(label: string): Record<Face, string> {
 
 // — free space in a resolved scene —
 
-
 /** Everything a new part must keep out of: dividers, brackets, placed bodies and their keep-outs. */
 export function sceneObstacles(resolved: ResolvedScene, ignorePlacementId?: string): LabelledBox[] {
 	const out: LabelledBox[] = [];
-	for (const b of [...resolved.dividers, ...resolved.brackets]) out.push({ box: b.box, label: b.label, id: b.id });
+	for (const b of [...resolved.dividers, ...resolved.brackets]) {
+		out.push({ box: b.box, label: b.label, id: b.id });
+	}
 	for (const rp of resolved.placements) {
 		if (rp.placement.id === ignorePlacementId) continue;
-		for (const b of [...rp.bodies, ...rp.keepouts]) out.push({ box: b.box, label: b.label, id: b.id });
+		for (const b of [...rp.bodies, ...rp.keepouts]) {
+			out.push({ box: b.box, label: b.label, id: b.id });
+		}
 	}
 	return out;
 }
@@ -173,7 +198,9 @@ export function containerLabels(container: Box, inner: Box, other: string): Reco
 	const out = {} as Record<Face, string>;
 	for (const f of FACES) {
 		const [a, high] = FACE_AXIS[f];
-		const onPanel = high ? Math.abs(container.max[a] - inner.max[a]) <= EPSILON_MM : Math.abs(container.min[a] - inner.min[a]) <= EPSILON_MM;
+		const onPanel = high
+			? Math.abs(container.max[a] - inner.max[a]) <= EPSILON_MM
+			: Math.abs(container.min[a] - inner.min[a]) <= EPSILON_MM;
 		out[f] = onPanel ? PANEL_OF[f] : other;
 	}
 	return out;
@@ -185,9 +212,20 @@ export interface FreeSpaceResult {
 	complete: boolean;
 }
 
-function search(resolved: ResolvedScene, container: Box, otherLabel: string, keep: (b: Box) => boolean, limit: number, ignorePlacementId?: string): FreeSpaceResult {
+function search(
+	resolved: ResolvedScene,
+	container: Box,
+	otherLabel: string,
+	keep: (b: Box) => boolean,
+	limit: number,
+	ignorePlacementId?: string
+): FreeSpaceResult {
 	const obstacles = sceneObstacles(resolved, ignorePlacementId);
-	const { boxes, complete } = maximalEmptyBoxes(container, obstacles.map((o) => o.box), 1);
+	const { boxes, complete } = maximalEmptyBoxes(
+		container,
+		obstacles.map((o) => o.box),
+		1
+	);
 	const labels = containerLabels(container, resolved.innerBox, otherLabel);
 	return {
 		boxes: boxes
@@ -210,13 +248,18 @@ export function freeSpaceIn(resolved: ResolvedScene, container: Box, limit = 8):
  * an obstacle.
  */
 export function freeSpaceAround(resolved: ResolvedScene, point: Vec3, limit = 8): FreeSpaceResult {
-	const holds = (b: Box) => b.min.every((v, i) => v - EPSILON_MM <= point[i] && point[i] <= b.max[i] + EPSILON_MM);
+	const holds = (b: Box) =>
+		b.min.every((v, i) => v - EPSILON_MM <= point[i] && point[i] <= b.max[i] + EPSILON_MM);
 	const room = resolved.compartments.find((c) => holds(c.box))?.box ?? resolved.innerBox;
 	return search(resolved, room, 'the compartment edge', holds, limit);
 }
 
 /** The largest empty boxes in front of a mount: inside its region, touching its panel. */
-export function freeSpaceAtMount(resolved: ResolvedScene, mount: MountDef, limit = 8): FreeSpaceResult {
+export function freeSpaceAtMount(
+	resolved: ResolvedScene,
+	mount: MountDef,
+	limit = 8
+): FreeSpaceResult {
 	const { axis, high } = FACE_AXES[mount.face];
 	const inner = resolved.innerBox;
 	const region: Box = { min: [...mount.region.min], max: [...mount.region.max] };

@@ -15,15 +15,25 @@ import type { Box, Scene } from './schema';
 import type { WorldBox } from './types';
 
 /** Random scenes whose parts carry tolerances (0, 0.2 or 0.5 mm, as datasheets and calipers give). */
-const tolerancedArb = fc.tuple(sceneArb, fc.array(fc.constantFrom(0, 0.2, 0.5), { minLength: 4, maxLength: 4 })).map(
-	([scene, tol]): Scene => ({ ...scene, parts: scene.parts.map((p, i) => ({ ...p, toleranceMm: tol[i] })) })
-);
+const tolerancedArb = fc
+	.tuple(sceneArb, fc.array(fc.constantFrom(0, 0.2, 0.5), { minLength: 4, maxLength: 4 }))
+	.map(([scene, tol]): Scene => ({
+		...scene,
+		parts: scene.parts.map((p, i) => ({ ...p, toleranceMm: tol[i] }))
+	}));
 
-const along = (a: Box, b: Box, k: number) => Math.min(a.max[k], b.max[k]) - Math.max(a.min[k], b.min[k]);
+const along = (a: Box, b: Box, k: number) =>
+	Math.min(a.max[k], b.max[k]) - Math.max(a.min[k], b.min[k]);
 
 function fixedAndPlaced(scene: Scene): WorldBox[] {
 	const r = resolveScene(scene);
-	return [...r.walls, ...r.dividers, ...r.brackets, ...r.plates, ...r.placements.flatMap((p) => [...p.bodies, ...p.keepouts])];
+	return [
+		...r.walls,
+		...r.dividers,
+		...r.brackets,
+		...r.plates,
+		...r.placements.flatMap((p) => [...p.bodies, ...p.keepouts])
+	];
 }
 
 /**
@@ -32,7 +42,11 @@ function fixedAndPlaced(scene: Scene): WorldBox[] {
  * toward it, measured to the inside; another box is ahead of +a when it reaches past the face, or
  * lies within the body's span on the +a side of its centre.
  */
-function oracleGap(scene: Scene, placementId: string, face: (typeof FACES)[number]): { gap: number; ahead: WorldBox[] } | null {
+function oracleGap(
+	scene: Scene,
+	placementId: string,
+	face: (typeof FACES)[number]
+): { gap: number; ahead: WorldBox[] } | null {
 	const all = fixedAndPlaced(scene);
 	const inner = resolveScene(scene).innerBox;
 	const a = 'xyz'.indexOf(face[1]);
@@ -49,12 +63,16 @@ function oracleGap(scene: Scene, placementId: string, face: (typeof FACES)[numbe
 			if (o.kind === 'wall') {
 				const wallAxis = { left: 0, right: 0, bottom: 1, top: 1, front: 2, back: 2 }[o.face!];
 				const wallHigh = o.face === 'right' || o.face === 'top' || o.face === 'back';
-				if (wallAxis === a && wallHigh === high) gap = high ? inner.max[a] - body.box.max[a] : body.box.min[a] - inner.min[a];
+				if (wallAxis === a && wallHigh === high) {
+					gap = high ? inner.max[a] - body.box.max[a] : body.box.min[a] - inner.min[a];
+				}
 			} else {
 				const pastHigh = o.box.max[a] > body.box.max[a] + EPSILON_MM;
 				const pastLow = o.box.min[a] < body.box.min[a] - EPSILON_MM;
 				const side = o.box.min[a] + o.box.max[a] - (body.box.min[a] + body.box.max[a]);
-				const ahead = high ? pastHigh || (!pastLow && side >= 0) : pastLow || (!pastHigh && side <= 0);
+				const ahead = high
+					? pastHigh || (!pastLow && side >= 0)
+					: pastLow || (!pastHigh && side <= 0);
 				if (ahead) gap = high ? o.box.min[a] - body.box.max[a] : body.box.min[a] - o.box.max[a];
 			}
 			if (gap === null) continue;
@@ -63,35 +81,50 @@ function oracleGap(scene: Scene, placementId: string, face: (typeof FACES)[numbe
 		}
 	}
 	if (best === null) return null;
-	return { gap: best, ahead: found.filter((f) => Math.abs(f.gap - best!) <= 1e-9).map((f) => f.box) };
+	return {
+		gap: best,
+		ahead: found.filter((f) => Math.abs(f.gap - best!) <= 1e-9).map((f) => f.box)
+	};
 }
 
 describe('gaps against a brute-force nearest-box search (1,000 random scenes)', () => {
-	it('each face reports the nearest box ahead of it, and its worst case takes both tolerances off', { timeout: 120_000 }, () => {
-		fc.assert(
-			fc.property(tolerancedArb, (scene) => {
-				const report = checkScene(scene);
-				const tolerance = new Map(scene.placements.map((p) => [p.id, scene.parts.find((q) => q.id === p.partId)!.toleranceMm]));
-				for (const part of report.parts) {
-					for (const face of FACES) {
-						const g = part.gaps[face];
-						const expected = oracleGap(scene, part.placementId, face);
-						if (!expected) {
-							expect(g.gapMm).toBeNull();
-							expect(g.worstCaseMm).toBeNull();
-							continue;
+	it(
+		'each face reports the nearest box ahead of it, and its worst case takes both tolerances off',
+		{ timeout: 120_000 },
+		() => {
+			fc.assert(
+				fc.property(tolerancedArb, (scene) => {
+					const report = checkScene(scene);
+					const tolerance = new Map(
+						scene.placements.map((p) => [
+							p.id,
+							scene.parts.find((q) => q.id === p.partId)!.toleranceMm
+						])
+					);
+					for (const part of report.parts) {
+						for (const face of FACES) {
+							const g = part.gaps[face];
+							const expected = oracleGap(scene, part.placementId, face);
+							if (!expected) {
+								expect(g.gapMm).toBeNull();
+								expect(g.worstCaseMm).toBeNull();
+								continue;
+							}
+							expect(g.gapMm).toBeCloseTo(expected.gap, 9);
+							// The reported box is one of those ahead at that distance: never a wall behind the face.
+							expect(expected.ahead.map((b) => b.id)).toContain(g.against!.id);
+							const otherTol = g.against!.placementId ? tolerance.get(g.against!.placementId)! : 0;
+							expect(g.worstCaseMm).toBeCloseTo(
+								expected.gap - tolerance.get(part.placementId)! - otherTol,
+								9
+							);
 						}
-						expect(g.gapMm).toBeCloseTo(expected.gap, 9);
-						// The reported box is one of those ahead at that distance: never a wall behind the face.
-						expect(expected.ahead.map((b) => b.id)).toContain(g.against!.id);
-						const otherTol = g.against!.placementId ? tolerance.get(g.against!.placementId)! : 0;
-						expect(g.worstCaseMm).toBeCloseTo(expected.gap - tolerance.get(part.placementId)! - otherTol, 9);
 					}
-				}
-			}),
-			{ numRuns: 1000 }
-		);
-	});
+				}),
+				{ numRuns: 1000 }
+			);
+		}
+	);
 
 	it('a face crossing a wall reports its overshoot: the crossing depth past the inside, against that wall', () => {
 		fc.assert(
@@ -103,12 +136,31 @@ describe('gaps against a brute-force nearest-box search (1,000 random scenes)', 
 					for (const face of part.outsideFaces) {
 						const g = part.gaps[face];
 						const a = 'xyz'.indexOf(face[1]);
-						const wall = resolved.walls.find((w) => w.face === { '-x': 'left', '+x': 'right', '-y': 'bottom', '+y': 'top', '-z': 'front', '+z': 'back' }[face]);
+						const wall = resolved.walls.find(
+							(w) =>
+								w.face ===
+								{
+									'-x': 'left',
+									'+x': 'right',
+									'-y': 'bottom',
+									'+y': 'top',
+									'-z': 'front',
+									'+z': 'back'
+								}[face]
+						);
 						if (!wall || g.against?.kind !== 'wall') continue;
 						expect(g.against.id).toBe(wall.id);
 						// Depth past the inner face of the deepest body that meets the wall.
-						const meeting = rp.bodies.filter((b) => [0, 1, 2].every((k) => k === a || along(b.box, wall.box, k) > EPSILON_MM));
-						const depth = Math.max(...meeting.map((b) => (face[0] === '+' ? b.box.max[a] - resolved.innerBox.max[a] : resolved.innerBox.min[a] - b.box.min[a])));
+						const meeting = rp.bodies.filter((b) =>
+							[0, 1, 2].every((k) => k === a || along(b.box, wall.box, k) > EPSILON_MM)
+						);
+						const depth = Math.max(
+							...meeting.map((b) =>
+								face[0] === '+'
+									? b.box.max[a] - resolved.innerBox.max[a]
+									: resolved.innerBox.min[a] - b.box.min[a]
+							)
+						);
 						expect(g.gapMm).toBeCloseTo(-depth, 9);
 					}
 				}
@@ -120,14 +172,23 @@ describe('gaps against a brute-force nearest-box search (1,000 random scenes)', 
 
 /** Exact union volume by coordinate compression over all boxes at once (the test's own oracle). */
 function unionByGrid(boxes: readonly Box[]): number {
-	const cuts = [0, 1, 2].map((k) => [...new Set(boxes.flatMap((b) => [b.min[k], b.max[k]]))].sort((p, q) => p - q));
+	const cuts = [0, 1, 2].map((k) =>
+		[...new Set(boxes.flatMap((b) => [b.min[k], b.max[k]]))].sort((p, q) => p - q)
+	);
 	let total = 0;
 	for (let i = 0; i + 1 < cuts[0].length; i++) {
 		for (let j = 0; j + 1 < cuts[1].length; j++) {
 			for (let k = 0; k + 1 < cuts[2].length; k++) {
-				const c = [(cuts[0][i] + cuts[0][i + 1]) / 2, (cuts[1][j] + cuts[1][j + 1]) / 2, (cuts[2][k] + cuts[2][k + 1]) / 2];
+				const c = [
+					(cuts[0][i] + cuts[0][i + 1]) / 2,
+					(cuts[1][j] + cuts[1][j + 1]) / 2,
+					(cuts[2][k] + cuts[2][k + 1]) / 2
+				];
 				if (boxes.some((b) => [0, 1, 2].every((a) => b.min[a] < c[a] && c[a] < b.max[a]))) {
-					total += (cuts[0][i + 1] - cuts[0][i]) * (cuts[1][j + 1] - cuts[1][j]) * (cuts[2][k + 1] - cuts[2][k]);
+					total +=
+						(cuts[0][i + 1] - cuts[0][i]) *
+						(cuts[1][j + 1] - cuts[1][j]) *
+						(cuts[2][k + 1] - cuts[2][k]);
 				}
 			}
 		}
@@ -147,8 +208,12 @@ describe('interference total against an exact union (1,000 random scenes)', () =
 						const d = [0, 1, 2].map((k) => along(boxes[i].box, boxes[j].box, k));
 						if (!d.every((v) => v > EPSILON_MM)) continue;
 						regions.push({
-							min: [0, 1, 2].map((k) => Math.max(boxes[i].box.min[k], boxes[j].box.min[k])) as Box['min'],
-							max: [0, 1, 2].map((k) => Math.min(boxes[i].box.max[k], boxes[j].box.max[k])) as Box['max']
+							min: [0, 1, 2].map((k) =>
+								Math.max(boxes[i].box.min[k], boxes[j].box.min[k])
+							) as Box['min'],
+							max: [0, 1, 2].map((k) =>
+								Math.min(boxes[i].box.max[k], boxes[j].box.max[k])
+							) as Box['max']
 						});
 					}
 				}
@@ -156,7 +221,9 @@ describe('interference total against an exact union (1,000 random scenes)', () =
 				const expected = unionByGrid(regions);
 				expect(report.totals.interferenceVolumeMm3).toBeCloseTo(expected, 6);
 				// Per-pair volumes stay pairwise: their sum is at least the union.
-				const pairwise = report.overlaps.filter((o) => o.kind === 'collides').reduce((s, o) => s + o.volumeMm3, 0);
+				const pairwise = report.overlaps
+					.filter((o) => o.kind === 'collides')
+					.reduce((s, o) => s + o.volumeMm3, 0);
 				expect(pairwise).toBeGreaterThanOrEqual(expected - 1e-6);
 			}),
 			{ numRuns: 1000 }
@@ -174,9 +241,18 @@ describe('interference total against an exact union (1,000 random scenes)', () =
 				}
 				const w = scene.enclosure.walls;
 				const inner = innerSizeMm(scene.enclosure);
-				const outer = [inner[0] + w.left.thicknessMm + w.right.thicknessMm, inner[1] + w.bottom.thicknessMm + w.top.thicknessMm, inner[2] + w.front.thicknessMm + w.back.thicknessMm];
+				const outer = [
+					inner[0] + w.left.thicknessMm + w.right.thicknessMm,
+					inner[1] + w.bottom.thicknessMm + w.top.thicknessMm,
+					inner[2] + w.front.thicknessMm + w.back.thicknessMm
+				];
 				const shell = outer[0] * outer[1] * outer[2] - inner[0] * inner[1] * inner[2];
-				expect(walls.reduce((s, b) => s + (b.max[0] - b.min[0]) * (b.max[1] - b.min[1]) * (b.max[2] - b.min[2]), 0)).toBeCloseTo(shell, 6);
+				expect(
+					walls.reduce(
+						(s, b) => s + (b.max[0] - b.min[0]) * (b.max[1] - b.min[1]) * (b.max[2] - b.min[2]),
+						0
+					)
+				).toBeCloseTo(shell, 6);
 			}),
 			{ numRuns: 1000 }
 		);
@@ -197,11 +273,32 @@ function cornerScene(): Scene {
 	return {
 		format: 'interstice.scene',
 		version: 1,
-		enclosure: { name: 'Box', outerMm: [104, 104, 104], walls: { left: panel, right: panel, bottom: panel, top: panel, front: panel, back: panel }, dividers: [], brackets: [], mounts: [] },
-		parts: [{ id: 'cube', name: 'Cube', category: 'other', bodies: [{ id: 'body', label: 'body', box: { min: [0, 0, 0], max: [10, 10, 10] } }], keepouts: [], ports: [], specs: {}, provenance: 'estimate', toleranceMm: 0 }],
+		enclosure: {
+			name: 'Box',
+			outerMm: [104, 104, 104],
+			walls: { left: panel, right: panel, bottom: panel, top: panel, front: panel, back: panel },
+			dividers: [],
+			brackets: [],
+			mounts: []
+		},
+		parts: [
+			{
+				id: 'cube',
+				name: 'Cube',
+				category: 'other',
+				bodies: [{ id: 'body', label: 'body', box: { min: [0, 0, 0], max: [10, 10, 10] } }],
+				keepouts: [],
+				ports: [],
+				specs: {},
+				provenance: 'estimate',
+				toleranceMm: 0
+			}
+		],
 		dividerPositions: {},
 		bracketOffsets: {},
-		placements: [{ id: 'cube', partId: 'cube', position: [-2, -2, -2], rotation: { x: 0, y: 0, z: 0 } }],
+		placements: [
+			{ id: 'cube', partId: 'cube', position: [-2, -2, -2], rotation: { x: 0, y: 0, z: 0 } }
+		],
 		marginMm: 2,
 		budgets: { wattsPer120mm: 100, psuHeadroomPct: 30 }
 	};

@@ -16,13 +16,41 @@ export function pileSceneInput(n: number): SceneInput {
 			name: 'Pile test enclosure',
 			outerMm: [304, 304, 304],
 			walls: { left: panel, right: panel, bottom: panel, top: panel, front: panel, back: panel },
-			dividers: [{ id: 'shelf', label: 'Shelf', axis: 'y', thicknessMm: 2, positions: { kind: 'range', minMm: 100, maxMm: 199, stepMm: 1 } }],
-			brackets: [{ id: 'bar', label: 'Bar', kind: 'other', box: { min: [0, 0, 280], max: [300, 8, 300] }, axis: 'y', travel: { minMm: 0, maxMm: 99, stepMm: 1 } }],
+			dividers: [
+				{
+					id: 'shelf',
+					label: 'Shelf',
+					axis: 'y',
+					thicknessMm: 2,
+					positions: { kind: 'range', minMm: 100, maxMm: 199, stepMm: 1 }
+				}
+			],
+			brackets: [
+				{
+					id: 'bar',
+					label: 'Bar',
+					kind: 'other',
+					box: { min: [0, 0, 280], max: [300, 8, 300] },
+					axis: 'y',
+					travel: { minMm: 0, maxMm: 99, stepMm: 1 }
+				}
+			],
 			mounts: []
 		},
-		parts: [{ id: 'block', name: 'Block', category: 'other', bodies: [{ id: 'body', label: 'body', box: { min: [0, 0, 0], max: [20, 20, 20] } }] }],
+		parts: [
+			{
+				id: 'block',
+				name: 'Block',
+				category: 'other',
+				bodies: [{ id: 'body', label: 'body', box: { min: [0, 0, 0], max: [20, 20, 20] } }]
+			}
+		],
 		dividerPositions: { shelf: 150 },
-		placements: Array.from({ length: n }, (_, i) => ({ id: `p${i}`, partId: 'block', position: [10, 10, 10] }))
+		placements: Array.from({ length: n }, (_, i) => ({
+			id: `p${i}`,
+			partId: 'block',
+			position: [10, 10, 10]
+		}))
 	};
 }
 

@@ -20,7 +20,14 @@ export { overlappingPairs, overlappingPairsFlat, overlapVolumes, flattenBoxes } 
 export { pairKind, isObstacle } from './pairs';
 export { checkScene, reportFor, compartmentOf, type ReportOptions } from './check';
 export * from './cost';
-export { mountReport, mountReports, mountAccepts, mountPlates, partClasses, plateNeeded } from './mounts';
+export {
+	mountReport,
+	mountReports,
+	mountAccepts,
+	mountPlates,
+	partClasses,
+	plateNeeded
+} from './mounts';
 export { unionVolume } from './union';
 export { heatBudget, powerBudget } from './budgets';
 export { sweep, sweepGrid, feasibleIntervals } from './sweep';

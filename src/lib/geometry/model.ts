@@ -12,7 +12,15 @@ import { FACE_AXES } from './enclosure';
 import { mountReports } from './mounts';
 import { isObstacle, pairKind } from './pairs';
 import type { Box, Scene } from './schema';
-import type { FitStatus, MountProblem, MountReport, OverlapKind, ResolvedScene, StatusCounts, WorldBox } from './types';
+import type {
+	FitStatus,
+	MountProblem,
+	MountReport,
+	OverlapKind,
+	ResolvedScene,
+	StatusCounts,
+	WorldBox
+} from './types';
 import { unionVolume } from './union';
 
 export interface Model {
@@ -52,7 +60,12 @@ export interface Model {
 export const FACE_ORDER: readonly Face[] = ['-x', '+x', '-y', '+y', '-z', '+z'];
 
 export function buildModel(scene: Scene, resolved: ResolvedScene): Model {
-	const boxes: WorldBox[] = [...resolved.walls, ...resolved.dividers, ...resolved.brackets, ...resolved.plates];
+	const boxes: WorldBox[] = [
+		...resolved.walls,
+		...resolved.dividers,
+		...resolved.brackets,
+		...resolved.plates
+	];
 	const owners: number[] = boxes.map(() => -1);
 	const bodiesOf: number[][] = [];
 	const mounts = new Map(scene.enclosure.mounts.map((m) => [m.id, m]));
@@ -102,8 +115,32 @@ export function buildModel(scene: Scene, resolved: ResolvedScene): Model {
 			}
 		}
 	}
-	for (const list of mountProblemsOf) list.sort((x, y) => STATUS_ORDER.indexOf(x.status) - STATUS_ORDER.indexOf(y.status) || compareText(x.mountId, y.mountId));
-	return { scene, resolved, boxes, flat, owner, obstacle, bodiesOf, bodyBoxes, outsideFaces, mountFace, mountOf, indexOf, wallSide, toleranceMm, mounts: reports, mountProblemsOf, mountRank };
+	for (const list of mountProblemsOf) {
+		list.sort(
+			(x, y) =>
+				STATUS_ORDER.indexOf(x.status) - STATUS_ORDER.indexOf(y.status) ||
+				compareText(x.mountId, y.mountId)
+		);
+	}
+	return {
+		scene,
+		resolved,
+		boxes,
+		flat,
+		owner,
+		obstacle,
+		bodiesOf,
+		bodyBoxes,
+		outsideFaces,
+		mountFace,
+		mountOf,
+		indexOf,
+		wallSide,
+		toleranceMm,
+		mounts: reports,
+		mountProblemsOf,
+		mountRank
+	};
 }
 
 export function writeFlat(flat: Float64Array, i: number, box: Box): void {
@@ -215,7 +252,18 @@ export function interferenceUnion(tally: Tally): number {
 }
 
 /** Boxes i (in fa) and j (in fb) overlap with this meaning. */
-function addPair(model: Model, tally: Tally, i: number, j: number, kind: OverlapKind, volume: number, fa: Float64Array, ia: number, fb: Float64Array, ib: number): void {
+function addPair(
+	model: Model,
+	tally: Tally,
+	i: number,
+	j: number,
+	kind: OverlapKind,
+	volume: number,
+	fa: Float64Array,
+	ia: number,
+	fb: Float64Array,
+	ib: number
+): void {
 	const pi = model.owner[i];
 	const pj = model.owner[j];
 	if (kind === 'collides') {
@@ -284,8 +332,9 @@ function gapAlong(
 	if (side >= 0) {
 		if (side >> 1 !== a) return;
 		const inner = model.resolved.innerBox;
-		if (side & 1) offerGap(model, tally, p * 6 + 2 * a + 1, inner.max[a] - fb[b + 3 + a], obstacleIndex);
-		else offerGap(model, tally, p * 6 + 2 * a, fb[b + a] - inner.min[a], obstacleIndex);
+		if (side & 1) {
+			offerGap(model, tally, p * 6 + 2 * a + 1, inner.max[a] - fb[b + 3 + a], obstacleIndex);
+		} else offerGap(model, tally, p * 6 + 2 * a, fb[b + a] - inner.min[a], obstacleIndex);
 		return;
 	}
 	const beyondHigh = fo[o + 3 + a] > fb[b + 3 + a] + EPSILON_MM;
@@ -302,7 +351,13 @@ function gapAlong(
 	}
 }
 
-function offerGap(model: Model, tally: Tally, slot: number, gap: number, obstacleIndex: number): void {
+function offerGap(
+	model: Model,
+	tally: Tally,
+	slot: number,
+	gap: number,
+	obstacleIndex: number
+): void {
 	const current = tally.gap[slot];
 	if (
 		gap < current ||
@@ -351,7 +406,10 @@ export interface FoundPair {
  * Tallies every box with `included[i]` set (all when null) against the others. Returns the
  * meaningful overlapping pairs too, for the report.
  */
-export function tallyStatic(model: Model, included: Uint8Array | null): { tally: Tally; pairs: FoundPair[] } {
+export function tallyStatic(
+	model: Model,
+	included: Uint8Array | null
+): { tally: Tally; pairs: FoundPair[] } {
 	const tally = emptyTally(model.bodiesOf.length);
 	const ids: number[] = [];
 	for (let i = 0; i < model.boxes.length; i++) {
@@ -403,7 +461,9 @@ export function slideIndex(model: Model, included: Uint8Array, axis: number): Sl
 	}
 	const longest = (hi - lo) / 4;
 	const extent = (i: number) => f[i * 6 + 3 + axis] - f[i * 6 + axis];
-	const short = ids.filter((i) => !(extent(i) > longest)).sort((x, y) => f[x * 6 + axis] - f[y * 6 + axis]);
+	const short = ids
+		.filter((i) => !(extent(i) > longest))
+		.sort((x, y) => f[x * 6 + axis] - f[y * 6 + axis]);
 	return {
 		axis,
 		order: Int32Array.from(short),
@@ -462,13 +522,22 @@ export function tallyMoving(
 			if (kind) addPair(model, tally, mi, moving[l], kind, volume, movingFlat, k, movingFlat, l);
 		}
 		for (const p of extraPlacements) {
-			for (const bi of model.bodiesOf[p]) addGap(model, tally, p, model.flat, bi, movingFlat, k, mi);
+			for (const bi of model.bodiesOf[p]) {
+				addGap(model, tally, p, model.flat, bi, movingFlat, k, mi);
+			}
 		}
 	}
 	return tally;
 }
 
-function visitNear(model: Model, tally: Tally, mi: number, k: number, movingFlat: Float64Array, i: number): void {
+function visitNear(
+	model: Model,
+	tally: Tally,
+	mi: number,
+	k: number,
+	movingFlat: Float64Array,
+	i: number
+): void {
 	const volume = overlapVolume(movingFlat, k, model.flat, i);
 	if (volume > 0) {
 		const kind = pairKind(model.boxes[mi], model.boxes[i]);
@@ -483,7 +552,13 @@ function visitNear(model: Model, tally: Tally, mi: number, k: number, movingFlat
  * a mounted part its mount's panel, plate or standoffs (on the face toward the panel) and the other
  * parts on the same mount (fans butted together on a radiator, a block on its board).
  */
-export function isHeldContact(model: Model, p: number, face: number, gap: number, against: number): boolean {
+export function isHeldContact(
+	model: Model,
+	p: number,
+	face: number,
+	gap: number,
+	against: number
+): boolean {
 	if (!(Math.abs(gap) <= EPSILON_MM) || against < 0) {
 		return false;
 	}
@@ -519,7 +594,11 @@ function geometricStatus(model: Model, tally: Tally, p: number, marginMm: number
 	for (let f = 0; f < 6; f++) {
 		const gap = tally.gap[p * 6 + f];
 		const against = tally.against[p * 6 + f];
-		if (against >= 0 && worstCaseGap(model, p, gap, against) < marginMm - EPSILON_MM && !isHeldContact(model, p, f, gap, against)) {
+		if (
+			against >= 0 &&
+			worstCaseGap(model, p, gap, against) < marginMm - EPSILON_MM &&
+			!isHeldContact(model, p, f, gap, against)
+		) {
 			return 'tight';
 		}
 	}
@@ -527,7 +606,12 @@ function geometricStatus(model: Model, tally: Tally, p: number, marginMm: number
 }
 
 /** The worse of the part's own status and that of the mount stack it is on. */
-export function placementStatus(model: Model, tally: Tally, p: number, marginMm: number): FitStatus {
+export function placementStatus(
+	model: Model,
+	tally: Tally,
+	p: number,
+	marginMm: number
+): FitStatus {
 	const own = STATUS_ORDER.indexOf(geometricStatus(model, tally, p, marginMm));
 	return STATUS_ORDER[Math.min(own, model.mountRank[p])];
 }
@@ -536,7 +620,11 @@ export function emptyCounts(): StatusCounts {
 	return { collides: 0, blocked: 0, outside: 0, tight: 0, clear: 0 };
 }
 
-export function statusCounts(model: Model, tally: Tally, marginMm: number): { statuses: FitStatus[]; counts: StatusCounts } {
+export function statusCounts(
+	model: Model,
+	tally: Tally,
+	marginMm: number
+): { statuses: FitStatus[]; counts: StatusCounts } {
 	const counts = emptyCounts();
 	const statuses = model.bodiesOf.map((_, p) => placementStatus(model, tally, p, marginMm));
 	for (const s of statuses) counts[s]++;

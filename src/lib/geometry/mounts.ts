@@ -7,7 +7,15 @@
 import { EPSILON_MM, compareText, faceOf, type Face } from './box';
 import { FACE_AXES } from './enclosure';
 import type { Box, EnclosureDef, MountDef, PartDef, Scene, Vec3 } from './schema';
-import type { FitStatus, MountProblem, MountReport, ResolvedPlacement, ResolvedScene, StackEntry, WorldBox } from './types';
+import type {
+	FitStatus,
+	MountProblem,
+	MountReport,
+	ResolvedPlacement,
+	ResolvedScene,
+	StackEntry,
+	WorldBox
+} from './types';
 
 /** The classes a part answers to in a mount's `accepts`: '240', '120', 'SFX', 'Mini-ITX'. */
 export function partClasses(part: PartDef): string[] {
@@ -52,7 +60,11 @@ export function mountAccepts(mount: MountDef, part: PartDef): boolean {
  * its parts' extents along the normal, and the layers add up. Positions along the normal only order
  * the layers, so a stray gap between radiator and fans does not count as used room.
  */
-function stackLayers(mount: MountDef, mounted: ResolvedPlacement[], inner: number): { entries: StackEntry[]; layersMm: number } {
+function stackLayers(
+	mount: MountDef,
+	mounted: ResolvedPlacement[],
+	inner: number
+): { entries: StackEntry[]; layersMm: number } {
 	const { axis, high } = FACE_AXES[mount.face];
 	const spans = mounted.map((rp) => {
 		const near = high ? inner - rp.bounds.max[axis] : rp.bounds.min[axis];
@@ -97,7 +109,11 @@ export function plateNeeded(mount: MountDef, mounted: readonly { part: PartDef }
  * over the mount's region on the panel's two axes, the plate from the panel inward, the standoffs
  * (as one layer) on top of it. Only for a mount with parts on it, and only layers thicker than 0.
  */
-export function mountPlates(enclosure: EnclosureDef, inner: Box, placements: readonly ResolvedPlacement[]): WorldBox[] {
+export function mountPlates(
+	enclosure: EnclosureDef,
+	inner: Box,
+	placements: readonly ResolvedPlacement[]
+): WorldBox[] {
 	const out: WorldBox[] = [];
 	for (const mount of [...enclosure.mounts].sort((a, b) => compareText(a.id, b.id))) {
 		const mounted = placements.filter((rp) => rp.placement.mountId === mount.id);
@@ -149,13 +165,20 @@ export function mountReport(mount: MountDef, scene: Scene, resolved: ResolvedSce
 	const usedMm = plateMm + mount.standoffMm + layersMm;
 	const budgetMm = mount.budgetMm ?? null;
 	const spareMm = budgetMm === null ? null : budgetMm - usedMm;
-	const unaccepted = mounted.filter((rp) => !mountAccepts(mount, rp.part)).map((rp) => rp.placement.id);
+	const unaccepted = mounted
+		.filter((rp) => !mountAccepts(mount, rp.part))
+		.map((rp) => rp.placement.id);
 	const overflow = mounted
 		.map((rp) => ({ placementId: rp.placement.id, overflowMm: overflowOf(mount, rp) }))
 		.filter((o) => Object.keys(o.overflowMm).length > 0);
 	const all = entries.map((e) => e.placementId).sort(compareText);
 	const problems: MountProblem[] = [];
-	const problem = (kind: MountProblem['kind'], status: FitStatus, placementIds: string[], amountMm: number) =>
+	const problem = (
+		kind: MountProblem['kind'],
+		status: FitStatus,
+		placementIds: string[],
+		amountMm: number
+	) =>
 		problems.push({ mountId: mount.id, label: mount.label, kind, status, placementIds, amountMm });
 	if (spareMm !== null && spareMm < -EPSILON_MM) problem('over-budget', 'collides', all, -spareMm);
 	if (unaccepted.length > 0) problem('unaccepted', 'blocked', [...unaccepted].sort(compareText), 0);

@@ -36,7 +36,10 @@ function keepoutPairKind(a: WorldBox, b: WorldBox): OverlapKind | null {
 	if (other.kind === 'keepout') {
 		return null;
 	}
-	if (keepout.keepoutKind === 'airflow' && ((other.kind === 'wall' && other.wallKind === 'mesh') || other.kind === 'plate')) {
+	if (
+		keepout.keepoutKind === 'airflow' &&
+		((other.kind === 'wall' && other.wallKind === 'mesh') || other.kind === 'plate')
+	) {
 		return null;
 	}
 	return keepout.severity === 'warning' ? 'warning' : 'blocked';

@@ -62,7 +62,8 @@ export function allowedPositions(def: DividerDef | BracketDef): AllowedPosition[
  * never snaps a nearby value to the closest allowed one.
  */
 export function allowedIndex(def: DividerDef | BracketDef, offsetMm: number): number {
-	const range = 'travel' in def ? def.travel : def.positions.kind === 'range' ? def.positions : null;
+	const range =
+		'travel' in def ? def.travel : def.positions.kind === 'range' ? def.positions : null;
 	if (range) {
 		const k = Math.round((offsetMm - range.minMm) / range.stepMm);
 		if (k < 0 || k >= Math.min(rangeCount(range), MAX_POSITIONS)) {

@@ -7,12 +7,21 @@
 import { describe, expect, it } from 'vitest';
 import { checkScene } from './check';
 import { blockPart, makeScene } from './factories.spec-util';
-import { DEMO_SPINE_OFFSETS, demoEnclosure, demoParts, demoSceneInput, standardPart } from './fixtures';
+import {
+	DEMO_SPINE_OFFSETS,
+	demoEnclosure,
+	demoParts,
+	demoSceneInput,
+	standardPart
+} from './fixtures';
 import type { PartDef, SceneInput, Vec3 } from './schema';
 
 function radiator(cls: 240 | 280, thicknessMm: number): PartDef {
 	const size: Vec3 = cls === 240 ? [124, 275, thicknessMm] : [143, 315, thicknessMm];
-	return blockPart(`rad-${cls}-${thicknessMm}`, size, { category: 'radiator', specs: { radiatorClass: cls, radiatorThicknessMm: thicknessMm } });
+	return blockPart(`rad-${cls}-${thicknessMm}`, size, {
+		category: 'radiator',
+		specs: { radiatorClass: cls, radiatorThicknessMm: thicknessMm }
+	});
 }
 
 /** A radiator on the front mount (sitting on the plate when it needs one) and two fans on it. */
@@ -21,17 +30,30 @@ function stackScene(cls: 240 | 280, radiatorMm: number, fanMm: 15 | 25 | null, m
 	const plate = cls === 240 ? 1 : 0;
 	const rad = radiator(cls, radiatorMm);
 	const fan = fanMm === null ? null : standardPart(`std-fan-${fanSize}-${fanMm}`);
-	const placements: SceneInput['placements'] = [{ id: 'radiator', partId: rad.id, position: [5, 20, plate], mountId: 'radiator' }];
+	const placements: SceneInput['placements'] = [
+		{ id: 'radiator', partId: rad.id, position: [5, 20, plate], mountId: 'radiator' }
+	];
 	if (fan) {
 		placements.push(
 			{ id: 'fan-1', partId: fan.id, position: [5, 20, plate + radiatorMm], mountId: 'radiator' },
-			{ id: 'fan-2', partId: fan.id, position: [5, 20 + fanSize, plate + radiatorMm], mountId: 'radiator' }
+			{
+				id: 'fan-2',
+				partId: fan.id,
+				position: [5, 20 + fanSize, plate + radiatorMm],
+				mountId: 'radiator'
+			}
 		);
 	}
-	return makeScene({ enclosure: demoEnclosure(), parts: fan ? [rad, fan] : [rad], placements, marginMm });
+	return makeScene({
+		enclosure: demoEnclosure(),
+		parts: fan ? [rad, fan] : [rad],
+		placements,
+		marginMm
+	});
 }
 
-const mountOf = (scene: ReturnType<typeof stackScene>) => checkScene(scene).mounts.find((m) => m.mountId === 'radiator')!;
+const mountOf = (scene: ReturnType<typeof stackScene>) =>
+	checkScene(scene).mounts.find((m) => m.mountId === 'radiator')!;
 
 describe('radiator stacks on the front mount (common practice)', () => {
 	it('a 280 radiator mounted directly on the panel has 64 mm for radiator + fans', () => {
@@ -50,32 +72,49 @@ describe('radiator stacks on the front mount (common practice)', () => {
 		['45 mm radiator + 15 mm slim fans', 3, 3, 'clear', 45, 15],
 		['36 mm radiator + 25 mm fans', 3, 2, 'tight', 36, 25],
 		['45 mm radiator + 25 mm fans', 3, -7, 'collides', 45, 25]
-	] as const)('240 with %s under a %i mm margin: %i mm spare, %s', (_name, margin, spare, status, radiatorMm, fanMm) => {
-		const scene = stackScene(240, radiatorMm, fanMm, margin);
-		const mount = mountOf(scene);
-		expect(mount.usedMm).toBe(1 + radiatorMm + fanMm);
-		expect(mount.spareMm).toBe(spare);
-		expect(mount.status).toBe(status);
-		expect(mount.stack.map((e) => e.layer)).toEqual([0, 1, 1]);
-		// The geometry agrees: the fans' room to the bulkhead is the spare, and 7 over is a 7 mm collision.
-		const report = checkScene(scene);
-		const fan = report.parts.find((p) => p.placementId === 'fan-1')!;
-		expect(fan.gaps['+z'].gapMm).toBeCloseTo(spare, 9);
-		// The radiator rests on the 1 mm plate, a box in the scene: held contact, not a 1 mm gap.
-		const rad = report.parts.find((p) => p.placementId === 'radiator')!;
-		expect(rad.gaps['-z']).toMatchObject({ gapMm: 0, held: true, against: { id: 'plate:radiator', kind: 'plate' } });
-		// The stack's status reaches every part on it, naming the mount.
-		for (const p of report.parts) {
-			expect(p.status).toBe(status);
-			if (status !== 'clear') expect(p.mountProblems[0]).toMatchObject({ mountId: 'radiator', label: 'Front radiator mount', status });
+	] as const)(
+		'240 with %s under a %i mm margin: %i mm spare, %s',
+		(_name, margin, spare, status, radiatorMm, fanMm) => {
+			const scene = stackScene(240, radiatorMm, fanMm, margin);
+			const mount = mountOf(scene);
+			expect(mount.usedMm).toBe(1 + radiatorMm + fanMm);
+			expect(mount.spareMm).toBe(spare);
+			expect(mount.status).toBe(status);
+			expect(mount.stack.map((e) => e.layer)).toEqual([0, 1, 1]);
+			// The geometry agrees: the fans' room to the bulkhead is the spare, and 7 over is a 7 mm collision.
+			const report = checkScene(scene);
+			const fan = report.parts.find((p) => p.placementId === 'fan-1')!;
+			expect(fan.gaps['+z'].gapMm).toBeCloseTo(spare, 9);
+			// The radiator rests on the 1 mm plate, a box in the scene: held contact, not a 1 mm gap.
+			const rad = report.parts.find((p) => p.placementId === 'radiator')!;
+			expect(rad.gaps['-z']).toMatchObject({
+				gapMm: 0,
+				held: true,
+				against: { id: 'plate:radiator', kind: 'plate' }
+			});
+			// The stack's status reaches every part on it, naming the mount.
+			for (const p of report.parts) {
+				expect(p.status).toBe(status);
+				if (status !== 'clear') {
+					expect(p.mountProblems[0]).toMatchObject({
+						mountId: 'radiator',
+						label: 'Front radiator mount',
+						status
+					});
+				}
+			}
+			if (spare < 0) {
+				// Pulling the fan 7 mm forward would push it into the radiator: no single move clears it.
+				const hit = report.overlaps.find(
+					(o) => o.a.id === 'divider:bulkhead' && o.b.id === 'fan-1/body'
+				)!;
+				expect(hit.moves).toEqual([]);
+				expect(hit.noMove).toBe(
+					'No move along depth or any other single axis clears this without running into something else.'
+				);
+			}
 		}
-		if (spare < 0) {
-			// Pulling the fan 7 mm forward would push it into the radiator: no single move clears it.
-			const hit = report.overlaps.find((o) => o.a.id === 'divider:bulkhead' && o.b.id === 'fan-1/body')!;
-			expect(hit.moves).toEqual([]);
-			expect(hit.noMove).toBe('No move along depth or any other single axis clears this without running into something else.');
-		}
-	});
+	);
 });
 
 describe('the 86 mm CPU-side compartment (common practice)', () => {
@@ -94,23 +133,43 @@ describe('the 86 mm CPU-side compartment (common practice)', () => {
 		const report = inCpuSide(blockPart('slab', [86, 50, 50]));
 		expect(report.overlaps).toEqual([]);
 		expect(report.parts[0].gaps['-x']).toMatchObject({ gapMm: 0, against: { id: 'wall:left' } });
-		expect(report.parts[0].gaps['+x']).toMatchObject({ gapMm: 0, against: { id: 'divider:spine' } });
+		expect(report.parts[0].gaps['+x']).toMatchObject({
+			gapMm: 0,
+			against: { id: 'divider:spine' }
+		});
 		expect(report.parts[0].status).toBe('tight');
 	});
 
 	it('and a fitting keep-out on its outer face is blocked', () => {
 		const report = inCpuSide(
-			blockPart('slab', [86, 50, 50], { keepouts: [{ id: 'fittings', label: 'fittings', kind: 'fitting', severity: 'error', box: { min: [86, 10, 10], max: [101, 40, 40] } }] })
+			blockPart('slab', [86, 50, 50], {
+				keepouts: [
+					{
+						id: 'fittings',
+						label: 'fittings',
+						kind: 'fitting',
+						severity: 'error',
+						box: { min: [86, 10, 10], max: [101, 40, 40] }
+					}
+				]
+			})
 		);
 		expect(report.parts[0].status).toBe('blocked');
 		expect(report.overlaps).toHaveLength(1);
-		expect(report.overlaps[0]).toMatchObject({ kind: 'blocked', a: { id: 'divider:spine' }, b: { id: 'p/fittings' } });
+		expect(report.overlaps[0]).toMatchObject({
+			kind: 'blocked',
+			a: { id: 'divider:spine' },
+			b: { id: 'p/fittings' }
+		});
 	});
 
 	it('a compact pump-reservoir 58 mm thick leaves 28 mm for fittings', () => {
 		const pump = demoParts().find((p) => p.id === 'demo-pump-res')!;
 		const report = inCpuSide(pump);
-		expect(report.parts[0].gaps['+x']).toMatchObject({ gapMm: 28, against: { id: 'divider:spine' } });
+		expect(report.parts[0].gaps['+x']).toMatchObject({
+			gapMm: 28,
+			against: { id: 'divider:spine' }
+		});
 		expect(report.overlaps).toEqual([]);
 	});
 });

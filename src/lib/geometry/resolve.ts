@@ -12,7 +12,14 @@ import {
 import { SceneError } from './errors';
 import { mountPlates } from './mounts';
 import { rotateBox, rotateDirection, rotatePoint, rotationMap } from './rotation';
-import { formatPath, type Box, type PartDef, type Placement, type Scene, type Vec3 } from './schema';
+import {
+	formatPath,
+	type Box,
+	type PartDef,
+	type Placement,
+	type Scene,
+	type Vec3
+} from './schema';
 import type { ResolvedPlacement, ResolvedScene, WorldBox } from './types';
 
 /**

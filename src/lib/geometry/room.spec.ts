@@ -11,7 +11,9 @@ import { roomTable, type RoomRow } from './room';
 import type { EnclosureDef } from './schema';
 
 const rowOf = (rows: RoomRow[], offsets: Record<string, number>) =>
-	rows.find((r) => Object.entries(offsets).every(([id, v]) => r.settings.find((s) => s.id === id)?.offsetMm === v))!;
+	rows.find((r) =>
+		Object.entries(offsets).every(([id, v]) => r.settings.find((s) => s.id === id)?.offsetMm === v)
+	)!;
 const fig = (row: RoomRow, id: string) => {
 	const f = row.figures.find((x) => x.id === id);
 	if (!f) throw new Error(`no figure ${id} in ${row.figures.map((x) => x.id).join(', ')}`);
@@ -20,7 +22,8 @@ const fig = (row: RoomRow, id: string) => {
 
 describe('the demo sandwich (150 × 340 × 240 mm inside)', () => {
 	const table = roomTable(demoEnclosure());
-	const at = (spine: keyof typeof DEMO_SPINE_OFFSETS, bar = 0) => rowOf(table.rows, { spine: DEMO_SPINE_OFFSETS[spine], bar });
+	const at = (spine: keyof typeof DEMO_SPINE_OFFSETS, bar = 0) =>
+		rowOf(table.rows, { spine: DEMO_SPINE_OFFSETS[spine], bar });
 
 	it('has a row for every combination of the two moving controls: 3 spine positions × 16 bar offsets', () => {
 		// The bulkhead has one position (fixed); the bar travels 0…150 mm in 10 mm steps: 16.
@@ -75,8 +78,14 @@ describe('the demo sandwich (150 × 340 × 240 mm inside)', () => {
 	it('64 mm for radiator + fans on the 280 mount, 63 mm for a 240 after its 1 mm adapter plate (common practice)', () => {
 		// Budget 64 mm, and the bulkhead's front face is at z 64 too; the plate is for 240s only.
 		const row = at('3 slots');
-		expect(fig(row, 'stack:radiator:280')).toMatchObject({ valueMm: 64, boundedBy: 'to the Bulkhead (the 64.0\u2009mm budget)' });
-		expect(fig(row, 'stack:radiator:240')).toMatchObject({ valueMm: 63, boundedBy: 'to the Bulkhead (the 64.0\u2009mm budget), after the 1.0\u2009mm adapter plate' });
+		expect(fig(row, 'stack:radiator:280')).toMatchObject({
+			valueMm: 64,
+			boundedBy: 'to the Bulkhead (the 64.0\u2009mm budget)'
+		});
+		expect(fig(row, 'stack:radiator:240')).toMatchObject({
+			valueMm: 63,
+			boundedBy: 'to the Bulkhead (the 64.0\u2009mm budget), after the 1.0\u2009mm adapter plate'
+		});
 	});
 
 	it('free boxes of the three compartments', () => {
@@ -90,7 +99,10 @@ describe('the demo sandwich (150 × 340 × 240 mm inside)', () => {
 		expect(card[0]).toBeCloseTo(82.32, 9);
 		expect(card.slice(1)).toEqual([330, 174]);
 		// Radiator bay: the whole width and height, 64 deep to the bulkhead.
-		expect(fig(row, 'free-box:bulkhead.low')).toMatchObject({ sizeMm: [150, 340, 64], boundedBy: 'Left panel to Right panel, Bottom panel to Top panel, Front panel to Bulkhead' });
+		expect(fig(row, 'free-box:bulkhead.low')).toMatchObject({
+			sizeMm: [150, 340, 64],
+			boundedBy: 'Left panel to Right panel, Bottom panel to Top panel, Front panel to Bulkhead'
+		});
 	});
 });
 
@@ -109,12 +121,24 @@ describe('the demo small tower (205 × 376 × 236 mm inside)', () => {
 		expect(fig(row, 'over-board:tray')).toMatchObject({ boundedBy: 'to the Left panel' });
 		expect(fig(row, 'over-board:tray').valueMm).toBeCloseTo(197.4, 9);
 		// Cards from the back panel (z 236) forward to the front fans' 30 mm stack: 236 − 30 = 206.
-		expect(fig(row, 'card-length:slots')).toMatchObject({ valueMm: 206, boundedBy: 'from the Back panel to the Front fans stack' });
+		expect(fig(row, 'card-length:slots')).toMatchObject({
+			valueMm: 206,
+			boundedBy: 'from the Back panel to the Front fans stack'
+		});
 		// The slots' region is 165 − 80 = 85 mm across (85 / 20.32 = 4.18) and the mount has 4 slots.
-		expect(fig(row, 'card-slots:slots')).toMatchObject({ slots: 4, boundedBy: '4 slots on the mount' });
+		expect(fig(row, 'card-slots:slots')).toMatchObject({
+			slots: 4,
+			boundedBy: '4 slots on the mount'
+		});
 		// Top radiator: the room down to the pump bracket (376 − 125 = 251) is more than the 50 mm budget.
-		expect(fig(row, 'stack:top-radiator:280')).toMatchObject({ valueMm: 50, boundedBy: 'the 50.0\u2009mm stack budget' });
-		expect(fig(row, 'stack:front-fans:140')).toMatchObject({ valueMm: 30, boundedBy: 'the 30.0\u2009mm stack budget' });
+		expect(fig(row, 'stack:top-radiator:280')).toMatchObject({
+			valueMm: 50,
+			boundedBy: 'the 50.0\u2009mm stack budget'
+		});
+		expect(fig(row, 'stack:front-fans:140')).toMatchObject({
+			valueMm: 30,
+			boundedBy: 'the 30.0\u2009mm stack budget'
+		});
 	});
 
 	it('the main chamber’s free box stands on the pump bracket', () => {
@@ -123,7 +147,9 @@ describe('the demo small tower (205 × 376 × 236 mm inside)', () => {
 		const box = fig(at(90), 'free-box:shroud.high');
 		expect(box.sizeMm![0]).toBeCloseTo(197.4, 9);
 		expect(box.sizeMm!.slice(1)).toEqual([251, 236]);
-		expect(box.boundedBy).toBe('Left panel to board on the Board tray, Pump bracket at 0.0\u2009mm to Top panel, Front panel to Back panel');
+		expect(box.boundedBy).toBe(
+			'Left panel to board on the Board tray, Pump bracket at 0.0\u2009mm to Top panel, Front panel to Back panel'
+		);
 		// The supply chamber under the shroud at 100: 205 × 100 × 236, nothing in it.
 		expect(fig(at(100), 'free-box:shroud.low').sizeMm).toEqual([205, 100, 236]);
 	});
@@ -140,7 +166,16 @@ describe('tables that cannot be made', () => {
 
 	it('more than two moving controls: one at a time, the others at their first position', () => {
 		const e = demoEnclosure();
-		e.dividers[0] = { ...e.dividers[0], positions: { kind: 'list', options: [{ label: 'a', offsetMm: 64 }, { label: 'b', offsetMm: 60 }] } };
+		e.dividers[0] = {
+			...e.dividers[0],
+			positions: {
+				kind: 'list',
+				options: [
+					{ label: 'a', offsetMm: 64 },
+					{ label: 'b', offsetMm: 60 }
+				]
+			}
+		};
 		const table = roomTable(e);
 		// 1 base row + 1 more bulkhead + 2 more spine + 15 more bar positions.
 		expect(table.rows).toHaveLength(1 + 1 + 2 + 15);

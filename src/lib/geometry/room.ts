@@ -9,17 +9,38 @@ import { AXES, EPSILON_MM, boxSize, type AxisIndex, type Face } from './box';
 import { FACE_AXES, bracketBoxAt, compartmentsFor, dividerBoxAt, innerBoxOf } from './enclosure';
 import { SceneError } from './errors';
 import { BOARD_THICKNESS_MM } from './fixtures';
-import { byVolume, containerLabels, faceBound, maximalEmptyBoxes, type LabelledBox } from './free-space';
+import {
+	byVolume,
+	containerLabels,
+	faceBound,
+	maximalEmptyBoxes,
+	type LabelledBox
+} from './free-space';
 import { allowedPositions, formatMm, type AllowedPosition } from './positions';
-import { SLOT_PITCH_MM, type Box, type EnclosureDef, type FaceName, type MountDef, type Vec3 } from './schema';
+import {
+	SLOT_PITCH_MM,
+	type Box,
+	type EnclosureDef,
+	type FaceName,
+	type MountDef,
+	type Vec3
+} from './schema';
 
 /**
  * Board outlines by class, from the documents that define them. The thickness is not in them:
  * 1.6 mm (0.062 in) is the usual board, from memory (BOARD_THICKNESS_MM).
  */
 export const BOARD_CLASSES: Record<string, { widthMm: number; depthMm: number; source: string }> = {
-	'Mini-ITX': { widthMm: 170, depthMm: 170, source: 'Mini-ITX form factor addendum to the microATX specification (2001)' },
-	microATX: { widthMm: 244, depthMm: 244, source: 'microATX Motherboard Interface Specification 1.2' },
+	'Mini-ITX': {
+		widthMm: 170,
+		depthMm: 170,
+		source: 'Mini-ITX form factor addendum to the microATX specification (2001)'
+	},
+	microATX: {
+		widthMm: 244,
+		depthMm: 244,
+		source: 'microATX Motherboard Interface Specification 1.2'
+	},
 	ATX: { widthMm: 305, depthMm: 244, source: 'ATX Specification 2.2' }
 };
 
@@ -29,7 +50,8 @@ export const PUMP_FOOTPRINT_MM = 50;
 /** Most rows one table holds; a definition with more combinations gets the first ones and a note. */
 export const MAX_ROOM_ROWS = 2_000;
 
-export type RoomFigureKind = 'free-box' | 'over-board' | 'card-length' | 'card-slots' | 'stack' | 'pump-depth';
+export type RoomFigureKind =
+	'free-box' | 'over-board' | 'card-length' | 'card-slots' | 'stack' | 'pump-depth';
 
 export interface RoomFigure {
 	/** Stable across rows: `free-box:<compartment>`, `stack:<mount>:<class>`, `pump:<compartment>:<face>`. */
@@ -87,8 +109,22 @@ const PANEL: Record<FaceName, string> = {
 	front: 'Front panel',
 	back: 'Back panel'
 };
-const FACE_WORD: Record<Face, string> = { '-x': 'left panel', '+x': 'right panel', '-y': 'bottom panel', '+y': 'top panel', '-z': 'front panel', '+z': 'back panel' };
-const FACE_NAME_OF: Record<Face, FaceName> = { '-x': 'left', '+x': 'right', '-y': 'bottom', '+y': 'top', '-z': 'front', '+z': 'back' };
+const FACE_WORD: Record<Face, string> = {
+	'-x': 'left panel',
+	'+x': 'right panel',
+	'-y': 'bottom panel',
+	'+y': 'top panel',
+	'-z': 'front panel',
+	'+z': 'back panel'
+};
+const FACE_NAME_OF: Record<Face, FaceName> = {
+	'-x': 'left',
+	'+x': 'right',
+	'-y': 'bottom',
+	'+y': 'top',
+	'-z': 'front',
+	'+z': 'back'
+};
 
 function clip(box: Box, to: Box): Box {
 	return {
@@ -99,7 +135,9 @@ function clip(box: Box, to: Box): Box {
 
 function shares(a: Box, b: Box, axis: number): boolean {
 	for (let i = 0; i < 3; i++) {
-		if (i !== axis && Math.min(a.max[i], b.max[i]) - Math.max(a.min[i], b.min[i]) <= EPSILON_MM) return false;
+		if (i !== axis && Math.min(a.max[i], b.max[i]) - Math.max(a.min[i], b.min[i]) <= EPSILON_MM) {
+			return false;
+		}
 	}
 	return true;
 }
@@ -108,9 +146,19 @@ function shares(a: Box, b: Box, axis: number): boolean {
  * Free distance from `start` along `axis` (towards +1 or −1) over the cross-section of `cross`,
  * to the nearest obstacle ahead or the panel; an obstacle across the start gives 0.
  */
-export function reach(inner: Box, cross: Box, axis: AxisIndex, dir: 1 | -1, start: number, obstacles: readonly LabelledBox[]): { distanceMm: number; against: string } {
+export function reach(
+	inner: Box,
+	cross: Box,
+	axis: AxisIndex,
+	dir: 1 | -1,
+	start: number,
+	obstacles: readonly LabelledBox[]
+): { distanceMm: number; against: string } {
 	const panelFace = FACE_NAMES_BY_AXIS[axis][dir > 0 ? 1 : 0];
-	let best = { distanceMm: dir > 0 ? inner.max[axis] - start : start - inner.min[axis], against: PANEL[panelFace] };
+	let best = {
+		distanceMm: dir > 0 ? inner.max[axis] - start : start - inner.min[axis],
+		against: PANEL[panelFace]
+	};
 	for (const o of obstacles) {
 		if (!shares(o.box, cross, axis)) continue;
 		const near = dir > 0 ? o.box.min[axis] - start : start - o.box.max[axis];
@@ -169,20 +217,34 @@ function keyOf(container: Box, obstacles: readonly LabelledBox[]): string {
 	let key = `${container.min[0]},${container.min[1]},${container.min[2]},${container.max[0]},${container.max[1]},${container.max[2]}`;
 	for (const o of obstacles) {
 		const b = o.box;
-		if (Math.min(b.max[0], container.max[0]) - Math.max(b.min[0], container.min[0]) <= EPSILON_MM) continue;
-		if (Math.min(b.max[1], container.max[1]) - Math.max(b.min[1], container.min[1]) <= EPSILON_MM) continue;
-		if (Math.min(b.max[2], container.max[2]) - Math.max(b.min[2], container.min[2]) <= EPSILON_MM) continue;
+		if (Math.min(b.max[0], container.max[0]) - Math.max(b.min[0], container.min[0]) <= EPSILON_MM) {
+			continue;
+		}
+		if (Math.min(b.max[1], container.max[1]) - Math.max(b.min[1], container.min[1]) <= EPSILON_MM) {
+			continue;
+		}
+		if (Math.min(b.max[2], container.max[2]) - Math.max(b.min[2], container.min[2]) <= EPSILON_MM) {
+			continue;
+		}
 		key += `|${o.label}:${b.min[0]},${b.min[1]},${b.min[2]},${b.max[0]},${b.max[1]},${b.max[2]}`;
 	}
 	return key;
 }
 
-export function roomAt(enclosure: EnclosureDef, at: RoomPositions, cache: Map<string, RoomFigure[]> = new Map()): RoomFigure[] {
+export function roomAt(
+	enclosure: EnclosureDef,
+	at: RoomPositions,
+	cache: Map<string, RoomFigure[]> = new Map()
+): RoomFigure[] {
 	const inner = innerBoxOf(enclosure);
 	const dividers: LabelledBox[] = enclosure.dividers.map((d) => ({
 		id: `divider:${d.id}`,
 		label: d.label,
-		box: dividerBoxAt(enclosure, d, at.dividerPositions[d.id] ?? allowedPositions(d)[0]?.offsetMm ?? 0)
+		box: dividerBoxAt(
+			enclosure,
+			d,
+			at.dividerPositions[d.id] ?? allowedPositions(d)[0]?.offsetMm ?? 0
+		)
 	}));
 	const bracketOffset = (id: string) => at.bracketOffsets[id] ?? 0;
 	const brackets: LabelledBox[] = enclosure.brackets.map((b) => ({
@@ -191,7 +253,11 @@ export function roomAt(enclosure: EnclosureDef, at: RoomPositions, cache: Map<st
 		box: bracketBoxAt(b, bracketOffset(b.id))
 	}));
 	const trays = enclosure.mounts.filter((m) => m.kind === 'board-tray');
-	const boards: LabelledBox[] = trays.map((m) => ({ id: `board:${m.id}`, label: `board on the ${m.label}`, box: slabOn(m, inner, boardDepth(m)) }));
+	const boards: LabelledBox[] = trays.map((m) => ({
+		id: `board:${m.id}`,
+		label: `board on the ${m.label}`,
+		box: slabOn(m, inner, boardDepth(m))
+	}));
 	const stacks: LabelledBox[] = enclosure.mounts
 		.filter((m) => m.kind === 'radiator' || m.kind === 'fan')
 		.map((m) => {
@@ -244,7 +310,11 @@ export function roomAt(enclosure: EnclosureDef, at: RoomPositions, cache: Map<st
 		const box = bracketBoxAt(b, bracketOffset(b.id));
 		const L = AXES.indexOf(b.axis) as AxisIndex;
 		const centre = box.min.map((v, i) => (v + box.max[i]) / 2);
-		const room = compartments.find((c) => c.box.min.every((v, i) => v - EPSILON_MM <= centre[i] && centre[i] <= c.box.max[i] + EPSILON_MM)) ?? { box: inner, label: 'Inside', id: 'inside' };
+		const room = compartments.find((c) =>
+			c.box.min.every(
+				(v, i) => v - EPSILON_MM <= centre[i] && centre[i] <= c.box.max[i] + EPSILON_MM
+			)
+		) ?? { box: inner, label: 'Inside', id: 'inside' };
 		const up = box.min[L] - room.box.min[L] <= room.box.max[L] - box.max[L];
 		const dir: 1 | -1 = up ? 1 : -1;
 		const cross = clip(box, room.box);
@@ -258,11 +328,26 @@ export function roomAt(enclosure: EnclosureDef, at: RoomPositions, cache: Map<st
 			valueMm: r.distanceMm,
 			boundedBy: `from the ${label} to the ${r.against}`
 		});
-		const S = (stackAxis !== null && stackAxis !== L ? stackAxis : ([0, 1, 2].filter((i) => i !== L).sort((p, q) => room.box.max[p] - room.box.min[p] - (room.box.max[q] - room.box.min[q]))[0] as AxisIndex));
+		const S =
+			stackAxis !== null && stackAxis !== L
+				? stackAxis
+				: ([0, 1, 2]
+						.filter((i) => i !== L)
+						.sort(
+							(p, q) => room.box.max[p] - room.box.min[p] - (room.box.max[q] - room.box.min[q])
+						)[0] as AxisIndex);
 		const width = room.box.max[S] - room.box.min[S];
 		const labels = containerLabels(room.box, inner, '');
-		const lo = labels[`-${AXES[S]}` as Face] || faceBound(room.box, `-${AXES[S]}` as Face, dividers.map((d) => ({ ...d, box: d.box })), labels);
-		const hi = labels[`+${AXES[S]}` as Face] || faceBound(room.box, `+${AXES[S]}` as Face, dividers, labels);
+		const lo =
+			labels[`-${AXES[S]}` as Face] ||
+			faceBound(
+				room.box,
+				`-${AXES[S]}` as Face,
+				dividers.map((d) => ({ ...d, box: d.box })),
+				labels
+			);
+		const hi =
+			labels[`+${AXES[S]}` as Face] || faceBound(room.box, `+${AXES[S]}` as Face, dividers, labels);
 		figures.push({
 			id: `card-slots:${b.id}`,
 			kind: 'card-slots',
@@ -277,8 +362,21 @@ export function roomAt(enclosure: EnclosureDef, at: RoomPositions, cache: Map<st
 		const { axis, dir, panel } = panelAt(m, inner);
 		const cross = clip(m.region, inner);
 		const r = reach(inner, cross, axis, dir, panel, reachObstacles);
-		figures.push({ id: `card-length:${m.id}`, kind: 'card-length', label: `Longest card in the ${m.label}`, valueMm: r.distanceMm, boundedBy: `from the ${PANEL[m.face]} to the ${r.against}` });
-		const S = (stackAxis !== null && stackAxis !== axis ? stackAxis : ([0, 1, 2].filter((i) => i !== axis).sort((p, q) => cross.max[p] - cross.min[p] - (cross.max[q] - cross.min[q]))[0] as AxisIndex));
+		figures.push({
+			id: `card-length:${m.id}`,
+			kind: 'card-length',
+			label: `Longest card in the ${m.label}`,
+			valueMm: r.distanceMm,
+			boundedBy: `from the ${PANEL[m.face]} to the ${r.against}`
+		});
+		const S =
+			stackAxis !== null && stackAxis !== axis
+				? stackAxis
+				: ([0, 1, 2]
+						.filter((i) => i !== axis)
+						.sort(
+							(p, q) => cross.max[p] - cross.min[p] - (cross.max[q] - cross.min[q])
+						)[0] as AxisIndex);
 		const width = cross.max[S] - cross.min[S];
 		const pitch = m.slotPitchMm || SLOT_PITCH_MM;
 		const byRoom = Math.floor(width / pitch + 1e-9);
@@ -289,7 +387,10 @@ export function roomAt(enclosure: EnclosureDef, at: RoomPositions, cache: Map<st
 			label: `Widest card in the ${m.label}`,
 			valueMm: width,
 			slots,
-			boundedBy: m.slotCount !== undefined && m.slotCount <= byRoom ? `${m.slotCount} slots on the mount` : `the mount's ${formatMm(width)} across`,
+			boundedBy:
+				m.slotCount !== undefined && m.slotCount <= byRoom
+					? `${m.slotCount} slots on the mount`
+					: `the mount's ${formatMm(width)} across`,
 			note: `slots of ${formatMm(pitch)} (PCI Express CEM)`
 		});
 	}
@@ -309,7 +410,12 @@ export function roomAt(enclosure: EnclosureDef, at: RoomPositions, cache: Map<st
 					? `to the ${r.against} (the ${formatMm(budget!)} budget)`
 					: `the ${formatMm(budget!)} stack budget`
 				: `to the ${r.against}`;
-			const after = [plate ? `the ${formatMm(plate)} adapter plate` : '', m.standoffMm ? `${formatMm(m.standoffMm)} standoffs` : ''].filter(Boolean).join(' and ');
+			const after = [
+				plate ? `the ${formatMm(plate)} adapter plate` : '',
+				m.standoffMm ? `${formatMm(m.standoffMm)} standoffs` : ''
+			]
+				.filter(Boolean)
+				.join(' and ');
 			figures.push({
 				id: `stack:${m.id}:${cls ?? 'any'}`,
 				kind: 'stack',
@@ -324,15 +430,31 @@ export function roomAt(enclosure: EnclosureDef, at: RoomPositions, cache: Map<st
 }
 
 /** A compartment's free box (after fixed obstacles) and its pump depths per panel (after stacks too). */
-function compartmentFigures(c: { id: string; label: string; box: Box }, inner: Box, fixed: readonly LabelledBox[], reachObstacles: readonly LabelledBox[]): RoomFigure[] {
+function compartmentFigures(
+	c: { id: string; label: string; box: Box },
+	inner: Box,
+	fixed: readonly LabelledBox[],
+	reachObstacles: readonly LabelledBox[]
+): RoomFigure[] {
 	const figures: RoomFigure[] = [];
-	const best = maximalEmptyBoxes(c.box, fixed.map((o) => o.box), 1).boxes.sort(byVolume)[0];
+	const best = maximalEmptyBoxes(
+		c.box,
+		fixed.map((o) => o.box),
+		1
+	).boxes.sort(byVolume)[0];
 	if (!best) {
-		figures.push({ id: `free-box:${c.id}`, kind: 'free-box', label: `${c.label}: free box`, valueMm: null, boundedBy: 'no free room' });
+		figures.push({
+			id: `free-box:${c.id}`,
+			kind: 'free-box',
+			label: `${c.label}: free box`,
+			valueMm: null,
+			boundedBy: 'no free room'
+		});
 		return figures;
 	}
 	const labels = containerLabels(best, inner, '');
-	const side = (f: Face) => labels[f] || faceBound(best, f, fixed, labels) || 'the compartment edge';
+	const side = (f: Face) =>
+		labels[f] || faceBound(best, f, fixed, labels) || 'the compartment edge';
 	const size = boxSize(best);
 	figures.push({
 		id: `free-box:${c.id}`,
@@ -343,7 +465,11 @@ function compartmentFigures(c: { id: string; label: string; box: Box }, inner: B
 		boundedBy: `${side('-x')} to ${side('+x')}, ${side('-y')} to ${side('+y')}, ${side('-z')} to ${side('+z')}`,
 		box: best
 	});
-	const boxes = maximalEmptyBoxes(c.box, reachObstacles.map((o) => o.box), 1).boxes.sort(byVolume);
+	const boxes = maximalEmptyBoxes(
+		c.box,
+		reachObstacles.map((o) => o.box),
+		1
+	).boxes.sort(byVolume);
 	for (const f of ['-x', '+x', '-y', '+y', '-z', '+z'] as const) {
 		const { axis, high } = FACE_AXES[FACE_NAME_OF[f]];
 		const panel = high ? inner.max[axis] : inner.min[axis];
@@ -351,15 +477,24 @@ function compartmentFigures(c: { id: string; label: string; box: Box }, inner: B
 		let deep: Box | null = null;
 		for (const b of boxes) {
 			if (Math.abs((high ? b.max[axis] : b.min[axis]) - panel) > EPSILON_MM) continue;
-			const wide = [0, 1, 2].every((i) => i === axis || b.max[i] - b.min[i] >= PUMP_FOOTPRINT_MM - EPSILON_MM);
+			const wide = [0, 1, 2].every(
+				(i) => i === axis || b.max[i] - b.min[i] >= PUMP_FOOTPRINT_MM - EPSILON_MM
+			);
 			if (!wide) continue;
 			const d = b.max[axis] - b.min[axis];
-			if (!deep || d > deep.max[axis] - deep.min[axis] + EPSILON_MM || (Math.abs(d - (deep.max[axis] - deep.min[axis])) <= EPSILON_MM && byVolume(b, deep) < 0)) deep = b;
+			if (
+				!deep ||
+				d > deep.max[axis] - deep.min[axis] + EPSILON_MM ||
+				(Math.abs(d - (deep.max[axis] - deep.min[axis])) <= EPSILON_MM && byVolume(b, deep) < 0)
+			) {
+				deep = b;
+			}
 		}
 		if (!deep) continue;
 		const far = `${high ? '-' : '+'}${AXES[axis]}` as Face;
 		const edges = containerLabels(deep, inner, '');
-		const bound = edges[far] || faceBound(deep, far, reachObstacles, edges) || 'the compartment edge';
+		const bound =
+			edges[far] || faceBound(deep, far, reachObstacles, edges) || 'the compartment edge';
 		figures.push({
 			id: `pump:${c.id}:${FACE_NAME_OF[f]}`,
 			kind: 'pump-depth',
@@ -376,17 +511,43 @@ function compartmentFigures(c: { id: string; label: string; box: Box }, inner: B
 /** Every row of the enclosure's clearance table; `note` says when there is no allowed position. */
 export function roomTable(enclosure: EnclosureDef): RoomTable {
 	const controls: RoomControl[] = [
-		...enclosure.dividers.map((d) => ({ kind: 'divider' as const, id: d.id, label: d.label, positions: allowedPositions(d) })),
-		...enclosure.brackets.map((b) => ({ kind: 'bracket' as const, id: b.id, label: b.label, positions: allowedPositions(b) }))
+		...enclosure.dividers.map((d) => ({
+			kind: 'divider' as const,
+			id: d.id,
+			label: d.label,
+			positions: allowedPositions(d)
+		})),
+		...enclosure.brackets.map((b) => ({
+			kind: 'bracket' as const,
+			id: b.id,
+			label: b.label,
+			positions: allowedPositions(b)
+		}))
 	];
 	const empty = controls.filter((c) => c.positions.length === 0);
 	if (empty.length) {
-		return { controls, moving: [], rows: [], note: `${empty.map((c) => c.label).join(', ')} ${empty.length === 1 ? 'has' : 'have'} no allowed position, so there is no room to list.` };
+		return {
+			controls,
+			moving: [],
+			rows: [],
+			note: `${empty.map((c) => c.label).join(', ')} ${empty.length === 1 ? 'has' : 'have'} no allowed position, so there is no room to list.`
+		};
 	}
 	const moving = controls.filter((c) => c.positions.length > 1);
 	const settingsList: RoomSetting[][] = [];
-	const base = controls.map((c) => ({ kind: c.kind, id: c.id, label: c.label, offsetMm: c.positions[0].offsetMm, positionLabel: c.positions[0].label }));
-	const withPos = (set: RoomSetting[], c: RoomControl, p: AllowedPosition) => set.map((s) => (s.kind === c.kind && s.id === c.id ? { ...s, offsetMm: p.offsetMm, positionLabel: p.label } : s));
+	const base = controls.map((c) => ({
+		kind: c.kind,
+		id: c.id,
+		label: c.label,
+		offsetMm: c.positions[0].offsetMm,
+		positionLabel: c.positions[0].label
+	}));
+	const withPos = (set: RoomSetting[], c: RoomControl, p: AllowedPosition) =>
+		set.map((s) =>
+			s.kind === c.kind && s.id === c.id
+				? { ...s, offsetMm: p.offsetMm, positionLabel: p.label }
+				: s
+		);
 	let note: string | null = null;
 	if (moving.length <= 2) {
 		let sets: RoomSetting[][] = [base];
@@ -399,7 +560,9 @@ export function roomTable(enclosure: EnclosureDef): RoomTable {
 	} else {
 		note = `${moving.length} controls move: each one's positions are listed with the others at their first position.`;
 		settingsList.push(base);
-		for (const c of moving) for (const p of c.positions.slice(1)) settingsList.push(withPos(base, c, p));
+		for (const c of moving) {
+			for (const p of c.positions.slice(1)) settingsList.push(withPos(base, c, p));
+		}
 	}
 	if (settingsList.length > MAX_ROOM_ROWS) {
 		note = `${note ? `${note} ` : ''}Only the first ${MAX_ROOM_ROWS} of ${settingsList.length} combinations are listed.`;
@@ -408,7 +571,9 @@ export function roomTable(enclosure: EnclosureDef): RoomTable {
 	const cache = new Map<string, RoomFigure[]>();
 	const rows = settingsList.map((settings) => {
 		const at: RoomPositions = { dividerPositions: {}, bracketOffsets: {} };
-		for (const s of settings) (s.kind === 'divider' ? at.dividerPositions : at.bracketOffsets)[s.id] = s.offsetMm;
+		for (const s of settings) {
+			(s.kind === 'divider' ? at.dividerPositions : at.bracketOffsets)[s.id] = s.offsetMm;
+		}
 		const key = settings
 			.filter((s) => moving.some((m) => m.kind === s.kind && m.id === s.id))
 			.map((s) => `${s.id}=${s.offsetMm}`)
@@ -419,7 +584,11 @@ export function roomTable(enclosure: EnclosureDef): RoomTable {
 }
 
 /** The row of a table for the offsets a scene uses (controls left out take their first position). */
-export function roomRowFor(table: RoomTable, dividerPositions: Record<string, number>, bracketOffsets: Record<string, number>): RoomRow | null {
+export function roomRowFor(
+	table: RoomTable,
+	dividerPositions: Record<string, number>,
+	bracketOffsets: Record<string, number>
+): RoomRow | null {
 	return (
 		table.rows.find((r) =>
 			r.settings.every((s) => {
@@ -440,7 +609,9 @@ export function checkRoomPositions(enclosure: EnclosureDef, at: RoomPositions): 
 		for (const [id, offset] of Object.entries(given)) {
 			const def = list.find((d) => d.id === id);
 			if (!def) throw new SceneError(`${key}.${id}`, 'No such control in this enclosure');
-			if (!allowedPositions(def).some((p) => Math.abs(p.offsetMm - offset) <= EPSILON_MM)) throw new SceneError(`${key}.${id}`, `${offset} mm is not an allowed position`);
+			if (!allowedPositions(def).some((p) => Math.abs(p.offsetMm - offset) <= EPSILON_MM)) {
+				throw new SceneError(`${key}.${id}`, `${offset} mm is not an allowed position`);
+			}
 		}
 	}
 }

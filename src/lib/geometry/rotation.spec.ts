@@ -8,7 +8,10 @@ import type { Box, Rotation, Vec3 } from './schema';
 
 /** three.js Box3, the oracle, from and to engine boxes. */
 const toBox3 = (box: Box) => new Box3(new Vector3(...box.min), new Vector3(...box.max));
-const fromBox3 = (b: Box3): Box => ({ min: [b.min.x, b.min.y, b.min.z], max: [b.max.x, b.max.y, b.max.z] });
+const fromBox3 = (b: Box3): Box => ({
+	min: [b.min.x, b.min.y, b.min.z],
+	max: [b.max.x, b.max.y, b.max.z]
+});
 
 /** X first, then Y, then Z: M = Rz · Ry · Rx. */
 function threeMatrix(r: Rotation): Matrix4 {
@@ -20,7 +23,11 @@ function threeMatrix(r: Rotation): Matrix4 {
 }
 
 const round = (v: number) => Math.round(v * 1e6) / 1e6 + 0;
-const rotationArb = fc.record({ x: fc.integer({ min: 0, max: 3 }), y: fc.integer({ min: 0, max: 3 }), z: fc.integer({ min: 0, max: 3 }) });
+const rotationArb = fc.record({
+	x: fc.integer({ min: 0, max: 3 }),
+	y: fc.integer({ min: 0, max: 3 }),
+	z: fc.integer({ min: 0, max: 3 })
+});
 const pointArb = fc.tuple(gridMm(-200, 200), gridMm(-200, 200), gridMm(-200, 200));
 
 describe('quarter turns', () => {
@@ -28,7 +35,9 @@ describe('quarter turns', () => {
 		fc.assert(
 			fc.property(rotationArb, pointArb, (r, p) => {
 				const v = new Vector3(...p).applyMatrix4(threeMatrix(r));
-				expect(rotatePoint(rotationMap(r), p).map((c) => c + 0)).toEqual([v.x, v.y, v.z].map(round));
+				expect(rotatePoint(rotationMap(r), p).map((c) => c + 0)).toEqual(
+					[v.x, v.y, v.z].map(round)
+				);
 			}),
 			{ numRuns: 1000 }
 		);
@@ -39,7 +48,9 @@ describe('quarter turns', () => {
 			fc.property(rotationArb, boxArb(-100, 100, 80), (r, box) => {
 				const expected = fromBox3(toBox3(box).applyMatrix4(threeMatrix(r)));
 				const got = rotateBox(rotationMap(r), box);
-				expect([...got.min, ...got.max].map((c) => c + 0)).toEqual([...expected.min, ...expected.max].map(round));
+				expect([...got.min, ...got.max].map((c) => c + 0)).toEqual(
+					[...expected.min, ...expected.max].map(round)
+				);
 			}),
 			{ numRuns: 1000 }
 		);

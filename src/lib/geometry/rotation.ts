@@ -46,11 +46,7 @@ export function rotationMap(rotation: Rotation): AxisMap {
 }
 
 export function rotatePoint(map: AxisMap, p: Vec3): Vec3 {
-	return [
-		map.sign[0] * p[map.from[0]],
-		map.sign[1] * p[map.from[1]],
-		map.sign[2] * p[map.from[2]]
-	];
+	return [map.sign[0] * p[map.from[0]], map.sign[1] * p[map.from[1]], map.sign[2] * p[map.from[2]]];
 }
 
 export function rotateBox(map: AxisMap, box: Box): Box {

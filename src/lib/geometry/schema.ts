@@ -35,15 +35,13 @@ const wattsSchema = z.number({ error: 'Must be a finite number' }).min(0).max(10
 export const vec3Schema = z.tuple([coordMm, coordMm, coordMm]);
 export type Vec3 = [number, number, number];
 
-export const boxSchema = z
-	.object({ min: vec3Schema, max: vec3Schema })
-	.superRefine((box, ctx) => {
-		for (let i = 0; i < 3; i++) {
-			if (!(box.max[i] > box.min[i])) {
-				ctx.addIssue({ code: 'custom', path: ['max', i], message: 'Must be greater than min' });
-			}
+export const boxSchema = z.object({ min: vec3Schema, max: vec3Schema }).superRefine((box, ctx) => {
+	for (let i = 0; i < 3; i++) {
+		if (!(box.max[i] > box.min[i])) {
+			ctx.addIssue({ code: 'custom', path: ['max', i], message: 'Must be greater than min' });
 		}
-	});
+	}
+});
 export type Box = { min: Vec3; max: Vec3 };
 
 export const axisSchema = z.enum(['x', 'y', 'z']);
@@ -381,12 +379,20 @@ function checkPlacements(scene: SceneShape, parts: Map<string, PartDef>, ctx: Re
 	scene.placements.forEach((p, i) => {
 		const part = parts.get(p.partId);
 		if (!part) {
-			ctx.addIssue({ code: 'custom', path: ['placements', i, 'partId'], message: 'No part with this id' });
+			ctx.addIssue({
+				code: 'custom',
+				path: ['placements', i, 'partId'],
+				message: 'No part with this id'
+			});
 		} else {
 			boxes += part.bodies.length + part.keepouts.length;
 		}
 		if (p.mountId !== undefined && !mounts.has(p.mountId)) {
-			ctx.addIssue({ code: 'custom', path: ['placements', i, 'mountId'], message: 'No mount with this id' });
+			ctx.addIssue({
+				code: 'custom',
+				path: ['placements', i, 'mountId'],
+				message: 'No mount with this id'
+			});
 		}
 	});
 	if (boxes > MAX_BOXES) {

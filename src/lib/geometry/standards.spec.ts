@@ -17,18 +17,39 @@ describe('expansion-slot pitch 20.32 mm (PCI Express CEM spec; 0.8 in, inch = 25
 	it.each([
 		['4 slots', '3 slots'],
 		['3 slots', '2 slots']
-	] as const)('moving the demo spine from %s to %s changes the two compartments by ±20.32 mm', (from, to) => {
-		const e = demoEnclosure();
-		const at = (label: keyof typeof DEMO_SPINE_OFFSETS) => ({ bulkhead: 64, spine: DEMO_SPINE_OFFSETS[label] });
-		const cpu = (l: keyof typeof DEMO_SPINE_OFFSETS) => sizeOf(e, at(l), 'bulkhead.high+spine.low')[0];
-		const card = (l: keyof typeof DEMO_SPINE_OFFSETS) => sizeOf(e, at(l), 'bulkhead.high+spine.high')[0];
-		expect(cpu(to) - cpu(from)).toBeCloseTo(SLOT_PITCH_MM, 9);
-		expect(card(to) - card(from)).toBeCloseTo(-SLOT_PITCH_MM, 9);
-	});
+	] as const)(
+		'moving the demo spine from %s to %s changes the two compartments by ±20.32 mm',
+		(from, to) => {
+			const e = demoEnclosure();
+			const at = (label: keyof typeof DEMO_SPINE_OFFSETS) => ({
+				bulkhead: 64,
+				spine: DEMO_SPINE_OFFSETS[label]
+			});
+			const cpu = (l: keyof typeof DEMO_SPINE_OFFSETS) =>
+				sizeOf(e, at(l), 'bulkhead.high+spine.low')[0];
+			const card = (l: keyof typeof DEMO_SPINE_OFFSETS) =>
+				sizeOf(e, at(l), 'bulkhead.high+spine.high')[0];
+			expect(cpu(to) - cpu(from)).toBeCloseTo(SLOT_PITCH_MM, 9);
+			expect(card(to) - card(from)).toBeCloseTo(-SLOT_PITCH_MM, 9);
+		}
+	);
 
 	it('a range divider stepping one slot at a time moves exactly one pitch per step', () => {
 		const e = plainEnclosure([200, 300, 200], 2, {
-			dividers: [{ id: 'd', label: 'D', axis: 'x', thicknessMm: 1.6, positions: { kind: 'range', minMm: 20, maxMm: 20 + 6 * SLOT_PITCH_MM, stepMm: SLOT_PITCH_MM } }]
+			dividers: [
+				{
+					id: 'd',
+					label: 'D',
+					axis: 'x',
+					thicknessMm: 1.6,
+					positions: {
+						kind: 'range',
+						minMm: 20,
+						maxMm: 20 + 6 * SLOT_PITCH_MM,
+						stepMm: SLOT_PITCH_MM
+					}
+				}
+			]
 		});
 		for (let k = 0; k < 6; k++) {
 			const low = (o: number) => sizeOf(e, { d: o }, 'd.low')[0];
@@ -45,7 +66,16 @@ describe('Mini-ITX board, 170 × 170 mm (Mini-ITX form factor addendum to the mi
 	const trayScene = (marginMm: number) =>
 		makeScene({
 			enclosure: plainEnclosure([170, 40, 170], 2, {
-				mounts: [{ id: 'tray', label: 'Tray', kind: 'board-tray', face: 'bottom', region: { min: [0, 0, 0], max: [170, 40, 170] }, accepts: ['Mini-ITX'] }]
+				mounts: [
+					{
+						id: 'tray',
+						label: 'Tray',
+						kind: 'board-tray',
+						face: 'bottom',
+						region: { min: [0, 0, 0], max: [170, 40, 170] },
+						accepts: ['Mini-ITX']
+					}
+				]
 			}),
 			parts: [standardPart('std-mini-itx')],
 			placements: [{ id: 'board', partId: 'std-mini-itx', position: [0, 0, 0], mountId: 'tray' }],
@@ -70,7 +100,16 @@ describe('Mini-ITX board, 170 × 170 mm (Mini-ITX form factor addendum to the mi
 function sfxBay(partId: string, mountId = 'bay') {
 	return makeScene({
 		enclosure: plainEnclosure([125, 63.5, 100], 50, {
-			mounts: [{ id: mountId, label: 'SFX bay', kind: 'psu-bay', face: 'bottom', region: { min: [0, 0, 0], max: [125, 63.5, 100] }, accepts: ['SFX'] }]
+			mounts: [
+				{
+					id: mountId,
+					label: 'SFX bay',
+					kind: 'psu-bay',
+					face: 'bottom',
+					region: { min: [0, 0, 0], max: [125, 63.5, 100] },
+					accepts: ['SFX']
+				}
+			]
 		}),
 		parts: [standardPart(partId)],
 		placements: [{ id: 'supply', partId, position: [0, 0, 0], mountId }],
@@ -95,11 +134,22 @@ describe('power supplies in an SFX bay', () => {
 		expect(byWall['wall:back'].depthMm[2]).toBe(40);
 		// The supply already touches the left, bottom and front panels: no move clears it, the bay
 		// is too small on every axis.
-		expect(byWall['wall:right']).toMatchObject({ moves: [], clearingMove: null, noMove: 'No move along width clears this; the part is wider than the space (150.0\u2009mm with its keep-outs, 125.0\u2009mm between what bounds it).' });
-		expect(byWall['wall:top'].noMove).toMatch(/^No move along height clears this; the part is taller than the space/);
-		expect(byWall['wall:back'].noMove).toMatch(/^No move along depth clears this; the part is deeper than the space/);
+		expect(byWall['wall:right']).toMatchObject({
+			moves: [],
+			clearingMove: null,
+			noMove:
+				'No move along width clears this; the part is wider than the space (150.0\u2009mm with its keep-outs, 125.0\u2009mm between what bounds it).'
+		});
+		expect(byWall['wall:top'].noMove).toMatch(
+			/^No move along height clears this; the part is taller than the space/
+		);
+		expect(byWall['wall:back'].noMove).toMatch(
+			/^No move along depth clears this; the part is deeper than the space/
+		);
 		expect(report.parts[0]).toMatchObject({ status: 'collides', outsideFaces: ['+x', '+y', '+z'] });
-		expect(report.mounts[0].overflow).toEqual([{ placementId: 'supply', overflowMm: { '+x': 25, '+y': 22.5, '+z': 40 } }]);
+		expect(report.mounts[0].overflow).toEqual([
+			{ placementId: 'supply', overflowMm: { '+x': 25, '+y': 22.5, '+z': 40 } }
+		]);
 		expect(report.mounts[0].unaccepted).toEqual(['supply']);
 	});
 
@@ -108,21 +158,32 @@ describe('power supplies in an SFX bay', () => {
 		expect(report.overlaps).toHaveLength(1);
 		expect(report.overlaps[0]).toMatchObject({ b: { id: 'wall:back' }, depthMm: [125, 63.5, 30] });
 		// 30 mm forward would push it 30 mm through the front panel: no move clears it.
-		expect(report.overlaps[0]).toMatchObject({ clearingMove: null, noMove: 'No move along depth clears this; the part is deeper than the space (130.0\u2009mm with its keep-outs, 100.0\u2009mm between what bounds it).' });
-		expect(report.mounts[0].overflow).toEqual([{ placementId: 'supply', overflowMm: { '+z': 30 } }]);
+		expect(report.overlaps[0]).toMatchObject({
+			clearingMove: null,
+			noMove:
+				'No move along depth clears this; the part is deeper than the space (130.0\u2009mm with its keep-outs, 100.0\u2009mm between what bounds it).'
+		});
+		expect(report.mounts[0].overflow).toEqual([
+			{ placementId: 'supply', overflowMm: { '+z': 30 } }
+		]);
 	});
 
 	it.each([
 		['std-sfx', {}],
 		['std-atx-psu', { '+x': 22.5, '+y': 25, '+z': 40 }],
 		['std-sfx-l', { '+z': 30 }]
-	] as const)('in the demo’s bay, turned on its side: %s reaches past the bay by %o', (partId, overflow) => {
-		const input = demoSceneInput();
-		input.parts = [...input.parts!, standardPart(partId)];
-		input.placements = input.placements!.map((p) => (p.id === 'psu' ? { ...p, partId } : p));
-		const bay = checkScene(makeScene(input)).mounts.find((m) => m.mountId === 'psu')!;
-		expect(bay.overflow).toEqual(Object.keys(overflow).length ? [{ placementId: 'psu', overflowMm: overflow }] : []);
-	});
+	] as const)(
+		'in the demo’s bay, turned on its side: %s reaches past the bay by %o',
+		(partId, overflow) => {
+			const input = demoSceneInput();
+			input.parts = [...input.parts!, standardPart(partId)];
+			input.placements = input.placements!.map((p) => (p.id === 'psu' ? { ...p, partId } : p));
+			const bay = checkScene(makeScene(input)).mounts.find((m) => m.mountId === 'psu')!;
+			expect(bay.overflow).toEqual(
+				Object.keys(overflow).length ? [{ placementId: 'psu', overflowMm: overflow }] : []
+			);
+		}
+	);
 });
 
 describe('fans (common practice: 120 and 140 mm square, 25 mm standard, about 15 mm slim)', () => {
@@ -136,5 +197,4 @@ describe('fans (common practice: 120 and 140 mm square, 25 mm standard, about 15
 		expect(part.bodies[0].box.max).toEqual(size);
 		expect(part.source).toMatch(/common practice/i);
 	});
-
 });

@@ -7,7 +7,19 @@
 import { FACES, compareText, type Face } from './box';
 import { bracketBoxAt, cutCompartments, dividerBoxAt, slabsFor } from './enclosure';
 import { SceneError } from './errors';
-import { buildModel, emptyTally, interferenceUnion, slideIndex, statusCounts, stepCounts, tallyMoving, tallyStatic, writeFlat, type Model, type Tally } from './model';
+import {
+	buildModel,
+	emptyTally,
+	interferenceUnion,
+	slideIndex,
+	statusCounts,
+	stepCounts,
+	tallyMoving,
+	tallyStatic,
+	writeFlat,
+	type Model,
+	type Tally
+} from './model';
 import { allowedIndex, allowedPositions, type AllowedPosition } from './positions';
 import { resolveScene } from './resolve';
 import type { Box, BracketDef, DividerDef, Scene } from './schema';
@@ -34,11 +46,21 @@ function movingOf(scene: Scene, model: Model, control: SweepControl, path: strin
 	if (control.kind === 'divider') {
 		const def = enclosure.dividers.find((d) => d.id === control.id);
 		if (!def) throw new SceneError(`${path}.id`, `No divider with id ${control.id}`);
-		return { control, def, index: model.indexOf.get(`divider:${def.id}`)!, boxAt: (o) => dividerBoxAt(enclosure, def, o) };
+		return {
+			control,
+			def,
+			index: model.indexOf.get(`divider:${def.id}`)!,
+			boxAt: (o) => dividerBoxAt(enclosure, def, o)
+		};
 	}
 	const def = enclosure.brackets.find((b) => b.id === control.id);
 	if (!def) throw new SceneError(`${path}.id`, `No bracket with id ${control.id}`);
-	return { control, def, index: model.indexOf.get(`bracket:${def.id}`)!, boxAt: (o) => bracketBoxAt(def, o) };
+	return {
+		control,
+		def,
+		index: model.indexOf.get(`bracket:${def.id}`)!,
+		boxAt: (o) => bracketBoxAt(def, o)
+	};
 }
 
 function positionsOf(moving: Moving, given: number[] | undefined, path: string): AllowedPosition[] {
@@ -51,11 +73,16 @@ function positionsOf(moving: Moving, given: number[] | undefined, path: string):
 	});
 }
 
-function gapSlots(model: Model, gaps: GapRequest[] | undefined): { request: GapRequest; slot: number }[] {
+function gapSlots(
+	model: Model,
+	gaps: GapRequest[] | undefined
+): { request: GapRequest; slot: number }[] {
 	const byId = new Map(model.resolved.placements.map((rp, p) => [rp.placement.id, p]));
 	return (gaps ?? []).map((request, i) => {
 		const p = byId.get(request.placementId);
-		if (p === undefined) throw new SceneError(`gaps[${i}].placementId`, `No placement with id ${request.placementId}`);
+		if (p === undefined) {
+			throw new SceneError(`gaps[${i}].placementId`, `No placement with id ${request.placementId}`);
+		}
 		const f = FACES.indexOf(request.face as Face);
 		if (f < 0) throw new SceneError(`gaps[${i}].face`, `No face ${request.face}`);
 		return { request, slot: p * 6 + f };
@@ -66,7 +93,9 @@ function gapSlots(model: Model, gaps: GapRequest[] | undefined): { request: GapR
 function prepare(scene: Scene, controls: SweepControl[], gaps: GapRequest[] | undefined) {
 	const resolved = resolveScene(scene);
 	const model = buildModel(scene, resolved);
-	const moving = controls.map((c, i) => movingOf(scene, model, c, controls.length === 1 ? 'control' : `control${'AB'[i]}`));
+	const moving = controls.map((c, i) =>
+		movingOf(scene, model, c, controls.length === 1 ? 'control' : `control${'AB'[i]}`)
+	);
 	const included = new Uint8Array(model.boxes.length).fill(1);
 	for (const m of moving) included[m.index] = 0;
 	const base: Tally = tallyStatic(model, included).tally;
@@ -85,7 +114,16 @@ function prepare(scene: Scene, controls: SweepControl[], gaps: GapRequest[] | un
 		moving,
 		evaluate(offsets: number[]): SweepMetrics {
 			moving.forEach((m, k) => writeFlat(movingFlat, k, m.boxAt(offsets[k])));
-			const tally = tallyMoving(model, base, indexes, movingFlat, slides, scene.marginMm, reported, scratch);
+			const tally = tallyMoving(
+				model,
+				base,
+				indexes,
+				movingFlat,
+				slides,
+				scene.marginMm,
+				reported,
+				scratch
+			);
 			const counts = stepCounts(model, tally, scene.marginMm, baseStatus);
 			let compartments = resolved.compartments;
 			if (movesDivider) {
@@ -115,14 +153,21 @@ function prepare(scene: Scene, controls: SweepControl[], gaps: GapRequest[] | un
 }
 
 /** Runs of consecutive points (already in offset order) with no collision. */
-export function feasibleIntervals(points: readonly { offsetMm: number; collisions: number }[]): FeasibleInterval[] {
+export function feasibleIntervals(
+	points: readonly { offsetMm: number; collisions: number }[]
+): FeasibleInterval[] {
 	const out: FeasibleInterval[] = [];
 	let start = -1;
 	points.forEach((p, i) => {
 		if (p.collisions === 0 && start < 0) start = i;
 		if (start >= 0 && (p.collisions > 0 || i === points.length - 1)) {
 			const end = p.collisions > 0 ? i - 1 : i;
-			out.push({ fromMm: points[start].offsetMm, toMm: points[end].offsetMm, fromIndex: start, toIndex: end });
+			out.push({
+				fromMm: points[start].offsetMm,
+				toMm: points[end].offsetMm,
+				fromIndex: start,
+				toIndex: end
+			});
 			start = -1;
 		}
 	});
@@ -137,7 +182,11 @@ export function sweep(scene: Scene, options: SweepOptions): SweepResult {
 	const prepared = prepare(scene, [options.control], options.gaps);
 	const positions = positionsOf(prepared.moving[0], options.positions, 'positions');
 	const points: SweepPoint[] = positions
-		.map((pos) => ({ offsetMm: pos.offsetMm, label: pos.label, ...prepared.evaluate([pos.offsetMm]) }))
+		.map((pos) => ({
+			offsetMm: pos.offsetMm,
+			label: pos.label,
+			...prepared.evaluate([pos.offsetMm])
+		}))
 		.sort((a, b) => a.offsetMm - b.offsetMm || compareText(a.label, b.label));
 	return { control: options.control, points, feasibleIntervals: feasibleIntervals(points) };
 }
@@ -154,8 +203,12 @@ export function sweepGrid(
 	}
 	const prepared = prepare(scene, [controlA, controlB], options.gaps);
 	const byOffset = (a: AllowedPosition, b: AllowedPosition) => a.offsetMm - b.offsetMm;
-	const positionsA = positionsOf(prepared.moving[0], options.positionsA, 'positionsA').sort(byOffset);
-	const positionsB = positionsOf(prepared.moving[1], options.positionsB, 'positionsB').sort(byOffset);
+	const positionsA = positionsOf(prepared.moving[0], options.positionsA, 'positionsA').sort(
+		byOffset
+	);
+	const positionsB = positionsOf(prepared.moving[1], options.positionsB, 'positionsB').sort(
+		byOffset
+	);
 	const cells = positionsA.flatMap((a) =>
 		positionsB.map((b) => ({
 			offsetAMm: a.offsetMm,

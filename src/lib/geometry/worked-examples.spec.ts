@@ -15,7 +15,20 @@ describe('a two-slot card flush against a divider at a slot offset (PCI Express 
 	const scene = (k: number) =>
 		makeScene({
 			enclosure: plainEnclosure([200, 150, 200], 2, {
-				dividers: [{ id: 'spine', label: 'Spine', axis: 'x', thicknessMm: 2, positions: { kind: 'range', minMm: 40, maxMm: 40 + 5 * SLOT_PITCH_MM, stepMm: SLOT_PITCH_MM } }]
+				dividers: [
+					{
+						id: 'spine',
+						label: 'Spine',
+						axis: 'x',
+						thicknessMm: 2,
+						positions: {
+							kind: 'range',
+							minMm: 40,
+							maxMm: 40 + 5 * SLOT_PITCH_MM,
+							stepMm: SLOT_PITCH_MM
+						}
+					}
+				]
 			}),
 			dividerPositions: { spine: 40 + k * SLOT_PITCH_MM },
 			parts: [card],
@@ -37,21 +50,35 @@ describe('a two-slot card flush against a divider at a slot offset (PCI Express 
 		const report = checkScene(scene(2));
 		expect(report.overlaps).toHaveLength(1);
 		const [o] = report.overlaps;
-		expect(o).toMatchObject({ a: { id: 'card/body' }, b: { id: 'divider:spine' }, kind: 'collides', axis: 'x' });
+		expect(o).toMatchObject({
+			a: { id: 'card/body' },
+			b: { id: 'divider:spine' },
+			kind: 'collides',
+			axis: 'x'
+		});
 		expect(o.depthMm[0]).toBeCloseTo(2, 9);
 		// The card to just past the divider: 82.64 − 62.32 = 20.32 mm right (102.96 + 20.32 = 123.28 ≤ 200);
 		// the divider back to 60.32: 20.32 mm, one step.
 		expect(o.moves).toHaveLength(2);
 		expect(o.moves[0]).toMatchObject({ targetId: 'card', targetKind: 'part', axis: 'x', sign: 1 });
 		expect(o.moves[0].distanceMm).toBeCloseTo(SLOT_PITCH_MM, 9);
-		expect(o.moves[1]).toMatchObject({ targetId: 'spine', targetKind: 'divider', axis: 'x', sign: -1, steps: 1 });
+		expect(o.moves[1]).toMatchObject({
+			targetId: 'spine',
+			targetKind: 'divider',
+			axis: 'x',
+			sign: -1,
+			steps: 1
+		});
 		expect(o.moves[1].toOffsetMm).toBeCloseTo(40 + SLOT_PITCH_MM, 9);
 	});
 });
 
 /** The demo's front radiator mount: 64 mm budget, 1 mm adapter plate for 240 radiators (common practice). */
 function stack(radiatorMm: number, fanMm: 15 | 25, marginMm: number) {
-	const rad: PartDef = blockPart(`rad-240-${radiatorMm}`, [124, 275, radiatorMm], { category: 'radiator', specs: { radiatorClass: 240, radiatorThicknessMm: radiatorMm } });
+	const rad: PartDef = blockPart(`rad-240-${radiatorMm}`, [124, 275, radiatorMm], {
+		category: 'radiator',
+		specs: { radiatorClass: 240, radiatorThicknessMm: radiatorMm }
+	});
 	const fan = standardPart(`std-fan-120-${fanMm}`);
 	return makeScene({
 		enclosure: demoEnclosure(),
@@ -70,10 +97,20 @@ describe('radiator stacks on a 64 mm mount with a 1 mm plate (common practice fi
 	it('36 mm radiator + 25 mm fans: 64 − 1 − 36 − 25 = 2 mm spare; the plate is a box the radiator rests on', () => {
 		const report = checkScene(stack(36, 25, 2));
 		const mount = report.mounts.find((m) => m.mountId === 'radiator')!;
-		expect(mount).toMatchObject({ plateMm: 1, usedMm: 62, spareMm: 2, status: 'clear', problems: [] });
+		expect(mount).toMatchObject({
+			plateMm: 1,
+			usedMm: 62,
+			spareMm: 2,
+			status: 'clear',
+			problems: []
+		});
 		expect(report.overlaps).toEqual([]);
 		const rad = report.parts.find((p) => p.placementId === 'radiator')!;
-		expect(rad.gaps['-z']).toMatchObject({ gapMm: 0, held: true, against: { id: 'plate:radiator' } });
+		expect(rad.gaps['-z']).toMatchObject({
+			gapMm: 0,
+			held: true,
+			against: { id: 'plate:radiator' }
+		});
 		// The fans' room to the bulkhead is the spare: 64 − (1 + 36 + 25) = 2 mm.
 		const fan = report.parts.find((p) => p.placementId === 'fan-1')!;
 		expect(fan.gaps['+z']).toMatchObject({ against: { id: 'divider:bulkhead' } });
@@ -85,7 +122,16 @@ describe('radiator stacks on a 64 mm mount with a 1 mm plate (common practice fi
 		const report = checkScene(stack(45, 25, 2));
 		const mount = report.mounts.find((m) => m.mountId === 'radiator')!;
 		expect(mount).toMatchObject({ usedMm: 71, spareMm: -7, status: 'collides' });
-		expect(mount.problems).toEqual([{ mountId: 'radiator', label: 'Front radiator mount', kind: 'over-budget', status: 'collides', placementIds: ['fan-1', 'fan-2', 'radiator'], amountMm: 7 }]);
+		expect(mount.problems).toEqual([
+			{
+				mountId: 'radiator',
+				label: 'Front radiator mount',
+				kind: 'over-budget',
+				status: 'collides',
+				placementIds: ['fan-1', 'fan-2', 'radiator'],
+				amountMm: 7
+			}
+		]);
 		for (const p of report.parts) {
 			expect(p.status).toBe('collides');
 			expect(p.mountProblems.map((m) => m.kind)).toEqual(['over-budget']);
@@ -99,9 +145,21 @@ describe('radiator stacks on a 64 mm mount with a 1 mm plate (common practice fi
 
 describe('a body 86 mm deep flush in an 86 mm space with a 20 mm fitting keep-out', () => {
 	const body = blockPart('block', [60, 50, 86], {
-		keepouts: [{ id: 'fittings', label: 'fittings', kind: 'fitting', severity: 'error', box: { min: [10, 10, 86], max: [50, 40, 106] } }]
+		keepouts: [
+			{
+				id: 'fittings',
+				label: 'fittings',
+				kind: 'fitting',
+				severity: 'error',
+				box: { min: [10, 10, 86], max: [50, 40, 106] }
+			}
+		]
 	});
-	const scene = makeScene({ enclosure: plainEnclosure([120, 100, 86] as Vec3), parts: [body], placements: [{ id: 'block', partId: 'block', position: [30, 0, 0] }] });
+	const scene = makeScene({
+		enclosure: plainEnclosure([120, 100, 86] as Vec3),
+		parts: [body],
+		placements: [{ id: 'block', partId: 'block', position: [30, 0, 0] }]
+	});
 
 	it('is blocked, and no move along depth clears it: 86 + 20 = 106 mm in 86 mm', () => {
 		const report = checkScene(scene);
@@ -109,7 +167,16 @@ describe('a body 86 mm deep flush in an 86 mm space with a 20 mm fitting keep-ou
 		expect(report.overlaps).toHaveLength(1);
 		const [o] = report.overlaps;
 		// The keep-out reaches 20 mm past the inside, into the 2 mm back panel.
-		expect(o).toMatchObject({ a: { id: 'block/fittings' }, b: { id: 'wall:back' }, kind: 'blocked', axis: 'z', moves: [], clearingMove: null });
-		expect(o.noMove).toBe('No move along depth clears this; the part is deeper than the space (106.0\u2009mm with its keep-outs, 86.0\u2009mm between what bounds it).');
+		expect(o).toMatchObject({
+			a: { id: 'block/fittings' },
+			b: { id: 'wall:back' },
+			kind: 'blocked',
+			axis: 'z',
+			moves: [],
+			clearingMove: null
+		});
+		expect(o.noMove).toBe(
+			'No move along depth clears this; the part is deeper than the space (106.0\u2009mm with its keep-outs, 86.0\u2009mm between what bounds it).'
+		);
 	});
 });

@@ -9,7 +9,10 @@ export const signUpSchema = z.object({
 
 export const signInSchema = z.object({
 	email,
-	password: z.string({ error: 'Password is required.' }).min(1, 'Password is required.').max(200, 'Password can be at most 200 characters.')
+	password: z
+		.string({ error: 'Password is required.' })
+		.min(1, 'Password is required.')
+		.max(200, 'Password can be at most 200 characters.')
 });
 
 export const resetRequestSchema = z.object({ email });

@@ -73,7 +73,10 @@ export const password = z
 	.string({ error: 'Password is required.' })
 	.min(10, 'Password needs at least 10 characters.')
 	.max(200, 'Password can be at most 200 characters.')
-	.refine((s) => !/^[\p{L}]+$/u.test(s) && !/^\d+$/.test(s), 'Password must not be only letters or only digits.');
+	.refine(
+		(s) => !/^[\p{L}]+$/u.test(s) && !/^\d+$/.test(s),
+		'Password must not be only letters or only digits.'
+	);
 
 export const roleSchema = z.enum(['owner', 'designer', 'client'], {
 	error: 'Role must be owner, designer or client.'

@@ -7,21 +7,50 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { db } from './db';
 import { DEV_TOOL_PATHS } from './dev-tools';
 import { invites, memberships, users } from './db/schema';
-import { SIGN_IN, actionNames, entryKey, routeInventory, rowKeys, runAccessMatrix, to, type MatrixFixture, type MatrixRow, type Visitor } from './testing/access-matrix';
+import {
+	SIGN_IN,
+	actionNames,
+	entryKey,
+	routeInventory,
+	rowKeys,
+	runAccessMatrix,
+	to,
+	type MatrixFixture,
+	type MatrixRow,
+	type Visitor
+} from './testing/access-matrix';
 import { roleOf, sessionCount, uniqueEmail } from './testing/factories';
 import { useApp } from './testing/suite';
 
 const app = useApp();
 
-const everyone = (e: MatrixRow['expect']['owner']): MatrixRow['expect'] => ({ owner: e, designer: e, client: e, outsider: e, anonymous: e });
-const signedIn = (e: MatrixRow['expect']['owner']): MatrixRow['expect'] => ({ owner: e, designer: e, client: e, outsider: e, anonymous: SIGN_IN });
+const everyone = (e: MatrixRow['expect']['owner']): MatrixRow['expect'] => ({
+	owner: e,
+	designer: e,
+	client: e,
+	outsider: e,
+	anonymous: e
+});
+const signedIn = (e: MatrixRow['expect']['owner']): MatrixRow['expect'] => ({
+	owner: e,
+	designer: e,
+	client: e,
+	outsider: e,
+	anonymous: SIGN_IN
+});
 
 const memberCount = async (f: MatrixFixture) => {
-	const [r] = await db.select({ n: count() }).from(memberships).where(eq(memberships.studioId, f.studio.id));
+	const [r] = await db
+		.select({ n: count() })
+		.from(memberships)
+		.where(eq(memberships.studioId, f.studio.id));
 	return r.n;
 };
 const openInvites = async (f: MatrixFixture) => {
-	const [r] = await db.select({ n: count() }).from(invites).where(eq(invites.studioId, f.studio.id));
+	const [r] = await db
+		.select({ n: count() })
+		.from(invites)
+		.where(eq(invites.studioId, f.studio.id));
 	return r.n;
 };
 const actor = (f: MatrixFixture, who: Visitor) => (who === 'anonymous' ? null : f[who]);
@@ -32,12 +61,28 @@ export const accountRows: MatrixRow[] = [
 	{ route: '/signin', method: 'GET', expect: { ...signedIn(to('/builds')), anonymous: 200 } },
 	{ route: '/signup', method: 'GET', expect: { ...signedIn(to('/builds')), anonymous: 200 } },
 	{ route: '/reset', method: 'GET', expect: everyone(200) },
-	{ route: '/reset/[token]', method: 'GET', path: () => '/reset/not-a-live-token', expect: everyone(200) },
+	{
+		route: '/reset/[token]',
+		method: 'GET',
+		path: () => '/reset/not-a-live-token',
+		expect: everyone(200)
+	},
 	{ route: '/check-mail', method: 'GET', expect: everyone(200) },
-	{ route: '/verify/[token]', method: 'GET', path: () => '/verify/not-a-live-token', expect: everyone(200) },
+	{
+		route: '/verify/[token]',
+		method: 'GET',
+		path: () => '/verify/not-a-live-token',
+		expect: everyone(200)
+	},
 	{ route: '/signout', method: 'GET', expect: everyone(to('/')) },
 	// The link is the key: whoever holds it sees which studio invites them.
-	{ route: '/invite/[token]', method: 'GET', path: (f) => `/invite/${f.invite.token}`, expect: everyone(200), showsStudioToLinkHolders: true },
+	{
+		route: '/invite/[token]',
+		method: 'GET',
+		path: (f) => `/invite/${f.invite.token}`,
+		expect: everyone(200),
+		showsStudioToLinkHolders: true
+	},
 	{ route: '/no-such-page', method: 'GET', expect: everyone(404) },
 
 	// Pages for signed-in people; studio pages act on the visitor's active studio.
@@ -45,38 +90,90 @@ export const accountRows: MatrixRow[] = [
 	{ route: '/studios', method: 'GET', expect: signedIn(200) },
 	{ route: '/studios/new', method: 'GET', expect: signedIn(200) },
 	{ route: '/account', method: 'GET', expect: signedIn(200) },
-	{ route: '/studio/members', method: 'GET', expect: { owner: 200, designer: 403, client: 403, outsider: 200, anonymous: SIGN_IN } },
+	{
+		route: '/studio/members',
+		method: 'GET',
+		expect: { owner: 200, designer: 403, client: 403, outsider: 200, anonymous: SIGN_IN }
+	},
 	// The outgoing-mail page is gone (the local mail catcher shows its own log): nobody reads it.
 	{ route: '/dev/mail', method: 'GET', expect: everyone(404) },
 
 	// Form actions.
 	// A signed-in visitor is sent on to the builds whatever they post.
-	{ route: '/signin', method: 'POST', form: (f) => ({ email: f.owner.email, password: 'not-the-password-9' }), expect: { ...signedIn(to('/builds')), anonymous: 400 } },
+	{
+		route: '/signin',
+		method: 'POST',
+		form: (f) => ({ email: f.owner.email, password: 'not-the-password-9' }),
+		expect: { ...signedIn(to('/builds')), anonymous: 400 }
+	},
 	// Sign-up never signs in (the address is confirmed by mail first), so it answers everyone alike.
-	{ route: '/signup', method: 'POST', form: () => ({ name: 'Matrix Person', email: uniqueEmail('matrix'), password: 'long-enough-1', next: '/account' }), expect: everyone(to('/check-mail')) },
-	{ route: '/verify/[token]', method: 'POST', path: () => '/verify/not-a-live-token', expect: everyone(400) },
-	{ route: '/reset', method: 'POST', form: () => ({ email: uniqueEmail('nobody') }), expect: everyone(200) },
-	{ route: '/reset/[token]', method: 'POST', path: () => '/reset/not-a-live-token', form: () => ({ password: 'fresh-password-2' }), expect: everyone(400) },
+	{
+		route: '/signup',
+		method: 'POST',
+		form: () => ({
+			name: 'Matrix Person',
+			email: uniqueEmail('matrix'),
+			password: 'long-enough-1',
+			next: '/account'
+		}),
+		expect: everyone(to('/check-mail'))
+	},
+	{
+		route: '/verify/[token]',
+		method: 'POST',
+		path: () => '/verify/not-a-live-token',
+		expect: everyone(400)
+	},
+	{
+		route: '/reset',
+		method: 'POST',
+		form: () => ({ email: uniqueEmail('nobody') }),
+		expect: everyone(200)
+	},
+	{
+		route: '/reset/[token]',
+		method: 'POST',
+		path: () => '/reset/not-a-live-token',
+		form: () => ({ password: 'fresh-password-2' }),
+		expect: everyone(400)
+	},
 	{
 		route: '/signout',
 		method: 'POST',
 		expect: everyone(to('/')),
-		changes: { by: ['owner', 'designer', 'client', 'outsider'], check: async (f, who) => !!actor(f, who) && (await sessionCount(f[who as 'owner'].id)) === 0 }
+		changes: {
+			by: ['owner', 'designer', 'client', 'outsider'],
+			check: async (f, who) => !!actor(f, who) && (await sessionCount(f[who as 'owner'].id)) === 0
+		}
 	},
 	{
 		route: '/account',
 		method: 'POST',
 		action: 'everywhere',
 		expect: signedIn(to('/signin')),
-		changes: { by: ['owner', 'designer', 'client', 'outsider'], check: async (f, who) => !!actor(f, who) && (await sessionCount(f[who as 'owner'].id)) === 0 }
+		changes: {
+			by: ['owner', 'designer', 'client', 'outsider'],
+			check: async (f, who) => !!actor(f, who) && (await sessionCount(f[who as 'owner'].id)) === 0
+		}
 	},
-	{ route: '/studios/new', method: 'POST', form: () => ({ name: 'Matrix Bench' }), expect: signedIn(to('/builds')) },
+	{
+		route: '/studios/new',
+		method: 'POST',
+		form: () => ({ name: 'Matrix Bench' }),
+		expect: signedIn(to('/builds'))
+	},
 	{
 		route: '/studios',
 		method: 'POST',
 		action: 'switch',
 		form: (f) => ({ studioId: f.studio.id }),
-		expect: { owner: to('/builds'), designer: to('/builds'), client: to('/builds'), outsider: 404, anonymous: SIGN_IN },
+		expect: {
+			owner: to('/builds'),
+			designer: to('/builds'),
+			client: to('/builds'),
+			outsider: 404,
+			anonymous: SIGN_IN
+		},
 		changes: {
 			by: [],
 			// The outsider's choice must not move to a studio they are not in.
@@ -101,7 +198,10 @@ export const accountRows: MatrixRow[] = [
 		action: 'role',
 		form: (f) => ({ userId: f.designer.id, role: 'owner' }),
 		expect: { owner: 200, designer: 403, client: 403, outsider: 404, anonymous: SIGN_IN },
-		changes: { by: ['owner'], check: async (f) => (await roleOf(f.studio.id, f.designer.id)) === 'owner' }
+		changes: {
+			by: ['owner'],
+			check: async (f) => (await roleOf(f.studio.id, f.designer.id)) === 'owner'
+		}
 	},
 	{
 		route: '/studio/members',
@@ -109,7 +209,10 @@ export const accountRows: MatrixRow[] = [
 		action: 'remove',
 		form: (f) => ({ userId: f.client.id }),
 		expect: { owner: 200, designer: 403, client: 403, outsider: 404, anonymous: SIGN_IN },
-		changes: { by: ['owner'], check: async (f) => (await roleOf(f.studio.id, f.client.id)) === null }
+		changes: {
+			by: ['owner'],
+			check: async (f) => (await roleOf(f.studio.id, f.client.id)) === null
+		}
 	},
 	{
 		route: '/studio/members',
@@ -119,7 +222,13 @@ export const accountRows: MatrixRow[] = [
 		expect: { owner: 200, designer: 403, client: 403, outsider: 404, anonymous: SIGN_IN },
 		changes: {
 			by: ['owner'],
-			check: async (f) => (await db.select().from(invites).where(and(eq(invites.id, f.invite.id), isNotNull(invites.revokedAt)))).length === 1
+			check: async (f) =>
+				(
+					await db
+						.select()
+						.from(invites)
+						.where(and(eq(invites.id, f.invite.id), isNotNull(invites.revokedAt)))
+				).length === 1
 		}
 	},
 	{
@@ -127,7 +236,13 @@ export const accountRows: MatrixRow[] = [
 		method: 'POST',
 		action: 'leave',
 		// The owner is the only one: they may not leave. The outsider is the only owner of theirs.
-		expect: { owner: 409, designer: to('/studios'), client: to('/studios'), outsider: 409, anonymous: SIGN_IN },
+		expect: {
+			owner: 409,
+			designer: to('/studios'),
+			client: to('/studios'),
+			outsider: 409,
+			anonymous: SIGN_IN
+		},
 		changes: { by: ['designer', 'client'], check: async (f) => (await memberCount(f)) < 3 }
 	},
 	{
@@ -141,7 +256,10 @@ export const accountRows: MatrixRow[] = [
 		showsStudioToLinkHolders: true,
 		changes: {
 			by: [],
-			check: async (f) => (await memberCount(f)) > 3 || (await roleOf(f.studio.id, f.designer.id)) !== 'designer' || (await roleOf(f.studio.id, f.client.id)) !== 'client'
+			check: async (f) =>
+				(await memberCount(f)) > 3 ||
+				(await roleOf(f.studio.id, f.designer.id)) !== 'designer' ||
+				(await roleOf(f.studio.id, f.client.id)) !== 'client'
 		}
 	}
 ];
@@ -154,19 +272,26 @@ runAccessMatrix(accountRows, app);
  * prefix once all its rows exist; a route anywhere else without a row fails now.
  */
 const awaitingRows = ['/builds/[id]', '/api'];
-const awaiting = (route: string) => awaitingRows.some((p) => route === p || route.startsWith(`${p}/`) || route.startsWith(`${p}.`));
+const awaiting = (route: string) =>
+	awaitingRows.some((p) => route === p || route.startsWith(`${p}/`) || route.startsWith(`${p}.`));
 
 /**
  * Other areas keep their rows beside their code, in `*access-rows.ts` or `*-access.spec-util.ts`
  * modules exporting MatrixRow arrays, and run them in their own specs; here they count as covered.
  */
-const areaRowModules = import.meta.glob<Record<string, unknown>>(['/src/**/*access-rows.ts', '/src/**/*-access.spec-util.ts']);
-const isRow = (x: unknown): x is MatrixRow => !!x && typeof x === 'object' && 'route' in x && 'method' in x && 'expect' in x;
+const areaRowModules = import.meta.glob<Record<string, unknown>>([
+	'/src/**/*access-rows.ts',
+	'/src/**/*-access.spec-util.ts'
+]);
+const isRow = (x: unknown): x is MatrixRow =>
+	!!x && typeof x === 'object' && 'route' in x && 'method' in x && 'expect' in x;
 
 async function allRows(): Promise<MatrixRow[]> {
 	const rows = [...accountRows];
 	for (const load of Object.values(areaRowModules)) {
-		for (const value of Object.values(await load())) if (Array.isArray(value) && value.every(isRow)) rows.push(...value);
+		for (const value of Object.values(await load())) {
+			if (Array.isArray(value) && value.every(isRow)) rows.push(...value);
+		}
 	}
 	return rows;
 }
@@ -189,7 +314,11 @@ describe('the matrix covers every route', () => {
 
 	it('the rows name only routes that exist (or the 404 probes, or a development tool of the server hook)', async () => {
 		const existing = new Set((await routeInventory()).map(entryKey));
-		const probes = new Set(['GET /no-such-page', 'GET /dev/mail', ...DEV_TOOL_PATHS.map((p) => `POST ${p}`)]);
+		const probes = new Set([
+			'GET /no-such-page',
+			'GET /dev/mail',
+			...DEV_TOOL_PATHS.map((p) => `POST ${p}`)
+		]);
 		const stale = rows.filter((r) => !rowKeys(r).some((k) => existing.has(k) || probes.has(k)));
 		expect(stale.map((r) => rowKeys(r)[0])).toEqual([]);
 	});
@@ -202,7 +331,11 @@ describe('the matrix covers every route', () => {
 			'/src/routes/signin/+page.server.ts',
 			'/src/routes/invite/[[]token]/+page.server.ts'
 		]);
-		const sources = import.meta.glob<string>('/src/routes/**/+page.server.ts', { query: '?raw', import: 'default', eager: true });
+		const sources = import.meta.glob<string>('/src/routes/**/+page.server.ts', {
+			query: '?raw',
+			import: 'default',
+			eager: true
+		});
 		expect(Object.keys(modules)).toHaveLength(5);
 		for (const [file, load] of Object.entries(modules)) {
 			expect(actionNames(sources[file]), file).toEqual(Object.keys((await load()).actions ?? {}));

@@ -30,24 +30,31 @@ const expected: Record<Action, Role[]> = {
 };
 
 const roles: Role[] = [O, D, C];
-const cells = (Object.keys(expected) as Action[]).flatMap((action) => roles.map((role) => [action, role, expected[action].includes(role)] as const));
+const cells = (Object.keys(expected) as Action[]).flatMap((action) =>
+	roles.map((role) => [action, role, expected[action].includes(role)] as const)
+);
 
 describe('roleMay', () => {
 	it.each(cells)('%s as %s → %s', (action, role, allowed) => {
 		expect(roleMay(role, action)).toBe(allowed);
 	});
 
-	it.each(Object.keys(expected) as Action[])('%s without a role (not a member) → false', (action) => {
-		expect(roleMay(null, action)).toBe(false);
-		expect(roleMay(undefined, action)).toBe(false);
-	});
+	it.each(Object.keys(expected) as Action[])(
+		'%s without a role (not a member) → false',
+		(action) => {
+			expect(roleMay(null, action)).toBe(false);
+			expect(roleMay(undefined, action)).toBe(false);
+		}
+	);
 
 	it('knows exactly the actions this table lists', () => {
 		expect(Object.keys(permissions).sort()).toEqual(Object.keys(expected).sort());
 	});
 
 	it('lets the owner do everything but pay', () => {
-		for (const action of Object.keys(permissions) as Action[]) expect(roleMay(O, action), action).toBe(action !== 'build.pay');
+		for (const action of Object.keys(permissions) as Action[]) {
+			expect(roleMay(O, action), action).toBe(action !== 'build.pay');
+		}
 	});
 
 	it('refuses a role the database does not know', () => {

@@ -6,7 +6,15 @@ import { error, redirect } from '@sveltejs/kit';
 import { and, eq, gt, isNull, or, sql } from 'drizzle-orm';
 import type { SessionUser } from './auth';
 import { db } from './db';
-import { builds, memberships, shareLinks, studios, variants, type Role, type ShareLinkRow } from './db/schema';
+import {
+	builds,
+	memberships,
+	shareLinks,
+	studios,
+	variants,
+	type Role,
+	type ShareLinkRow
+} from './db/schema';
 
 export type Action =
 	| 'studio.view'
@@ -41,10 +49,21 @@ export const permissions: Record<Action, readonly Role[]> = {
 };
 
 /** What a client does: allowed only for variants shared with them (by link, or by e-mail to a client member). */
-const CLIENT_SCOPED: readonly Action[] = ['build.list', 'build.view', 'build.comment', 'build.approve', 'build.pay'];
+const CLIENT_SCOPED: readonly Action[] = [
+	'build.list',
+	'build.view',
+	'build.comment',
+	'build.approve',
+	'build.pay'
+];
 
 /** What holding a share link allows, on that link's variant only. */
-export const LINK_HOLDER_ACTIONS: readonly Action[] = ['build.view', 'build.comment', 'build.approve', 'build.pay'];
+export const LINK_HOLDER_ACTIONS: readonly Action[] = [
+	'build.view',
+	'build.comment',
+	'build.approve',
+	'build.pay'
+];
 
 export function roleMay(role: Role | null | undefined, action: Action): boolean {
 	return !!role && permissions[action].includes(role);
@@ -124,29 +143,52 @@ export async function requireBuild(locals: Locals, buildId: string, action: Acti
 		.select({ build: builds, studioName: studios.name, role: memberships.role })
 		.from(builds)
 		.innerJoin(studios, eq(studios.id, builds.studioId))
-		.leftJoin(memberships, and(eq(memberships.studioId, builds.studioId), eq(memberships.userId, user.id)))
+		.leftJoin(
+			memberships,
+			and(eq(memberships.studioId, builds.studioId), eq(memberships.userId, user.id))
+		)
 		.where(eq(builds.id, buildId));
 	if (!row?.role) error(404, 'Not found.');
 	if (!roleMay(row.role, action)) error(403, 'Your role in this studio does not allow this.');
 	const build = row.build;
-	const access: StudioAccess = { user, studioId: build.studioId, studioName: row.studioName, role: row.role };
+	const access: StudioAccess = {
+		user,
+		studioId: build.studioId,
+		studioName: row.studioName,
+		role: row.role
+	};
 	// A client of the studio sees a build only through the variants shared with them.
-	if (access.role === 'client' && (await variantsSharedWithUser(user, build.id)).length === 0) error(404, 'Not found.');
+	if (access.role === 'client' && (await variantsSharedWithUser(user, build.id)).length === 0) {
+		error(404, 'Not found.');
+	}
 	return { build, access };
 }
 
 /** A share link that still works: not revoked, not past its expiry. */
-const linkIsActive = () => and(isNull(shareLinks.revokedAt), or(isNull(shareLinks.expiresAt), gt(shareLinks.expiresAt, sql`now()`)));
+const linkIsActive = () =>
+	and(
+		isNull(shareLinks.revokedAt),
+		or(isNull(shareLinks.expiresAt), gt(shareLinks.expiresAt, sql`now()`))
+	);
 
 /**
  * Variant ids of this build shared with this signed-in client: an active share link sent to their
  * e-mail address. Revoking the link ends it for them too.
  */
-export async function variantsSharedWithUser(user: SessionUser, buildId: string): Promise<string[]> {
+export async function variantsSharedWithUser(
+	user: SessionUser,
+	buildId: string
+): Promise<string[]> {
 	const rows = await db
 		.selectDistinct({ variantId: shareLinks.variantId })
 		.from(shareLinks)
-		.where(and(eq(shareLinks.buildId, buildId), eq(shareLinks.recipientEmail, user.email.toLowerCase()), linkIsActive()));
+		.where(
+			and(
+				eq(shareLinks.buildId, buildId),
+				eq(shareLinks.recipientEmail, user.email.toLowerCase()),
+				linkIsActive()
+			)
+		);
 	return rows.map((r) => r.variantId);
 }
 
@@ -154,7 +196,13 @@ export async function variantsSharedWithUser(user: SessionUser, buildId: string)
  * May this user do this to this variant? Owners and designers by role; a client only on a variant
  * shared with them, and only the client-side actions. Anything else answers 404.
  */
-export async function requireVariant(locals: Locals, buildId: string, variantId: string, action: Action, url?: URL) {
+export async function requireVariant(
+	locals: Locals,
+	buildId: string,
+	variantId: string,
+	action: Action,
+	url?: URL
+) {
 	const user = requireUser(locals, url);
 	const [row] = await db
 		.select({ build: builds, variant: variants })
@@ -164,14 +212,23 @@ export async function requireVariant(locals: Locals, buildId: string, variantId:
 	if (!row) error(404, 'Not found.');
 	const access = await requireStudio({ user }, row.build.studioId, action, url);
 	if (access.role === 'client') {
-		if (!CLIENT_SCOPED.includes(action)) error(403, 'Your role in this studio does not allow this.');
-		if (!(await variantsSharedWithUser(user, buildId)).includes(variantId)) error(404, 'Not found.');
+		if (!CLIENT_SCOPED.includes(action)) {
+			error(403, 'Your role in this studio does not allow this.');
+		}
+		if (!(await variantsSharedWithUser(user, buildId)).includes(variantId)) {
+			error(404, 'Not found.');
+		}
 	}
 	return { build: row.build, variant: row.variant, access };
 }
 
 /** May the holder of this (already resolved, active) link do this? Only on the link's own variant. */
-export function requireLinkHolder(link: Pick<ShareLinkRow, 'revokedAt' | 'expiresAt'>, action: Action) {
-	if (link.revokedAt || (link.expiresAt && link.expiresAt.getTime() <= Date.now())) error(410, 'This link no longer works.');
+export function requireLinkHolder(
+	link: Pick<ShareLinkRow, 'revokedAt' | 'expiresAt'>,
+	action: Action
+) {
+	if (link.revokedAt || (link.expiresAt && link.expiresAt.getTime() <= Date.now())) {
+		error(410, 'This link no longer works.');
+	}
 	if (!LINK_HOLDER_ACTIONS.includes(action)) error(403, 'A share link does not allow this.');
 }

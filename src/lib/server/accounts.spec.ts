@@ -7,7 +7,15 @@ import { eq } from 'drizzle-orm';
 import { describe, expect, it } from 'vitest';
 import { db } from './db';
 import { passwordResets, sessions, users } from './db/schema';
-import { accountRowCounts, createSession, createUser, expireResets, sessionCount, TEST_PASSWORD, uniqueEmail } from './testing/factories';
+import {
+	accountRowCounts,
+	createSession,
+	createUser,
+	expireResets,
+	sessionCount,
+	TEST_PASSWORD,
+	uniqueEmail
+} from './testing/factories';
 import { extractLink, lastMailId, listMail, waitForMail } from './testing/mail';
 import { useApp } from './testing/suite';
 import { outboxOf } from './outbox';
@@ -19,14 +27,21 @@ const stripNonce = (html: string) => html.replace(/nonce="[^"]*"/g, 'nonce=""');
 
 describe('sign up', () => {
 	async function confirmFromMail(email: string, afterId = 0) {
-		const mail = await waitForMail(email, { subject: 'Confirm your address for Interstice', afterId });
+		const mail = await waitForMail(email, {
+			subject: 'Confirm your address for Interstice',
+			afterId
+		});
 		return extractLink(mail.text, '/verify/');
 	}
 
 	it('makes an unconfirmed account, mails a confirmation link, and signs in only once it is opened', async () => {
 		const c = app.client();
 		const email = uniqueEmail('signup');
-		const res = await c.signUp({ name: 'Nia Builder', email: email.toUpperCase(), password: 'long-enough-1' });
+		const res = await c.signUp({
+			name: 'Nia Builder',
+			email: email.toUpperCase(),
+			password: 'long-enough-1'
+		});
 		expect(res.status).toBe(303);
 		expect(res.location).toBe('/check-mail');
 		expect(c.sessionId).toBeUndefined();
@@ -45,7 +60,9 @@ describe('sign up', () => {
 		expect(page.text).toContain('Confirm your address');
 		expect(page.header('referrer-policy')).toBe('same-origin');
 		// Opening the link writes nothing; the button does.
-		expect((await db.select().from(users).where(eq(users.email, email)))[0].emailVerifiedAt).toBeNull();
+		expect(
+			(await db.select().from(users).where(eq(users.email, email)))[0].emailVerifiedAt
+		).toBeNull();
 
 		const confirmed = await c.postForm(link);
 		expect(confirmed.status).toBe(303);
@@ -58,7 +75,9 @@ describe('sign up', () => {
 		const account = await c.get('/account');
 		expect(account.status).toBe(200);
 		expect(account.text).toContain(email);
-		expect((await db.select().from(users).where(eq(users.email, email)))[0].emailVerifiedAt).not.toBeNull();
+		expect(
+			(await db.select().from(users).where(eq(users.email, email)))[0].emailVerifiedAt
+		).not.toBeNull();
 
 		const again = await app.client().postForm(link);
 		expect(again.status).toBe(400);
@@ -71,8 +90,14 @@ describe('sign up', () => {
 		const fresh = uniqueEmail('fresh');
 		const before = await accountRowCounts();
 		const known = app.client();
-		const a = await known.signUp({ name: 'Someone Else', email: user.email.toUpperCase(), password: 'other-password-7' });
-		const b = await app.client().signUp({ name: 'Someone New', email: fresh, password: 'other-password-7' });
+		const a = await known.signUp({
+			name: 'Someone Else',
+			email: user.email.toUpperCase(),
+			password: 'other-password-7'
+		});
+		const b = await app
+			.client()
+			.signUp({ name: 'Someone New', email: fresh, password: 'other-password-7' });
 		expect([a.status, a.location]).toEqual([b.status, b.location]);
 		expect([a.status, a.location]).toEqual([303, '/check-mail']);
 		expect(known.sessionId).toBeUndefined();
@@ -85,7 +110,9 @@ describe('sign up', () => {
 		expect((await outboxOf(user.email)).map((r) => r.kind)).toEqual(['sign-up']);
 		expect((await outboxOf(fresh)).map((r) => r.kind)).toEqual(['sign-up']);
 
-		const mail = await waitForMail(user.email, { subject: 'Someone tried to sign up with your address' });
+		const mail = await waitForMail(user.email, {
+			subject: 'Someone tried to sign up with your address'
+		});
 		expect(extractLink(mail.text, '/signin')).toBe(`${app.baseURL}/signin`);
 		expect(extractLink(mail.text, '/reset')).toBe(`${app.baseURL}/reset`);
 		expect(mail.text).not.toMatch(/\/verify\//);
@@ -135,9 +162,15 @@ describe('sign in', () => {
 		expect(res.location).toBe('/builds');
 		expect(await sessionCount(user.id)).toBe(1);
 
-		const next = await app.client().postForm('/signin', { email: user.email, password: user.password, next: '/account' });
+		const next = await app
+			.client()
+			.postForm('/signin', { email: user.email, password: user.password, next: '/account' });
 		expect(next.location).toBe('/account');
-		const offsite = await app.client().postForm('/signin', { email: user.email, password: user.password, next: '//elsewhere.test/x' });
+		const offsite = await app.client().postForm('/signin', {
+			email: user.email,
+			password: user.password,
+			next: '//elsewhere.test/x'
+		});
 		expect(offsite.location).toBe('/builds');
 	});
 
@@ -147,7 +180,10 @@ describe('sign in', () => {
 		const c = app.client();
 		expect((await c.signIn(user.email, user.password)).status).toBe(303);
 		const token = c.sessionId!;
-		const rows = await db.select({ id: sessions.id }).from(sessions).where(eq(sessions.userId, user.id));
+		const rows = await db
+			.select({ id: sessions.id })
+			.from(sessions)
+			.where(eq(sessions.userId, user.id));
 		// FIPS 180-4 SHA-256 via node:crypto as the oracle.
 		expect(rows.map((r) => r.id)).toEqual([createHash('sha256').update(token).digest('hex')]);
 		expect((await c.get('/account')).status).toBe(200);
@@ -161,7 +197,10 @@ describe('sign in', () => {
 		const wrong = app.client();
 		const unknown = app.client();
 		const a = await wrong.action('/signin', { email: user.email, password: 'not-the-password-9' });
-		const b = await unknown.action('/signin', { email: uniqueEmail('nobody'), password: 'not-the-password-9' });
+		const b = await unknown.action('/signin', {
+			email: uniqueEmail('nobody'),
+			password: 'not-the-password-9'
+		});
 		expect(a).toMatchObject({ type: 'failure', status: 400, data: { errors: { _: NO_MATCH } } });
 		expect(b.type).toBe(a.type);
 		expect(b.status).toBe(a.status);
@@ -181,7 +220,11 @@ describe('sign in', () => {
 	it('refuses a form posted from another site (SvelteKit CSRF check)', async () => {
 		const user = await createUser();
 		const c = app.client();
-		const res = await c.postForm('/signin', { email: user.email, password: user.password }, { origin: 'http://elsewhere.test' });
+		const res = await c.postForm(
+			'/signin',
+			{ email: user.email, password: user.password },
+			{ origin: 'http://elsewhere.test' }
+		);
 		expect(res.status).toBe(403);
 		expect(c.sessionId).toBeUndefined();
 		expect(await sessionCount(user.id)).toBe(0);
@@ -233,7 +276,10 @@ describe('password reset by mailed link', () => {
 		const res = await app.client().postForm('/reset', { email });
 		expect(res.status).toBe(200);
 		expect(res.text).toContain(SENT);
-		const mail = await waitForMail(email, { subject: 'Reset your Interstice password', afterId: after });
+		const mail = await waitForMail(email, {
+			subject: 'Reset your Interstice password',
+			afterId: after
+		});
 		return extractLink(mail.text, '/reset/');
 	}
 
@@ -255,12 +301,16 @@ describe('password reset by mailed link', () => {
 		const a = await app.client().postForm('/reset', { email: user.email });
 		const b = await app.client().postForm('/reset', { email: nobody });
 		expect([a.status, b.status]).toEqual([200, 200]);
-		expect(stripNonce(a.text.replaceAll(user.email, 'X'))).toBe(stripNonce(b.text.replaceAll(nobody, 'X')));
+		expect(stripNonce(a.text.replaceAll(user.email, 'X'))).toBe(
+			stripNonce(b.text.replaceAll(nobody, 'X'))
+		);
 		expect((await outboxOf(user.email)).map((r) => r.kind)).toEqual(['password-reset']);
 		expect((await outboxOf(nobody)).map((r) => r.kind)).toEqual(['password-reset']);
 		await waitForMail(user.email, { subject: 'Reset your Interstice password' });
 		// The unknown address's row is finished too, with nothing sent.
-		for (let i = 0; i < 100 && !(await outboxOf(nobody))[0].doneAt; i++) await new Promise((r) => setTimeout(r, 100));
+		for (let i = 0; i < 100 && !(await outboxOf(nobody))[0].doneAt; i++) {
+			await new Promise((r) => setTimeout(r, 100));
+		}
 		expect((await outboxOf(nobody))[0]).toMatchObject({ attempts: 0, lastError: null });
 		expect((await outboxOf(nobody))[0].doneAt).not.toBeNull();
 		expect(await listMail(nobody)).toEqual([]);
@@ -272,7 +322,9 @@ describe('password reset by mailed link', () => {
 		const first = await requestLink(user.email);
 		const second = await requestLink(user.email);
 		expect(first).not.toBe(second);
-		expect((await app.client().postForm(second, { password: 'fresh-password-2' })).status).toBe(303);
+		expect((await app.client().postForm(second, { password: 'fresh-password-2' })).status).toBe(
+			303
+		);
 		const stale = await app.client().postForm(first, { password: 'attacker-password-3' });
 		expect(stale.status).toBe(400);
 		expect(stale.text).toContain('This link has expired or was already used');
@@ -289,7 +341,10 @@ describe('password reset by mailed link', () => {
 		// Only the token's SHA-256 is stored (FIPS 180-4), never the token itself.
 		const token = new URL(link).pathname.split('/').pop() ?? '';
 		expect(token.length).toBeGreaterThanOrEqual(43);
-		const [stored] = await db.select().from(passwordResets).where(eq(passwordResets.userId, user.id));
+		const [stored] = await db
+			.select()
+			.from(passwordResets)
+			.where(eq(passwordResets.userId, user.id));
 		expect(stored.tokenHash).toBe(createHash('sha256').update(token).digest('hex'));
 
 		const c = app.client();
@@ -328,7 +383,10 @@ describe('password reset by mailed link', () => {
 		expect(post.status).toBe(400);
 		expect(post.text).toContain('This link has expired or was already used');
 		expect((await app.client().signIn(user.email, TEST_PASSWORD)).status).toBe(303);
-		const [u] = await db.select({ n: sessions.id }).from(sessions).where(eq(sessions.userId, user.id));
+		const [u] = await db
+			.select({ n: sessions.id })
+			.from(sessions)
+			.where(eq(sessions.userId, user.id));
 		expect(u).toBeTruthy();
 	});
 });

@@ -1,7 +1,15 @@
 /** Accounts, studios, members and invites: the rules, independent of any page. */
 import { and, count, eq, gt, isNull, sql } from 'drizzle-orm';
 import { db, type Tx } from './db';
-import { emailVerifications, invites, memberships, passwordResets, studios, users, type Role } from './db/schema';
+import {
+	emailVerifications,
+	invites,
+	memberships,
+	passwordResets,
+	studios,
+	users,
+	type Role
+} from './db/schema';
 import { link, sendMail } from './mail';
 import { hashPassword, verifyDummy, verifyPassword } from './passwords';
 import { enqueue, scheduleDrain, type SignUpPayload } from './outbox';
@@ -36,7 +44,12 @@ function inviteTokenIn(next: string | null): string | null {
  * exception proves the address another way: signing up from an invitation link sent to exactly
  * this (new) address, which counts as confirmed and signs in at once (`userId`).
  */
-export async function signUp(input: { name: string; email: string; password: string; next: string | null }): Promise<{ userId: string | null }> {
+export async function signUp(input: {
+	name: string;
+	email: string;
+	password: string;
+	next: string | null;
+}): Promise<{ userId: string | null }> {
 	const passwordHash = await hashPassword(input.password);
 	const email = input.email.toLowerCase();
 	const token = inviteTokenIn(input.next);
@@ -45,7 +58,13 @@ export async function signUp(input: { name: string; email: string; password: str
 		const id = newId();
 		const inserted = await tx
 			.insert(users)
-			.values({ id, name: input.name, email, passwordHash, emailVerifiedAt: invited ? new Date() : null })
+			.values({
+				id,
+				name: input.name,
+				email,
+				passwordHash,
+				emailVerifiedAt: invited ? new Date() : null
+			})
 			.onConflictDoNothing()
 			.returning({ id: users.id });
 		if (inserted.length === 1 && invited) return { userId: id };
@@ -73,8 +92,16 @@ export async function requestPasswordReset(email: string) {
 }
 
 /** An unconfirmed account that signed in with the right password: mail it a fresh link. */
-export async function resendConfirmation(user: { email: string; name: string; passwordHash: string }) {
-	await enqueue('sign-up', user.email, { name: user.name, passwordHash: user.passwordHash, next: null } satisfies SignUpPayload);
+export async function resendConfirmation(user: {
+	email: string;
+	name: string;
+	passwordHash: string;
+}) {
+	await enqueue('sign-up', user.email, {
+		name: user.name,
+		passwordHash: user.passwordHash,
+		next: null
+	} satisfies SignUpPayload);
 }
 
 export async function findValidVerification(token: string) {
@@ -98,12 +125,20 @@ export async function findValidVerification(token: string) {
  * the sign-up that link was mailed for, and every other confirmation link of it stops working.
  * Null for a dead token or an account already confirmed.
  */
-export async function verifyEmail(token: string): Promise<{ userId: string; next: string | null } | null> {
+export async function verifyEmail(
+	token: string
+): Promise<{ userId: string; next: string | null } | null> {
 	return db.transaction(async (tx) => {
 		const [v] = await tx
 			.update(emailVerifications)
 			.set({ usedAt: new Date() })
-			.where(and(eq(emailVerifications.tokenHash, hashToken(token)), isNull(emailVerifications.usedAt), gt(emailVerifications.expiresAt, new Date())))
+			.where(
+				and(
+					eq(emailVerifications.tokenHash, hashToken(token)),
+					isNull(emailVerifications.usedAt),
+					gt(emailVerifications.expiresAt, new Date())
+				)
+			)
 			.returning();
 		if (!v) return null;
 		const [u] = await tx
@@ -112,7 +147,10 @@ export async function verifyEmail(token: string): Promise<{ userId: string; next
 			.where(and(eq(users.id, v.userId), isNull(users.emailVerifiedAt)))
 			.returning({ id: users.id });
 		if (!u) return null;
-		await tx.update(emailVerifications).set({ usedAt: new Date() }).where(and(eq(emailVerifications.userId, v.userId), isNull(emailVerifications.usedAt)));
+		await tx
+			.update(emailVerifications)
+			.set({ usedAt: new Date() })
+			.where(and(eq(emailVerifications.userId, v.userId), isNull(emailVerifications.usedAt)));
 		return { userId: v.userId, next: v.next };
 	});
 }
@@ -192,7 +230,13 @@ export async function switchStudio(userId: string, studioId: string) {
 
 export async function membersOf(studioId: string) {
 	return db
-		.select({ userId: users.id, name: users.name, email: users.email, role: memberships.role, since: memberships.createdAt })
+		.select({
+			userId: users.id,
+			name: users.name,
+			email: users.email,
+			role: memberships.role,
+			since: memberships.createdAt
+		})
 		.from(memberships)
 		.innerJoin(users, eq(users.id, memberships.userId))
 		.where(eq(memberships.studioId, studioId))
@@ -201,13 +245,31 @@ export async function membersOf(studioId: string) {
 
 export async function pendingInvites(studioId: string) {
 	return db
-		.select({ id: invites.id, email: invites.email, role: invites.role, expiresAt: invites.expiresAt })
+		.select({
+			id: invites.id,
+			email: invites.email,
+			role: invites.role,
+			expiresAt: invites.expiresAt
+		})
 		.from(invites)
-		.where(and(eq(invites.studioId, studioId), isNull(invites.acceptedAt), isNull(invites.revokedAt), gt(invites.expiresAt, new Date())))
+		.where(
+			and(
+				eq(invites.studioId, studioId),
+				isNull(invites.acceptedAt),
+				isNull(invites.revokedAt),
+				gt(invites.expiresAt, new Date())
+			)
+		)
 		.orderBy(invites.createdAt);
 }
 
-export async function inviteMember(input: { studioId: string; studioName: string; email: string; role: Role; invitedBy: { id: string; name: string } }) {
+export async function inviteMember(input: {
+	studioId: string;
+	studioName: string;
+	email: string;
+	role: Role;
+	invitedBy: { id: string; name: string };
+}) {
 	const token = newToken();
 	await db.insert(invites).values({
 		id: newId(),
@@ -228,10 +290,23 @@ export async function inviteMember(input: { studioId: string; studioName: string
 
 export async function findValidInvite(token: string) {
 	const [row] = await db
-		.select({ id: invites.id, email: invites.email, role: invites.role, studioId: invites.studioId, studioName: studios.name })
+		.select({
+			id: invites.id,
+			email: invites.email,
+			role: invites.role,
+			studioId: invites.studioId,
+			studioName: studios.name
+		})
 		.from(invites)
 		.innerJoin(studios, eq(studios.id, invites.studioId))
-		.where(and(eq(invites.tokenHash, hashToken(token)), isNull(invites.acceptedAt), isNull(invites.revokedAt), gt(invites.expiresAt, new Date())));
+		.where(
+			and(
+				eq(invites.tokenHash, hashToken(token)),
+				isNull(invites.acceptedAt),
+				isNull(invites.revokedAt),
+				gt(invites.expiresAt, new Date())
+			)
+		);
 	return row ?? null;
 }
 
@@ -241,18 +316,30 @@ export async function acceptInvite(token: string, userId: string) {
 		const [inv] = await tx
 			.update(invites)
 			.set({ acceptedAt: new Date() })
-			.where(and(eq(invites.tokenHash, hashToken(token)), isNull(invites.acceptedAt), isNull(invites.revokedAt), gt(invites.expiresAt, new Date())))
+			.where(
+				and(
+					eq(invites.tokenHash, hashToken(token)),
+					isNull(invites.acceptedAt),
+					isNull(invites.revokedAt),
+					gt(invites.expiresAt, new Date())
+				)
+			)
 			.returning();
 		if (!inv) return null;
 		const [existing] = await tx
 			.select()
 			.from(memberships)
 			.where(and(eq(memberships.studioId, inv.studioId), eq(memberships.userId, userId)));
-		if (!existing) await tx.insert(memberships).values({ studioId: inv.studioId, userId, role: inv.role });
+		if (!existing) {
+			await tx.insert(memberships).values({ studioId: inv.studioId, userId, role: inv.role });
+		}
 		// The invitation reached this address (the page checks it is the signed-in one): proven.
 		await tx
 			.update(users)
-			.set({ activeStudioId: inv.studioId, emailVerifiedAt: sql`coalesce(${users.emailVerifiedAt}, now())` })
+			.set({
+				activeStudioId: inv.studioId,
+				emailVerifiedAt: sql`coalesce(${users.emailVerifiedAt}, now())`
+			})
 			.where(eq(users.id, userId));
 		return inv.studioId;
 	});
@@ -263,7 +350,14 @@ export async function revokeInvite(studioId: string, inviteId: string) {
 	const revoked = await db
 		.update(invites)
 		.set({ revokedAt: new Date() })
-		.where(and(eq(invites.id, inviteId), eq(invites.studioId, studioId), isNull(invites.acceptedAt), isNull(invites.revokedAt)))
+		.where(
+			and(
+				eq(invites.id, inviteId),
+				eq(invites.studioId, studioId),
+				isNull(invites.acceptedAt),
+				isNull(invites.revokedAt)
+			)
+		)
 		.returning({ id: invites.id });
 	if (revoked.length === 0) throw new RuleError('No such open invitation.', 'inviteId', 404);
 }
@@ -281,23 +375,45 @@ async function ownersAfter(tx: Tx, studioId: string) {
 
 export async function changeRole(studioId: string, userId: string, role: Role) {
 	await db.transaction(async (tx) => {
-		const [m] = await tx.select().from(memberships).where(and(eq(memberships.studioId, studioId), eq(memberships.userId, userId)));
+		const [m] = await tx
+			.select()
+			.from(memberships)
+			.where(and(eq(memberships.studioId, studioId), eq(memberships.userId, userId)));
 		if (!m) throw new RuleError('No such member.', 'userId', 404);
 		if (m.role === 'owner' && role !== 'owner' && (await ownersAfter(tx, studioId)) <= 1) {
-			throw new RuleError('The last owner cannot be demoted; make someone else owner first.', 'role', 409);
+			throw new RuleError(
+				'The last owner cannot be demoted; make someone else owner first.',
+				'role',
+				409
+			);
 		}
-		await tx.update(memberships).set({ role }).where(and(eq(memberships.studioId, studioId), eq(memberships.userId, userId)));
+		await tx
+			.update(memberships)
+			.set({ role })
+			.where(and(eq(memberships.studioId, studioId), eq(memberships.userId, userId)));
 	});
 }
 
 export async function removeMember(studioId: string, userId: string) {
 	await db.transaction(async (tx) => {
-		const [m] = await tx.select().from(memberships).where(and(eq(memberships.studioId, studioId), eq(memberships.userId, userId)));
+		const [m] = await tx
+			.select()
+			.from(memberships)
+			.where(and(eq(memberships.studioId, studioId), eq(memberships.userId, userId)));
 		if (!m) throw new RuleError('No such member.', 'userId', 404);
 		if (m.role === 'owner' && (await ownersAfter(tx, studioId)) <= 1) {
-			throw new RuleError('The last owner cannot leave or be removed; make someone else owner first.', 'userId', 409);
+			throw new RuleError(
+				'The last owner cannot leave or be removed; make someone else owner first.',
+				'userId',
+				409
+			);
 		}
-		await tx.delete(memberships).where(and(eq(memberships.studioId, studioId), eq(memberships.userId, userId)));
-		await tx.update(users).set({ activeStudioId: null }).where(and(eq(users.id, userId), eq(users.activeStudioId, studioId)));
+		await tx
+			.delete(memberships)
+			.where(and(eq(memberships.studioId, studioId), eq(memberships.userId, userId)));
+		await tx
+			.update(users)
+			.set({ activeStudioId: null })
+			.where(and(eq(users.id, userId), eq(users.activeStudioId, studioId)));
 	});
 }

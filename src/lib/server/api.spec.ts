@@ -27,26 +27,46 @@ async function bucketsAfterOneCheck(env: Record<string, string>, sent: string | 
 	const studio = await createStudio();
 	const designer = await createMember(studio.id, 'designer');
 	const c = new Client(app.baseURL).useSession(designer.session);
-	const headers: Record<string, string> = { 'content-type': 'application/json', origin: app.baseURL };
+	const headers: Record<string, string> = {
+		'content-type': 'application/json',
+		origin: app.baseURL
+	};
 	if (sent) headers['x-interstice-bench'] = sent;
-	const res = await c.request('POST', '/api/check', { body: JSON.stringify(demoSceneInput()), headers });
+	const res = await c.request('POST', '/api/check', {
+		body: JSON.stringify(demoSceneInput()),
+		headers
+	});
 	expect(res.status, res.text.slice(0, 200)).toBe(200);
-	const rows = await db.select({ key: rateLimits.key }).from(rateLimits).where(like(rateLimits.key, `%:${c.address}:${designer.id}`));
+	const rows = await db
+		.select({ key: rateLimits.key })
+		.from(rateLimits)
+		.where(like(rateLimits.key, `%:${c.address}:${designer.id}`));
 	return rows.map((r) => r.key.split(':')[0]).sort();
 }
 
 describe('the bench bucket', () => {
 	it('a server with a bench token, outside production mode: the token moves the call to its own bucket', async () => {
-		expect(await bucketsAfterOneCheck({ INTERSTICE_BENCH_TOKEN: TOKEN }, TOKEN)).toEqual(['api-bench']);
+		expect(await bucketsAfterOneCheck({ INTERSTICE_BENCH_TOKEN: TOKEN }, TOKEN)).toEqual([
+			'api-bench'
+		]);
 	});
 
 	it('a wrong or short token counts as an ordinary call', async () => {
-		expect(await bucketsAfterOneCheck({ INTERSTICE_BENCH_TOKEN: TOKEN }, TOKEN.replace(/.$/, (c) => (c === '0' ? '1' : '0')))).toEqual(['api']);
-		expect(await bucketsAfterOneCheck({ INTERSTICE_BENCH_TOKEN: 'short' }, 'short')).toEqual(['api']);
+		expect(
+			await bucketsAfterOneCheck(
+				{ INTERSTICE_BENCH_TOKEN: TOKEN },
+				TOKEN.replace(/.$/, (c) => (c === '0' ? '1' : '0'))
+			)
+		).toEqual(['api']);
+		expect(await bucketsAfterOneCheck({ INTERSTICE_BENCH_TOKEN: 'short' }, 'short')).toEqual([
+			'api'
+		]);
 	});
 
 	it('without the development flag the token does nothing', async () => {
-		expect(await bucketsAfterOneCheck({ INTERSTICE_BENCH_TOKEN: TOKEN, INTERSTICE_DEV_TOOLS: '' }, TOKEN)).toEqual(['api']);
+		expect(
+			await bucketsAfterOneCheck({ INTERSTICE_BENCH_TOKEN: TOKEN, INTERSTICE_DEV_TOOLS: '' }, TOKEN)
+		).toEqual(['api']);
 	});
 
 	it('a server without a token ignores the header', async () => {

@@ -15,11 +15,18 @@ export function problem(status: number, message: string, issues: FieldIssue[] = 
 }
 
 /** Reads and validates a JSON body; a bad one ends the request with 400 and the zod paths. */
-export async function readJson<S extends z.ZodType>(request: Request, schema: S): Promise<z.infer<S>> {
+export async function readJson<S extends z.ZodType>(
+	request: Request,
+	schema: S
+): Promise<z.infer<S>> {
 	const length = Number(request.headers.get('content-length') ?? 0);
-	if (length > MAX_JSON_BYTES) error(413, `The body is larger than ${MAX_JSON_BYTES / 1024 / 1024} MB.`);
+	if (length > MAX_JSON_BYTES) {
+		error(413, `The body is larger than ${MAX_JSON_BYTES / 1024 / 1024} MB.`);
+	}
 	const text = await request.text();
-	if (text.length > MAX_JSON_BYTES) error(413, `The body is larger than ${MAX_JSON_BYTES / 1024 / 1024} MB.`);
+	if (text.length > MAX_JSON_BYTES) {
+		error(413, `The body is larger than ${MAX_JSON_BYTES / 1024 / 1024} MB.`);
+	}
 	let body: unknown;
 	try {
 		body = JSON.parse(text);
@@ -27,7 +34,11 @@ export async function readJson<S extends z.ZodType>(request: Request, schema: S)
 		badRequest('The body is not valid JSON.', []);
 	}
 	const bad = controlCharPath(body);
-	if (bad) badRequest('The request does not validate.', [{ path: bad, message: 'Contains control characters' }]);
+	if (bad) {
+		badRequest('The request does not validate.', [
+			{ path: bad, message: 'Contains control characters' }
+		]);
+	}
 	const parsed = schema.safeParse(body);
 	if (!parsed.success) badRequest('The request does not validate.', formatZodIssues(parsed.error));
 	return parsed.data;

@@ -33,7 +33,12 @@ declare module 'lucia' {
 	}
 }
 
-export type SessionUser = { id: string; email: string; name: string; activeStudioId: string | null };
+export type SessionUser = {
+	id: string;
+	email: string;
+	name: string;
+	activeStudioId: string | null;
+};
 
 /** A new session; `token` goes to the cookie, `id` (its hash) is what the table holds. */
 export async function createSessionToken(userId: string): Promise<{ token: string; id: string }> {
@@ -71,7 +76,10 @@ const MAX_TOKEN_CHARS = 200;
 export async function readSession(cookies: Cookies) {
 	const token = cookies.get(lucia.sessionCookieName);
 	if (!token) return { user: null, session: null };
-	const { session, user } = token.length > MAX_TOKEN_CHARS ? { session: null, user: null } : await lucia.validateSession(hashToken(token));
+	const { session, user } =
+		token.length > MAX_TOKEN_CHARS
+			? { session: null, user: null }
+			: await lucia.validateSession(hashToken(token));
 	if (session?.fresh) {
 		const c = lucia.createSessionCookie(token);
 		cookies.set(c.name, c.value, { path: '/', ...c.attributes });

@@ -6,7 +6,13 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { db } from './db';
 import { passwordResets } from './db/schema';
 import { hashToken, newToken } from './tokens';
-import { accountRowCounts, createInvite, createUser, studioWithMembers, uniqueEmail } from './testing/factories';
+import {
+	accountRowCounts,
+	createInvite,
+	createUser,
+	studioWithMembers,
+	uniqueEmail
+} from './testing/factories';
 import { useApp } from './testing/suite';
 
 const app = useApp();
@@ -32,8 +38,13 @@ beforeAll(async () => {
 	f = await studioWithMembers();
 	signInUser = await createUser();
 	resetToken = newToken();
-	await db.insert(passwordResets).values({ tokenHash: hashToken(resetToken), userId: signInUser.id, expiresAt: new Date(Date.now() + 3600_000) });
-	inviteId = (await createInvite({ studioId: f.studio.id, role: 'client', invitedBy: f.owner.id })).id;
+	await db.insert(passwordResets).values({
+		tokenHash: hashToken(resetToken),
+		userId: signInUser.id,
+		expiresAt: new Date(Date.now() + 3600_000)
+	});
+	inviteId = (await createInvite({ studioId: f.studio.id, role: 'client', invitedBy: f.owner.id }))
+		.id;
 });
 
 const forms: Form[] = [
@@ -163,7 +174,9 @@ const badValues: Record<Kind, [label: string, value: string, message: RegExp][]>
 };
 
 const cases = forms.flatMap((form) =>
-	Object.entries(form.fields).flatMap(([field, kind]) => badValues[kind].map(([label, value, message]) => ({ form, field, label, value, message })))
+	Object.entries(form.fields).flatMap(([field, kind]) =>
+		badValues[kind].map(([label, value, message]) => ({ form, field, label, value, message }))
+	)
 );
 
 function client(form: Form) {
@@ -172,50 +185,76 @@ function client(form: Form) {
 }
 
 describe('each field refuses bad values', () => {
-	it.each(cases.map((c) => [`${c.form.name}: ${c.field} with ${c.label}`, c] as const))('%s', async (_name, c) => {
-		const before = await accountRowCounts();
-		const r = await client(c.form).action(c.form.path(), { ...c.form.valid(), [c.field]: c.value });
-		expect(r.type).toBe('failure');
-		expect(r.status).toBe(400);
-		expect(r.data.errors[c.field]).toMatch(c.message);
-		// Only the field at fault is blamed.
-		expect(Object.keys(r.data.errors)).toEqual([c.field]);
-		expect(r.data.values?.password).toBeUndefined();
-		expect(await accountRowCounts()).toEqual(before);
-	});
+	it.each(cases.map((c) => [`${c.form.name}: ${c.field} with ${c.label}`, c] as const))(
+		'%s',
+		async (_name, c) => {
+			const before = await accountRowCounts();
+			const r = await client(c.form).action(c.form.path(), {
+				...c.form.valid(),
+				[c.field]: c.value
+			});
+			expect(r.type).toBe('failure');
+			expect(r.status).toBe(400);
+			expect(r.data.errors[c.field]).toMatch(c.message);
+			// Only the field at fault is blamed.
+			expect(Object.keys(r.data.errors)).toEqual([c.field]);
+			expect(r.data.values?.password).toBeUndefined();
+			expect(await accountRowCounts()).toEqual(before);
+		}
+	);
 });
 
 describe('whole forms', () => {
-	it.each(forms.map((form) => [form.name, form] as const))('%s: missing fields get a message each, on the page too', async (_name, form) => {
-		const before = await accountRowCounts();
-		const c = client(form);
-		const r = await c.action(form.path(), {});
-		expect(r).toMatchObject({ type: 'failure', status: 400 });
-		for (const field of Object.keys(form.fields)) expect(r.data.errors[field], field).toBeTruthy();
+	it.each(forms.map((form) => [form.name, form] as const))(
+		'%s: missing fields get a message each, on the page too',
+		async (_name, form) => {
+			const before = await accountRowCounts();
+			const c = client(form);
+			const r = await c.action(form.path(), {});
+			expect(r).toMatchObject({ type: 'failure', status: 400 });
+			for (const field of Object.keys(form.fields)) {
+				expect(r.data.errors[field], field).toBeTruthy();
+			}
 
-		const page = await c.postForm(form.path(), {});
-		expect(page.status).toBe(400);
-		expect(page.header('content-type')).toContain('text/html');
-		expect(await accountRowCounts()).toEqual(before);
-	});
+			const page = await c.postForm(form.path(), {});
+			expect(page.status).toBe(400);
+			expect(page.header('content-type')).toContain('text/html');
+			expect(await accountRowCounts()).toEqual(before);
+		}
+	);
 
-	it.each(forms.map((form) => [form.name, form] as const))('%s: a file where text belongs counts as missing', async (_name, form) => {
-		const before = await accountRowCounts();
-		const body = new FormData();
-		const valid = form.valid();
-		for (const [k, v] of Object.entries(valid)) body.append(k, k in form.fields ? new Blob([v], { type: 'text/plain' }) : v);
-		const r = await client(form).action(form.path(), body);
-		expect(r).toMatchObject({ type: 'failure', status: 400 });
-		for (const field of Object.keys(form.fields)) expect(r.data.errors[field], field).toBeTruthy();
-		expect(await accountRowCounts()).toEqual(before);
-	});
+	it.each(forms.map((form) => [form.name, form] as const))(
+		'%s: a file where text belongs counts as missing',
+		async (_name, form) => {
+			const before = await accountRowCounts();
+			const body = new FormData();
+			const valid = form.valid();
+			for (const [k, v] of Object.entries(valid)) {
+				body.append(k, k in form.fields ? new Blob([v], { type: 'text/plain' }) : v);
+			}
+			const r = await client(form).action(form.path(), body);
+			expect(r).toMatchObject({ type: 'failure', status: 400 });
+			for (const field of Object.keys(form.fields)) {
+				expect(r.data.errors[field], field).toBeTruthy();
+			}
+			expect(await accountRowCounts()).toEqual(before);
+		}
+	);
 
 	it('a JSON body to a form is refused without writing', async () => {
 		const before = await accountRowCounts();
 		const c = app.client();
 		const res = await c.request('POST', '/signup', {
-			body: JSON.stringify({ name: 'Json Person', email: uniqueEmail('json'), password: 'long-enough-1' }),
-			headers: { 'content-type': 'application/json', accept: 'application/json', origin: app.baseURL }
+			body: JSON.stringify({
+				name: 'Json Person',
+				email: uniqueEmail('json'),
+				password: 'long-enough-1'
+			}),
+			headers: {
+				'content-type': 'application/json',
+				accept: 'application/json',
+				origin: app.baseURL
+			}
 		});
 		expect(res.status).toBeGreaterThanOrEqual(400);
 		expect(res.status).toBeLessThan(500);
@@ -224,7 +263,9 @@ describe('whole forms', () => {
 
 	it('shows the input again, without the password, beside the messages', async () => {
 		const email = uniqueEmail('again');
-		const page = await app.client().postForm('/signup', { name: 'N'.repeat(81), email, password: 'short' });
+		const page = await app
+			.client()
+			.postForm('/signup', { name: 'N'.repeat(81), email, password: 'short' });
 		expect(page.status).toBe(400);
 		expect(page.text).toContain(`value="${email}"`);
 		expect(page.text).toContain('Name can be at most 80 characters.');

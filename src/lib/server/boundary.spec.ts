@@ -25,7 +25,9 @@ const as = () => app.client({ session: designer.session });
 
 describe('a NUL byte on each route a probe found', () => {
 	it('in a search term: GET /api/parts?q=%00', async () => {
-		const res = await as().request('GET', '/api/parts?search=1&q=%00', { headers: { accept: 'application/json' } });
+		const res = await as().request('GET', '/api/parts?search=1&q=%00', {
+			headers: { accept: 'application/json' }
+		});
 		expect(res.status).toBe(400);
 		expect(res.json<{ message: string }>().message).toMatch(/"q" contains control characters/);
 	});
@@ -42,8 +44,16 @@ describe('a NUL byte on each route a probe found', () => {
 		const posts: [string, Record<string, string>, string][] = [
 			[`/builds/${build.buildId}/photos?/delete`, { photoId: NUL }, 'photoId'],
 			[`/builds/${build.buildId}/share?/revoke`, { linkId: `x${NUL}` }, 'linkId'],
-			[`/builds/${build.buildId}/sheet?/tick`, { variantId: build.variantId, key: `fit${NUL}`, ticked: '1' }, 'key'],
-			[`/builds/${build.buildId}/sheet?/tick`, { variantId: NUL, key: 'x', ticked: '1' }, 'variantId']
+			[
+				`/builds/${build.buildId}/sheet?/tick`,
+				{ variantId: build.variantId, key: `fit${NUL}`, ticked: '1' },
+				'key'
+			],
+			[
+				`/builds/${build.buildId}/sheet?/tick`,
+				{ variantId: NUL, key: 'x', ticked: '1' },
+				'variantId'
+			]
 		];
 		for (const [path, fields, field] of posts) {
 			const r = await as().action(path, fields);
@@ -53,13 +63,24 @@ describe('a NUL byte on each route a probe found', () => {
 	});
 
 	it('in a part id inside a check', async () => {
-		const settings = { ...build.settings, placements: build.settings.placements.map((p, i) => (i === 0 ? { ...p, partId: `${p.partId}${NUL}` } : p)) };
+		const settings = {
+			...build.settings,
+			placements: build.settings.placements.map((p, i) =>
+				i === 0 ? { ...p, partId: `${p.partId}${NUL}` } : p
+			)
+		};
 		const res = await as().request('POST', `/api/builds/${build.buildId}/check`, {
 			body: JSON.stringify({ settings }),
-			headers: { 'content-type': 'application/json', accept: 'application/json', origin: app.baseURL }
+			headers: {
+				'content-type': 'application/json',
+				accept: 'application/json',
+				origin: app.baseURL
+			}
 		});
 		expect(res.status).toBe(400);
-		expect(res.json<{ issues: { path: string }[] }>().issues[0].path).toBe('settings.placements.0.partId');
+		expect(res.json<{ issues: { path: string }[] }>().issues[0].path).toBe(
+			'settings.placements.0.partId'
+		);
 	});
 
 	it('in a session cookie: no session, not an error', async () => {
@@ -72,10 +93,18 @@ describe('integers against their column', () => {
 	it('a variant version of 2³¹ or more is a 400 naming version, and nothing is saved', async () => {
 		const before = await storedVariant(build.variantId);
 		for (const version of [2 ** 31, 2 ** 53, 1e300]) {
-			const res = await as().request('PUT', `/api/builds/${build.buildId}/variants/${build.variantId}`, {
-				body: JSON.stringify({ version, settings: build.settings }),
-				headers: { 'content-type': 'application/json', accept: 'application/json', origin: app.baseURL }
-			});
+			const res = await as().request(
+				'PUT',
+				`/api/builds/${build.buildId}/variants/${build.variantId}`,
+				{
+					body: JSON.stringify({ version, settings: build.settings }),
+					headers: {
+						'content-type': 'application/json',
+						accept: 'application/json',
+						origin: app.baseURL
+					}
+				}
+			);
 			expect(res.status, String(version)).toBe(400);
 			expect(res.json<{ issues: { path: string }[] }>().issues[0].path).toBe('version');
 		}
@@ -84,11 +113,15 @@ describe('integers against their column', () => {
 
 	it('a catalogue page number far past the end is answered, not an overflow', async () => {
 		for (const page of ['1e300', '9007199254740993', '-5']) {
-			const res = await as().request('GET', `/api/parts?page=${page}&size=100`, { headers: { accept: 'application/json' } });
+			const res = await as().request('GET', `/api/parts?page=${page}&size=100`, {
+				headers: { accept: 'application/json' }
+			});
 			expect(res.status, page).toBe(200);
 		}
 		for (const limit of ['1e300', '-1']) {
-			const res = await as().request('GET', `/api/parts?search=1&limit=${limit}`, { headers: { accept: 'application/json' } });
+			const res = await as().request('GET', `/api/parts?search=1&limit=${limit}`, {
+				headers: { accept: 'application/json' }
+			});
 			expect(res.status, limit).toBe(200);
 		}
 	});
@@ -100,16 +133,29 @@ describe('numbers against float4 columns', () => {
 		const p = demoParts().find((x) => !x.id.startsWith('std-'))!;
 		const res = await as().request('POST', '/api/parts', {
 			body: JSON.stringify({ ...p, provenance: 'measured', toleranceMm: 1e-300 }),
-			headers: { 'content-type': 'application/json', accept: 'application/json', origin: app.baseURL }
+			headers: {
+				'content-type': 'application/json',
+				accept: 'application/json',
+				origin: app.baseURL
+			}
 		});
 		expect(res.status).toBe(201);
-		expect(res.json<{ part: { def: { toleranceMm: number } } }>().part.def.toleranceMm).toBe(1e-300);
+		expect(res.json<{ part: { def: { toleranceMm: number } } }>().part.def.toleranceMm).toBe(
+			1e-300
+		);
 	});
 });
 
 describe('redirect payloads over HTTP', () => {
 	it('a signed-in visit to /signin never leaves the site', async () => {
-		for (const next of ['/%09/evil.example', '/%0Aevil', '//evil.example', '/%5Cevil.example', 'https://evil.example', '/\\evil.example']) {
+		for (const next of [
+			'/%09/evil.example',
+			'/%0Aevil',
+			'//evil.example',
+			'/%5Cevil.example',
+			'https://evil.example',
+			'/\\evil.example'
+		]) {
 			const res = await as().get(`/signin?next=${next}`);
 			expect(res.status, next).toBeLessThan(500);
 			if (res.status === 303) expect(res.location, next).toBe('/builds');
@@ -119,7 +165,9 @@ describe('redirect payloads over HTTP', () => {
 
 	it('a sign-in post with a tab or backslash target lands on the builds', async () => {
 		for (const next of ['/\t/evil.example', '/\\evil.example', '//evil.example']) {
-			const res = await app.client().postForm('/signin', { email: designer.email, password: designer.password, next });
+			const res = await app
+				.client()
+				.postForm('/signin', { email: designer.email, password: designer.password, next });
 			expect(res.status, next).toBe(303);
 			expect(res.location, next).toBe('/builds');
 		}
@@ -128,7 +176,13 @@ describe('redirect payloads over HTTP', () => {
 
 describe('the guards themselves', () => {
 	it('name the first form field with a control character; tabs and line breaks are text', () => {
-		expect(controlCharField([['a', 'fine'], ['b', 'x\u0000'], ['c', '\u0001']])).toBe('b');
+		expect(
+			controlCharField([
+				['a', 'fine'],
+				['b', 'x\u0000'],
+				['c', '\u0001']
+			])
+		).toBe('b');
 		expect(controlCharField([['notes', 'line one\r\n\tline two']])).toBeNull();
 	});
 

@@ -16,16 +16,24 @@ export const refuseControlCharsInAddress: Handle = ({ event, resolve }) => {
 		if (CONTROL.test(value)) error(400, `The address part "${name}" contains control characters.`);
 	}
 	for (const [name, value] of event.url.searchParams) {
-		if (CONTROL.test(name) || CONTROL.test(value)) error(400, `The query parameter "${printable(name)}" contains control characters.`);
+		if (CONTROL.test(name) || CONTROL.test(value)) {
+			error(400, `The query parameter "${printable(name)}" contains control characters.`);
+		}
 	}
 	return resolve(event);
 };
 
 /** The first form field (by name) whose text holds a control character other than tab, LF or CR. */
-export function controlCharField(entries: Iterable<[string, FormDataEntryValue | string]>): string | null {
+export function controlCharField(
+	entries: Iterable<[string, FormDataEntryValue | string]>
+): string | null {
 	for (const [name, value] of entries) {
 		if (CONTROL_IN_TEXT.test(name)) return printable(name);
-		if (typeof value === 'string' ? CONTROL_IN_TEXT.test(value) : CONTROL_IN_TEXT.test(value.name)) return name;
+		if (
+			typeof value === 'string' ? CONTROL_IN_TEXT.test(value) : CONTROL_IN_TEXT.test(value.name)
+		) {
+			return name;
+		}
 	}
 	return null;
 }
@@ -57,6 +65,7 @@ const join = (path: string, key: string) => (path ? `${path}.${key}` : key);
 
 /** A name fit to quote back in a message: control characters shown as \uXXXX, at most 60 characters. */
 function printable(s: string): string {
+	const hex = (c: string) => `\\u${c.charCodeAt(0).toString(16).padStart(4, '0')}`;
 	// eslint-disable-next-line no-control-regex
-	return s.slice(0, 60).replace(/[\u0000-\u001f\u007f]/g, (c) => `\\u${c.charCodeAt(0).toString(16).padStart(4, '0')}`);
+	return s.slice(0, 60).replace(/[\u0000-\u001f\u007f]/g, hex);
 }

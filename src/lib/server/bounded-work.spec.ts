@@ -10,7 +10,11 @@ import { eq } from 'drizzle-orm';
 import { describe, expect, it } from 'vitest';
 import { MAX_CHECK_BOXES, MAX_GRID_CELLS, MAX_SWEEP_WORK, type FitReport } from '$lib/geometry';
 import { demoParts, demoSceneInput } from '$lib/geometry/fixtures';
-import { PILE_CONTROL_POSITIONS, largestAllowedPile, pileSceneInput } from '$lib/geometry/hostile.spec-util';
+import {
+	PILE_CONTROL_POSITIONS,
+	largestAllowedPile,
+	pileSceneInput
+} from '$lib/geometry/hostile.spec-util';
 import { demoBuildIn, storedVariant } from './builds.spec-util';
 import { db } from './db';
 import { variants } from './db/schema';
@@ -24,7 +28,10 @@ const app = useApp();
 type Problem = { message: string; issues: { path: string; message: string }[] };
 
 function post(c: ReturnType<typeof app.client>, method: string, path: string, body: unknown) {
-	return c.request(method, path, { body: JSON.stringify(body), headers: { 'content-type': 'application/json', accept: 'application/json', origin: app.baseURL } });
+	return c.request(method, path, {
+		body: JSON.stringify(body),
+		headers: { 'content-type': 'application/json', accept: 'application/json', origin: app.baseURL }
+	});
 }
 
 async function designerClient() {
@@ -67,23 +74,38 @@ describe('bounded work per request', () => {
 	it('a 10,000-cell grid sweep → 422 naming the grid limit; a long sweep over many boxes → 422 naming the work limit', async () => {
 		const { c } = await designerClient();
 		const t0 = performance.now();
-		const grid = await post(c, 'POST', '/api/sweep', { scene: pileSceneInput(10), control: { kind: 'divider', id: 'shelf' }, controlB: { kind: 'bracket', id: 'bar' } });
+		const grid = await post(c, 'POST', '/api/sweep', {
+			scene: pileSceneInput(10),
+			control: { kind: 'divider', id: 'shelf' },
+			controlB: { kind: 'bracket', id: 'bar' }
+		});
 		const ms = performance.now() - t0;
 		expect(grid.status, grid.text.slice(0, 300)).toBe(422);
 		const body = grid.json<Problem>();
-		expect(body.message).toContain(`${(PILE_CONTROL_POSITIONS ** 2).toLocaleString('en-US')} cells`);
+		expect(body.message).toContain(
+			`${(PILE_CONTROL_POSITIONS ** 2).toLocaleString('en-US')} cells`
+		);
 		expect(body.message).toContain(`${MAX_GRID_CELLS.toLocaleString('en-US')} cells`);
 		expect(body.issues[0].path).toBe('controlB');
 		expect(ms).toBeLessThan(5_000);
 
 		const positions = Array.from({ length: 10_000 }, (_, i) => 100 + (i % PILE_CONTROL_POSITIONS));
-		const long = await post(c, 'POST', '/api/sweep', { scene: pileSceneInput(400), control: { kind: 'divider', id: 'shelf' }, positions });
+		const long = await post(c, 'POST', '/api/sweep', {
+			scene: pileSceneInput(400),
+			control: { kind: 'divider', id: 'shelf' },
+			positions
+		});
 		expect(long.status, long.text.slice(0, 300)).toBe(422);
-		expect(long.json<Problem>().message).toContain(`${MAX_SWEEP_WORK.toLocaleString('en-US')} position-boxes`);
+		expect(long.json<Problem>().message).toContain(
+			`${MAX_SWEEP_WORK.toLocaleString('en-US')} position-boxes`
+		);
 		expect(long.json<Problem>().issues[0].path).toBe('positions');
 
 		// A sweep within the limits still runs (in the worker) and answers every position.
-		const ok = await post(c, 'POST', '/api/sweep', { scene: pileSceneInput(10), control: { kind: 'divider', id: 'shelf' } });
+		const ok = await post(c, 'POST', '/api/sweep', {
+			scene: pileSceneInput(10),
+			control: { kind: 'divider', id: 'shelf' }
+		});
 		expect(ok.status, ok.text.slice(0, 300)).toBe(200);
 		expect(ok.json<{ points: unknown[] }>().points).toHaveLength(PILE_CONTROL_POSITIONS);
 		await homeAnswers();
@@ -95,10 +117,12 @@ describe('bounded work per request', () => {
 		// Three at once: with one worker they queue, so the checks take several times one check.
 		const started = performance.now();
 		let checksDoneAt = 0;
-		const checks = Promise.all([0, 1, 2].map(() => post(c, 'POST', '/api/check', heavy))).then((all) => {
-			checksDoneAt = performance.now();
-			return all;
-		});
+		const checks = Promise.all([0, 1, 2].map(() => post(c, 'POST', '/api/check', heavy))).then(
+			(all) => {
+				checksDoneAt = performance.now();
+				return all;
+			}
+		);
 		await new Promise((r) => setTimeout(r, 100));
 		const latencies: number[] = [];
 		for (let i = 0; i < 5; i++) latencies.push(await homeAnswers());
@@ -110,7 +134,9 @@ describe('bounded work per request', () => {
 			expect(report.overlaps).toHaveLength(200);
 			expect(report.overlaps.length + report.overlapsNotListed).toBeGreaterThan(100_000);
 		}
-		console.log(`GET / during the heaviest checks: ${latencies.map((l) => l.toFixed(0)).join(', ')} ms; the three checks took ${(checksDoneAt - started).toFixed(0)} ms`);
+		console.log(
+			`GET / during the heaviest checks: ${latencies.map((l) => l.toFixed(0)).join(', ')} ms; the three checks took ${(checksDoneAt - started).toFixed(0)} ms`
+		);
 		expect(homeDoneAt).toBeLessThan(checksDoneAt);
 		// Generous bound; the figure above is the measurement.
 		expect(Math.max(...latencies)).toBeLessThan(2_000);
@@ -123,12 +149,26 @@ describe('bounded work per request', () => {
 			const studio = await createStudio();
 			const designer = await createMember(studio.id, 'designer');
 			const c = new Client(tight.baseURL).useSession(designer.session);
-			const res = await c.request('POST', '/api/check', { body: JSON.stringify(pileSceneInput(largestAllowedPile())), headers: { 'content-type': 'application/json', accept: 'application/json', origin: tight.baseURL } });
+			const res = await c.request('POST', '/api/check', {
+				body: JSON.stringify(pileSceneInput(largestAllowedPile())),
+				headers: {
+					'content-type': 'application/json',
+					accept: 'application/json',
+					origin: tight.baseURL
+				}
+			});
 			expect(res.status, res.text.slice(0, 300)).toBe(503);
 			expect(res.text).toContain('budget');
 			expect((await new Client(tight.baseURL).get('/')).status).toBe(200);
 			// The pool replaces the stopped worker: a cheap check still answers.
-			const demo = await c.request('POST', '/api/check', { body: JSON.stringify(demoSceneInput()), headers: { 'content-type': 'application/json', accept: 'application/json', origin: tight.baseURL } });
+			const demo = await c.request('POST', '/api/check', {
+				body: JSON.stringify(demoSceneInput()),
+				headers: {
+					'content-type': 'application/json',
+					accept: 'application/json',
+					origin: tight.baseURL
+				}
+			});
 			expect(demo.status).toBe(200);
 		} finally {
 			await tight.stop();
@@ -140,13 +180,18 @@ describe('bounded work per request', () => {
 		const b = await demoBuildIn(studio.id, designer.id);
 		const one = b.settings.placements[0];
 		const placements = Array.from({ length: 1_500 }, (_, i) => ({ ...one, id: `pile-${i}` }));
-		const res = await post(c, 'PUT', `/api/builds/${b.buildId}/variants/${b.variantId}`, { version: b.version, settings: { ...b.settings, placements } });
+		const res = await post(c, 'PUT', `/api/builds/${b.buildId}/variants/${b.variantId}`, {
+			version: b.version,
+			settings: { ...b.settings, placements }
+		});
 		expect(res.status, res.text.slice(0, 300)).toBe(422);
 		const body = res.json<Problem>();
 		expect(body.issues[0].path).toBe('settings.placements');
 		expect(body.issues[0].message).toMatch(/limit is (2,000 boxes|500,000 candidate pairs)/);
 		expect((await storedVariant(b.variantId)).version).toBe(b.version);
-		const check = await post(c, 'POST', `/api/builds/${b.buildId}/check`, { settings: { ...b.settings, placements } });
+		const check = await post(c, 'POST', `/api/builds/${b.buildId}/check`, {
+			settings: { ...b.settings, placements }
+		});
 		expect(check.status).toBe(422);
 		expect(check.json<Problem>().issues[0].path).toBe('settings.placements');
 	});
@@ -155,15 +200,34 @@ describe('bounded work per request', () => {
 		const f = await sharedDemo();
 		// The demo part with the fewest boxes, piled until the scene is over the box limit but
 		// under the schema's 5,000: what an old save could hold.
-		const sizes = new Map(demoParts().map((p) => [f.partIds.get(p.id) ?? p.id, p.bodies.length + (p.keepouts?.length ?? 0)]));
-		const one = [...f.settings.placements].sort((a, b) => (sizes.get(a.partId) ?? 9) - (sizes.get(b.partId) ?? 9))[0];
+		const sizes = new Map(
+			demoParts().map((p) => [
+				f.partIds.get(p.id) ?? p.id,
+				p.bodies.length + (p.keepouts?.length ?? 0)
+			])
+		);
+		const one = [...f.settings.placements].sort(
+			(a, b) => (sizes.get(a.partId) ?? 9) - (sizes.get(b.partId) ?? 9)
+		)[0];
 		const n = Math.floor(4_900 / (sizes.get(one.partId) ?? 1));
 		const placements = Array.from({ length: n }, (_, i) => ({ ...one, id: `pile-${i}` }));
-		await db.update(variants).set({ settings: { ...f.settings, placements } }).where(eq(variants.id, f.variantId));
-		await db.insert(variants).values({ id: `${f.variantId}-b`, buildId: f.buildId, name: 'Variant B', sortOrder: 1, settings: f.settings });
+		await db
+			.update(variants)
+			.set({ settings: { ...f.settings, placements } })
+			.where(eq(variants.id, f.variantId));
+		await db.insert(variants).values({
+			id: `${f.variantId}-b`,
+			buildId: f.buildId,
+			name: 'Variant B',
+			sortOrder: 1,
+			settings: f.settings
+		});
 
 		const designer = app.client({ session: f.designer.session });
-		for (const path of [`/builds/${f.buildId}/sheet?variant=${f.variantId}`, `/builds/${f.buildId}/compare?variants=${f.variantId},${f.variantId}-b`]) {
+		for (const path of [
+			`/builds/${f.buildId}/sheet?variant=${f.variantId}`,
+			`/builds/${f.buildId}/compare?variants=${f.variantId},${f.variantId}-b`
+		]) {
 			const res = await designer.get(path);
 			expect(res.status, `${path}: ${res.text.slice(0, 200)}`).toBe(422);
 			expect(res.text).toContain('the limit is 2,000 boxes');

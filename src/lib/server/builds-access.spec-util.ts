@@ -18,8 +18,20 @@ async function withBuild(f: MatrixFixture) {
 	f.vars.settings = JSON.stringify(b.settings);
 }
 
-const editors = (ok: number): MatrixRow['expect'] => ({ owner: ok, designer: ok, client: 403, outsider: 404, anonymous: 401 });
-const anyoneSignedIn = (ok: number): MatrixRow['expect'] => ({ owner: ok, designer: ok, client: ok, outsider: ok, anonymous: 401 });
+const editors = (ok: number): MatrixRow['expect'] => ({
+	owner: ok,
+	designer: ok,
+	client: 403,
+	outsider: 404,
+	anonymous: 401
+});
+const anyoneSignedIn = (ok: number): MatrixRow['expect'] => ({
+	owner: ok,
+	designer: ok,
+	client: ok,
+	outsider: ok,
+	anonymous: 401
+});
 
 export const buildRows: MatrixRow[] = [
 	{
@@ -35,9 +47,16 @@ export const buildRows: MatrixRow[] = [
 		action: 'version',
 		path: (f) => `/builds/${f.vars.buildId}?/version`,
 		setup: withBuild,
-		form: (f) => ({ variantId: f.vars.variantId, revision: f.vars.version, note: 'Matrix version' }),
+		form: (f) => ({
+			variantId: f.vars.variantId,
+			revision: f.vars.version,
+			note: 'Matrix version'
+		}),
 		expect: { owner: 200, designer: 200, client: 403, outsider: 404, anonymous: SIGN_IN },
-		changes: { by: ['owner', 'designer'], check: async (f) => (await latestVersion(f.vars.variantId))?.note === 'Matrix version' }
+		changes: {
+			by: ['owner', 'designer'],
+			check: async (f) => (await latestVersion(f.vars.variantId))?.note === 'Matrix version'
+		}
 	},
 	{
 		route: '/builds/[id]',
@@ -46,11 +65,24 @@ export const buildRows: MatrixRow[] = [
 		path: (f) => `/builds/${f.vars.buildId}?/startFrom`,
 		setup: withBuild,
 		form: (f) => ({ variantId: f.vars.variantId }),
-		expect: { owner: { status: 303, location: /\?variant=/ }, designer: { status: 303, location: /\?variant=/ }, client: 403, outsider: 404, anonymous: SIGN_IN },
-		changes: { by: ['owner', 'designer'], check: async (f) => (await variantsOf(f.vars.buildId)).length === 2 }
+		expect: {
+			owner: { status: 303, location: /\?variant=/ },
+			designer: { status: 303, location: /\?variant=/ },
+			client: 403,
+			outsider: 404,
+			anonymous: SIGN_IN
+		},
+		changes: {
+			by: ['owner', 'designer'],
+			check: async (f) => (await variantsOf(f.vars.buildId)).length === 2
+		}
 	},
 	// Acts on the visitor's own active studio: the outsider sees theirs.
-	{ route: '/builds/new', method: 'GET', expect: { owner: 200, designer: 200, client: 403, outsider: 200, anonymous: SIGN_IN } },
+	{
+		route: '/builds/new',
+		method: 'GET',
+		expect: { owner: 200, designer: 200, client: 403, outsider: 200, anonymous: SIGN_IN }
+	},
 	{
 		route: '/builds/new',
 		method: 'POST',
@@ -60,7 +92,13 @@ export const buildRows: MatrixRow[] = [
 		},
 		form: (f) => ({ name: 'Matrix build', enclosureId: f.vars.enclosureId }),
 		// The outsider's active studio has no such enclosure: the form comes back with a message.
-		expect: { owner: { status: 303, location: /^\/builds\/[^/]+$/ }, designer: { status: 303, location: /^\/builds\/[^/]+$/ }, client: 403, outsider: 400, anonymous: SIGN_IN },
+		expect: {
+			owner: { status: 303, location: /^\/builds\/[^/]+$/ },
+			designer: { status: 303, location: /^\/builds\/[^/]+$/ },
+			client: 403,
+			outsider: 400,
+			anonymous: SIGN_IN
+		},
 		changes: { by: ['owner', 'designer'], check: async (f) => (await buildCount(f.studio.id)) > 0 }
 	},
 	{
@@ -83,12 +121,23 @@ export const buildRows: MatrixRow[] = [
 		method: 'PUT',
 		path: (f) => `/api/builds/${f.vars.buildId}/variants/${f.vars.variantId}`,
 		setup: withBuild,
-		json: (f) => ({ version: Number(f.vars.version), settings: { ...JSON.parse(f.vars.settings), marginMm: 4 } }),
+		json: (f) => ({
+			version: Number(f.vars.version),
+			settings: { ...JSON.parse(f.vars.settings), marginMm: 4 }
+		}),
 		expect: editors(200),
-		changes: { by: ['owner', 'designer'], check: async (f) => (await storedVariant(f.vars.variantId)).version > Number(f.vars.version) }
+		changes: {
+			by: ['owner', 'designer'],
+			check: async (f) => (await storedVariant(f.vars.variantId)).version > Number(f.vars.version)
+		}
 	},
 	// The engine itself: a scene in, a report out, no studio data involved; any signed-in person.
-	{ route: '/api/check', method: 'POST', json: () => demoSceneInput(), expect: anyoneSignedIn(200) },
+	{
+		route: '/api/check',
+		method: 'POST',
+		json: () => demoSceneInput(),
+		expect: anyoneSignedIn(200)
+	},
 	{
 		route: '/api/sweep',
 		method: 'POST',

@@ -26,7 +26,10 @@ export type TestBuild = {
 };
 
 export async function demoEnclosureIn(studioId: string, userId: string | null) {
-	const created = await createEnclosure(studioId, userId, { definition: demoEnclosure(), note: 'test' });
+	const created = await createEnclosure(studioId, userId, {
+		definition: demoEnclosure(),
+		note: 'test'
+	});
 	if (!created.ok) throw new Error(`demo enclosure refused: ${JSON.stringify(created)}`);
 	return { enclosureId: created.value.id, enclosureVersionId: created.value.current.id };
 }
@@ -39,7 +42,10 @@ export async function demoPartsIn(studioId: string): Promise<Record<string, stri
 			ids[p.id] = p.id;
 			continue;
 		}
-		const created = await createPart(studioId, { ...p, provenance: p.provenance === 'standard' ? 'estimate' : p.provenance });
+		const created = await createPart(studioId, {
+			...p,
+			provenance: p.provenance === 'standard' ? 'estimate' : p.provenance
+		});
 		if (!created.ok) throw new Error(`demo part ${p.id} refused: ${JSON.stringify(created)}`);
 		ids[p.id] = created.value.id;
 	}
@@ -62,20 +68,51 @@ export function demoSettings(partIds: Record<string, string>): VariantSettings {
 export async function demoBuildIn(studioId: string, userId: string): Promise<TestBuild> {
 	const { enclosureId, enclosureVersionId } = await demoEnclosureIn(studioId, userId);
 	const partIds = await demoPartsIn(studioId);
-	const buildId = await createBuild({ studioId, userId, name: 'Test build', clientName: '', notes: '', enclosureId });
+	const buildId = await createBuild({
+		studioId,
+		userId,
+		name: 'Test build',
+		clientName: '',
+		notes: '',
+		enclosureId
+	});
 	const [variant] = await variantsOf(buildId);
 	const settings = demoSettings(partIds);
-	const saved = await saveVariantSettings({ buildId, studioId, enclosureVersionId, variantId: variant.id, expectedVersion: variant.version, settings });
+	const saved = await saveVariantSettings({
+		buildId,
+		studioId,
+		enclosureVersionId,
+		variantId: variant.id,
+		expectedVersion: variant.version,
+		settings
+	});
 	if (!saved.ok) throw new Error('the first save of a fresh variant conflicted');
-	return { studioId, buildId, variantId: variant.id, enclosureId, enclosureVersionId, partIds, settings, version: saved.version };
+	return {
+		studioId,
+		buildId,
+		variantId: variant.id,
+		enclosureId,
+		enclosureVersionId,
+		partIds,
+		settings,
+		version: saved.version
+	};
 }
 
 /** The variant's row as stored: version and settings. */
 export async function storedVariant(variantId: string) {
-	const [row] = await db.select({ version: variants.version, settings: variants.settings, updatedAt: variants.updatedAt }).from(variants).where(eq(variants.id, variantId));
+	const [row] = await db
+		.select({
+			version: variants.version,
+			settings: variants.settings,
+			updatedAt: variants.updatedAt
+		})
+		.from(variants)
+		.where(eq(variants.id, variantId));
 	return row;
 }
 
 export async function buildCount(studioId: string) {
-	return (await db.select({ id: builds.id }).from(builds).where(eq(builds.studioId, studioId))).length;
+	return (await db.select({ id: builds.id }).from(builds).where(eq(builds.studioId, studioId)))
+		.length;
 }

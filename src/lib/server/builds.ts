@@ -13,9 +13,24 @@ import {
 	type PartDef,
 	type Scene
 } from '$lib/geometry';
-import { composeScene, defaultSettings, variantSettingsSchema, type VariantSettings } from '$lib/builds/settings';
+import {
+	composeScene,
+	defaultSettings,
+	variantSettingsSchema,
+	type VariantSettings
+} from '$lib/builds/settings';
 import { db, type Tx } from './db';
-import { builds, enclosureVersions, enclosures, memberships, parts, payments, photos, variants, type VariantRow } from './db/schema';
+import {
+	builds,
+	enclosureVersions,
+	enclosures,
+	memberships,
+	parts,
+	payments,
+	photos,
+	variants,
+	type VariantRow
+} from './db/schema';
 import { deleteObjects } from './storage';
 import { newId } from './tokens';
 import { assertNotFrozen, frozenState, latestVersion, recordRevision } from './versions';
@@ -32,7 +47,14 @@ export class SceneRejected extends Error {
 
 export async function enclosureVersionDef(versionId: string) {
 	const [row] = await db
-		.select({ id: enclosureVersions.id, version: enclosureVersions.version, definition: enclosureVersions.definition, enclosureId: enclosureVersions.enclosureId, name: enclosures.name, studioId: enclosures.studioId })
+		.select({
+			id: enclosureVersions.id,
+			version: enclosureVersions.version,
+			definition: enclosureVersions.definition,
+			enclosureId: enclosureVersions.enclosureId,
+			name: enclosures.name,
+			studioId: enclosures.studioId
+		})
 		.from(enclosureVersions)
 		.innerJoin(enclosures, eq(enclosures.id, enclosureVersions.enclosureId))
 		.where(eq(enclosureVersions.id, versionId));
@@ -44,20 +66,36 @@ export async function enclosureVersionDef(versionId: string) {
  * Parts a studio may place: its own (archived ones too, so old builds still load) and the
  * standard library. Anything else is reported as not allowed.
  */
-export async function partsForStudio(studioId: string, ids: string[]): Promise<{ parts: PartDef[]; forbidden: string[] }> {
-	return partsWhere(ids, (unique) => and(inArray(parts.id, unique), or(eq(parts.studioId, studioId), isNull(parts.studioId))));
+export async function partsForStudio(
+	studioId: string,
+	ids: string[]
+): Promise<{ parts: PartDef[]; forbidden: string[] }> {
+	return partsWhere(ids, (unique) =>
+		and(inArray(parts.id, unique), or(eq(parts.studioId, studioId), isNull(parts.studioId)))
+	);
 }
 
 /** The same, for the studio that owns a build, without first reading the build (one round trip). */
 export async function partsForBuildStudio(buildId: string, ids: string[]) {
-	const studioOfBuild = db.select({ studioId: builds.studioId }).from(builds).where(eq(builds.id, buildId));
-	return partsWhere(ids, (unique) => and(inArray(parts.id, unique), or(inArray(parts.studioId, studioOfBuild), isNull(parts.studioId))));
+	const studioOfBuild = db
+		.select({ studioId: builds.studioId })
+		.from(builds)
+		.where(eq(builds.id, buildId));
+	return partsWhere(ids, (unique) =>
+		and(
+			inArray(parts.id, unique),
+			or(inArray(parts.studioId, studioOfBuild), isNull(parts.studioId))
+		)
+	);
 }
 
 async function partsWhere(ids: string[], where: (unique: string[]) => SQL | undefined) {
 	const unique = [...new Set(ids)];
 	if (unique.length === 0) return { parts: [] as PartDef[], forbidden: [] as string[] };
-	const rows = await db.select({ id: parts.id, definition: parts.definition, name: parts.name }).from(parts).where(where(unique));
+	const rows = await db
+		.select({ id: parts.id, definition: parts.definition, name: parts.name })
+		.from(parts)
+		.where(where(unique));
 	const found = new Set(rows.map((r) => r.id));
 	return {
 		// Stored definitions were validated on write; every caller passes them through the scene
@@ -76,35 +114,82 @@ export async function checkContext(buildId: string, userId: string) {
 		.select({ build: builds, role: memberships.role, definition: enclosureVersions.definition })
 		.from(builds)
 		.innerJoin(enclosureVersions, eq(enclosureVersions.id, builds.enclosureVersionId))
-		.leftJoin(memberships, and(eq(memberships.studioId, builds.studioId), eq(memberships.userId, userId)))
+		.leftJoin(
+			memberships,
+			and(eq(memberships.studioId, builds.studioId), eq(memberships.userId, userId))
+		)
 		.where(eq(builds.id, buildId));
 	return row ?? null;
 }
 
-export async function createBuild(input: { studioId: string; userId: string; name: string; clientName: string; notes: string; enclosureId: string }) {
+export async function createBuild(input: {
+	studioId: string;
+	userId: string;
+	name: string;
+	clientName: string;
+	notes: string;
+	enclosureId: string;
+}) {
 	const [enc] = await db
 		.select()
 		.from(enclosures)
 		.where(and(eq(enclosures.id, input.enclosureId), eq(enclosures.studioId, input.studioId)));
-	if (!enc) throw new SceneRejected([{ path: 'enclosureId', message: 'No such enclosure in this studio.' }], 404);
+	if (!enc) {
+		throw new SceneRejected(
+			[{ path: 'enclosureId', message: 'No such enclosure in this studio.' }],
+			404
+		);
+	}
 	const [version] = await db
 		.select()
 		.from(enclosureVersions)
-		.where(and(eq(enclosureVersions.enclosureId, enc.id), eq(enclosureVersions.version, enc.currentVersion)));
+		.where(
+			and(
+				eq(enclosureVersions.enclosureId, enc.id),
+				eq(enclosureVersions.version, enc.currentVersion)
+			)
+		);
 	const definition = enclosureDefSchema.parse(version.definition);
 	const id = newId();
 	await db.transaction(async (tx) => {
-		await tx.insert(builds).values({ id, studioId: input.studioId, name: input.name, clientName: input.clientName, notes: input.notes, enclosureVersionId: version.id, createdBy: input.userId });
+		await tx.insert(builds).values({
+			id,
+			studioId: input.studioId,
+			name: input.name,
+			clientName: input.clientName,
+			notes: input.notes,
+			enclosureVersionId: version.id,
+			createdBy: input.userId
+		});
 		const variantId = newId();
 		const settings = defaultSettings(definition);
-		await tx.insert(variants).values({ id: variantId, buildId: id, name: 'Variant A', sortOrder: 0, isProposal: true, settings });
-		await tx.insert(variantVersions).values({ id: newId(), variantId, number: 1, note: 'First version', settings, revision: 1, createdBy: input.userId });
+		await tx.insert(variants).values({
+			id: variantId,
+			buildId: id,
+			name: 'Variant A',
+			sortOrder: 0,
+			isProposal: true,
+			settings
+		});
+		await tx.insert(variantVersions).values({
+			id: newId(),
+			variantId,
+			number: 1,
+			note: 'First version',
+			settings,
+			revision: 1,
+			createdBy: input.userId
+		});
 	});
 	return id;
 }
 
 export async function variantsOf(buildId: string) {
-	return db.select().from(variants).where(eq(variants.buildId, buildId)).orderBy(asc(variants.sortOrder), asc(variants.createdAt));
+	return db
+		.select()
+		.from(variants)
+		.where(eq(variants.buildId, buildId))
+		.orderBy(asc(variants.sortOrder), asc(variants.createdAt));
 }
 
 export type LoadedVariant = {
@@ -119,14 +204,25 @@ export type LoadedVariant = {
  * A variant as the engine sees it. Throws SceneRejected if the stored scene no longer validates.
  * `versionSettings` loads one of its versions instead of its current state (the client page).
  */
-export async function loadVariant(buildId: string, studioId: string, enclosureVersionId: string, variantId?: string, versionSettings?: unknown): Promise<LoadedVariant | null> {
+export async function loadVariant(
+	buildId: string,
+	studioId: string,
+	enclosureVersionId: string,
+	variantId?: string,
+	versionSettings?: unknown
+): Promise<LoadedVariant | null> {
 	const list = await variantsOf(buildId);
-	const variant = variantId ? list.find((v) => v.id === variantId) : (list.find((v) => v.isProposal) ?? list[0]);
+	const variant = variantId
+		? list.find((v) => v.id === variantId)
+		: (list.find((v) => v.isProposal) ?? list[0]);
 	if (!variant) return null;
 	const enc = await enclosureVersionDef(enclosureVersionId);
 	if (!enc) return null;
 	const settings = variantSettingsSchema.parse(versionSettings ?? variant.settings);
-	const { parts: defs } = await partsForStudio(studioId, settings.placements.map((p) => p.partId));
+	const { parts: defs } = await partsForStudio(
+		studioId,
+		settings.placements.map((p) => p.partId)
+	);
 	const scene = validateScene(enc.definition, defs, settings);
 	return { variant, settings, enclosure: enc.definition, parts: defs, scene };
 }
@@ -135,12 +231,24 @@ const SETTINGS_KEYS = ['dividerPositions', 'bracketOffsets', 'placements', 'marg
 
 /** A scene path in the variant's own fields, named as the request names it: `settings.…`. */
 function settingsPath(path: string) {
-	return SETTINGS_KEYS.some((k) => path === k || path.startsWith(`${k}.`) || path.startsWith(`${k}[`)) ? `settings.${path}` : path;
+	return SETTINGS_KEYS.some(
+		(k) => path === k || path.startsWith(`${k}.`) || path.startsWith(`${k}[`)
+	)
+		? `settings.${path}`
+		: path;
 }
 
-export function validateScene(enclosure: EnclosureDef, defs: PartDef[], settings: VariantSettings): Scene {
+export function validateScene(
+	enclosure: EnclosureDef,
+	defs: PartDef[],
+	settings: VariantSettings
+): Scene {
 	const parsed = sceneSchema.safeParse(composeScene(enclosure, defs, settings));
-	if (!parsed.success) throw new SceneRejected(formatZodIssues(parsed.error).map((i) => ({ ...i, path: settingsPath(i.path) })));
+	if (!parsed.success) {
+		throw new SceneRejected(
+			formatZodIssues(parsed.error).map((i) => ({ ...i, path: settingsPath(i.path) }))
+		);
+	}
 	return parsed.data;
 }
 
@@ -154,17 +262,48 @@ export type SaveResult =
  * anything is written; a frozen variant (approved) refuses with VariantFrozen (409). Each save is a
  * revision, kept and pruned by age.
  */
-export async function saveVariantSettings(input: { buildId: string; studioId: string; enclosureVersionId: string; variantId: string; expectedVersion: number; settings: unknown; userId?: string | null }): Promise<SaveResult> {
+export async function saveVariantSettings(input: {
+	buildId: string;
+	studioId: string;
+	enclosureVersionId: string;
+	variantId: string;
+	expectedVersion: number;
+	settings: unknown;
+	userId?: string | null;
+}): Promise<SaveResult> {
 	const parsed = variantSettingsSchema.safeParse(input.settings);
-	if (!parsed.success) throw new SceneRejected(formatZodIssues(parsed.error).map((i) => ({ ...i, path: `settings${i.path ? '.' + i.path : ''}` })));
+	if (!parsed.success) {
+		throw new SceneRejected(
+			formatZodIssues(parsed.error).map((i) => ({
+				...i,
+				path: `settings${i.path ? '.' + i.path : ''}`
+			}))
+		);
+	}
 	const settings = parsed.data;
-	const { parts: defs, forbidden } = await partsForStudio(input.studioId, settings.placements.map((p) => p.partId));
+	const { parts: defs, forbidden } = await partsForStudio(
+		input.studioId,
+		settings.placements.map((p) => p.partId)
+	);
 	if (forbidden.length) {
 		const i = settings.placements.findIndex((p) => forbidden.includes(p.partId));
-		throw new SceneRejected([{ path: `settings.placements[${i}].partId`, message: 'This part is not in your studio’s catalogue.' }], 403);
+		throw new SceneRejected(
+			[
+				{
+					path: `settings.placements[${i}].partId`,
+					message: 'This part is not in your studio’s catalogue.'
+				}
+			],
+			403
+		);
 	}
 	const enc = await enclosureVersionDef(input.enclosureVersionId);
-	if (!enc) throw new SceneRejected([{ path: 'enclosure', message: 'The build’s enclosure version is missing.' }], 409);
+	if (!enc) {
+		throw new SceneRejected(
+			[{ path: 'enclosure', message: 'The build’s enclosure version is missing.' }],
+			409
+		);
+	}
 	const scene = validateScene(enc.definition, defs, settings);
 	// A stored variant is checked on every later load of the editor, sheet and client page, so
 	// one over the cost limits is refused here rather than stored.
@@ -172,21 +311,51 @@ export async function saveVariantSettings(input: { buildId: string; studioId: st
 	if (excess) throw new SceneRejected([{ path: excess.path, message: excess.message }], 422);
 	return db.transaction(async (tx) => {
 		// The row lock orders this save after an approval being written, so the freeze is seen.
-		const [locked] = await tx.select({ id: variants.id }).from(variants).where(and(eq(variants.id, input.variantId), eq(variants.buildId, input.buildId))).for('update');
+		const [locked] = await tx
+			.select({ id: variants.id })
+			.from(variants)
+			.where(and(eq(variants.id, input.variantId), eq(variants.buildId, input.buildId)))
+			.for('update');
 		if (locked) await assertNotFrozen(input.variantId, tx);
 		const [row] = await tx
 			.update(variants)
 			.set({ settings, version: input.expectedVersion + 1, updatedAt: new Date() })
-			.where(and(eq(variants.id, input.variantId), eq(variants.buildId, input.buildId), eq(variants.version, input.expectedVersion)))
+			.where(
+				and(
+					eq(variants.id, input.variantId),
+					eq(variants.buildId, input.buildId),
+					eq(variants.version, input.expectedVersion)
+				)
+			)
 			.returning({ version: variants.version });
 		if (row) {
-			await recordRevision(tx, { variantId: input.variantId, revision: row.version, settings, userId: input.userId });
+			await recordRevision(tx, {
+				variantId: input.variantId,
+				revision: row.version,
+				settings,
+				userId: input.userId
+			});
 			await tx.update(builds).set({ updatedAt: new Date() }).where(eq(builds.id, input.buildId));
 			return { ok: true as const, version: row.version, scene };
 		}
-		const [current] = await tx.select().from(variants).where(and(eq(variants.id, input.variantId), eq(variants.buildId, input.buildId)));
-		if (!current) throw new SceneRejected([{ path: 'variantId', message: 'No such variant in this build.' }], 404);
-		return { ok: false as const, conflict: { version: current.version, settings: variantSettingsSchema.parse(current.settings), updatedAt: current.updatedAt } };
+		const [current] = await tx
+			.select()
+			.from(variants)
+			.where(and(eq(variants.id, input.variantId), eq(variants.buildId, input.buildId)));
+		if (!current) {
+			throw new SceneRejected(
+				[{ path: 'variantId', message: 'No such variant in this build.' }],
+				404
+			);
+		}
+		return {
+			ok: false as const,
+			conflict: {
+				version: current.version,
+				settings: variantSettingsSchema.parse(current.settings),
+				updatedAt: current.updatedAt
+			}
+		};
 	});
 }
 
@@ -207,20 +376,47 @@ export class VariantRuleError extends Error {
  * any later revision), remembers it, numbers its own versions on from it and becomes the proposal
  * when the source was: "start a new variant from it".
  */
-export async function forkVariant(buildId: string, variantId: string, name?: string, opts: { fromVersion?: boolean } = {}) {
+export async function forkVariant(
+	buildId: string,
+	variantId: string,
+	name?: string,
+	opts: { fromVersion?: boolean } = {}
+) {
 	return db.transaction(async (tx) => {
-		const list = await tx.select().from(variants).where(eq(variants.buildId, buildId)).orderBy(asc(variants.sortOrder), asc(variants.createdAt)).for('update');
+		const list = await tx
+			.select()
+			.from(variants)
+			.where(eq(variants.buildId, buildId))
+			.orderBy(asc(variants.sortOrder), asc(variants.createdAt))
+			.for('update');
 		const source = list.find((v) => v.id === variantId);
 		if (!source) throw new VariantRuleError('No such variant in this build.', 404);
 		const base = opts.fromVersion ? await latestVersion(source.id, tx) : null;
-		if (opts.fromVersion && !base) throw new VariantRuleError('This variant has no version to start from yet.', 409);
+		if (opts.fromVersion && !base) {
+			throw new VariantRuleError('This variant has no version to start from yet.', 409);
+		}
 		const id = newId();
 		const at = list.indexOf(source) + 1;
 		const ordered = [...list.slice(0, at).map((v) => v.id), id, ...list.slice(at).map((v) => v.id)];
 		const wanted = base ? `${source.name}, after version ${base.number}` : `${source.name} (copy)`;
 		const proposal = !!base && source.isProposal;
-		if (proposal) await tx.update(variants).set({ isProposal: false }).where(eq(variants.buildId, buildId));
-		await tx.insert(variants).values({ id, buildId, name: name ?? uniqueName(list.map((v) => v.name), wanted), sortOrder: at, isProposal: proposal, settings: base ? base.settings : source.settings, basedOnVersionId: base?.id ?? null });
+		if (proposal) {
+			await tx.update(variants).set({ isProposal: false }).where(eq(variants.buildId, buildId));
+		}
+		await tx.insert(variants).values({
+			id,
+			buildId,
+			name:
+				name ??
+				uniqueName(
+					list.map((v) => v.name),
+					wanted
+				),
+			sortOrder: at,
+			isProposal: proposal,
+			settings: base ? base.settings : source.settings,
+			basedOnVersionId: base?.id ?? null
+		});
 		await renumber(tx, ordered);
 		return id;
 	});
@@ -234,18 +430,29 @@ function uniqueName(taken: string[], wanted: string) {
 }
 
 async function renumber(tx: Tx, ids: string[]) {
-	for (let i = 0; i < ids.length; i++) await tx.update(variants).set({ sortOrder: i }).where(eq(variants.id, ids[i]));
+	for (let i = 0; i < ids.length; i++) {
+		await tx.update(variants).set({ sortOrder: i }).where(eq(variants.id, ids[i]));
+	}
 }
 
 export async function renameVariant(buildId: string, variantId: string, name: string) {
-	const rows = await db.update(variants).set({ name, updatedAt: new Date() }).where(and(eq(variants.id, variantId), eq(variants.buildId, buildId))).returning({ id: variants.id });
+	const rows = await db
+		.update(variants)
+		.set({ name, updatedAt: new Date() })
+		.where(and(eq(variants.id, variantId), eq(variants.buildId, buildId)))
+		.returning({ id: variants.id });
 	if (!rows.length) throw new VariantRuleError('No such variant in this build.', 404);
 }
 
 /** Moves a variant one place up (−1) or down (+1). */
 export async function moveVariant(buildId: string, variantId: string, by: -1 | 1) {
 	await db.transaction(async (tx) => {
-		const list = await tx.select().from(variants).where(eq(variants.buildId, buildId)).orderBy(asc(variants.sortOrder), asc(variants.createdAt)).for('update');
+		const list = await tx
+			.select()
+			.from(variants)
+			.where(eq(variants.buildId, buildId))
+			.orderBy(asc(variants.sortOrder), asc(variants.createdAt))
+			.for('update');
 		const i = list.findIndex((v) => v.id === variantId);
 		if (i < 0) throw new VariantRuleError('No such variant in this build.', 404);
 		const j = i + by;
@@ -259,16 +466,30 @@ export async function moveVariant(buildId: string, variantId: string, by: -1 | 1
 /** The last variant can't go; deleting the proposal makes the first remaining one the proposal. */
 export async function deleteVariant(buildId: string, variantId: string) {
 	await db.transaction(async (tx) => {
-		const list = await tx.select().from(variants).where(eq(variants.buildId, buildId)).orderBy(asc(variants.sortOrder), asc(variants.createdAt)).for('update');
+		const list = await tx
+			.select()
+			.from(variants)
+			.where(eq(variants.buildId, buildId))
+			.orderBy(asc(variants.sortOrder), asc(variants.createdAt))
+			.for('update');
 		const target = list.find((v) => v.id === variantId);
 		if (!target) throw new VariantRuleError('No such variant in this build.', 404);
-		if (list.length === 1) throw new VariantRuleError('A build keeps at least one variant; this is the last one.', 409);
+		if (list.length === 1) {
+			throw new VariantRuleError('A build keeps at least one variant; this is the last one.', 409);
+		}
 		const frozen = await frozenState(variantId, tx);
-		if (frozen.frozen) throw new VariantRuleError(`Read-only: ${frozen.reason} It cannot be deleted.`, 409);
+		if (frozen.frozen) {
+			throw new VariantRuleError(`Read-only: ${frozen.reason} It cannot be deleted.`, 409);
+		}
 		await tx.delete(variants).where(eq(variants.id, variantId));
 		const rest = list.filter((v) => v.id !== variantId);
-		if (target.isProposal) await tx.update(variants).set({ isProposal: true }).where(eq(variants.id, rest[0].id));
-		await renumber(tx, rest.map((v) => v.id));
+		if (target.isProposal) {
+			await tx.update(variants).set({ isProposal: true }).where(eq(variants.id, rest[0].id));
+		}
+		await renumber(
+			tx,
+			rest.map((v) => v.id)
+		);
 	});
 }
 
@@ -283,11 +504,27 @@ export async function deleteBuild(buildId: string): Promise<void> {
 	const keys = await db.transaction(async (tx) => {
 		// Locking the build first makes a photo upload that is adding a row wait (or fail on the
 		// foreign key), so the list of files below is complete.
-		const [build] = await tx.select({ id: builds.id }).from(builds).where(eq(builds.id, buildId)).for('update');
+		const [build] = await tx
+			.select({ id: builds.id })
+			.from(builds)
+			.where(eq(builds.id, buildId))
+			.for('update');
 		if (!build) throw new VariantRuleError('No such build.', 404);
-		const [paid] = await tx.select({ id: payments.id }).from(payments).where(eq(payments.buildId, buildId)).limit(1);
-		if (paid) throw new VariantRuleError('This build has a deposit on record, so it stays for the studio’s accounts.', 409);
-		const files = await tx.select({ storageKey: photos.storageKey, thumbKey: photos.thumbKey }).from(photos).where(eq(photos.buildId, buildId));
+		const [paid] = await tx
+			.select({ id: payments.id })
+			.from(payments)
+			.where(eq(payments.buildId, buildId))
+			.limit(1);
+		if (paid) {
+			throw new VariantRuleError(
+				'This build has a deposit on record, so it stays for the studio’s accounts.',
+				409
+			);
+		}
+		const files = await tx
+			.select({ storageKey: photos.storageKey, thumbKey: photos.thumbKey })
+			.from(photos)
+			.where(eq(photos.buildId, buildId));
 		await tx.delete(builds).where(eq(builds.id, buildId));
 		return files.flatMap((f) => [f.storageKey, f.thumbKey]);
 	});
@@ -297,7 +534,11 @@ export async function deleteBuild(buildId: string): Promise<void> {
 /** Exactly one variant per build is the proposal. */
 export async function markProposal(buildId: string, variantId: string) {
 	await db.transaction(async (tx) => {
-		const [target] = await tx.select().from(variants).where(and(eq(variants.id, variantId), eq(variants.buildId, buildId))).for('update');
+		const [target] = await tx
+			.select()
+			.from(variants)
+			.where(and(eq(variants.id, variantId), eq(variants.buildId, buildId)))
+			.for('update');
 		if (!target) throw new VariantRuleError('No such variant in this build.', 404);
 		await tx.update(variants).set({ isProposal: false }).where(eq(variants.buildId, buildId));
 		await tx.update(variants).set({ isProposal: true }).where(eq(variants.id, variantId));
@@ -314,19 +555,41 @@ export type MovePlan = {
 };
 
 /** What moving the build to the enclosure's current version would change, without changing anything. */
-export async function planMoveOn(build: { id: string; studioId: string; enclosureVersionId: string }): Promise<MovePlan | null> {
+export async function planMoveOn(build: {
+	id: string;
+	studioId: string;
+	enclosureVersionId: string;
+}): Promise<MovePlan | null> {
 	const from = await enclosureVersionDef(build.enclosureVersionId);
 	if (!from) return null;
 	const [enc] = await db.select().from(enclosures).where(eq(enclosures.id, from.enclosureId));
-	const [latest] = await db.select().from(enclosureVersions).where(and(eq(enclosureVersions.enclosureId, from.enclosureId), eq(enclosureVersions.version, enc.currentVersion)));
+	const [latest] = await db
+		.select()
+		.from(enclosureVersions)
+		.where(
+			and(
+				eq(enclosureVersions.enclosureId, from.enclosureId),
+				eq(enclosureVersions.version, enc.currentVersion)
+			)
+		);
 	const base = { id: from.id, version: from.version, definition: from.definition };
 	if (!latest || latest.id === from.id) return { from: base, to: null, variants: [] };
-	const to = { id: latest.id, version: latest.version, definition: enclosureDefSchema.parse(latest.definition) };
+	const to = {
+		id: latest.id,
+		version: latest.version,
+		definition: enclosureDefSchema.parse(latest.definition)
+	};
 	const list = await variantsOf(build.id);
 	const out: MovePlan['variants'] = [];
 	for (const v of list) {
-		const { settings, resets } = adaptSettings(variantSettingsSchema.parse(v.settings), to.definition);
-		const { parts: defs } = await partsForStudio(build.studioId, settings.placements.map((p) => p.partId));
+		const { settings, resets } = adaptSettings(
+			variantSettingsSchema.parse(v.settings),
+			to.definition
+		);
+		const { parts: defs } = await partsForStudio(
+			build.studioId,
+			settings.placements.map((p) => p.partId)
+		);
 		let problems: FieldIssue[] = [];
 		try {
 			validateScene(to.definition, defs, settings);
@@ -340,7 +603,10 @@ export async function planMoveOn(build: { id: string; studioId: string; enclosur
 }
 
 /** Keeps every position the new definition allows; others go to its first allowed position. */
-function adaptSettings(settings: VariantSettings, def: EnclosureDef): { settings: VariantSettings; resets: string[] } {
+function adaptSettings(
+	settings: VariantSettings,
+	def: EnclosureDef
+): { settings: VariantSettings; resets: string[] } {
 	const fresh = defaultSettings(def);
 	const resets: string[] = [];
 	const keep = (kind: 'dividerPositions' | 'bracketOffsets', defs: (DividerDefT | BracketDefT)[]) =>
@@ -348,7 +614,11 @@ function adaptSettings(settings: VariantSettings, def: EnclosureDef): { settings
 			defs.map((d) => {
 				const old = settings[kind][d.id];
 				if (old !== undefined && allowedIndex(d, old) >= 0) return [d.id, old];
-				if (old !== undefined) resets.push(`${d.label}: ${old} mm is not allowed any more; set to ${fresh[kind][d.id]} mm`);
+				if (old !== undefined) {
+					resets.push(
+						`${d.label}: ${old} mm is not allowed any more; set to ${fresh[kind][d.id]} mm`
+					);
+				}
 				return [d.id, fresh[kind][d.id]];
 			})
 		);
@@ -361,26 +631,55 @@ function adaptSettings(settings: VariantSettings, def: EnclosureDef): { settings
 		}
 		return p;
 	});
-	return { settings: { ...settings, dividerPositions: keep('dividerPositions', def.dividers), bracketOffsets: keep('bracketOffsets', def.brackets), placements }, resets };
+	return {
+		settings: {
+			...settings,
+			dividerPositions: keep('dividerPositions', def.dividers),
+			bracketOffsets: keep('bracketOffsets', def.brackets),
+			placements
+		},
+		resets
+	};
 }
 
 /** Moves the build and adapts every variant in one transaction; each variant gets a new version. */
-export async function moveOn(build: { id: string; studioId: string; enclosureVersionId: string }, expectedToVersionId: string) {
+export async function moveOn(
+	build: { id: string; studioId: string; enclosureVersionId: string },
+	expectedToVersionId: string
+) {
 	const plan = await planMoveOn(build);
 	if (!plan?.to) throw new VariantRuleError('The build is already on the current version.', 409);
-	if (plan.to.id !== expectedToVersionId) throw new VariantRuleError('The enclosure changed again; look at the new changes first.', 409);
+	if (plan.to.id !== expectedToVersionId) {
+		throw new VariantRuleError('The enclosure changed again; look at the new changes first.', 409);
+	}
 	const to = plan.to;
 	for (const v of plan.variants) {
 		const frozen = await frozenState(v.id);
-		if (frozen.frozen) throw new VariantRuleError(`${v.name} is read-only: ${frozen.reason} Moving the build would change it.`, 409);
+		if (frozen.frozen) {
+			throw new VariantRuleError(
+				`${v.name} is read-only: ${frozen.reason} Moving the build would change it.`,
+				409
+			);
+		}
 	}
 	await db.transaction(async (tx) => {
-		const [row] = await tx.update(builds).set({ enclosureVersionId: to.id, updatedAt: new Date() }).where(and(eq(builds.id, build.id), eq(builds.enclosureVersionId, build.enclosureVersionId))).returning({ id: builds.id });
+		const [row] = await tx
+			.update(builds)
+			.set({ enclosureVersionId: to.id, updatedAt: new Date() })
+			.where(and(eq(builds.id, build.id), eq(builds.enclosureVersionId, build.enclosureVersionId)))
+			.returning({ id: builds.id });
 		if (!row) throw new VariantRuleError('Someone moved this build at the same time.', 409);
-		const list = await tx.select().from(variants).where(eq(variants.buildId, build.id)).for('update');
+		const list = await tx
+			.select()
+			.from(variants)
+			.where(eq(variants.buildId, build.id))
+			.for('update');
 		for (const v of list) {
 			const { settings } = adaptSettings(variantSettingsSchema.parse(v.settings), to.definition);
-			await tx.update(variants).set({ settings, version: v.version + 1, updatedAt: new Date() }).where(eq(variants.id, v.id));
+			await tx
+				.update(variants)
+				.set({ settings, version: v.version + 1, updatedAt: new Date() })
+				.where(eq(variants.id, v.id));
 		}
 	});
 	return plan;

@@ -8,19 +8,37 @@ import { loadVariant, variantsOf } from './builds';
 /** `?variants=a,b,c` → 2 or 3 of this build's variants; with none named, the first two. */
 export async function loadComparison(build: BuildRow, param: string | null) {
 	const all = await variantsOf(build.id);
-	let ids = (param ?? '').split(',').map((s) => s.trim()).filter(Boolean);
+	let ids = (param ?? '')
+		.split(',')
+		.map((s) => s.trim())
+		.filter(Boolean);
 	if (ids.length === 0) ids = all.slice(0, 2).map((v) => v.id);
 	ids = [...new Set(ids)];
-	if (ids.length < 2 || ids.length > 3) error(400, 'Compare two or three variants (variants=a,b or a,b,c).');
+	if (ids.length < 2 || ids.length > 3) {
+		error(400, 'Compare two or three variants (variants=a,b or a,b,c).');
+	}
 	const unknown = ids.filter((id) => !all.some((v) => v.id === id));
 	if (unknown.length) error(404, 'A variant named in the address is not in this build.');
-	const loaded = await Promise.all(ids.map((id) => loadVariant(build.id, build.studioId, build.enclosureVersionId, id)));
+	const loaded = await Promise.all(
+		ids.map((id) => loadVariant(build.id, build.studioId, build.enclosureVersionId, id))
+	);
 	const items = await Promise.all(
 		loaded.map(async (l) => {
 			if (!l) error(404, 'Variant not found.');
-			return { id: l.variant.id, name: l.variant.name, scene: l.scene, report: await checkInPool(l.scene), marginMm: l.settings.marginMm };
+			return {
+				id: l.variant.id,
+				name: l.variant.name,
+				scene: l.scene,
+				report: await checkInPool(l.scene),
+				marginMm: l.settings.marginMm
+			};
 		})
 	);
-	const inputs: CompareInput[] = items.map((i) => ({ id: i.id, name: i.name, report: i.report, marginMm: i.marginMm }));
+	const inputs: CompareInput[] = items.map((i) => ({
+		id: i.id,
+		name: i.name,
+		report: i.report,
+		marginMm: i.marginMm
+	}));
 	return { all, items, inputs, rows: compareVariants(inputs) };
 }

@@ -96,17 +96,32 @@ export function productionProblems(): string[] {
 		['PAYMENTS_SECRET_KEY', 'secret API key'],
 		['PAYMENTS_WEBHOOK_SECRET', 'webhook signing secret']
 	] as const) {
-		if (!isSet(name)) problems.push(`${name} is not set: the payment service's ${what} is required.`);
-		else if (BUILT_IN_SECRETS.includes(process.env[name]!.trim())) problems.push(`${name} is the built-in development value; set the real one.`);
+		if (!isSet(name)) {
+			problems.push(`${name} is not set: the payment service's ${what} is required.`);
+		} else if (BUILT_IN_SECRETS.includes(process.env[name]!.trim())) {
+			problems.push(`${name} is the built-in development value; set the real one.`);
+		}
 	}
-	if (!isSet('ORIGIN')) problems.push('ORIGIN is not set: the public address of the app (https://…), for links in mail and the form-post check.');
+	if (!isSet('ORIGIN')) {
+		problems.push(
+			'ORIGIN is not set: the public address of the app (https://…), for links in mail and the form-post check.'
+		);
+	}
 	if (!config.mailDisabled) {
 		for (const name of ['SMTP_HOST', 'SMTP_PORT', 'MAIL_FROM']) {
-			if (!isSet(name)) problems.push(`${name} is not set: set the mail settings, or MAIL_DISABLED=1 to run without mail.`);
+			if (!isSet(name)) {
+				problems.push(
+					`${name} is not set: set the mail settings, or MAIL_DISABLED=1 to run without mail.`
+				);
+			}
 		}
 	}
 	for (const name of ['INTERSTICE_DEV_TOOLS', 'INTERSTICE_BENCH_TOKEN']) {
-		if (isSet(name)) problems.push(`${name} is set: development tools are not allowed in production mode; unset it.`);
+		if (isSet(name)) {
+			problems.push(
+				`${name} is set: development tools are not allowed in production mode; unset it.`
+			);
+		}
 	}
 	return problems;
 }

@@ -15,16 +15,23 @@ import { useApp } from './testing/suite';
 
 const app = useApp();
 
-describe('reading other people\'s mail', () => {
+describe("reading other people's mail", () => {
 	it('invite, withdraw, reset for that address: the owner cannot read the reset link', async () => {
 		const studio = await createStudio();
 		const owner = await createMember(studio.id, 'owner');
 		const victim = await createUser();
 		const c = app.client({ session: owner.session });
 
-		expect((await c.action('/studio/members?/invite', { email: victim.email, role: 'designer' })).type).toBe('success');
-		const [invite] = await db.select().from(invites).where(and(eq(invites.studioId, studio.id), eq(invites.email, victim.email.toLowerCase())));
-		expect((await c.action('/studio/members?/revoke', { inviteId: invite.id })).type).toBe('success');
+		expect(
+			(await c.action('/studio/members?/invite', { email: victim.email, role: 'designer' })).type
+		).toBe('success');
+		const [invite] = await db
+			.select()
+			.from(invites)
+			.where(and(eq(invites.studioId, studio.id), eq(invites.email, victim.email.toLowerCase())));
+		expect((await c.action('/studio/members?/revoke', { inviteId: invite.id })).type).toBe(
+			'success'
+		);
 		expect((await app.client().action('/reset', { email: victim.email })).type).toBe('success');
 		// The reset mail really went out (to the catcher, read here as the machine's developer).
 		const reset = await waitForMail(victim.email, { subject: 'Reset' });

@@ -11,7 +11,9 @@ export const DEV_TOOL_PATHS = ['/api/noop'] as const;
 
 export async function devToolsHandle(event: RequestEvent): Promise<Response | null> {
 	if (event.url.pathname !== '/api/noop') return null;
-	if (event.request.method !== 'POST') return json({ message: 'Use POST.' }, { status: 405, headers: { allow: 'POST' } });
+	if (event.request.method !== 'POST') {
+		return json({ message: 'Use POST.' }, { status: 405, headers: { allow: 'POST' } });
+	}
 	if (!event.locals.user) return json({ message: 'Sign in first.' }, { status: 401 });
 	await event.request.text();
 	return json({ ok: true });

@@ -31,35 +31,73 @@ describe('GET /api/enclosures/[id]/room', () => {
 		const { studio, user, client } = await designer();
 		const made = await createEnclosure(studio.id, user.id, { definition: demoEnclosure() });
 		if (!made.ok) throw new Error('refused');
-		const res = await client.get(`/api/enclosures/${made.value.id}/room`, { accept: 'application/json' });
+		const res = await client.get(`/api/enclosures/${made.value.id}/room`, {
+			accept: 'application/json'
+		});
 		expect(res.status).toBe(200);
-		const room = res.json<{ room: { rows: { settings: { id: string; offsetMm: number }[]; figures: { id: string; valueMm: number }[] }[] } }>().room;
+		const room = res.json<{
+			room: {
+				rows: {
+					settings: { id: string; offsetMm: number }[];
+					figures: { id: string; valueMm: number }[];
+				}[];
+			};
+		}>().room;
 		expect(room.rows).toHaveLength(48);
-		const row = room.rows.find((r) => r.settings.find((s) => s.id === 'spine')!.offsetMm === DEMO_SPINE_OFFSETS['4 slots'])!;
+		const row = room.rows.find(
+			(r) => r.settings.find((s) => s.id === 'spine')!.offsetMm === DEMO_SPINE_OFFSETS['4 slots']
+		)!;
 		expect(row.figures.find((f) => f.id === 'over-board:tray')!.valueMm).toBeCloseTo(53.08, 9);
 	});
 
 	it('404 for an enclosure that does not exist', async () => {
 		const { client } = await designer();
-		expect((await client.get('/api/enclosures/nope/room', { accept: 'application/json' })).status).toBe(404);
+		expect(
+			(await client.get('/api/enclosures/nope/room', { accept: 'application/json' })).status
+		).toBe(404);
 	});
 });
 
 describe('POST /api/fits', () => {
-	const post = async (client: Awaited<ReturnType<typeof designer>>['client'], body: unknown) => client.request('POST', '/api/fits', { body: JSON.stringify(body), headers: { 'content-type': 'application/json', accept: 'application/json', origin: app.baseURL } });
+	const post = async (client: Awaited<ReturnType<typeof designer>>['client'], body: unknown) =>
+		client.request('POST', '/api/fits', {
+			body: JSON.stringify(body),
+			headers: {
+				'content-type': 'application/json',
+				accept: 'application/json',
+				origin: app.baseURL
+			}
+		});
 
 	it('ranks the standard library for the emptied front radiator mount, with combinations', async () => {
 		const { client } = await designer();
-		const scene = { ...demoSceneInput(), placements: demoSceneInput().placements!.filter((p) => p.mountId !== 'radiator') };
-		const res = await post(client, { scene, target: { kind: 'mount', mountId: 'radiator' }, combinations: true });
+		const scene = {
+			...demoSceneInput(),
+			placements: demoSceneInput().placements!.filter((p) => p.mountId !== 'radiator')
+		};
+		const res = await post(client, {
+			scene,
+			target: { kind: 'mount', mountId: 'radiator' },
+			combinations: true
+		});
 		expect(res.status).toBe(200);
-		const data = res.json<{ fits: { partId: string; status: string }[]; combinations: { key: string; spareMm: number; availableMm: number; stackMm: number }[] }>();
+		const data = res.json<{
+			fits: { partId: string; status: string }[];
+			combinations: { key: string; spareMm: number; availableMm: number; stackMm: number }[];
+		}>();
 		// The standard fans lie flat on the panel: all four fit the empty mount.
-		expect(data.fits.map((f) => f.partId).filter((id) => id.startsWith('std-fan')).sort()).toEqual(['std-fan-120-15', 'std-fan-120-25', 'std-fan-140-15', 'std-fan-140-25']);
+		expect(
+			data.fits
+				.map((f) => f.partId)
+				.filter((id) => id.startsWith('std-fan'))
+				.sort()
+		).toEqual(['std-fan-120-15', 'std-fan-120-25', 'std-fan-140-15', 'std-fan-140-25']);
 		// The standard library's radiators with its fans: each spare is the room less the stack, best first.
 		expect(data.combinations.length).toBeGreaterThan(0);
 		for (const c of data.combinations) expect(c.spareMm).toBeCloseTo(c.availableMm - c.stackMm, 9);
-		expect(data.combinations.map((c) => c.spareMm)).toEqual([...data.combinations.map((c) => c.spareMm)].sort((a, b) => b - a));
+		expect(data.combinations.map((c) => c.spareMm)).toEqual(
+			[...data.combinations.map((c) => c.spareMm)].sort((a, b) => b - a)
+		);
 	});
 
 	it.each([
@@ -72,24 +110,48 @@ describe('POST /api/fits', () => {
 		const { client } = await designer();
 		const res = await post(client, { scene: demoSceneInput(), target });
 		expect(res.status).toBe(400);
-		expect(res.json<{ issues: Issue[] }>().issues.map((i) => i.path).some((p) => p === path || (path === 'target.kind' && p.startsWith('target'))), res.text).toBe(true);
+		expect(
+			res
+				.json<{ issues: Issue[] }>()
+				.issues.map((i) => i.path)
+				.some((p) => p === path || (path === 'target.kind' && p.startsWith('target'))),
+			res.text
+		).toBe(true);
 	});
 
 	it('400 naming the part id that does not exist, and the control of a parts × positions table', async () => {
 		const { client } = await designer();
 		const target = { kind: 'replace', placementId: 'card' };
-		const bad = await post(client, { scene: demoSceneInput(), target, filters: { partIds: ['std-fan-120-25', 'nope'] } });
+		const bad = await post(client, {
+			scene: demoSceneInput(),
+			target,
+			filters: { partIds: ['std-fan-120-25', 'nope'] }
+		});
 		expect(bad.status).toBe(400);
 		expect(bad.json<{ issues: Issue[] }>().issues[0].path).toBe('filters.partIds[1]');
-		const noControl = await post(client, { scene: demoSceneInput(), target, positions: { kind: 'divider', id: 'nope' } });
+		const noControl = await post(client, {
+			scene: demoSceneInput(),
+			target,
+			positions: { kind: 'divider', id: 'nope' }
+		});
 		expect(noControl.json<{ issues: Issue[] }>().issues[0].path).toBe('positions.id');
 	});
 
 	it('parts × positions for two standard fans in place of the card', async () => {
 		const { client } = await designer();
-		const res = await post(client, { scene: demoSceneInput(), target: { kind: 'replace', placementId: 'card' }, filters: { partIds: ['std-fan-120-25', 'std-fan-140-25'] }, positions: { kind: 'divider', id: 'spine' } });
+		const res = await post(client, {
+			scene: demoSceneInput(),
+			target: { kind: 'replace', placementId: 'card' },
+			filters: { partIds: ['std-fan-120-25', 'std-fan-140-25'] },
+			positions: { kind: 'divider', id: 'spine' }
+		});
 		expect(res.status).toBe(200);
-		const table = res.json<{ partsByPositions: { positions: { label: string }[]; rows: { partId: string; cells: { status: string }[] }[] } }>().partsByPositions;
+		const table = res.json<{
+			partsByPositions: {
+				positions: { label: string }[];
+				rows: { partId: string; cells: { status: string }[] }[];
+			};
+		}>().partsByPositions;
 		expect(table.positions.map((p) => p.label)).toEqual(['4 slots', '3 slots', '2 slots']);
 		expect(table.rows.map((r) => r.partId)).toEqual(['std-fan-120-25', 'std-fan-140-25']);
 	});

@@ -16,7 +16,10 @@ export async function parseForm<S extends z.ZodType>(request: Request, schema: S
 	const bad = controlCharField(form);
 	if (bad) {
 		delete values[bad];
-		return { ok: false as const, failure: formFail(400, values, { [bad]: `${bad} contains control characters.` }) };
+		return {
+			ok: false as const,
+			failure: formFail(400, values, { [bad]: `${bad} contains control characters.` })
+		};
 	}
 	const result = schema.safeParse(raw);
 	if (result.success) return { ok: true as const, data: result.data as z.infer<S>, raw };
@@ -26,7 +29,11 @@ export async function parseForm<S extends z.ZodType>(request: Request, schema: S
 export type FormProblem = { values: Record<string, string>; errors: Record<string, string> };
 
 /** The one shape every form failure has, so pages can read `form.values` and `form.errors`. */
-export function formFail(status: number, values: Record<string, string>, errors: Record<string, string>) {
+export function formFail(
+	status: number,
+	values: Record<string, string>,
+	errors: Record<string, string>
+) {
 	const data: FormProblem = { values, errors };
 	return fail(status, data);
 }

@@ -20,7 +20,13 @@ import { demoEnclosure, demoParts, demoSceneInput } from '$lib/geometry/fixtures
 import { demoBuildIn, type TestBuild } from './builds.spec-util';
 import { db } from './db';
 import { createShareLink } from './sharing/links';
-import { clearRateLimits, createInvite, studioWithMembers, unique, type TestMember } from './testing/factories';
+import {
+	clearRateLimits,
+	createInvite,
+	studioWithMembers,
+	unique,
+	type TestMember
+} from './testing/factories';
 import { randomLoopback, type Client } from './testing/client';
 import { useApp } from './testing/suite';
 
@@ -43,8 +49,25 @@ beforeAll(async () => {
 	f = await studioWithMembers();
 	build = await demoBuildIn(f.studio.id, f.designer.id);
 	partId = Object.values(build.partIds).find((id) => !id.startsWith('std-'))!;
-	linkId = (await createShareLink({ studioId: f.studio.id, buildId: build.buildId, variantId: build.variantId, createdBy: f.designer.id, recipientEmail: '', recipientName: '', expiresAt: null })).link.id;
-	inviteId = (await createInvite({ studioId: f.studio.id, role: 'client', invitedBy: f.owner.id, email: `invitee@${DOMAIN}` })).id;
+	linkId = (
+		await createShareLink({
+			studioId: f.studio.id,
+			buildId: build.buildId,
+			variantId: build.variantId,
+			createdBy: f.designer.id,
+			recipientEmail: '',
+			recipientName: '',
+			expiresAt: null
+		})
+	).link.id;
+	inviteId = (
+		await createInvite({
+			studioId: f.studio.id,
+			role: 'client',
+			invitedBy: f.owner.id,
+			email: `invitee@${DOMAIN}`
+		})
+	).id;
 });
 
 /* ---------- what the rows look like ---------- */
@@ -85,11 +108,15 @@ async function digest(): Promise<Record<string, string>> {
 		checklist_tick: sql`select xmin::text as x, ctid::text as c from checklist_tick where build_id in ${builds}`
 	};
 	const parts = Object.entries(tables).map(
-		([name, q]) => sql`select ${name} as t, count(*)::int as n, coalesce(md5(string_agg(r.x || '@' || r.c, '|' order by r.c)), '') as h from (${q}) r`
+		([name, q]) =>
+			sql`select ${name} as t, count(*)::int as n, coalesce(md5(string_agg(r.x || '@' || r.c, '|' order by r.c)), '') as h from (${q}) r`
 	);
 	// The fuzzing accounts and the studio's builds once, then every table against them.
 	const rows = await db.execute<{ t: string; n: number; h: string }>(sql`
-		with acc as materialized (select id, email from "user" where id in (${sql.join(people.map((p) => sql`${p}`), sql`, `)}) or email like ${like}),
+		with acc as materialized (select id, email from "user" where id in (${sql.join(
+			people.map((p) => sql`${p}`),
+			sql`, `
+		)}) or email like ${like}),
 			b as materialized (select id from build where studio_id = ${studio})
 		${sql.join(parts, sql` union all `)}`);
 	return Object.fromEntries([...rows].map((r) => [r.t, `${r.n}:${r.h}`]));
@@ -99,7 +126,9 @@ async function digest(): Promise<Record<string, string>> {
  * counted against the next case. */
 async function outboxSettled() {
 	for (let i = 0; i < 100; i++) {
-		const [r] = await db.execute<{ n: number }>(sql`select count(*)::int as n from mail_outbox where done_at is null and (recipient like ${`%@${DOMAIN}`} or recipient in (${f.owner.email}, ${f.designer.email}, ${f.client.email}))`);
+		const [r] = await db.execute<{ n: number }>(
+			sql`select count(*)::int as n from mail_outbox where done_at is null and (recipient like ${`%@${DOMAIN}`} or recipient in (${f.owner.email}, ${f.designer.email}, ${f.client.email}))`
+		);
 		if (r.n === 0) return;
 		await new Promise((r) => setTimeout(r, 50));
 	}
@@ -133,20 +162,49 @@ const nastyStrings = fc.constantFrom(
 	'{}',
 	'[]'
 );
-const str = fc.oneof(nastyStrings, fc.string({ unit: 'binary', maxLength: 40 }), fc.string({ maxLength: 12 }));
+const str = fc.oneof(
+	nastyStrings,
+	fc.string({ unit: 'binary', maxLength: 40 }),
+	fc.string({ maxLength: 12 })
+);
 const num = fc.oneof(
-	fc.constantFrom(2 ** 31, 2 ** 31 - 1, -(2 ** 31) - 1, 2 ** 53, 1e300, -1e300, -1, 0, -0, 0.5, 1e-300),
+	fc.constantFrom(
+		2 ** 31,
+		2 ** 31 - 1,
+		-(2 ** 31) - 1,
+		2 ** 53,
+		1e300,
+		-1e300,
+		-1,
+		0,
+		-0,
+		0.5,
+		1e-300
+	),
 	fc.integer(),
 	fc.double({ noNaN: true, noDefaultInfinity: true })
 );
-const anyJson: fc.Arbitrary<unknown> = fc.oneof(str, num, fc.boolean(), fc.constant(null), fc.array(fc.oneof(str, num), { maxLength: 4 }), fc.dictionary(str, fc.oneof(str, num), { maxKeys: 3 }));
+const anyJson: fc.Arbitrary<unknown> = fc.oneof(
+	str,
+	num,
+	fc.boolean(),
+	fc.constant(null),
+	fc.array(fc.oneof(str, num), { maxLength: 4 }),
+	fc.dictionary(str, fc.oneof(str, num), { maxKeys: 3 })
+);
 
 /** Every path to a value in `v` (objects and arrays, at most 6 deep and 400 paths). */
-function pathsOf(v: unknown, prefix: (string | number)[] = [], out: (string | number)[][] = []): (string | number)[][] {
+function pathsOf(
+	v: unknown,
+	prefix: (string | number)[] = [],
+	out: (string | number)[][] = []
+): (string | number)[][] {
 	if (out.length >= 400 || prefix.length > 6) return out;
 	if (prefix.length) out.push(prefix);
 	if (Array.isArray(v)) v.forEach((x, i) => pathsOf(x, [...prefix, i], out));
-	else if (v && typeof v === 'object') for (const [k, x] of Object.entries(v)) pathsOf(x, [...prefix, k], out);
+	else if (v && typeof v === 'object') {
+		for (const [k, x] of Object.entries(v)) pathsOf(x, [...prefix, k], out);
+	}
 	return out;
 }
 
@@ -166,28 +224,84 @@ function setAt(root: unknown, path: (string | number)[], value: unknown, remove:
 function mutated(valid: () => unknown): fc.Arbitrary<string> {
 	const paths = pathsOf(valid());
 	return fc.oneof(
-		{ weight: 8, arbitrary: fc.tuple(fc.nat({ max: paths.length - 1 }), anyJson, fc.boolean()).map(([i, v, remove]) => JSON.stringify(setAt(valid(), paths[i], v, remove && i % 3 === 0))) },
+		{
+			weight: 8,
+			arbitrary: fc
+				.tuple(fc.nat({ max: paths.length - 1 }), anyJson, fc.boolean())
+				.map(([i, v, remove]) => JSON.stringify(setAt(valid(), paths[i], v, remove && i % 3 === 0)))
+		},
 		{ weight: 1, arbitrary: fc.constant(JSON.stringify(valid())) },
-		{ weight: 1, arbitrary: fc.oneof(fc.jsonValue({ maxDepth: 3 }).map((v) => JSON.stringify(v)), str, fc.constantFrom('', '{', '{"a":', '[1,2', '\u0000', 'null')) }
+		{
+			weight: 1,
+			arbitrary: fc.oneof(
+				fc.jsonValue({ maxDepth: 3 }).map((v) => JSON.stringify(v)),
+				str,
+				fc.constantFrom('', '{', '{"a":', '[1,2', '\u0000', 'null')
+			)
+		}
 	);
 }
 
 /** Field values for forms: mostly the valid one, else hostile. */
-const field = (valid: () => string) => fc.oneof({ weight: 2, arbitrary: fc.constant(null).map(valid) }, { weight: 3, arbitrary: str }, { weight: 1, arbitrary: num.map(String) });
-const email = fc.oneof(str, fc.stringMatching(/^[a-z0-9.]{1,12}$/).map((s) => `${s}@${DOMAIN}`), fc.constant(null).map(() => f.designer.email));
-const QUERY_KEYS = ['q', 'category', 'page', 'size', 'limit', 'ids', 'search', 'sort', 'dir', 'scope', 'archived', 'studio', 'variants', 'variant', 'next'];
+const field = (valid: () => string) =>
+	fc.oneof(
+		{ weight: 2, arbitrary: fc.constant(null).map(valid) },
+		{ weight: 3, arbitrary: str },
+		{ weight: 1, arbitrary: num.map(String) }
+	);
+const email = fc.oneof(
+	str,
+	fc.stringMatching(/^[a-z0-9.]{1,12}$/).map((s) => `${s}@${DOMAIN}`),
+	fc.constant(null).map(() => f.designer.email)
+);
+const QUERY_KEYS = [
+	'q',
+	'category',
+	'page',
+	'size',
+	'limit',
+	'ids',
+	'search',
+	'sort',
+	'dir',
+	'scope',
+	'archived',
+	'studio',
+	'variants',
+	'variant',
+	'next'
+];
 /** Query strings: known keys (and odd ones) with hostile values, or real ids now and then. */
 const query = () =>
 	fc.dictionary(
 		fc.oneof(fc.constantFrom(...QUERY_KEYS), str),
-		fc.oneof(str, num.map(String), fc.constantFrom('1', 'studio', 'desc', 'name', build.variantId, `${build.variantId},${build.variantId}`, f.studio.id)),
+		fc.oneof(
+			str,
+			num.map(String),
+			fc.constantFrom(
+				'1',
+				'studio',
+				'desc',
+				'name',
+				build.variantId,
+				`${build.variantId},${build.variantId}`,
+				f.studio.id
+			)
+		),
 		{ maxKeys: 4 }
 	);
 
 /* ---------- the requests ---------- */
 
 type Who = 'designer' | 'owner' | 'outsider' | 'anonymous';
-type Req = { name: string; who: Who; method: string; path: string; json?: string; form?: Record<string, string> };
+type Req = {
+	name: string;
+	who: Who;
+	method: string;
+	path: string;
+	json?: string;
+	form?: Record<string, string>;
+};
 
 /** Percent-encoding that also takes a lone surrogate (sent as the raw, invalid UTF-8 bytes). */
 const pathPart = (s: string) => {
@@ -211,20 +325,70 @@ const validPart = () => {
 function targets(): fc.Arbitrary<Req>[] {
 	const B = build.buildId;
 	const V = build.variantId;
-	const api = (name: string, method: string, path: string, body: fc.Arbitrary<string>) => body.map((json): Req => ({ name, who: 'designer', method, path, json }));
-	const get = (name: string, path: string, who: Who = 'designer') => query().map((q): Req => ({ name, who, method: 'GET', path: path + qs(q) }));
-	const form = (name: string, path: string, fields: Record<string, fc.Arbitrary<string>>, who: Who = 'designer') =>
-		fc.record(fields).map((values): Req => ({ name, who, method: 'POST', path, form: values }));
+	const api = (name: string, method: string, path: string, body: fc.Arbitrary<string>) =>
+		body.map((json): Req => ({ name, who: 'designer', method, path, json }));
+	const get = (name: string, path: string, who: Who = 'designer') =>
+		query().map((q): Req => ({ name, who, method: 'GET', path: path + qs(q) }));
+	const form = (
+		name: string,
+		path: string,
+		fields: Record<string, fc.Arbitrary<string>>,
+		who: Who = 'designer'
+	) => fc.record(fields).map((values): Req => ({ name, who, method: 'POST', path, form: values }));
 	return [
-		api('POST /api/check', 'POST', '/api/check', mutated(() => demoSceneInput())),
-		api('POST /api/sweep', 'POST', '/api/sweep', mutated(() => ({ scene: demoSceneInput(), control: { kind: 'bracket', id: 'bar' }, positions: [0, 10, 20] }))),
-		api('POST /api/builds/[id]/check', 'POST', `/api/builds/${B}/check`, mutated(() => ({ settings: build.settings }))),
-		api('PUT /api/builds/[id]/variants/[v]', 'PUT', `/api/builds/${B}/variants/${V}`, mutated(() => ({ version: build.version, settings: build.settings }))),
+		api(
+			'POST /api/check',
+			'POST',
+			'/api/check',
+			mutated(() => demoSceneInput())
+		),
+		api(
+			'POST /api/sweep',
+			'POST',
+			'/api/sweep',
+			mutated(() => ({
+				scene: demoSceneInput(),
+				control: { kind: 'bracket', id: 'bar' },
+				positions: [0, 10, 20]
+			}))
+		),
+		api(
+			'POST /api/builds/[id]/check',
+			'POST',
+			`/api/builds/${B}/check`,
+			mutated(() => ({ settings: build.settings }))
+		),
+		api(
+			'PUT /api/builds/[id]/variants/[v]',
+			'PUT',
+			`/api/builds/${B}/variants/${V}`,
+			mutated(() => ({ version: build.version, settings: build.settings }))
+		),
 		api('POST /api/parts', 'POST', '/api/parts', mutated(validPart)),
-		api('PUT /api/parts/[id]', 'PUT', `/api/parts/${partId}`, mutated(() => ({ ...validPart(), revision: 1 }))),
-		api('PATCH /api/parts/[id]', 'PATCH', `/api/parts/${partId}`, mutated(() => ({ archived: true, revision: 1 }))),
-		api('POST /api/enclosures', 'POST', '/api/enclosures', mutated(() => ({ definition: demoEnclosure(), note: 'fuzz' }))),
-		api('PUT /api/enclosures/[id]', 'PUT', `/api/enclosures/${build.enclosureId}`, mutated(() => ({ definition: demoEnclosure(), note: 'fuzz', revision: 1 }))),
+		api(
+			'PUT /api/parts/[id]',
+			'PUT',
+			`/api/parts/${partId}`,
+			mutated(() => ({ ...validPart(), revision: 1 }))
+		),
+		api(
+			'PATCH /api/parts/[id]',
+			'PATCH',
+			`/api/parts/${partId}`,
+			mutated(() => ({ archived: true, revision: 1 }))
+		),
+		api(
+			'POST /api/enclosures',
+			'POST',
+			'/api/enclosures',
+			mutated(() => ({ definition: demoEnclosure(), note: 'fuzz' }))
+		),
+		api(
+			'PUT /api/enclosures/[id]',
+			'PUT',
+			`/api/enclosures/${build.enclosureId}`,
+			mutated(() => ({ definition: demoEnclosure(), note: 'fuzz', revision: 1 }))
+		),
 		get('GET /api/parts', '/api/parts'),
 		get('GET /api/enclosures', '/api/enclosures'),
 		get('GET /api/parts/export', '/api/parts/export'),
@@ -232,25 +396,86 @@ function targets(): fc.Arbitrary<Req>[] {
 		get('GET /parts', '/parts'),
 		get('GET /builds/[id]', `/builds/${B}`),
 		get('GET /signin', '/signin', 'anonymous'),
-		str.map((s): Req => ({ name: 'GET /builds/[id] (id)', who: 'designer', method: 'GET', path: `/builds/${pathPart(s)}` })),
-		str.map((s): Req => ({ name: 'GET /api/parts/[id] (id)', who: 'designer', method: 'GET', path: `/api/parts/${pathPart(s)}` })),
-		form('POST /signin', '/signin', { email, password: field(() => 'not-the-password-9'), next: field(() => '/builds') }, 'anonymous'),
-		form('POST /signup', '/signup', { name: field(() => 'Fuzz Person'), email, password: field(() => 'long-enough-1'), next: field(() => '/account') }, 'anonymous'),
+		str.map((s): Req => ({
+			name: 'GET /builds/[id] (id)',
+			who: 'designer',
+			method: 'GET',
+			path: `/builds/${pathPart(s)}`
+		})),
+		str.map((s): Req => ({
+			name: 'GET /api/parts/[id] (id)',
+			who: 'designer',
+			method: 'GET',
+			path: `/api/parts/${pathPart(s)}`
+		})),
+		form(
+			'POST /signin',
+			'/signin',
+			{ email, password: field(() => 'not-the-password-9'), next: field(() => '/builds') },
+			'anonymous'
+		),
+		form(
+			'POST /signup',
+			'/signup',
+			{
+				name: field(() => 'Fuzz Person'),
+				email,
+				password: field(() => 'long-enough-1'),
+				next: field(() => '/account')
+			},
+			'anonymous'
+		),
 		form('POST /reset', '/reset', { email }, 'anonymous'),
 		// The outsider: a new studio becomes its maker's active one, and the designer must stay in theirs.
 		form('POST /studios/new', '/studios/new', { name: field(() => 'Fuzz Bench') }, 'outsider'),
-		form('POST /builds/new', '/builds/new', { name: field(() => 'Fuzz build'), clientName: field(() => ''), notes: field(() => ''), enclosureId: field(() => build.enclosureId) }),
-		form('POST /builds/[id]/share?/revoke', `/builds/${B}/share?/revoke`, { linkId: field(() => linkId) }),
-		form('POST /builds/[id]/share?/comment', `/builds/${B}/share?/comment`, { body: field(() => 'A note'), variantId: field(() => V), part: field(() => '') }),
-		form('POST /builds/[id]/photos?/delete', `/builds/${B}/photos?/delete`, { photoId: field(() => 'no-such-photo') }),
-		form('POST /builds/[id]/photos?/caption', `/builds/${B}/photos?/caption`, { photoId: field(() => 'no-such-photo'), caption: field(() => 'Front') }),
-		form('POST /builds/[id]/sheet?/tick', `/builds/${B}/sheet?/tick`, { variantId: field(() => V), key: field(() => 'no-such-item'), ticked: field(() => '1') }),
-		form('POST /builds/[id]/variants?/rename', `/builds/${B}/variants?/rename`, { variantId: field(() => V), name: field(() => 'Variant A') }),
-		form('POST /builds/[id]/variants?/move', `/builds/${B}/variants?/move`, { variantId: field(() => V), by: field(() => '1') }),
+		form('POST /builds/new', '/builds/new', {
+			name: field(() => 'Fuzz build'),
+			clientName: field(() => ''),
+			notes: field(() => ''),
+			enclosureId: field(() => build.enclosureId)
+		}),
+		form('POST /builds/[id]/share?/revoke', `/builds/${B}/share?/revoke`, {
+			linkId: field(() => linkId)
+		}),
+		form('POST /builds/[id]/share?/comment', `/builds/${B}/share?/comment`, {
+			body: field(() => 'A note'),
+			variantId: field(() => V),
+			part: field(() => '')
+		}),
+		form('POST /builds/[id]/photos?/delete', `/builds/${B}/photos?/delete`, {
+			photoId: field(() => 'no-such-photo')
+		}),
+		form('POST /builds/[id]/photos?/caption', `/builds/${B}/photos?/caption`, {
+			photoId: field(() => 'no-such-photo'),
+			caption: field(() => 'Front')
+		}),
+		form('POST /builds/[id]/sheet?/tick', `/builds/${B}/sheet?/tick`, {
+			variantId: field(() => V),
+			key: field(() => 'no-such-item'),
+			ticked: field(() => '1')
+		}),
+		form('POST /builds/[id]/variants?/rename', `/builds/${B}/variants?/rename`, {
+			variantId: field(() => V),
+			name: field(() => 'Variant A')
+		}),
+		form('POST /builds/[id]/variants?/move', `/builds/${B}/variants?/move`, {
+			variantId: field(() => V),
+			by: field(() => '1')
+		}),
 		form('POST /parts?/archive', '/parts?/archive', { id: field(() => 'no-such-part') }),
 		form('POST /parts?/duplicate', '/parts?/duplicate', { id: field(() => 'no-such-part') }),
-		form('POST /studio/members?/revoke', '/studio/members?/revoke', { inviteId: field(() => `${inviteId}-not`) }, 'owner'),
-		form('POST /studio/members?/role', '/studio/members?/role', { userId: field(() => f.client.id), role: field(() => 'client') }, 'owner')
+		form(
+			'POST /studio/members?/revoke',
+			'/studio/members?/revoke',
+			{ inviteId: field(() => `${inviteId}-not`) },
+			'owner'
+		),
+		form(
+			'POST /studio/members?/role',
+			'/studio/members?/role',
+			{ userId: field(() => f.client.id), role: field(() => 'client') },
+			'owner'
+		)
 	];
 }
 
@@ -265,10 +490,20 @@ async function send(req: Req, address: string) {
 		? c.postForm(req.path, req.form)
 		: c.request(req.method, req.path, {
 				body: req.json,
-				headers: { accept: 'application/json', origin: app.baseURL, ...(req.json !== undefined ? { 'content-type': 'application/json' } : {}) }
+				headers: {
+					accept: 'application/json',
+					origin: app.baseURL,
+					...(req.json !== undefined ? { 'content-type': 'application/json' } : {})
+				}
 			});
 	let timer: ReturnType<typeof setTimeout> | undefined;
-	const late = new Promise<never>((_, fail) => (timer = setTimeout(() => fail(new Error(`no answer within ${TIME_BUDGET_MS} ms`)), TIME_BUDGET_MS)));
+	const late = new Promise<never>(
+		(_, fail) =>
+			(timer = setTimeout(
+				() => fail(new Error(`no answer within ${TIME_BUDGET_MS} ms`)),
+				TIME_BUDGET_MS
+			))
+	);
 	try {
 		return await Promise.race([request, late]);
 	} finally {
@@ -277,45 +512,63 @@ async function send(req: Req, address: string) {
 }
 
 describe('fuzzing the API bodies, query strings and form fields', () => {
-	it(`${CASES} cases: never a 5xx, never a write on a 4xx, always an answer in time`, { timeout: 600_000 }, async () => {
-		const histogram = new Map<number, number>();
-		const byTarget = new Map<string, Map<number, number>>();
-		let cases = 0;
-		let slowestMs = 0;
-		// Own addresses, so sign-in and reset limits never reach other tests; cleared now and then
-		// so the fuzzing keeps reaching the code behind them.
-		const addresses = Array.from({ length: 4 }, () => randomLoopback());
-		let before = await digest();
-		const started = Date.now();
-		await fc.assert(
-			fc.asyncProperty(fc.oneof(...targets()), fc.nat({ max: addresses.length - 1 }), async (req, a) => {
-				cases++;
-				if (cases % 200 === 0) await Promise.all(addresses.map(clearRateLimits));
-				const t0 = Date.now();
-				const res = await send(req, addresses[a]);
-				slowestMs = Math.max(slowestMs, Date.now() - t0);
-				histogram.set(res.status, (histogram.get(res.status) ?? 0) + 1);
-				const mine = byTarget.get(req.name) ?? new Map<number, number>();
-				mine.set(res.status, (mine.get(res.status) ?? 0) + 1);
-				byTarget.set(req.name, mine);
-				const shown = `${req.method} ${req.path.slice(0, 200)} ${JSON.stringify(req.form ?? req.json ?? '').slice(0, 300)} → ${res.status} ${res.text.slice(0, 300)}`;
-				expect(res.status, shown).toBeLessThan(500);
-				if (res.status >= 400) {
-					const after = await digest();
-					expect(after, `a ${res.status} wrote: ${shown}`).toEqual(before);
-				} else {
-					await outboxSettled();
-					before = await digest();
-				}
-			}),
-			{ numRuns: CASES, seed: SEED, endOnFailure: true }
-		);
-		const seconds = (Date.now() - started) / 1000;
-		const h = [...histogram].sort(([x], [y]) => x - y).map(([s, n]) => `${s}: ${n}`).join(', ');
-		console.log(`fuzz: ${cases} cases in ${seconds.toFixed(1)} s (seed ${SEED}), slowest answer ${slowestMs} ms; statuses ${h}; 5xx: 0`);
-		for (const [name, m] of [...byTarget].sort()) {
-			console.log(`  ${name}: ${[...m].sort(([x], [y]) => x - y).map(([s, n]) => `${s}×${n}`).join(' ')}`);
+	it(
+		`${CASES} cases: never a 5xx, never a write on a 4xx, always an answer in time`,
+		{ timeout: 600_000 },
+		async () => {
+			const histogram = new Map<number, number>();
+			const byTarget = new Map<string, Map<number, number>>();
+			let cases = 0;
+			let slowestMs = 0;
+			// Own addresses, so sign-in and reset limits never reach other tests; cleared now and then
+			// so the fuzzing keeps reaching the code behind them.
+			const addresses = Array.from({ length: 4 }, () => randomLoopback());
+			let before = await digest();
+			const started = Date.now();
+			await fc.assert(
+				fc.asyncProperty(
+					fc.oneof(...targets()),
+					fc.nat({ max: addresses.length - 1 }),
+					async (req, a) => {
+						cases++;
+						if (cases % 200 === 0) await Promise.all(addresses.map(clearRateLimits));
+						const t0 = Date.now();
+						const res = await send(req, addresses[a]);
+						slowestMs = Math.max(slowestMs, Date.now() - t0);
+						histogram.set(res.status, (histogram.get(res.status) ?? 0) + 1);
+						const mine = byTarget.get(req.name) ?? new Map<number, number>();
+						mine.set(res.status, (mine.get(res.status) ?? 0) + 1);
+						byTarget.set(req.name, mine);
+						const shown = `${req.method} ${req.path.slice(0, 200)} ${JSON.stringify(req.form ?? req.json ?? '').slice(0, 300)} → ${res.status} ${res.text.slice(0, 300)}`;
+						expect(res.status, shown).toBeLessThan(500);
+						if (res.status >= 400) {
+							const after = await digest();
+							expect(after, `a ${res.status} wrote: ${shown}`).toEqual(before);
+						} else {
+							await outboxSettled();
+							before = await digest();
+						}
+					}
+				),
+				{ numRuns: CASES, seed: SEED, endOnFailure: true }
+			);
+			const seconds = (Date.now() - started) / 1000;
+			const h = [...histogram]
+				.sort(([x], [y]) => x - y)
+				.map(([s, n]) => `${s}: ${n}`)
+				.join(', ');
+			console.log(
+				`fuzz: ${cases} cases in ${seconds.toFixed(1)} s (seed ${SEED}), slowest answer ${slowestMs} ms; statuses ${h}; 5xx: 0`
+			);
+			for (const [name, m] of [...byTarget].sort()) {
+				console.log(
+					`  ${name}: ${[...m]
+						.sort(([x], [y]) => x - y)
+						.map(([s, n]) => `${s}×${n}`)
+						.join(' ')}`
+				);
+			}
+			expect(cases).toBeGreaterThanOrEqual(CASES);
 		}
-		expect(cases).toBeGreaterThanOrEqual(CASES);
-	});
+	);
 });

@@ -14,7 +14,12 @@ export function clientAddress(event: Pick<RequestEvent, 'getClientAddress'>) {
 }
 
 /** Counts the attempt; over the limit → HTTP 429 with a plain message and Retry-After. */
-export async function enforce(event: Pick<RequestEvent, 'getClientAddress' | 'setHeaders'>, bucket: string, limit: Limit, extraKey = '') {
+export async function enforce(
+	event: Pick<RequestEvent, 'getClientAddress' | 'setHeaders'>,
+	bucket: string,
+	limit: Limit,
+	extraKey = ''
+) {
 	const r = await hit(`${bucket}:${clientAddress(event)}${extraKey ? ':' + extraKey : ''}`, limit);
 	if (!r.allowed) {
 		event.setHeaders({ 'retry-after': String(r.retryAfterSec) });

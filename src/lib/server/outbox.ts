@@ -26,7 +26,12 @@ export type SignUpPayload = { name: string; passwordHash: string; next: string |
 export type OutboxKind = (typeof mailOutbox.kind.enumValues)[number];
 
 /** Adds a row; inside a transaction (`tx`) the caller schedules the drain after it commits. */
-export async function enqueue(kind: OutboxKind, recipient: string, payload: Record<string, unknown> = {}, tx?: Tx) {
+export async function enqueue(
+	kind: OutboxKind,
+	recipient: string,
+	payload: Record<string, unknown> = {},
+	tx?: Tx
+) {
 	await (tx ?? db).insert(mailOutbox).values({ kind, recipient: recipient.toLowerCase(), payload });
 	if (!tx) scheduleDrain();
 }
@@ -72,7 +77,10 @@ export async function drainOutbox(): Promise<number> {
 				try {
 					// A savepoint: a failed send leaves no token behind, only the retry bookkeeping.
 					await tx.transaction((sp) => deliver(sp, row));
-					await tx.update(mailOutbox).set({ doneAt: new Date(), payload: {}, lastError: null }).where(eq(mailOutbox.id, row.id));
+					await tx
+						.update(mailOutbox)
+						.set({ doneAt: new Date(), payload: {}, lastError: null })
+						.where(eq(mailOutbox.id, row.id));
 				} catch (e) {
 					const attempts = row.attempts + 1;
 					const delayMs = Math.min(60 * 60_000, 30_000 * 2 ** (attempts - 1));
@@ -104,7 +112,11 @@ async function deliver(tx: Tx, row: Row) {
 		// An unknown address gets nothing; the request that asked looked exactly the same.
 		if (!user) return;
 		const token = newToken();
-		await tx.insert(passwordResets).values({ tokenHash: hashToken(token), userId: user.id, expiresAt: new Date(Date.now() + RESET_TTL_MS) });
+		await tx.insert(passwordResets).values({
+			tokenHash: hashToken(token),
+			userId: user.id,
+			expiresAt: new Date(Date.now() + RESET_TTL_MS)
+		});
 		await sendMail({
 			to: user.email,
 			subject: 'Reset your Interstice password',
@@ -141,9 +153,14 @@ async function deliver(tx: Tx, row: Row) {
 /** Rows for one address, oldest first (tests and support questions). */
 export function outboxOf(recipient: string) {
 	return db
-		.select({ id: mailOutbox.id, kind: mailOutbox.kind, doneAt: mailOutbox.doneAt, attempts: mailOutbox.attempts, lastError: mailOutbox.lastError })
+		.select({
+			id: mailOutbox.id,
+			kind: mailOutbox.kind,
+			doneAt: mailOutbox.doneAt,
+			attempts: mailOutbox.attempts,
+			lastError: mailOutbox.lastError
+		})
 		.from(mailOutbox)
 		.where(eq(mailOutbox.recipient, recipient.toLowerCase()))
 		.orderBy(asc(mailOutbox.id));
 }
-

@@ -51,7 +51,10 @@ export type CheckoutInput = {
 
 export type CheckoutOutcome = { url: string } | { refused: string; newlyPaid: PaymentRow | null };
 
-type SessionFacts = Pick<Stripe.Checkout.Session, 'id' | 'amount_total' | 'currency' | 'payment_status'> & { payment_intent?: string | Stripe.PaymentIntent | null };
+type SessionFacts = Pick<
+	Stripe.Checkout.Session,
+	'id' | 'amount_total' | 'currency' | 'payment_status'
+> & { payment_intent?: string | Stripe.PaymentIntent | null };
 
 /**
  * The hosted checkout page for the quote's deposit, at most one per quote. The amount is the
@@ -62,26 +65,48 @@ export async function startCheckout(input: CheckoutInput): Promise<CheckoutOutco
 	const stripe = paymentsClient();
 	const after: AfterCommit = { refund: [], expire: [] };
 	const outcome = await db.transaction(async (tx): Promise<CheckoutOutcome> => {
-		const [quote] = await tx.select().from(quotes).where(eq(quotes.id, input.quoteId)).for('update');
-		if (!quote || quote.status !== 'sent') return { refused: 'The studio has not sent a quote yet.', newlyPaid: null };
+		const [quote] = await tx
+			.select()
+			.from(quotes)
+			.where(eq(quotes.id, input.quoteId))
+			.for('update');
+		if (!quote || quote.status !== 'sent') {
+			return { refused: 'The studio has not sent a quote yet.', newlyPaid: null };
+		}
 		const lines = await tx.select().from(quoteLines).where(eq(quoteLines.quoteId, quote.id));
 		const amountMinor = quoteTotals(lines, quote).depositMinor;
-		if (amountMinor <= 0) return { refused: 'The studio has not set a deposit yet.', newlyPaid: null };
+		if (amountMinor <= 0) {
+			return { refused: 'The studio has not set a deposit yet.', newlyPaid: null };
+		}
 		const [open] = await tx
 			.select()
 			.from(payments)
 			.where(and(eq(payments.quoteId, quote.id), inArray(payments.status, ['pending', 'paid'])));
-		if (open?.status === 'paid') return { refused: 'The deposit is already paid.', newlyPaid: null };
+		if (open?.status === 'paid') {
+			return { refused: 'The deposit is already paid.', newlyPaid: null };
+		}
 		if (open?.checkoutSessionId) {
 			let session = await stripe.checkout.sessions.retrieve(open.checkoutSessionId);
-			if (session.status === 'open' && session.url && open.amountMinor === amountMinor && open.currency === quote.currency) return { url: session.url };
+			if (
+				session.status === 'open' &&
+				session.url &&
+				open.amountMinor === amountMinor &&
+				open.currency === quote.currency
+			) {
+				return { url: session.url };
+			}
 			if (session.status === 'open') {
 				// The quote changed since this checkout opened: close it before opening the new one.
-				session = await stripe.checkout.sessions.expire(session.id).catch(() => stripe.checkout.sessions.retrieve(session.id));
+				session = await stripe.checkout.sessions
+					.expire(session.id)
+					.catch(() => stripe.checkout.sessions.retrieve(session.id));
 			}
 			if (session.status === 'complete') {
 				const marked = await markPaid(tx, session, after);
-				const refused = session.payment_status === 'paid' ? 'The deposit is already paid.' : 'Your payment is being processed; this page will show it once it is through.';
+				const refused =
+					session.payment_status === 'paid'
+						? 'The deposit is already paid.'
+						: 'Your payment is being processed; this page will show it once it is through.';
 				return { refused, newlyPaid: marked };
 			}
 		}
@@ -101,7 +126,16 @@ export async function startCheckout(input: CheckoutInput): Promise<CheckoutOutco
 		const session = await stripe.checkout.sessions.create(
 			{
 				mode: 'payment',
-				line_items: [{ quantity: 1, price_data: { currency: quote.currency.toLowerCase(), unit_amount: amountMinor, product_data: { name: input.describe(amountMinor, quote.currency) } } }],
+				line_items: [
+					{
+						quantity: 1,
+						price_data: {
+							currency: quote.currency.toLowerCase(),
+							unit_amount: amountMinor,
+							product_data: { name: input.describe(amountMinor, quote.currency) }
+						}
+					}
+				],
 				success_url: input.successUrl,
 				cancel_url: input.cancelUrl,
 				client_reference_id: id,
@@ -111,7 +145,10 @@ export async function startCheckout(input: CheckoutInput): Promise<CheckoutOutco
 			{ idempotencyKey: `deposit-${id}` }
 		);
 		if (!session.url) throw new Error('The payment service returned no checkout page.');
-		await tx.update(payments).set({ checkoutSessionId: session.id, checkoutUrl: session.url }).where(eq(payments.id, id));
+		await tx
+			.update(payments)
+			.set({ checkoutSessionId: session.id, checkoutUrl: session.url })
+			.where(eq(payments.id, id));
 		return { url: session.url };
 	});
 	await settle(after);
@@ -119,7 +156,10 @@ export async function startCheckout(input: CheckoutInput): Promise<CheckoutOutco
 }
 
 /** Work for the service once the database agrees: refunds of duplicates, checkouts to close. */
-type AfterCommit = { refund: { paymentId: string; paymentIntent: string | null }[]; expire: string[] };
+type AfterCommit = {
+	refund: { paymentId: string; paymentIntent: string | null }[];
+	expire: string[];
+};
 
 /**
  * Records a paid session against its payment, if the amount and currency are what was asked for.
@@ -127,25 +167,48 @@ type AfterCommit = { refund: { paymentId: string; paymentIntent: string | null }
  * quote counts; any later one becomes 'duplicate' and is queued for a refund. Returns the row only
  * when this call made it the quote's deposit.
  */
-async function markPaid(tx: Tx, session: SessionFacts, after: AfterCommit): Promise<PaymentRow | null> {
+async function markPaid(
+	tx: Tx,
+	session: SessionFacts,
+	after: AfterCommit
+): Promise<PaymentRow | null> {
 	if (session.payment_status !== 'paid') return null;
-	const [found] = await tx.select({ quoteId: payments.quoteId }).from(payments).where(eq(payments.checkoutSessionId, session.id));
+	const [found] = await tx
+		.select({ quoteId: payments.quoteId })
+		.from(payments)
+		.where(eq(payments.checkoutSessionId, session.id));
 	if (!found) return null;
 	await tx.select({ id: quotes.id }).from(quotes).where(eq(quotes.id, found.quoteId)).for('update');
-	const [p] = await tx.select().from(payments).where(eq(payments.checkoutSessionId, session.id)).for('update');
+	const [p] = await tx
+		.select()
+		.from(payments)
+		.where(eq(payments.checkoutSessionId, session.id))
+		.for('update');
 	if (p.status === 'paid' || p.status === 'duplicate' || p.status === 'refunded') return null;
 	if (session.amount_total !== p.amountMinor || session.currency?.toUpperCase() !== p.currency) {
-		console.error(`payments: session ${session.id} reports ${session.amount_total} ${session.currency}, expected ${p.amountMinor} ${p.currency}; not marked paid`);
+		console.error(
+			`payments: session ${session.id} reports ${session.amount_total} ${session.currency}, expected ${p.amountMinor} ${p.currency}; not marked paid`
+		);
 		return null;
 	}
-	const paymentIntent = typeof session.payment_intent === 'string' ? session.payment_intent : (session.payment_intent?.id ?? null);
+	const paymentIntent =
+		typeof session.payment_intent === 'string'
+			? session.payment_intent
+			: (session.payment_intent?.id ?? null);
 	const [counted] = await tx
 		.select({ id: payments.id })
 		.from(payments)
-		.where(and(eq(payments.quoteId, p.quoteId), eq(payments.status, 'paid'), ne(payments.id, p.id)));
+		.where(
+			and(eq(payments.quoteId, p.quoteId), eq(payments.status, 'paid'), ne(payments.id, p.id))
+		);
 	if (counted) {
-		console.error(`payments: session ${session.id} paid for quote ${p.quoteId}, whose deposit is already paid; not counted, refunding`);
-		await tx.update(payments).set({ status: 'duplicate', paidAt: new Date() }).where(eq(payments.id, p.id));
+		console.error(
+			`payments: session ${session.id} paid for quote ${p.quoteId}, whose deposit is already paid; not counted, refunding`
+		);
+		await tx
+			.update(payments)
+			.set({ status: 'duplicate', paidAt: new Date() })
+			.where(eq(payments.id, p.id));
 		after.refund.push({ paymentId: p.id, paymentIntent });
 		return null;
 	}
@@ -153,10 +216,16 @@ async function markPaid(tx: Tx, session: SessionFacts, after: AfterCommit): Prom
 	const others = await tx
 		.update(payments)
 		.set({ status: 'expired' })
-		.where(and(eq(payments.quoteId, p.quoteId), eq(payments.status, 'pending'), ne(payments.id, p.id)))
+		.where(
+			and(eq(payments.quoteId, p.quoteId), eq(payments.status, 'pending'), ne(payments.id, p.id))
+		)
 		.returning({ sessionId: payments.checkoutSessionId });
 	for (const o of others) if (o.sessionId) after.expire.push(o.sessionId);
-	const [row] = await tx.update(payments).set({ status: 'paid', paidAt: new Date() }).where(eq(payments.id, p.id)).returning();
+	const [row] = await tx
+		.update(payments)
+		.set({ status: 'paid', paidAt: new Date() })
+		.where(eq(payments.id, p.id))
+		.returning();
 	return row;
 }
 
@@ -168,20 +237,31 @@ async function markPaid(tx: Tx, session: SessionFacts, after: AfterCommit): Prom
 async function settle(after: AfterCommit) {
 	const stripe = paymentsClient();
 	for (const sessionId of after.expire) {
-		await stripe.checkout.sessions.expire(sessionId).catch((e: unknown) => console.error(`payments: could not close checkout ${sessionId}`, e));
+		await stripe.checkout.sessions
+			.expire(sessionId)
+			.catch((e: unknown) => console.error(`payments: could not close checkout ${sessionId}`, e));
 	}
 	for (const r of after.refund) {
 		let refunded = false;
 		try {
 			if (!r.paymentIntent) throw new Error('the service named no payment to refund');
-			const refund = await stripe.refunds.create({ payment_intent: r.paymentIntent, metadata: { payment_id: r.paymentId, reason: 'deposit already paid' } }, { idempotencyKey: `refund-${r.paymentId}` });
+			const refund = await stripe.refunds.create(
+				{
+					payment_intent: r.paymentIntent,
+					metadata: { payment_id: r.paymentId, reason: 'deposit already paid' }
+				},
+				{ idempotencyKey: `refund-${r.paymentId}` }
+			);
 			await db
 				.update(payments)
 				.set({ status: 'refunded', refundId: refund.id, refundedAt: new Date() })
 				.where(and(eq(payments.id, r.paymentId), eq(payments.status, 'duplicate')));
 			refunded = true;
 		} catch (e) {
-			console.error(`payments: could not refund duplicate payment ${r.paymentId}; it stays flagged for the studio`, e);
+			console.error(
+				`payments: could not refund duplicate payment ${r.paymentId}; it stays flagged for the studio`,
+				e
+			);
 		}
 		const [row] = await db.select().from(payments).where(eq(payments.id, r.paymentId));
 		if (row) await notifyPaidTwice(row, refunded);
@@ -212,10 +292,15 @@ const sessionSchema = z.object({
  * changes nothing), then checks the event's shape with zod (a malformed one is refused the same
  * way and logged), then handles each event id once.
  */
-export async function handleWebhook(rawBody: string, signature: string | null): Promise<WebhookOutcome> {
+export async function handleWebhook(
+	rawBody: string,
+	signature: string | null
+): Promise<WebhookOutcome> {
 	const secret = config.payments.webhookSecret;
 	// The start-up check refuses these in production mode already; this keeps it so at any time.
-	if (config.production && BUILT_IN_SECRETS.includes(secret)) throw new WebhookRejected('The signature does not match.');
+	if (config.production && BUILT_IN_SECRETS.includes(secret)) {
+		throw new WebhookRejected('The signature does not match.');
+	}
 	let raw: unknown;
 	try {
 		if (!signature) throw new Error('no signature');
@@ -228,8 +313,12 @@ export async function handleWebhook(rawBody: string, signature: string | null): 
 	const session = isSession ? sessionSchema.safeParse(parsed.data.data.object) : null;
 	if (!parsed.success || (session && !session.success)) {
 		const issue = (parsed.success ? session!.error! : parsed.error).issues[0];
-		const where = issue?.path.length ? (parsed.success ? ['data', 'object', ...issue.path] : issue.path).join('.') : 'the event';
-		console.warn(`payments: signed webhook refused, malformed at ${where}: ${issue?.message ?? 'not an event'}`);
+		const where = issue?.path.length
+			? (parsed.success ? ['data', 'object', ...issue.path] : issue.path).join('.')
+			: 'the event';
+		console.warn(
+			`payments: signed webhook refused, malformed at ${where}: ${issue?.message ?? 'not an event'}`
+		);
 		throw new WebhookRejected(`The event is malformed at ${where}.`);
 	}
 	const event = parsed.data;
@@ -243,10 +332,17 @@ export async function handleWebhook(rawBody: string, signature: string | null): 
 			.returning({ id: paymentEvents.id });
 		if (!fresh.length) return { duplicate: true, paid: null, type: event.type };
 		let paid: PaymentRow | null = null;
-		if (s && (event.type === 'checkout.session.completed' || event.type === 'checkout.session.async_payment_succeeded')) {
+		if (
+			s &&
+			(event.type === 'checkout.session.completed' ||
+				event.type === 'checkout.session.async_payment_succeeded')
+		) {
 			paid = await markPaid(tx, s, after);
 		} else if (s && event.type === 'checkout.session.expired') {
-			await tx.update(payments).set({ status: 'expired' }).where(and(eq(payments.checkoutSessionId, s.id), eq(payments.status, 'pending')));
+			await tx
+				.update(payments)
+				.set({ status: 'expired' })
+				.where(and(eq(payments.checkoutSessionId, s.id), eq(payments.status, 'pending')));
 		}
 		return { duplicate: false, paid, type: event.type };
 	});
@@ -258,7 +354,9 @@ export async function handleWebhook(rawBody: string, signature: string | null): 
  * After the redirect back: asks the service about the session (the webhook may still be on its
  * way) and records the payment if it is paid. Only sessions this app created are looked at.
  */
-export async function confirmReturn(sessionId: string): Promise<{ payment: PaymentRow | null; newlyPaid: PaymentRow | null }> {
+export async function confirmReturn(
+	sessionId: string
+): Promise<{ payment: PaymentRow | null; newlyPaid: PaymentRow | null }> {
 	if (!/^cs_[A-Za-z0-9_]{8,200}$/.test(sessionId)) return { payment: null, newlyPaid: null };
 	const [p] = await db.select().from(payments).where(eq(payments.checkoutSessionId, sessionId));
 	if (!p) return { payment: null, newlyPaid: null };
@@ -273,7 +371,11 @@ export async function confirmReturn(sessionId: string): Promise<{ payment: Payme
 
 export async function paymentsOfQuotes(quoteIds: string[]): Promise<PaymentRow[]> {
 	if (!quoteIds.length) return [];
-	return db.select().from(payments).where(inArray(payments.quoteId, quoteIds)).orderBy(desc(payments.createdAt));
+	return db
+		.select()
+		.from(payments)
+		.where(inArray(payments.quoteId, quoteIds))
+		.orderBy(desc(payments.createdAt));
 }
 
 export async function paidDeposit(quoteId: string): Promise<PaymentRow | null> {

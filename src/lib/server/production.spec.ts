@@ -21,10 +21,19 @@ const buildDir = resolve(process.env.INTERSTICE_BUILD_DIR ?? 'build');
 const sdk = new Stripe('sk_test_unused');
 
 /** Runs `node build` with exactly this environment; resolves with its exit code and output once it exits (or null if it was still running after 20 s). */
-async function startProduction(env: Record<string, string>): Promise<{ code: number | null; output: string }> {
+async function startProduction(
+	env: Record<string, string>
+): Promise<{ code: number | null; output: string }> {
 	const port = await freePort();
 	const child = spawn(process.execPath, [buildDir], {
-		env: { PATH: process.env.PATH ?? '', NODE_ENV: 'production', HOST: '127.0.0.1', PORT: String(port), DATABASE_URL: testDatabaseUrl(), ...env },
+		env: {
+			PATH: process.env.PATH ?? '',
+			NODE_ENV: 'production',
+			HOST: '127.0.0.1',
+			PORT: String(port),
+			DATABASE_URL: testDatabaseUrl(),
+			...env
+		},
 		stdio: ['ignore', 'pipe', 'pipe']
 	});
 	let output = '';
@@ -55,13 +64,27 @@ describe('a production-mode start', () => {
 		const { code, output } = await startProduction({});
 		expect(code).not.toBe(0);
 		expect(code).not.toBeNull();
-		for (const name of ['PAYMENTS_SECRET_KEY', 'PAYMENTS_WEBHOOK_SECRET', 'ORIGIN', 'SMTP_HOST', 'SMTP_PORT', 'MAIL_FROM']) {
-			expect(output.split('\n').filter((l) => l.includes(`- ${name} is not set`)), name).toHaveLength(1);
+		for (const name of [
+			'PAYMENTS_SECRET_KEY',
+			'PAYMENTS_WEBHOOK_SECRET',
+			'ORIGIN',
+			'SMTP_HOST',
+			'SMTP_PORT',
+			'MAIL_FROM'
+		]) {
+			expect(
+				output.split('\n').filter((l) => l.includes(`- ${name} is not set`)),
+				name
+			).toHaveLength(1);
 		}
 	});
 
 	it('with the built-in development secrets exits non-zero', async () => {
-		const { code, output } = await startProduction({ ...goodEnv(), PAYMENTS_SECRET_KEY: BUILT_IN_SECRETS[0], PAYMENTS_WEBHOOK_SECRET: BUILT_IN_SECRETS[1] });
+		const { code, output } = await startProduction({
+			...goodEnv(),
+			PAYMENTS_SECRET_KEY: BUILT_IN_SECRETS[0],
+			PAYMENTS_WEBHOOK_SECRET: BUILT_IN_SECRETS[1]
+		});
 		expect(code).not.toBe(0);
 		expect(output).toContain('PAYMENTS_SECRET_KEY is the built-in development value');
 		expect(output).toContain('PAYMENTS_WEBHOOK_SECRET is the built-in development value');
@@ -70,14 +93,28 @@ describe('a production-mode start', () => {
 	});
 
 	it('with a development flag or a bench token exits non-zero', async () => {
-		const { code, output } = await startProduction({ ...goodEnv(), INTERSTICE_DEV_TOOLS: '1', INTERSTICE_BENCH_TOKEN: randomBytes(32).toString('hex') });
+		const { code, output } = await startProduction({
+			...goodEnv(),
+			INTERSTICE_DEV_TOOLS: '1',
+			INTERSTICE_BENCH_TOKEN: randomBytes(32).toString('hex')
+		});
 		expect(code).not.toBe(0);
 		expect(output).toContain('INTERSTICE_DEV_TOOLS is set');
 		expect(output).toContain('INTERSTICE_BENCH_TOKEN is set');
 	});
 
 	it('with mail settings instead of MAIL_DISABLED, and everything else set, starts', async () => {
-		const app = await startApp({ env: { NODE_ENV: 'production', INTERSTICE_DEV_TOOLS: '', ...goodEnv(), MAIL_DISABLED: '', SMTP_HOST: '127.0.0.1', SMTP_PORT: '2525', MAIL_FROM: 'Studio <studio@example.test>' } });
+		const app = await startApp({
+			env: {
+				NODE_ENV: 'production',
+				INTERSTICE_DEV_TOOLS: '',
+				...goodEnv(),
+				MAIL_DISABLED: '',
+				SMTP_HOST: '127.0.0.1',
+				SMTP_PORT: '2525',
+				MAIL_FROM: 'Studio <studio@example.test>'
+			}
+		});
 		await app.stop();
 	});
 });
@@ -86,7 +123,14 @@ describe('a production-mode server', () => {
 	const webhookSecret = secret();
 	let app: App;
 	beforeAll(async () => {
-		app = await startApp({ env: { NODE_ENV: 'production', INTERSTICE_DEV_TOOLS: '', ...goodEnv(), PAYMENTS_WEBHOOK_SECRET: webhookSecret } });
+		app = await startApp({
+			env: {
+				NODE_ENV: 'production',
+				INTERSTICE_DEV_TOOLS: '',
+				...goodEnv(),
+				PAYMENTS_WEBHOOK_SECRET: webhookSecret
+			}
+		});
 	});
 	afterAll(async () => {
 		await app?.stop();
@@ -98,10 +142,25 @@ describe('a production-mode server', () => {
 			id,
 			object: 'event',
 			type: 'checkout.session.completed',
-			data: { object: { id: 'cs_test_forged0001', object: 'checkout.session', amount_total: 100, currency: 'eur', payment_status: 'paid', payment_intent: 'pi_test_forged' } }
+			data: {
+				object: {
+					id: 'cs_test_forged0001',
+					object: 'checkout.session',
+					amount_total: 100,
+					currency: 'eur',
+					payment_status: 'paid',
+					payment_intent: 'pi_test_forged'
+				}
+			}
 		});
 	const post = (body: string, key: string) =>
-		new Client(app.baseURL).request('POST', '/api/payments/webhook', { body, headers: { 'content-type': 'application/json', 'stripe-signature': sdk.webhooks.generateTestHeaderString({ payload: body, secret: key }) } });
+		new Client(app.baseURL).request('POST', '/api/payments/webhook', {
+			body,
+			headers: {
+				'content-type': 'application/json',
+				'stripe-signature': sdk.webhooks.generateTestHeaderString({ payload: body, secret: key })
+			}
+		});
 
 	it('refuses a webhook signed with any built-in secret (400) and takes one signed with its own', async () => {
 		for (const [i, key] of BUILT_IN_SECRETS.entries()) {
@@ -116,7 +175,10 @@ describe('a production-mode server', () => {
 		const studio = await createStudio();
 		const owner = await createMember(studio.id, 'owner');
 		for (const c of [new Client(app.baseURL), new Client(app.baseURL).useSession(owner.session)]) {
-			const noop = await c.request('POST', '/api/noop', { body: '{}', headers: { 'content-type': 'application/json', origin: app.baseURL } });
+			const noop = await c.request('POST', '/api/noop', {
+				body: '{}',
+				headers: { 'content-type': 'application/json', origin: app.baseURL }
+			});
 			expect(noop.status).toBe(404);
 			expect((await c.request('GET', '/dev/mail')).status).toBe(404);
 		}
@@ -128,7 +190,11 @@ describe('a production-mode server', () => {
 		const c = new Client(app.baseURL);
 		const res = await c.request('POST', '/signin', {
 			body: new URLSearchParams({ email: owner.email, password: owner.password }).toString(),
-			headers: { 'content-type': 'application/x-www-form-urlencoded', accept: 'text/html', origin: 'https://studio.example.test' }
+			headers: {
+				'content-type': 'application/x-www-form-urlencoded',
+				accept: 'text/html',
+				origin: 'https://studio.example.test'
+			}
 		});
 		expect(res.status, res.text.slice(0, 300)).toBe(303);
 		expect(c.cookieAttributes('interstice_session')).toMatch(/Secure/);
@@ -138,9 +204,16 @@ describe('a production-mode server', () => {
 describe('the build', () => {
 	it('lists no /dev/ route and no no-op endpoint (the development tools live in the server hook)', () => {
 		// adapter-node's server manifest (server/manifest.js, or a hashed chunk of it).
-		const files = readdirSync(resolve(buildDir, 'server'), { recursive: true, encoding: 'utf8' }).filter((f) => /(^|\/)manifest\.js(-[\w-]+\.js)?$/.test(f));
+		const files = readdirSync(resolve(buildDir, 'server'), {
+			recursive: true,
+			encoding: 'utf8'
+		}).filter((f) => /(^|\/)manifest\.js(-[\w-]+\.js)?$/.test(f));
 		expect(files.length).toBeGreaterThan(0);
-		const routeIds = files.flatMap((f) => [...readFileSync(resolve(buildDir, 'server', f), 'utf8').matchAll(/id: *"(\/[^"]*)"/g)].map((m) => m[1]));
+		const routeIds = files.flatMap((f) =>
+			[...readFileSync(resolve(buildDir, 'server', f), 'utf8').matchAll(/id: *"(\/[^"]*)"/g)].map(
+				(m) => m[1]
+			)
+		);
 		expect(routeIds).toContain('/api/check');
 		expect(routeIds.filter((r) => r.startsWith('/dev') || r.includes('noop'))).toEqual([]);
 	});

@@ -44,8 +44,12 @@ describe('hit() in the database', () => {
 
 	it('loses no count when many attempts arrive at once', async () => {
 		const key = unique('test-bucket');
-		const results = await Promise.all(Array.from({ length: 25 }, () => hit(key, { max: 20, windowSec: 60 })));
-		expect(results.map((r) => r.count).sort((a, b) => a - b)).toEqual(Array.from({ length: 25 }, (_, i) => i + 1));
+		const results = await Promise.all(
+			Array.from({ length: 25 }, () => hit(key, { max: 20, windowSec: 60 }))
+		);
+		expect(results.map((r) => r.count).sort((a, b) => a - b)).toEqual(
+			Array.from({ length: 25 }, (_, i) => i + 1)
+		);
 		expect(results.filter((r) => r.allowed)).toHaveLength(20);
 		await clear(key);
 	});
@@ -66,7 +70,10 @@ describe('sign-in limit over HTTP', () => {
 		expect(c.sessionId).toBeUndefined();
 
 		// The counter is a row in PostgreSQL, keyed by (at least) the client's address.
-		const rows = await db.select().from(rateLimits).where(like(rateLimits.key, `signin%:${address}%`));
+		const rows = await db
+			.select()
+			.from(rateLimits)
+			.where(like(rateLimits.key, `signin%:${address}%`));
 		expect(Math.max(...rows.map((r) => r.count))).toBe(limits.signIn.max + 1);
 
 		// A new process on another port: the counter lives in the database, not in memory.

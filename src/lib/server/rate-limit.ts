@@ -32,7 +32,10 @@ export async function hit(key: string, limit: Limit): Promise<RateResult> {
 		returning count, window_started_at`);
 	const row = rows[0];
 	const started = new Date(row.window_started_at).getTime();
-	const retryAfterSec = Math.max(1, Math.ceil((started + limit.windowSec * 1000 - Date.now()) / 1000));
+	const retryAfterSec = Math.max(
+		1,
+		Math.ceil((started + limit.windowSec * 1000 - Date.now()) / 1000)
+	);
 	return { allowed: row.count <= limit.max, count: row.count, retryAfterSec };
 }
 

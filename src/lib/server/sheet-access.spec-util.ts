@@ -17,19 +17,39 @@ import { SIGN_IN, type MatrixFixture, type MatrixRow } from './testing/access-ma
 /** The demo build in the fixture's studio, its variant shared with the fixture's client. */
 async function withSheet(f: MatrixFixture) {
 	const b = await createSheetBuild({ studioId: f.studio.id, userId: f.designer.id });
-	await createShareLink({ studioId: f.studio.id, buildId: b.buildId, variantId: b.variantId, createdBy: f.designer.id, recipientEmail: f.client.email });
+	await createShareLink({
+		studioId: f.studio.id,
+		buildId: b.buildId,
+		variantId: b.variantId,
+		createdBy: f.designer.id,
+		recipientEmail: f.client.email
+	});
 	f.vars.buildId = b.buildId;
 	f.vars.variantId = b.variantId;
 }
 
 async function withPhoto(f: MatrixFixture) {
 	await withSheet(f);
-	const bytes = await sharp({ create: { width: 48, height: 32, channels: 3, background: '#c1964a' } }).png().toBuffer();
-	f.vars.photoId = (await addPhoto({ buildId: f.vars.buildId, uploadedBy: f.designer.id, bytes, caption: 'Bench' })).id;
+	const bytes = await sharp({
+		create: { width: 48, height: 32, channels: 3, background: '#c1964a' }
+	})
+		.png()
+		.toBuffer();
+	f.vars.photoId = (
+		await addPhoto({ buildId: f.vars.buildId, uploadedBy: f.designer.id, bytes, caption: 'Bench' })
+	).id;
 }
 
 async function tickCount(f: MatrixFixture) {
-	const [r] = await db.select({ n: count() }).from(checklistTicks).where(and(eq(checklistTicks.buildId, f.vars.buildId), eq(checklistTicks.itemKey, 'caution:leak-test')));
+	const [r] = await db
+		.select({ n: count() })
+		.from(checklistTicks)
+		.where(
+			and(
+				eq(checklistTicks.buildId, f.vars.buildId),
+				eq(checklistTicks.itemKey, 'caution:leak-test')
+			)
+		);
 	return r.n;
 }
 

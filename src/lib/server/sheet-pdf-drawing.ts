@@ -27,8 +27,16 @@ function hatch(doc: Doc, x: number, y: number, w: number, h: number, color: stri
 	const step = PATTERN_MM.hatch * PT;
 	doc.save();
 	doc.rect(x, y, w, h).clip();
-	doc.lineWidth(0.35 * PT).strokeColor(color).strokeOpacity(0.8);
-	for (let k = -h; k < w; k += step) doc.moveTo(x + k, y + h).lineTo(x + k + h, y).stroke();
+	doc
+		.lineWidth(0.35 * PT)
+		.strokeColor(color)
+		.strokeOpacity(0.8);
+	for (let k = -h; k < w; k += step) {
+		doc
+			.moveTo(x + k, y + h)
+			.lineTo(x + k + h, y)
+			.stroke();
+	}
 	doc.restore();
 }
 
@@ -37,7 +45,11 @@ function dots(doc: Doc, x: number, y: number, w: number, h: number, color: strin
 	doc.save();
 	doc.rect(x, y, w, h).clip();
 	doc.fillColor(color).fillOpacity(0.8);
-	for (let j = y + step / 2; j < y + h; j += step) for (let i = x + step / 2; i < x + w; i += step) doc.circle(i, j, PATTERN_MM.dotRadius * PT).fill();
+	for (let j = y + step / 2; j < y + h; j += step) {
+		for (let i = x + step / 2; i < x + w; i += step) {
+			doc.circle(i, j, PATTERN_MM.dotRadius * PT).fill();
+		}
+	}
 	doc.restore();
 }
 
@@ -49,14 +61,25 @@ function rect(doc: Doc, view: OrthoView, p: Place, r: ViewRect) {
 	doc.save();
 	if (r.kind === 'body' && r.status) {
 		const ink = STATUS_INK[r.status];
-		if (r.status !== 'outside') doc.rect(x, y, w, h).fillOpacity(BODY_OPACITY[r.status]).fill(ink.fill);
+		if (r.status !== 'outside') {
+			doc.rect(x, y, w, h).fillOpacity(BODY_OPACITY[r.status]).fill(ink.fill);
+		}
 		if (ink.pattern === 'hatch') hatch(doc, x, y, w, h, ink.edge);
 		if (ink.pattern === 'dots') dots(doc, x, y, w, h, ink.edge);
-		if (r.status === 'outside') doc.dash(PATTERN_MM.dash * PT, { space: PATTERN_MM.dash * 0.7 * PT });
-		doc.rect(x, y, w, h).lineWidth(WEIGHT.body * PT).strokeOpacity(1).stroke(ink.edge);
+		if (r.status === 'outside') {
+			doc.dash(PATTERN_MM.dash * PT, { space: PATTERN_MM.dash * 0.7 * PT });
+		}
+		doc
+			.rect(x, y, w, h)
+			.lineWidth(WEIGHT.body * PT)
+			.strokeOpacity(1)
+			.stroke(ink.edge);
 	} else if (r.kind === 'keepout') {
 		doc.dash(PATTERN_MM.dash * PT, { space: PATTERN_MM.dash * 0.7 * PT });
-		doc.rect(x, y, w, h).lineWidth(WEIGHT.keepout * PT).stroke(INK.keepout);
+		doc
+			.rect(x, y, w, h)
+			.lineWidth(WEIGHT.keepout * PT)
+			.stroke(INK.keepout);
 	} else {
 		const [fill, edge, weight, opacity] =
 			r.kind === 'wall'
@@ -67,12 +90,25 @@ function rect(doc: Doc, view: OrthoView, p: Place, r: ViewRect) {
 						? [INK.bracketFill, INK.bracketEdge, WEIGHT.wall, 1]
 						: [INK.interference, INK.interferenceEdge, WEIGHT.interference, 0.75];
 		doc.rect(x, y, w, h).fillOpacity(opacity).fill(fill);
-		doc.rect(x, y, w, h).lineWidth(weight * PT).strokeOpacity(1).stroke(edge);
+		doc
+			.rect(x, y, w, h)
+			.lineWidth(weight * PT)
+			.strokeOpacity(1)
+			.stroke(edge);
 	}
 	doc.restore();
 }
 
-function textAt(doc: Doc, fonts: Fonts, s: string, x: number, y: number, sizePt: number, anchor: ViewDim['anchor'], font = fonts.regular) {
+function textAt(
+	doc: Doc,
+	fonts: Fonts,
+	s: string,
+	x: number,
+	y: number,
+	sizePt: number,
+	anchor: ViewDim['anchor'],
+	font = fonts.regular
+) {
 	const text = fonts.text(s);
 	doc.font(font).fontSize(sizePt);
 	const w = doc.widthOfString(text);
@@ -80,17 +116,32 @@ function textAt(doc: Doc, fonts: Fonts, s: string, x: number, y: number, sizePt:
 	doc.text(text, left, y, { lineBreak: false, baseline: 'alphabetic' });
 }
 
-function dim(doc: Doc, fonts: Fonts, view: OrthoView, p: Place, d: ViewDim, paper: SheetDrawing['paper']) {
+function dim(
+	doc: Doc,
+	fonts: Fonts,
+	view: OrthoView,
+	p: Place,
+	d: ViewDim,
+	paper: SheetDrawing['paper']
+) {
 	const color = d.kind === 'gap' ? INK.gap : INK.line;
 	doc.save();
 	for (const e of d.extensions) {
-		doc.moveTo(px(p, view, e[0]), py(p, view, e[1])).lineTo(px(p, view, e[2]), py(p, view, e[3])).lineWidth(WEIGHT.dimension * 0.7 * PT).stroke(INK.muted);
+		doc
+			.moveTo(px(p, view, e[0]), py(p, view, e[1]))
+			.lineTo(px(p, view, e[2]), py(p, view, e[3]))
+			.lineWidth(WEIGHT.dimension * 0.7 * PT)
+			.stroke(INK.muted);
 	}
 	const ax = px(p, view, d.a[0]);
 	const ay = py(p, view, d.a[1]);
 	const bx = px(p, view, d.b[0]);
 	const by = py(p, view, d.b[1]);
-	doc.moveTo(ax, ay).lineTo(bx, by).lineWidth((d.kind === 'gap' ? WEIGHT.gap : WEIGHT.dimension) * PT).stroke(color);
+	doc
+		.moveTo(ax, ay)
+		.lineTo(bx, by)
+		.lineWidth((d.kind === 'gap' ? WEIGHT.gap : WEIGHT.dimension) * PT)
+		.stroke(color);
 	doc.circle(ax, ay, 0.45 * PT).fill(color);
 	doc.circle(bx, by, 0.45 * PT).fill(color);
 	const lx = px(p, view, d.labelAt[0]);
@@ -98,11 +149,18 @@ function dim(doc: Doc, fonts: Fonts, view: OrthoView, p: Place, d: ViewDim, pape
 	if (d.tagBox) {
 		const size = paper.tagMm * PT;
 		if (d.leader) {
-			doc.moveTo(px(p, view, d.leader[0]), py(p, view, d.leader[1])).lineTo(px(p, view, d.leader[2]), py(p, view, d.leader[3])).lineWidth(0.12 * PT).stroke(INK.gap);
+			doc
+				.moveTo(px(p, view, d.leader[0]), py(p, view, d.leader[1]))
+				.lineTo(px(p, view, d.leader[2]), py(p, view, d.leader[3]))
+				.lineWidth(0.12 * PT)
+				.stroke(INK.gap);
 		}
 		const bx = px(p, view, d.tagBox.x);
 		const by = py(p, view, d.tagBox.y);
-		doc.roundedRect(bx, by, d.tagBox.w * p.scale * PT, d.tagBox.h * p.scale * PT, 0.6 * PT).lineWidth(0.15 * PT).fillAndStroke(d.tight ? STATUS_INK.tight.fill : INK.gapTag, INK.gap);
+		doc
+			.roundedRect(bx, by, d.tagBox.w * p.scale * PT, d.tagBox.h * p.scale * PT, 0.6 * PT)
+			.lineWidth(0.15 * PT)
+			.fillAndStroke(d.tight ? STATUS_INK.tight.fill : INK.gapTag, INK.gap);
 		doc.fillColor(INK.text);
 		textAt(doc, fonts, d.label, lx, ly, size, 'middle');
 	} else {
@@ -120,7 +178,14 @@ function dim(doc: Doc, fonts: Fonts, view: OrthoView, p: Place, d: ViewDim, pape
 }
 
 /** One view with its frame's top-left at (leftMm, topMm) on the page. */
-export function drawView(doc: Doc, fonts: Fonts, drawing: SheetDrawing, view: OrthoView, leftMm: number, topMm: number) {
+export function drawView(
+	doc: Doc,
+	fonts: Fonts,
+	drawing: SheetDrawing,
+	view: OrthoView,
+	leftMm: number,
+	topMm: number
+) {
 	const p: Place = { leftMm, topMm, scale: drawing.scale };
 	for (const r of view.rects) rect(doc, view, p, r);
 	for (const d of view.dims) dim(doc, fonts, view, p, d, drawing.paper);
@@ -129,7 +194,10 @@ export function drawView(doc: Doc, fonts: Fonts, drawing: SheetDrawing, view: Or
 		const x = px(p, view, t.x);
 		const y = py(p, view, t.y);
 		doc.save();
-		doc.circle(x, y, size * 0.85).lineWidth(0.2 * PT).fillAndStroke(INK.paper, INK.line);
+		doc
+			.circle(x, y, size * 0.85)
+			.lineWidth(0.2 * PT)
+			.fillAndStroke(INK.paper, INK.line);
 		doc.fillColor(INK.text);
 		textAt(doc, fonts, t.text, x, y + size * 0.36, size, 'middle', fonts.bold);
 		doc.restore();

@@ -27,13 +27,20 @@ function registerFonts(doc: Doc): Fonts {
 	try {
 		const require = createRequire(import.meta.url);
 		for (const [name, weight] of Object.entries(FONT_FILES)) {
-			const file = require.resolve(`@fontsource/space-grotesk/files/space-grotesk-latin-${weight}-normal.woff`);
+			const file = require.resolve(
+				`@fontsource/space-grotesk/files/space-grotesk-latin-${weight}-normal.woff`
+			);
 			doc.registerFont(`SG-${name}`, readFileSync(file));
 		}
 		return { regular: 'SG-regular', medium: 'SG-bold', bold: 'SG-bold', text: (s) => s };
 	} catch {
 		// Helvetica's encoding has no thin space; a plain space reads the same.
-		return { regular: 'Helvetica', medium: 'Helvetica', bold: 'Helvetica-Bold', text: (s) => s.replace(/[\u2009\u202f]/g, ' ') };
+		return {
+			regular: 'Helvetica',
+			medium: 'Helvetica',
+			bold: 'Helvetica-Bold',
+			text: (s) => s.replace(/[\u2009\u202f]/g, ' ')
+		};
 	}
 }
 
@@ -78,7 +85,17 @@ class Writer {
 		return this.doc.heightOfString(this.fonts.text(text), { width: mmToPt(widthMm) }) / PT;
 	}
 
-	text(text: string, opts: { size?: number; font?: string; color?: string; x?: number; width?: number; gapAfter?: number } = {}) {
+	text(
+		text: string,
+		opts: {
+			size?: number;
+			font?: string;
+			color?: string;
+			x?: number;
+			width?: number;
+			gapAfter?: number;
+		} = {}
+	) {
 		const size = opts.size ?? 9.5;
 		const width = opts.width ?? this.width - ((opts.x ?? this.left) - this.left);
 		const font = opts.font ?? this.fonts.regular;
@@ -87,7 +104,9 @@ class Writer {
 			.font(font)
 			.fontSize(size)
 			.fillColor(opts.color ?? INK.text)
-			.text(this.fonts.text(text), mmToPt(opts.x ?? this.left), this.doc.y, { width: mmToPt(width) });
+			.text(this.fonts.text(text), mmToPt(opts.x ?? this.left), this.doc.y, {
+				width: mmToPt(width)
+			});
 		this.yMm += opts.gapAfter ?? 0.8;
 	}
 
@@ -106,11 +125,17 @@ class Writer {
 	/** A status swatch with its pattern and word, then the text beside it. */
 	statusRow(status: FitStatus, word: string, title: string, detail: string | null) {
 		const x = this.left + 24;
-		const h = this.heightOf(title, 9.5, this.width - 24, this.fonts.medium) + (detail ? this.heightOf(detail, 8.5, this.width - 24) : 0);
+		const h =
+			this.heightOf(title, 9.5, this.width - 24, this.fonts.medium) +
+			(detail ? this.heightOf(detail, 8.5, this.width - 24) : 0);
 		this.need(h + 1.5);
 		const y = this.yMm;
 		swatch(this.doc, status, this.left, y + 0.6);
-		this.doc.font(this.fonts.regular).fontSize(8.5).fillColor(INK.text).text(this.fonts.text(word), mmToPt(this.left + 4.6), mmToPt(y + 0.4), { lineBreak: false });
+		this.doc
+			.font(this.fonts.regular)
+			.fontSize(8.5)
+			.fillColor(INK.text)
+			.text(this.fonts.text(word), mmToPt(this.left + 4.6), mmToPt(y + 0.4), { lineBreak: false });
 		this.yMm = y;
 		this.text(title, { x, font: this.fonts.medium, gapAfter: 0.2 });
 		if (detail) this.text(detail, { x, size: 8.5, color: INK.muted, gapAfter: 0.2 });
@@ -125,16 +150,37 @@ function swatch(doc: Doc, status: FitStatus, xMm: number, yMm: number) {
 	const s = mmToPt(3.2);
 	doc.save();
 	if (ink.pattern === 'dashed') {
-		doc.dash(1.2 * PT, { space: 0.8 * PT }).rect(x, y, s, s).lineWidth(0.35 * PT).stroke(ink.edge);
+		doc
+			.dash(1.2 * PT, { space: 0.8 * PT })
+			.rect(x, y, s, s)
+			.lineWidth(0.35 * PT)
+			.stroke(ink.edge);
 	} else {
 		doc.rect(x, y, s, s).fill(ink.fill);
 		if (ink.pattern === 'hatch') {
 			doc.rect(x, y, s, s).clip();
-			for (let k = -s; k < s; k += 1.1 * PT) doc.moveTo(x + k, y + s).lineTo(x + k + s, y).lineWidth(0.35 * PT).stroke(ink.edge);
+			for (let k = -s; k < s; k += 1.1 * PT) {
+				doc
+					.moveTo(x + k, y + s)
+					.lineTo(x + k + s, y)
+					.lineWidth(0.35 * PT)
+					.stroke(ink.edge);
+			}
 		} else if (ink.pattern === 'dots') {
-			for (const [i, j] of [[0.25, 0.25], [0.75, 0.25], [0.25, 0.75], [0.75, 0.75], [0.5, 0.5]]) doc.circle(x + i * s, y + j * s, 0.25 * PT).fill('#f4efff');
+			for (const [i, j] of [
+				[0.25, 0.25],
+				[0.75, 0.25],
+				[0.25, 0.75],
+				[0.75, 0.75],
+				[0.5, 0.5]
+			]) {
+				doc.circle(x + i * s, y + j * s, 0.25 * PT).fill('#f4efff');
+			}
 		} else if (ink.pattern === 'solid') {
-			doc.rect(x, y, s, s).lineWidth(0.45 * PT).stroke(ink.edge);
+			doc
+				.rect(x, y, s, s)
+				.lineWidth(0.45 * PT)
+				.stroke(ink.edge);
 		}
 	}
 	doc.restore();
@@ -144,9 +190,19 @@ function headingBlock(w: Writer, data: SheetData) {
 	const h = data.sheet.heading;
 	w.text('BUILD SHEET', { size: 7.5, font: w.fonts.bold, color: INK.dividerEdge, gapAfter: 0.5 });
 	w.text(h.buildName, { size: 18, font: w.fonts.bold, gapAfter: 0.6 });
-	w.text(`${h.variantName}, ${h.versionText} · ${h.enclosureName}${h.clientName ? ` · for ${h.clientName}` : ''}`, { size: 9.5, color: INK.muted });
-	w.text(`${data.generatedAt.toLocaleDateString('en-GB', { day: 'numeric', month: 'long', year: 'numeric', timeZone: 'UTC' })} · ${PAPER[data.paper].label}`, { size: 8.5, color: INK.muted, gapAfter: 1.5 });
-	w.doc.moveTo(mmToPt(w.left), w.doc.y).lineTo(mmToPt(w.left + w.width), w.doc.y).lineWidth(0.9 * PT).stroke(INK.text);
+	w.text(
+		`${h.variantName}, ${h.versionText} · ${h.enclosureName}${h.clientName ? ` · for ${h.clientName}` : ''}`,
+		{ size: 9.5, color: INK.muted }
+	);
+	w.text(
+		`${data.generatedAt.toLocaleDateString('en-GB', { day: 'numeric', month: 'long', year: 'numeric', timeZone: 'UTC' })} · ${PAPER[data.paper].label}`,
+		{ size: 8.5, color: INK.muted, gapAfter: 1.5 }
+	);
+	w.doc
+		.moveTo(mmToPt(w.left), w.doc.y)
+		.lineTo(mmToPt(w.left + w.width), w.doc.y)
+		.lineWidth(0.9 * PT)
+		.stroke(INK.text);
 	w.yMm += 2;
 }
 
@@ -154,14 +210,34 @@ function fitSection(w: Writer, data: SheetData) {
 	const fit = data.sheet.fit;
 	w.heading('Fit');
 	w.text(fit.summary, { size: 11, font: w.fonts.bold, gapAfter: 0.4 });
-	w.text(`Margin ${fit.marginText}: gaps under it count as tight.`, { size: 8.5, color: INK.muted, gapAfter: 2 });
+	w.text(`Margin ${fit.marginText}: gaps under it count as tight.`, {
+		size: 8.5,
+		color: INK.muted,
+		gapAfter: 2
+	});
 	for (const item of fit.items) w.statusRow(item.status, item.word, item.title, item.detail);
-	if (!fit.items.length) w.text('Nothing collides, is blocked, reaches outside or is tight.', { size: 8.5, color: INK.muted, gapAfter: 2 });
+	if (!fit.items.length) {
+		w.text('Nothing collides, is blocked, reaches outside or is tight.', {
+			size: 8.5,
+			color: INK.muted,
+			gapAfter: 2
+		});
+	}
 	w.text('Budgets', { font: w.fonts.bold, gapAfter: 1.2 });
-	const statusOf = { clear: 'clear', tight: 'tight', over: 'collides', unknown: 'outside' } as const;
+	const statusOf = {
+		clear: 'clear',
+		tight: 'tight',
+		over: 'collides',
+		unknown: 'outside'
+	} as const;
 	const wordOf = { clear: 'clear', tight: 'tight', over: 'over', unknown: 'not known' } as const;
 	for (const b of fit.budgets) {
-		w.statusRow(statusOf[b.status], wordOf[b.status], `${b.title}${b.key === 'heat' ? ' (estimate)' : ''}`, [b.text, b.estimateNote].filter(Boolean).join(' '));
+		w.statusRow(
+			statusOf[b.status],
+			wordOf[b.status],
+			`${b.title}${b.key === 'heat' ? ' (estimate)' : ''}`,
+			[b.text, b.estimateNote].filter(Boolean).join(' ')
+		);
 	}
 }
 
@@ -186,12 +262,19 @@ function drawingsPage(w: Writer, data: SheetData) {
 	const d = data.drawing;
 	w.newPage();
 	w.heading(`Views · scale ${d.scaleText}`);
-	w.text('Millimetres; inner coordinates from the front-bottom-left inside corner. Numbers in circles are the part numbers of the part list.', { size: 8, color: INK.muted, gapAfter: 2 });
+	w.text(
+		'Millimetres; inner coordinates from the front-bottom-left inside corner. Numbers in circles are the part numbers of the part list.',
+		{ size: 8, color: INK.muted, gapAfter: 2 }
+	);
 	const [front, top, side] = d.views;
 	const gutter = 8;
 	const top0 = w.yMm + 4;
 	const caption = (text: string, x: number, y: number) => {
-		w.doc.font(w.fonts.medium).fontSize(8).fillColor(INK.muted).text(w.fonts.text(text), mmToPt(x), mmToPt(y - 3.6), { lineBreak: false });
+		w.doc
+			.font(w.fonts.medium)
+			.fontSize(8)
+			.fillColor(INK.muted)
+			.text(w.fonts.text(text), mmToPt(x), mmToPt(y - 3.6), { lineBreak: false });
 	};
 	const rowH = Math.max(front.frame.h, side.frame.h) * d.scale;
 	caption(`Front · ${front.axisNote}`, w.left, top0);
@@ -202,9 +285,14 @@ function drawingsPage(w: Writer, data: SheetData) {
 	const topTop = top0 + rowH + gutter;
 	caption(`Top · ${top.axisNote}, front at the bottom`, w.left, topTop);
 	drawView(w.doc, w.fonts, d, top, w.left, topTop);
-	if (!layoutFits(d.views, d.scale, { widthMm: w.width, heightMm: w.bottom - top0, gutterMm: gutter })) {
+	if (
+		!layoutFits(d.views, d.scale, { widthMm: w.width, heightMm: w.bottom - top0, gutterMm: gutter })
+	) {
 		w.yMm = topTop + top.frame.h * d.scale + 4;
-		w.text('The drawings are larger than the page at the smallest scale; they run past its edge.', { size: 8, color: INK.muted });
+		w.text('The drawings are larger than the page at the smallest scale; they run past its edge.', {
+			size: 8,
+			color: INK.muted
+		});
 	}
 	drawingKey(w, w.left + top.frame.w * d.scale + gutter, topTop);
 }
@@ -215,7 +303,11 @@ function drawingKey(w: Writer, left: number, top: number) {
 	const doc = w.doc;
 	let y = top;
 	const label = (text: string) => {
-		doc.font(w.fonts.regular).fontSize(8).fillColor(INK.text).text(w.fonts.text(text), mmToPt(left + 5.2), mmToPt(y - 0.1), { lineBreak: false });
+		doc
+			.font(w.fonts.regular)
+			.fontSize(8)
+			.fillColor(INK.text)
+			.text(w.fonts.text(text), mmToPt(left + 5.2), mmToPt(y - 0.1), { lineBreak: false });
 		y += 5;
 	};
 	for (const s of ['collides', 'blocked', 'outside', 'tight', 'clear'] as const) {
@@ -240,12 +332,22 @@ function drawingKey(w: Writer, left: number, top: number) {
 	box(INK.interference, INK.interferenceEdge);
 	label('interference');
 	doc.save();
-	doc.circle(mmToPt(left + 1.6), mmToPt(y + 1.6), mmToPt(1.8)).lineWidth(0.2 * PT).fillAndStroke(INK.paper, INK.line);
+	doc
+		.circle(mmToPt(left + 1.6), mmToPt(y + 1.6), mmToPt(1.8))
+		.lineWidth(0.2 * PT)
+		.fillAndStroke(INK.paper, INK.line);
 	doc.restore();
-	doc.font(w.fonts.bold).fontSize(6.5).fillColor(INK.text).text('1', mmToPt(left + 0.9), mmToPt(y + 0.4), { lineBreak: false });
+	doc
+		.font(w.fonts.bold)
+		.fontSize(6.5)
+		.fillColor(INK.text)
+		.text('1', mmToPt(left + 0.9), mmToPt(y + 0.4), { lineBreak: false });
 	label('part number, as in the part list');
 	doc.save();
-	doc.roundedRect(mmToPt(left - 0.4), mmToPt(y), mmToPt(4.2), mmToPt(3.2), 0.6 * PT).lineWidth(0.15 * PT).fillAndStroke(INK.gapTag, INK.gap);
+	doc
+		.roundedRect(mmToPt(left - 0.4), mmToPt(y), mmToPt(4.2), mmToPt(3.2), 0.6 * PT)
+		.lineWidth(0.15 * PT)
+		.fillAndStroke(INK.gapTag, INK.gap);
 	doc.restore();
 	label('free gap between two faces');
 }
@@ -257,11 +359,22 @@ function table(w: Writer, rows: number, columns: Column[], size = 8) {
 		let x = w.left;
 		const y = w.yMm;
 		for (const c of columns) {
-			w.doc.font(w.fonts.bold).fontSize(size).fillColor(INK.text).text(w.fonts.text(c.title), mmToPt(x), mmToPt(y), { width: mmToPt(c.widthMm - 1.5) });
+			w.doc
+				.font(w.fonts.bold)
+				.fontSize(size)
+				.fillColor(INK.text)
+				.text(w.fonts.text(c.title), mmToPt(x), mmToPt(y), { width: mmToPt(c.widthMm - 1.5) });
 			x += c.widthMm;
 		}
-		w.yMm = y + Math.max(...columns.map((c) => w.heightOf(c.title, size, c.widthMm - 1.5, w.fonts.bold))) + 0.8;
-		w.doc.moveTo(mmToPt(w.left), w.doc.y).lineTo(mmToPt(w.left + w.width), w.doc.y).lineWidth(0.4 * PT).stroke(INK.line);
+		w.yMm =
+			y +
+			Math.max(...columns.map((c) => w.heightOf(c.title, size, c.widthMm - 1.5, w.fonts.bold))) +
+			0.8;
+		w.doc
+			.moveTo(mmToPt(w.left), w.doc.y)
+			.lineTo(mmToPt(w.left + w.width), w.doc.y)
+			.lineWidth(0.4 * PT)
+			.stroke(INK.line);
 		w.yMm += 1;
 	};
 	w.need(14);
@@ -275,11 +388,19 @@ function table(w: Writer, rows: number, columns: Column[], size = 8) {
 		const y = w.yMm;
 		let x = w.left;
 		for (const c of columns) {
-			w.doc.font(w.fonts.regular).fontSize(size).fillColor(INK.text).text(w.fonts.text(c.cell(i)), mmToPt(x), mmToPt(y), { width: mmToPt(c.widthMm - 1.5) });
+			w.doc
+				.font(w.fonts.regular)
+				.fontSize(size)
+				.fillColor(INK.text)
+				.text(w.fonts.text(c.cell(i)), mmToPt(x), mmToPt(y), { width: mmToPt(c.widthMm - 1.5) });
 			x += c.widthMm;
 		}
 		w.yMm = y + h + 0.8;
-		w.doc.moveTo(mmToPt(w.left), w.doc.y).lineTo(mmToPt(w.left + w.width), w.doc.y).lineWidth(0.15 * PT).stroke('#ddd3c0');
+		w.doc
+			.moveTo(mmToPt(w.left), w.doc.y)
+			.lineTo(mmToPt(w.left + w.width), w.doc.y)
+			.lineWidth(0.15 * PT)
+			.stroke('#ddd3c0');
 		w.yMm += 1;
 	}
 }
@@ -291,11 +412,21 @@ function partsSection(w: Writer, data: SheetData) {
 	const k = w.width / 186;
 	table(w, parts.length, [
 		{ title: '#', widthMm: 7 * k, cell: (i) => String(i + 1) },
-		{ title: 'Part', widthMm: 52 * k, cell: (i) => `${parts[i].name}\n${parts[i].categoryWord}${parts[i].mountLabel ? ` · on ${parts[i].mountLabel}` : ''}${parts[i].compartmentLabel ? ` · ${parts[i].compartmentLabel}` : ''}\ndimensions: ${parts[i].provenance}` },
+		{
+			title: 'Part',
+			widthMm: 52 * k,
+			cell: (i) =>
+				`${parts[i].name}\n${parts[i].categoryWord}${parts[i].mountLabel ? ` · on ${parts[i].mountLabel}` : ''}${parts[i].compartmentLabel ? ` · ${parts[i].compartmentLabel}` : ''}\ndimensions: ${parts[i].provenance}`
+		},
 		{ title: 'Size as placed (W × H × D)', widthMm: 33 * k, cell: (i) => parts[i].sizeText },
 		{ title: 'Position (min corner)', widthMm: 32 * k, cell: (i) => parts[i].positionText },
 		{ title: 'Orientation', widthMm: 32 * k, cell: (i) => parts[i].orientation },
-		{ title: 'Fit', widthMm: 30 * k, cell: (i) => `${parts[i].status}${parts[i].smallestGap ? `\nnearest: ${parts[i].smallestGap}` : ''}` }
+		{
+			title: 'Fit',
+			widthMm: 30 * k,
+			cell: (i) =>
+				`${parts[i].status}${parts[i].smallestGap ? `\nnearest: ${parts[i].smallestGap}` : ''}`
+		}
 	]);
 }
 
@@ -303,8 +434,16 @@ function quoteSection(w: Writer, data: SheetData) {
 	const q = data.quote;
 	if (!q) return;
 	w.heading('Quote');
-	if (q.draft) w.text(`Draft: not yet sent to the client.${q.unpriced ? ` ${q.unpriced} line(s) still without a price.` : ''}`, { size: 8.5, color: INK.muted, gapAfter: 1.5 });
-	const rows = [...q.lines.map((l) => [l.description, String(l.quantity), l.unit, l.total]), ...(q.labour ? [[q.labour.note, '1', q.labour.amount, q.labour.amount]] : [])];
+	if (q.draft) {
+		w.text(
+			`Draft: not yet sent to the client.${q.unpriced ? ` ${q.unpriced} line(s) still without a price.` : ''}`,
+			{ size: 8.5, color: INK.muted, gapAfter: 1.5 }
+		);
+	}
+	const rows = [
+		...q.lines.map((l) => [l.description, String(l.quantity), l.unit, l.total]),
+		...(q.labour ? [[q.labour.note, '1', q.labour.amount, q.labour.amount]] : [])
+	];
 	rows.push(['Subtotal', '', '', q.subtotal]);
 	if (q.tax) rows.push([`Tax ${q.tax.rate}`, '', '', q.tax.amount]);
 	rows.push(['Total', '', '', q.total], ['Deposit', '', '', q.deposit]);
@@ -322,9 +461,17 @@ function tickBox(doc: Doc, xMm: number, yMm: number, ticked: boolean) {
 	const x = mmToPt(xMm);
 	const y = mmToPt(yMm);
 	doc.save();
-	doc.roundedRect(x, y, s, s, 0.8 * PT).lineWidth(0.45 * PT).stroke(INK.line);
+	doc
+		.roundedRect(x, y, s, s, 0.8 * PT)
+		.lineWidth(0.45 * PT)
+		.stroke(INK.line);
 	if (ticked) {
-		doc.moveTo(x + s * 0.2, y + s * 0.55).lineTo(x + s * 0.42, y + s * 0.78).lineTo(x + s * 0.82, y + s * 0.22).lineWidth(0.7 * PT).stroke(STATUS_INK.clear.edge);
+		doc
+			.moveTo(x + s * 0.2, y + s * 0.55)
+			.lineTo(x + s * 0.42, y + s * 0.78)
+			.lineTo(x + s * 0.82, y + s * 0.22)
+			.lineWidth(0.7 * PT)
+			.stroke(STATUS_INK.clear.edge);
 	}
 	doc.restore();
 }
@@ -339,14 +486,21 @@ function checklistSection(w: Writer, data: SheetData) {
 		w.text(group.title, { font: w.fonts.bold, gapAfter: 1.2 });
 		for (const item of group.items) {
 			const x = w.left + 7;
-			const h = w.heightOf(item.text, 9, w.width - 7) + (item.detail ? w.heightOf(item.detail, 8, w.width - 7) : 0);
+			const h =
+				w.heightOf(item.text, 9, w.width - 7) +
+				(item.detail ? w.heightOf(item.detail, 8, w.width - 7) : 0);
 			w.need(Math.max(h, 5) + 1.5);
 			const y = w.yMm;
 			const tick = data.ticks[item.key];
 			tickBox(w.doc, w.left, y, !!tick);
 			w.text(item.text, { x, size: 9, gapAfter: 0.2 });
 			if (item.detail) w.text(item.detail, { x, size: 8, color: INK.muted, gapAfter: 0.2 });
-			if (tick) w.text(`Ticked${tick.by ? ` by ${tick.by}` : ''}${tick.earlierVersion ? ', before the variant last changed: check it again' : ''}`, { x, size: 7.5, color: INK.dividerEdge, gapAfter: 0.2 });
+			if (tick) {
+				w.text(
+					`Ticked${tick.by ? ` by ${tick.by}` : ''}${tick.earlierVersion ? ', before the variant last changed: check it again' : ''}`,
+					{ x, size: 7.5, color: INK.dividerEdge, gapAfter: 0.2 }
+				);
+			}
 			w.yMm = Math.max(w.yMm, y + 4.6) + 1.4;
 		}
 	}
@@ -370,15 +524,35 @@ async function photosSection(w: Writer, data: SheetData) {
 		const x = w.left + col * (cell + 4);
 		const y = w.yMm;
 		w.doc.image(png, mmToPt(x), mmToPt(y), { fit: [mmToPt(cell), mmToPt(cell)] });
-		if (p.caption) w.doc.font(w.fonts.regular).fontSize(7).fillColor(INK.muted).text(w.fonts.text(p.caption), mmToPt(x), mmToPt(y + cell + 0.8), { width: mmToPt(cell), height: mmToPt(6), ellipsis: true });
+		if (p.caption) {
+			w.doc
+				.font(w.fonts.regular)
+				.fontSize(7)
+				.fillColor(INK.muted)
+				.text(w.fonts.text(p.caption), mmToPt(x), mmToPt(y + cell + 0.8), {
+					width: mmToPt(cell),
+					height: mmToPt(6),
+					ellipsis: true
+				});
+		}
 		col = (col + 1) % perRow;
 		w.yMm = col === 0 ? y + cell + 8 : y;
 	}
 	if (col !== 0) w.yMm += cell + 8;
-	if (data.photos.length > MAX_PDF_PHOTOS) w.text(`${data.photos.length - MAX_PDF_PHOTOS} more photos on the sheet page.`, { size: 8, color: INK.muted });
+	if (data.photos.length > MAX_PDF_PHOTOS) {
+		w.text(`${data.photos.length - MAX_PDF_PHOTOS} more photos on the sheet page.`, {
+			size: 8,
+			color: INK.muted
+		});
+	}
 }
 
-function footers(doc: Doc, fonts: Fonts, data: SheetData, page: { widthMm: number; heightMm: number }) {
+function footers(
+	doc: Doc,
+	fonts: Fonts,
+	data: SheetData,
+	page: { widthMm: number; heightMm: number }
+) {
 	const range = doc.bufferedPageRange();
 	for (let i = range.start; i < range.start + range.count; i++) {
 		doc.switchToPage(i);
@@ -389,8 +563,19 @@ function footers(doc: Doc, fonts: Fonts, data: SheetData, page: { widthMm: numbe
 		const bottom = doc.page.margins.bottom;
 		doc.page.margins.bottom = 0;
 		doc.font(fonts.regular).fontSize(7).fillColor(INK.muted);
-		doc.text(fonts.text(`${data.sheet.heading.buildName} · ${data.sheet.heading.variantName} v${data.sheet.heading.variantVersion} · page ${i + 1} of ${range.count}`), left, y, { width, lineBreak: false });
-		doc.text(fonts.text(data.sheet.planningNote), left, y + 9, { width, lineBreak: false, ellipsis: true });
+		doc.text(
+			fonts.text(
+				`${data.sheet.heading.buildName} · ${data.sheet.heading.variantName} v${data.sheet.heading.variantVersion} · page ${i + 1} of ${range.count}`
+			),
+			left,
+			y,
+			{ width, lineBreak: false }
+		);
+		doc.text(fonts.text(data.sheet.planningNote), left, y + 9, {
+			width,
+			lineBreak: false,
+			ellipsis: true
+		});
 		doc.page.margins.bottom = bottom;
 	}
 }
@@ -400,9 +585,18 @@ export async function renderSheetPdf(data: SheetData): Promise<Buffer> {
 	const page = PAPER[data.paper];
 	const doc = new PDFDocument({
 		size: [mmToPt(page.widthMm), mmToPt(page.heightMm)],
-		margins: { top: mmToPt(MARGIN_MM), bottom: mmToPt(MARGIN_MM), left: mmToPt(MARGIN_MM), right: mmToPt(MARGIN_MM) },
+		margins: {
+			top: mmToPt(MARGIN_MM),
+			bottom: mmToPt(MARGIN_MM),
+			left: mmToPt(MARGIN_MM),
+			right: mmToPt(MARGIN_MM)
+		},
 		bufferPages: true,
-		info: { Title: `Build sheet · ${data.build.name} · ${data.variant.name}`, Creator: 'Interstice', Producer: 'Interstice' }
+		info: {
+			Title: `Build sheet · ${data.build.name} · ${data.variant.name}`,
+			Creator: 'Interstice',
+			Producer: 'Interstice'
+		}
 	});
 	const chunks: Buffer[] = [];
 	doc.on('data', (c: Buffer) => chunks.push(c));

@@ -9,14 +9,30 @@ import { innerVolumeLitres } from '../geometry/enclosure';
 import { demoEnclosure, demoParts, demoSceneInput } from '../geometry/fixtures';
 import type { PartDef } from '../geometry/schema';
 import { db } from './db';
-import { builds, checklistTicks, enclosureVersions, enclosures, parts, variants } from './db/schema';
+import {
+	builds,
+	checklistTicks,
+	enclosureVersions,
+	enclosures,
+	parts,
+	variants
+} from './db/schema';
 
-export type SheetTestBuild = { buildId: string; variantId: string; enclosureId: string; partIds: Record<string, string> };
+export type SheetTestBuild = {
+	buildId: string;
+	variantId: string;
+	enclosureId: string;
+	partIds: Record<string, string>;
+};
 
 const id = (label: string) => `${label}-${randomBytes(6).toString('hex')}`;
 
 function bounds(part: PartDef): [number, number, number] {
-	return [0, 1, 2].map((i) => Math.max(...part.bodies.map((b) => b.box.max[i])) - Math.min(...part.bodies.map((b) => b.box.min[i]))) as [number, number, number];
+	return [0, 1, 2].map(
+		(i) =>
+			Math.max(...part.bodies.map((b) => b.box.max[i])) -
+			Math.min(...part.bodies.map((b) => b.box.min[i]))
+	) as [number, number, number];
 }
 
 /**
@@ -50,16 +66,44 @@ export async function createSheetBuild(opts: {
 		};
 	});
 	const settings = demoSettings();
-	settings.placements = settings.placements.map((pl) => ({ ...pl, partId: partIds[pl.partId] ?? pl.partId }));
+	settings.placements = settings.placements.map((pl) => ({
+		...pl,
+		partId: partIds[pl.partId] ?? pl.partId
+	}));
 	opts.adjust?.(settings);
 	const buildId = id('build');
 	const variantId = id('variant');
 	await db.transaction(async (tx) => {
-		await tx.insert(enclosures).values({ id: enclosureId, studioId: opts.studioId, name: definition.name, volumeLitres: innerVolumeLitres(definition) });
-		await tx.insert(enclosureVersions).values({ id: versionId, enclosureId, version: 1, definition, volumeLitres: innerVolumeLitres(definition) });
+		await tx.insert(enclosures).values({
+			id: enclosureId,
+			studioId: opts.studioId,
+			name: definition.name,
+			volumeLitres: innerVolumeLitres(definition)
+		});
+		await tx.insert(enclosureVersions).values({
+			id: versionId,
+			enclosureId,
+			version: 1,
+			definition,
+			volumeLitres: innerVolumeLitres(definition)
+		});
 		await tx.insert(parts).values(rows);
-		await tx.insert(builds).values({ id: buildId, studioId: opts.studioId, name: opts.name ?? 'Sheet test build', clientName: 'Test Client', enclosureVersionId: versionId, createdBy: opts.userId ?? null });
-		await tx.insert(variants).values({ id: variantId, buildId, name: 'Spine at three slots', sortOrder: 0, isProposal: true, settings });
+		await tx.insert(builds).values({
+			id: buildId,
+			studioId: opts.studioId,
+			name: opts.name ?? 'Sheet test build',
+			clientName: 'Test Client',
+			enclosureVersionId: versionId,
+			createdBy: opts.userId ?? null
+		});
+		await tx.insert(variants).values({
+			id: variantId,
+			buildId,
+			name: 'Spine at three slots',
+			sortOrder: 0,
+			isProposal: true,
+			settings
+		});
 	});
 	return { buildId, variantId, enclosureId, partIds };
 }
@@ -70,7 +114,10 @@ export function demoSettings() {
 	return {
 		dividerPositions: { ...scene.dividerPositions } as Record<string, number>,
 		bracketOffsets: { ...scene.bracketOffsets } as Record<string, number>,
-		placements: [...(scene.placements ?? [])].map((p) => ({ ...p, rotation: { x: 0, y: 0, z: 0, ...p.rotation } })),
+		placements: [...(scene.placements ?? [])].map((p) => ({
+			...p,
+			rotation: { x: 0, y: 0, z: 0, ...p.rotation }
+		})),
 		marginMm: scene.marginMm ?? 2,
 		budgets: { wattsPer120mm: 100, psuHeadroomPct: 30, ...scene.budgets }
 	};
@@ -78,6 +125,8 @@ export function demoSettings() {
 
 /** Forgets every tick of a build's variants, so a test starts from an empty checklist. */
 export async function clearTicks(buildId: string) {
-	const ids = (await db.select({ id: variants.id }).from(variants).where(eq(variants.buildId, buildId))).map((v) => v.id);
+	const ids = (
+		await db.select({ id: variants.id }).from(variants).where(eq(variants.buildId, buildId))
+	).map((v) => v.id);
 	if (ids.length) await db.delete(checklistTicks).where(inArray(checklistTicks.variantId, ids));
 }

@@ -19,8 +19,11 @@ import { createSheetBuild, type SheetTestBuild } from './sheet-test-build';
 import { createMember, createStudio, type TestMember } from './testing/factories';
 
 type Who = TestMember;
-const localsOf = (u: Who) => ({ user: { id: u.id, email: u.email, name: u.name, activeStudioId: null } });
-const urlOf = (b: SheetTestBuild, query = '') => new URL(`http://127.0.0.1/builds/${b.buildId}/sheet?variant=${b.variantId}${query}`);
+const localsOf = (u: Who) => ({
+	user: { id: u.id, email: u.email, name: u.name, activeStudioId: null }
+});
+const urlOf = (b: SheetTestBuild, query = '') =>
+	new URL(`http://127.0.0.1/builds/${b.buildId}/sheet?variant=${b.variantId}${query}`);
 
 async function pdfText(pdf: Buffer) {
 	const doc = await getDocumentProxy(new Uint8Array(pdf));
@@ -38,10 +41,24 @@ let build: SheetTestBuild;
 beforeAll(async () => {
 	const studio = await createStudio();
 	const other = await createStudio();
-	[designer, client, outsider] = await Promise.all([createMember(studio.id, 'designer'), createMember(studio.id, 'client'), createMember(other.id, 'owner')]);
-	build = await createSheetBuild({ studioId: studio.id, userId: designer.id, name: 'Bench sheet build' });
+	[designer, client, outsider] = await Promise.all([
+		createMember(studio.id, 'designer'),
+		createMember(studio.id, 'client'),
+		createMember(other.id, 'owner')
+	]);
+	build = await createSheetBuild({
+		studioId: studio.id,
+		userId: designer.id,
+		name: 'Bench sheet build'
+	});
 	// A client sees a build through the variants shared with them (access.ts).
-	await createShareLink({ studioId: studio.id, buildId: build.buildId, variantId: build.variantId, createdBy: designer.id, recipientEmail: client.email });
+	await createShareLink({
+		studioId: studio.id,
+		buildId: build.buildId,
+		variantId: build.variantId,
+		createdBy: designer.id,
+		recipientEmail: client.email
+	});
 });
 
 afterAll(async () => {
@@ -50,7 +67,9 @@ afterAll(async () => {
 
 describe('the PDF', () => {
 	it('is a PDF with the divider position and a known gap in its text', async () => {
-		const pdf = await renderSheetPdf(await loadSheet(localsOf(designer), build.buildId, urlOf(build)));
+		const pdf = await renderSheetPdf(
+			await loadSheet(localsOf(designer), build.buildId, urlOf(build))
+		);
 		expect(pdf.subarray(0, 5).toString('latin1')).toBe('%PDF-');
 		expect(pdf.subarray(-6).toString('latin1')).toMatch(/%%EOF\s*$/);
 		const { text, pages } = await pdfText(pdf);
@@ -66,7 +85,9 @@ describe('the PDF', () => {
 	});
 
 	it('embeds Space Grotesk', async () => {
-		const pdf = await renderSheetPdf(await loadSheet(localsOf(designer), build.buildId, urlOf(build)));
+		const pdf = await renderSheetPdf(
+			await loadSheet(localsOf(designer), build.buildId, urlOf(build))
+		);
 		expect(pdf.toString('latin1')).toMatch(/\/BaseFont \/[A-Z]{6}\+SpaceGrotesk/);
 	});
 
@@ -74,14 +95,21 @@ describe('the PDF', () => {
 		['', 'A4', 595.28, 841.89],
 		['&paper=letter', 'Letter', 612, 792]
 	])('is laid out for the paper asked for (%s → %s)', async (query, _name, w, h) => {
-		const { view } = await pdfText(await renderSheetPdf(await loadSheet(localsOf(designer), build.buildId, urlOf(build, query))));
+		const { view } = await pdfText(
+			await renderSheetPdf(await loadSheet(localsOf(designer), build.buildId, urlOf(build, query)))
+		);
 		expect(view[2]).toBeCloseTo(w, 1);
 		expect(view[3]).toBeCloseTo(h, 1);
 	});
 
 	it('lists the collision of the two-slot variant with its numbers', async () => {
-		const two = await createSheetBuild({ studioId: (await loadSheetStudio()).studioId, adjust: (s) => (s.dividerPositions.spine = DEMO_SPINE_OFFSETS['2 slots']) });
-		const { text } = await pdfText(await renderSheetPdf(await loadSheet(localsOf(designer), two.buildId, urlOf(two))));
+		const two = await createSheetBuild({
+			studioId: (await loadSheetStudio()).studioId,
+			adjust: (s) => (s.dividerPositions.spine = DEMO_SPINE_OFFSETS['2 slots'])
+		});
+		const { text } = await pdfText(
+			await renderSheetPdf(await loadSheet(localsOf(designer), two.buildId, urlOf(two)))
+		);
 		expect(text).toContain('Not ready to build');
 		// The spine (106.32–108.32 mm) reaches 0.96 mm into the card standing from 107.36 mm.
 		expect(text).toContain('Compact graphics card, two slots, 185 mm collides with Spine');
@@ -93,7 +121,9 @@ describe('the PDF', () => {
 		expect(isHttpError(err) && err.status).toBe(404);
 		const { studioId } = await loadSheetStudio();
 		const unshared = await createSheetBuild({ studioId });
-		const hidden = await loadSheet(localsOf(client), unshared.buildId, urlOf(unshared)).catch((e) => e);
+		const hidden = await loadSheet(localsOf(client), unshared.buildId, urlOf(unshared)).catch(
+			(e) => e
+		);
 		expect(isHttpError(hidden) && hidden.status).toBe(404);
 	});
 });
@@ -103,35 +133,62 @@ async function loadSheetStudio() {
 	const { db } = await import('./db');
 	const { builds } = await import('./db/schema');
 	const { eq } = await import('drizzle-orm');
-	const [row] = await db.select({ studioId: builds.studioId }).from(builds).where(eq(builds.id, data.build.id));
+	const [row] = await db
+		.select({ studioId: builds.studioId })
+		.from(builds)
+		.where(eq(builds.id, data.build.id));
 	return row;
 }
 
 describe('ticks', () => {
 	it('are saved per variant and item, and come back on the next load', async () => {
-		await setTick(localsOf(designer), build.buildId, { variantId: build.variantId, key: 'caution:leak-test', ticked: '1' });
-		await setTick(localsOf(designer), build.buildId, { variantId: build.variantId, key: 'part:board', ticked: '1' });
+		await setTick(localsOf(designer), build.buildId, {
+			variantId: build.variantId,
+			key: 'caution:leak-test',
+			ticked: '1'
+		});
+		await setTick(localsOf(designer), build.buildId, {
+			variantId: build.variantId,
+			key: 'part:board',
+			ticked: '1'
+		});
 		let data = await loadSheet(localsOf(client), build.buildId, urlOf(build));
 		expect(Object.keys(data.ticks).sort()).toEqual(['caution:leak-test', 'part:board']);
 		expect(data.ticks['part:board']).toMatchObject({ by: designer.name, earlierVersion: false });
 		expect(data.canTick).toBe(false);
-		await setTick(localsOf(designer), build.buildId, { variantId: build.variantId, key: 'part:board', ticked: '0' });
+		await setTick(localsOf(designer), build.buildId, {
+			variantId: build.variantId,
+			key: 'part:board',
+			ticked: '0'
+		});
 		data = await loadSheet(localsOf(designer), build.buildId, urlOf(build));
 		expect(Object.keys(data.ticks)).toEqual(['caution:leak-test']);
 		expect(data.canTick).toBe(true);
 	});
 
 	it('show ticked boxes in the PDF', async () => {
-		const { text } = await pdfText(await renderSheetPdf(await loadSheet(localsOf(designer), build.buildId, urlOf(build))));
+		const { text } = await pdfText(
+			await renderSheetPdf(await loadSheet(localsOf(designer), build.buildId, urlOf(build)))
+		);
 		expect(text).toContain(`Ticked by ${designer.name}`);
 	});
 
 	it('refuse a key the sheet does not have', async () => {
-		await expect(setTick(localsOf(designer), build.buildId, { variantId: build.variantId, key: 'part:no-such-part', ticked: '1' })).rejects.toBeInstanceOf(TickRejected);
+		await expect(
+			setTick(localsOf(designer), build.buildId, {
+				variantId: build.variantId,
+				key: 'part:no-such-part',
+				ticked: '1'
+			})
+		).rejects.toBeInstanceOf(TickRejected);
 	});
 
 	it('are not the client’s to set', async () => {
-		const err = await setTick(localsOf(client), build.buildId, { variantId: build.variantId, key: 'caution:unplug', ticked: '1' }).catch((e) => e);
+		const err = await setTick(localsOf(client), build.buildId, {
+			variantId: build.variantId,
+			key: 'caution:unplug',
+			ticked: '1'
+		}).catch((e) => e);
 		expect(isHttpError(err) && err.status).toBe(403);
 	});
 });
@@ -140,8 +197,17 @@ describe('photos on the sheet', () => {
 	it('lists the build’s photos and embeds their thumbnails in the PDF', async () => {
 		const { studioId } = await loadSheetStudio();
 		const pictured = await createSheetBuild({ studioId });
-		const bytes = await sharp({ create: { width: 64, height: 48, channels: 3, background: '#2e9d83' } }).jpeg().toBuffer();
-		await addPhoto({ buildId: pictured.buildId, uploadedBy: designer.id, bytes, caption: 'Loop filled' });
+		const bytes = await sharp({
+			create: { width: 64, height: 48, channels: 3, background: '#2e9d83' }
+		})
+			.jpeg()
+			.toBuffer();
+		await addPhoto({
+			buildId: pictured.buildId,
+			uploadedBy: designer.id,
+			bytes,
+			caption: 'Loop filled'
+		});
 		const data = await loadSheet(localsOf(designer), pictured.buildId, urlOf(pictured));
 		expect(data.photos.map((p) => p.caption)).toEqual(['Loop filled']);
 		const pdf = await renderSheetPdf(data);
@@ -158,11 +224,23 @@ describe('the quote on the sheet', () => {
 		expect(data0.quote).toBeNull();
 		const { variantsOf } = await import('./builds');
 		const [variant] = await variantsOf(quoted.buildId);
-		await ensureQuote({ studioId, buildId: quoted.buildId, variantId: quoted.variantId, settings: variant.settings, currency: 'EUR' });
+		await ensureQuote({
+			studioId,
+			buildId: quoted.buildId,
+			variantId: quoted.variantId,
+			settings: variant.settings,
+			currency: 'EUR'
+		});
 		const data = await loadSheet(localsOf(designer), quoted.buildId, urlOf(quoted));
 		expect(data.quote?.draft).toBe(true);
 		expect(data.quote?.lines.map((l) => l.description)).toContain('Mini-ITX board');
-		await createShareLink({ studioId, buildId: quoted.buildId, variantId: quoted.variantId, createdBy: designer.id, recipientEmail: client.email });
+		await createShareLink({
+			studioId,
+			buildId: quoted.buildId,
+			variantId: quoted.variantId,
+			createdBy: designer.id,
+			recipientEmail: client.email
+		});
 		expect((await loadSheet(localsOf(client), quoted.buildId, urlOf(quoted))).quote).toBeNull();
 		const { text } = await pdfText(await renderSheetPdf(data));
 		expect(text).toContain('Quote');

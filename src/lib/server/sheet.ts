@@ -13,7 +13,13 @@ import { checkInPool } from './engine/pool';
 import { orthographicViews, type DrawingRoom, type SheetDrawing } from '$lib/builds/orthographic';
 import { buildSheet, checklistKeys, type SheetModel } from '$lib/builds/sheet';
 import { formatMoney } from '$lib/components/client/money';
-import { requireBuild, requireVariant, roleMay, variantsSharedWithUser, type Locals } from './access';
+import {
+	requireBuild,
+	requireVariant,
+	roleMay,
+	variantsSharedWithUser,
+	type Locals
+} from './access';
 import type { SessionUser } from './auth';
 import { SceneRejected, loadVariant, variantsOf, type LoadedVariant } from './builds';
 import { canonicalJson, ensureVersion } from './versions';
@@ -41,7 +47,11 @@ export function paperOf(value: string | null): Paper {
 /** The room the three views get: one page, less margins and heading. */
 export function drawingRoom(paper: Paper): DrawingRoom {
 	const p = PAPER[paper];
-	return { widthMm: p.widthMm - 2 * MARGIN_MM, heightMm: p.heightMm - 2 * MARGIN_MM - DRAWING_HEADING_MM, gutterMm: 8 };
+	return {
+		widthMm: p.widthMm - 2 * MARGIN_MM,
+		heightMm: p.heightMm - 2 * MARGIN_MM - DRAWING_HEADING_MM,
+		gutterMm: 8
+	};
 }
 
 export type TickView = { at: Date; by: string | null; earlierVersion: boolean };
@@ -78,7 +88,9 @@ async function loadChecked(build: BuildRow, variantId: string | undefined) {
 	try {
 		loaded = await loadVariant(build.id, build.studioId, build.enclosureVersionId, variantId);
 	} catch (e) {
-		if (e instanceof SceneRejected) error(409, `This variant no longer checks against its enclosure and parts: ${e.message}`);
+		if (e instanceof SceneRejected) {
+			error(409, `This variant no longer checks against its enclosure and parts: ${e.message}`);
+		}
 		throw e;
 	}
 	if (!loaded) error(404, 'No such variant in this build.');
@@ -86,7 +98,11 @@ async function loadChecked(build: BuildRow, variantId: string | undefined) {
 	return { loaded, resolved, report: await checkInPool(loaded.scene) };
 }
 
-function sheetOf(build: BuildRow, checked: Awaited<ReturnType<typeof loadChecked>>, version?: { number: number; changed: boolean }): SheetModel {
+function sheetOf(
+	build: BuildRow,
+	checked: Awaited<ReturnType<typeof loadChecked>>,
+	version?: { number: number; changed: boolean }
+): SheetModel {
 	const { loaded, resolved, report } = checked;
 	return buildSheet({
 		buildName: build.name,
@@ -94,21 +110,34 @@ function sheetOf(build: BuildRow, checked: Awaited<ReturnType<typeof loadChecked
 		variantName: loaded.variant.name,
 		// The title names a version (what the client saw), saying so when the variant moved on since.
 		variantVersion: version?.number ?? loaded.variant.version,
-		versionText: version ? `version ${version.number}${version.changed ? ', with changes not yet saved as a version' : ''}` : undefined,
+		versionText: version
+			? `version ${version.number}${version.changed ? ', with changes not yet saved as a version' : ''}`
+			: undefined,
 		scene: loaded.scene,
 		resolved,
 		report
 	});
 }
 
-async function ticksOf(variantId: string, version: number, keys: Set<string>): Promise<Record<string, TickView>> {
+async function ticksOf(
+	variantId: string,
+	version: number,
+	keys: Set<string>
+): Promise<Record<string, TickView>> {
 	const rows = await db
-		.select({ key: checklistTicks.itemKey, at: checklistTicks.tickedAt, version: checklistTicks.variantVersion, by: users.name })
+		.select({
+			key: checklistTicks.itemKey,
+			at: checklistTicks.tickedAt,
+			version: checklistTicks.variantVersion,
+			by: users.name
+		})
 		.from(checklistTicks)
 		.leftJoin(users, eq(users.id, checklistTicks.tickedBy))
 		.where(eq(checklistTicks.variantId, variantId));
 	const out: Record<string, TickView> = {};
-	for (const r of rows) if (keys.has(r.key)) out[r.key] = { at: r.at, by: r.by, earlierVersion: r.version < version };
+	for (const r of rows) {
+		if (keys.has(r.key)) out[r.key] = { at: r.at, by: r.by, earlierVersion: r.version < version };
+	}
 	return out;
 }
 
@@ -130,11 +159,18 @@ async function quoteView(variantId: string, mayDraft: boolean): Promise<QuoteVie
 			unit: l.unitPriceMinor === null ? 'no price yet' : money(l.unitPriceMinor),
 			total: l.unitPriceMinor === null ? '—' : money(l.unitPriceMinor * l.quantity)
 		})),
-		labour: quote.labourMinor > 0 ? { note: quote.labourNote, amount: money(quote.labourMinor) } : null,
+		labour:
+			quote.labourMinor > 0 ? { note: quote.labourNote, amount: money(quote.labourMinor) } : null,
 		subtotal: money(totals.subtotalMinor),
-		tax: quote.taxRateBp > 0 ? { rate: percent(quote.taxRateBp), amount: money(totals.taxMinor) } : null,
+		tax:
+			quote.taxRateBp > 0
+				? { rate: percent(quote.taxRateBp), amount: money(totals.taxMinor) }
+				: null,
 		total: money(totals.totalMinor),
-		deposit: quote.depositKind === 'percent' ? `${money(totals.depositMinor)} (${percent(quote.depositValue)})` : money(totals.depositMinor),
+		deposit:
+			quote.depositKind === 'percent'
+				? `${money(totals.depositMinor)} (${percent(quote.depositValue)})`
+				: money(totals.depositMinor),
 		unpriced: totals.unpriced
 	};
 }
@@ -144,7 +180,14 @@ async function quoteView(variantId: string, mayDraft: boolean): Promise<QuoteVie
  * a client (access.ts). The one asked for must be among them (404 otherwise); none asked for means
  * the proposal, else the first.
  */
-async function visibleVariants(locals: Locals, build: BuildRow, role: string, user: SessionUser, asked: string | null, url?: URL) {
+async function visibleVariants(
+	locals: Locals,
+	build: BuildRow,
+	role: string,
+	user: SessionUser,
+	asked: string | null,
+	url?: URL
+) {
 	const all = await variantsOf(build.id);
 	const shared = role === 'client' ? await variantsSharedWithUser(user, build.id) : null;
 	const visible = shared ? all.filter((v) => shared.includes(v.id)) : all;
@@ -160,13 +203,31 @@ async function visibleVariants(locals: Locals, build: BuildRow, role: string, us
 /** Everything the sheet shows, for a user allowed to see the build and the variant. */
 export async function loadSheet(locals: Locals, buildId: string, url: URL): Promise<SheetData> {
 	const { build, access } = await requireBuild(locals, buildId, 'build.view', url);
-	const { visible, variantId } = await visibleVariants(locals, build, access.role, access.user, url.searchParams.get('variant'), url);
+	const { visible, variantId } = await visibleVariants(
+		locals,
+		build,
+		access.role,
+		access.user,
+		url.searchParams.get('variant'),
+		url
+	);
 	const paper = paperOf(url.searchParams.get('paper'));
 	const checked = await loadChecked(build, variantId);
 	const shown = await ensureVersion(checked.loaded.variant);
-	const sheet = sheetOf(build, checked, { number: shown.number, changed: canonicalJson(variantSettingsSchema.parse(shown.settings)) !== canonicalJson(checked.loaded.settings) });
+	const sheet = sheetOf(build, checked, {
+		number: shown.number,
+		changed:
+			canonicalJson(variantSettingsSchema.parse(shown.settings)) !==
+			canonicalJson(checked.loaded.settings)
+	});
 	const numbers = new Map(sheet.parts.map((p, i) => [p.placementId, i + 1]));
-	const drawing = orthographicViews(checked.loaded.scene, checked.resolved, checked.report, drawingRoom(paper), numbers);
+	const drawing = orthographicViews(
+		checked.loaded.scene,
+		checked.resolved,
+		checked.report,
+		drawingRoom(paper),
+		numbers
+	);
 	const variant = checked.loaded.variant;
 	const studioSide = roleMay(access.role, 'build.edit');
 	const [ticks, quote, photoRows] = await Promise.all([
@@ -182,11 +243,19 @@ export async function loadSheet(locals: Locals, buildId: string, url: URL): Prom
 		drawing,
 		ticks,
 		quote,
-		photos: photoRows.map((p) => ({ id: p.id, caption: p.caption, width: p.width, height: p.height })),
+		photos: photoRows.map((p) => ({
+			id: p.id,
+			caption: p.caption,
+			width: p.width,
+			height: p.height
+		})),
 		canTick: studioSide,
 		paper,
 		generatedAt: new Date(),
-		room: roomAt(checked.loaded.scene.enclosure, { dividerPositions: checked.resolved.dividerPositions, bracketOffsets: checked.resolved.bracketOffsets })
+		room: roomAt(checked.loaded.scene.enclosure, {
+			dividerPositions: checked.resolved.dividerPositions,
+			bracketOffsets: checked.resolved.bracketOffsets
+		})
 	};
 }
 
@@ -203,19 +272,41 @@ export class TickRejected extends Error {}
  * Ticks or unticks one checklist item. Only studio members who may edit the build tick (clients
  * read the sheet); the key must be one the variant's sheet has right now.
  */
-export async function setTick(locals: Locals, buildId: string, input: TickInput): Promise<{ key: string; ticked: boolean }> {
+export async function setTick(
+	locals: Locals,
+	buildId: string,
+	input: TickInput
+): Promise<{ key: string; ticked: boolean }> {
 	const { build, access } = await requireVariant(locals, buildId, input.variantId, 'build.edit');
 	const checked = await loadChecked(build, input.variantId);
 	const variant = checked.loaded.variant;
-	if (!checklistKeys(sheetOf(build, checked)).has(input.key)) throw new TickRejected('This sheet has no such checklist item.');
+	if (!checklistKeys(sheetOf(build, checked)).has(input.key)) {
+		throw new TickRejected('This sheet has no such checklist item.');
+	}
 	if (input.ticked === '1') {
-		const values = { variantId: variant.id, itemKey: input.key, buildId: build.id, variantVersion: variant.version, tickedBy: access.user.id, tickedAt: new Date() };
+		const values = {
+			variantId: variant.id,
+			itemKey: input.key,
+			buildId: build.id,
+			variantVersion: variant.version,
+			tickedBy: access.user.id,
+			tickedAt: new Date()
+		};
 		await db
 			.insert(checklistTicks)
 			.values(values)
-			.onConflictDoUpdate({ target: [checklistTicks.variantId, checklistTicks.itemKey], set: { variantVersion: values.variantVersion, tickedBy: values.tickedBy, tickedAt: values.tickedAt } });
+			.onConflictDoUpdate({
+				target: [checklistTicks.variantId, checklistTicks.itemKey],
+				set: {
+					variantVersion: values.variantVersion,
+					tickedBy: values.tickedBy,
+					tickedAt: values.tickedAt
+				}
+			});
 	} else {
-		await db.delete(checklistTicks).where(and(eq(checklistTicks.variantId, variant.id), eq(checklistTicks.itemKey, input.key)));
+		await db
+			.delete(checklistTicks)
+			.where(and(eq(checklistTicks.variantId, variant.id), eq(checklistTicks.itemKey, input.key)));
 	}
 	return { key: input.key, ticked: input.ticked === '1' };
 }

@@ -32,21 +32,44 @@ afterAll(async () => {
 	await rm(store, { recursive: true, force: true });
 });
 
-const picture = (r: number) => sharp({ create: { width: 40, height: 30, channels: 3, background: { r, g: 100, b: 50 } } }).jpeg().toBuffer();
+const picture = (r: number) =>
+	sharp({ create: { width: 40, height: 30, channels: 3, background: { r, g: 100, b: 50 } } })
+		.jpeg()
+		.toBuffer();
 
 async function buildWithPhotos(n: number) {
 	const studio = await createStudio();
 	const designer = await createMember(studio.id, 'designer');
 	const b = await demoBuildIn(studio.id, designer.id);
 	const rows = [];
-	for (let i = 0; i < n; i++) rows.push(await addPhoto({ buildId: b.buildId, uploadedBy: designer.id, bytes: await picture(40 * i), caption: `Step ${i}` }));
-	return { studioId: studio.id, buildId: b.buildId, rows, keys: rows.flatMap((r) => [r.storageKey, r.thumbKey]) };
+	for (let i = 0; i < n; i++) {
+		rows.push(
+			await addPhoto({
+				buildId: b.buildId,
+				uploadedBy: designer.id,
+				bytes: await picture(40 * i),
+				caption: `Step ${i}`
+			})
+		);
+	}
+	return {
+		studioId: studio.id,
+		buildId: b.buildId,
+		rows,
+		keys: rows.flatMap((r) => [r.storageKey, r.thumbKey])
+	};
 }
 
 function storageCheck(args: string[] = [], env: Record<string, string> = {}) {
-	return run(join(repo, 'node_modules/.bin/tsx'), ['scripts/storage-check.ts', ...args], { cwd: repo, env: { ...process.env, STORAGE_DIR: store, ...env } }).then(
+	return run(join(repo, 'node_modules/.bin/tsx'), ['scripts/storage-check.ts', ...args], {
+		cwd: repo,
+		env: { ...process.env, STORAGE_DIR: store, ...env }
+	}).then(
 		(r) => ({ code: 0, out: r.stdout }),
-		(e: { code?: number; stdout?: string; stderr?: string }) => ({ code: e.code ?? -1, out: `${e.stdout ?? ''}${e.stderr ?? ''}` })
+		(e: { code?: number; stdout?: string; stderr?: string }) => ({
+			code: e.code ?? -1,
+			out: `${e.stdout ?? ''}${e.stderr ?? ''}`
+		})
 	);
 }
 
@@ -57,7 +80,17 @@ describe('deleting a build', () => {
 		for (const k of [...gone.keys, ...kept.keys]) expect(await readObject(k), k).not.toBeNull();
 		await deleteBuild(gone.buildId);
 		expect(await db.select().from(builds).where(eq(builds.id, gone.buildId))).toHaveLength(0);
-		expect(await db.select().from(photos).where(inArray(photos.id, gone.rows.map((r) => r.id)))).toHaveLength(0);
+		expect(
+			await db
+				.select()
+				.from(photos)
+				.where(
+					inArray(
+						photos.id,
+						gone.rows.map((r) => r.id)
+					)
+				)
+		).toHaveLength(0);
 		for (const k of gone.keys) expect(await readObject(k), k).toBeNull();
 		for (const k of kept.keys) expect(await readObject(k), k).not.toBeNull();
 	});
@@ -66,7 +99,14 @@ describe('deleting a build', () => {
 		const { studioId, buildId, keys } = await buildWithPhotos(1);
 		const [v] = await db.select().from(variants).where(eq(variants.buildId, buildId));
 		const q = await ensureQuote({ studioId, buildId, variantId: v.id, settings: v.settings });
-		await db.insert(payments).values({ id: newId(), quoteId: q.quote.id, buildId, variantId: v.id, amountMinor: 5000, currency: 'EUR' });
+		await db.insert(payments).values({
+			id: newId(),
+			quoteId: q.quote.id,
+			buildId,
+			variantId: v.id,
+			amountMinor: 5000,
+			currency: 'EUR'
+		});
 		await expect(deleteBuild(buildId)).rejects.toThrow(/deposit on record/);
 		expect(await db.select().from(builds).where(eq(builds.id, buildId))).toHaveLength(1);
 		for (const k of keys) expect(await readObject(k), k).not.toBeNull();
@@ -77,7 +117,9 @@ describe('deleting a build', () => {
 		const { objects, strays } = await listObjects();
 		expect(objects.map((o) => o.key)).toEqual(expect.arrayContaining(keys));
 		expect(strays).toEqual([]);
-		expect((await readdir(join(store, keys[0].slice(0, 2)))).some((f) => f.endsWith('.part'))).toBe(false);
+		expect((await readdir(join(store, keys[0].slice(0, 2)))).some((f) => f.endsWith('.part'))).toBe(
+			false
+		);
 	});
 });
 
@@ -90,8 +132,12 @@ describe('npm run storage:check', () => {
 
 		const found = await storageCheck();
 		expect(found.code, found.out).toBe(1);
-		expect(found.out).toMatch(new RegExp(`files with no row: \\d+\\n(.*\\n)*  ${orphan}  \\d+ bytes`));
-		expect(found.out).toContain(`photo ${rows[0].id} of build ${rows[0].buildId}: ${rows[0].thumbKey}`);
+		expect(found.out).toMatch(
+			new RegExp(`files with no row: \\d+\\n(.*\\n)*  ${orphan}  \\d+ bytes`)
+		);
+		expect(found.out).toContain(
+			`photo ${rows[0].id} of build ${rows[0].buildId}: ${rows[0].thumbKey}`
+		);
 
 		// Young orphans may be an upload whose row is a moment away: kept unless old enough.
 		const young = await storageCheck(['--delete-orphans']);

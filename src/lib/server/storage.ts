@@ -156,7 +156,9 @@ export async function verifyExported(dir: string, list: ExportedObject[]): Promi
 		} catch {
 			return `${o.key} is missing`;
 		}
-		if (bytes.byteLength !== o.bytes || sha256(bytes) !== o.sha256) return `${o.key} does not match its checksum`;
+		if (bytes.byteLength !== o.bytes || sha256(bytes) !== o.sha256) {
+			return `${o.key} does not match its checksum`;
+		}
 	}
 	return null;
 }

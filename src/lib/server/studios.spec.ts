@@ -6,7 +6,16 @@ import { eq, sql } from 'drizzle-orm';
 import { describe, expect, it } from 'vitest';
 import { db } from './db';
 import { invites, memberships, users } from './db/schema';
-import { createInvite, createMember, createSession, createStudio, createUser, roleOf, studioWithMembers, uniqueEmail } from './testing/factories';
+import {
+	createInvite,
+	createMember,
+	createSession,
+	createStudio,
+	createUser,
+	roleOf,
+	studioWithMembers,
+	uniqueEmail
+} from './testing/factories';
 import { extractLink, waitForMail } from './testing/mail';
 import { useApp } from './testing/suite';
 
@@ -35,7 +44,12 @@ describe('invite → accept → role', () => {
 		expect(page.header('referrer-policy')).toBe('same-origin');
 		expect(page.text).toContain(`/signup?next=${encodeURIComponent(path)}`);
 
-		const signedUp = await guest.signUp({ name: 'New Designer', email, password: 'long-enough-1', next: path });
+		const signedUp = await guest.signUp({
+			name: 'New Designer',
+			email,
+			password: 'long-enough-1',
+			next: path
+		});
 		expect(signedUp.status).toBe(303);
 		expect(signedUp.location).toBe(path);
 		const accepted = await guest.postForm(path);
@@ -59,15 +73,26 @@ describe('invite → accept → role', () => {
 	it('an existing user signs in from the link and joins with the invited role', async () => {
 		const f = await studioWithMembers();
 		const existing = await createUser();
-		const inv = await createInvite({ studioId: f.studio.id, role: 'client', email: existing.email, invitedBy: f.owner.id });
+		const inv = await createInvite({
+			studioId: f.studio.id,
+			role: 'client',
+			email: existing.email,
+			invitedBy: f.owner.id
+		});
 		const c = app.client();
 		const anonymous = await c.postForm(`/invite/${inv.token}`);
 		expect(anonymous.status).toBe(303);
 		expect(anonymous.location).toBe(`/signin?next=${encodeURIComponent(`/invite/${inv.token}`)}`);
 
-		const signedIn = await c.postForm('/signin', { email: existing.email, password: existing.password, next: `/invite/${inv.token}` });
+		const signedIn = await c.postForm('/signin', {
+			email: existing.email,
+			password: existing.password,
+			next: `/invite/${inv.token}`
+		});
 		expect(signedIn.location).toBe(`/invite/${inv.token}`);
-		expect((await c.get(`/invite/${inv.token}`)).text).toContain(`You are signed in as ${existing.email}`);
+		expect((await c.get(`/invite/${inv.token}`)).text).toContain(
+			`You are signed in as ${existing.email}`
+		);
 		expect((await c.postForm(`/invite/${inv.token}`)).location).toBe('/builds');
 		expect(await roleOf(f.studio.id, existing.id)).toBe('client');
 		expect((await c.get('/builds')).text).toContain('Nothing shared with you yet');
@@ -99,7 +124,12 @@ describe('invite → accept → role', () => {
 		const f = await studioWithMembers();
 		const first = await createUser();
 		const second = await createUser();
-		const inv = await createInvite({ studioId: f.studio.id, role: 'designer', email: first.email, invitedBy: f.owner.id });
+		const inv = await createInvite({
+			studioId: f.studio.id,
+			role: 'designer',
+			email: first.email,
+			invitedBy: f.owner.id
+		});
 		// Someone the link was forwarded to can't use it.
 		const b = app.client({ session: await createSession(second.id) });
 		const forwarded = await b.postForm(`/invite/${inv.token}`);
@@ -112,25 +142,38 @@ describe('invite → accept → role', () => {
 		expect(await roleOf(f.studio.id, second.id)).toBeNull();
 	});
 
-	it.each(['not-a-token', 'x'.repeat(2000), '%E2%80%AE%00', '..%2F..%2Fetc'])('a made-up token (%s) gets the clear page, not an error', async (token) => {
-		const res = await app.client().get(`/invite/${token}`);
-		expect(res.status).toBeLessThan(500);
-		if (res.status === 200) expect(res.text).toContain(DEAD_INVITE);
-		expect(res.text).not.toMatch(/Error:|at .*\.js:\d+/);
-	});
+	it.each(['not-a-token', 'x'.repeat(2000), '%E2%80%AE%00', '..%2F..%2Fetc'])(
+		'a made-up token (%s) gets the clear page, not an error',
+		async (token) => {
+			const res = await app.client().get(`/invite/${token}`);
+			expect(res.status).toBeLessThan(500);
+			if (res.status === 200) expect(res.text).toContain(DEAD_INVITE);
+			expect(res.text).not.toMatch(/Error:|at .*\.js:\d+/);
+		}
+	);
 
 	it('the owner can withdraw an open invitation, which then no longer works', async () => {
 		const f = await studioWithMembers();
-		const inv = await createInvite({ studioId: f.studio.id, role: 'designer', invitedBy: f.owner.id });
+		const inv = await createInvite({
+			studioId: f.studio.id,
+			role: 'designer',
+			invitedBy: f.owner.id
+		});
 		const owner = app.client({ session: f.owner.session });
 		expect((await owner.get('/studio/members')).text).toContain(inv.email);
-		expect(await owner.action('/studio/members?/revoke', { inviteId: inv.id })).toMatchObject({ type: 'success' });
+		expect(await owner.action('/studio/members?/revoke', { inviteId: inv.id })).toMatchObject({
+			type: 'success'
+		});
 		expect((await owner.get('/studio/members')).text).not.toContain(inv.email);
 		expect((await app.client().get(`/invite/${inv.token}`)).text).toContain(DEAD_INVITE);
 
 		// Once withdrawn (or for another studio's invitation) there is nothing left to withdraw.
 		const again = await owner.action('/studio/members?/revoke', { inviteId: inv.id });
-		expect(again).toMatchObject({ type: 'failure', status: 404, data: { errors: { inviteId: 'No such open invitation.' } } });
+		expect(again).toMatchObject({
+			type: 'failure',
+			status: 404,
+			data: { errors: { inviteId: 'No such open invitation.' } }
+		});
 	});
 });
 
@@ -138,17 +181,26 @@ describe('roles and the last-owner rule', () => {
 	it('an owner changes a designer to a client, and back', async () => {
 		const f = await studioWithMembers();
 		const owner = app.client({ session: f.owner.session });
-		expect(await owner.action('/studio/members?/role', { userId: f.designer.id, role: 'client' })).toMatchObject({ type: 'success' });
+		expect(
+			await owner.action('/studio/members?/role', { userId: f.designer.id, role: 'client' })
+		).toMatchObject({ type: 'success' });
 		expect(await roleOf(f.studio.id, f.designer.id)).toBe('client');
-		expect((await app.client({ session: f.designer.session }).get('/builds')).text).toContain('Nothing shared with you yet');
-		expect(await owner.action('/studio/members?/role', { userId: f.designer.id, role: 'designer' })).toMatchObject({ type: 'success' });
+		expect((await app.client({ session: f.designer.session }).get('/builds')).text).toContain(
+			'Nothing shared with you yet'
+		);
+		expect(
+			await owner.action('/studio/members?/role', { userId: f.designer.id, role: 'designer' })
+		).toMatchObject({ type: 'success' });
 		expect(await roleOf(f.studio.id, f.designer.id)).toBe('designer');
 	});
 
 	it('the only owner can neither be demoted, nor removed, nor leave', async () => {
 		const f = await studioWithMembers();
 		const owner = app.client({ session: f.owner.session });
-		const demote = await owner.action('/studio/members?/role', { userId: f.owner.id, role: 'designer' });
+		const demote = await owner.action('/studio/members?/role', {
+			userId: f.owner.id,
+			role: 'designer'
+		});
 		expect(demote).toMatchObject({ type: 'failure', status: 400 });
 		expect(demote.data.errors.role).toMatch(/last owner/);
 		const remove = await owner.action('/studio/members?/remove', { userId: f.owner.id });
@@ -160,7 +212,10 @@ describe('roles and the last-owner rule', () => {
 		expect(await roleOf(f.studio.id, f.owner.id)).toBe('owner');
 
 		// The page shows the refusal to a person, too.
-		const page = await owner.postForm('/studio/members?/role', { userId: f.owner.id, role: 'client' });
+		const page = await owner.postForm('/studio/members?/role', {
+			userId: f.owner.id,
+			role: 'client'
+		});
 		expect(page.status).toBe(400);
 		expect(page.text).toContain('The last owner cannot be demoted');
 	});
@@ -169,16 +224,25 @@ describe('roles and the last-owner rule', () => {
 		const f = await studioWithMembers();
 		const second = await createMember(f.studio.id, 'owner');
 		const owner = app.client({ session: f.owner.session });
-		expect(await owner.action('/studio/members?/role', { userId: second.id, role: 'designer' })).toMatchObject({ type: 'success' });
+		expect(
+			await owner.action('/studio/members?/role', { userId: second.id, role: 'designer' })
+		).toMatchObject({ type: 'success' });
 		expect(await roleOf(f.studio.id, second.id)).toBe('designer');
-		expect(await owner.action('/studio/members?/role', { userId: f.owner.id, role: 'designer' })).toMatchObject({ type: 'failure', status: 400 });
+		expect(
+			await owner.action('/studio/members?/role', { userId: f.owner.id, role: 'designer' })
+		).toMatchObject({ type: 'failure', status: 400 });
 
-		expect(await owner.action('/studio/members?/role', { userId: second.id, role: 'owner' })).toMatchObject({ type: 'success' });
+		expect(
+			await owner.action('/studio/members?/role', { userId: second.id, role: 'owner' })
+		).toMatchObject({ type: 'success' });
 		const leave = await app.client({ session: second.session }).postForm('/studio/members?/leave');
 		expect(leave.status).toBe(303);
 		expect(leave.location).toBe('/studios');
 		expect(await roleOf(f.studio.id, second.id)).toBeNull();
-		expect(await owner.action('/studio/members?/remove', { userId: f.owner.id })).toMatchObject({ type: 'failure', status: 400 });
+		expect(await owner.action('/studio/members?/remove', { userId: f.owner.id })).toMatchObject({
+			type: 'failure',
+			status: 400
+		});
 	});
 
 	it('two owners demoting each other at the same moment leave one owner', async () => {
@@ -203,7 +267,9 @@ describe('roles and the last-owner rule', () => {
 		const owner = app.client({ session: f.owner.session });
 		const designer = app.client({ session: f.designer.session });
 		expect((await designer.get('/builds')).text).toContain(f.studio.name);
-		expect(await owner.action('/studio/members?/remove', { userId: f.designer.id })).toMatchObject({ type: 'success' });
+		expect(await owner.action('/studio/members?/remove', { userId: f.designer.id })).toMatchObject({
+			type: 'success'
+		});
 		expect(await roleOf(f.studio.id, f.designer.id)).toBeNull();
 		const after = await designer.get('/builds');
 		expect(after.status).toBe(303);
@@ -214,7 +280,9 @@ describe('roles and the last-owner rule', () => {
 describe('several studios', () => {
 	it('a member of two studios switches between them, and cannot switch into a third', async () => {
 		const f = await studioWithMembers();
-		await db.insert(memberships).values({ studioId: f.otherStudio.id, userId: f.designer.id, role: 'client' });
+		await db
+			.insert(memberships)
+			.values({ studioId: f.otherStudio.id, userId: f.designer.id, role: 'client' });
 		const c = app.client({ session: f.designer.session });
 		const stranger = await createStudio();
 

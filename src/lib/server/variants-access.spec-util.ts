@@ -18,11 +18,23 @@ async function withTwoVariants(f: MatrixFixture) {
 }
 
 const count = async (f: MatrixFixture) => (await variantsOf(f.vars.buildId)).length;
-const editors = (ok: MatrixRow['expect']['owner']): MatrixRow['expect'] => ({ owner: ok, designer: ok, client: 403, outsider: 404, anonymous: SIGN_IN });
+const editors = (ok: MatrixRow['expect']['owner']): MatrixRow['expect'] => ({
+	owner: ok,
+	designer: ok,
+	client: 403,
+	outsider: 404,
+	anonymous: SIGN_IN
+});
 const page = (f: MatrixFixture, rest = '') => `/builds/${f.vars.buildId}${rest}`;
 
 export const variantRows: MatrixRow[] = [
-	{ route: '/builds/[id]/variants', method: 'GET', path: (f) => page(f, '/variants'), setup: withTwoVariants, expect: editors(200) },
+	{
+		route: '/builds/[id]/variants',
+		method: 'GET',
+		path: (f) => page(f, '/variants'),
+		setup: withTwoVariants,
+		expect: editors(200)
+	},
 	{
 		route: '/builds/[id]/variants',
 		method: 'POST',
@@ -41,7 +53,12 @@ export const variantRows: MatrixRow[] = [
 		setup: withTwoVariants,
 		form: (f) => ({ variantId: f.vars.otherId, name: 'Renamed in the matrix' }),
 		expect: editors(200),
-		changes: { by: ['owner', 'designer'], check: async (f) => (await db.select().from(variants).where(eq(variants.id, f.vars.otherId)))[0].name === 'Renamed in the matrix' }
+		changes: {
+			by: ['owner', 'designer'],
+			check: async (f) =>
+				(await db.select().from(variants).where(eq(variants.id, f.vars.otherId)))[0].name ===
+				'Renamed in the matrix'
+		}
 	},
 	{
 		route: '/builds/[id]/variants',
@@ -51,7 +68,10 @@ export const variantRows: MatrixRow[] = [
 		setup: withTwoVariants,
 		form: (f) => ({ variantId: f.vars.otherId, by: '-1' }),
 		expect: editors(200),
-		changes: { by: ['owner', 'designer'], check: async (f) => (await variantsOf(f.vars.buildId))[0].id === f.vars.otherId }
+		changes: {
+			by: ['owner', 'designer'],
+			check: async (f) => (await variantsOf(f.vars.buildId))[0].id === f.vars.otherId
+		}
 	},
 	{
 		route: '/builds/[id]/variants',
@@ -71,7 +91,11 @@ export const variantRows: MatrixRow[] = [
 		setup: withTwoVariants,
 		form: (f) => ({ variantId: f.vars.otherId }),
 		expect: editors(200),
-		changes: { by: ['owner', 'designer'], check: async (f) => (await db.select().from(variants).where(eq(variants.id, f.vars.otherId)))[0].isProposal }
+		changes: {
+			by: ['owner', 'designer'],
+			check: async (f) =>
+				(await db.select().from(variants).where(eq(variants.id, f.vars.otherId)))[0].isProposal
+		}
 	},
 	{
 		route: '/builds/[id]/variants',
@@ -81,7 +105,11 @@ export const variantRows: MatrixRow[] = [
 		setup: withTwoVariants,
 		form: () => ({ confirm: 'yes' }),
 		expect: editors({ status: 303, location: '/builds' }),
-		changes: { by: ['owner', 'designer'], check: async (f) => (await db.select().from(builds).where(eq(builds.id, f.vars.buildId))).length === 0 }
+		changes: {
+			by: ['owner', 'designer'],
+			check: async (f) =>
+				(await db.select().from(builds).where(eq(builds.id, f.vars.buildId))).length === 0
+		}
 	},
 	{
 		route: '/builds/[id]/compare',
@@ -97,7 +125,13 @@ export const variantRows: MatrixRow[] = [
 		setup: withTwoVariants,
 		expect: { owner: 200, designer: 200, client: 403, outsider: 404, anonymous: SIGN_IN }
 	},
-	{ route: '/builds/[id]/enclosure', method: 'GET', path: (f) => page(f, '/enclosure'), setup: withTwoVariants, expect: editors(200) },
+	{
+		route: '/builds/[id]/enclosure',
+		method: 'GET',
+		path: (f) => page(f, '/enclosure'),
+		setup: withTwoVariants,
+		expect: editors(200)
+	},
 	{
 		route: '/builds/[id]/enclosure',
 		method: 'POST',

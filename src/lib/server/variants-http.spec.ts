@@ -20,7 +20,10 @@ describe('variants over HTTP', () => {
 		const b = await demoBuildIn(studio.id, designer.id);
 		const client = app.client();
 		await client.signIn(designer.email, designer.password);
-		const res = await client.action(`/builds/${b.buildId}/variants?/delete`, { variantId: b.variantId, confirm: 'yes' });
+		const res = await client.action(`/builds/${b.buildId}/variants?/delete`, {
+			variantId: b.variantId,
+			confirm: 'yes'
+		});
 		expect(res.status).toBe(409);
 		expect(JSON.stringify(res.data)).toContain('last one');
 	});
@@ -32,7 +35,12 @@ describe('variants over HTTP', () => {
 		const other = await demoBuildIn(studio.id, designer.id);
 		const client = app.client();
 		await client.signIn(designer.email, designer.password);
-		expect((await client.get(`/builds/${b.buildId}/compare?variants=${b.variantId}`)).status).toBe(400);
-		expect((await client.get(`/builds/${b.buildId}/compare?variants=${b.variantId},${other.variantId}`)).status).toBe(404);
+		expect((await client.get(`/builds/${b.buildId}/compare?variants=${b.variantId}`)).status).toBe(
+			400
+		);
+		expect(
+			(await client.get(`/builds/${b.buildId}/compare?variants=${b.variantId},${other.variantId}`))
+				.status
+		).toBe(404);
 	});
 });

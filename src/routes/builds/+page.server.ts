@@ -22,7 +22,13 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 		.where(and(eq(builds.studioId, access.studioId), isNull(builds.archivedAt)))
 		.orderBy(desc(builds.updatedAt));
 	// Clients see builds through what is shared with them, never the studio's list.
-	const shared = access.role === 'client' ? (await sharedWithMember(access.user)).map((s) => ({ ...s, statusWords: SHARED_STATUS_WORDS[s.status] })) : [];
+	const shared =
+		access.role === 'client'
+			? (await sharedWithMember(access.user)).map((s) => ({
+					...s,
+					statusWords: SHARED_STATUS_WORDS[s.status]
+				}))
+			: [];
 	return {
 		studioName: access.studioName,
 		shared,

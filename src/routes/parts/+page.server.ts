@@ -11,7 +11,15 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 	const query = partQueryOf(url.searchParams);
 	const page = await listParts(access.studioId, query);
 	const params = new URLSearchParams();
-	for (const [k, v] of Object.entries({ q: query.q, category: query.category, scope: query.scope === 'all' ? '' : query.scope, archived: query.archived ? '1' : '', sort: query.sort, dir: query.dir, size: query.pageSize === 25 ? '' : query.pageSize })) {
+	for (const [k, v] of Object.entries({
+		q: query.q,
+		category: query.category,
+		scope: query.scope === 'all' ? '' : query.scope,
+		archived: query.archived ? '1' : '',
+		sort: query.sort,
+		dir: query.dir,
+		size: query.pageSize === 25 ? '' : query.pageSize
+	})) {
 		if (v) params.set(k, String(v));
 	}
 	return {

@@ -22,7 +22,11 @@ export const actions: Actions = {
 		const user = await checkCredentials(parsed.data.email, parsed.data.password);
 		if (!user) {
 			// One answer for "no such e-mail" and "wrong password".
-			return formFail(400, { email: parsed.data.email }, { _: 'That e-mail and password do not match an account.' });
+			return formFail(
+				400,
+				{ email: parsed.data.email },
+				{ _: 'That e-mail and password do not match an account.' }
+			);
 		}
 		if (!user.emailVerifiedAt) {
 			// The right password, but the address was never confirmed: no session, a fresh link.

@@ -1,7 +1,12 @@
 /** Pure catalogue helpers: slot positions, category templates, form ↔ engine mapping, version changes. */
 import { describe, expect, it } from 'vitest';
 import { Box3, Vector3 } from 'three';
-import { SLOT_PITCH_MM, allowedPositions, compartmentsFor, enclosureDefSchema } from '$lib/geometry';
+import {
+	SLOT_PITCH_MM,
+	allowedPositions,
+	compartmentsFor,
+	enclosureDefSchema
+} from '$lib/geometry';
 import { demoEnclosure } from '$lib/geometry/fixtures';
 import { slotPositions } from './features';
 import { bodySizeMm, categoryTemplate, FITTING_ROOM_MM } from './part-shape';
@@ -18,8 +23,18 @@ describe('divider positions by slots', () => {
 		const def = enclosureDefSchema.parse({
 			...demoEnclosure(),
 			outerMm: [180, 320, 240],
-			walls: Object.fromEntries(['left', 'right', 'bottom', 'top', 'front', 'back'].map((f) => [f, { thicknessMm: 2 }])),
-			dividers: [{ id: 'd', label: 'Spine', axis: 'x', thicknessMm: 2, positions: { kind: 'list', options: positions } }],
+			walls: Object.fromEntries(
+				['left', 'right', 'bottom', 'top', 'front', 'back'].map((f) => [f, { thicknessMm: 2 }])
+			),
+			dividers: [
+				{
+					id: 'd',
+					label: 'Spine',
+					axis: 'x',
+					thicknessMm: 2,
+					positions: { kind: 'list', options: positions }
+				}
+			],
 			brackets: [],
 			mounts: []
 		});
@@ -39,7 +54,8 @@ describe('category templates (common practice room, resized by the user)', () =>
 		['fan', 'airflow', [0, 0, -15], [120, 120, 0]],
 		['psu', 'cable', [0, 0, 100], [125, 63.5, 130]]
 	] as const)('a %s gets its %s keep-out against the right face', (category, kind, min, max) => {
-		const size = category === 'pump' ? [62, 50, 62] : category === 'fan' ? [120, 120, 25] : [125, 63.5, 100];
+		const size =
+			category === 'pump' ? [62, 50, 62] : category === 'fan' ? [120, 120, 25] : [125, 63.5, 100];
 		const { keepouts } = categoryTemplate(category, size as [number, number, number]);
 		expect(keepouts[0].kind).toBe(kind);
 		expect(keepouts[0].box).toEqual({ min, max });
@@ -55,11 +71,27 @@ describe('category templates (common practice room, resized by the user)', () =>
 
 	it('measures a part by its bodies only, as three.js Box3 does', () => {
 		const bodies = [
-			{ id: 'a', label: '', box: { min: [0, 0, 0] as [number, number, number], max: [80, 40, 80] as [number, number, number] } },
-			{ id: 'b', label: '', box: { min: [10, 40, 10] as [number, number, number], max: [70, 160, 70] as [number, number, number] } }
+			{
+				id: 'a',
+				label: '',
+				box: {
+					min: [0, 0, 0] as [number, number, number],
+					max: [80, 40, 80] as [number, number, number]
+				}
+			},
+			{
+				id: 'b',
+				label: '',
+				box: {
+					min: [10, 40, 10] as [number, number, number],
+					max: [70, 160, 70] as [number, number, number]
+				}
+			}
 		];
 		const b3 = new Box3();
-		for (const b of bodies) b3.union(new Box3(new Vector3(...b.box.min), new Vector3(...b.box.max)));
+		for (const b of bodies) {
+			b3.union(new Box3(new Vector3(...b.box.min), new Vector3(...b.box.max)));
+		}
 		const size = b3.getSize(new Vector3());
 		expect(bodySizeMm({ bodies })).toEqual([size.x, size.y, size.z]);
 	});
@@ -85,7 +117,17 @@ describe('forms and the engine', () => {
 
 	it('a one-box part with the template keeps its keep-outs through the form', () => {
 		const form = partToForm(
-			{ id: 'p', name: 'Pump', category: 'pump', bodies: [{ id: 'body', label: 'Body', box: { min: [0, 0, 0], max: [62, 50, 62] } }], keepouts: [], ports: [], specs: { powerDrawW: 18 }, provenance: 'measured', toleranceMm: 0.5 },
+			{
+				id: 'p',
+				name: 'Pump',
+				category: 'pump',
+				bodies: [{ id: 'body', label: 'Body', box: { min: [0, 0, 0], max: [62, 50, 62] } }],
+				keepouts: [],
+				ports: [],
+				specs: { powerDrawW: 18 },
+				provenance: 'measured',
+				toleranceMm: 0.5
+			},
 			{ priceMinor: 9400, currency: 'EUR', supplierNote: '', revision: 1 }
 		);
 		const { input } = formToPart({ ...form, applyTemplate: true });

@@ -5,16 +5,29 @@
 import { formatMm, type EnclosureDef } from '$lib/geometry';
 
 const AXIS_WORDS = ['width', 'height', 'depth'];
-const FACE_WORDS: Record<string, string> = { left: 'Left', right: 'Right', bottom: 'Bottom', top: 'Top', front: 'Front', back: 'Back' };
+const FACE_WORDS: Record<string, string> = {
+	left: 'Left',
+	right: 'Right',
+	bottom: 'Bottom',
+	top: 'Top',
+	front: 'Front',
+	back: 'Back'
+};
 
-function listChanges<T extends { id: string; label: string }>(noun: string, before: T[], after: T[]): string[] {
+function listChanges<T extends { id: string; label: string }>(
+	noun: string,
+	before: T[],
+	after: T[]
+): string[] {
 	const out: string[] = [];
 	const old = new Map(before.map((x) => [x.id, x]));
 	const now = new Map(after.map((x) => [x.id, x]));
 	for (const [id, x] of now) {
 		const was = old.get(id);
 		if (!was) out.push(`${noun} added: ${x.label || id}`);
-		else if (JSON.stringify(was) !== JSON.stringify(x)) out.push(`${noun} changed: ${x.label || id}`);
+		else if (JSON.stringify(was) !== JSON.stringify(x)) {
+			out.push(`${noun} changed: ${x.label || id}`);
+		}
 	}
 	for (const [id, x] of old) if (!now.has(id)) out.push(`${noun} removed: ${x.label || id}`);
 	return out;
@@ -24,14 +37,22 @@ export function enclosureChanges(before: EnclosureDef, after: EnclosureDef): str
 	const out: string[] = [];
 	if (before.name !== after.name) out.push(`Renamed to ${after.name}`);
 	before.outerMm.forEach((v, i) => {
-		if (v !== after.outerMm[i]) out.push(`Outer ${AXIS_WORDS[i]} ${formatMm(v)} → ${formatMm(after.outerMm[i])}`);
+		if (v !== after.outerMm[i]) {
+			out.push(`Outer ${AXIS_WORDS[i]} ${formatMm(v)} → ${formatMm(after.outerMm[i])}`);
+		}
 	});
 	for (const face of Object.keys(FACE_WORDS) as (keyof EnclosureDef['walls'])[]) {
 		const a = before.walls[face];
 		const b = after.walls[face];
-		if (a.thicknessMm !== b.thicknessMm) out.push(`${FACE_WORDS[face]} panel ${formatMm(a.thicknessMm)} → ${formatMm(b.thicknessMm)}`);
+		if (a.thicknessMm !== b.thicknessMm) {
+			out.push(`${FACE_WORDS[face]} panel ${formatMm(a.thicknessMm)} → ${formatMm(b.thicknessMm)}`);
+		}
 		if (a.kind !== b.kind) out.push(`${FACE_WORDS[face]} panel ${a.kind} → ${b.kind}`);
-		if (a.offsetMm !== b.offsetMm) out.push(`${FACE_WORDS[face]} panel offset ${formatMm(a.offsetMm)} → ${formatMm(b.offsetMm)}`);
+		if (a.offsetMm !== b.offsetMm) {
+			out.push(
+				`${FACE_WORDS[face]} panel offset ${formatMm(a.offsetMm)} → ${formatMm(b.offsetMm)}`
+			);
+		}
 	}
 	out.push(...listChanges('Divider', before.dividers, after.dividers));
 	out.push(...listChanges('Bracket', before.brackets, after.brackets));

@@ -1,5 +1,11 @@
 /** Dividers, brackets and mounts as the editor holds them, with the helpers its buttons use. */
-import { SLOT_PITCH_MM, type BracketDef, type DividerDef, type MountDef, type Vec3 } from '$lib/geometry';
+import {
+	SLOT_PITCH_MM,
+	type BracketDef,
+	type DividerDef,
+	type MountDef,
+	type Vec3
+} from '$lib/geometry';
 
 export type Features = { dividers: DividerDef[]; brackets: BracketDef[]; mounts: MountDef[] };
 
@@ -81,7 +87,10 @@ export function slotPositions(
 		.map((n) => {
 			const room = n * pitchMm;
 			const offset = high ? inner[axis] - divider.thicknessMm - room : room;
-			return { label: `${n} slot${n === 1 ? '' : 's'}`, offsetMm: Math.round(offset * 1000) / 1000 };
+			return {
+				label: `${n} slot${n === 1 ? '' : 's'}`,
+				offsetMm: Math.round(offset * 1000) / 1000
+			};
 		})
 		.filter((p) => p.offsetMm >= 0 && p.offsetMm + divider.thicknessMm <= inner[axis]);
 }

@@ -5,7 +5,10 @@ import { parsePrice, type PartExtras, type PartForm, type PartInput } from './sc
 
 type Geometry = Pick<PartDef, 'bodies' | 'keepouts' | 'ports'>;
 
-export function parseGeometry(text: string): { geometry: Partial<Geometry> | null; error?: string } {
+export function parseGeometry(text: string): {
+	geometry: Partial<Geometry> | null;
+	error?: string;
+} {
 	try {
 		const value = JSON.parse(text) as unknown;
 		if (!value || typeof value !== 'object' || Array.isArray(value)) {
@@ -38,7 +41,10 @@ function specsOf(form: PartForm): PartSpecs {
  * The part a form describes, not yet validated. A one-box part takes its body from width ×
  * height × depth; the category template fills keep-outs and ports only when there are none.
  */
-export function formToPart(form: PartForm): { input: PartInput | null; errors: Record<string, string> } {
+export function formToPart(form: PartForm): {
+	input: PartInput | null;
+	errors: Record<string, string>;
+} {
 	const errors: Record<string, string> = {};
 	const { geometry, error } = parseGeometry(form.geometry);
 	if (!geometry) {
@@ -48,7 +54,8 @@ export function formToPart(form: PartForm): { input: PartInput | null; errors: R
 	if (form.shape === 'box') {
 		for (const key of ['widthMm', 'heightMm', 'depthMm'] as const) {
 			if (form[key] === undefined) {
-				errors[key] = `${key === 'widthMm' ? 'Width' : key === 'heightMm' ? 'Height' : 'Depth'} must be a positive number in mm`;
+				errors[key] =
+					`${key === 'widthMm' ? 'Width' : key === 'heightMm' ? 'Height' : 'Depth'} must be a positive number in mm`;
 			}
 		}
 		if (Object.keys(errors).length) {
@@ -59,7 +66,11 @@ export function formToPart(form: PartForm): { input: PartInput | null; errors: R
 	let keepouts = (geometry.keepouts ?? []) as PartDef['keepouts'];
 	let ports = (geometry.ports ?? []) as PartDef['ports'];
 	if (form.applyTemplate && keepouts.length === 0 && ports.length === 0 && form.shape === 'box') {
-		({ keepouts, ports } = categoryTemplate(form.category, [form.widthMm!, form.heightMm!, form.depthMm!]));
+		({ keepouts, ports } = categoryTemplate(form.category, [
+			form.widthMm!,
+			form.heightMm!,
+			form.depthMm!
+		]));
 	}
 	const extras: PartExtras = {
 		priceMinor: parsePrice(form.price),

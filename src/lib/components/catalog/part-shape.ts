@@ -96,7 +96,10 @@ export function categoryTemplate(
 			return { keepouts: [fittingsAbove], ports: topPorts(w, h, d, 1) };
 		case 'radiator':
 			// Length along Y (as the engine's fixtures stand radiators), ports on the top end tank.
-			return { keepouts: [{ ...fittingsAbove, label: 'Fittings at the port end' }], ports: topPorts(w, h, d, 2) };
+			return {
+				keepouts: [{ ...fittingsAbove, label: 'Fittings at the port end' }],
+				ports: topPorts(w, h, d, 2)
+			};
 		case 'fan':
 			return {
 				keepouts: [

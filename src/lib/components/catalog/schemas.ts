@@ -41,8 +41,7 @@ export type PartInput = Omit<PartDef, 'id'> & PartExtras;
 
 /** Every problem with a part, with paths as the engine names them (`bodies[0].box.max[2]`). */
 export type PartCheck =
-	| { ok: true; def: PartDef; extras: PartExtras }
-	| { ok: false; issues: FieldIssue[] };
+	{ ok: true; def: PartDef; extras: PartExtras } | { ok: false; issues: FieldIssue[] };
 
 /**
  * Checks a part as the API and CSV import send it. `standard` provenance is kept for the
@@ -79,7 +78,9 @@ export type EnclosureCheck = { ok: true; def: EnclosureDef } | { ok: false; issu
 
 export function checkEnclosure(raw: unknown): EnclosureCheck {
 	const parsed = enclosureDefSchema.safeParse(raw);
-	return parsed.success ? { ok: true, def: parsed.data } : { ok: false, issues: formatZodIssues(parsed.error) };
+	return parsed.success
+		? { ok: true, def: parsed.data }
+		: { ok: false, issues: formatZodIssues(parsed.error) };
 }
 
 /* ---------- forms (flat fields, so the basic ones work without JavaScript) ---------- */
@@ -105,7 +106,11 @@ export const enclosureFormSchema = z.object({
 	/** The revision the form was loaded at; 0 for a new enclosure. */
 	revision: int4('Revision').default(0),
 	name: z.string().trim().min(1, 'Name is required').max(200, 'Name can be at most 200 characters'),
-	description: z.string().trim().max(2000, 'Description can be at most 2000 characters').default(''),
+	description: z
+		.string()
+		.trim()
+		.max(2000, 'Description can be at most 2000 characters')
+		.default(''),
 	note: z.string().trim().max(500, 'Note can be at most 500 characters').default(''),
 	outerX: sizeMm('Outer width'),
 	outerY: sizeMm('Outer height'),
@@ -129,13 +134,19 @@ export const enclosureFormSchema = z.object({
 	backKind: wallKind.default('solid'),
 	backOffsetMm: offsetMm('Back offset').default(0),
 	/** Dividers, brackets and mounts as JSON: edited by the structured editor, or by hand without JavaScript. */
-	features: z.string().max(400_000, 'Too much to save at once').default('{"dividers":[],"brackets":[],"mounts":[]}')
+	features: z
+		.string()
+		.max(400_000, 'Too much to save at once')
+		.default('{"dividers":[],"brackets":[],"mounts":[]}')
 });
 export type EnclosureForm = z.infer<typeof enclosureFormSchema>;
 
 type WallKey = `${FaceName}Mm` | `${FaceName}Kind` | `${FaceName}OffsetMm`;
 
-export function enclosureToForm(def: EnclosureDef, extra: { revision: number; description: string }): EnclosureForm {
+export function enclosureToForm(
+	def: EnclosureDef,
+	extra: { revision: number; description: string }
+): EnclosureForm {
 	const walls = Object.fromEntries(
 		FACES.flatMap((f) => [
 			[`${f}Mm`, def.walls[f].thicknessMm],
@@ -152,7 +163,11 @@ export function enclosureToForm(def: EnclosureDef, extra: { revision: number; de
 		outerY: def.outerMm[1],
 		outerZ: def.outerMm[2],
 		...walls,
-		features: JSON.stringify({ dividers: def.dividers, brackets: def.brackets, mounts: def.mounts }, null, 2)
+		features: JSON.stringify(
+			{ dividers: def.dividers, brackets: def.brackets, mounts: def.mounts },
+			null,
+			2
+		)
 	};
 }
 
@@ -218,7 +233,20 @@ export const partFormSchema = z.object({
 	revision: int4('Revision').default(0),
 	name: z.string().trim().min(1, 'Name is required').max(200, 'Name can be at most 200 characters'),
 	category: z.enum(
-		['board', 'cpu-block', 'gpu', 'pump', 'reservoir', 'pump-reservoir', 'radiator', 'fan', 'psu', 'fitting', 'drive', 'other'],
+		[
+			'board',
+			'cpu-block',
+			'gpu',
+			'pump',
+			'reservoir',
+			'pump-reservoir',
+			'radiator',
+			'fan',
+			'psu',
+			'fitting',
+			'drive',
+			'other'
+		],
 		{ error: 'Choose a category from the list' }
 	),
 	/** 'box': one body typed as width × height × depth; 'boxes': bodies from the geometry JSON. */
@@ -229,8 +257,15 @@ export const partFormSchema = z.object({
 	/** Add the category's usual keep-outs and ports when the part has none yet. */
 	applyTemplate: z.boolean().default(false),
 	/** Bodies, keep-outs and ports as JSON. */
-	geometry: z.string().max(400_000, 'Too much to save at once').default('{"bodies":[],"keepouts":[],"ports":[]}'),
-	provenance: z.enum(['datasheet', 'measured', 'estimate'], { error: 'Choose datasheet, measured or estimate' }).default('estimate'),
+	geometry: z
+		.string()
+		.max(400_000, 'Too much to save at once')
+		.default('{"bodies":[],"keepouts":[],"ports":[]}'),
+	provenance: z
+		.enum(['datasheet', 'measured', 'estimate'], {
+			error: 'Choose datasheet, measured or estimate'
+		})
+		.default('estimate'),
 	toleranceMm: thicknessMm('Tolerance').default(0),
 	source: z.string().trim().max(500, 'Source can be at most 500 characters').default(''),
 	price: z
@@ -244,7 +279,11 @@ export const partFormSchema = z.object({
 		.toUpperCase()
 		.refine(isCurrencyCode, 'Currency must be an ISO 4217 code such as EUR, GBP or USD')
 		.default('EUR'),
-	supplierNote: z.string().trim().max(1000, 'Supplier note can be at most 1000 characters').default(''),
+	supplierNote: z
+		.string()
+		.trim()
+		.max(1000, 'Supplier note can be at most 1000 characters')
+		.default(''),
 	heatW: optionalNumber('Heat'),
 	powerDrawW: optionalNumber('Power draw'),
 	radiatorClass: z.enum(['', '120', '140', '240', '280', '360', '420']).default(''),
@@ -255,7 +294,12 @@ export const partFormSchema = z.object({
 	psuRatingW: optionalNumber('Rating'),
 	boardFormFactor: z.enum(['', 'Mini-ITX', 'microATX', 'ATX']).default(''),
 	cardLengthMm: sizeMm('Card length').optional(),
-	cardSlots: z.number().int('Slots must be a whole number').min(1, 'At least 1 slot').max(8, 'At most 8 slots').optional()
+	cardSlots: z
+		.number()
+		.int('Slots must be a whole number')
+		.min(1, 'At least 1 slot')
+		.max(8, 'At most 8 slots')
+		.optional()
 });
 export type PartForm = z.infer<typeof partFormSchema>;
 

@@ -3,7 +3,16 @@
  * the tax and deposit figures are worked by hand.
  */
 import { describe, expect, it } from 'vitest';
-import { applyBasisPoints, formatMoney, isCurrencyCode, minorDigits, moneyInput, parseMoney, parsePercent, percentInput } from './money';
+import {
+	applyBasisPoints,
+	formatMoney,
+	isCurrencyCode,
+	minorDigits,
+	moneyInput,
+	parseMoney,
+	parsePercent,
+	percentInput
+} from './money';
 import { quoteTotals } from './quote-math';
 
 describe('currencies (ISO 4217 minor units)', () => {
@@ -26,8 +35,12 @@ describe('currencies (ISO 4217 minor units)', () => {
 	// ISO 4217 (list one, current codes): these are assigned; QQQ and ABC are not, XTS is the
 	// testing code and DEM was withdrawn in 2002, so neither may price a quote.
 	it('accepts assigned ISO 4217 codes and refuses well-formed codes that are not', () => {
-		for (const code of ['EUR', 'GBP', 'USD', 'CHF', 'JPY', 'SEK', 'BHD', 'PLN']) expect(isCurrencyCode(code), code).toBe(true);
-		for (const code of ['QQQ', 'ABC', 'XTS', 'DEM', 'EUX']) expect(isCurrencyCode(code), code).toBe(false);
+		for (const code of ['EUR', 'GBP', 'USD', 'CHF', 'JPY', 'SEK', 'BHD', 'PLN']) {
+			expect(isCurrencyCode(code), code).toBe(true);
+		}
+		for (const code of ['QQQ', 'ABC', 'XTS', 'DEM', 'EUX']) {
+			expect(isCurrencyCode(code), code).toBe(false);
+		}
 	});
 });
 
@@ -58,7 +71,9 @@ describe('parsing amounts people type', () => {
 	});
 
 	it('round-trips through the form field', () => {
-		for (const minor of [0, 1, 99, 100, 125050]) expect(parseMoney(moneyInput(minor, 'EUR'), 'EUR')).toBe(minor);
+		for (const minor of [0, 1, 99, 100, 125050]) {
+			expect(parseMoney(moneyInput(minor, 'EUR'), 'EUR')).toBe(minor);
+		}
 		expect(moneyInput(1500, 'JPY')).toBe('1500');
 	});
 
@@ -103,11 +118,25 @@ describe('rounding and totals', () => {
 			],
 			{ labourMinor: 15000, taxRateBp: 2000, depositKind: 'percent', depositValue: 3000 }
 		);
-		expect(t).toEqual({ partsMinor: 45700, labourMinor: 15000, subtotalMinor: 60700, taxMinor: 12140, totalMinor: 72840, depositMinor: 21852, unpriced: 0 });
+		expect(t).toEqual({
+			partsMinor: 45700,
+			labourMinor: 15000,
+			subtotalMinor: 60700,
+			taxMinor: 12140,
+			totalMinor: 72840,
+			depositMinor: 21852,
+			unpriced: 0
+		});
 	});
 
 	it('a fixed deposit never exceeds the total; unpriced lines are counted, not guessed', () => {
-		const t = quoteTotals([{ quantity: 1, unitPriceMinor: 1000 }, { quantity: 3, unitPriceMinor: null }], { labourMinor: 0, taxRateBp: 0, depositKind: 'amount', depositValue: 50_000 });
+		const t = quoteTotals(
+			[
+				{ quantity: 1, unitPriceMinor: 1000 },
+				{ quantity: 3, unitPriceMinor: null }
+			],
+			{ labourMinor: 0, taxRateBp: 0, depositKind: 'amount', depositValue: 50_000 }
+		);
 		expect(t.totalMinor).toBe(1000);
 		expect(t.depositMinor).toBe(1000);
 		expect(t.unpriced).toBe(1);

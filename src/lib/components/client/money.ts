@@ -6,7 +6,10 @@
 /** Digits after the decimal point for a currency (2 for EUR, 0 for JPY), from the platform's ISO data. */
 export function minorDigits(currency: string): number {
 	try {
-		return new Intl.NumberFormat('en', { style: 'currency', currency }).resolvedOptions().maximumFractionDigits ?? 2;
+		return (
+			new Intl.NumberFormat('en', { style: 'currency', currency }).resolvedOptions()
+				.maximumFractionDigits ?? 2
+		);
 	} catch {
 		return 2;
 	}
@@ -27,7 +30,12 @@ export function isCurrencyCode(code: string): boolean {
 
 export function formatMoney(minor: number, currency: string, locale = 'en-GB'): string {
 	const digits = minorDigits(currency);
-	return new Intl.NumberFormat(locale, { style: 'currency', currency, minimumFractionDigits: digits, maximumFractionDigits: digits }).format(minor / 10 ** digits);
+	return new Intl.NumberFormat(locale, {
+		style: 'currency',
+		currency,
+		minimumFractionDigits: digits,
+		maximumFractionDigits: digits
+	}).format(minor / 10 ** digits);
 }
 
 /**

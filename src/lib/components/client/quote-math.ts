@@ -5,7 +5,12 @@
 import { applyBasisPoints } from './money';
 
 export type QuoteLineInput = { quantity: number; unitPriceMinor: number | null };
-export type QuoteTermsInput = { labourMinor: number; taxRateBp: number; depositKind: 'amount' | 'percent'; depositValue: number };
+export type QuoteTermsInput = {
+	labourMinor: number;
+	taxRateBp: number;
+	depositKind: 'amount' | 'percent';
+	depositValue: number;
+};
 
 export type QuoteTotals = {
 	partsMinor: number;
@@ -29,6 +34,17 @@ export function quoteTotals(lines: readonly QuoteLineInput[], terms: QuoteTermsI
 	// Tax on the whole subtotal, rounded half up once (not per line).
 	const taxMinor = applyBasisPoints(subtotalMinor, terms.taxRateBp);
 	const totalMinor = subtotalMinor + taxMinor;
-	const depositMinor = terms.depositKind === 'percent' ? applyBasisPoints(totalMinor, terms.depositValue) : Math.min(terms.depositValue, totalMinor);
-	return { partsMinor, labourMinor: terms.labourMinor, subtotalMinor, taxMinor, totalMinor, depositMinor, unpriced };
+	const depositMinor =
+		terms.depositKind === 'percent'
+			? applyBasisPoints(totalMinor, terms.depositValue)
+			: Math.min(terms.depositValue, totalMinor);
+	return {
+		partsMinor,
+		labourMinor: terms.labourMinor,
+		subtotalMinor,
+		taxMinor,
+		totalMinor,
+		depositMinor,
+		unpriced
+	};
 }

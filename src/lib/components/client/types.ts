@@ -9,8 +9,22 @@ export type FitSummary = {
 	budgets: string[];
 };
 
-export type PlacedPart = { ref: string; short: string; name: string; category: string; sizeMm: Vec3; status: FitStatus };
-export type PartLine = { name: string; category: string; quantity: number; sizeMm: Vec3; unitPriceMinor: number | null; currency: string | null };
+export type PlacedPart = {
+	ref: string;
+	short: string;
+	name: string;
+	category: string;
+	sizeMm: Vec3;
+	status: FitStatus;
+};
+export type PartLine = {
+	name: string;
+	category: string;
+	quantity: number;
+	sizeMm: Vec3;
+	unitPriceMinor: number | null;
+	currency: string | null;
+};
 export type ClientQuote = {
 	currency: string;
 	lines: { description: string; quantity: number; unitPriceMinor: number; totalMinor: number }[];
@@ -26,11 +40,32 @@ export type ClientQuote = {
 	notes: string;
 	sentAt: Date | null;
 };
-export type ClientComment = { kind: 'comment' | 'approved' | 'changes'; body: string; authorName: string; side: 'studio' | 'client'; partLabel: string | null; partRef: string | null; at: Date; version: number };
+export type ClientComment = {
+	kind: 'comment' | 'approved' | 'changes';
+	body: string;
+	authorName: string;
+	side: 'studio' | 'client';
+	partLabel: string | null;
+	partRef: string | null;
+	at: Date;
+	version: number;
+};
 export type ClientPhoto = { ref: string; caption: string; width: number; height: number };
-export type DepositState = { paid: { amountMinor: number; currency: string; paidAt: Date } | null; dueMinor: number | null; currency: string | null; canPay: boolean; reason: string | null };
+export type DepositState = {
+	paid: { amountMinor: number; currency: string; paidAt: Date } | null;
+	dueMinor: number | null;
+	currency: string | null;
+	canPay: boolean;
+	reason: string | null;
+};
 /** `reopened`: the client asked for changes after approving, so the studio may change it again. */
-export type ApprovalState = { version: number; at: Date; byName: string; current: boolean; reopened?: boolean } | null;
+export type ApprovalState = {
+	version: number;
+	at: Date;
+	byName: string;
+	current: boolean;
+	reopened?: boolean;
+} | null;
 
 export type ClientView = {
 	studioName: string;
@@ -58,7 +93,15 @@ export type ClientView = {
 
 export type ClientMay = { comment: boolean; approve: boolean; pay: boolean };
 
-export type ThreadItem = { kind: 'comment' | 'approved' | 'changes'; body: string; authorName: string; side: string; partLabel: string | null; at: Date | string; version: number };
+export type ThreadItem = {
+	kind: 'comment' | 'approved' | 'changes';
+	body: string;
+	authorName: string;
+	side: string;
+	partLabel: string | null;
+	at: Date | string;
+	version: number;
+};
 
 /** One variant's standing with the client, for the studio's pages. */
 export type ClientStatus = {
@@ -66,7 +109,12 @@ export type ClientStatus = {
 	name: string;
 	version: number;
 	approval: ApprovalState;
-	quote: { status: 'draft' | 'sent'; currency: string; totalMinor: number; depositMinor: number } | null;
+	quote: {
+		status: 'draft' | 'sent';
+		currency: string;
+		totalMinor: number;
+		depositMinor: number;
+	} | null;
 	deposit: { amountMinor: number; currency: string; paidAt: Date | null } | null;
 	/** Active links only. */
 	links: number;

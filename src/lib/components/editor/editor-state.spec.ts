@@ -5,7 +5,14 @@
  * from the real engine. The integration tests in src/lib/server/builds.spec.ts cover the real API.
  */
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
-import { checkScene, enclosureDefSchema, partDefSchema, sceneSchema, type FitReport, type PartDef } from '$lib/geometry';
+import {
+	checkScene,
+	enclosureDefSchema,
+	partDefSchema,
+	sceneSchema,
+	type FitReport,
+	type PartDef
+} from '$lib/geometry';
 import { DEMO_SPINE_OFFSETS, demoSceneInput } from '$lib/geometry/fixtures';
 import { composeScene, variantSettingsSchema, type VariantSettings } from '$lib/builds/settings';
 import type { Problem, SaveOutcome } from '$lib/api/client';
@@ -18,7 +25,13 @@ function demo() {
 	const s = demoSceneInput();
 	const enclosure = enclosureDefSchema.parse(s.enclosure);
 	const parts = (s.parts ?? []).map((p) => partDefSchema.parse(p));
-	const settings = variantSettingsSchema.parse({ dividerPositions: s.dividerPositions, bracketOffsets: s.bracketOffsets, placements: s.placements, marginMm: s.marginMm, budgets: s.budgets });
+	const settings = variantSettingsSchema.parse({
+		dividerPositions: s.dividerPositions,
+		bracketOffsets: s.bracketOffsets,
+		placements: s.placements,
+		marginMm: s.marginMm,
+		budgets: s.budgets
+	});
 	return { enclosure, parts, settings };
 }
 
@@ -47,7 +60,14 @@ class FakeServer implements EditorApi {
 		this.saves.push({ version, settings });
 		if (this.hold) await new Promise<void>((r) => this.#held.push(r));
 		if (this.reject) return { kind: 'rejected', status: 400, problem: this.reject };
-		if (version !== this.version) return { kind: 'conflict', version: this.version, settings: this.stored, updatedAt: new Date(0).toISOString() };
+		if (version !== this.version) {
+			return {
+				kind: 'conflict',
+				version: this.version,
+				settings: this.stored,
+				updatedAt: new Date(0).toISOString()
+			};
+		}
 		this.version += 1;
 		this.stored = structuredClone(settings);
 		return { kind: 'saved', version: this.version, report: this.report(settings) };
@@ -70,14 +90,30 @@ class FakeServer implements EditorApi {
 function setup(opts: { version?: number; serverParts?: PartDef[] } = {}) {
 	const d = demo();
 	const server = new FakeServer(opts.version ?? 1, d.settings, opts.serverParts ?? d.parts);
-	const editor = new EditorState({ buildId: 'demo-build', variantId: 'demo-variant-a', enclosure: d.enclosure, parts: d.parts, settings: d.settings, version: opts.version ?? 1, api: server, saveDelayMs: SAVE_DELAY_MS, checkDelayMs: CHECK_DELAY_MS });
+	const editor = new EditorState({
+		buildId: 'demo-build',
+		variantId: 'demo-variant-a',
+		enclosure: d.enclosure,
+		parts: d.parts,
+		settings: d.settings,
+		version: opts.version ?? 1,
+		api: server,
+		saveDelayMs: SAVE_DELAY_MS,
+		checkDelayMs: CHECK_DELAY_MS
+	});
 	return { editor, server, initial: d.settings };
 }
 
 const spineAt = (e: EditorState) => e.settings.dividerPositions.spine;
 const barAt = (e: EditorState) => e.settings.bracketOffsets.bar;
 /** The card against the spine: the demo's known collision with the spine at "2 slots". */
-const cardHitsSpine = (e: EditorState) => !!e.report?.overlaps.some((o) => o.kind === 'collides' && [o.a, o.b].some((r) => r.placementId === 'card') && [o.a, o.b].some((r) => r.ownerId === 'spine'));
+const cardHitsSpine = (e: EditorState) =>
+	!!e.report?.overlaps.some(
+		(o) =>
+			o.kind === 'collides' &&
+			[o.a, o.b].some((r) => r.placementId === 'card') &&
+			[o.a, o.b].some((r) => r.ownerId === 'spine')
+	);
 
 let editors: EditorState[] = [];
 beforeEach(() => {
@@ -96,7 +132,9 @@ function track<T extends { editor: EditorState }>(t: T): T {
 describe('undo and redo', () => {
 	it('a slider drag across several positions is one undo step', () => {
 		const { editor } = track(setup());
-		for (const offset of [10, 20, 30, 40]) editor.setControl('bracket', 'bar', offset, 'bracket:bar:slider');
+		for (const offset of [10, 20, 30, 40]) {
+			editor.setControl('bracket', 'bar', offset, 'bracket:bar:slider');
+		}
 		expect(barAt(editor)).toBe(40);
 		editor.undo();
 		expect(barAt(editor)).toBe(0);
@@ -184,11 +222,14 @@ describe('snapping to allowed positions', () => {
 		[-12, 0],
 		[149, 150],
 		[1000, 150]
-	])('the card support bar dragged to %s mm lands on %s mm (0–150 mm in 10 mm steps)', (free, expected) => {
-		const { editor } = track(setup());
-		editor.setControl('bracket', 'bar', free);
-		expect(barAt(editor)).toBe(expected);
-	});
+	])(
+		'the card support bar dragged to %s mm lands on %s mm (0–150 mm in 10 mm steps)',
+		(free, expected) => {
+			const { editor } = track(setup());
+			editor.setControl('bracket', 'bar', free);
+			expect(barAt(editor)).toBe(expected);
+		}
+	);
 
 	it('the fit report follows at once: at "2 slots" the card collides with the spine, back at "3 slots" it fits', () => {
 		const { editor } = track(setup());
@@ -244,7 +285,11 @@ describe('parts', () => {
 		editor.nudge('pump-res', 0, -1);
 		editor.nudge('pump-res', 0, -1);
 		editor.nudge('pump-res', 2, -10);
-		expect(editor.placement('pump-res')!.position).toEqual([before[0] - 2, before[1], before[2] - 10]);
+		expect(editor.placement('pump-res')!.position).toEqual([
+			before[0] - 2,
+			before[1],
+			before[2] - 10
+		]);
 		editor.undo();
 		expect(editor.placement('pump-res')!.position).toEqual(before);
 	});
@@ -301,7 +346,18 @@ describe('autosave', () => {
 		const d = demo();
 		const earlier = { ...d.settings, marginMm: 3 };
 		const server = new FakeServer(2, d.settings, d.parts);
-		const editor = new EditorState({ buildId: 'b', variantId: 'v', enclosure: d.enclosure, parts: d.parts, settings: d.settings, version: 2, api: server, saveDelayMs: SAVE_DELAY_MS, checkDelayMs: CHECK_DELAY_MS, history: [earlier] });
+		const editor = new EditorState({
+			buildId: 'b',
+			variantId: 'v',
+			enclosure: d.enclosure,
+			parts: d.parts,
+			settings: d.settings,
+			version: 2,
+			api: server,
+			saveDelayMs: SAVE_DELAY_MS,
+			checkDelayMs: CHECK_DELAY_MS,
+			history: [earlier]
+		});
 		expect(editor.canUndo).toBe(true);
 		editor.undo();
 		expect(editor.settings.marginMm).toBe(3);
@@ -313,7 +369,18 @@ describe('autosave', () => {
 	it('a read-only editor (approved by the client) changes nothing and saves nothing', async () => {
 		const d = demo();
 		const server = new FakeServer(1, d.settings, d.parts);
-		const editor = new EditorState({ buildId: 'b', variantId: 'v', enclosure: d.enclosure, parts: d.parts, settings: d.settings, version: 1, api: server, saveDelayMs: SAVE_DELAY_MS, checkDelayMs: CHECK_DELAY_MS, readOnly: 'Version 1 was approved.' });
+		const editor = new EditorState({
+			buildId: 'b',
+			variantId: 'v',
+			enclosure: d.enclosure,
+			parts: d.parts,
+			settings: d.settings,
+			version: 1,
+			api: server,
+			saveDelayMs: SAVE_DELAY_MS,
+			checkDelayMs: CHECK_DELAY_MS,
+			readOnly: 'Version 1 was approved.'
+		});
 		editor.nudge('pump-res', 0, 1);
 		editor.setControl('divider', 'spine', 106.32);
 		expect(editor.settings).toBe(d.settings);
@@ -361,7 +428,10 @@ describe('autosave', () => {
 
 	it('a refused save says why, with the path of the first problem', async () => {
 		const { editor, server } = track(setup());
-		server.reject = { message: 'The scene was not saved.', issues: [{ path: 'settings.dividerPositions.spine', message: 'Not an allowed position' }] };
+		server.reject = {
+			message: 'The scene was not saved.',
+			issues: [{ path: 'settings.dividerPositions.spine', message: 'Not an allowed position' }]
+		};
 		editor.setControl('bracket', 'bar', 10);
 		await editor.saveNow();
 		expect(editor.saveStatus).toBe('error');
@@ -382,7 +452,11 @@ describe('autosave', () => {
 describe('a stale version: 409', () => {
 	async function conflicted() {
 		const t = track(setup());
-		const theirs: VariantSettings = { ...t.initial, dividerPositions: { ...t.initial.dividerPositions, spine: DEMO_SPINE_OFFSETS['4 slots'] }, marginMm: 1 };
+		const theirs: VariantSettings = {
+			...t.initial,
+			dividerPositions: { ...t.initial.dividerPositions, spine: DEMO_SPINE_OFFSETS['4 slots'] },
+			marginMm: 1
+		};
 		t.server.saveElsewhere(theirs);
 		t.editor.setControl('bracket', 'bar', 20, 'bracket:bar:slider');
 		await vi.advanceTimersByTimeAsync(SAVE_DELAY_MS);
@@ -449,7 +523,20 @@ describe('the server confirms', () => {
 
 	it('says so when the server computes a different report (its catalogue has a longer card)', async () => {
 		const d = demo();
-		const longer = d.parts.map((p) => (p.id === 'demo-card' ? { ...p, bodies: p.bodies.map((b) => ({ ...b, box: { min: b.box.min, max: [b.box.max[0] + 40, b.box.max[1], b.box.max[2]] as typeof b.box.max } })) } : p));
+		const longer = d.parts.map((p) =>
+			p.id === 'demo-card'
+				? {
+						...p,
+						bodies: p.bodies.map((b) => ({
+							...b,
+							box: {
+								min: b.box.min,
+								max: [b.box.max[0] + 40, b.box.max[1], b.box.max[2]] as typeof b.box.max
+							}
+						}))
+					}
+				: p
+		);
 		const { editor } = track(setup({ serverParts: longer }));
 		await editor.confirmWithServer();
 		expect(editor.serverAgrees).toBe(false);

@@ -23,7 +23,14 @@ import {
 	type Vec3
 } from '$lib/geometry';
 import { composeScene, type VariantSettings } from '$lib/builds/settings';
-import { landInRoom, landOnMount, nextPlacementId, snapToAllowed, stepAllowed, turnQuarter } from '$lib/builds/placement';
+import {
+	landInRoom,
+	landOnMount,
+	nextPlacementId,
+	snapToAllowed,
+	stepAllowed,
+	turnQuarter
+} from '$lib/builds/placement';
 import { reportDigest } from '$lib/builds/report-digest';
 import { canonicalJson } from '$lib/builds/revisions';
 import type { Problem, SaveOutcome } from '$lib/api/client';
@@ -51,10 +58,21 @@ function compute(enclosure: EnclosureDef, parts: PartDef[], settings: VariantSet
 	if (!parsed.success) return { ok: false, issues: formatZodIssues(parsed.error) };
 	// Over the cost limits the browser would stall on it (and the server refuses to save it).
 	const excess = checkExcess(parsed.data);
-	if (excess) return { ok: false, issues: [{ path: excess.path, message: `Too large to check: ${excess.message}` }] };
+	if (excess) {
+		return {
+			ok: false,
+			issues: [{ path: excess.path, message: `Too large to check: ${excess.message}` }]
+		};
+	}
 	try {
 		const resolved = resolveScene(parsed.data);
-		return { ok: true, scene: parsed.data, resolved, report: reportFor(parsed.data, resolved), issues: [] };
+		return {
+			ok: true,
+			scene: parsed.data,
+			resolved,
+			report: reportFor(parsed.data, resolved),
+			issues: []
+		};
 	} catch (e) {
 		return { ok: false, issues: [{ path: '', message: (e as Error).message }] };
 	}
@@ -76,11 +94,17 @@ export class EditorState {
 	showKeepouts = $state(true);
 	/** A free-space box picked in "what fits here", drawn as a ghost in 3D. */
 	freeSpaceGhost = $state.raw<Box | null>(null);
-	dragTarget = $state.raw<{ kind: 'divider' | 'bracket'; id: string } | { kind: 'part'; id: string; axis: 'x' | 'y' | 'z' } | null>(null);
+	dragTarget = $state.raw<
+		| { kind: 'divider' | 'bracket'; id: string }
+		| { kind: 'part'; id: string; axis: 'x' | 'y' | 'z' }
+		| null
+	>(null);
 
 	saveStatus = $state<SaveStatus>('saved');
 	saveMessage = $state('');
-	conflict = $state.raw<{ version: number; settings: VariantSettings; updatedAt: string } | null>(null);
+	conflict = $state.raw<{ version: number; settings: VariantSettings; updatedAt: string } | null>(
+		null
+	);
 	serverAgrees = $state<boolean | null>(null);
 	serverMessage = $state('');
 
@@ -109,7 +133,19 @@ export class EditorState {
 	/** The settings the server holds (the last save): a change back to them writes nothing. */
 	#saved: VariantSettings;
 
-	constructor(init: { buildId: string; variantId: string; enclosure: EnclosureDef; parts: PartDef[]; settings: VariantSettings; version: number; api: EditorApi; saveDelayMs?: number; checkDelayMs?: number; readOnly?: string | null; history?: VariantSettings[] }) {
+	constructor(init: {
+		buildId: string;
+		variantId: string;
+		enclosure: EnclosureDef;
+		parts: PartDef[];
+		settings: VariantSettings;
+		version: number;
+		api: EditorApi;
+		saveDelayMs?: number;
+		checkDelayMs?: number;
+		readOnly?: string | null;
+		history?: VariantSettings[];
+	}) {
 		this.readOnly = init.readOnly ?? null;
 		this.#saved = init.settings;
 		// Earlier saved revisions, oldest first: undo steps back through them after a reload.
@@ -171,12 +207,18 @@ export class EditorState {
 	// — controls —
 
 	control(kind: 'divider' | 'bracket', id: string): DividerDef | BracketDef | undefined {
-		return kind === 'divider' ? this.enclosure.dividers.find((d) => d.id === id) : this.enclosure.brackets.find((b) => b.id === id);
+		return kind === 'divider'
+			? this.enclosure.dividers.find((d) => d.id === id)
+			: this.enclosure.brackets.find((b) => b.id === id);
 	}
 
 	offsetOf(kind: 'divider' | 'bracket', id: string): number {
 		const map = kind === 'divider' ? this.settings.dividerPositions : this.settings.bracketOffsets;
-		return map[id] ?? this.resolved?.[kind === 'divider' ? 'dividerPositions' : 'bracketOffsets'][id] ?? 0;
+		return (
+			map[id] ??
+			this.resolved?.[kind === 'divider' ? 'dividerPositions' : 'bracketOffsets'][id] ??
+			0
+		);
 	}
 
 	/** Sets a divider or bracket to an allowed offset. A free value (from a drag) snaps to the nearest. */
@@ -186,7 +228,10 @@ export class EditorState {
 		const snapped = snapToAllowed(def, offsetMm).offsetMm;
 		if (snapped === this.offsetOf(kind, id)) return;
 		const key = kind === 'divider' ? 'dividerPositions' : 'bracketOffsets';
-		this.apply({ ...this.settings, [key]: { ...this.settings[key], [id]: snapped } }, coalesce ?? `${kind}:${id}`);
+		this.apply(
+			{ ...this.settings, [key]: { ...this.settings[key], [id]: snapped } },
+			coalesce ?? `${kind}:${id}`
+		);
 	}
 
 	stepControl(kind: 'divider' | 'bracket', id: string, delta: number) {
@@ -213,7 +258,13 @@ export class EditorState {
 	#updatePlacement(id: string, change: (p: Placement) => Placement, coalesce?: string) {
 		const p = this.placement(id);
 		if (!p || p.locked) return;
-		this.apply({ ...this.settings, placements: this.settings.placements.map((q) => (q.id === id ? change(q) : q)) }, coalesce);
+		this.apply(
+			{
+				...this.settings,
+				placements: this.settings.placements.map((q) => (q.id === id ? change(q) : q))
+			},
+			coalesce
+		);
 	}
 
 	setPosition(id: string, position: Vec3) {
@@ -247,16 +298,26 @@ export class EditorState {
 	toggleLocked(id: string) {
 		const p = this.placement(id);
 		if (!p) return;
-		this.apply({ ...this.settings, placements: this.settings.placements.map((q) => (q.id === id ? { ...q, locked: !q.locked } : q)) });
+		this.apply({
+			...this.settings,
+			placements: this.settings.placements.map((q) =>
+				q.id === id ? { ...q, locked: !q.locked } : q
+			)
+		});
 	}
 
 	toggleHidden(id: string) {
-		this.hiddenIds = this.hiddenIds.includes(id) ? this.hiddenIds.filter((h) => h !== id) : [...this.hiddenIds, id];
+		this.hiddenIds = this.hiddenIds.includes(id)
+			? this.hiddenIds.filter((h) => h !== id)
+			: [...this.hiddenIds, id];
 	}
 
 	remove(id: string) {
 		if (this.placement(id)?.locked) return;
-		this.apply({ ...this.settings, placements: this.settings.placements.filter((p) => p.id !== id) });
+		this.apply({
+			...this.settings,
+			placements: this.settings.placements.filter((p) => p.id !== id)
+		});
 		if (this.selectedId === id) this.selectedId = null;
 	}
 
@@ -264,27 +325,44 @@ export class EditorState {
 	 * Adds a catalogue part: onto a mount when one is named (snapped flat against its panel or on the
 	 * stack there), else into free space in the chosen compartment.
 	 */
-	addPart(part: PartDef, where: { mountId?: string; compartmentId?: string } = {}): string | { reason: string } {
+	addPart(
+		part: PartDef,
+		where: { mountId?: string; compartmentId?: string } = {}
+	): string | { reason: string } {
 		return this.addPartTurned(part, where).result;
 	}
 
 	/** The same, with the quarter turn it used in words ("a quarter turn about Y"). */
-	addPartTurned(part: PartDef, where: { mountId?: string; compartmentId?: string } = {}): { result: string | { reason: string }; turn?: string } {
+	addPartTurned(
+		part: PartDef,
+		where: { mountId?: string; compartmentId?: string } = {}
+	): { result: string | { reason: string }; turn?: string } {
 		if (!this.partsById.has(part.id)) this.parts = [...this.parts, part];
 		const resolved = this.resolved;
 		if (this.readOnly) return { result: { reason: `Read-only: ${this.readOnly}` } };
 		if (!resolved) return { result: { reason: 'Fix the scene’s errors first.' } };
-		const mount = where.mountId ? this.enclosure.mounts.find((m) => m.id === where.mountId) : undefined;
+		const mount = where.mountId
+			? this.enclosure.mounts.find((m) => m.id === where.mountId)
+			: undefined;
 		let landing: ReturnType<typeof landInRoom>;
 		if (mount) {
 			landing = landOnMount(resolved, mount, part);
 		} else {
 			const compartment = resolved.compartments.find((c) => c.id === where.compartmentId);
-			landing = landInRoom(resolved, compartment?.box ?? resolved.innerBox, part, { mounts: this.enclosure.mounts, roomLabel: compartment?.label ?? 'the enclosure' });
+			landing = landInRoom(resolved, compartment?.box ?? resolved.innerBox, part, {
+				mounts: this.enclosure.mounts,
+				roomLabel: compartment?.label ?? 'the enclosure'
+			});
 		}
 		if ('reason' in landing) return { result: landing };
 		const id = nextPlacementId(this.settings.placements);
-		const placement: Placement = { id, partId: part.id, position: landing.position, rotation: landing.rotation, ...(mount ? { mountId: mount.id } : {}) };
+		const placement: Placement = {
+			id,
+			partId: part.id,
+			position: landing.position,
+			rotation: landing.rotation,
+			...(mount ? { mountId: mount.id } : {})
+		};
 		this.apply({ ...this.settings, placements: [...this.settings.placements, placement] });
 		this.selectedId = id;
 		return { result: id, turn: landing.turn };
@@ -301,7 +379,9 @@ export class EditorState {
 		if (!this.conflict && !this.#inFlight && sameSettings(this.settings, this.#saved)) {
 			this.saveStatus = 'saved';
 			this.saveMessage = '';
-		} else if (!this.conflict) this.#saveTimer = setTimeout(() => void this.saveNow(), this.#saveDelayMs);
+		} else if (!this.conflict) {
+			this.#saveTimer = setTimeout(() => void this.saveNow(), this.#saveDelayMs);
+		}
 		this.#checkTimer = setTimeout(() => void this.confirmWithServer(), this.#checkDelayMs);
 	}
 
@@ -340,12 +420,19 @@ export class EditorState {
 				this.#changed();
 			}
 		} else if (outcome.kind === 'conflict') {
-			this.conflict = { version: outcome.version, settings: outcome.settings, updatedAt: outcome.updatedAt };
+			this.conflict = {
+				version: outcome.version,
+				settings: outcome.settings,
+				updatedAt: outcome.updatedAt
+			};
 			this.saveStatus = 'conflict';
-			this.saveMessage = 'Someone else saved this variant. Your changes are kept here; choose which to keep.';
+			this.saveMessage =
+				'Someone else saved this variant. Your changes are kept here; choose which to keep.';
 		} else {
 			this.saveStatus = 'error';
-			this.saveMessage = outcome.problem.issues[0] ? `${outcome.problem.message} ${outcome.problem.issues[0].path}: ${outcome.problem.issues[0].message}` : outcome.problem.message;
+			this.saveMessage = outcome.problem.issues[0]
+				? `${outcome.problem.message} ${outcome.problem.issues[0].path}: ${outcome.problem.issues[0].message}`
+				: outcome.problem.message;
 		}
 		return outcome;
 	}
@@ -396,7 +483,9 @@ export class EditorState {
 			return;
 		}
 		this.serverAgrees = reportDigest(server) === reportDigest(local);
-		this.serverMessage = this.serverAgrees ? '' : 'The server’s check differs from this browser’s. The server’s report is the one that counts; reload to see it.';
+		this.serverMessage = this.serverAgrees
+			? ''
+			: 'The server’s check differs from this browser’s. The server’s report is the one that counts; reload to see it.';
 	}
 
 	dispose() {

@@ -5,7 +5,15 @@
 import type { FitStatus, WorldBoxKind } from '$lib/geometry';
 import type { PreviewRole } from './preview-boxes';
 
-export const STATUS_STYLE: Record<FitStatus, { color: string; edge: string; pattern: 'plain' | 'hatch' | 'dots' | 'solid' | 'dashed'; word: string }> = {
+export const STATUS_STYLE: Record<
+	FitStatus,
+	{
+		color: string;
+		edge: string;
+		pattern: 'plain' | 'hatch' | 'dots' | 'solid' | 'dashed';
+		word: string;
+	}
+> = {
 	clear: { color: '#2e9d83', edge: '#5cc9ad', pattern: 'plain', word: 'clear' },
 	tight: { color: '#e0a526', edge: '#f3c65e', pattern: 'hatch', word: 'tight' },
 	blocked: { color: '#8b5fd1', edge: '#b495ea', pattern: 'dots', word: 'blocked' },
@@ -14,7 +22,10 @@ export const STATUS_STYLE: Record<FitStatus, { color: string; edge: string; patt
 };
 
 /** Structure: walls, dividers, brackets and mount plates in the graphite ground, the divider in brass. */
-export const STRUCTURE_STYLE: Record<Exclude<WorldBoxKind, 'body' | 'keepout'>, { color: string; opacity: number }> = {
+export const STRUCTURE_STYLE: Record<
+	Exclude<WorldBoxKind, 'body' | 'keepout'>,
+	{ color: string; opacity: number }
+> = {
 	wall: { color: '#5c6778', opacity: 0.18 },
 	divider: { color: '#c1964a', opacity: 0.85 },
 	bracket: { color: '#aab3c0', opacity: 0.9 },
@@ -28,7 +39,10 @@ export const GROUND = '#12161c';
 export const ACCENT = '#c1964a';
 
 /** Catalogue previews: structure as in the build view, allowed positions and travel as ghosts. */
-export const PREVIEW_STYLE: Record<PreviewRole, { color: string; opacity: number; dashed?: boolean }> = {
+export const PREVIEW_STYLE: Record<
+	PreviewRole,
+	{ color: string; opacity: number; dashed?: boolean }
+> = {
 	wall: { color: '#5c6778', opacity: 0.22 },
 	'wall-mesh': { color: '#7f8b9c', opacity: 0.08, dashed: true },
 	divider: { color: '#c1964a', opacity: 0.85 },

@@ -42,7 +42,10 @@ function travelEnvelope(b: EnclosureDef['brackets'][number]): Box {
  * `chosen` maps a divider id to the allowed position drawn solid; the others are ghosts. Brackets
  * are drawn at their first allowed offset with their travel as a ghost.
  */
-export function enclosurePreviewBoxes(def: EnclosureDef, chosen: Record<string, number> = {}): PreviewBox[] {
+export function enclosurePreviewBoxes(
+	def: EnclosureDef,
+	chosen: Record<string, number> = {}
+): PreviewBox[] {
 	const out: PreviewBox[] = wallBoxes(def).map((w) => ({
 		id: w.id,
 		box: w.box,
@@ -63,8 +66,18 @@ export function enclosurePreviewBoxes(def: EnclosureDef, chosen: Record<string, 
 		}
 	}
 	for (const b of def.brackets) {
-		out.push({ id: `bracket-travel:${b.id}`, box: travelEnvelope(b), role: 'bracket-travel', label: `${b.label} travel` });
-		out.push({ id: `bracket:${b.id}`, box: bracketBoxAt(b, b.travel.minMm), role: 'bracket', label: b.label });
+		out.push({
+			id: `bracket-travel:${b.id}`,
+			box: travelEnvelope(b),
+			role: 'bracket-travel',
+			label: `${b.label} travel`
+		});
+		out.push({
+			id: `bracket:${b.id}`,
+			box: bracketBoxAt(b, b.travel.minMm),
+			role: 'bracket',
+			label: b.label
+		});
 	}
 	for (const m of def.mounts) {
 		out.push({ id: `mount:${m.id}`, box: m.region, role: 'mount', label: m.label });
@@ -74,7 +87,12 @@ export function enclosurePreviewBoxes(def: EnclosureDef, chosen: Record<string, 
 
 export function partPreviewBoxes(def: Pick<PartDef, 'bodies' | 'keepouts'>): PreviewBox[] {
 	return [
-		...def.bodies.map((b) => ({ id: `body:${b.id}`, box: b.box, role: 'body' as const, label: b.label || 'Body' })),
+		...def.bodies.map((b) => ({
+			id: `body:${b.id}`,
+			box: b.box,
+			role: 'body' as const,
+			label: b.label || 'Body'
+		})),
 		...def.keepouts.map((k) => ({
 			id: `keepout:${k.id}`,
 			box: k.box,

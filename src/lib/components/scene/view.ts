@@ -7,11 +7,23 @@ import type { Box } from '$lib/geometry';
 
 export type ViewName = 'orbit' | 'front' | 'top' | 'side';
 
-export type CameraPose = { position: [number, number, number]; target: [number, number, number]; up: [number, number, number] };
+export type CameraPose = {
+	position: [number, number, number];
+	target: [number, number, number];
+	up: [number, number, number];
+};
 
 export function viewPose(inner: Box, view: ViewName): CameraPose {
-	const c: [number, number, number] = [(inner.min[0] + inner.max[0]) / 2, (inner.min[1] + inner.max[1]) / 2, -(inner.min[2] + inner.max[2]) / 2];
-	const size = Math.max(inner.max[0] - inner.min[0], inner.max[1] - inner.min[1], inner.max[2] - inner.min[2]);
+	const c: [number, number, number] = [
+		(inner.min[0] + inner.max[0]) / 2,
+		(inner.min[1] + inner.max[1]) / 2,
+		-(inner.min[2] + inner.max[2]) / 2
+	];
+	const size = Math.max(
+		inner.max[0] - inner.min[0],
+		inner.max[1] - inner.min[1],
+		inner.max[2] - inner.min[2]
+	);
 	const d = size * 2.4;
 	switch (view) {
 		case 'front':
@@ -21,7 +33,11 @@ export function viewPose(inner: Box, view: ViewName): CameraPose {
 		case 'side':
 			return { position: [c[0] + d, c[1], c[2]], target: c, up: [0, 1, 0] };
 		default:
-			return { position: [c[0] + d * 0.55, c[1] + d * 0.45, c[2] + d * 0.75], target: c, up: [0, 1, 0] };
+			return {
+				position: [c[0] + d * 0.55, c[1] + d * 0.45, c[2] + d * 0.75],
+				target: c,
+				up: [0, 1, 0]
+			};
 	}
 }
 

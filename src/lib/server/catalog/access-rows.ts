@@ -8,12 +8,22 @@ import { and, count, eq, isNotNull } from 'drizzle-orm';
 import { demoEnclosure } from '$lib/geometry/fixtures';
 import { db } from '../db';
 import { enclosures, parts } from '../db/schema';
-import { SIGN_IN, type Expected, type MatrixFixture, type MatrixRow, type Visitor } from '../testing/access-matrix';
+import {
+	SIGN_IN,
+	type Expected,
+	type MatrixFixture,
+	type MatrixRow,
+	type Visitor
+} from '../testing/access-matrix';
 import { createEnclosure } from './enclosures';
 import { createPart } from './parts';
 
 type Cell = Expected;
-const catalogue = (member: Cell, outsider: Cell, anonymous: Cell = SIGN_IN): MatrixRow['expect'] => ({
+const catalogue = (
+	member: Cell,
+	outsider: Cell,
+	anonymous: Cell = SIGN_IN
+): MatrixRow['expect'] => ({
 	owner: member,
 	designer: member,
 	client: 403,
@@ -44,13 +54,26 @@ async function withPart(f: MatrixFixture) {
 }
 
 const enclosureCount = async (f: MatrixFixture) =>
-	(await db.select({ n: count() }).from(enclosures).where(eq(enclosures.studioId, f.studio.id)))[0].n;
-const partCount = async (f: MatrixFixture) => (await db.select({ n: count() }).from(parts).where(eq(parts.studioId, f.studio.id)))[0].n;
+	(await db.select({ n: count() }).from(enclosures).where(eq(enclosures.studioId, f.studio.id)))[0]
+		.n;
+const partCount = async (f: MatrixFixture) =>
+	(await db.select({ n: count() }).from(parts).where(eq(parts.studioId, f.studio.id)))[0].n;
 const partArchived = async (f: MatrixFixture) =>
-	(await db.select().from(parts).where(and(eq(parts.id, f.vars.part), isNotNull(parts.archivedAt)))).length === 1;
+	(
+		await db
+			.select()
+			.from(parts)
+			.where(and(eq(parts.id, f.vars.part), isNotNull(parts.archivedAt)))
+	).length === 1;
 const enclosureRevision = async (f: MatrixFixture) =>
-	(await db.select({ r: enclosures.revision }).from(enclosures).where(eq(enclosures.id, f.vars.enclosure)))[0]?.r ?? 0;
-const partRevision = async (f: MatrixFixture) => (await db.select({ r: parts.revision }).from(parts).where(eq(parts.id, f.vars.part)))[0]?.r ?? 0;
+	(
+		await db
+			.select({ r: enclosures.revision })
+			.from(enclosures)
+			.where(eq(enclosures.id, f.vars.enclosure))
+	)[0]?.r ?? 0;
+const partRevision = async (f: MatrixFixture) =>
+	(await db.select({ r: parts.revision }).from(parts).where(eq(parts.id, f.vars.part)))[0]?.r ?? 0;
 
 /** The flat enclosure form as a browser without JavaScript posts it. */
 export function enclosureFields(revision = 0, name = 'Matrix box') {
@@ -60,7 +83,17 @@ export function enclosureFields(revision = 0, name = 'Matrix box') {
 		walls[`${face}Kind`] = 'solid';
 		walls[`${face}OffsetMm`] = '0';
 	}
-	return { revision: String(revision), name, description: '', note: '', outerX: '200', outerY: '300', outerZ: '250', ...walls, features: '{"dividers":[],"brackets":[],"mounts":[]}' };
+	return {
+		revision: String(revision),
+		name,
+		description: '',
+		note: '',
+		outerX: '200',
+		outerY: '300',
+		outerZ: '250',
+		...walls,
+		features: '{"dividers":[],"brackets":[],"mounts":[]}'
+	};
 }
 export const partFields = (revision = 0, name = 'Matrix fan') => ({
 	revision: String(revision),
@@ -90,7 +123,13 @@ export const catalogRows: MatrixRow[] = [
 		expect: catalogue(redirectTo(/^\/enclosures\/\w+\?saved=1$/), redirectTo(/^\/enclosures\//)),
 		changes: { by: editors, check: async (f) => (await enclosureCount(f)) === 1 }
 	},
-	{ route: '/enclosures/[id]', method: 'GET', setup: withEnclosure, path: (f) => `/enclosures/${f.vars.enclosure}`, expect: catalogue(200, 404) },
+	{
+		route: '/enclosures/[id]',
+		method: 'GET',
+		setup: withEnclosure,
+		path: (f) => `/enclosures/${f.vars.enclosure}`,
+		expect: catalogue(200, 404)
+	},
 	{
 		route: '/enclosures/[id]',
 		method: 'POST',
@@ -101,20 +140,21 @@ export const catalogRows: MatrixRow[] = [
 		expect: catalogue(redirectTo(/^\/enclosures\/\w+\?saved=1$/), 404),
 		changes: { by: editors, check: async (f) => (await enclosureRevision(f)) === 2 }
 	},
-	...(['archive', 'restore', 'duplicate'] as const).map(
-		(action): MatrixRow => ({
-			route: '/enclosures/[id]',
-			method: 'POST',
-			action,
-			setup: withEnclosure,
-			path: (f) => `/enclosures/${f.vars.enclosure}?/${action}`,
-			expect: catalogue(redirectTo(/^\/enclosures\/\w+$/), 404),
-			changes: {
-				by: editors,
-				check: async (f) => (action === 'duplicate' ? (await enclosureCount(f)) === 2 : (await enclosureRevision(f)) === 2)
-			}
-		})
-	),
+	...(['archive', 'restore', 'duplicate'] as const).map((action): MatrixRow => ({
+		route: '/enclosures/[id]',
+		method: 'POST',
+		action,
+		setup: withEnclosure,
+		path: (f) => `/enclosures/${f.vars.enclosure}?/${action}`,
+		expect: catalogue(redirectTo(/^\/enclosures\/\w+$/), 404),
+		changes: {
+			by: editors,
+			check: async (f) =>
+				action === 'duplicate'
+					? (await enclosureCount(f)) === 2
+					: (await enclosureRevision(f)) === 2
+		}
+	})),
 	{ route: '/parts', method: 'GET', expect: catalogue(200, 200) },
 	{
 		route: '/parts',
@@ -152,7 +192,13 @@ export const catalogRows: MatrixRow[] = [
 		expect: catalogue(redirectTo(/^\/parts\/\w+\?saved=1$/), redirectTo(/^\/parts\//)),
 		changes: { by: editors, check: async (f) => (await partCount(f)) === 1 }
 	},
-	{ route: '/parts/[id]', method: 'GET', setup: withPart, path: (f) => `/parts/${f.vars.part}`, expect: catalogue(200, 404) },
+	{
+		route: '/parts/[id]',
+		method: 'GET',
+		setup: withPart,
+		path: (f) => `/parts/${f.vars.part}`,
+		expect: catalogue(200, 404)
+	},
 	{
 		route: '/parts/[id]',
 		method: 'POST',
@@ -163,21 +209,32 @@ export const catalogRows: MatrixRow[] = [
 		expect: catalogue(redirectTo(/^\/parts\/\w+\?saved=1$/), 404),
 		changes: { by: editors, check: async (f) => (await partRevision(f)) === 2 }
 	},
-	...(['duplicate', 'archive', 'restore', 'delete'] as const).map(
-		(action): MatrixRow => ({
-			route: '/parts/[id]',
-			method: 'POST',
-			action,
-			setup: withPart,
-			path: (f) => `/parts/${f.vars.part}?/${action}`,
-			expect: catalogue(redirectTo(action === 'delete' ? /^\/parts$/ : action === 'duplicate' ? /^\/parts\/\w+\?copied=1$/ : /^\/parts\/\w+$/), 404),
-			changes: {
-				by: editors,
-				check: async (f) =>
-					action === 'duplicate' ? (await partCount(f)) === 2 : action === 'delete' ? (await partCount(f)) === 0 : (await partRevision(f)) === 2
-			}
-		})
-	),
+	...(['duplicate', 'archive', 'restore', 'delete'] as const).map((action): MatrixRow => ({
+		route: '/parts/[id]',
+		method: 'POST',
+		action,
+		setup: withPart,
+		path: (f) => `/parts/${f.vars.part}?/${action}`,
+		expect: catalogue(
+			redirectTo(
+				action === 'delete'
+					? /^\/parts$/
+					: action === 'duplicate'
+						? /^\/parts\/\w+\?copied=1$/
+						: /^\/parts\/\w+$/
+			),
+			404
+		),
+		changes: {
+			by: editors,
+			check: async (f) =>
+				action === 'duplicate'
+					? (await partCount(f)) === 2
+					: action === 'delete'
+						? (await partCount(f)) === 0
+						: (await partRevision(f)) === 2
+		}
+	})),
 	{ route: '/parts/import', method: 'GET', expect: catalogue(200, 200) },
 	// No file: the members get the form back with a message; nothing is written.
 	{ route: '/parts/import', method: 'POST', action: 'preview', expect: catalogue(400, 400) },
@@ -200,7 +257,13 @@ export const catalogRows: MatrixRow[] = [
 		expect: api(201, 201),
 		changes: { by: editors, check: async (f) => (await enclosureCount(f)) === 1 }
 	},
-	{ route: '/api/enclosures/[id]', method: 'GET', setup: withEnclosure, path: (f) => `/api/enclosures/${f.vars.enclosure}`, expect: api(200, 404) },
+	{
+		route: '/api/enclosures/[id]',
+		method: 'GET',
+		setup: withEnclosure,
+		path: (f) => `/api/enclosures/${f.vars.enclosure}`,
+		expect: api(200, 404)
+	},
 	{
 		route: '/api/enclosures/[id]',
 		method: 'PUT',
@@ -234,7 +297,13 @@ export const catalogRows: MatrixRow[] = [
 		expect: api(201, 201),
 		changes: { by: editors, check: async (f) => (await partCount(f)) === 1 }
 	},
-	{ route: '/api/parts/[id]', method: 'GET', setup: withPart, path: (f) => `/api/parts/${f.vars.part}`, expect: api(200, 404) },
+	{
+		route: '/api/parts/[id]',
+		method: 'GET',
+		setup: withPart,
+		path: (f) => `/api/parts/${f.vars.part}`,
+		expect: api(200, 404)
+	},
 	{
 		route: '/api/parts/[id]',
 		method: 'PUT',

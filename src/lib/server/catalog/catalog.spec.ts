@@ -23,7 +23,14 @@ import {
 	restorePart,
 	updatePart
 } from './parts';
-import { createEnclosure, getEnclosure, getEnclosureVersion, updateEnclosure, archiveEnclosure, listEnclosures } from './enclosures';
+import {
+	createEnclosure,
+	getEnclosure,
+	getEnclosureVersion,
+	updateEnclosure,
+	archiveEnclosure,
+	listEnclosures
+} from './enclosures';
 
 let studioId = '';
 let otherStudioId = '';
@@ -43,7 +50,15 @@ function pump(overrides: Record<string, unknown> = {}) {
 		name: 'Compact pump, test',
 		category: 'pump',
 		bodies: [{ id: 'body', label: 'Body', box: { min: [0, 0, 0], max: [62, 50, 62] } }],
-		keepouts: [{ id: 'fittings', label: 'Fittings', kind: 'fitting', severity: 'error', box: { min: [0, 50, 0], max: [62, 75, 62] } }],
+		keepouts: [
+			{
+				id: 'fittings',
+				label: 'Fittings',
+				kind: 'fitting',
+				severity: 'error',
+				box: { min: [0, 50, 0], max: [62, 75, 62] }
+			}
+		],
 		ports: [{ id: 'in', position: [20, 50, 31], direction: '+y' }],
 		specs: { powerDrawW: 18 },
 		provenance: 'measured',
@@ -73,12 +88,46 @@ describe('parts', () => {
 	});
 
 	it.each([
-		['a negative depth', { bodies: [{ id: 'b', label: '', box: { min: [0, 0, 0], max: [10, 10, -5] } }] }, 'bodies[0].box.max[2]'],
-		['a zero-size body', { bodies: [{ id: 'b', label: '', box: { min: [0, 0, 0], max: [0, 10, 10] } }] }, 'bodies[0].box.max[0]'],
-		['NaN', { bodies: [{ id: 'b', label: '', box: { min: [0, 0, 0], max: [Number.NaN, 10, 10] } }] }, 'bodies[0].box.max[0]'],
-		['more than 10 m', { bodies: [{ id: 'b', label: '', box: { min: [0, 0, 0], max: [10_001, 10, 10] } }] }, 'bodies[0].box.max[0]'],
-		['a keep-out with no size', { keepouts: [{ id: 'k', label: '', kind: 'airflow', severity: 'warning', box: { min: [0, 0, 0], max: [0, 0, 0] } }] }, 'keepouts[0].box.max[0]'],
-		['a keep-out with no box', { keepouts: [{ id: 'k', label: '', kind: 'airflow', severity: 'warning' }] }, 'keepouts[0].box'],
+		[
+			'a negative depth',
+			{ bodies: [{ id: 'b', label: '', box: { min: [0, 0, 0], max: [10, 10, -5] } }] },
+			'bodies[0].box.max[2]'
+		],
+		[
+			'a zero-size body',
+			{ bodies: [{ id: 'b', label: '', box: { min: [0, 0, 0], max: [0, 10, 10] } }] },
+			'bodies[0].box.max[0]'
+		],
+		[
+			'NaN',
+			{ bodies: [{ id: 'b', label: '', box: { min: [0, 0, 0], max: [Number.NaN, 10, 10] } }] },
+			'bodies[0].box.max[0]'
+		],
+		[
+			'more than 10 m',
+			{ bodies: [{ id: 'b', label: '', box: { min: [0, 0, 0], max: [10_001, 10, 10] } }] },
+			'bodies[0].box.max[0]'
+		],
+		[
+			'a keep-out with no size',
+			{
+				keepouts: [
+					{
+						id: 'k',
+						label: '',
+						kind: 'airflow',
+						severity: 'warning',
+						box: { min: [0, 0, 0], max: [0, 0, 0] }
+					}
+				]
+			},
+			'keepouts[0].box.max[0]'
+		],
+		[
+			'a keep-out with no box',
+			{ keepouts: [{ id: 'k', label: '', kind: 'airflow', severity: 'warning' }] },
+			'keepouts[0].box'
+		],
 		['an unknown category', { category: 'toaster' }, 'category'],
 		['no body', { bodies: [] }, 'bodies'],
 		['a negative price', { priceMinor: -1 }, 'priceMinor'],
@@ -108,7 +157,10 @@ describe('parts', () => {
 	});
 
 	it('archives: gone from search and the table, still loadable by id for builds', async () => {
-		const made = await createPart(studioId, pump({ name: 'Archived reservoir zq', category: 'reservoir' }));
+		const made = await createPart(
+			studioId,
+			pump({ name: 'Archived reservoir zq', category: 'reservoir' })
+		);
 		if (!made.ok) throw new Error('create failed');
 		await archivePart(studioId, made.value.id);
 		expect((await listPartsForStudio(studioId, { q: 'zq' })).length).toBe(0);
@@ -126,7 +178,11 @@ describe('parts', () => {
 		expect([sfx.widthMm, sfx.heightMm, sfx.depthMm]).toEqual([125, 63.5, 100]);
 		expect(sfx.isStandard).toBe(true);
 		expect(sfx.source).toMatch(/SFX12V/);
-		const write = await updatePart(studioId, 'std-sfx', sfx.revision, { ...sfx.def, provenance: 'datasheet', name: 'mine now' });
+		const write = await updatePart(studioId, 'std-sfx', sfx.revision, {
+			...sfx.def,
+			provenance: 'datasheet',
+			name: 'mine now'
+		});
 		expect(write.ok || write.status).toBe(404);
 		const copy = await duplicatePart(studioId, 'std-sfx');
 		if (!copy.ok) throw new Error('copy failed');
@@ -141,15 +197,29 @@ describe('parts', () => {
 		if (!made.ok) throw new Error('create failed');
 		expect(await getPartsByIds(otherStudioId, [made.value.id])).toEqual([]);
 		expect(await listPartsForStudio(otherStudioId, { q: 'xk' })).toEqual([]);
-		expect((await archivePart(otherStudioId, made.value.id))).toBeNull();
+		expect(await archivePart(otherStudioId, made.value.id)).toBeNull();
 	});
 
 	it('sorts and pages in the database, filtering by category', async () => {
-		const sorted = await listParts(studioId, { scope: 'standard', category: 'fan', sort: 'depthMm', dir: 'asc', pageSize: 2, page: 1 });
+		const sorted = await listParts(studioId, {
+			scope: 'standard',
+			category: 'fan',
+			sort: 'depthMm',
+			dir: 'asc',
+			pageSize: 2,
+			page: 1
+		});
 		expect(sorted.total).toBe(4);
 		// Common practice: slim fans are about 15 mm thick, standard ones 25 mm.
 		expect(sorted.rows.map((r) => r.depthMm)).toEqual([15, 15]);
-		const page2 = await listParts(studioId, { scope: 'standard', category: 'fan', sort: 'depthMm', dir: 'asc', pageSize: 2, page: 2 });
+		const page2 = await listParts(studioId, {
+			scope: 'standard',
+			category: 'fan',
+			sort: 'depthMm',
+			dir: 'asc',
+			pageSize: 2,
+			page: 2
+		});
 		expect(page2.rows.map((r) => r.depthMm)).toEqual([25, 25]);
 	});
 
@@ -160,7 +230,12 @@ describe('parts', () => {
 		const enc = await createEnclosure(studioId, null, { definition: demoEnclosure() });
 		if (!enc.ok) throw new Error('enclosure failed');
 		const buildId = newId();
-		await db.insert(builds).values({ id: buildId, studioId, name: 'Test build', enclosureVersionId: enc.value.current.id });
+		await db.insert(builds).values({
+			id: buildId,
+			studioId,
+			name: 'Test build',
+			enclosureVersionId: enc.value.current.id
+		});
 		await db.insert(variants).values({
 			id: newId(),
 			buildId,
@@ -189,7 +264,10 @@ function box(outer: [number, number, number], wallMm: number): EnclosureDef {
 				thicknessMm: 2,
 				positions: {
 					kind: 'list',
-					options: [2, 3].map((n) => ({ label: `${n} slots`, offsetMm: outer[0] - 2 * wallMm - 2 - n * SLOT_PITCH_MM }))
+					options: [2, 3].map((n) => ({
+						label: `${n} slots`,
+						offsetMm: outer[0] - 2 * wallMm - 2 - n * SLOT_PITCH_MM
+					}))
 				}
 			}
 		],
@@ -212,15 +290,22 @@ describe('enclosures', () => {
 		if (!made.ok) throw new Error('create failed');
 		const id = made.value.id;
 		const v1 = made.value.current.id;
-		const inPlace = await updateEnclosure(studioId, id, 1, null, { definition: box([210, 300, 250], 2) });
+		const inPlace = await updateEnclosure(studioId, id, 1, null, {
+			definition: box([210, 300, 250], 2)
+		});
 		if (!inPlace.ok) throw new Error('update failed');
 		expect(inPlace.value.current.id).toBe(v1);
 		expect(inPlace.value.current.def.outerMm[0]).toBe(210);
 		expect(inPlace.value.revision).toBe(2);
 
 		const buildId = newId();
-		await db.insert(builds).values({ id: buildId, studioId, name: 'Pinned', enclosureVersionId: v1 });
-		const versioned = await updateEnclosure(studioId, id, 2, null, { definition: box([220, 300, 250], 2), note: 'wider' });
+		await db
+			.insert(builds)
+			.values({ id: buildId, studioId, name: 'Pinned', enclosureVersionId: v1 });
+		const versioned = await updateEnclosure(studioId, id, 2, null, {
+			definition: box([220, 300, 250], 2),
+			note: 'wider'
+		});
 		if (!versioned.ok) throw new Error('update failed');
 		expect(versioned.created).toBe(true);
 		expect(versioned.value.currentVersion).toBe(2);
@@ -240,7 +325,9 @@ describe('enclosures', () => {
 		if (!made.ok) throw new Error('create failed');
 		const id = made.value.id;
 		await updateEnclosure(studioId, id, 1, null, { definition: box([205, 300, 250], 2) });
-		const stale = await updateEnclosure(studioId, id, 1, null, { definition: box([999, 300, 250], 2) });
+		const stale = await updateEnclosure(studioId, id, 1, null, {
+			definition: box([999, 300, 250], 2)
+		});
 		expect(stale.ok).toBe(false);
 		if (stale.ok || stale.status !== 409) throw new Error('expected 409');
 		expect(stale.current.current.def.outerMm[0]).toBe(205);
@@ -262,8 +349,27 @@ describe('enclosures', () => {
 
 	it.each([
 		['walls that leave no inside', { ...box([10, 300, 250], 5) }, 'outerMm[0]'],
-		['a negative outer size', { ...box([200, 300, 250], 2), outerMm: [-200, 300, 250] }, 'outerMm[0]'],
-		['a divider with no positions', { ...box([200, 300, 250], 2), dividers: [{ id: 'd', label: 'd', axis: 'x', thicknessMm: 2, positions: { kind: 'list', options: [] } }] }, 'dividers[0].positions.options']
+		[
+			'a negative outer size',
+			{ ...box([200, 300, 250], 2), outerMm: [-200, 300, 250] },
+			'outerMm[0]'
+		],
+		[
+			'a divider with no positions',
+			{
+				...box([200, 300, 250], 2),
+				dividers: [
+					{
+						id: 'd',
+						label: 'd',
+						axis: 'x',
+						thicknessMm: 2,
+						positions: { kind: 'list', options: [] }
+					}
+				]
+			},
+			'dividers[0].positions.options'
+		]
 	])('refuses %s and writes nothing', async (_what, definition, path) => {
 		const before = (await db.select({ n: count() }).from(enclosureVersions))[0].n;
 		const made = await createEnclosure(studioId, null, { definition });

@@ -9,7 +9,14 @@ import { closeDb, db } from '../db';
 import { parts } from '../db/schema';
 import { createStudio } from '../testing/factories';
 import { testDatabaseUrl } from '../testing/env';
-import { CSV_COLUMNS, decodeCsv, importPartsCsv, MAX_CSV_BYTES, MAX_CSV_ROWS, partsToCsv } from './csv';
+import {
+	CSV_COLUMNS,
+	decodeCsv,
+	importPartsCsv,
+	MAX_CSV_BYTES,
+	MAX_CSV_ROWS,
+	partsToCsv
+} from './csv';
 import { allParts, createPart, getPartsByIds } from './parts';
 
 let studioId = '';
@@ -19,7 +26,8 @@ beforeAll(async () => {
 });
 afterAll(closeDb);
 
-const rowsIn = async (id: string) => (await db.select({ n: count() }).from(parts).where(eq(parts.studioId, id)))[0].n;
+const rowsIn = async (id: string) =>
+	(await db.select({ n: count() }).from(parts).where(eq(parts.studioId, id)))[0].n;
 
 const HEADER = 'name,category,width_mm,height_mm,depth_mm,price,provenance';
 
@@ -59,9 +67,16 @@ describe('CSV import', () => {
 		await db.execute(sql`create or replace function test_refuse_part() returns trigger language plpgsql as $$
 			begin if new.name = 'refused by the database' then raise exception 'refused'; end if; return new; end $$`);
 		await db.execute(sql`drop trigger if exists test_refuse_part on part`);
-		await db.execute(sql`create trigger test_refuse_part before insert on part for each row execute function test_refuse_part()`);
+		await db.execute(
+			sql`create trigger test_refuse_part before insert on part for each row execute function test_refuse_part()`
+		);
 		try {
-			const text = [HEADER, 'First,other,10,10,10,,', 'Second,other,10,10,10,,', 'refused by the database,other,10,10,10,,'].join('\n');
+			const text = [
+				HEADER,
+				'First,other,10,10,10,,',
+				'Second,other,10,10,10,,',
+				'refused by the database,other,10,10,10,,'
+			].join('\n');
 			await expect(importPartsCsv(id, text, true)).rejects.toThrow();
 			expect(await rowsIn(id)).toBe(0);
 		} finally {
@@ -74,7 +89,11 @@ describe('CSV import', () => {
 		['an unknown column', 'name,category,colour\nA,other,red', /Unknown column: colour/],
 		['no category column', 'name,width_mm\nA,10', /no "category" column/],
 		['a header and no rows', HEADER + '\n', /no rows/],
-		['too many rows', HEADER + '\n' + 'A,other,1,1,1,,\n'.repeat(MAX_CSV_ROWS + 1), new RegExp(`at most ${MAX_CSV_ROWS}`)]
+		[
+			'too many rows',
+			HEADER + '\n' + 'A,other,1,1,1,,\n'.repeat(MAX_CSV_ROWS + 1),
+			new RegExp(`at most ${MAX_CSV_ROWS}`)
+		]
 	])('refuses a file with %s and writes nothing', async (_what, text, message) => {
 		const id = (await createStudio()).id;
 		const report = await importPartsCsv(id, text, true);
@@ -84,11 +103,15 @@ describe('CSV import', () => {
 	});
 
 	it('takes text only, within 2 MB', () => {
-		expect(decodeCsv(new Uint8Array([0x89, 0x50, 0x4e, 0x47, 0xff, 0xfe])).error).toMatch(/not text/);
+		expect(decodeCsv(new Uint8Array([0x89, 0x50, 0x4e, 0x47, 0xff, 0xfe])).error).toMatch(
+			/not text/
+		);
 		expect(decodeCsv(new TextEncoder().encode('name\u0000,category')).error).toMatch(/NUL/);
 		expect(decodeCsv(new Uint8Array(MAX_CSV_BYTES + 1).fill(0x41)).error).toMatch(/at most 2 MB/);
 		expect(decodeCsv(new Uint8Array()).error).toMatch(/empty/);
-		expect(decodeCsv(new TextEncoder().encode('\uFEFFname,category\n')).text).toBe('name,category\n');
+		expect(decodeCsv(new TextEncoder().encode('\uFEFFname,category\n')).text).toBe(
+			'name,category\n'
+		);
 	});
 
 	it('refuses to update a part that changed since the file was exported', async () => {
@@ -105,7 +128,9 @@ describe('CSV import', () => {
 		expect(first.rows[0].errors).toEqual([]);
 		expect(first.updated).toBe(1);
 		const again = await importPartsCsv(studioId, exported, false);
-		expect(again.rows[0].errors[0]).toMatch(/changed since this file was exported \(revision 2, file 1\)/);
+		expect(again.rows[0].errors[0]).toMatch(
+			/changed since this file was exported \(revision 2, file 1\)/
+		);
 	});
 });
 
@@ -120,7 +145,15 @@ describe('CSV round trip', () => {
 				{ id: 'base', label: 'Pump base', box: { min: [0, 0, 0], max: [80, 40, 80] } },
 				{ id: 'tube', label: 'Tube', box: { min: [10, 40, 10], max: [70, 160, 70] } }
 			],
-			keepouts: [{ id: 'fittings', label: 'Fittings', kind: 'fitting', severity: 'error', box: { min: [10, 160, 10], max: [70, 185, 70] } }],
+			keepouts: [
+				{
+					id: 'fittings',
+					label: 'Fittings',
+					kind: 'fitting',
+					severity: 'error',
+					box: { min: [10, 160, 10], max: [70, 185, 70] }
+				}
+			],
 			ports: [{ id: 'in', position: [40, 160, 40], direction: '+y', thread: 'G 1/4' }],
 			specs: { powerDrawW: 18, heatW: 5 },
 			provenance: 'measured',
@@ -148,7 +181,9 @@ describe('CSV round trip', () => {
 		expect(report.created).toBe(2);
 		const imported = await allParts(into, { scope: 'studio' });
 		const strip = (csv: string) =>
-			Papa.parse<Record<string, string>>(csv, { header: true, skipEmptyLines: true }).data.map(({ id: _id, revision: _r, ...rest }) => rest);
+			Papa.parse<Record<string, string>>(csv, { header: true, skipEmptyLines: true }).data.map(
+				({ id: _id, revision: _r, ...rest }) => rest
+			);
 		expect(strip(partsToCsv(imported))).toEqual(strip(exported));
 		const [original] = await getPartsByIds(from, [multi.value.id]);
 		const copy = imported.find((p) => p.def.category === 'pump-reservoir')!;

@@ -98,7 +98,10 @@ export function partToCsvRow(p: PartRecord): Record<Column, string> {
 
 /** Through the one CSV writer, which neutralises cells a spreadsheet would run as formulas. */
 export function partsToCsv(records: PartRecord[]): string {
-	return toCsv(CSV_COLUMNS, records.map((r) => CSV_COLUMNS.map((c) => partToCsvRow(r)[c])));
+	return toCsv(
+		CSV_COLUMNS,
+		records.map((r) => CSV_COLUMNS.map((c) => partToCsvRow(r)[c]))
+	);
 }
 
 /* ---------- import ---------- */
@@ -135,7 +138,9 @@ export function decodeCsv(bytes: Uint8Array): { text?: string; error?: string } 
 		return { error: 'The file is empty.' };
 	}
 	if (bytes.byteLength > MAX_CSV_BYTES) {
-		return { error: `The file is ${(bytes.byteLength / 1024 / 1024).toFixed(1)} MB; at most 2 MB can be imported at once.` };
+		return {
+			error: `The file is ${(bytes.byteLength / 1024 / 1024).toFixed(1)} MB; at most 2 MB can be imported at once.`
+		};
 	}
 	let text: string;
 	try {
@@ -159,7 +164,9 @@ function numberCell(cell: string, col: string, errors: string[]): number | undef
 	}
 	const value = Number(cell.replace(',', '.'));
 	if (!Number.isFinite(value)) {
-		errors.push(`${COLUMN_WORDS[col] ?? col} must be a number${col.endsWith('_mm') ? ' in mm' : ''}`);
+		errors.push(
+			`${COLUMN_WORDS[col] ?? col} must be a number${col.endsWith('_mm') ? ' in mm' : ''}`
+		);
 		return undefined;
 	}
 	return value;
@@ -288,22 +295,34 @@ export function parseCsvText(text: string): Parsed {
 	const fields = parsed.meta.fields ?? [];
 	const unknown = fields.filter((f) => !(CSV_COLUMNS as readonly string[]).includes(f));
 	if (unknown.length) {
-		return { rows: [], fileError: `Unknown column${unknown.length > 1 ? 's' : ''}: ${unknown.slice(0, 5).join(', ')}. The columns are listed in the CSV notes.` };
+		return {
+			rows: [],
+			fileError: `Unknown column${unknown.length > 1 ? 's' : ''}: ${unknown.slice(0, 5).join(', ')}. The columns are listed in the CSV notes.`
+		};
 	}
 	for (const required of ['name', 'category'] as const) {
 		if (!fields.includes(required)) {
-			return { rows: [], fileError: `The file has no "${required}" column. The first line must name the columns.` };
+			return {
+				rows: [],
+				fileError: `The file has no "${required}" column. The first line must name the columns.`
+			};
 		}
 	}
 	const broken = parsed.errors.find((e) => e.type === 'Quotes' || e.type === 'Delimiter');
 	if (broken) {
-		return { rows: [], fileError: `The file is not valid CSV near row ${(broken.row ?? 0) + 2}: ${broken.message}.` };
+		return {
+			rows: [],
+			fileError: `The file is not valid CSV near row ${(broken.row ?? 0) + 2}: ${broken.message}.`
+		};
 	}
 	if (parsed.data.length === 0) {
 		return { rows: [], fileError: 'The file has a header but no rows.' };
 	}
 	if (parsed.data.length > MAX_CSV_ROWS) {
-		return { rows: [], fileError: `The file has ${parsed.data.length} rows; at most ${MAX_CSV_ROWS} can be imported at once.` };
+		return {
+			rows: [],
+			fileError: `The file has ${parsed.data.length} rows; at most ${MAX_CSV_ROWS} can be imported at once.`
+		};
 	}
 	// Papaparse numbers rows from 0 without the header; a spreadsheet shows the header as row 1.
 	let line = 1;
@@ -326,8 +345,19 @@ export function parseCsvText(text: string): Parsed {
  * of the studio's parts update it (refused when the file's revision is older); others create new
  * parts. A file-level problem writes nothing.
  */
-export async function importPartsCsv(studioId: string, text: string, commit: boolean): Promise<CsvReport> {
-	const empty: CsvReport = { rows: [], valid: 0, invalid: 0, committed: false, created: 0, updated: 0 };
+export async function importPartsCsv(
+	studioId: string,
+	text: string,
+	commit: boolean
+): Promise<CsvReport> {
+	const empty: CsvReport = {
+		rows: [],
+		valid: 0,
+		invalid: 0,
+		committed: false,
+		created: 0,
+		updated: 0
+	};
 	const parsed = parseCsvText(text);
 	if (parsed.fileError) {
 		return { ...empty, fileError: parsed.fileError };
@@ -356,13 +386,17 @@ export async function importPartsCsv(studioId: string, text: string, commit: boo
 		}
 		const check = checkPart(value.input, value.id || 'new');
 		if (!check.ok) {
-			result.errors.push(...check.issues.map((i) => describeIssue(i.path, i.message, value.oneBox)));
+			result.errors.push(
+				...check.issues.map((i) => describeIssue(i.path, i.message, value.oneBox))
+			);
 			return { result };
 		}
 		result.errors.push(...checkSizes(value, check.def, cells));
 		const stored = existing.get(value.id);
 		if (update && value.revision !== undefined && stored !== value.revision) {
-			result.errors.push(`the part changed since this file was exported (revision ${stored}, file ${value.revision})`);
+			result.errors.push(
+				`the part changed since this file was exported (revision ${stored}, file ${value.revision})`
+			);
 		}
 		return { result, value, stored };
 	});
@@ -381,7 +415,12 @@ export async function importPartsCsv(studioId: string, text: string, commit: boo
 		r.errors = r.errors.map((e) => `row ${r.row}: ${e}`);
 	}
 	const good = checked.filter((c) => c.result.errors.length === 0);
-	const report: CsvReport = { ...empty, rows, valid: good.length, invalid: rows.length - good.length };
+	const report: CsvReport = {
+		...empty,
+		rows,
+		valid: good.length,
+		invalid: rows.length - good.length
+	};
 	if (!commit || good.length === 0) {
 		return report;
 	}

@@ -6,7 +6,13 @@ import { fail, redirect } from '@sveltejs/kit';
 import { setError, superValidate, type SuperValidated } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import type { FieldIssue } from '$lib/geometry';
-import { enclosureFormSchema, enclosureToForm, formFieldFor, formToEnclosure, type EnclosureForm } from '$lib/components/catalog/schemas';
+import {
+	enclosureFormSchema,
+	enclosureToForm,
+	formFieldFor,
+	formToEnclosure,
+	type EnclosureForm
+} from '$lib/components/catalog/schemas';
 import { INT4_MAX } from '$lib/schemas/common';
 import type { StudioAccess } from '../access';
 import { controlCharField } from '../boundary';
@@ -14,16 +20,32 @@ import { createEnclosure, updateEnclosure, type EnclosureDetail } from './enclos
 
 export const enclosureAdapter = zod4(enclosureFormSchema);
 
-export type EnclosureConflict = { revision: number; message: string; theirs: EnclosureForm; savedAt: string };
+export type EnclosureConflict = {
+	revision: number;
+	message: string;
+	theirs: EnclosureForm;
+	savedAt: string;
+};
 
 export function formFor(detail: EnclosureDetail) {
-	return superValidate(enclosureToForm(detail.current.def, { revision: detail.revision, description: detail.description }), enclosureAdapter);
+	return superValidate(
+		enclosureToForm(detail.current.def, {
+			revision: detail.revision,
+			description: detail.description
+		}),
+		enclosureAdapter
+	);
 }
 
 type Form = SuperValidated<EnclosureForm>;
 
 /** Every failure has one shape, so the page reads `form.featureIssues` and `form.conflict` alike. */
-function refuse(status: number, form: Form, featureIssues: FieldIssue[] = [], conflict: EnclosureConflict | null = null) {
+function refuse(
+	status: number,
+	form: Form,
+	featureIssues: FieldIssue[] = [],
+	conflict: EnclosureConflict | null = null
+) {
 	return fail(status, { form, featureIssues, conflict });
 }
 
@@ -34,7 +56,13 @@ function placeIssues(form: Form, issues: FieldIssue[]) {
 		if (field === 'features') features.push(issue);
 		else setError(form, field, issue.message);
 	}
-	if (features.length) setError(form, 'features', `${features.length} problem${features.length === 1 ? '' : 's'} with dividers, brackets or mounts`);
+	if (features.length) {
+		setError(
+			form,
+			'features',
+			`${features.length} problem${features.length === 1 ? '' : 's'} with dividers, brackets or mounts`
+		);
+	}
 	return refuse(400, form, features);
 }
 
@@ -45,8 +73,9 @@ export async function saveEnclosureForm(request: Request, access: StudioAccess, 
 	const form = await superValidate(data, enclosureAdapter);
 	const bad = controlCharField(data);
 	if (bad) {
-		if (bad in form.data) setError(form, bad as keyof EnclosureForm, 'Contains control characters.');
-		else setError(form, '', `${bad} contains control characters.`);
+		if (bad in form.data) {
+			setError(form, bad as keyof EnclosureForm, 'Contains control characters.');
+		} else setError(form, '', `${bad} contains control characters.`);
 		return refuse(400, form);
 	}
 	if (!form.valid) return refuse(400, form);
@@ -58,11 +87,16 @@ export async function saveEnclosureForm(request: Request, access: StudioAccess, 
 	const input = { definition: raw, description: form.data.description, note: form.data.note };
 	if (!id) {
 		const made = await createEnclosure(access.studioId, access.user.id, input);
-		if (!made.ok) return made.status === 400 ? placeIssues(form, made.issues) : refuse(made.status, form);
+		if (!made.ok) {
+			return made.status === 400 ? placeIssues(form, made.issues) : refuse(made.status, form);
+		}
 		redirect(303, `/enclosures/${made.value.id}?saved=1`);
 	}
 	// "Save mine over theirs" after a conflict names the newer revision the user has now seen.
-	const revision = Number.isInteger(overwrite) && overwrite > 0 && overwrite <= INT4_MAX ? overwrite : form.data.revision;
+	const revision =
+		Number.isInteger(overwrite) && overwrite > 0 && overwrite <= INT4_MAX
+			? overwrite
+			: form.data.revision;
 	const saved = await updateEnclosure(access.studioId, id, revision, access.user.id, input);
 	if (saved.ok) redirect(303, `/enclosures/${id}?saved=${saved.created ? 'version' : '1'}`);
 	if (saved.status === 400) return placeIssues(form, saved.issues);
@@ -71,7 +105,10 @@ export async function saveEnclosureForm(request: Request, access: StudioAccess, 
 	const conflict: EnclosureConflict = {
 		revision: theirs.revision,
 		message: saved.message,
-		theirs: enclosureToForm(theirs.current.def, { revision: theirs.revision, description: theirs.description }),
+		theirs: enclosureToForm(theirs.current.def, {
+			revision: theirs.revision,
+			description: theirs.description
+		}),
 		savedAt: theirs.updatedAt.toISOString()
 	};
 	return refuse(409, form, [], conflict);

@@ -8,7 +8,13 @@ import { innerVolumeLitres, type EnclosureDef, type FieldIssue } from '$lib/geom
 import { checkEnclosure } from '$lib/components/catalog/schemas';
 import { enclosureChanges } from '$lib/components/catalog/enclosure-diff';
 import { db, type Tx } from '../db';
-import { builds, enclosures, enclosureVersions, type EnclosureRow, type EnclosureVersionRow } from '../db/schema';
+import {
+	builds,
+	enclosures,
+	enclosureVersions,
+	type EnclosureRow,
+	type EnclosureVersionRow
+} from '../db/schema';
 import { newId } from '../tokens';
 import type { WriteResult } from './parts';
 
@@ -65,7 +71,11 @@ function toVersion(row: EnclosureVersionRow): EnclosureVersion {
 
 export type EnclosureInput = { definition: unknown; description?: string; note?: string };
 
-function checkInput(input: EnclosureInput): { ok: true; def: EnclosureDef; description: string; note: string } | { ok: false; issues: FieldIssue[] } {
+function checkInput(
+	input: EnclosureInput
+):
+	| { ok: true; def: EnclosureDef; description: string; note: string }
+	| { ok: false; issues: FieldIssue[] } {
 	const checked = checkEnclosure(input.definition);
 	const description = typeof input.description === 'string' ? input.description.trim() : '';
 	const note = typeof input.note === 'string' ? input.note.trim() : '';
@@ -93,7 +103,9 @@ export async function listEnclosures(
 			and(
 				eq(enclosures.studioId, studioId),
 				opts.archived ? isNotNull(enclosures.archivedAt) : isNull(enclosures.archivedAt),
-				opts.q ? ilike(enclosures.name, `%${opts.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`) : undefined
+				opts.q
+					? ilike(enclosures.name, `%${opts.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`)
+					: undefined
 			)
 		)
 		.orderBy(asc(enclosures.name), asc(enclosures.id));
@@ -133,7 +145,11 @@ export async function createEnclosure(
 	return { ok: true, value: (await getEnclosure(studioId, id))! };
 }
 
-export async function getEnclosure(studioId: string, id: string, run: Tx | typeof db = db): Promise<EnclosureDetail | null> {
+export async function getEnclosure(
+	studioId: string,
+	id: string,
+	run: Tx | typeof db = db
+): Promise<EnclosureDetail | null> {
 	const [row] = await run
 		.select()
 		.from(enclosures)
@@ -163,7 +179,10 @@ export async function getEnclosure(studioId: string, id: string, run: Tx | typeo
 }
 
 /** One version of a studio's enclosure, as a build pins it; null for other studios' versions. */
-export async function getEnclosureVersion(studioId: string, versionId: string): Promise<EnclosureVersion | null> {
+export async function getEnclosureVersion(
+	studioId: string,
+	versionId: string
+): Promise<EnclosureVersion | null> {
 	const [row] = await db
 		.select({ v: enclosureVersions })
 		.from(enclosureVersions)
@@ -207,7 +226,12 @@ export async function updateEnclosure(
 		const [current] = await tx
 			.select()
 			.from(enclosureVersions)
-			.where(and(eq(enclosureVersions.enclosureId, id), eq(enclosureVersions.version, row.currentVersion)));
+			.where(
+				and(
+					eq(enclosureVersions.enclosureId, id),
+					eq(enclosureVersions.version, row.currentVersion)
+				)
+			);
 		const [{ used }] = await tx
 			.select({ used: sql<number>`count(*)::int` })
 			.from(builds)
@@ -223,7 +247,11 @@ export async function updateEnclosure(
 				definition: checked.def,
 				volumeLitres,
 				// Without a note of the user's, the version says what changed.
-				note: checked.note || enclosureChanges(current.definition as EnclosureDef, checked.def).join('; ').slice(0, 500),
+				note:
+					checked.note ||
+					enclosureChanges(current.definition as EnclosureDef, checked.def)
+						.join('; ')
+						.slice(0, 500),
 				createdBy: userId
 			});
 		} else {
@@ -247,11 +275,19 @@ export async function updateEnclosure(
 	});
 }
 
-async function setArchived(studioId: string, id: string, archived: boolean): Promise<EnclosureSummary | null> {
+async function setArchived(
+	studioId: string,
+	id: string,
+	archived: boolean
+): Promise<EnclosureSummary | null> {
 	return db.transaction(async (tx) => {
 		const [row] = await tx
 			.update(enclosures)
-			.set({ archivedAt: archived ? new Date() : null, revision: sql`${enclosures.revision} + 1`, updatedAt: new Date() })
+			.set({
+				archivedAt: archived ? new Date() : null,
+				revision: sql`${enclosures.revision} + 1`,
+				updatedAt: new Date()
+			})
 			.where(and(eq(enclosures.id, id), eq(enclosures.studioId, studioId)))
 			.returning();
 		return row ? toSummary(row) : null;

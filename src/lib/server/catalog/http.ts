@@ -12,9 +12,14 @@ import { PART_SORTS, type PartQuery, type PartSort, type WriteResult } from './p
 
 type Event = { locals: App.Locals; url: URL };
 
-export function catalogAccess(event: Event, action: Extract<Action, 'catalog.view' | 'catalog.edit'>) {
+export function catalogAccess(
+	event: Event,
+	action: Extract<Action, 'catalog.view' | 'catalog.edit'>
+) {
 	const chosen = event.url.searchParams.get('studio');
-	return chosen ? requireStudio(event.locals, chosen, action, event.url) : activeStudio(event.locals, action, event.url);
+	return chosen
+		? requireStudio(event.locals, chosen, action, event.url)
+		: activeStudio(event.locals, action, event.url);
 }
 
 /** 1 MB is far more than any one enclosure or part; larger bodies are refused before parsing. */
@@ -53,7 +58,12 @@ export function answer<T>(result: WriteResult<T>, okStatus = 200, key = 'value')
 
 export function revisionOf(body: Record<string, unknown>): number {
 	const r = body.revision;
-	if (typeof r !== 'number' || !Number.isInteger(r) || r < 0 || r > INT4_MAX) error(400, 'Send the revision you loaded (a whole number) so a conflicting save can be detected.');
+	if (typeof r !== 'number' || !Number.isInteger(r) || r < 0 || r > INT4_MAX) {
+		error(
+			400,
+			'Send the revision you loaded (a whole number) so a conflicting save can be detected.'
+		);
+	}
 	return r;
 }
 
@@ -73,6 +83,8 @@ export function partQueryOf(params: URLSearchParams): PartQuery {
 		dir: params.get('dir') === 'desc' ? 'desc' : 'asc',
 		// Capped so the row offset stays far inside PostgreSQL's bigint; past the last page is empty anyway.
 		page: Math.min(MAX_PAGE, Math.max(1, Math.floor(Number(params.get('page')) || 1))),
-		pageSize: [10, 25, 50, 100].includes(Number(params.get('size'))) ? Number(params.get('size')) : 25
+		pageSize: [10, 25, 50, 100].includes(Number(params.get('size')))
+			? Number(params.get('size'))
+			: 25
 	};
 }

@@ -22,7 +22,12 @@ export function partFormFor(p: PartRecord) {
 	return superValidate(partToForm(p.def, { ...p, revision: p.revision }), partAdapter);
 }
 
-function refuse(status: number, form: Form, geometryIssues: FieldIssue[] = [], conflict: PartConflict | null = null) {
+function refuse(
+	status: number,
+	form: Form,
+	geometryIssues: FieldIssue[] = [],
+	conflict: PartConflict | null = null
+) {
 	return fail(status, { form, geometryIssues, conflict });
 }
 
@@ -34,7 +39,13 @@ function placeIssues(form: Form, issues: FieldIssue[]) {
 		if (field === 'geometry' || !fields.includes(field)) geometry.push(issue);
 		else setError(form, field as keyof PartForm, issue.message);
 	}
-	if (geometry.length) setError(form, 'geometry', `${geometry.length} problem${geometry.length === 1 ? '' : 's'} with bodies, keep-outs or ports`);
+	if (geometry.length) {
+		setError(
+			form,
+			'geometry',
+			`${geometry.length} problem${geometry.length === 1 ? '' : 's'} with bodies, keep-outs or ports`
+		);
+	}
 	return refuse(400, form, geometry);
 }
 
@@ -51,15 +62,22 @@ export async function savePartForm(request: Request, access: StudioAccess, id?: 
 	if (!form.valid) return refuse(400, form);
 	const { input, errors } = formToPart(form.data);
 	if (!input) {
-		for (const [field, message] of Object.entries(errors)) setError(form, field as keyof PartForm, message);
+		for (const [field, message] of Object.entries(errors)) {
+			setError(form, field as keyof PartForm, message);
+		}
 		return refuse(400, form);
 	}
 	if (!id) {
 		const made = await createPart(access.studioId, input);
-		if (!made.ok) return made.status === 400 ? placeIssues(form, made.issues) : refuse(made.status, form);
+		if (!made.ok) {
+			return made.status === 400 ? placeIssues(form, made.issues) : refuse(made.status, form);
+		}
 		redirect(303, `/parts/${made.value.id}?saved=1`);
 	}
-	const revision = Number.isInteger(overwrite) && overwrite > 0 && overwrite <= INT4_MAX ? overwrite : form.data.revision;
+	const revision =
+		Number.isInteger(overwrite) && overwrite > 0 && overwrite <= INT4_MAX
+			? overwrite
+			: form.data.revision;
 	const saved = await updatePart(access.studioId, id, revision, input);
 	if (saved.ok) redirect(303, `/parts/${id}?saved=1`);
 	if (saved.status === 400) return placeIssues(form, saved.issues);

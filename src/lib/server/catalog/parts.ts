@@ -87,8 +87,15 @@ export function partColumns(def: PartDef, extras: PartExtras) {
 /** Rows a studio may read: its own, and the standard library. */
 const visibleTo = (studioId: string) => or(eq(parts.studioId, studioId), isNull(parts.studioId));
 
-export async function getPart(studioId: string, id: string, run: Runner = db): Promise<PartRecord | null> {
-	const [row] = await run.select().from(parts).where(and(eq(parts.id, id), visibleTo(studioId)));
+export async function getPart(
+	studioId: string,
+	id: string,
+	run: Runner = db
+): Promise<PartRecord | null> {
+	const [row] = await run
+		.select()
+		.from(parts)
+		.where(and(eq(parts.id, id), visibleTo(studioId)));
 	return row ? toPartRecord(row) : null;
 }
 
@@ -160,11 +167,19 @@ export async function updatePart(
 	return run ? work(run) : db.transaction(work);
 }
 
-async function setArchived(studioId: string, id: string, archived: boolean): Promise<PartRecord | null> {
+async function setArchived(
+	studioId: string,
+	id: string,
+	archived: boolean
+): Promise<PartRecord | null> {
 	return db.transaction(async (tx) => {
 		const [row] = await tx
 			.update(parts)
-			.set({ archivedAt: archived ? new Date() : null, revision: sql`${parts.revision} + 1`, updatedAt: new Date() })
+			.set({
+				archivedAt: archived ? new Date() : null,
+				revision: sql`${parts.revision} + 1`,
+				updatedAt: new Date()
+			})
 			.where(and(eq(parts.id, id), eq(parts.studioId, studioId)))
 			.returning();
 		return row ? toPartRecord(row) : null;
@@ -176,7 +191,11 @@ export const archivePart = (studioId: string, id: string) => setArchived(studioI
 export const restorePart = (studioId: string, id: string) => setArchived(studioId, id, false);
 
 /** How many variants of the studio's builds place this part (anywhere in their saved scene). */
-export async function partUseCount(studioId: string, id: string, run: Runner = db): Promise<number> {
+export async function partUseCount(
+	studioId: string,
+	id: string,
+	run: Runner = db
+): Promise<number> {
 	const [row] = await run
 		.select({ n: sql<number>`count(*)::int` })
 		.from(variants)
@@ -221,7 +240,10 @@ export async function deletePart(
  * A new studio part with the same geometry: a copy of one of the studio's parts, or of a
  * standard-library entry (which becomes the studio's to customise, provenance datasheet).
  */
-export async function duplicatePart(studioId: string, id: string): Promise<WriteResult<PartRecord>> {
+export async function duplicatePart(
+	studioId: string,
+	id: string
+): Promise<WriteResult<PartRecord>> {
 	return db.transaction(async (tx) => {
 		const source = await getPart(studioId, id, tx);
 		if (!source) {
@@ -240,7 +262,15 @@ export async function duplicatePart(studioId: string, id: string): Promise<Write
 	});
 }
 
-export const PART_SORTS = ['name', 'category', 'widthMm', 'heightMm', 'depthMm', 'priceMinor', 'updatedAt'] as const;
+export const PART_SORTS = [
+	'name',
+	'category',
+	'widthMm',
+	'heightMm',
+	'depthMm',
+	'priceMinor',
+	'updatedAt'
+] as const;
 export type PartSort = (typeof PART_SORTS)[number];
 
 export type PartQuery = {
@@ -272,7 +302,11 @@ function searchCondition(q: string): SQL | undefined {
 function queryConditions(studioId: string, query: PartQuery): SQL | undefined {
 	const scope = query.scope ?? 'all';
 	return and(
-		scope === 'studio' ? eq(parts.studioId, studioId) : scope === 'standard' ? isNull(parts.studioId) : visibleTo(studioId),
+		scope === 'studio'
+			? eq(parts.studioId, studioId)
+			: scope === 'standard'
+				? isNull(parts.studioId)
+				: visibleTo(studioId),
 		query.archived ? isNotNull(parts.archivedAt) : isNull(parts.archivedAt),
 		query.category ? eq(parts.category, query.category) : undefined,
 		query.q ? searchCondition(query.q) : undefined
@@ -286,7 +320,10 @@ export async function listParts(
 ): Promise<{ rows: PartRecord[]; total: number; page: number; pageSize: number }> {
 	const pageSize = Math.min(Math.max(query.pageSize ?? 25, 1), 200);
 	const where = queryConditions(studioId, query);
-	const [{ total }] = await db.select({ total: sql<number>`count(*)::int` }).from(parts).where(where);
+	const [{ total }] = await db
+		.select({ total: sql<number>`count(*)::int` })
+		.from(parts)
+		.where(where);
 	const pages = Math.max(1, Math.ceil(total / pageSize));
 	const page = Math.min(Math.max(query.page ?? 1, 1), pages);
 	const column = parts[query.sort ?? 'name'];
@@ -302,7 +339,11 @@ export async function listParts(
 }
 
 /** Every part a filter selects (for export), in the table's order, at most `limit`. */
-export async function allParts(studioId: string, query: PartQuery, limit = 10_000): Promise<PartRecord[]> {
+export async function allParts(
+	studioId: string,
+	query: PartQuery,
+	limit = 10_000
+): Promise<PartRecord[]> {
 	const column = parts[query.sort ?? 'name'];
 	const rows = await db
 		.select()
@@ -344,7 +385,10 @@ export async function listPartsForStudio(
 }
 
 /** Parts by id as a build needs them: archived and standard ones included, other studios' never. */
-export async function getPartsByIds(studioId: string, ids: readonly string[]): Promise<PartRecord[]> {
+export async function getPartsByIds(
+	studioId: string,
+	ids: readonly string[]
+): Promise<PartRecord[]> {
 	const unique = [...new Set(ids)].slice(0, 5_000);
 	if (!unique.length) {
 		return [];

@@ -11,7 +11,9 @@ import { oneBody } from '$lib/components/catalog/part-shape';
 
 const PCB_MM = BOARD_THICKNESS_MM;
 
-type Entry = Omit<PartDef, 'bodies' | 'keepouts' | 'ports' | 'provenance'> & { sizeMm: [number, number, number] };
+type Entry = Omit<PartDef, 'bodies' | 'keepouts' | 'ports' | 'provenance'> & {
+	sizeMm: [number, number, number];
+};
 
 const ENTRIES: Entry[] = [
 	{
@@ -21,7 +23,8 @@ const ENTRIES: Entry[] = [
 		sizeMm: [244, PCB_MM, 244],
 		specs: { boardFormFactor: 'microATX' },
 		toleranceMm: 0,
-		source: 'microATX Motherboard Interface Specification 1.2: at most 244 × 244 mm; 1.6 mm thickness is common practice'
+		source:
+			'microATX Motherboard Interface Specification 1.2: at most 244 × 244 mm; 1.6 mm thickness is common practice'
 	},
 	{
 		id: 'std-atx-board',
@@ -48,7 +51,8 @@ const ENTRIES: Entry[] = [
 		sizeMm: [312, 111.15, 2 * SLOT_PITCH_MM],
 		specs: { cardLengthMm: 312, cardSlots: 2 },
 		toleranceMm: 0,
-		source: 'PCI Express CEM spec: slot pitch 20.32 mm (two slots = 40.64 mm); full length 312 mm and full height 111.15 mm (from memory)'
+		source:
+			'PCI Express CEM spec: slot pitch 20.32 mm (two slots = 40.64 mm); full length 312 mm and full height 111.15 mm (from memory)'
 	},
 	{
 		id: 'std-card-triple-slot',
@@ -57,7 +61,8 @@ const ENTRIES: Entry[] = [
 		sizeMm: [312, 111.15, 3 * SLOT_PITCH_MM],
 		specs: { cardLengthMm: 312, cardSlots: 3 },
 		toleranceMm: 0,
-		source: 'PCI Express CEM spec: slot pitch 20.32 mm (three slots = 60.96 mm); full length 312 mm and full height 111.15 mm (from memory)'
+		source:
+			'PCI Express CEM spec: slot pitch 20.32 mm (three slots = 60.96 mm); full length 312 mm and full height 111.15 mm (from memory)'
 	},
 	...(
 		[
@@ -65,17 +70,15 @@ const ENTRIES: Entry[] = [
 			[280, 315, 140],
 			[360, 394, 120]
 		] as const
-	).map(
-		([cls, length, width]): Entry => ({
-			id: `std-radiator-${cls}`,
-			name: `${cls} radiator, typical size`,
-			category: 'radiator',
-			sizeMm: [width, length, 30],
-			specs: { radiatorClass: cls, radiatorThicknessMm: 30 },
-			toleranceMm: 5,
-				source: `Typical (common practice): a ${cls} class carries ${cls === 280 ? 'two 140' : cls === 360 ? 'three 120' : 'two 120'} mm fans; about ${width} × ${length} × 30 mm with end tanks`
-		})
-	)
+	).map(([cls, length, width]): Entry => ({
+		id: `std-radiator-${cls}`,
+		name: `${cls} radiator, typical size`,
+		category: 'radiator',
+		sizeMm: [width, length, 30],
+		specs: { radiatorClass: cls, radiatorThicknessMm: 30 },
+		toleranceMm: 5,
+		source: `Typical (common practice): a ${cls} class carries ${cls === 280 ? 'two 140' : cls === 360 ? 'three 120' : 'two 120'} mm fans; about ${width} × ${length} × 30 mm with end tanks`
+	}))
 ];
 
 export function standardLibrary(): PartDef[] {

@@ -64,7 +64,10 @@ export const memberships = pgTable(
 		role: roleEnum('role').notNull(),
 		createdAt: ts('created_at').notNull().defaultNow()
 	},
-	(t) => [primaryKey({ columns: [t.studioId, t.userId] }), index('membership_user_idx').on(t.userId)]
+	(t) => [
+		primaryKey({ columns: [t.studioId, t.userId] }),
+		index('membership_user_idx').on(t.userId)
+	]
 );
 
 export const invites = pgTable(
@@ -84,7 +87,10 @@ export const invites = pgTable(
 		revokedAt: ts('revoked_at'),
 		createdAt: ts('created_at').notNull().defaultNow()
 	},
-	(t) => [uniqueIndex('invite_token_key').on(t.tokenHash), index('invite_studio_idx').on(t.studioId)]
+	(t) => [
+		uniqueIndex('invite_token_key').on(t.tokenHash),
+		index('invite_studio_idx').on(t.studioId)
+	]
 );
 
 export const passwordResets = pgTable(
@@ -143,7 +149,9 @@ export const mailOutbox = pgTable(
 		createdAt: ts('created_at').notNull().defaultNow()
 	},
 	(t) => [
-		index('mail_outbox_pending_idx').on(t.notBefore).where(sql`${t.doneAt} is null`),
+		index('mail_outbox_pending_idx')
+			.on(t.notBefore)
+			.where(sql`${t.doneAt} is null`),
 		check('mail_outbox_kind', sql`${t.kind} in ('password-reset', 'sign-up')`)
 	]
 );

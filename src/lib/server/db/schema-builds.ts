@@ -1,4 +1,14 @@
-import { boolean, index, integer, jsonb, pgTable, text, timestamp, uniqueIndex, type AnyPgColumn } from 'drizzle-orm/pg-core';
+import {
+	boolean,
+	index,
+	integer,
+	jsonb,
+	pgTable,
+	text,
+	timestamp,
+	uniqueIndex,
+	type AnyPgColumn
+} from 'drizzle-orm/pg-core';
 import { studios, users } from './schema-auth';
 import { enclosureVersions } from './schema-catalog';
 
@@ -45,7 +55,10 @@ export const variants = pgTable(
 		 */
 		version: integer('version').notNull().default(1),
 		/** For a variant started from another's version ("start a new variant from it"): that version. */
-		basedOnVersionId: text('based_on_version_id').references((): AnyPgColumn => variantVersions.id, { onDelete: 'set null' }),
+		basedOnVersionId: text('based_on_version_id').references(
+			(): AnyPgColumn => variantVersions.id,
+			{ onDelete: 'set null' }
+		),
 		createdAt: ts('created_at').notNull().defaultNow(),
 		updatedAt: ts('updated_at').notNull().defaultNow()
 	},
@@ -69,7 +82,10 @@ export const variantRevisions = pgTable(
 		createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
 		createdAt: ts('created_at').notNull().defaultNow()
 	},
-	(t) => [uniqueIndex('variant_revision_key').on(t.variantId, t.revision), index('variant_revision_age_idx').on(t.variantId, t.createdAt)]
+	(t) => [
+		uniqueIndex('variant_revision_key').on(t.variantId, t.revision),
+		index('variant_revision_age_idx').on(t.variantId, t.createdAt)
+	]
 );
 
 /**

@@ -3,7 +3,17 @@
  * Money is always integer minor units (cents) beside an ISO 4217 currency code.
  */
 import { sql } from 'drizzle-orm';
-import { check, index, integer, jsonb, pgEnum, pgTable, text, timestamp, uniqueIndex } from 'drizzle-orm/pg-core';
+import {
+	check,
+	index,
+	integer,
+	jsonb,
+	pgEnum,
+	pgTable,
+	text,
+	timestamp,
+	uniqueIndex
+} from 'drizzle-orm/pg-core';
 import { studios, users } from './schema-auth';
 import { builds, variants } from './schema-builds';
 import { parts } from './schema-catalog';
@@ -97,7 +107,9 @@ export const approvals = pgTable(
 		scene: jsonb('scene').notNull(),
 		commentId: text('comment_id').references(() => comments.id, { onDelete: 'set null' }),
 		byUserId: text('by_user_id').references(() => users.id, { onDelete: 'set null' }),
-		byShareLinkId: text('by_share_link_id').references(() => shareLinks.id, { onDelete: 'set null' }),
+		byShareLinkId: text('by_share_link_id').references(() => shareLinks.id, {
+			onDelete: 'set null'
+		}),
 		byName: text('by_name').notNull(),
 		createdAt: ts('created_at').notNull().defaultNow()
 	},
@@ -142,7 +154,10 @@ export const quotes = pgTable(
 		check('quote_labour_nonnegative', sql`${t.labourMinor} >= 0`),
 		check('quote_tax_rate_range', sql`${t.taxRateBp} between 0 and 10000`),
 		check('quote_deposit_nonnegative', sql`${t.depositValue} >= 0`),
-		check('quote_deposit_percent_range', sql`${t.depositKind} <> 'percent' or ${t.depositValue} <= 10000`)
+		check(
+			'quote_deposit_percent_range',
+			sql`${t.depositKind} <> 'percent' or ${t.depositValue} <= 10000`
+		)
 	]
 );
 
@@ -164,7 +179,10 @@ export const quoteLines = pgTable(
 	(t) => [
 		index('quote_line_quote_idx').on(t.quoteId, t.sortOrder),
 		check('quote_line_quantity_range', sql`${t.quantity} between 1 and 10000`),
-		check('quote_line_price_nonnegative', sql`${t.unitPriceMinor} is null or ${t.unitPriceMinor} >= 0`)
+		check(
+			'quote_line_price_nonnegative',
+			sql`${t.unitPriceMinor} is null or ${t.unitPriceMinor} >= 0`
+		)
 	]
 );
 
@@ -173,7 +191,13 @@ export const quoteLines = pgTable(
  * replaced; duplicate: money that came in for a quote already paid, not counted and waiting for a
  * refund by hand (shown to the studio); refunded: such money sent back through the service.
  */
-export const paymentStatus = pgEnum('payment_status', ['pending', 'paid', 'expired', 'duplicate', 'refunded']);
+export const paymentStatus = pgEnum('payment_status', [
+	'pending',
+	'paid',
+	'expired',
+	'duplicate',
+	'refunded'
+]);
 
 /**
  * A deposit checkout. Becomes 'paid' once, from the signed webhook or the confirmed return. A quote
@@ -198,7 +222,9 @@ export const payments = pgTable(
 		checkoutUrl: text('checkout_url'),
 		status: paymentStatus('status').notNull().default('pending'),
 		paidAt: ts('paid_at'),
-		payerShareLinkId: text('payer_share_link_id').references(() => shareLinks.id, { onDelete: 'set null' }),
+		payerShareLinkId: text('payer_share_link_id').references(() => shareLinks.id, {
+			onDelete: 'set null'
+		}),
 		payerUserId: text('payer_user_id').references(() => users.id, { onDelete: 'set null' }),
 		/** The service's refund of a duplicate payment. */
 		refundId: text('refund_id'),

@@ -24,7 +24,10 @@ export const checklistTicks = pgTable(
 		tickedBy: text('ticked_by').references(() => users.id, { onDelete: 'set null' }),
 		tickedAt: ts('ticked_at').notNull().defaultNow()
 	},
-	(t) => [primaryKey({ columns: [t.variantId, t.itemKey] }), index('checklist_tick_build_idx').on(t.buildId)]
+	(t) => [
+		primaryKey({ columns: [t.variantId, t.itemKey] }),
+		index('checklist_tick_build_idx').on(t.buildId)
+	]
 );
 
 export type ChecklistTickRow = typeof checklistTicks.$inferSelect;

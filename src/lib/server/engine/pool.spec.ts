@@ -22,11 +22,19 @@ describe('the engine pool in development', () => {
 
 	it('an engine error in the worker comes back as a 400 naming the field', async () => {
 		const scene = sceneSchema.parse(pileSceneInput(300));
-		const refused = sweepInPool({ kind: 'sweep', scene, control: { kind: 'divider', id: 'nope' } }, 0);
-		await expect(refused).rejects.toMatchObject({ status: 400, body: { issues: [{ path: 'control.id' }] } });
+		const refused = sweepInPool(
+			{ kind: 'sweep', scene, control: { kind: 'divider', id: 'nope' } },
+			0
+		);
+		await expect(refused).rejects.toMatchObject({
+			status: 400,
+			body: { issues: [{ path: 'control.id' }] }
+		});
 	});
 
 	it('over the limits: 422 before any work', async () => {
-		await expect(checkInPool(sceneSchema.parse(pileSceneInput(4_900)), 'scene')).rejects.toMatchObject({ status: 422, body: { issues: [{ path: 'scene.placements' }] } });
+		await expect(
+			checkInPool(sceneSchema.parse(pileSceneInput(4_900)), 'scene')
+		).rejects.toMatchObject({ status: 422, body: { issues: [{ path: 'scene.placements' }] } });
 	});
 });

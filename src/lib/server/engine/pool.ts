@@ -7,7 +7,23 @@
 import { error } from '@sveltejs/kit';
 import { availableParallelism } from 'node:os';
 import { Piscina } from 'piscina';
-import { MAX_CHECK_BOXES, SceneError, checkExcess, checkScene, resolveScene, sceneBoxCount, sceneCost, sceneExcess, sweepExcess, type CostExcess, type FieldIssue, type FitReport, type Scene, type SweepGridResult, type SweepResult } from '$lib/geometry';
+import {
+	MAX_CHECK_BOXES,
+	SceneError,
+	checkExcess,
+	checkScene,
+	resolveScene,
+	sceneBoxCount,
+	sceneCost,
+	sceneExcess,
+	sweepExcess,
+	type CostExcess,
+	type FieldIssue,
+	type FitReport,
+	type Scene,
+	type SweepGridResult,
+	type SweepResult
+} from '$lib/geometry';
 // Types only: a value import would fold the worker into this chunk and change its import.meta.url.
 import type { EngineAnswer, EngineTask } from './worker';
 
@@ -27,10 +43,13 @@ async function enginePool() {
 	if (pool) return pool;
 	const worker = await import('./worker');
 	// Naming the task function here also keeps bundlers from dropping it as unused.
-	if (typeof worker.default !== 'function') throw new Error('The engine worker has no task function.');
+	if (typeof worker.default !== 'function') {
+		throw new Error('The engine worker has no task function.');
+	}
 	const workerUrl = worker.workerUrl;
 	// One worker a spare core, at least one: the request thread keeps a core for answering pages.
-	const threads = Number(process.env.ENGINE_THREADS) || Math.max(1, Math.min(4, availableParallelism() - 1));
+	const threads =
+		Number(process.env.ENGINE_THREADS) || Math.max(1, Math.min(4, availableParallelism() - 1));
 	pool ??= new Piscina<EngineTask, EngineAnswer>({
 		filename: workerUrl,
 		execArgv: workerUrl.endsWith('.ts') ? ['--import', 'tsx'] : [],
@@ -51,12 +70,23 @@ export async function closeEnginePool() {
 
 /** Ends the request with 422 naming the limit and the field; nothing was computed. */
 export function refuseCost(excess: CostExcess, prefix = ''): never {
-	const issue: FieldIssue = { path: prefix ? `${prefix}.${excess.path}` : excess.path, message: excess.message };
-	error(422, { message: excess.message, issues: [issue], limit: excess.limit, max: excess.max } as App.Error & { issues: FieldIssue[] });
+	const issue: FieldIssue = {
+		path: prefix ? `${prefix}.${excess.path}` : excess.path,
+		message: excess.message
+	};
+	error(422, {
+		message: excess.message,
+		issues: [issue],
+		limit: excess.limit,
+		max: excess.max
+	} as App.Error & { issues: FieldIssue[] });
 }
 
 /** The scene's cost limit it goes over, as a field issue for forms and saves, or null. */
-export function costIssue(scene: Scene, path = 'placements'): (FieldIssue & { excess: CostExcess }) | null {
+export function costIssue(
+	scene: Scene,
+	path = 'placements'
+): (FieldIssue & { excess: CostExcess }) | null {
 	const excess = checkExcess(scene, path);
 	return excess ? { path: excess.path, message: excess.message, excess } : null;
 }
@@ -72,7 +102,10 @@ async function run(task: EngineTask): Promise<EngineAnswer> {
 	} catch (e) {
 		const name = (e as Error)?.name;
 		if (name === 'AbortError' || name === 'TimeoutError') {
-			error(503, `The check took longer than its ${TIME_BUDGET_MS / 1000} s budget and was stopped.`);
+			error(
+				503,
+				`The check took longer than its ${TIME_BUDGET_MS / 1000} s budget and was stopped.`
+			);
 		}
 		if (/queue is at limit/i.test(String((e as Error)?.message))) {
 			error(503, 'The fit engine is busy. Try again in a moment.');
@@ -84,7 +117,10 @@ async function run(task: EngineTask): Promise<EngineAnswer> {
 function valueOf<T>(answer: EngineAnswer, prefix: string): T {
 	if (answer.ok) return answer.value as T;
 	const path = prefix ? `${prefix}.${answer.path}` : answer.path;
-	error(400, { message: answer.message, issues: [{ path, message: answer.message }] } as App.Error & { issues: FieldIssue[] });
+	error(400, {
+		message: answer.message,
+		issues: [{ path, message: answer.message }]
+	} as App.Error & { issues: FieldIssue[] });
 }
 
 /**
@@ -111,23 +147,54 @@ function inline(scene: Scene): EngineAnswer {
  */
 export async function checkInPool(scene: Scene, prefix = ''): Promise<FitReport> {
 	const boxes = sceneBoxCount(scene);
-	const cost = boxes > MAX_CHECK_BOXES ? { boxes, candidatePairs: 0, overlapPairsBound: 0 } : sceneCost(scene);
+	const cost =
+		boxes > MAX_CHECK_BOXES ? { boxes, candidatePairs: 0, overlapPairsBound: 0 } : sceneCost(scene);
 	const excess = sceneExcess(cost);
 	if (excess) refuseCost(excess, prefix);
-	if (cost.boxes <= INLINE_MAX_BOXES && cost.candidatePairs <= INLINE_MAX_PAIRS) return valueOf<FitReport>(inline(scene), prefix);
+	if (cost.boxes <= INLINE_MAX_BOXES && cost.candidatePairs <= INLINE_MAX_PAIRS) {
+		return valueOf<FitReport>(inline(scene), prefix);
+	}
 	return valueOf<FitReport>(await run({ kind: 'check', scene }), prefix);
 }
 
 /** A sweep of one control over `points` positions, refused over the limits, else in a worker. */
-export async function sweepInPool(task: Extract<EngineTask, { kind: 'sweep' }>, points: number, prefix = 'scene'): Promise<SweepResult> {
-	const excess = checkExcess(task.scene) ?? sweepExcess({ boxes: sceneBoxCount(task.scene), points, grid: false, path: task.positions ? 'positions' : 'control', rowsPerPoint: rowsPerPoint(task) });
-	if (excess) refuseCost(excess, excess.limit === 'boxes' || excess.limit === 'candidatePairs' ? prefix : '');
+export async function sweepInPool(
+	task: Extract<EngineTask, { kind: 'sweep' }>,
+	points: number,
+	prefix = 'scene'
+): Promise<SweepResult> {
+	const excess =
+		checkExcess(task.scene) ??
+		sweepExcess({
+			boxes: sceneBoxCount(task.scene),
+			points,
+			grid: false,
+			path: task.positions ? 'positions' : 'control',
+			rowsPerPoint: rowsPerPoint(task)
+		});
+	if (excess) {
+		refuseCost(excess, excess.limit === 'boxes' || excess.limit === 'candidatePairs' ? prefix : '');
+	}
 	return valueOf<SweepResult>(await run(task), '');
 }
 
 /** A grid sweep of two controls (`cells` = rows × columns), refused over the limits, else in a worker. */
-export async function gridInPool(task: Extract<EngineTask, { kind: 'grid' }>, cells: number, prefix = 'scene'): Promise<SweepGridResult> {
-	const excess = checkExcess(task.scene) ?? sweepExcess({ boxes: sceneBoxCount(task.scene), points: cells, grid: true, path: 'controlB', rowsPerPoint: rowsPerPoint(task) });
-	if (excess) refuseCost(excess, excess.limit === 'boxes' || excess.limit === 'candidatePairs' ? prefix : '');
+export async function gridInPool(
+	task: Extract<EngineTask, { kind: 'grid' }>,
+	cells: number,
+	prefix = 'scene'
+): Promise<SweepGridResult> {
+	const excess =
+		checkExcess(task.scene) ??
+		sweepExcess({
+			boxes: sceneBoxCount(task.scene),
+			points: cells,
+			grid: true,
+			path: 'controlB',
+			rowsPerPoint: rowsPerPoint(task)
+		});
+	if (excess) {
+		refuseCost(excess, excess.limit === 'boxes' || excess.limit === 'candidatePairs' ? prefix : '');
+	}
 	return valueOf<SweepGridResult>(await run(task), '');
 }

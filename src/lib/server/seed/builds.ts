@@ -36,10 +36,29 @@ export async function seedBuilds() {
 	await db
 		.insert(variants)
 		.values([
-			{ id: 'demo-variant-a', buildId: DEMO_BUILD_ID, name: 'Spine at three slots', sortOrder: 0, isProposal: true, settings },
-			{ id: 'demo-variant-b', buildId: DEMO_BUILD_ID, name: 'Spine at two slots', sortOrder: 1, isProposal: false, settings: { ...settings, dividerPositions: { ...settings.dividerPositions, spine: DEMO_SPINE_OFFSETS['2 slots'] } } }
+			{
+				id: 'demo-variant-a',
+				buildId: DEMO_BUILD_ID,
+				name: 'Spine at three slots',
+				sortOrder: 0,
+				isProposal: true,
+				settings
+			},
+			{
+				id: 'demo-variant-b',
+				buildId: DEMO_BUILD_ID,
+				name: 'Spine at two slots',
+				sortOrder: 1,
+				isProposal: false,
+				settings: {
+					...settings,
+					dividerPositions: { ...settings.dividerPositions, spine: DEMO_SPINE_OFFSETS['2 slots'] }
+				}
+			}
 		])
 		.onConflictDoNothing();
 	// Each demo variant starts at version 1 = its seeded state (idempotent: kept once made).
-	for (const v of await db.select().from(variants).where(eq(variants.buildId, DEMO_BUILD_ID))) await ensureVersion(v);
+	for (const v of await db.select().from(variants).where(eq(variants.buildId, DEMO_BUILD_ID))) {
+		await ensureVersion(v);
+	}
 }

@@ -3,7 +3,13 @@
  * enclosures and about thirty invented parts with generic names. Fixed ids keep it idempotent;
  * demo rows a user has changed are left alone, standard-library rows follow the code.
  */
-import { SLOT_PITCH_MM, innerVolumeLitres, type EnclosureDef, type PartDef, type Vec3 } from '$lib/geometry';
+import {
+	SLOT_PITCH_MM,
+	innerVolumeLitres,
+	type EnclosureDef,
+	type PartDef,
+	type Vec3
+} from '$lib/geometry';
 import { demoEnclosure, demoParts, demoTowerEnclosure } from '$lib/geometry/fixtures';
 import { categoryTemplate, oneBody } from '$lib/components/catalog/part-shape';
 import { checkEnclosure, checkPart, type PartExtras } from '$lib/components/catalog/schemas';
@@ -65,7 +71,10 @@ function demoCatalogue(): DemoPart[] {
 		},
 		{
 			...part('demo-board-matx', 'microATX board, two card slots', 'board', [244, 1.6, 244]),
-			bodies: [b('pcb', 'Board', [0, 0, 0], [244, 1.6, 244]), b('io', 'Rear connector shroud', [0, 1.6, 0], [24, 42, 170])],
+			bodies: [
+				b('pcb', 'Board', [0, 0, 0], [244, 1.6, 244]),
+				b('io', 'Rear connector shroud', [0, 1.6, 0], [24, 42, 170])
+			],
 			specs: { boardFormFactor: 'microATX', powerDrawW: 30 },
 			provenance: 'datasheet',
 			priceMinor: 16900
@@ -77,26 +86,41 @@ function demoCatalogue(): DemoPart[] {
 			toleranceMm: 0.2,
 			priceMinor: 9900
 		}),
-		part('demo-card-block', 'Graphics card with full-cover block, one slot, 268 mm', 'gpu', [268, 115, SLOT_PITCH_MM], {
-			template: true,
-			specs: { heatW: 285, powerDrawW: 300, cardLengthMm: 268, cardSlots: 1 },
-			provenance: 'measured',
-			toleranceMm: 0.5,
-			priceMinor: 79900,
-			supplierNote: 'Block fitted by the studio'
-		}),
-		part('demo-card-air', 'Air-cooled graphics card, three slots, 300 mm', 'gpu', [300, 125, 3 * SLOT_PITCH_MM], {
-			template: true,
-			specs: { heatW: 250, powerDrawW: 260, cardLengthMm: 300, cardSlots: 3 },
-			provenance: 'datasheet',
-			toleranceMm: 1
-		}),
+		part(
+			'demo-card-block',
+			'Graphics card with full-cover block, one slot, 268 mm',
+			'gpu',
+			[268, 115, SLOT_PITCH_MM],
+			{
+				template: true,
+				specs: { heatW: 285, powerDrawW: 300, cardLengthMm: 268, cardSlots: 1 },
+				provenance: 'measured',
+				toleranceMm: 0.5,
+				priceMinor: 79900,
+				supplierNote: 'Block fitted by the studio'
+			}
+		),
+		part(
+			'demo-card-air',
+			'Air-cooled graphics card, three slots, 300 mm',
+			'gpu',
+			[300, 125, 3 * SLOT_PITCH_MM],
+			{
+				template: true,
+				specs: { heatW: 250, powerDrawW: 260, cardLengthMm: 300, cardSlots: 3 },
+				provenance: 'datasheet',
+				toleranceMm: 1
+			}
+		),
 		part('demo-pump-compact', 'Compact pump with top, 62 mm square', 'pump', [62, 50, 62], {
 			template: true,
 			specs: { powerDrawW: 18 },
 			priceMinor: 9400
 		}),
-		part('demo-pump-inline', 'Inline pump, 40 mm body', 'pump', [40, 40, 95], { template: true, specs: { powerDrawW: 8 } }),
+		part('demo-pump-inline', 'Inline pump, 40 mm body', 'pump', [40, 40, 95], {
+			template: true,
+			specs: { powerDrawW: 8 }
+		}),
 		part('demo-res-tube', 'Tube reservoir, 60 × 150 mm', 'reservoir', [60, 150, 60], {
 			template: true,
 			provenance: 'measured',
@@ -162,9 +186,18 @@ function demoCatalogue(): DemoPart[] {
 			priceMinor: 700
 		}),
 		part('demo-fitting-qd', 'Quick-disconnect pair', 'fitting', [22, 62, 22], { priceMinor: 2900 }),
-		part('demo-drive-m2', 'M.2 drive with heatsink', 'drive', [22, 8, 80], { specs: { powerDrawW: 7 }, priceMinor: 11900 }),
-		part('demo-drive-25', '2.5 in drive, 7 mm', 'drive', [69.85, 7, 100], { specs: { powerDrawW: 3 }, provenance: 'datasheet', toleranceMm: 0.25 }),
-		part('demo-fan-hub', 'Fan hub, six headers', 'other', [60, 15, 40], { supplierNote: 'Stick-on pads included' }),
+		part('demo-drive-m2', 'M.2 drive with heatsink', 'drive', [22, 8, 80], {
+			specs: { powerDrawW: 7 },
+			priceMinor: 11900
+		}),
+		part('demo-drive-25', '2.5 in drive, 7 mm', 'drive', [69.85, 7, 100], {
+			specs: { powerDrawW: 3 },
+			provenance: 'datasheet',
+			toleranceMm: 0.25
+		}),
+		part('demo-fan-hub', 'Fan hub, six headers', 'other', [60, 15, 40], {
+			supplierNote: 'Stick-on pads included'
+		}),
 		part('demo-flow-sensor', 'Flow sensor, inline', 'other', [30, 25, 60], {
 			ports: [
 				{ id: 'in', position: [0, 12.5, 30], direction: '-x', thread: 'G 1/4' },
@@ -173,7 +206,13 @@ function demoCatalogue(): DemoPart[] {
 		}),
 		part('demo-riser', 'Riser cable, 200 mm', 'other', [60, 5, 200], {
 			keepouts: [
-				{ id: 'bend', label: 'Cable bend', kind: 'cable', severity: 'warning', box: { min: [0, 5, 0], max: [60, 25, 200] } }
+				{
+					id: 'bend',
+					label: 'Cable bend',
+					kind: 'cable',
+					severity: 'warning',
+					box: { min: [0, 5, 0], max: [60, 25, 200] }
+				}
 			],
 			priceMinor: 5900
 		})
@@ -194,7 +233,8 @@ export const DEMO_ENCLOSURES = [
 	{
 		id: 'demo-enc-sandwich',
 		versionId: 'demo-enc-sandwich-v1',
-		description: 'Board and supply on the CPU side, the card behind the spine, a 280 radiator behind the mesh front.',
+		description:
+			'Board and supply on the CPU side, the card behind the spine, a 280 radiator behind the mesh front.',
 		def: sandwich
 	},
 	{
@@ -208,7 +248,9 @@ export const DEMO_ENCLOSURES = [
 function mustPart(p: DemoPart, allowStandard: boolean) {
 	const checked = checkPart(p, p.id, allowStandard);
 	if (!checked.ok) {
-		throw new Error(`seed part ${p.id}: ${checked.issues.map((i) => `${i.path} ${i.message}`).join('; ')}`);
+		throw new Error(
+			`seed part ${p.id}: ${checked.issues.map((i) => `${i.path} ${i.message}`).join('; ')}`
+		);
 	}
 	return checked;
 }
@@ -216,11 +258,18 @@ function mustPart(p: DemoPart, allowStandard: boolean) {
 export async function seedStandardLibrary() {
 	for (const p of standardLibrary()) {
 		const checked = mustPart(p, true);
-		const columns = partColumns(checked.def, { priceMinor: null, currency: 'EUR', supplierNote: '' });
+		const columns = partColumns(checked.def, {
+			priceMinor: null,
+			currency: 'EUR',
+			supplierNote: ''
+		});
 		await db
 			.insert(parts)
 			.values({ id: p.id, studioId: null, isStandard: true, ...columns })
-			.onConflictDoUpdate({ target: parts.id, set: { ...columns, isStandard: true, updatedAt: new Date() } });
+			.onConflictDoUpdate({
+				target: parts.id,
+				set: { ...columns, isStandard: true, updatedAt: new Date() }
+			});
 	}
 }
 
@@ -236,13 +285,21 @@ export async function seedCatalog() {
 	for (const e of DEMO_ENCLOSURES) {
 		const checked = checkEnclosure(e.def());
 		if (!checked.ok) {
-			throw new Error(`seed enclosure ${e.id}: ${checked.issues.map((i) => `${i.path} ${i.message}`).join('; ')}`);
+			throw new Error(
+				`seed enclosure ${e.id}: ${checked.issues.map((i) => `${i.path} ${i.message}`).join('; ')}`
+			);
 		}
 		const volumeLitres = innerVolumeLitres(checked.def);
 		await db.transaction(async (tx) => {
 			const inserted = await tx
 				.insert(enclosures)
-				.values({ id: e.id, studioId: DEMO_STUDIO.id, name: checked.def.name, description: e.description, volumeLitres })
+				.values({
+					id: e.id,
+					studioId: DEMO_STUDIO.id,
+					name: checked.def.name,
+					description: e.description,
+					volumeLitres
+				})
 				.onConflictDoNothing()
 				.returning({ id: enclosures.id });
 			if (inserted.length) {

@@ -42,7 +42,10 @@ export async function lookupToken(event: RequestEvent, token: string): Promise<R
 	return resolved;
 }
 
-export function linkActor(share: Extract<ResolvedShare, { state: 'ok' }>['share'], token: string): ClientActor {
+export function linkActor(
+	share: Extract<ResolvedShare, { state: 'ok' }>['share'],
+	token: string
+): ClientActor {
 	requireLinkHolder(share.link, 'build.view');
 	return {
 		build: share.build,
@@ -51,7 +54,13 @@ export function linkActor(share: Extract<ResolvedShare, { state: 'ok' }>['share'
 		sharedBy: share.senderName,
 		linkCreatedBy: share.link.createdBy,
 		viewer: { kind: 'link', scopeKey: share.link.tokenHash, mayPay: true },
-		author: { userId: null, shareLinkId: share.link.id, side: 'client', defaultName: share.link.recipientName, fixedName: false },
+		author: {
+			userId: null,
+			shareLinkId: share.link.id,
+			side: 'client',
+			defaultName: share.link.recipientName,
+			fixedName: false
+		},
 		may: { comment: true, approve: true, pay: true },
 		customerEmail: share.link.recipientEmail,
 		pagePath: `/s/${token}`,
@@ -71,9 +80,18 @@ export async function requireLinkActor(event: RequestEvent, token: string): Prom
 export async function memberActor(event: RequestEvent, variantId: string): Promise<ClientActor> {
 	requireUser(event.locals, event.url);
 	if (!/^[A-Za-z0-9_-]{1,64}$/.test(variantId)) error(404, 'Not found.');
-	const [v] = await db.select({ buildId: variants.buildId }).from(variants).where(eq(variants.id, variantId));
+	const [v] = await db
+		.select({ buildId: variants.buildId })
+		.from(variants)
+		.where(eq(variants.id, variantId));
 	if (!v) error(404, 'Not found.');
-	const { build, variant, access } = await requireVariant(event.locals, v.buildId, variantId, 'build.view', event.url);
+	const { build, variant, access } = await requireVariant(
+		event.locals,
+		v.buildId,
+		variantId,
+		'build.view',
+		event.url
+	);
 	const isClient = access.role === 'client';
 	const [latest] = await db
 		.select({ createdBy: shareLinks.createdBy, senderName: users.name })
@@ -96,8 +114,18 @@ export async function memberActor(event: RequestEvent, variantId: string): Promi
 		sharedBy: latest?.senderName ?? null,
 		linkCreatedBy: latest?.createdBy ?? null,
 		viewer: { kind: 'member', scopeKey: `member:${variantId}`, mayPay: isClient },
-		author: { userId: access.user.id, shareLinkId: null, side: isClient ? 'client' : 'studio', defaultName: access.user.name, fixedName: true },
-		may: { comment: roleMay(access.role, 'build.comment'), approve: roleMay(access.role, 'build.approve'), pay: roleMay(access.role, 'build.pay') },
+		author: {
+			userId: access.user.id,
+			shareLinkId: null,
+			side: isClient ? 'client' : 'studio',
+			defaultName: access.user.name,
+			fixedName: true
+		},
+		may: {
+			comment: roleMay(access.role, 'build.comment'),
+			approve: roleMay(access.role, 'build.approve'),
+			pay: roleMay(access.role, 'build.pay')
+		},
 		customerEmail: isClient ? access.user.email : null,
 		pagePath: `/s/v/${variantId}`,
 		limitKey: access.user.id

@@ -34,7 +34,9 @@ export type ClientActor = {
 };
 
 function nameOf(actor: ClientActor, typed: string) {
-	return actor.author.fixedName ? actor.author.defaultName : typed || actor.author.defaultName || 'Client';
+	return actor.author.fixedName
+		? actor.author.defaultName
+		: typed || actor.author.defaultName || 'Client';
 }
 
 /** Where a comment lands and who wrote it, for the thread. */
@@ -45,7 +47,12 @@ function target(actor: ClientActor, version: number, typedName: string) {
 		buildId: actor.build.id,
 		variantId: actor.variant.id,
 		variantVersion: version,
-		author: { userId: actor.author.userId, shareLinkId: actor.author.shareLinkId, side: actor.author.side, name }
+		author: {
+			userId: actor.author.userId,
+			shareLinkId: actor.author.shareLinkId,
+			side: actor.author.side,
+			name
+		}
 	};
 }
 
@@ -72,7 +79,12 @@ export async function commentAction(event: RequestEvent, actor: ClientActor) {
 	if (parsed.data.part) {
 		placementId = placementIds.get(parsed.data.part) ?? null;
 		const placed = view.placed.find((p) => p.ref === parsed.data.part);
-		if (!placementId || !placed) return fail(400, { values: parsed.raw, errors: { part: 'That part is no longer in the build; reload the page.' } });
+		if (!placementId || !placed) {
+			return fail(400, {
+				values: parsed.raw,
+				errors: { part: 'That part is no longer in the build; reload the page.' }
+			});
+		}
 		partLabel = `${placed.short} (${placed.name})`;
 	}
 	const { name, ...where } = target(actor, parsed.data.version, parsed.data.name);
@@ -87,7 +99,11 @@ export async function commentAction(event: RequestEvent, actor: ClientActor) {
 			buildId: actor.build.id,
 			linkCreatedBy: actor.linkCreatedBy,
 			subject: `New comment on ${actor.build.name}`,
-			lines: [`${name} commented on ${actor.variant.name} (version ${parsed.data.version})${partLabel ? `, about ${partLabel}` : ''}:`, '', parsed.data.body]
+			lines: [
+				`${name} commented on ${actor.variant.name} (version ${parsed.data.version})${partLabel ? `, about ${partLabel}` : ''}:`,
+				'',
+				parsed.data.body
+			]
 		});
 	}
 	return { done: 'comment' as const };
@@ -106,14 +122,24 @@ export async function approveAction(event: RequestEvent, actor: ClientActor) {
 		scene: frozenScene
 	});
 	if (!result.ok && result.reason === 'changed') {
-		return fail(409, { values: parsed.raw, errors: { approve: `The studio changed the build while you were looking (now version ${result.currentVersion}). Look at the new version, then approve it.` } });
+		return fail(409, {
+			values: parsed.raw,
+			errors: {
+				approve: `The studio changed the build while you were looking (now version ${result.currentVersion}). Look at the new version, then approve it.`
+			}
+		});
 	}
 	if (!result.ok) return { done: 'approved' as const };
 	await safeNotify({
 		buildId: actor.build.id,
 		linkCreatedBy: actor.linkCreatedBy,
 		subject: `Approved: ${actor.build.name}`,
-		lines: [`${name} approved ${actor.variant.name}, version ${parsed.data.version}.`, ...(parsed.data.message ? ['', parsed.data.message] : []), '', 'The variant is now read-only in the editor. To change it, start a new variant from it (or wait until the client asks for changes).']
+		lines: [
+			`${name} approved ${actor.variant.name}, version ${parsed.data.version}.`,
+			...(parsed.data.message ? ['', parsed.data.message] : []),
+			'',
+			'The variant is now read-only in the editor. To change it, start a new variant from it (or wait until the client asks for changes).'
+		]
 	});
 	return { done: 'approved' as const };
 }
@@ -129,7 +155,13 @@ export async function changesAction(event: RequestEvent, actor: ClientActor) {
 		buildId: actor.build.id,
 		linkCreatedBy: actor.linkCreatedBy,
 		subject: `Changes asked for: ${actor.build.name}`,
-		lines: [`${name} asked for changes to ${actor.variant.name} (version ${parsed.data.version}):`, '', parsed.data.message, '', 'If the variant was approved, it is open for changes again.']
+		lines: [
+			`${name} asked for changes to ${actor.variant.name} (version ${parsed.data.version}):`,
+			'',
+			parsed.data.message,
+			'',
+			'If the variant was approved, it is open for changes again.'
+		]
 	});
 	return { done: 'changes' as const };
 }
@@ -151,15 +183,23 @@ export async function payAction(event: RequestEvent, actor: ClientActor) {
 	if (!actor.may.pay) error(403, 'Only the client can pay the deposit.');
 	await enforce(event, 'checkout', limits.comment, actor.limitKey);
 	const { view } = await clientView(actor);
-	if (!view.deposit.canPay || !view.quote) return fail(409, { errors: { pay: view.deposit.reason ?? 'The deposit is already paid.' }, values: {} });
+	if (!view.deposit.canPay || !view.quote) {
+		return fail(409, {
+			errors: { pay: view.deposit.reason ?? 'The deposit is already paid.' },
+			values: {}
+		});
+	}
 	const quote = await quoteOfVariant(actor.variant.id);
-	if (!quote) return fail(409, { errors: { pay: 'The studio has not sent a quote yet.' }, values: {} });
+	if (!quote) {
+		return fail(409, { errors: { pay: 'The studio has not sent a quote yet.' }, values: {} });
+	}
 	// One checkout per quote, however many posts arrive at once (see payments.ts).
 	const outcome = await startCheckout({
 		quoteId: quote.quote.id,
 		buildId: actor.build.id,
 		variantId: actor.variant.id,
-		describe: (amountMinor, currency) => `Deposit for ${actor.build.name} (${formatMoney(amountMinor, currency)})`,
+		describe: (amountMinor, currency) =>
+			`Deposit for ${actor.build.name} (${formatMoney(amountMinor, currency)})`,
 		customerEmail: actor.customerEmail,
 		payerShareLinkId: actor.author.shareLinkId,
 		payerUserId: actor.author.userId,
@@ -171,7 +211,13 @@ export async function payAction(event: RequestEvent, actor: ClientActor) {
 		return fail(409, { errors: { pay: outcome.refused }, values: {} });
 	}
 	const url = outcome.url;
-	event.cookies.set(RETURN_COOKIE, actor.pagePath, { path: '/s', httpOnly: true, sameSite: 'lax', secure: event.url.protocol === 'https:', maxAge: 60 * 60 * 24 });
+	event.cookies.set(RETURN_COOKIE, actor.pagePath, {
+		path: '/s',
+		httpOnly: true,
+		sameSite: 'lax',
+		secure: event.url.protocol === 'https:',
+		maxAge: 60 * 60 * 24
+	});
 	// Not a redirect: the page's form-action policy allows only our own origin, so the browser is
 	// sent on by the page itself (or, without JavaScript, follows the link it shows).
 	return { checkoutUrl: url };

@@ -28,7 +28,9 @@ describe('token guessing', () => {
 	it('using a good link many times is never slowed down', async () => {
 		const s = await sharedDemo();
 		const reader = app.client({ address: randomLoopback() });
-		for (let i = 0; i < limits.shareToken.max + 5; i++) expect((await reader.get(`/s/${s.token}`)).status).toBe(200);
+		for (let i = 0; i < limits.shareToken.max + 5; i++) {
+			expect((await reader.get(`/s/${s.token}`)).status).toBe(200);
+		}
 	});
 });
 
@@ -37,10 +39,18 @@ describe('comment flooding', () => {
 		const s = await sharedDemo();
 		const c = app.client({ address: randomLoopback() });
 		for (let i = 0; i < limits.comment.max; i++) {
-			const r = await c.action(`/s/${s.token}?/comment`, { body: `Question ${i}`, part: '', version: 1 });
+			const r = await c.action(`/s/${s.token}?/comment`, {
+				body: `Question ${i}`,
+				part: '',
+				version: 1
+			});
 			expect(r.type).toBe('success');
 		}
-		const over = await c.postForm(`/s/${s.token}?/comment`, { body: 'One too many', part: '', version: 1 });
+		const over = await c.postForm(`/s/${s.token}?/comment`, {
+			body: 'One too many',
+			part: '',
+			version: 1
+		});
 		expect(over.status).toBe(429);
 		expect(await db.$count(comments, eq(comments.variantId, s.variantId))).toBe(limits.comment.max);
 	});
@@ -53,7 +63,9 @@ describe('comment flooding', () => {
 		['pinned to something not a part', { body: 'Which one?', part: '../x', version: 1 }, 'part']
 	])('refuses a comment that is %s', async (_label, form, field) => {
 		const s = await sharedDemo();
-		const r = await app.client({ address: randomLoopback() }).action(`/s/${s.token}?/comment`, form);
+		const r = await app
+			.client({ address: randomLoopback() })
+			.action(`/s/${s.token}?/comment`, form);
 		expect(r.type).toBe('failure');
 		expect(r.status).toBe(400);
 		expect(r.data.errors[field]).toBeTruthy();

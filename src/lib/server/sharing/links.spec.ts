@@ -6,7 +6,14 @@ import { closeDb, db } from '../db';
 import { shareLinks } from '../db/schema';
 import { hashToken, newToken } from '../tokens';
 import { testDatabaseUrl } from '../testing/env';
-import { createShareLink, linksOfBuild, looksLikeToken, recordOpened, resolveShareToken, revokeShareLink } from './links';
+import {
+	createShareLink,
+	linksOfBuild,
+	looksLikeToken,
+	recordOpened,
+	resolveShareToken,
+	revokeShareLink
+} from './links';
 import { sharedDemo } from './test-factory';
 
 testDatabaseUrl();
@@ -14,7 +21,9 @@ afterAll(closeDb);
 
 describe('token hashing', () => {
 	it('hashes with SHA-256 (FIPS 180-4 test vector for "abc")', () => {
-		expect(hashToken('abc')).toBe('ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad');
+		expect(hashToken('abc')).toBe(
+			'ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad'
+		);
 	});
 
 	it('makes tokens of 256 random bits (43 base64url characters), all different', () => {
@@ -67,7 +76,13 @@ describe('revocation and expiry', () => {
 	it('works until its expiry, and not from that instant on', async () => {
 		const s = await sharedDemo();
 		const expiresAt = new Date(Date.now() + 60_000);
-		const { token } = await createShareLink({ studioId: s.studio.id, buildId: s.buildId, variantId: s.variantId, createdBy: s.designer.id, expiresAt });
+		const { token } = await createShareLink({
+			studioId: s.studio.id,
+			buildId: s.buildId,
+			variantId: s.variantId,
+			createdBy: s.designer.id,
+			expiresAt
+		});
 		expect((await resolveShareToken(token, new Date(expiresAt.getTime() - 1))).state).toBe('ok');
 		const at = await resolveShareToken(token, expiresAt);
 		expect(at.state).toBe('expired');
@@ -76,7 +91,13 @@ describe('revocation and expiry', () => {
 
 	it('lists each link with its state, recipient and when it was last opened', async () => {
 		const s = await sharedDemo();
-		const other = await createShareLink({ studioId: s.studio.id, buildId: s.buildId, variantId: s.variantId, createdBy: s.designer.id, expiresAt: new Date(Date.now() - 1000) });
+		const other = await createShareLink({
+			studioId: s.studio.id,
+			buildId: s.buildId,
+			variantId: s.variantId,
+			createdBy: s.designer.id,
+			expiresAt: new Date(Date.now() - 1000)
+		});
 		await recordOpened(s.link.id);
 		await recordOpened(s.link.id);
 		const list = await linksOfBuild(s.buildId);

@@ -30,7 +30,9 @@ export type CreateShareInput = {
 };
 
 /** Creates a link and returns the token once; the database keeps only its hash. */
-export async function createShareLink(input: CreateShareInput): Promise<{ link: ShareLinkRow; token: string }> {
+export async function createShareLink(
+	input: CreateShareInput
+): Promise<{ link: ShareLinkRow; token: string }> {
 	const token = newToken();
 	const [row] = await db
 		.insert(shareLinks)
@@ -49,7 +51,16 @@ export async function createShareLink(input: CreateShareInput): Promise<{ link: 
 	return { link: row, token };
 }
 
-export async function sendShareMail(input: { linkId: string; token: string; to: string; recipientName: string; senderName: string; studioName: string; buildName: string; message: string }) {
+export async function sendShareMail(input: {
+	linkId: string;
+	token: string;
+	to: string;
+	recipientName: string;
+	senderName: string;
+	studioName: string;
+	buildName: string;
+	message: string;
+}) {
 	const greeting = input.recipientName ? `Hello ${input.recipientName},` : 'Hello,';
 	const text = [
 		greeting,
@@ -76,13 +87,23 @@ export type ShareContext = {
 	senderName: string | null;
 };
 
-export type ResolvedShare = { state: 'ok'; share: ShareContext } | { state: 'revoked'; studioName: string } | { state: 'expired'; studioName: string; expiredAt: Date } | { state: 'missing' };
+export type ResolvedShare =
+	| { state: 'ok'; share: ShareContext }
+	| { state: 'revoked'; studioName: string }
+	| { state: 'expired'; studioName: string; expiredAt: Date }
+	| { state: 'missing' };
 
 /** What a token in a URL stands for. Never throws for a bad token: it is simply missing. */
 export async function resolveShareToken(token: string, now = new Date()): Promise<ResolvedShare> {
 	if (!looksLikeToken(token)) return { state: 'missing' };
 	const [row] = await db
-		.select({ link: shareLinks, build: builds, variant: variants, studioName: studios.name, senderName: users.name })
+		.select({
+			link: shareLinks,
+			build: builds,
+			variant: variants,
+			studioName: studios.name,
+			senderName: users.name
+		})
 		.from(shareLinks)
 		.innerJoin(builds, eq(builds.id, shareLinks.buildId))
 		.innerJoin(variants, eq(variants.id, shareLinks.variantId))
@@ -91,7 +112,9 @@ export async function resolveShareToken(token: string, now = new Date()): Promis
 		.where(eq(shareLinks.tokenHash, hashToken(token)));
 	if (!row) return { state: 'missing' };
 	if (row.link.revokedAt) return { state: 'revoked', studioName: row.studioName };
-	if (row.link.expiresAt && row.link.expiresAt.getTime() <= now.getTime()) return { state: 'expired', studioName: row.studioName, expiredAt: row.link.expiresAt };
+	if (row.link.expiresAt && row.link.expiresAt.getTime() <= now.getTime()) {
+		return { state: 'expired', studioName: row.studioName, expiredAt: row.link.expiresAt };
+	}
 	if (row.build.archivedAt) return { state: 'revoked', studioName: row.studioName };
 	return { state: 'ok', share: row };
 }
@@ -109,7 +132,13 @@ export async function revokeShareLink(buildId: string, linkId: string): Promise<
 	const rows = await db
 		.update(shareLinks)
 		.set({ revokedAt: new Date() })
-		.where(and(eq(shareLinks.id, linkId), eq(shareLinks.buildId, buildId), sql`${shareLinks.revokedAt} is null`))
+		.where(
+			and(
+				eq(shareLinks.id, linkId),
+				eq(shareLinks.buildId, buildId),
+				sql`${shareLinks.revokedAt} is null`
+			)
+		)
 		.returning({ id: shareLinks.id });
 	return rows.length > 0;
 }

@@ -9,14 +9,22 @@ import { link, sendMail } from '../mail';
  * Who hears about a client's action: the designer who sent the link, else whoever made the build,
  * else the studio's owners. Only people still in the studio as owner or designer.
  */
-export async function studioRecipients(buildId: string, linkCreatedBy: string | null): Promise<string[]> {
+export async function studioRecipients(
+	buildId: string,
+	linkCreatedBy: string | null
+): Promise<string[]> {
 	const [build] = await db.select().from(builds).where(eq(builds.id, buildId));
 	if (!build) return [];
 	const staff = await db
 		.select({ id: users.id, email: users.email, role: memberships.role })
 		.from(memberships)
 		.innerJoin(users, eq(users.id, memberships.userId))
-		.where(and(eq(memberships.studioId, build.studioId), inArray(memberships.role, ['owner', 'designer'])));
+		.where(
+			and(
+				eq(memberships.studioId, build.studioId),
+				inArray(memberships.role, ['owner', 'designer'])
+			)
+		);
 	for (const candidate of [linkCreatedBy, build.createdBy]) {
 		const hit = candidate && staff.find((s) => s.id === candidate);
 		if (hit) return [hit.email];
@@ -24,28 +32,58 @@ export async function studioRecipients(buildId: string, linkCreatedBy: string | 
 	return staff.filter((s) => s.role === 'owner').map((s) => s.email);
 }
 
-export async function notifyStudio(input: { buildId: string; linkCreatedBy: string | null; subject: string; lines: string[] }) {
+export async function notifyStudio(input: {
+	buildId: string;
+	linkCreatedBy: string | null;
+	subject: string;
+	lines: string[];
+}) {
 	const to = await studioRecipients(input.buildId, input.linkCreatedBy);
-	const text = [...input.lines, '', `Open the build: ${link(`/builds/${input.buildId}/share`)}`].join('\n');
+	const text = [
+		...input.lines,
+		'',
+		`Open the build: ${link(`/builds/${input.buildId}/share`)}`
+	].join('\n');
 	for (const address of to) await sendMail({ to: address, subject: input.subject, text });
 }
 
 /** A short reply notice to the client. The link itself is not stored, so the mail points them back to the one they have. */
-export async function notifyClient(input: { to: string; studioName: string; buildName: string; authorName: string; body: string }) {
+export async function notifyClient(input: {
+	to: string;
+	studioName: string;
+	buildName: string;
+	authorName: string;
+	body: string;
+}) {
 	await sendMail({
 		to: input.to,
 		subject: `${input.studioName} replied about ${input.buildName}`,
-		text: [`${input.authorName} wrote:`, '', input.body, '', 'Open the preview link the studio sent you to answer.'].join('\n')
+		text: [
+			`${input.authorName} wrote:`,
+			'',
+			input.body,
+			'',
+			'Open the preview link the studio sent you to answer.'
+		].join('\n')
 	});
 }
 
 /** The studio hears once per deposit: called only by whichever path actually marked it paid. */
-export async function notifyDepositPaid(payment: { buildId: string; amountMinor: number; currency: string; paidAt: Date | null; payerShareLinkId: string | null }) {
+export async function notifyDepositPaid(payment: {
+	buildId: string;
+	amountMinor: number;
+	currency: string;
+	paidAt: Date | null;
+	payerShareLinkId: string | null;
+}) {
 	const [build] = await db.select().from(builds).where(eq(builds.id, payment.buildId));
 	if (!build) return;
 	let linkCreatedBy: string | null = null;
 	if (payment.payerShareLinkId) {
-		const [l] = await db.select({ createdBy: shareLinks.createdBy }).from(shareLinks).where(eq(shareLinks.id, payment.payerShareLinkId));
+		const [l] = await db
+			.select({ createdBy: shareLinks.createdBy })
+			.from(shareLinks)
+			.where(eq(shareLinks.id, payment.payerShareLinkId));
 		linkCreatedBy = l?.createdBy ?? null;
 	}
 	try {
@@ -53,7 +91,9 @@ export async function notifyDepositPaid(payment: { buildId: string; amountMinor:
 			buildId: build.id,
 			linkCreatedBy,
 			subject: `Deposit paid: ${build.name}`,
-			lines: [`The client paid the deposit of ${formatMoney(payment.amountMinor, payment.currency)} for ${build.name}${payment.paidAt ? ` on ${payment.paidAt.toISOString().replace('T', ' ').slice(0, 16)} UTC` : ''}.`]
+			lines: [
+				`The client paid the deposit of ${formatMoney(payment.amountMinor, payment.currency)} for ${build.name}${payment.paidAt ? ` on ${payment.paidAt.toISOString().replace('T', ' ').slice(0, 16)} UTC` : ''}.`
+			]
 		});
 	} catch (e) {
 		console.error('mail: could not tell the studio about a deposit', e);
@@ -64,12 +104,24 @@ export async function notifyDepositPaid(payment: { buildId: string; amountMinor:
  * Money that came in for a deposit already paid (see payments.ts): never counted; refunded through
  * the service, or, when that failed, left for the studio to refund by hand.
  */
-export async function notifyPaidTwice(payment: { buildId: string; variantId: string; amountMinor: number; currency: string; payerShareLinkId: string | null }, refunded: boolean) {
+export async function notifyPaidTwice(
+	payment: {
+		buildId: string;
+		variantId: string;
+		amountMinor: number;
+		currency: string;
+		payerShareLinkId: string | null;
+	},
+	refunded: boolean
+) {
 	const [build] = await db.select().from(builds).where(eq(builds.id, payment.buildId));
 	if (!build) return;
 	let linkCreatedBy: string | null = null;
 	if (payment.payerShareLinkId) {
-		const [l] = await db.select({ createdBy: shareLinks.createdBy }).from(shareLinks).where(eq(shareLinks.id, payment.payerShareLinkId));
+		const [l] = await db
+			.select({ createdBy: shareLinks.createdBy })
+			.from(shareLinks)
+			.where(eq(shareLinks.id, payment.payerShareLinkId));
 		linkCreatedBy = l?.createdBy ?? null;
 	}
 	const amount = formatMoney(payment.amountMinor, payment.currency);

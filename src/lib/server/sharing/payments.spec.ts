@@ -21,12 +21,21 @@ const sdk = new Stripe('sk_test_unused');
 
 beforeAll(async () => {
 	const health = await fetch(`${fake}/health`).catch(() => null);
-	if (!health?.ok) throw new Error(`The payment fake is not running on ${fake} (scripts/lib.sh ensure_payments_fake).`);
+	if (!health?.ok) {
+		throw new Error(
+			`The payment fake is not running on ${fake} (scripts/lib.sh ensure_payments_fake).`
+		);
+	}
 });
 
 /** The variant's quote sent to the client as the catalogue prices it (30 % deposit, no tax, no labour). */
 async function sendDemoQuote(s: Awaited<ReturnType<typeof sharedDemo>>) {
-	const q = await ensureQuote({ studioId: s.studio.id, buildId: s.buildId, variantId: s.variantId, settings: s.settings });
+	const q = await ensureQuote({
+		studioId: s.studio.id,
+		buildId: s.buildId,
+		variantId: s.variantId,
+		settings: s.settings
+	});
 	await sendQuote(q.quote.id);
 	return q;
 }
@@ -51,7 +60,8 @@ async function paymentOf(sessionId: string) {
 	return p;
 }
 
-const signed = (payload: string, secret = config.payments.webhookSecret) => sdk.webhooks.generateTestHeaderString({ payload, secret });
+const signed = (payload: string, secret = config.payments.webhookSecret) =>
+	sdk.webhooks.generateTestHeaderString({ payload, secret });
 
 function completedEvent(id: string, session: { id: string; amount: number; currency?: string }) {
 	return JSON.stringify({
@@ -60,12 +70,27 @@ function completedEvent(id: string, session: { id: string; amount: number; curre
 		type: 'checkout.session.completed',
 		created: Math.floor(Date.now() / 1000),
 		livemode: false,
-		data: { object: { id: session.id, object: 'checkout.session', amount_total: session.amount, currency: session.currency ?? 'eur', payment_status: 'paid', status: 'complete' } }
+		data: {
+			object: {
+				id: session.id,
+				object: 'checkout.session',
+				amount_total: session.amount,
+				currency: session.currency ?? 'eur',
+				payment_status: 'paid',
+				status: 'complete'
+			}
+		}
 	});
 }
 
 async function postWebhook(body: string, signature: string | null) {
-	return app.client().request('POST', '/api/payments/webhook', { body, headers: { 'content-type': 'application/json', ...(signature ? { 'stripe-signature': signature } : {}) } });
+	return app.client().request('POST', '/api/payments/webhook', {
+		body,
+		headers: {
+			'content-type': 'application/json',
+			...(signature ? { 'stripe-signature': signature } : {})
+		}
+	});
 }
 
 describe('deposit through the hosted checkout', () => {
@@ -75,11 +100,31 @@ describe('deposit through the hosted checkout', () => {
 		expect((await paymentOf(sessionId)).amountMinor).toBe(quote.totals.depositMinor);
 
 		// A declined card pays nothing.
-		const declined = await fetch(`${fake}/pay/${sessionId}`, { method: 'POST', redirect: 'manual', body: new URLSearchParams({ email: s.client.email, card: '4000 0000 0000 0002', expiry: '12/39', cvc: '123', name: 'A. Client' }) });
+		const declined = await fetch(`${fake}/pay/${sessionId}`, {
+			method: 'POST',
+			redirect: 'manual',
+			body: new URLSearchParams({
+				email: s.client.email,
+				card: '4000 0000 0000 0002',
+				expiry: '12/39',
+				cvc: '123',
+				name: 'A. Client'
+			})
+		});
 		expect(declined.status).toBe(402);
 		expect((await paymentOf(sessionId)).status).toBe('pending');
 
-		const res = await fetch(`${fake}/pay/${sessionId}`, { method: 'POST', redirect: 'manual', body: new URLSearchParams({ email: s.client.email, card: '4242 4242 4242 4242', expiry: '12/39', cvc: '123', name: 'A. Client' }) });
+		const res = await fetch(`${fake}/pay/${sessionId}`, {
+			method: 'POST',
+			redirect: 'manual',
+			body: new URLSearchParams({
+				email: s.client.email,
+				card: '4242 4242 4242 4242',
+				expiry: '12/39',
+				cvc: '123',
+				name: 'A. Client'
+			})
+		});
 		expect(res.status).toBe(303);
 		const back = new URL(res.headers.get('location')!);
 		expect(back.origin).toBe(app.baseURL);
@@ -91,16 +136,27 @@ describe('deposit through the hosted checkout', () => {
 		expect(mail.text).toContain('€311.52');
 
 		// The fake delivers the very same signed event again.
-		const deliveries = (await (await fetch(`${fake}/_fake/deliveries?session=${sessionId}`)).json()) as { eventId: string; lastStatus: number }[];
+		const deliveries = (await (
+			await fetch(`${fake}/_fake/deliveries?session=${sessionId}`)
+		).json()) as { eventId: string; lastStatus: number }[];
 		expect(deliveries).toHaveLength(1);
 		expect(deliveries[0].lastStatus).toBe(200);
-		const replay = (await (await fetch(`${fake}/_fake/deliveries/${deliveries[0].eventId}/replay`, { method: 'POST' })).json()) as { status: number };
+		const replay = (await (
+			await fetch(`${fake}/_fake/deliveries/${deliveries[0].eventId}/replay`, { method: 'POST' })
+		).json()) as { status: number };
 		expect(replay.status).toBe(200);
 		const after = await paymentOf(sessionId);
 		expect(after.paidAt?.getTime()).toBe(paid.paidAt?.getTime());
-		expect(await db.$count(payments, and(eq(payments.quoteId, quote.quote.id), eq(payments.status, 'paid')))).toBe(1);
+		expect(
+			await db.$count(
+				payments,
+				and(eq(payments.quoteId, quote.quote.id), eq(payments.status, 'paid'))
+			)
+		).toBe(1);
 		await new Promise((r) => setTimeout(r, 300));
-		expect((await listMail(s.designer.email)).filter((m) => m.subject.startsWith('Deposit paid'))).toHaveLength(1);
+		expect(
+			(await listMail(s.designer.email)).filter((m) => m.subject.startsWith('Deposit paid'))
+		).toHaveLength(1);
 
 		// Back on the client page, with the return cookie from the pay action.
 		const ret = await c.get(`${back.pathname}${back.search}`);
@@ -156,39 +212,70 @@ describe('the webhook endpoint', () => {
 		expect((await postWebhook(other, signed(other))).status).toBe(200);
 		const after = await paymentOf(sessionId);
 		expect(after.paidAt?.getTime()).toBe(paid.paidAt?.getTime());
-		expect(await db.$count(payments, and(eq(payments.quoteId, p.quoteId), eq(payments.status, 'paid')))).toBe(1);
+		expect(
+			await db.$count(payments, and(eq(payments.quoteId, p.quoteId), eq(payments.status, 'paid')))
+		).toBe(1);
 	});
 
 	it('does not mark paid when the service reports another amount or currency', async () => {
 		const { sessionId } = await checkoutStarted();
 		const p = await paymentOf(sessionId);
-		for (const [i, wrong] of [{ amount: p.amountMinor - 1 }, { amount: p.amountMinor, currency: 'usd' }].entries()) {
-			const body = completedEvent(`evt_test_wrong${i}_${sessionId.slice(-8)}`, { id: sessionId, ...wrong });
+		for (const [i, wrong] of [
+			{ amount: p.amountMinor - 1 },
+			{ amount: p.amountMinor, currency: 'usd' }
+		].entries()) {
+			const body = completedEvent(`evt_test_wrong${i}_${sessionId.slice(-8)}`, {
+				id: sessionId,
+				...wrong
+			});
 			expect((await postWebhook(body, signed(body))).status).toBe(200);
 		}
 		expect((await paymentOf(sessionId)).status).toBe('pending');
 	});
 });
 
-type FakeSession = { id: string; status: string; payment_intent: string | null; amount_total: number };
+type FakeSession = {
+	id: string;
+	status: string;
+	payment_intent: string | null;
+	amount_total: number;
+};
 type FakeRefund = { id: string; amount: number; payment_intent: string };
 
-const fakeJson = async <T>(path: string): Promise<T> => (await (await fetch(`${fake}${path}`)).json()) as T;
+const fakeJson = async <T>(path: string): Promise<T> =>
+	(await (await fetch(`${fake}${path}`)).json()) as T;
 const payAtFake = (sessionId: string, email: string) =>
-	fetch(`${fake}/pay/${sessionId}`, { method: 'POST', redirect: 'manual', body: new URLSearchParams({ email, card: '4242 4242 4242 4242', expiry: '12/39', cvc: '123', name: 'A. Client' }) });
-const paymentsOfQuote = (quoteId: string) => db.select().from(payments).where(eq(payments.quoteId, quoteId));
+	fetch(`${fake}/pay/${sessionId}`, {
+		method: 'POST',
+		redirect: 'manual',
+		body: new URLSearchParams({
+			email,
+			card: '4242 4242 4242 4242',
+			expiry: '12/39',
+			cvc: '123',
+			name: 'A. Client'
+		})
+	});
+const paymentsOfQuote = (quoteId: string) =>
+	db.select().from(payments).where(eq(payments.quoteId, quoteId));
 
 describe('one deposit per quote', () => {
 	it('20 simultaneous "pay" posts open one checkout: one session at the service, one payment row, one link for all', async () => {
 		const s = await sharedDemo();
 		const quote = await sendDemoQuote(s);
 		const c = app.client();
-		expect((await c.action(`/s/${s.token}?/approve`, { version: 1, message: 'Go ahead.' })).type).toBe('success');
-		const posts = await Promise.all(Array.from({ length: 20 }, () => c.action(`/s/${s.token}?/pay`, {})));
+		expect(
+			(await c.action(`/s/${s.token}?/approve`, { version: 1, message: 'Go ahead.' })).type
+		).toBe('success');
+		const posts = await Promise.all(
+			Array.from({ length: 20 }, () => c.action(`/s/${s.token}?/pay`, {}))
+		);
 		expect(posts.map((p) => p.type)).toEqual(Array(20).fill('success'));
 		const urls = new Set(posts.map((p) => p.data.checkoutUrl as string));
 		expect(urls.size).toBe(1);
-		expect(await fakeJson<FakeSession[]>(`/_fake/sessions?quote=${quote.quote.id}`)).toHaveLength(1);
+		expect(await fakeJson<FakeSession[]>(`/_fake/sessions?quote=${quote.quote.id}`)).toHaveLength(
+			1
+		);
 		const rows = await paymentsOfQuote(quote.quote.id);
 		expect(rows).toHaveLength(1);
 		expect(rows[0]).toMatchObject({ status: 'pending', checkoutUrl: [...urls][0] });
@@ -197,24 +284,34 @@ describe('one deposit per quote', () => {
 	it('the database refuses a second open payment for a quote (payment_quote_open_key)', async () => {
 		const { quote } = await checkoutStarted();
 		const [p] = await paymentsOfQuote(quote.quote.id);
-		const second = db.insert(payments).values({ ...p, id: `${p.id}x`, checkoutSessionId: null, checkoutUrl: null });
+		const second = db
+			.insert(payments)
+			.values({ ...p, id: `${p.id}x`, checkoutSessionId: null, checkoutUrl: null });
 		await expect(second).rejects.toThrow();
 		expect(await paymentsOfQuote(quote.quote.id)).toHaveLength(1);
 	});
 
 	it('a changed deposit closes the old checkout at the service before opening the new one', async () => {
 		const { s, quote, c, sessionId } = await checkoutStarted();
-		await db.update(quotes).set({ depositKind: 'amount', depositValue: 10_000 }).where(eq(quotes.id, quote.quote.id));
+		await db
+			.update(quotes)
+			.set({ depositKind: 'amount', depositValue: 10_000 })
+			.where(eq(quotes.id, quote.quote.id));
 		const again = await c.action(`/s/${s.token}?/pay`, {});
 		expect(again.type).toBe('success');
 		expect(again.data.checkoutUrl).not.toContain(sessionId);
 		const sessions = await fakeJson<FakeSession[]>(`/_fake/sessions?quote=${quote.quote.id}`);
-		expect(sessions.map((x) => [x.id === sessionId ? 'old' : 'new', x.status, x.amount_total]).sort()).toEqual([
+		expect(
+			sessions.map((x) => [x.id === sessionId ? 'old' : 'new', x.status, x.amount_total]).sort()
+		).toEqual([
 			['new', 'open', 10_000],
 			['old', 'expired', quote.totals.depositMinor]
 		]);
 		expect((await payAtFake(sessionId, s.client.email)).status).toBe(410);
-		expect((await paymentsOfQuote(quote.quote.id)).map((p) => p.status).sort()).toEqual(['expired', 'pending']);
+		expect((await paymentsOfQuote(quote.quote.id)).map((p) => p.status).sort()).toEqual([
+			'expired',
+			'pending'
+		]);
 	});
 
 	it('two paid checkouts for one quote: the first counts, the second is refunded through the service and never counted', async () => {
@@ -235,8 +332,12 @@ describe('one deposit per quote', () => {
 		expect(rows.filter((p) => p.status === 'paid').map((p) => p.checkoutSessionId)).toEqual([b]);
 		const dup = rows.find((p) => p.checkoutSessionId === a)!;
 		expect(dup.status).toBe('refunded');
-		const sessionA = (await fakeJson<FakeSession[]>(`/_fake/sessions?quote=${quote.quote.id}`)).find((x) => x.id === a)!;
-		const refunds = await fakeJson<FakeRefund[]>(`/_fake/refunds?payment_intent=${sessionA.payment_intent}`);
+		const sessionA = (
+			await fakeJson<FakeSession[]>(`/_fake/sessions?quote=${quote.quote.id}`)
+		).find((x) => x.id === a)!;
+		const refunds = await fakeJson<FakeRefund[]>(
+			`/_fake/refunds?payment_intent=${sessionA.payment_intent}`
+		);
 		expect(refunds).toHaveLength(1);
 		expect(refunds[0]).toMatchObject({ id: dup.refundId, amount: dup.amountMinor });
 
@@ -245,8 +346,12 @@ describe('one deposit per quote', () => {
 		expect(ret.status).toBe(303);
 		await waitForMail(s.designer.email, { subject: 'Deposit paid' });
 		await new Promise((r) => setTimeout(r, 300));
-		expect((await listMail(s.designer.email)).filter((m) => m.subject.startsWith('Deposit paid'))).toHaveLength(1);
-		const page = await app.client({ session: s.designer.session }).get(`/builds/${s.buildId}/quote/${s.variantId}`);
+		expect(
+			(await listMail(s.designer.email)).filter((m) => m.subject.startsWith('Deposit paid'))
+		).toHaveLength(1);
+		const page = await app
+			.client({ session: s.designer.session })
+			.get(`/builds/${s.buildId}/quote/${s.variantId}`);
 		expect(page.text).toContain('not counted and refunded');
 		const told = await waitForMail(s.designer.email, { subject: 'Paid twice' });
 		expect(told.text).toContain('It was refunded through the payment service');
@@ -259,14 +364,19 @@ describe('one deposit per quote', () => {
 		const b = (again.data.checkoutUrl as string).split('/').pop()!;
 		expect((await payAtFake(b, s.client.email)).status).toBe(303);
 		// A correctly signed event for A without a payment to refund (payment_intent null).
-		const body = completedEvent(`evt_test_noref_${a.slice(-8)}`, { id: a, amount: quote.totals.depositMinor });
+		const body = completedEvent(`evt_test_noref_${a.slice(-8)}`, {
+			id: a,
+			amount: quote.totals.depositMinor
+		});
 		expect((await postWebhook(body, signed(body))).status).toBe(200);
 		const rows = await paymentsOfQuote(quote.quote.id);
 		expect(rows.map((p) => [p.checkoutSessionId === a ? 'a' : 'b', p.status]).sort()).toEqual([
 			['a', 'duplicate'],
 			['b', 'paid']
 		]);
-		const page = await app.client({ session: s.designer.session }).get(`/builds/${s.buildId}/quote/${s.variantId}`);
+		const page = await app
+			.client({ session: s.designer.session })
+			.get(`/builds/${s.buildId}/quote/${s.variantId}`);
 		expect(page.text).toContain('the automatic refund failed, refund it with the payment service');
 		const told = await waitForMail(s.designer.email, { subject: 'Paid twice' });
 		expect(told.text).toContain('The automatic refund failed: refund it with the payment service.');
@@ -279,19 +389,40 @@ describe('malformed signed webhook events', () => {
 		['[]', '[]'],
 		['null', 'null'],
 		['a number', '42'],
-		['a session without amounts', JSON.stringify({ id: 'evt_test_shape1', type: 'checkout.session.completed', data: { object: { id: 'cs_test_shape1' } } })],
-		['an id with a NUL byte', JSON.stringify({ id: 'evt_\u0000x', type: 'checkout.session.expired', data: { object: { id: 'cs_test_x' } } })]
+		[
+			'a session without amounts',
+			JSON.stringify({
+				id: 'evt_test_shape1',
+				type: 'checkout.session.completed',
+				data: { object: { id: 'cs_test_shape1' } }
+			})
+		],
+		[
+			'an id with a NUL byte',
+			JSON.stringify({
+				id: 'evt_\u0000x',
+				type: 'checkout.session.expired',
+				data: { object: { id: 'cs_test_x' } }
+			})
+		]
 	])('%s → 400, logged, nothing stored', async (_label, body) => {
 		const before = await db.$count(paymentEvents);
 		const res = await postWebhook(body, signed(body));
 		expect(res.status, res.text).toBe(400);
-		expect(res.json()).toMatchObject({ message: expect.stringMatching(/^The event is malformed at /) });
+		expect(res.json()).toMatchObject({
+			message: expect.stringMatching(/^The event is malformed at /)
+		});
 		expect(await db.$count(paymentEvents)).toBe(before);
 		expect(app.app.output()).toContain('payments: signed webhook refused, malformed at');
 	});
 
 	it('an event of a type this app ignores is accepted once (the service stops retrying)', async () => {
-		const body = JSON.stringify({ id: `evt_test_other_${Date.now()}`, object: 'event', type: 'customer.created', data: { object: { id: 'cus_test_1' } } });
+		const body = JSON.stringify({
+			id: `evt_test_other_${Date.now()}`,
+			object: 'event',
+			type: 'customer.created',
+			data: { object: { id: 'cus_test_1' } }
+		});
 		expect((await postWebhook(body, signed(body))).status).toBe(200);
 	});
 });

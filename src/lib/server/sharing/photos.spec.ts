@@ -32,16 +32,22 @@ function upload(bytes: Uint8Array, name: string, type: string) {
 }
 
 describe('checking an upload', () => {
-	it.each(['jpeg', 'png', 'webp'] as const)('accepts %s by its bytes and makes a WebP thumbnail', async (format) => {
-		const checked = await checkImage(await image(format));
-		expect(checked.mime).toBe(`image/${format}`);
-		expect((await fileTypeFromBuffer(checked.thumb))?.mime).toBe('image/webp');
-		expect([checked.width, checked.height]).toEqual([64, 48]);
-	});
+	it.each(['jpeg', 'png', 'webp'] as const)(
+		'accepts %s by its bytes and makes a WebP thumbnail',
+		async (format) => {
+			const checked = await checkImage(await image(format));
+			expect(checked.mime).toBe(`image/${format}`);
+			expect((await fileTypeFromBuffer(checked.thumb))?.mime).toBe('image/webp');
+			expect([checked.width, checked.height]).toEqual([64, 48]);
+		}
+	);
 
 	it.each([
 		['text', Buffer.from('just some words, not a picture at all')],
-		['GIF (not accepted)', Buffer.from('R0lGODlhAQABAIAAAAAAAP///yH5BAEAAAAALAAAAAABAAEAAAIBRAA7', 'base64')],
+		[
+			'GIF (not accepted)',
+			Buffer.from('R0lGODlhAQABAIAAAAAAAP///yH5BAEAAAAALAAAAAABAAEAAAIBRAA7', 'base64')
+		],
 		['PDF', Buffer.from('%PDF-1.4\n%âãÏÓ\n1 0 obj\n<<>>\nendobj\n')],
 		['HTML', Buffer.from('<!doctype html><script>alert(1)</script>')]
 	])('refuses %s whatever it is called', async (_label, bytes) => {
@@ -59,7 +65,9 @@ describe('checking an upload', () => {
 
 	it('drops the metadata a camera writes (EXIF) and turns the picture upright', async () => {
 		// EXIF orientation 6: stored sideways, to be shown turned 90° clockwise.
-		const withExif = await sharp(await image('jpeg', 64, 48)).withMetadata({ orientation: 6, exif: { IFD0: { Copyright: 'someone' } } }).toBuffer();
+		const withExif = await sharp(await image('jpeg', 64, 48))
+			.withMetadata({ orientation: 6, exif: { IFD0: { Copyright: 'someone' } } })
+			.toBuffer();
 		expect((await sharp(withExif).metadata()).exif).toBeDefined();
 		const checked = await checkImage(withExif);
 		const meta = await sharp(checked.display).metadata();
@@ -72,7 +80,11 @@ describe('uploading and serving', () => {
 	it('stores by its own random name, under the storage folder, whatever the upload was called', async () => {
 		const s = await sharedDemo();
 		const designer = app.client({ session: s.designer.session });
-		const res = await designer.request('POST', `/api/photos/${s.buildId}`, await multipart(upload(await image('png'), '../../../etc/passwd.jpg', 'image/jpeg')));
+		const res = await designer.request(
+			'POST',
+			`/api/photos/${s.buildId}`,
+			await multipart(upload(await image('png'), '../../../etc/passwd.jpg', 'image/jpeg'))
+		);
 		expect(res.status, res.text).toBe(201);
 		const body = res.json<{ id: string; mime: string }>();
 		expect(body.mime).toBe('image/png');
@@ -84,18 +96,34 @@ describe('uploading and serving', () => {
 	});
 
 	it.each([
-		['a text file named .jpg', 415, async () => upload(Buffer.from('not an image'), 'photo.jpg', 'image/jpeg')],
-		['an oversized file', 413, async () => upload(new Uint8Array(MAX_PHOTO_BYTES + 10), 'big.jpg', 'image/jpeg')]
+		[
+			'a text file named .jpg',
+			415,
+			async () => upload(Buffer.from('not an image'), 'photo.jpg', 'image/jpeg')
+		],
+		[
+			'an oversized file',
+			413,
+			async () => upload(new Uint8Array(MAX_PHOTO_BYTES + 10), 'big.jpg', 'image/jpeg')
+		]
 	])('answers %s with %i and stores nothing', async (_label, status, make) => {
 		const s = await sharedDemo();
-		const res = await app.client({ session: s.designer.session }).request('POST', `/api/photos/${s.buildId}`, await multipart(await make()));
+		const res = await app
+			.client({ session: s.designer.session })
+			.request('POST', `/api/photos/${s.buildId}`, await multipart(await make()));
 		expect(res.status).toBe(status);
 		expect(await db.$count(photos, eq(photos.buildId, s.buildId))).toBe(0);
 	});
 
 	it('serves photos to the studio and the link holder only; a revoked link loses them', async () => {
 		const s = await sharedDemo();
-		const up = await app.client({ session: s.designer.session }).request('POST', `/api/photos/${s.buildId}`, await multipart(upload(await image('webp'), 'x.webp', 'image/webp')));
+		const up = await app
+			.client({ session: s.designer.session })
+			.request(
+				'POST',
+				`/api/photos/${s.buildId}`,
+				await multipart(upload(await image('webp'), 'x.webp', 'image/webp'))
+			);
 		const { id } = up.json<{ id: string }>();
 		const path = `/builds/${s.buildId}/photos/${id}/thumb`;
 		expect((await app.client({ session: s.owner.session }).get(path)).status).toBe(200);
@@ -119,7 +147,13 @@ describe('uploading and serving', () => {
 	it('refuses uploads from clients and other studios', async () => {
 		const s = await sharedDemo();
 		for (const who of [s.client, s.outsider]) {
-			const res = await app.client({ session: who.session }).request('POST', `/api/photos/${s.buildId}`, await multipart(upload(await image('png'), 'a.png', 'image/png')));
+			const res = await app
+				.client({ session: who.session })
+				.request(
+					'POST',
+					`/api/photos/${s.buildId}`,
+					await multipart(upload(await image('png'), 'a.png', 'image/png'))
+				);
 			expect([403, 404]).toContain(res.status);
 		}
 		expect(await db.$count(photos, eq(photos.buildId, s.buildId))).toBe(0);
@@ -128,5 +162,12 @@ describe('uploading and serving', () => {
 
 async function multipart(form: FormData) {
 	const r = new Response(form);
-	return { body: Buffer.from(await r.arrayBuffer()), headers: { 'content-type': r.headers.get('content-type') ?? '', accept: 'application/json', origin: app.baseURL } };
+	return {
+		body: Buffer.from(await r.arrayBuffer()),
+		headers: {
+			'content-type': r.headers.get('content-type') ?? '',
+			accept: 'application/json',
+			origin: app.baseURL
+		}
+	};
 }

@@ -18,7 +18,11 @@ const DISPLAY_EDGE_PX = 2560;
 const THUMB_EDGE_PX = 480;
 export const MAX_PHOTOS_PER_BUILD = 200;
 
-const ACCEPTED: Record<string, StoredExt> = { 'image/jpeg': 'jpg', 'image/png': 'png', 'image/webp': 'webp' };
+const ACCEPTED: Record<string, StoredExt> = {
+	'image/jpeg': 'jpg',
+	'image/png': 'png',
+	'image/webp': 'webp'
+};
 
 export class PhotoRejected extends Error {
 	constructor(
@@ -29,38 +33,78 @@ export class PhotoRejected extends Error {
 	}
 }
 
-export type CheckedImage = { mime: keyof typeof ACCEPTED; ext: StoredExt; display: Buffer; thumb: Buffer; width: number; height: number };
+export type CheckedImage = {
+	mime: keyof typeof ACCEPTED;
+	ext: StoredExt;
+	display: Buffer;
+	thumb: Buffer;
+	width: number;
+	height: number;
+};
 
 /** Checks and converts an upload; throws PhotoRejected with a sentence the uploader can act on. */
 export async function checkImage(bytes: Uint8Array): Promise<CheckedImage> {
 	if (bytes.byteLength === 0) throw new PhotoRejected('The file is empty.');
-	if (bytes.byteLength > MAX_PHOTO_BYTES) throw new PhotoRejected(`The file is larger than ${MAX_PHOTO_BYTES / 1024 / 1024} MB.`, 413);
+	if (bytes.byteLength > MAX_PHOTO_BYTES) {
+		throw new PhotoRejected(`The file is larger than ${MAX_PHOTO_BYTES / 1024 / 1024} MB.`, 413);
+	}
 	const type = await fileTypeFromBuffer(bytes);
 	const ext = type ? ACCEPTED[type.mime] : undefined;
-	if (!type || !ext) throw new PhotoRejected('Only JPEG, PNG and WebP photos can be uploaded; this file is something else.', 415);
+	if (!type || !ext) {
+		throw new PhotoRejected(
+			'Only JPEG, PNG and WebP photos can be uploaded; this file is something else.',
+			415
+		);
+	}
 	const mime = type.mime as keyof typeof ACCEPTED;
 	try {
 		const input = () => sharp(bytes, { limitInputPixels: MAX_PIXELS, failOn: 'error' });
 		const display = await input()
 			.rotate()
-			.resize({ width: DISPLAY_EDGE_PX, height: DISPLAY_EDGE_PX, fit: 'inside', withoutEnlargement: true })
+			.resize({
+				width: DISPLAY_EDGE_PX,
+				height: DISPLAY_EDGE_PX,
+				fit: 'inside',
+				withoutEnlargement: true
+			})
 			.toFormat(ext === 'jpg' ? 'jpeg' : ext, ext === 'png' ? {} : { quality: 85 })
 			.toBuffer({ resolveWithObject: true });
 		const thumb = await input()
 			.rotate()
-			.resize({ width: THUMB_EDGE_PX, height: THUMB_EDGE_PX, fit: 'inside', withoutEnlargement: true })
+			.resize({
+				width: THUMB_EDGE_PX,
+				height: THUMB_EDGE_PX,
+				fit: 'inside',
+				withoutEnlargement: true
+			})
 			.webp({ quality: 75 })
 			.toBuffer();
-		return { mime, ext, display: display.data, thumb, width: display.info.width, height: display.info.height };
+		return {
+			mime,
+			ext,
+			display: display.data,
+			thumb,
+			width: display.info.width,
+			height: display.info.height
+		};
 	} catch (e) {
-		if (e instanceof Error && /pixel limit/i.test(e.message)) throw new PhotoRejected('The image has too many pixels.');
+		if (e instanceof Error && /pixel limit/i.test(e.message)) {
+			throw new PhotoRejected('The image has too many pixels.');
+		}
 		throw new PhotoRejected('The image could not be read; it may be damaged.');
 	}
 }
 
-export async function addPhoto(input: { buildId: string; uploadedBy: string; bytes: Uint8Array; caption: string }): Promise<PhotoRow> {
+export async function addPhoto(input: {
+	buildId: string;
+	uploadedBy: string;
+	bytes: Uint8Array;
+	caption: string;
+}): Promise<PhotoRow> {
 	const existing = await db.$count(photos, eq(photos.buildId, input.buildId));
-	if (existing >= MAX_PHOTOS_PER_BUILD) throw new PhotoRejected(`A build holds at most ${MAX_PHOTOS_PER_BUILD} photos.`);
+	if (existing >= MAX_PHOTOS_PER_BUILD) {
+		throw new PhotoRejected(`A build holds at most ${MAX_PHOTOS_PER_BUILD} photos.`);
+	}
 	const image = await checkImage(input.bytes);
 	const storageKey = newKey(image.ext);
 	const thumbKey = newKey('webp');
@@ -91,19 +135,34 @@ export async function addPhoto(input: { buildId: string; uploadedBy: string; byt
 }
 
 export async function photosOf(buildId: string): Promise<PhotoRow[]> {
-	return db.select().from(photos).where(eq(photos.buildId, buildId)).orderBy(asc(photos.createdAt), asc(photos.id));
+	return db
+		.select()
+		.from(photos)
+		.where(eq(photos.buildId, buildId))
+		.orderBy(asc(photos.createdAt), asc(photos.id));
 }
 
 export async function deletePhoto(buildId: string, photoId: string): Promise<boolean> {
-	const [row] = await db.delete(photos).where(and(eq(photos.id, photoId), eq(photos.buildId, buildId))).returning();
+	const [row] = await db
+		.delete(photos)
+		.where(and(eq(photos.id, photoId), eq(photos.buildId, buildId)))
+		.returning();
 	if (!row) return false;
 	await deleteObject(row.storageKey);
 	await deleteObject(row.thumbKey);
 	return true;
 }
 
-export async function setCaption(buildId: string, photoId: string, caption: string): Promise<boolean> {
-	const rows = await db.update(photos).set({ caption }).where(and(eq(photos.id, photoId), eq(photos.buildId, buildId))).returning({ id: photos.id });
+export async function setCaption(
+	buildId: string,
+	photoId: string,
+	caption: string
+): Promise<boolean> {
+	const rows = await db
+		.update(photos)
+		.set({ caption })
+		.where(and(eq(photos.id, photoId), eq(photos.buildId, buildId)))
+		.returning({ id: photos.id });
 	return rows.length > 0;
 }
 
@@ -111,7 +170,10 @@ export type PhotoSize = 'thumb' | 'full';
 
 /** The bytes and type of one photo of this build, or null. */
 export async function readPhoto(buildId: string, photoId: string, size: PhotoSize) {
-	const [row] = await db.select().from(photos).where(and(eq(photos.id, photoId), eq(photos.buildId, buildId)));
+	const [row] = await db
+		.select()
+		.from(photos)
+		.where(and(eq(photos.id, photoId), eq(photos.buildId, buildId)));
 	if (!row) return null;
 	const bytes = await readObject(size === 'thumb' ? row.thumbKey : row.storageKey);
 	if (!bytes) return null;

@@ -15,7 +15,8 @@ import { demoBuild } from './test-factory';
 const app = useApp();
 
 async function rowCounts() {
-	const n = async (t: typeof quotes | typeof quoteLines | typeof payments) => (await db.select({ n: count() }).from(t))[0].n;
+	const n = async (t: typeof quotes | typeof quoteLines | typeof payments) =>
+		(await db.select({ n: count() }).from(t))[0].n;
 	return { quotes: await n(quotes), lines: await n(quoteLines), payments: await n(payments) };
 }
 
@@ -53,15 +54,37 @@ describe('the quote page', () => {
 		const { b, c, page } = await setUp();
 		expect((await c.action(`${page}?/create`, {})).type).toBe('success');
 		const [before] = await db.select().from(quotes).where(eq(quotes.variantId, b.variantId));
-		const res = await c.action(`${page}?/save`, { currency: 'QQQ', labour: '150', labourNote: 'Assembly', tax: '20', depositKind: 'percent', depositValue: '30', notes: '' });
+		const res = await c.action(`${page}?/save`, {
+			currency: 'QQQ',
+			labour: '150',
+			labourNote: 'Assembly',
+			tax: '20',
+			depositKind: 'percent',
+			depositValue: '30',
+			notes: ''
+		});
 		expect(res.type).toBe('failure');
 		expect(res.status).toBe(400);
 		expect(res.data.errors.currency).toBe('Use an ISO 4217 currency code such as EUR, GBP or USD.');
 		const [after] = await db.select().from(quotes).where(eq(quotes.id, before.id));
 		expect(after).toEqual(before);
 		// An assigned code is taken.
-		expect((await c.action(`${page}?/save`, { currency: 'GBP', labour: '150', labourNote: 'Assembly', tax: '20', depositKind: 'percent', depositValue: '30', notes: '' })).type).toBe('success');
-		expect((await db.select().from(quotes).where(eq(quotes.id, before.id)))[0].currency).toBe('GBP');
+		expect(
+			(
+				await c.action(`${page}?/save`, {
+					currency: 'GBP',
+					labour: '150',
+					labourNote: 'Assembly',
+					tax: '20',
+					depositKind: 'percent',
+					depositValue: '30',
+					notes: ''
+				})
+			).type
+		).toBe('success');
+		expect((await db.select().from(quotes).where(eq(quotes.id, before.id)))[0].currency).toBe(
+			'GBP'
+		);
 	});
 });
 

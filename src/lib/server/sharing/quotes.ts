@@ -4,22 +4,42 @@ import { variantSettingsSchema } from '$lib/builds/settings';
 import { isCurrencyCode } from '$lib/components/client/money';
 import { quoteTotals, type QuoteTotals } from '$lib/components/client/quote-math';
 import { db, type Tx } from '../db';
-import { parts, payments, quoteLines, quotes, type QuoteLineRow, type QuoteRow } from '../db/schema';
+import {
+	parts,
+	payments,
+	quoteLines,
+	quotes,
+	type QuoteLineRow,
+	type QuoteRow
+} from '../db/schema';
 import { newId } from '../tokens';
 
-export type LineDraft = { partId: string | null; description: string; quantity: number; unitPriceMinor: number | null };
+export type LineDraft = {
+	partId: string | null;
+	description: string;
+	quantity: number;
+	unitPriceMinor: number | null;
+};
 
 /**
  * One line per catalogue part placed in the variant, with how many are placed. The catalogue's
  * price is used only when it is in the quote's currency; otherwise the line waits for a price.
  */
-export async function linesFromVariant(settingsJson: unknown, currency: string): Promise<LineDraft[]> {
+export async function linesFromVariant(
+	settingsJson: unknown,
+	currency: string
+): Promise<LineDraft[]> {
 	const settings = variantSettingsSchema.parse(settingsJson);
 	const counts = new Map<string, number>();
 	for (const p of settings.placements) counts.set(p.partId, (counts.get(p.partId) ?? 0) + 1);
 	if (counts.size === 0) return [];
 	const rows = await db
-		.select({ id: parts.id, name: parts.name, priceMinor: parts.priceMinor, currency: parts.currency })
+		.select({
+			id: parts.id,
+			name: parts.name,
+			priceMinor: parts.priceMinor,
+			currency: parts.currency
+		})
 		.from(parts)
 		.where(inArray(parts.id, [...counts.keys()]));
 	const byId = new Map(rows.map((r) => [r.id, r]));
@@ -29,7 +49,8 @@ export async function linesFromVariant(settingsJson: unknown, currency: string):
 			partId,
 			description: part?.name ?? 'Part',
 			quantity,
-			unitPriceMinor: part && part.priceMinor !== null && part.currency === currency ? part.priceMinor : null
+			unitPriceMinor:
+				part && part.priceMinor !== null && part.currency === currency ? part.priceMinor : null
 		};
 	});
 }
@@ -43,12 +64,22 @@ export function totalsOf(quote: QuoteRow, lines: readonly QuoteLineRow[]): Quote
 export async function quoteOfVariant(variantId: string): Promise<QuoteWithLines | null> {
 	const [quote] = await db.select().from(quotes).where(eq(quotes.variantId, variantId));
 	if (!quote) return null;
-	const lines = await db.select().from(quoteLines).where(eq(quoteLines.quoteId, quote.id)).orderBy(asc(quoteLines.sortOrder));
+	const lines = await db
+		.select()
+		.from(quoteLines)
+		.where(eq(quoteLines.quoteId, quote.id))
+		.orderBy(asc(quoteLines.sortOrder));
 	return { quote, lines, totals: totalsOf(quote, lines) };
 }
 
 /** The variant's quote, created as a draft from the variant's parts the first time it is asked for. */
-export async function ensureQuote(input: { studioId: string; buildId: string; variantId: string; settings: unknown; currency?: string }): Promise<QuoteWithLines> {
+export async function ensureQuote(input: {
+	studioId: string;
+	buildId: string;
+	variantId: string;
+	settings: unknown;
+	currency?: string;
+}): Promise<QuoteWithLines> {
 	const existing = await quoteOfVariant(input.variantId);
 	if (existing) return existing;
 	const currency = input.currency ?? (await commonCurrency(input.settings));
@@ -57,7 +88,13 @@ export async function ensureQuote(input: { studioId: string; buildId: string; va
 		const id = newId();
 		const inserted = await tx
 			.insert(quotes)
-			.values({ id, studioId: input.studioId, buildId: input.buildId, variantId: input.variantId, currency })
+			.values({
+				id,
+				studioId: input.studioId,
+				buildId: input.buildId,
+				variantId: input.variantId,
+				currency
+			})
 			.onConflictDoNothing()
 			.returning({ id: quotes.id });
 		if (inserted.length) await insertLines(tx, id, drafts);
@@ -70,16 +107,25 @@ async function commonCurrency(settingsJson: unknown): Promise<string> {
 	const settings = variantSettingsSchema.parse(settingsJson);
 	const ids = [...new Set(settings.placements.map((p) => p.partId))];
 	if (!ids.length) return 'EUR';
-	const rows = await db.select({ currency: parts.currency, price: parts.priceMinor }).from(parts).where(inArray(parts.id, ids));
+	const rows = await db
+		.select({ currency: parts.currency, price: parts.priceMinor })
+		.from(parts)
+		.where(inArray(parts.id, ids));
 	const tally = new Map<string, number>();
-	for (const r of rows) if (r.price !== null) tally.set(r.currency, (tally.get(r.currency) ?? 0) + 1);
-	const common = [...tally.entries()].sort((a, b) => b[1] - a[1] || a[0].localeCompare(b[0]))[0]?.[0];
+	for (const r of rows) {
+		if (r.price !== null) tally.set(r.currency, (tally.get(r.currency) ?? 0) + 1);
+	}
+	const common = [...tally.entries()].sort(
+		(a, b) => b[1] - a[1] || a[0].localeCompare(b[0])
+	)[0]?.[0];
 	return common && isCurrencyCode(common) ? common : 'EUR';
 }
 
 async function insertLines(tx: Tx, quoteId: string, drafts: readonly LineDraft[]) {
 	if (!drafts.length) return;
-	await tx.insert(quoteLines).values(drafts.map((d, i) => ({ id: newId(), quoteId, sortOrder: i, ...d })));
+	await tx
+		.insert(quoteLines)
+		.values(drafts.map((d, i) => ({ id: newId(), quoteId, sortOrder: i, ...d })));
 }
 
 export class QuoteLocked extends Error {
@@ -89,7 +135,11 @@ export class QuoteLocked extends Error {
 }
 
 async function assertEditable(tx: Tx, quoteId: string) {
-	const paid = await tx.select({ id: payments.id }).from(payments).where(and(eq(payments.quoteId, quoteId), eq(payments.status, 'paid'))).limit(1);
+	const paid = await tx
+		.select({ id: payments.id })
+		.from(payments)
+		.where(and(eq(payments.quoteId, quoteId), eq(payments.status, 'paid')))
+		.limit(1);
 	if (paid.length) throw new QuoteLocked();
 }
 
@@ -101,7 +151,13 @@ export type QuoteUpdate = {
 	depositKind: 'amount' | 'percent';
 	depositValue: number;
 	notes: string;
-	lines: { id: string; description: string; quantity: number; unitPriceMinor: number | null; remove: boolean }[];
+	lines: {
+		id: string;
+		description: string;
+		quantity: number;
+		unitPriceMinor: number | null;
+		remove: boolean;
+	}[];
 	added: LineDraft[];
 };
 
@@ -128,10 +184,23 @@ export async function updateQuote(quoteId: string, input: QuoteUpdate) {
 		for (const l of input.lines) {
 			if (!ids.has(l.id)) continue;
 			if (l.remove) await tx.delete(quoteLines).where(eq(quoteLines.id, l.id));
-			else await tx.update(quoteLines).set({ description: l.description, quantity: l.quantity, unitPriceMinor: l.unitPriceMinor }).where(eq(quoteLines.id, l.id));
+			else {
+				await tx
+					.update(quoteLines)
+					.set({
+						description: l.description,
+						quantity: l.quantity,
+						unitPriceMinor: l.unitPriceMinor
+					})
+					.where(eq(quoteLines.id, l.id));
+			}
 		}
 		const next = existing.reduce((m, l) => Math.max(m, l.sortOrder + 1), 0);
-		if (input.added.length) await tx.insert(quoteLines).values(input.added.map((d, i) => ({ id: newId(), quoteId, sortOrder: next + i, ...d })));
+		if (input.added.length) {
+			await tx
+				.insert(quoteLines)
+				.values(input.added.map((d, i) => ({ id: newId(), quoteId, sortOrder: next + i, ...d })));
+		}
 	});
 }
 
@@ -144,7 +213,11 @@ export async function refreshLines(quoteId: string, settings: unknown) {
 	await db.transaction(async (tx) => {
 		await assertEditable(tx, quoteId);
 		const [quote] = await tx.select().from(quotes).where(eq(quotes.id, quoteId));
-		const existing = await tx.select().from(quoteLines).where(eq(quoteLines.quoteId, quoteId)).orderBy(asc(quoteLines.sortOrder));
+		const existing = await tx
+			.select()
+			.from(quoteLines)
+			.where(eq(quoteLines.quoteId, quoteId))
+			.orderBy(asc(quoteLines.sortOrder));
 		const drafts = await linesFromVariant(settings, quote.currency);
 		const wanted = new Map(drafts.map((d) => [d.partId, d]));
 		for (const l of existing) {
@@ -152,14 +225,24 @@ export async function refreshLines(quoteId: string, settings: unknown) {
 			const d = wanted.get(l.partId);
 			if (!d) await tx.delete(quoteLines).where(eq(quoteLines.id, l.id));
 			else {
-				await tx.update(quoteLines).set({ quantity: d.quantity, unitPriceMinor: l.unitPriceMinor ?? d.unitPriceMinor }).where(eq(quoteLines.id, l.id));
+				await tx
+					.update(quoteLines)
+					.set({ quantity: d.quantity, unitPriceMinor: l.unitPriceMinor ?? d.unitPriceMinor })
+					.where(eq(quoteLines.id, l.id));
 				wanted.delete(l.partId);
 			}
 		}
 		const next = existing.reduce((m, l) => Math.max(m, l.sortOrder + 1), 0);
 		const fresh = [...wanted.values()];
-		if (fresh.length) await tx.insert(quoteLines).values(fresh.map((d, i) => ({ id: newId(), quoteId, sortOrder: next + i, ...d })));
-		await tx.update(quotes).set({ updatedAt: new Date(), revision: sqlIncrement() }).where(eq(quotes.id, quoteId));
+		if (fresh.length) {
+			await tx
+				.insert(quoteLines)
+				.values(fresh.map((d, i) => ({ id: newId(), quoteId, sortOrder: next + i, ...d })));
+		}
+		await tx
+			.update(quotes)
+			.set({ updatedAt: new Date(), revision: sqlIncrement() })
+			.where(eq(quotes.id, quoteId));
 	});
 }
 
@@ -170,16 +253,28 @@ export async function sendQuote(quoteId: string) {
 	const [quote] = await db.select().from(quotes).where(eq(quotes.id, quoteId));
 	const lines = await db.select().from(quoteLines).where(eq(quoteLines.quoteId, quoteId));
 	const totals = totalsOf(quote, lines);
-	if (totals.unpriced > 0) throw new QuoteNotReady(`${totals.unpriced} line${totals.unpriced === 1 ? ' has' : 's have'} no price yet.`);
+	if (totals.unpriced > 0) {
+		throw new QuoteNotReady(
+			`${totals.unpriced} line${totals.unpriced === 1 ? ' has' : 's have'} no price yet.`
+		);
+	}
 	if (totals.totalMinor <= 0) throw new QuoteNotReady('The total is zero.');
-	if (totals.depositMinor <= 0) throw new QuoteNotReady('The deposit is zero; set an amount or a percentage.');
-	await db.update(quotes).set({ status: 'sent', sentAt: new Date(), updatedAt: new Date() }).where(eq(quotes.id, quoteId));
+	if (totals.depositMinor <= 0) {
+		throw new QuoteNotReady('The deposit is zero; set an amount or a percentage.');
+	}
+	await db
+		.update(quotes)
+		.set({ status: 'sent', sentAt: new Date(), updatedAt: new Date() })
+		.where(eq(quotes.id, quoteId));
 }
 
 export async function withdrawQuote(quoteId: string) {
 	await db.transaction(async (tx) => {
 		await assertEditable(tx, quoteId);
-		await tx.update(quotes).set({ status: 'draft', updatedAt: new Date() }).where(eq(quotes.id, quoteId));
+		await tx
+			.update(quotes)
+			.set({ status: 'draft', updatedAt: new Date() })
+			.where(eq(quotes.id, quoteId));
 	});
 }
 

@@ -4,7 +4,16 @@
  */
 import { and, desc, eq, gt, inArray, isNull, or, sql } from 'drizzle-orm';
 import { db } from '../db';
-import { approvals, builds, comments, memberships, payments, shareLinks, studios, variants } from '../db/schema';
+import {
+	approvals,
+	builds,
+	comments,
+	memberships,
+	payments,
+	shareLinks,
+	studios,
+	variants
+} from '../db/schema';
 import { latestVersions } from '../versions';
 
 export type SharedStatus = 'waiting' | 'changes' | 'approved' | 'paid';
@@ -16,7 +25,15 @@ export const SHARED_STATUS_WORDS: Record<SharedStatus, string> = {
 	paid: 'deposit paid'
 };
 
-export type SharedItem = { variantId: string; variantName: string; buildName: string; studioName: string; sharedAt: Date; version: number | null; status: SharedStatus };
+export type SharedItem = {
+	variantId: string;
+	variantName: string;
+	buildName: string;
+	studioName: string;
+	sharedAt: Date;
+	version: number | null;
+	status: SharedStatus;
+};
 
 export async function sharedWithMember(user: { id: string; email: string }): Promise<SharedItem[]> {
 	const rows = await db
@@ -28,26 +45,62 @@ export async function sharedWithMember(user: { id: string; email: string }): Pro
 			sharedAt: shareLinks.createdAt
 		})
 		.from(shareLinks)
-		.innerJoin(memberships, and(eq(memberships.studioId, shareLinks.studioId), eq(memberships.userId, user.id), eq(memberships.role, 'client')))
+		.innerJoin(
+			memberships,
+			and(
+				eq(memberships.studioId, shareLinks.studioId),
+				eq(memberships.userId, user.id),
+				eq(memberships.role, 'client')
+			)
+		)
 		.innerJoin(variants, eq(variants.id, shareLinks.variantId))
 		.innerJoin(builds, eq(builds.id, shareLinks.buildId))
 		.innerJoin(studios, eq(studios.id, shareLinks.studioId))
-		.where(and(eq(shareLinks.recipientEmail, user.email.toLowerCase()), isNull(shareLinks.revokedAt), isNull(builds.archivedAt), or(isNull(shareLinks.expiresAt), gt(shareLinks.expiresAt, sql`now()`))))
+		.where(
+			and(
+				eq(shareLinks.recipientEmail, user.email.toLowerCase()),
+				isNull(shareLinks.revokedAt),
+				isNull(builds.archivedAt),
+				or(isNull(shareLinks.expiresAt), gt(shareLinks.expiresAt, sql`now()`))
+			)
+		)
 		.orderBy(shareLinks.variantId, desc(shareLinks.createdAt));
 	if (rows.length === 0) return [];
 	const ids = rows.map((r) => r.variantId);
 	const [versions, approvalRows, changeRows, paidRows] = await Promise.all([
 		latestVersions(ids),
-		db.select({ variantId: approvals.variantId, version: approvals.variantVersion, at: approvals.createdAt }).from(approvals).where(inArray(approvals.variantId, ids)),
-		db.select({ variantId: comments.variantId, at: comments.createdAt }).from(comments).where(and(inArray(comments.variantId, ids), eq(comments.kind, 'changes'))),
-		db.select({ variantId: payments.variantId }).from(payments).where(and(inArray(payments.variantId, ids), eq(payments.status, 'paid')))
+		db
+			.select({
+				variantId: approvals.variantId,
+				version: approvals.variantVersion,
+				at: approvals.createdAt
+			})
+			.from(approvals)
+			.where(inArray(approvals.variantId, ids)),
+		db
+			.select({ variantId: comments.variantId, at: comments.createdAt })
+			.from(comments)
+			.where(and(inArray(comments.variantId, ids), eq(comments.kind, 'changes'))),
+		db
+			.select({ variantId: payments.variantId })
+			.from(payments)
+			.where(and(inArray(payments.variantId, ids), eq(payments.status, 'paid')))
 	]);
 	const out = rows.map((r) => {
 		const version = versions.get(r.variantId)?.number ?? null;
-		const approval = approvalRows.filter((a) => a.variantId === r.variantId && a.version === version).sort((a, b) => b.at.getTime() - a.at.getTime())[0];
-		const reopened = !!approval && changeRows.some((c) => c.variantId === r.variantId && c.at > approval.at);
+		const approval = approvalRows
+			.filter((a) => a.variantId === r.variantId && a.version === version)
+			.sort((a, b) => b.at.getTime() - a.at.getTime())[0];
+		const reopened =
+			!!approval && changeRows.some((c) => c.variantId === r.variantId && c.at > approval.at);
 		const paid = paidRows.some((p) => p.variantId === r.variantId);
-		const status: SharedStatus = reopened ? 'changes' : approval ? (paid ? 'paid' : 'approved') : 'waiting';
+		const status: SharedStatus = reopened
+			? 'changes'
+			: approval
+				? paid
+					? 'paid'
+					: 'approved'
+				: 'waiting';
 		return { ...r, version, status };
 	});
 	return out.sort((a, b) => b.sharedAt.getTime() - a.sharedAt.getTime());

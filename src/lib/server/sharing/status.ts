@@ -16,15 +16,26 @@ export async function clientStatusOf(buildId: string): Promise<ClientStatus[]> {
 	return Promise.all(
 		variants.map(async (v) => {
 			const [approval, quote] = await Promise.all([latestApproval(v.id), quoteOfVariant(v.id)]);
-			const paid = quote ? ((await paymentsOfQuotes([quote.quote.id])).find((p) => p.status === 'paid') ?? null) : null;
+			const paid = quote
+				? ((await paymentsOfQuotes([quote.quote.id])).find((p) => p.status === 'paid') ?? null)
+				: null;
 			return {
 				id: v.id,
 				name: v.name,
 				// The version the client sees (0: none saved yet).
 				version: versions.get(v.id)?.number ?? 0,
 				approval: approvalState(approval, versions.get(v.id)?.number ?? 0),
-				quote: quote ? { status: quote.quote.status, currency: quote.quote.currency, totalMinor: quote.totals.totalMinor, depositMinor: quote.totals.depositMinor } : null,
-				deposit: paid ? { amountMinor: paid.amountMinor, currency: paid.currency, paidAt: paid.paidAt } : null,
+				quote: quote
+					? {
+							status: quote.quote.status,
+							currency: quote.quote.currency,
+							totalMinor: quote.totals.totalMinor,
+							depositMinor: quote.totals.depositMinor
+						}
+					: null,
+				deposit: paid
+					? { amountMinor: paid.amountMinor, currency: paid.currency, paidAt: paid.paidAt }
+					: null,
 				links: links.filter((l) => l.variantId === v.id && l.state === 'active').length
 			};
 		})

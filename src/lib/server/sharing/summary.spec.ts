@@ -7,34 +7,59 @@ import { checkScene, resolveScene, sceneSchema, type SceneInput } from '$lib/geo
 import { fitSummary } from './summary';
 
 const wall = { thicknessMm: 2 };
-function scene(placements: { id: string; partId: string; position: [number, number, number] }[], extra: Partial<SceneInput> = {}) {
+function scene(
+	placements: { id: string; partId: string; position: [number, number, number] }[],
+	extra: Partial<SceneInput> = {}
+) {
 	return sceneSchema.parse({
 		format: 'interstice.scene',
 		version: 1,
-		enclosure: { name: 'Cube', outerMm: [104, 104, 104], walls: { left: wall, right: wall, bottom: wall, top: wall, front: wall, back: wall } },
+		enclosure: {
+			name: 'Cube',
+			outerMm: [104, 104, 104],
+			walls: { left: wall, right: wall, bottom: wall, top: wall, front: wall, back: wall }
+		},
 		parts: [
-			{ id: 'slab', name: 'Slab', category: 'other', bodies: [{ id: 'b', label: 'body', box: { min: [0, 0, 0], max: [50, 20, 50] } }] },
-			{ id: 'cube', name: 'Small cube', category: 'other', bodies: [{ id: 'b', label: 'body', box: { min: [0, 0, 0], max: [10, 10, 10] } }] }
+			{
+				id: 'slab',
+				name: 'Slab',
+				category: 'other',
+				bodies: [{ id: 'b', label: 'body', box: { min: [0, 0, 0], max: [50, 20, 50] } }]
+			},
+			{
+				id: 'cube',
+				name: 'Small cube',
+				category: 'other',
+				bodies: [{ id: 'b', label: 'body', box: { min: [0, 0, 0], max: [10, 10, 10] } }]
+			}
 		],
 		placements,
 		marginMm: 2,
 		...extra
 	});
 }
-const summaryOf = (s: ReturnType<typeof scene>) => fitSummary(checkScene(s), resolveScene(s), s.marginMm);
+const summaryOf = (s: ReturnType<typeof scene>) =>
+	fitSummary(checkScene(s), resolveScene(s), s.marginMm);
 
 describe('fit summary, worked examples', () => {
 	it('one slab resting on the floor: 25 mm free on each side, 80 mm above', () => {
 		// x: 25..75 of 0..100 → 25 mm left and right; y: 0..20 → resting, 80 mm above; z as x.
 		const s = summaryOf(scene([{ id: 'a', partId: 'slab', position: [25, 0, 25] }]));
 		expect(s.verdict).toBe('fits');
-		expect(s.headline).toBe('Everything fits; the tightest gap is 25.0\u2009mm to the left of the part.');
+		expect(s.headline).toBe(
+			'Everything fits; the tightest gap is 25.0\u2009mm to the left of the part.'
+		);
 		expect(s.details).toEqual([]);
 	});
 
 	it('a small cube 1 mm beside the slab is tight on both of them', () => {
 		// Slab max x = 75, cube min x = 76: 1.0 mm apart, under the 2 mm margin.
-		const s = summaryOf(scene([{ id: 'a', partId: 'slab', position: [25, 0, 25] }, { id: 'b', partId: 'cube', position: [76, 0, 45] }]));
+		const s = summaryOf(
+			scene([
+				{ id: 'a', partId: 'slab', position: [25, 0, 25] },
+				{ id: 'b', partId: 'cube', position: [76, 0, 45] }
+			])
+		);
 		expect(s.verdict).toBe('tight');
 		expect(s.headline).toBe(
 			'Everything fits, but 2 places are closer than the 2.0\u2009mm of breathing room we aim for: 1.0\u2009mm to the right of part 1; 1.0\u2009mm to the left of part 2.'
@@ -43,10 +68,19 @@ describe('fit summary, worked examples', () => {
 
 	it('a cube pushed 5 mm into the slab: the smallest clearing move is 5 mm across the width', () => {
 		// Cube x 70..80 against slab x 25..75: 5 mm deep in x (10 in y, 10 in z); moving it +x by 5 clears.
-		const s = summaryOf(scene([{ id: 'a', partId: 'slab', position: [25, 0, 25] }, { id: 'b', partId: 'cube', position: [70, 0, 45] }]));
+		const s = summaryOf(
+			scene([
+				{ id: 'a', partId: 'slab', position: [25, 0, 25] },
+				{ id: 'b', partId: 'cube', position: [70, 0, 45] }
+			])
+		);
 		expect(s.verdict).toBe('problems');
-		expect(s.headline).toBe('Not everything fits yet: 2 parts need changes before this build can be made.');
-		expect(s.details).toEqual(['Part 1 and part 2 run into each other by 5.0\u2009mm across the width.']);
+		expect(s.headline).toBe(
+			'Not everything fits yet: 2 parts need changes before this build can be made.'
+		);
+		expect(s.details).toEqual([
+			'Part 1 and part 2 run into each other by 5.0\u2009mm across the width.'
+		]);
 	});
 
 	it('a part reaching through the top panel is named as outside', () => {

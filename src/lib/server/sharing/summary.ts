@@ -3,7 +3,14 @@
  * gap is 2.0 mm above the CPU block") and a few sentences. Millimetres with one decimal and a thin
  * space before the unit, as everywhere in Interstice.
  */
-import { formatMm, type Face, type FitReport, type ItemRef, type PartCategory, type ResolvedScene } from '$lib/geometry';
+import {
+	formatMm,
+	type Face,
+	type FitReport,
+	type ItemRef,
+	type PartCategory,
+	type ResolvedScene
+} from '$lib/geometry';
 import { CATEGORY_WORDS as SHEET_CATEGORY_WORDS } from '$lib/builds/sheet-words';
 import { gapWords, mountProblemDetail } from '$lib/builds/words';
 import type { FitSummary } from '$lib/components/client/types';
@@ -13,7 +20,10 @@ export type { FitSummary };
 const mm = formatMm;
 
 /** Plain names of part kinds; 'other' reads as "the part" in a sentence. */
-export const CATEGORY_WORDS: Record<PartCategory, string> = { ...SHEET_CATEGORY_WORDS, other: 'part' };
+export const CATEGORY_WORDS: Record<PartCategory, string> = {
+	...SHEET_CATEGORY_WORDS,
+	other: 'part'
+};
 
 /** Where the gap on a part's face lies, seen from the front. */
 const FACE_WORDS: Record<Face, string> = {
@@ -31,9 +41,13 @@ const AXIS_WORDS = { x: 'across the width', y: 'in height', z: 'in depth' } as c
  * Short names for placed parts the client can follow: "the CPU block" when there is one, "fan 2"
  * when there are several of a kind, numbered in placement order (as the parts list numbers them).
  */
-export function placementNames(resolved: Pick<ResolvedScene, 'placements'>): Map<string, { short: string; sentence: string }> {
+export function placementNames(
+	resolved: Pick<ResolvedScene, 'placements'>
+): Map<string, { short: string; sentence: string }> {
 	const perCategory = new Map<string, number>();
-	for (const rp of resolved.placements) perCategory.set(rp.part.category, (perCategory.get(rp.part.category) ?? 0) + 1);
+	for (const rp of resolved.placements) {
+		perCategory.set(rp.part.category, (perCategory.get(rp.part.category) ?? 0) + 1);
+	}
 	const seen = new Map<string, number>();
 	const out = new Map<string, { short: string; sentence: string }>();
 	for (const rp of resolved.placements) {
@@ -50,7 +64,9 @@ export function placementNames(resolved: Pick<ResolvedScene, 'placements'>): Map
 function refName(ref: ItemRef, names: Map<string, { sentence: string }>): string {
 	if (ref.placementId && names.has(ref.placementId)) {
 		const base = names.get(ref.placementId)!.sentence;
-		if (ref.kind === 'keepout') return `the room kept free for ${base}’s ${keepoutWords(ref.keepoutKind)}`;
+		if (ref.kind === 'keepout') {
+			return `the room kept free for ${base}’s ${keepoutWords(ref.keepoutKind)}`;
+		}
 		return base;
 	}
 	if (ref.kind === 'wall') return `the ${ref.label.toLowerCase()}`;
@@ -78,18 +94,39 @@ const cap = (s: string) => s.charAt(0).toUpperCase() + s.slice(1);
 
 /** The tightest free gap of any part face that is not resting or held against something. */
 function tightestGap(report: FitReport) {
-	let best: { placementId: string; face: Face; gapMm: number; worstCaseMm: number; against: ItemRef } | null = null;
+	let best: {
+		placementId: string;
+		face: Face;
+		gapMm: number;
+		worstCaseMm: number;
+		against: ItemRef;
+	} | null = null;
 	for (const part of report.parts) {
-		for (const [face, g] of Object.entries(part.gaps) as [Face, FitReport['parts'][number]['gaps'][Face]][]) {
+		for (const [face, g] of Object.entries(part.gaps) as [
+			Face,
+			FitReport['parts'][number]['gaps'][Face]
+		][]) {
 			if (g.gapMm === null || g.against === null || g.held || g.gapMm < 0) continue;
 			const worstCaseMm = g.worstCaseMm ?? g.gapMm;
-			if (!best || worstCaseMm < best.worstCaseMm) best = { placementId: part.placementId, face, gapMm: g.gapMm, worstCaseMm, against: g.against };
+			if (!best || worstCaseMm < best.worstCaseMm) {
+				best = {
+					placementId: part.placementId,
+					face,
+					gapMm: g.gapMm,
+					worstCaseMm,
+					against: g.against
+				};
+			}
 		}
 	}
 	return best;
 }
 
-export function fitSummary(report: FitReport, resolved: Pick<ResolvedScene, 'placements'>, marginMm: number): FitSummary {
+export function fitSummary(
+	report: FitReport,
+	resolved: Pick<ResolvedScene, 'placements'>,
+	marginMm: number
+): FitSummary {
 	const names = placementNames(resolved);
 	const nameOf = (placementId: string) => names.get(placementId)?.sentence ?? 'a part';
 	const c = report.totals.counts;
@@ -99,17 +136,34 @@ export function fitSummary(report: FitReport, resolved: Pick<ResolvedScene, 'pla
 		const depth = o.depthMm[{ x: 0, y: 1, z: 2 }[o.axis]];
 		const a = refName(o.a, names);
 		const b = refName(o.b, names);
-		if (o.kind === 'collides') details.push(`${cap(a)} and ${b} run into each other by ${mm(depth)} ${AXIS_WORDS[o.axis]}.`);
-		else if (o.kind === 'blocked') details.push(`${cap(o.a.kind === 'keepout' ? a : b)} is blocked by ${o.a.kind === 'keepout' ? b : a}, by ${mm(depth)}.`);
-		else details.push(`${cap(o.a.kind === 'keepout' ? a : b)} is partly taken by ${o.a.kind === 'keepout' ? b : a} (${mm(depth)}); it still fits, but is worth a look.`);
+		if (o.kind === 'collides') {
+			details.push(`${cap(a)} and ${b} run into each other by ${mm(depth)} ${AXIS_WORDS[o.axis]}.`);
+		} else if (o.kind === 'blocked') {
+			details.push(
+				`${cap(o.a.kind === 'keepout' ? a : b)} is blocked by ${o.a.kind === 'keepout' ? b : a}, by ${mm(depth)}.`
+			);
+		} else {
+			details.push(
+				`${cap(o.a.kind === 'keepout' ? a : b)} is partly taken by ${o.a.kind === 'keepout' ? b : a} (${mm(depth)}); it still fits, but is worth a look.`
+			);
+		}
 	}
-	if (report.overlapsNotListed > 0) details.push(`…and ${report.overlapsNotListed} more places where parts overlap.`);
+	if (report.overlapsNotListed > 0) {
+		details.push(`…and ${report.overlapsNotListed} more places where parts overlap.`);
+	}
 	for (const p of report.parts) {
-		if (p.outsideFaces.length) details.push(`${cap(nameOf(p.placementId))} reaches outside the enclosure.`);
+		if (p.outsideFaces.length) {
+			details.push(`${cap(nameOf(p.placementId))} reaches outside the enclosure.`);
+		}
 	}
 	for (const m of report.mounts) {
 		if (m.status === 'collides' || m.status === 'outside' || m.unaccepted.length) {
-			details.push(`The ${m.label.toLowerCase()} stack does not fit its mount${m.budgetMm !== null ? ` (${mm(m.usedMm)} of ${mm(m.budgetMm)})` : ''}: ${m.problems.filter((q) => q.kind !== 'tight').map(mountProblemDetail).join(', ')}.`);
+			details.push(
+				`The ${m.label.toLowerCase()} stack does not fit its mount${m.budgetMm !== null ? ` (${mm(m.usedMm)} of ${mm(m.budgetMm)})` : ''}: ${m.problems
+					.filter((q) => q.kind !== 'tight')
+					.map(mountProblemDetail)
+					.join(', ')}.`
+			);
 		}
 	}
 
@@ -121,7 +175,11 @@ export function fitSummary(report: FitReport, resolved: Pick<ResolvedScene, 'pla
 		const smallest = Object.entries(p.gaps)
 			.filter(([, g]) => g.gapMm !== null && !g.held && g.gapMm >= 0 && worst(g) < marginMm)
 			.sort((x, y) => worst(x[1]) - worst(y[1]))[0];
-		if (smallest) tight.push(`${gapWords(smallest[1])} ${FACE_WORDS[smallest[0] as Face]} ${nameOf(p.placementId)}`);
+		if (smallest) {
+			tight.push(
+				`${gapWords(smallest[1])} ${FACE_WORDS[smallest[0] as Face]} ${nameOf(p.placementId)}`
+			);
+		}
 	}
 
 	const problems = c.collides + c.blocked + c.outside;

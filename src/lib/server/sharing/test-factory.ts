@@ -23,12 +23,28 @@ export const DEMO_PRICES: Record<string, number> = {
 	'demo-radiator-280': 7_990
 };
 
-export async function demoBuild(opts: { studioId: string; createdBy: string; prices?: boolean; name?: string }) {
+export async function demoBuild(opts: {
+	studioId: string;
+	createdBy: string;
+	prices?: boolean;
+	name?: string;
+}) {
 	const enclosure = demoEnclosure();
 	const enclosureId = newId();
 	const versionId = newId();
-	await db.insert(enclosures).values({ id: enclosureId, studioId: opts.studioId, name: enclosure.name, volumeLitres: innerVolumeLitres(enclosure) });
-	await db.insert(enclosureVersions).values({ id: versionId, enclosureId, version: 1, definition: enclosure, volumeLitres: innerVolumeLitres(enclosure) });
+	await db.insert(enclosures).values({
+		id: enclosureId,
+		studioId: opts.studioId,
+		name: enclosure.name,
+		volumeLitres: innerVolumeLitres(enclosure)
+	});
+	await db.insert(enclosureVersions).values({
+		id: versionId,
+		enclosureId,
+		version: 1,
+		definition: enclosure,
+		volumeLitres: innerVolumeLitres(enclosure)
+	});
 	const idMap = new Map<string, string>();
 	for (const part of demoParts()) {
 		const id = newId();
@@ -58,8 +74,17 @@ export async function demoBuild(opts: { studioId: string; createdBy: string; pri
 	};
 	const buildId = newId();
 	const variantId = newId();
-	await db.insert(builds).values({ id: buildId, studioId: opts.studioId, name: opts.name ?? 'Compact sandwich build', clientName: 'A. Client', enclosureVersionId: versionId, createdBy: opts.createdBy });
-	await db.insert(variants).values({ id: variantId, buildId, name: 'Variant A', isProposal: true, settings });
+	await db.insert(builds).values({
+		id: buildId,
+		studioId: opts.studioId,
+		name: opts.name ?? 'Compact sandwich build',
+		clientName: 'A. Client',
+		enclosureVersionId: versionId,
+		createdBy: opts.createdBy
+	});
+	await db
+		.insert(variants)
+		.values({ id: variantId, buildId, name: 'Variant A', isProposal: true, settings });
 	return { buildId, variantId, enclosureVersionId: versionId, partIds: idMap, settings };
 }
 
@@ -72,7 +97,14 @@ export async function variantRow(variantId: string) {
 export async function sharedDemo(opts: { expiresAt?: Date | null } = {}) {
 	const f = await studioWithMembers();
 	const build = await demoBuild({ studioId: f.studio.id, createdBy: f.designer.id });
-	const share = await createShareLink({ studioId: f.studio.id, buildId: build.buildId, variantId: build.variantId, createdBy: f.designer.id, recipientEmail: f.client.email, recipientName: 'A. Client', expiresAt: opts.expiresAt ?? null });
+	const share = await createShareLink({
+		studioId: f.studio.id,
+		buildId: build.buildId,
+		variantId: build.variantId,
+		createdBy: f.designer.id,
+		recipientEmail: f.client.email,
+		recipientName: 'A. Client',
+		expiresAt: opts.expiresAt ?? null
+	});
 	return { ...f, ...build, link: share.link, token: share.token };
 }
-

@@ -5,7 +5,15 @@ import { loadVariant, saveVariantSettings } from '../builds';
 import { closeDb, db } from '../db';
 import { approvals, builds, studios } from '../db/schema';
 import { testDatabaseUrl } from '../testing/env';
-import { approvalState, approveVersion, latestApproval, requestChanges, threadOf, addComment, type Author } from './thread';
+import {
+	approvalState,
+	approveVersion,
+	latestApproval,
+	requestChanges,
+	threadOf,
+	addComment,
+	type Author
+} from './thread';
 import { sharedDemo, variantRow } from './test-factory';
 import { VariantFrozen, saveVersion } from '../versions';
 import { clientView } from './view';
@@ -13,7 +21,12 @@ import { clientView } from './view';
 testDatabaseUrl();
 afterAll(closeDb);
 
-const client = (linkId: string): Author => ({ userId: null, shareLinkId: linkId, name: 'A. Client', side: 'client' });
+const client = (linkId: string): Author => ({
+	userId: null,
+	shareLinkId: linkId,
+	name: 'A. Client',
+	side: 'client'
+});
 
 async function sceneOf(s: Awaited<ReturnType<typeof sharedDemo>>) {
 	const loaded = await loadVariant(s.buildId, s.studio.id, s.enclosureVersionId, s.variantId);
@@ -25,43 +38,106 @@ describe('approval freezes a version', () => {
 		const s = await sharedDemo();
 		const v1 = await variantRow(s.variantId);
 		const scene1 = await sceneOf(s);
-		const first = await approveVersion({ buildId: s.buildId, variantId: s.variantId, variantVersion: 1, author: client(s.link.id), message: 'Looks right.', scene: scene1 });
+		const first = await approveVersion({
+			buildId: s.buildId,
+			variantId: s.variantId,
+			variantVersion: 1,
+			author: client(s.link.id),
+			message: 'Looks right.',
+			scene: scene1
+		});
 		expect(first.ok).toBe(true);
 		expect(approvalState(await latestApproval(s.variantId), 1)?.current).toBe(true);
 
 		// The designer tries to move the spine one step: refused, the variant is frozen.
-		const moved = { ...s.settings, dividerPositions: { ...s.settings.dividerPositions, spine: 65.68 } };
-		const save = () => saveVariantSettings({ buildId: s.buildId, studioId: s.studio.id, enclosureVersionId: s.enclosureVersionId, variantId: s.variantId, expectedVersion: v1.version, settings: moved });
+		const moved = {
+			...s.settings,
+			dividerPositions: { ...s.settings.dividerPositions, spine: 65.68 }
+		};
+		const save = () =>
+			saveVariantSettings({
+				buildId: s.buildId,
+				studioId: s.studio.id,
+				enclosureVersionId: s.enclosureVersionId,
+				variantId: s.variantId,
+				expectedVersion: v1.version,
+				settings: moved
+			});
 		await expect(save()).rejects.toBeInstanceOf(VariantFrozen);
 
 		// The client asks for changes: the designer may change it and save version 2.
-		await requestChanges({ buildId: s.buildId, variantId: s.variantId, variantVersion: 1, author: client(s.link.id), message: 'The spine one slot over, please.' });
+		await requestChanges({
+			buildId: s.buildId,
+			variantId: s.variantId,
+			variantVersion: 1,
+			author: client(s.link.id),
+			message: 'The spine one slot over, please.'
+		});
 		expect((await save()).ok).toBe(true);
-		const v2 = await saveVersion({ buildId: s.buildId, variantId: s.variantId, expectedRevision: v1.version + 1, note: 'Spine one slot over', userId: s.designer.id });
+		const v2 = await saveVersion({
+			buildId: s.buildId,
+			variantId: s.variantId,
+			expectedRevision: v1.version + 1,
+			note: 'Spine one slot over',
+			userId: s.designer.id
+		});
 		expect(v2).toMatchObject({ ok: true, version: { number: 2 } });
 
 		const state = approvalState(await latestApproval(s.variantId), 2);
 		expect(state).toMatchObject({ version: 1, current: false });
 		// The approved scene is kept as it was, not as it is now.
 		const [frozen] = await db.select().from(approvals).where(eq(approvals.variantId, s.variantId));
-		expect((frozen.scene as typeof scene1).dividerPositions.spine).toBe(scene1.dividerPositions.spine);
+		expect((frozen.scene as typeof scene1).dividerPositions.spine).toBe(
+			scene1.dividerPositions.spine
+		);
 		expect((frozen.scene as typeof scene1).dividerPositions.spine).not.toBe(65.68);
 
 		// Approving the old version again is refused: the client must look at the new one.
-		const stale = await approveVersion({ buildId: s.buildId, variantId: s.variantId, variantVersion: 1, author: client(s.link.id), message: '', scene: scene1 });
+		const stale = await approveVersion({
+			buildId: s.buildId,
+			variantId: s.variantId,
+			variantVersion: 1,
+			author: client(s.link.id),
+			message: '',
+			scene: scene1
+		});
 		expect(stale).toMatchObject({ ok: false, reason: 'changed', currentVersion: 2 });
 
-		const second = await approveVersion({ buildId: s.buildId, variantId: s.variantId, variantVersion: 2, author: client(s.link.id), message: '', scene: await sceneOf(s) });
+		const second = await approveVersion({
+			buildId: s.buildId,
+			variantId: s.variantId,
+			variantVersion: 2,
+			author: client(s.link.id),
+			message: '',
+			scene: await sceneOf(s)
+		});
 		expect(second.ok).toBe(true);
-		expect(approvalState(await latestApproval(s.variantId), 2)).toMatchObject({ version: 2, current: true });
+		expect(approvalState(await latestApproval(s.variantId), 2)).toMatchObject({
+			version: 2,
+			current: true
+		});
 	});
 
 	it('approving the same version twice keeps one approval', async () => {
 		const s = await sharedDemo();
 		const v = await variantRow(s.variantId);
 		const scene = await sceneOf(s);
-		await approveVersion({ buildId: s.buildId, variantId: s.variantId, variantVersion: v.version, author: client(s.link.id), message: '', scene });
-		const again = await approveVersion({ buildId: s.buildId, variantId: s.variantId, variantVersion: v.version, author: client(s.link.id), message: '', scene });
+		await approveVersion({
+			buildId: s.buildId,
+			variantId: s.variantId,
+			variantVersion: v.version,
+			author: client(s.link.id),
+			message: '',
+			scene
+		});
+		const again = await approveVersion({
+			buildId: s.buildId,
+			variantId: s.variantId,
+			variantVersion: v.version,
+			author: client(s.link.id),
+			message: '',
+			scene
+		});
 		expect(again).toMatchObject({ ok: false, reason: 'already' });
 		expect(await db.$count(approvals, eq(approvals.variantId, s.variantId))).toBe(1);
 	});
@@ -69,10 +145,35 @@ describe('approval freezes a version', () => {
 	it('puts approvals and change requests in the one thread, in order', async () => {
 		const s = await sharedDemo();
 		const v = await variantRow(s.variantId);
-		await addComment({ buildId: s.buildId, variantId: s.variantId, variantVersion: v.version, author: client(s.link.id), body: 'Is the pump reachable?', placementId: 'pump-res', partLabel: 'pump-reservoir' });
-		await requestChanges({ buildId: s.buildId, variantId: s.variantId, variantVersion: v.version, author: client(s.link.id), message: 'A larger radiator, please.' });
-		await approveVersion({ buildId: s.buildId, variantId: s.variantId, variantVersion: v.version, author: client(s.link.id), message: '', scene: await sceneOf(s) });
-		expect((await threadOf(s.variantId)).map((c) => c.kind)).toEqual(['comment', 'changes', 'approved']);
+		await addComment({
+			buildId: s.buildId,
+			variantId: s.variantId,
+			variantVersion: v.version,
+			author: client(s.link.id),
+			body: 'Is the pump reachable?',
+			placementId: 'pump-res',
+			partLabel: 'pump-reservoir'
+		});
+		await requestChanges({
+			buildId: s.buildId,
+			variantId: s.variantId,
+			variantVersion: v.version,
+			author: client(s.link.id),
+			message: 'A larger radiator, please.'
+		});
+		await approveVersion({
+			buildId: s.buildId,
+			variantId: s.variantId,
+			variantVersion: v.version,
+			author: client(s.link.id),
+			message: '',
+			scene: await sceneOf(s)
+		});
+		expect((await threadOf(s.variantId)).map((c) => c.kind)).toEqual([
+			'comment',
+			'changes',
+			'approved'
+		]);
 	});
 });
 
@@ -82,14 +183,31 @@ describe('the client view', () => {
 		const [build] = await db.select().from(builds).where(eq(builds.id, s.buildId));
 		const [studio] = await db.select().from(studios).where(eq(studios.id, s.studio.id));
 		const v = await variantRow(s.variantId);
-		const { view } = await clientView({ build, variant: v, studioName: studio.name, sharedBy: 'Designer', viewer: { kind: 'link', scopeKey: s.link.tokenHash, mayPay: true } });
+		const { view } = await clientView({
+			build,
+			variant: v,
+			studioName: studio.name,
+			sharedBy: 'Designer',
+			viewer: { kind: 'link', scopeKey: s.link.tokenHash, mayPay: true }
+		});
 		const text = JSON.stringify(view);
-		for (const id of [s.studio.id, s.buildId, s.variantId, s.enclosureVersionId, s.link.id, s.link.tokenHash, s.designer.id, ...s.partIds.values()]) {
+		for (const id of [
+			s.studio.id,
+			s.buildId,
+			s.variantId,
+			s.enclosureVersionId,
+			s.link.id,
+			s.link.tokenHash,
+			s.designer.id,
+			...s.partIds.values()
+		]) {
 			expect(text).not.toContain(id);
 		}
 		const originalPlacementIds = s.settings.placements.map((p) => p.id);
 		for (const p of view.scene.placements) expect(originalPlacementIds).not.toContain(p.id);
-		expect(view.placed.map((p) => p.ref)).toEqual(s.settings.placements.map((_, i) => `part-${String(i + 1).padStart(3, '0')}`).sort());
+		expect(view.placed.map((p) => p.ref)).toEqual(
+			s.settings.placements.map((_, i) => `part-${String(i + 1).padStart(3, '0')}`).sort()
+		);
 		// Eight parts placed, seven different ones (two fans): the list groups them.
 		expect(view.lines.reduce((n, l) => n + l.quantity, 0)).toBe(8);
 		expect(view.lines.find((l) => l.category === 'fan')?.quantity).toBe(2);

@@ -11,10 +11,21 @@ import { newId } from '../tokens';
 import { canonicalJson, ensureVersion, recordRevision } from '../versions';
 import type { ApprovalState } from '$lib/components/client/types';
 
-export type Author = { userId: string | null; shareLinkId: string | null; name: string; side: 'studio' | 'client' };
+export type Author = {
+	userId: string | null;
+	shareLinkId: string | null;
+	name: string;
+	side: 'studio' | 'client';
+};
 export type Target = { buildId: string; variantId: string; variantVersion: number };
 
-type CommentInput = Target & { author: Author; body: string; kind: CommentRow['kind']; placementId?: string | null; partLabel?: string | null };
+type CommentInput = Target & {
+	author: Author;
+	body: string;
+	kind: CommentRow['kind'];
+	placementId?: string | null;
+	partLabel?: string | null;
+};
 
 async function insertComment(run: Pick<typeof db, 'insert'>, c: CommentInput): Promise<CommentRow> {
 	const [row] = await run
@@ -37,11 +48,21 @@ async function insertComment(run: Pick<typeof db, 'insert'>, c: CommentInput): P
 	return row;
 }
 
-export async function addComment(input: Target & { author: Author; body: string; placementId: string | null; partLabel: string | null }): Promise<CommentRow> {
+export async function addComment(
+	input: Target & {
+		author: Author;
+		body: string;
+		placementId: string | null;
+		partLabel: string | null;
+	}
+): Promise<CommentRow> {
 	return insertComment(db, { ...input, kind: 'comment' });
 }
 
-export type ApproveResult = { ok: true; approval: ApprovalRow; comment: CommentRow } | { ok: false; reason: 'changed'; currentVersion: number } | { ok: false; reason: 'already'; approval: ApprovalRow };
+export type ApproveResult =
+	| { ok: true; approval: ApprovalRow; comment: CommentRow }
+	| { ok: false; reason: 'changed'; currentVersion: number }
+	| { ok: false; reason: 'already'; approval: ApprovalRow };
 
 /**
  * Approves exactly the version the client looked at (a version number, not a revision), freezing
@@ -50,22 +71,59 @@ export type ApproveResult = { ok: true; approval: ApprovalRow; comment: CommentR
  * set aside (kept as a revision) so the variant is exactly what was approved. Approving again after
  * asking for changes renews the approval.
  */
-export async function approveVersion(input: Target & { author: Author; message: string; scene: Scene }): Promise<ApproveResult> {
+export async function approveVersion(
+	input: Target & { author: Author; message: string; scene: Scene }
+): Promise<ApproveResult> {
 	return db.transaction(async (tx) => {
-		const [v] = await tx.select().from(variants).where(eq(variants.id, input.variantId)).for('update');
+		const [v] = await tx
+			.select()
+			.from(variants)
+			.where(eq(variants.id, input.variantId))
+			.for('update');
 		const latest = v ? await ensureVersion(v, tx) : null;
-		if (!v || !latest || latest.number !== input.variantVersion) return { ok: false as const, reason: 'changed' as const, currentVersion: latest?.number ?? 0 };
-		const [already] = await tx.select().from(approvals).where(and(eq(approvals.variantId, input.variantId), eq(approvals.variantVersion, input.variantVersion)));
+		if (!v || !latest || latest.number !== input.variantVersion) {
+			return {
+				ok: false as const,
+				reason: 'changed' as const,
+				currentVersion: latest?.number ?? 0
+			};
+		}
+		const [already] = await tx
+			.select()
+			.from(approvals)
+			.where(
+				and(
+					eq(approvals.variantId, input.variantId),
+					eq(approvals.variantVersion, input.variantVersion)
+				)
+			);
 		if (already) {
-			const [reopened] = await tx.select({ id: comments.id }).from(comments).where(and(eq(comments.variantId, input.variantId), eq(comments.kind, 'changes'), gt(comments.createdAt, already.createdAt))).limit(1);
+			const [reopened] = await tx
+				.select({ id: comments.id })
+				.from(comments)
+				.where(
+					and(
+						eq(comments.variantId, input.variantId),
+						eq(comments.kind, 'changes'),
+						gt(comments.createdAt, already.createdAt)
+					)
+				)
+				.limit(1);
 			if (!reopened) return { ok: false as const, reason: 'already' as const, approval: already };
 		}
 		if (canonicalJson(v.settings) !== canonicalJson(latest.settings)) {
 			const revision = v.version + 1;
-			await tx.update(variants).set({ settings: latest.settings, version: revision, updatedAt: new Date() }).where(eq(variants.id, v.id));
+			await tx
+				.update(variants)
+				.set({ settings: latest.settings, version: revision, updatedAt: new Date() })
+				.where(eq(variants.id, v.id));
 			await recordRevision(tx, { variantId: v.id, revision, settings: latest.settings });
 		}
-		const comment = await insertComment(tx, { ...input, kind: 'approved', body: input.message || 'Approved.' });
+		const comment = await insertComment(tx, {
+			...input,
+			kind: 'approved',
+			body: input.message || 'Approved.'
+		});
 		const values = {
 			buildId: input.buildId,
 			variantId: input.variantId,
@@ -79,29 +137,52 @@ export async function approveVersion(input: Target & { author: Author; message: 
 		};
 		const [approval] = already
 			? await tx.update(approvals).set(values).where(eq(approvals.id, already.id)).returning()
-			: await tx.insert(approvals).values({ id: newId(), ...values }).returning();
+			: await tx
+					.insert(approvals)
+					.values({ id: newId(), ...values })
+					.returning();
 		return { ok: true as const, approval, comment };
 	});
 }
 
-export async function requestChanges(input: Target & { author: Author; message: string }): Promise<CommentRow> {
+export async function requestChanges(
+	input: Target & { author: Author; message: string }
+): Promise<CommentRow> {
 	return insertComment(db, { ...input, kind: 'changes', body: input.message });
 }
 
 export async function threadOf(variantId: string): Promise<CommentRow[]> {
-	return db.select().from(comments).where(eq(comments.variantId, variantId)).orderBy(asc(comments.createdAt), asc(comments.id));
+	return db
+		.select()
+		.from(comments)
+		.where(eq(comments.variantId, variantId))
+		.orderBy(asc(comments.createdAt), asc(comments.id));
 }
 
 export async function latestApproval(variantId: string): Promise<ApprovalRow | null> {
-	const [row] = await db.select().from(approvals).where(eq(approvals.variantId, variantId)).orderBy(desc(approvals.variantVersion)).limit(1);
+	const [row] = await db
+		.select()
+		.from(approvals)
+		.where(eq(approvals.variantId, variantId))
+		.orderBy(desc(approvals.variantVersion))
+		.limit(1);
 	return row ?? null;
 }
 
-
 /** `currentVersion` is the variant's latest version number (what the client sees now). */
-export function approvalState(approval: ApprovalRow | null, currentVersion: number, reopened = false): ApprovalState {
+export function approvalState(
+	approval: ApprovalRow | null,
+	currentVersion: number,
+	reopened = false
+): ApprovalState {
 	if (!approval) return null;
-	return { version: approval.variantVersion, at: approval.createdAt, byName: approval.byName, current: approval.variantVersion === currentVersion, reopened };
+	return {
+		version: approval.variantVersion,
+		at: approval.createdAt,
+		byName: approval.byName,
+		current: approval.variantVersion === currentVersion,
+		reopened
+	};
 }
 
 /** Counts per variant, for the share page's overview. */

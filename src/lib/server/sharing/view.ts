@@ -6,26 +6,49 @@
  */
 import { createHash } from 'node:crypto';
 import { inArray } from 'drizzle-orm';
-import { boxSize, innerVolumeLitres, resolveScene, type PartCategory, type PartDef, type Scene } from '$lib/geometry';
+import {
+	boxSize,
+	innerVolumeLitres,
+	resolveScene,
+	type PartCategory,
+	type PartDef,
+	type Scene
+} from '$lib/geometry';
 import { versionChanges } from '$lib/builds/version-diff';
 import { checkInPool } from '../engine/pool';
 import { loadVariant } from '../builds';
 import { ensureVersion, versionById, versionsOf } from '../versions';
 import { db } from '../db';
-import { parts as partsTable, type BuildRow, type VariantRow, type VariantVersionRow } from '../db/schema';
+import {
+	parts as partsTable,
+	type BuildRow,
+	type VariantRow,
+	type VariantVersionRow
+} from '../db/schema';
 import { paidDeposit } from '../payments';
 import { photosOf } from './photos';
 import { quoteOfVariant } from './quotes';
 import { CATEGORY_WORDS, fitSummary, placementNames } from './summary';
 import { approvalState, latestApproval, threadOf } from './thread';
-import type { ClientComment, ClientQuote, ClientView, DepositState, PartLine, PlacedPart } from '$lib/components/client/types';
+import type {
+	ClientComment,
+	ClientQuote,
+	ClientView,
+	DepositState,
+	PartLine,
+	PlacedPart
+} from '$lib/components/client/types';
 
 export type { ClientView };
 
 const pad = (n: number) => String(n).padStart(3, '0');
 
 /** The scene with neutral ids, and the maps back to the real ones (kept on the server). */
-export function neutralScene(scene: Scene): { scene: Scene; placementIds: Map<string, string>; partIds: Map<string, string> } {
+export function neutralScene(scene: Scene): {
+	scene: Scene;
+	placementIds: Map<string, string>;
+	partIds: Map<string, string>;
+} {
 	const partIds = new Map<string, string>();
 	const used = scene.parts.filter((p) => scene.placements.some((pl) => pl.partId === p.id));
 	used.forEach((p, i) => partIds.set(p.id, `p${i + 1}`));
@@ -48,13 +71,27 @@ export function photoRef(scopeKey: string, photoId: string): string {
 	return createHash('sha256').update(`${scopeKey}:${photoId}`).digest('base64url').slice(0, 22);
 }
 
-export type ViewerKind = { kind: 'link'; scopeKey: string; mayPay: boolean } | { kind: 'member'; scopeKey: string; mayPay: boolean };
+export type ViewerKind =
+	| { kind: 'link'; scopeKey: string; mayPay: boolean }
+	| { kind: 'member'; scopeKey: string; mayPay: boolean };
 
-export async function clientView(input: { build: BuildRow; variant: VariantRow; studioName: string; sharedBy: string | null; viewer: ViewerKind }): Promise<{ view: ClientView; placementIds: Map<string, string>; frozenScene: Scene }> {
+export async function clientView(input: {
+	build: BuildRow;
+	variant: VariantRow;
+	studioName: string;
+	sharedBy: string | null;
+	viewer: ViewerKind;
+}): Promise<{ view: ClientView; placementIds: Map<string, string>; frozenScene: Scene }> {
 	const { build, variant } = input;
 	// Clients see versions only: the latest one the studio saved, never later autosaved revisions.
 	const shown = await ensureVersion(variant);
-	const loaded = await loadVariant(build.id, build.studioId, build.enclosureVersionId, variant.id, shown.settings);
+	const loaded = await loadVariant(
+		build.id,
+		build.studioId,
+		build.enclosureVersionId,
+		variant.id,
+		shown.settings
+	);
 	if (!loaded) throw new Error('The shared variant could not be loaded.');
 	const changes = await changesSince(input, shown, loaded);
 	const neutral = neutralScene(loaded.scene);
@@ -73,11 +110,23 @@ export async function clientView(input: { build: BuildRow; variant: VariantRow; 
 		status: statusOf.get(rp.placement.id) ?? 'clear'
 	}));
 
-	const [quoteData, approval, thread, photoRows] = await Promise.all([quoteOfVariant(variant.id), latestApproval(variant.id), threadOf(variant.id), photosOf(build.id)]);
+	const [quoteData, approval, thread, photoRows] = await Promise.all([
+		quoteOfVariant(variant.id),
+		latestApproval(variant.id),
+		threadOf(variant.id),
+		photosOf(build.id)
+	]);
 	const sentQuote = quoteData && quoteData.quote.status === 'sent' ? quoteData : null;
 	const realPartIds = [...neutral.partIds.keys()];
 	const catalogue = realPartIds.length
-		? await db.select({ id: partsTable.id, priceMinor: partsTable.priceMinor, currency: partsTable.currency }).from(partsTable).where(inArray(partsTable.id, realPartIds))
+		? await db
+				.select({
+					id: partsTable.id,
+					priceMinor: partsTable.priceMinor,
+					currency: partsTable.currency
+				})
+				.from(partsTable)
+				.where(inArray(partsTable.id, realPartIds))
 		: [];
 	const priceById = new Map(catalogue.map((c) => [c.id, c]));
 
@@ -99,7 +148,12 @@ export async function clientView(input: { build: BuildRow; variant: VariantRow; 
 	const quote: ClientQuote | null = sentQuote
 		? {
 				currency: sentQuote.quote.currency,
-				lines: sentQuote.lines.map((l) => ({ description: l.description, quantity: l.quantity, unitPriceMinor: l.unitPriceMinor ?? 0, totalMinor: l.quantity * (l.unitPriceMinor ?? 0) })),
+				lines: sentQuote.lines.map((l) => ({
+					description: l.description,
+					quantity: l.quantity,
+					unitPriceMinor: l.unitPriceMinor ?? 0,
+					totalMinor: l.quantity * (l.unitPriceMinor ?? 0)
+				})),
 				labourNote: sentQuote.quote.labourNote,
 				labourMinor: sentQuote.totals.labourMinor,
 				subtotalMinor: sentQuote.totals.subtotalMinor,
@@ -114,11 +168,15 @@ export async function clientView(input: { build: BuildRow; variant: VariantRow; 
 			}
 		: null;
 
-	const reopened = !!approval && thread.some((c) => c.kind === 'changes' && c.createdAt > approval.createdAt);
+	const reopened =
+		!!approval && thread.some((c) => c.kind === 'changes' && c.createdAt > approval.createdAt);
 	const approvalNow = approvalState(approval, shown.number, reopened);
 	const paid = quoteData ? await paidDeposit(quoteData.quote.id) : null;
 	const deposit: DepositState = {
-		paid: paid && paid.paidAt ? { amountMinor: paid.amountMinor, currency: paid.currency, paidAt: paid.paidAt } : null,
+		paid:
+			paid && paid.paidAt
+				? { amountMinor: paid.amountMinor, currency: paid.currency, paidAt: paid.paidAt }
+				: null,
 		dueMinor: quote?.depositMinor ?? null,
 		currency: quote?.currency ?? null,
 		canPay: false,
@@ -126,8 +184,9 @@ export async function clientView(input: { build: BuildRow; variant: VariantRow; 
 	};
 	if (!deposit.paid) {
 		if (!quote) deposit.reason = 'The studio has not sent a quote yet.';
-		else if (!approvalNow?.current || approvalNow.reopened) deposit.reason = 'Approve the build first; the deposit is for the version you approve.';
-		else if (!input.viewer.mayPay) deposit.reason = 'Only the client can pay the deposit.';
+		else if (!approvalNow?.current || approvalNow.reopened) {
+			deposit.reason = 'Approve the build first; the deposit is for the version you approve.';
+		} else if (!input.viewer.mayPay) deposit.reason = 'Only the client can pay the deposit.';
 		else deposit.canPay = true;
 	}
 
@@ -153,7 +212,11 @@ export async function clientView(input: { build: BuildRow; variant: VariantRow; 
 		versionNote: shown.note,
 		changes,
 		sharedBy: input.sharedBy,
-		enclosure: { name: scene.enclosure.name, outerMm: scene.enclosure.outerMm, innerLitres: innerVolumeLitres(scene.enclosure) },
+		enclosure: {
+			name: scene.enclosure.name,
+			outerMm: scene.enclosure.outerMm,
+			innerLitres: innerVolumeLitres(scene.enclosure)
+		},
 		summary: fitSummary(report, resolved, scene.marginMm),
 		placed,
 		lines,
@@ -162,7 +225,12 @@ export async function clientView(input: { build: BuildRow; variant: VariantRow; 
 		approval: approvalNow,
 		deposit,
 		comments,
-		photos: photoRows.map((p) => ({ ref: photoRef(input.viewer.scopeKey, p.id), caption: p.caption, width: p.width, height: p.height }))
+		photos: photoRows.map((p) => ({
+			ref: photoRef(input.viewer.scopeKey, p.id),
+			caption: p.caption,
+			width: p.width,
+			height: p.height
+		}))
 	};
 	return { view, placementIds: neutral.placementIds, frozenScene: loaded.scene };
 }
@@ -171,28 +239,54 @@ export async function clientView(input: { build: BuildRow; variant: VariantRow; 
  * The difference between the shown version and the one before it (of this variant, or the version
  * it was started from), in words; null for a first version.
  */
-async function changesSince(input: { build: BuildRow; variant: VariantRow }, shown: VariantVersionRow, loaded: NonNullable<Awaited<ReturnType<typeof loadVariant>>>) {
+async function changesSince(
+	input: { build: BuildRow; variant: VariantRow },
+	shown: VariantVersionRow,
+	loaded: NonNullable<Awaited<ReturnType<typeof loadVariant>>>
+) {
 	const older = (await versionsOf(input.variant.id)).find((v) => v.number < shown.number);
-	const before = older ?? (input.variant.basedOnVersionId ? await versionById(input.variant.basedOnVersionId) : null);
+	const before =
+		older ??
+		(input.variant.basedOnVersionId ? await versionById(input.variant.basedOnVersionId) : null);
 	if (!before || before.id === shown.id) return null;
 	let prior;
 	try {
-		prior = await loadVariant(input.build.id, input.build.studioId, input.build.enclosureVersionId, input.variant.id, before.settings);
+		prior = await loadVariant(
+			input.build.id,
+			input.build.studioId,
+			input.build.enclosureVersionId,
+			input.variant.id,
+			before.settings
+		);
 	} catch {
 		// An old version that no longer validates (its enclosure moved on): no comparison to offer.
 		return null;
 	}
 	if (!prior) return null;
-	const parts = [...loaded.parts, ...prior.parts.filter((p) => !loaded.parts.some((q) => q.id === p.id))];
-	const [priorReport, shownReport] = await Promise.all([checkInPool(prior.scene), checkInPool(loaded.scene)]);
-	const lines = versionChanges(loaded.enclosure, parts, { settings: prior.settings, report: priorReport }, { settings: loaded.settings, report: shownReport });
+	const parts = [
+		...loaded.parts,
+		...prior.parts.filter((p) => !loaded.parts.some((q) => q.id === p.id))
+	];
+	const [priorReport, shownReport] = await Promise.all([
+		checkInPool(prior.scene),
+		checkInPool(loaded.scene)
+	]);
+	const lines = versionChanges(
+		loaded.enclosure,
+		parts,
+		{ settings: prior.settings, report: priorReport },
+		{ settings: loaded.settings, report: shownReport }
+	);
 	return { since: before.number, lines };
 }
 
 /** The photo id behind a reference, among this build's photos. */
-export async function photoIdForRef(buildId: string, scopeKey: string, ref: string): Promise<string | null> {
+export async function photoIdForRef(
+	buildId: string,
+	scopeKey: string,
+	ref: string
+): Promise<string | null> {
 	if (!/^[A-Za-z0-9_-]{22}$/.test(ref)) return null;
 	const rows = await photosOf(buildId);
 	return rows.find((p) => photoRef(scopeKey, p.id) === ref)?.id ?? null;
 }
-

@@ -63,7 +63,11 @@ export type MatrixRow = {
 
 export async function matrixFixture(): Promise<MatrixFixture> {
 	const f = await studioWithMembers();
-	const invite = await createInvite({ studioId: f.studio.id, role: 'designer', invitedBy: f.owner.id });
+	const invite = await createInvite({
+		studioId: f.studio.id,
+		role: 'designer',
+		invitedBy: f.owner.id
+	});
 	return { ...f, invite, vars: {} };
 }
 
@@ -88,13 +92,20 @@ async function call(row: MatrixRow, f: MatrixFixture, c: Client) {
 	if (row.json) {
 		return c.request(row.method, path, {
 			body: JSON.stringify(row.json(f)),
-			headers: { 'content-type': 'application/json', accept: 'application/json', origin: new URL(c.baseURL).origin }
+			headers: {
+				'content-type': 'application/json',
+				accept: 'application/json',
+				origin: new URL(c.baseURL).origin
+			}
 		});
 	}
 	return c.postForm(path, row.form?.(f) ?? {});
 }
 
-export function runAccessMatrix(rows: MatrixRow[], app: { client(opts?: { session?: string }): Client }) {
+export function runAccessMatrix(
+	rows: MatrixRow[],
+	app: { client(opts?: { session?: string }): Client }
+) {
 	const cells = rows.flatMap((row) => VISITORS.map((who) => ({ row, who })));
 	const shared = new Map<MatrixRow, Promise<MatrixFixture>>();
 	const fixtureFor = (row: MatrixRow) => {
@@ -109,24 +120,39 @@ export function runAccessMatrix(rows: MatrixRow[], app: { client(opts?: { sessio
 	};
 	// Cells are independent (own fixtures, or shared ones nobody changes), so they run side by side.
 	describe.concurrent('access matrix', () => {
-		it.for(cells.map((c) => [`${rowLabel(c.row)} as ${c.who} → ${describeExpected(c.row.expect[c.who])}`, c] as const))('%s', async ([, { row, who }], { expect }) => {
+		it.for(
+			cells.map(
+				(c) =>
+					[`${rowLabel(c.row)} as ${c.who} → ${describeExpected(c.row.expect[c.who])}`, c] as const
+			)
+		)('%s', async ([, { row, who }], { expect }) => {
 			const f = await fixtureFor(row);
 			const session = who === 'anonymous' ? undefined : f[who].session;
 			const res = await call(row, f, app.client(session ? { session } : {}));
 			const expected = row.expect[who];
 			const status = typeof expected === 'number' ? expected : expected.status;
-			expect(res.status, `${res.status} ${res.location ?? ''} ${res.text.slice(0, 200)}`).toBe(status);
+			expect(res.status, `${res.status} ${res.location ?? ''} ${res.text.slice(0, 200)}`).toBe(
+				status
+			);
 			if (typeof expected !== 'number') {
 				if (typeof expected.location === 'string') expect(res.location).toBe(expected.location);
 				else expect(res.location).toMatch(expected.location);
 			}
 			if (who === 'outsider' && !row.showsStudioToLinkHolders) {
-				for (const secret of [f.studio.name, f.owner.email, f.designer.email, f.client.email, f.invite.email]) {
+				for (const secret of [
+					f.studio.name,
+					f.owner.email,
+					f.designer.email,
+					f.client.email,
+					f.invite.email
+				]) {
 					expect(res.text, 'the outsider sees nothing of the studio').not.toContain(secret);
 				}
 			}
 			if (row.changes) {
-				expect(await row.changes.check(f, who), 'whether the studio changed').toBe(row.changes.by.includes(who));
+				expect(await row.changes.check(f, who), 'whether the studio changed').toBe(
+					row.changes.by.includes(who)
+				);
 			}
 		});
 	});
@@ -189,9 +215,19 @@ const METHOD = /export\s+(?:const|let|async\s+function|function)\s+(GET|POST|PUT
  */
 export async function routeInventory(): Promise<RouteEntry[]> {
 	const pages = Object.keys(import.meta.glob('/src/routes/**/+page.svelte'));
-	const pageServers = import.meta.glob<string>('/src/routes/**/+page.server.ts', { query: '?raw', import: 'default', eager: true });
-	const pageModules = import.meta.glob<{ actions?: Record<string, unknown> }>('/src/routes/**/+page.server.ts');
-	const endpoints = import.meta.glob<string>('/src/routes/**/+server.ts', { query: '?raw', import: 'default', eager: true });
+	const pageServers = import.meta.glob<string>('/src/routes/**/+page.server.ts', {
+		query: '?raw',
+		import: 'default',
+		eager: true
+	});
+	const pageModules = import.meta.glob<{ actions?: Record<string, unknown> }>(
+		'/src/routes/**/+page.server.ts'
+	);
+	const endpoints = import.meta.glob<string>('/src/routes/**/+server.ts', {
+		query: '?raw',
+		import: 'default',
+		eager: true
+	});
 	const out: RouteEntry[] = pages.map((p) => ({ route: routeId(p), method: 'GET' as const }));
 	for (const [file, source] of Object.entries(pageServers)) {
 		const route = routeId(file);
@@ -200,7 +236,9 @@ export async function routeInventory(): Promise<RouteEntry[]> {
 		for (const action of names) out.push({ route, method: 'POST', action });
 	}
 	for (const [file, source] of Object.entries(endpoints)) {
-		for (const [, method] of source.matchAll(METHOD)) out.push({ route: routeId(file), method: method as MatrixRow['method'] });
+		for (const [, method] of source.matchAll(METHOD)) {
+			out.push({ route: routeId(file), method: method as MatrixRow['method'] });
+		}
 	}
 	return out;
 }

@@ -106,7 +106,10 @@ export class Client {
 			this.lastSet.set(name, attributes);
 			const maxAge = /max-age=(-?\d+)/i.exec(attributes)?.[1];
 			const expires = /expires=([^;]+)/i.exec(attributes)?.[1];
-			const gone = value === '' || (maxAge !== undefined && Number(maxAge) <= 0) || (expires !== undefined && Date.parse(expires) <= Date.now());
+			const gone =
+				value === '' ||
+				(maxAge !== undefined && Number(maxAge) <= 0) ||
+				(expires !== undefined && Date.parse(expires) <= Date.now());
 			if (gone) this.jar.delete(name);
 			else this.jar.set(name, { value, attributes });
 		}
@@ -118,7 +121,9 @@ export class Client {
 		init: { headers?: Record<string, string | null>; body?: Buffer | string } = {}
 	): Promise<TestResponse> {
 		const url = new URL(path, this.baseURL);
-		if (url.origin !== new URL(this.baseURL).origin) throw new Error(`${url} is not on ${this.baseURL}`);
+		if (url.origin !== new URL(this.baseURL).origin) {
+			throw new Error(`${url} is not on ${this.baseURL}`);
+		}
 		const headers: Record<string, string> = {};
 		const cookies = [...this.jar].map(([k, c]) => `${k}=${encodeURIComponent(c.value)}`).join('; ');
 		if (cookies) headers.cookie = cookies;
@@ -128,16 +133,26 @@ export class Client {
 		}
 		if (init.body !== undefined) headers['content-length'] = String(Buffer.byteLength(init.body));
 		return new Promise((done, fail) => {
-			const req = request(url, { method, headers, agent: false, localAddress: this.address }, (res) => {
-				const chunks: Buffer[] = [];
-				res.on('data', (c: Buffer) => chunks.push(c));
-				res.on('end', () => {
-					const setCookie = res.headers['set-cookie'];
-					this.remember(setCookie);
-					done(new TestResponse(res.statusCode ?? 0, res.headers, Buffer.concat(chunks).toString('utf8')));
-				});
-				res.on('error', fail);
-			});
+			const req = request(
+				url,
+				{ method, headers, agent: false, localAddress: this.address },
+				(res) => {
+					const chunks: Buffer[] = [];
+					res.on('data', (c: Buffer) => chunks.push(c));
+					res.on('end', () => {
+						const setCookie = res.headers['set-cookie'];
+						this.remember(setCookie);
+						done(
+							new TestResponse(
+								res.statusCode ?? 0,
+								res.headers,
+								Buffer.concat(chunks).toString('utf8')
+							)
+						);
+					});
+					res.on('error', fail);
+				}
+			);
 			req.on('error', fail);
 			if (init.body !== undefined) req.write(init.body);
 			req.end();
@@ -154,7 +169,11 @@ export class Client {
 	 * check passes; override it in `headers` (or set it to null) to test that check.
 	 * A FormData body is sent as multipart, e.g. to put a file where text belongs.
 	 */
-	async postForm(path: string, fields: Fields | FormData = {}, headers: Record<string, string | null> = {}) {
+	async postForm(
+		path: string,
+		fields: Fields | FormData = {},
+		headers: Record<string, string | null> = {}
+	) {
 		const { body, contentType } = await encode(fields);
 		return this.request('POST', path, {
 			body,
@@ -163,14 +182,24 @@ export class Client {
 	}
 
 	/** The same post as `use:enhance` sends it; answers SvelteKit's ActionResult with `data` decoded. */
-	async action(path: string, fields: Fields | FormData = {}): Promise<ActionResult & { response: TestResponse }> {
+	async action(
+		path: string,
+		fields: Fields | FormData = {}
+	): Promise<ActionResult & { response: TestResponse }> {
 		const { body, contentType } = await encode(fields);
 		const response = await this.request('POST', path, {
 			body,
-			headers: { origin: this.origin, 'content-type': contentType, accept: 'application/json', 'x-sveltekit-action': 'true' }
+			headers: {
+				origin: this.origin,
+				'content-type': contentType,
+				accept: 'application/json',
+				'x-sveltekit-action': 'true'
+			}
 		});
 		if (!(response.header('content-type') ?? '').includes('application/json')) {
-			throw new Error(`POST ${path} answered ${response.status} ${response.header('content-type')}: ${response.text.slice(0, 300)}`);
+			throw new Error(
+				`POST ${path} answered ${response.status} ${response.header('content-type')}: ${response.text.slice(0, 300)}`
+			);
 		}
 		const result = response.json<ActionResult>();
 		if (typeof result.data === 'string') result.data = devalue.parse(result.data);
@@ -200,9 +229,14 @@ async function encode(fields: Fields | FormData): Promise<{ body: Buffer; conten
 	if (fields instanceof FormData) {
 		// The platform's own multipart encoder, boundary included.
 		const r = new Response(fields);
-		return { body: Buffer.from(await r.arrayBuffer()), contentType: r.headers.get('content-type') ?? '' };
+		return {
+			body: Buffer.from(await r.arrayBuffer()),
+			contentType: r.headers.get('content-type') ?? ''
+		};
 	}
 	const params = new URLSearchParams();
-	for (const [k, v] of Object.entries(fields)) if (v !== undefined && v !== null) params.append(k, String(v));
+	for (const [k, v] of Object.entries(fields)) {
+		if (v !== undefined && v !== null) params.append(k, String(v));
+	}
 	return { body: Buffer.from(params.toString()), contentType: 'application/x-www-form-urlencoded' };
 }

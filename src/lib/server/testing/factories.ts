@@ -7,7 +7,16 @@ import { randomBytes } from 'node:crypto';
 import { and, count, eq, like, or, sql } from 'drizzle-orm';
 import { createSessionToken } from '../auth';
 import { db } from '../db';
-import { invites, memberships, passwordResets, rateLimits, sessions, studios, users, type Role } from '../db/schema';
+import {
+	invites,
+	memberships,
+	passwordResets,
+	rateLimits,
+	sessions,
+	studios,
+	users,
+	type Role
+} from '../db/schema';
 import { hashPassword } from '../passwords';
 import { hashToken, newId, newToken } from '../tokens';
 import { testDatabaseUrl } from './env';
@@ -27,14 +36,36 @@ export function uniqueEmail(label = 'user'): string {
 export type TestUser = { id: string; email: string; name: string; password: string };
 
 /** A verified account (as if its owner had opened the confirmation mail), unless `verified: false`. */
-export async function createUser(opts: { name?: string; email?: string; password?: string; activeStudioId?: string | null; verified?: boolean } = {}): Promise<TestUser> {
+export async function createUser(
+	opts: {
+		name?: string;
+		email?: string;
+		password?: string;
+		activeStudioId?: string | null;
+		verified?: boolean;
+	} = {}
+): Promise<TestUser> {
 	testDatabaseUrl();
 	const password = opts.password ?? TEST_PASSWORD;
 	// One argon2 hash per process for the shared password (~50 ms each).
-	const passwordHash = opts.password ? await hashPassword(password) : await (defaultHash ??= hashPassword(TEST_PASSWORD));
+	const passwordHash = opts.password
+		? await hashPassword(password)
+		: await (defaultHash ??= hashPassword(TEST_PASSWORD));
 	const email = (opts.email ?? uniqueEmail()).toLowerCase();
-	const user = { id: newId(), email, name: opts.name ?? `Tester ${randomBytes(3).toString('hex')}`, password };
-	await db.insert(users).values({ id: user.id, email, name: user.name, passwordHash, activeStudioId: opts.activeStudioId ?? null, emailVerifiedAt: opts.verified === false ? null : new Date() });
+	const user = {
+		id: newId(),
+		email,
+		name: opts.name ?? `Tester ${randomBytes(3).toString('hex')}`,
+		password
+	};
+	await db.insert(users).values({
+		id: user.id,
+		email,
+		name: user.name,
+		passwordHash,
+		activeStudioId: opts.activeStudioId ?? null,
+		emailVerifiedAt: opts.verified === false ? null : new Date()
+	});
 	return user;
 }
 
@@ -61,7 +92,11 @@ export async function createSession(userId: string): Promise<string> {
 }
 
 /** A user with a session, member of `studioId` in `role`, working in it. */
-export async function createMember(studioId: string, role: Role, opts: Parameters<typeof createUser>[0] = {}) {
+export async function createMember(
+	studioId: string,
+	role: Role,
+	opts: Parameters<typeof createUser>[0] = {}
+) {
 	const user = await createUser({ activeStudioId: studioId, ...opts });
 	await db.insert(memberships).values({ studioId, userId: user.id, role });
 	return { ...user, session: await createSession(user.id) };
@@ -92,9 +127,19 @@ export async function studioWithMembers(): Promise<{
 }
 
 /** An open invitation; the token is what the mailed link carries. */
-export async function createInvite(opts: { studioId: string; role: Role; invitedBy?: string; email?: string; expiresAt?: Date }) {
+export async function createInvite(opts: {
+	studioId: string;
+	role: Role;
+	invitedBy?: string;
+	email?: string;
+	expiresAt?: Date;
+}) {
 	const token = newToken();
-	const invite = { id: newId(), email: (opts.email ?? uniqueEmail('invitee')).toLowerCase(), token };
+	const invite = {
+		id: newId(),
+		email: (opts.email ?? uniqueEmail('invitee')).toLowerCase(),
+		token
+	};
 	await db.insert(invites).values({
 		id: invite.id,
 		studioId: opts.studioId,
@@ -136,7 +181,9 @@ export async function accountRowCounts() {
  * browser tests, which all come from 127.0.0.1 and would otherwise share one budget.
  */
 export async function clearRateLimits(address: string) {
-	await db.delete(rateLimits).where(or(like(rateLimits.key, `%:${address}`), like(rateLimits.key, `%:${address}:%`)));
+	await db
+		.delete(rateLimits)
+		.where(or(like(rateLimits.key, `%:${address}`), like(rateLimits.key, `%:${address}:%`)));
 }
 
 /** Moves every reset link of this user one minute past its expiry. */

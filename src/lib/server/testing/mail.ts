@@ -4,11 +4,24 @@
  */
 import { config } from '../config';
 
-export type CaughtMail = { id: number; from: string; to: string[]; subject: string; text: string; date: string };
+export type CaughtMail = {
+	id: number;
+	from: string;
+	to: string[];
+	subject: string;
+	text: string;
+	date: string;
+};
 
 export async function listMail(to: string): Promise<CaughtMail[]> {
-	const res = await fetch(`${config.mailCatcherUrl}/messages?to=${encodeURIComponent(to.toLowerCase())}`);
-	if (!res.ok) throw new Error(`The mail catcher answered ${res.status}; is it running (scripts/lib.sh ensure_mail_catcher)?`);
+	const res = await fetch(
+		`${config.mailCatcherUrl}/messages?to=${encodeURIComponent(to.toLowerCase())}`
+	);
+	if (!res.ok) {
+		throw new Error(
+			`The mail catcher answered ${res.status}; is it running (scripts/lib.sh ensure_mail_catcher)?`
+		);
+	}
 	return (await res.json()) as CaughtMail[];
 }
 
@@ -23,11 +36,18 @@ export async function waitForMail(
 	const deadline = Date.now() + (opts.timeoutMs ?? 10_000);
 	const matches = (m: CaughtMail) =>
 		m.id > (opts.afterId ?? 0) &&
-		(opts.subject === undefined || (typeof opts.subject === 'string' ? m.subject.includes(opts.subject) : opts.subject.test(m.subject)));
+		(opts.subject === undefined ||
+			(typeof opts.subject === 'string'
+				? m.subject.includes(opts.subject)
+				: opts.subject.test(m.subject)));
 	for (;;) {
 		const found = (await listMail(to)).find(matches);
 		if (found) return found;
-		if (Date.now() > deadline) throw new Error(`No mail to ${to}${opts.subject ? ` with subject ${opts.subject}` : ''} arrived in time.`);
+		if (Date.now() > deadline) {
+			throw new Error(
+				`No mail to ${to}${opts.subject ? ` with subject ${opts.subject}` : ''} arrived in time.`
+			);
+		}
 		await new Promise((r) => setTimeout(r, 100));
 	}
 }

@@ -6,7 +6,10 @@ import type { RequestHandler } from './$types';
 export const GET: RequestHandler = async (event) => {
 	const access = await catalogAccess(event, 'catalog.view');
 	const q = (event.url.searchParams.get('q') ?? '').slice(0, 200);
-	const enclosures = await listEnclosures(access.studioId, { q, archived: event.url.searchParams.get('archived') === '1' });
+	const enclosures = await listEnclosures(access.studioId, {
+		q,
+		archived: event.url.searchParams.get('archived') === '1'
+	});
 	return json({ enclosures });
 };
 

@@ -1,7 +1,20 @@
 import { json } from '@sveltejs/kit';
 import { z } from 'zod';
-import { SceneError, allowedPositions, boxSchema, partCategorySchema, resolveScene, sceneSchema, type PartDef } from '$lib/geometry';
-import { partsByPositions, radiatorCombinations, whatFits, type FitCandidate } from '$lib/builds/fits';
+import {
+	SceneError,
+	allowedPositions,
+	boxSchema,
+	partCategorySchema,
+	resolveScene,
+	sceneSchema,
+	type PartDef
+} from '$lib/geometry';
+import {
+	partsByPositions,
+	radiatorCombinations,
+	whatFits,
+	type FitCandidate
+} from '$lib/builds/fits';
 import { apiLimit, problem, readJson } from '$lib/server/api';
 import { catalogAccess } from '$lib/server/catalog/http';
 import { refuseCost } from '$lib/server/engine/pool';
@@ -44,7 +57,11 @@ const body = z.object({
 	combinations: z.boolean().default(false)
 });
 
-const candidateOf = (p: PartRecord): FitCandidate => ({ part: { ...p.def, id: p.id, name: p.name }, priceMinor: p.priceMinor, isStandard: p.isStandard });
+const candidateOf = (p: PartRecord): FitCandidate => ({
+	part: { ...p.def, id: p.id, name: p.name },
+	priceMinor: p.priceMinor,
+	isStandard: p.isStandard
+});
 
 /**
  * A scene and a target (a mount, a compartment, a free-space box, a placed part to replace) → the
@@ -63,11 +80,22 @@ export const POST: RequestHandler = async (event) => {
 		records = await getPartsByIds(access.studioId, input.filters.partIds);
 		const found = new Set(records.map((r) => r.id));
 		const missing = input.filters.partIds.findIndex((p) => !found.has(p));
-		if (missing >= 0) return problem(400, 'No such part.', [{ path: `filters.partIds[${missing}]`, message: `No part with id ${input.filters.partIds[missing]}` }]);
+		if (missing >= 0) {
+			return problem(400, 'No such part.', [
+				{
+					path: `filters.partIds[${missing}]`,
+					message: `No part with id ${input.filters.partIds[missing]}`
+				}
+			]);
+		}
 		const order = new Map(input.filters.partIds.map((p, i) => [p, i]));
 		records.sort((a, b) => order.get(a.id)! - order.get(b.id)!);
 	} else {
-		records = await listPartsForStudio(access.studioId, { q: input.filters.q, category: input.filters.category, limit: MAX_CANDIDATES });
+		records = await listPartsForStudio(access.studioId, {
+			q: input.filters.q,
+			category: input.filters.category,
+			limit: MAX_CANDIDATES
+		});
 	}
 	const candidates = records.map(candidateOf);
 	try {
@@ -86,31 +114,63 @@ export const POST: RequestHandler = async (event) => {
 		out.parts = parts;
 		if (input.positions) {
 			const control = input.positions;
-			const def = control.kind === 'divider' ? input.scene.enclosure.dividers.find((d) => d.id === control.id) : input.scene.enclosure.brackets.find((b) => b.id === control.id);
-			if (!def) return problem(400, 'No such control.', [{ path: 'positions.id', message: `No ${control.kind} with id ${control.id}` }]);
+			const def =
+				control.kind === 'divider'
+					? input.scene.enclosure.dividers.find((d) => d.id === control.id)
+					: input.scene.enclosure.brackets.find((b) => b.id === control.id);
+			if (!def) {
+				return problem(400, 'No such control.', [
+					{ path: 'positions.id', message: `No ${control.kind} with id ${control.id}` }
+				]);
+			}
 			const picked = candidates.slice(0, input.limit);
 			if (allowedPositions(def).length * picked.length > MAX_CELLS) {
-				return problem(400, 'Too many cells.', [{ path: 'positions.id', message: `${allowedPositions(def).length} positions × ${picked.length} parts is more than ${MAX_CELLS} cells; pick fewer parts` }]);
+				return problem(400, 'Too many cells.', [
+					{
+						path: 'positions.id',
+						message: `${allowedPositions(def).length} positions × ${picked.length} parts is more than ${MAX_CELLS} cells; pick fewer parts`
+					}
+				]);
 			}
-			const boxPlacements = sceneBoxCount(input.scene) * allowedPositions(def).length * picked.length;
+			const boxPlacements =
+				sceneBoxCount(input.scene) * allowedPositions(def).length * picked.length;
 			if (boxPlacements > MAX_BOX_PLACEMENTS) {
-				return problem(422, 'Too much work for one call.', [{ path: 'positions.id', message: `${boxPlacements} box placements (boxes × positions × parts) is more than ${MAX_BOX_PLACEMENTS}; pick fewer parts` }]);
+				return problem(422, 'Too much work for one call.', [
+					{
+						path: 'positions.id',
+						message: `${boxPlacements} box placements (boxes × positions × parts) is more than ${MAX_BOX_PLACEMENTS}; pick fewer parts`
+					}
+				]);
 			}
 			out.partsByPositions = partsByPositions(input.scene, input.target, picked, control);
 		}
 		if (input.combinations) {
-			if (input.target.kind !== 'mount') return problem(400, 'Combinations are for a mount.', [{ path: 'target.kind', message: 'Combinations need a radiator or fan mount' }]);
+			if (input.target.kind !== 'mount') {
+				return problem(400, 'Combinations are for a mount.', [
+					{ path: 'target.kind', message: 'Combinations need a radiator or fan mount' }
+				]);
+			}
 			const [rads, fans] = await Promise.all(
-				(['radiator', 'fan'] as const).map((category) => listPartsForStudio(access.studioId, { category, limit: MAX_COMBINATION_PARTS }))
+				(['radiator', 'fan'] as const).map((category) =>
+					listPartsForStudio(access.studioId, { category, limit: MAX_COMBINATION_PARTS })
+				)
 			);
 			const pool = [...rads, ...fans].map(candidateOf);
 			const combinations = radiatorCombinations(input.scene, input.target.mountId, pool, resolved);
-			for (const c of combinations) for (const p of pool) if (p.part.id === c.radiator.partId || p.part.id === c.fan.partId) parts[p.part.id] = p.part;
+			for (const c of combinations) {
+				for (const p of pool) {
+					if (p.part.id === c.radiator.partId || p.part.id === c.fan.partId) {
+						parts[p.part.id] = p.part;
+					}
+				}
+			}
 			out.combinations = combinations;
 		}
 		return json(out);
 	} catch (e) {
-		if (e instanceof SceneError) return problem(400, e.message, [{ path: e.path, message: e.message }]);
+		if (e instanceof SceneError) {
+			return problem(400, e.message, [{ path: e.path, message: e.message }]);
+		}
 		throw e;
 	}
 };

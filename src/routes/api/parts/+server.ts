@@ -1,7 +1,12 @@
 import { json } from '@sveltejs/kit';
 import { partCategorySchema } from '$lib/geometry';
 import { answer, catalogAccess, partQueryOf, problem, readJson } from '$lib/server/catalog/http';
-import { createPart, getPartsByIds, listParts, listPartsForStudio } from '$lib/server/catalog/parts';
+import {
+	createPart,
+	getPartsByIds,
+	listParts,
+	listPartsForStudio
+} from '$lib/server/catalog/parts';
 import type { RequestHandler } from './$types';
 
 /** A build places a few dozen parts; the editor asks for all of them in one call. */
@@ -19,7 +24,9 @@ export const GET: RequestHandler = async (event) => {
 	if (ids !== null) {
 		const list = ids.split(',').filter(Boolean);
 		if (list.length > MAX_IDS || list.some((id) => id.length > 64)) {
-			return problem(400, `ids: at most ${MAX_IDS} ids of at most 64 characters each.`, [{ path: 'ids', message: 'Too many or too long' }]);
+			return problem(400, `ids: at most ${MAX_IDS} ids of at most 64 characters each.`, [
+				{ path: 'ids', message: 'Too many or too long' }
+			]);
 		}
 		return json({ parts: await getPartsByIds(access.studioId, list) });
 	}

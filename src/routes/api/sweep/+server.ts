@@ -1,6 +1,13 @@
 import { json } from '@sveltejs/kit';
 import { z } from 'zod';
-import { FACES, MAX_SWEEP_POINTS, allowedPositions, sceneSchema, type Scene, type SweepControl } from '$lib/geometry';
+import {
+	FACES,
+	MAX_SWEEP_POINTS,
+	allowedPositions,
+	sceneSchema,
+	type Scene,
+	type SweepControl
+} from '$lib/geometry';
 import { requireUser } from '$lib/server/access';
 import { apiLimit, readJson } from '$lib/server/api';
 import { gridInPool, sweepInPool } from '$lib/server/engine/pool';
@@ -13,12 +20,18 @@ const body = z.object({
 	/** A second control makes it a grid sweep. */
 	controlB: control.optional(),
 	positions: z.array(z.number()).max(MAX_SWEEP_POINTS).optional(),
-	gaps: z.array(z.object({ placementId: z.string().max(120), face: z.enum(FACES) })).max(100).optional()
+	gaps: z
+		.array(z.object({ placementId: z.string().max(120), face: z.enum(FACES) }))
+		.max(100)
+		.optional()
 });
 
 /** Allowed positions of a control (0 for an unknown one: the sweep itself names that error). */
 function positionCount(scene: Scene, c: SweepControl): number {
-	const def = c.kind === 'divider' ? scene.enclosure.dividers.find((d) => d.id === c.id) : scene.enclosure.brackets.find((b) => b.id === c.id);
+	const def =
+		c.kind === 'divider'
+			? scene.enclosure.dividers.find((d) => d.id === c.id)
+			: scene.enclosure.brackets.find((b) => b.id === c.id);
 	return def ? allowedPositions(def).length : 0;
 }
 
@@ -31,9 +44,32 @@ export const POST: RequestHandler = async (event) => {
 	await apiLimit(event, user.id);
 	const input = await readJson(event.request, body);
 	if (input.controlB) {
-		const cells = positionCount(input.scene, input.control) * positionCount(input.scene, input.controlB);
-		return json(await gridInPool({ kind: 'grid', scene: input.scene, controlA: input.control, controlB: input.controlB, gaps: input.gaps }, cells));
+		const cells =
+			positionCount(input.scene, input.control) * positionCount(input.scene, input.controlB);
+		return json(
+			await gridInPool(
+				{
+					kind: 'grid',
+					scene: input.scene,
+					controlA: input.control,
+					controlB: input.controlB,
+					gaps: input.gaps
+				},
+				cells
+			)
+		);
 	}
 	const points = input.positions?.length ?? positionCount(input.scene, input.control);
-	return json(await sweepInPool({ kind: 'sweep', scene: input.scene, control: input.control, positions: input.positions, gaps: input.gaps }, points));
+	return json(
+		await sweepInPool(
+			{
+				kind: 'sweep',
+				scene: input.scene,
+				control: input.control,
+				positions: input.positions,
+				gaps: input.gaps
+			},
+			points
+		)
+	);
 };

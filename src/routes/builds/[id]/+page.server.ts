@@ -1,9 +1,26 @@
 import { error, redirect } from '@sveltejs/kit';
 import { z } from 'zod';
 import { requireBuild } from '$lib/server/access';
-import { SceneRejected, VariantRuleError, enclosureVersionDef, forkVariant, loadVariant, newerEnclosureVersion, variantsOf } from '$lib/server/builds';
+import {
+	SceneRejected,
+	VariantRuleError,
+	enclosureVersionDef,
+	forkVariant,
+	loadVariant,
+	newerEnclosureVersion,
+	variantsOf
+} from '$lib/server/builds';
 import { formFail, parseForm } from '$lib/server/forms';
-import { VariantFrozen, VersionError, canonicalJson, frozenState, latestVersion, nextNumber, recentRevisions, saveVersion } from '$lib/server/versions';
+import {
+	VariantFrozen,
+	VersionError,
+	canonicalJson,
+	frozenState,
+	latestVersion,
+	nextNumber,
+	recentRevisions,
+	saveVersion
+} from '$lib/server/versions';
 import { db } from '$lib/server/db';
 import { variantSettingsSchema } from '$lib/builds/settings';
 import { line } from '$lib/schemas/common';
@@ -22,7 +39,12 @@ export const load: PageServerLoad = async ({ locals, params, url }) => {
 	if (!loaded) error(404, 'No such variant.');
 	const enc = await enclosureVersionDef(build.enclosureVersionId);
 	const variants = await variantsOf(build.id);
-	const [latest, frozen, next, revisions] = await Promise.all([latestVersion(loaded.variant.id), frozenState(loaded.variant.id), nextNumber(db, loaded.variant), recentRevisions(loaded.variant.id, loaded.variant.version)]);
+	const [latest, frozen, next, revisions] = await Promise.all([
+		latestVersion(loaded.variant.id),
+		frozenState(loaded.variant.id),
+		nextNumber(db, loaded.variant),
+		recentRevisions(loaded.variant.id, loaded.variant.version)
+	]);
 	// Earlier saved states seed the undo history, so undo reaches back across a reload.
 	const history = revisions.flatMap((r) => {
 		const parsed = variantSettingsSchema.safeParse(r.settings);
@@ -30,10 +52,22 @@ export const load: PageServerLoad = async ({ locals, params, url }) => {
 	});
 	return {
 		build: { id: build.id, name: build.name, clientName: build.clientName, notes: build.notes },
-		enclosure: { name: enc?.name ?? loaded.enclosure.name, version: enc?.version ?? 1, definition: loaded.enclosure, newer: await newerEnclosureVersion(build.enclosureVersionId) },
+		enclosure: {
+			name: enc?.name ?? loaded.enclosure.name,
+			version: enc?.version ?? 1,
+			definition: loaded.enclosure,
+			newer: await newerEnclosureVersion(build.enclosureVersionId)
+		},
 		variant: { id: loaded.variant.id, name: loaded.variant.name, version: loaded.variant.version },
 		/** The last version the designer saved on purpose, and whether the variant changed since. */
-		savedVersion: latest ? { number: latest.number, note: latest.note, at: latest.createdAt, settingsJson: canonicalJson(variantSettingsSchema.parse(latest.settings)) } : null,
+		savedVersion: latest
+			? {
+					number: latest.number,
+					note: latest.note,
+					at: latest.createdAt,
+					settingsJson: canonicalJson(variantSettingsSchema.parse(latest.settings))
+				}
+			: null,
 		nextVersion: next,
 		frozen: frozen.frozen ? { reason: frozen.reason, version: frozen.version } : null,
 		variants: variants.map((v) => ({ id: v.id, name: v.name, isProposal: v.isProposal })),
@@ -50,15 +84,43 @@ export const actions: Actions = {
 	/** "Save as version N — note": a numbered snapshot of the revision the designer is looking at. */
 	version: async ({ locals, params, request, url }) => {
 		const { build, access } = await requireBuild(locals, params.id, 'build.edit', url);
-		const parsed = await parseForm(request, z.object({ variantId, revision: z.coerce.number({ error: 'Revision must be a number.' }).int().min(1).max(2_147_483_647), note: line('Note', 200, 0).default('') }));
+		const parsed = await parseForm(
+			request,
+			z.object({
+				variantId,
+				revision: z.coerce
+					.number({ error: 'Revision must be a number.' })
+					.int()
+					.min(1)
+					.max(2_147_483_647),
+				note: line('Note', 200, 0).default('')
+			})
+		);
 		if (!parsed.ok) return parsed.failure;
 		try {
-			const result = await saveVersion({ buildId: build.id, variantId: parsed.data.variantId, expectedRevision: parsed.data.revision, note: parsed.data.note, userId: access.user.id });
-			if (!result.ok && result.reason === 'stale') return formFail(409, parsed.raw, { version: 'Your latest change is still being saved (or someone else saved); wait a moment and try again.' });
-			if (!result.ok) return { done: `Nothing changed since version ${result.version.number}; no new version made.` };
+			const result = await saveVersion({
+				buildId: build.id,
+				variantId: parsed.data.variantId,
+				expectedRevision: parsed.data.revision,
+				note: parsed.data.note,
+				userId: access.user.id
+			});
+			if (!result.ok && result.reason === 'stale') {
+				return formFail(409, parsed.raw, {
+					version:
+						'Your latest change is still being saved (or someone else saved); wait a moment and try again.'
+				});
+			}
+			if (!result.ok) {
+				return {
+					done: `Nothing changed since version ${result.version.number}; no new version made.`
+				};
+			}
 			return { done: `Saved as version ${result.version.number}.` };
 		} catch (e) {
-			if (e instanceof VariantFrozen || e instanceof VersionError) return formFail(e.status, parsed.raw, { version: e.message });
+			if (e instanceof VariantFrozen || e instanceof VersionError) {
+				return formFail(e.status, parsed.raw, { version: e.message });
+			}
 			throw e;
 		}
 	},
@@ -71,7 +133,9 @@ export const actions: Actions = {
 		try {
 			id = await forkVariant(build.id, parsed.data.variantId, undefined, { fromVersion: true });
 		} catch (e) {
-			if (e instanceof VariantRuleError) return formFail(e.status, parsed.raw, { startFrom: e.message });
+			if (e instanceof VariantRuleError) {
+				return formFail(e.status, parsed.raw, { startFrom: e.message });
+			}
 			throw e;
 		}
 		redirect(303, `/builds/${build.id}?variant=${id}`);

@@ -35,7 +35,9 @@ export const actions: Actions = {
 		try {
 			id = await createBuild({ ...parsed.data, studioId: access.studioId, userId: access.user.id });
 		} catch (e) {
-			if (e instanceof SceneRejected) return formFail(400, parsed.raw, { enclosureId: e.issues[0]?.message ?? e.message });
+			if (e instanceof SceneRejected) {
+				return formFail(400, parsed.raw, { enclosureId: e.issues[0]?.message ?? e.message });
+			}
 			throw e;
 		}
 		redirect(303, `/builds/${id}`);

@@ -2,7 +2,12 @@ import { error, redirect } from '@sveltejs/kit';
 import { enclosureDefSchema } from '$lib/geometry';
 import { roomTable } from '$lib/geometry/room';
 import { activeStudio } from '$lib/server/access';
-import { archiveEnclosure, duplicateEnclosure, getEnclosure, restoreEnclosure } from '$lib/server/catalog/enclosures';
+import {
+	archiveEnclosure,
+	duplicateEnclosure,
+	getEnclosure,
+	restoreEnclosure
+} from '$lib/server/catalog/enclosures';
 import { formFor, saveEnclosureForm } from '$lib/server/catalog/enclosure-form';
 import type { Actions, PageServerLoad } from './$types';
 

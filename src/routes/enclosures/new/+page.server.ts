@@ -11,7 +11,14 @@ function starter(): EnclosureDef {
 	return {
 		name: '',
 		outerMm: [200, 320, 240],
-		walls: { left: { ...panel }, right: { ...panel }, bottom: { ...panel }, top: { ...panel }, front: { ...panel }, back: { ...panel } },
+		walls: {
+			left: { ...panel },
+			right: { ...panel },
+			bottom: { ...panel },
+			top: { ...panel },
+			front: { ...panel },
+			back: { ...panel }
+		},
 		dividers: [],
 		brackets: [],
 		mounts: []
@@ -20,7 +27,11 @@ function starter(): EnclosureDef {
 
 export const load: PageServerLoad = async ({ locals, url }) => {
 	const access = await activeStudio(locals, 'catalog.edit', url);
-	const form = await superValidate(enclosureToForm(starter(), { revision: 0, description: '' }), enclosureAdapter, { errors: false });
+	const form = await superValidate(
+		enclosureToForm(starter(), { revision: 0, description: '' }),
+		enclosureAdapter,
+		{ errors: false }
+	);
 	return { studioName: access.studioName, form };
 };
 

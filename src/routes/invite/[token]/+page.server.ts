@@ -24,7 +24,9 @@ export const actions: Actions = {
 		if (!invite) return fail(400, { error: 'This invitation has expired or was already used.' });
 		// An invitation belongs to the address it was sent to; a forwarded link can't be used by someone else.
 		if (invite.email !== user.email.toLowerCase()) {
-			return fail(403, { error: `This invitation was sent to ${invite.email}. Sign in with that address to accept it.` });
+			return fail(403, {
+				error: `This invitation was sent to ${invite.email}. Sign in with that address to accept it.`
+			});
 		}
 		const studioId = await acceptInvite(event.params.token, user.id);
 		if (!studioId) return fail(400, { error: 'This invitation has expired or was already used.' });

@@ -1,7 +1,14 @@
 import { error, redirect } from '@sveltejs/kit';
 import { activeStudio, roleMay } from '$lib/server/access';
 import { partFormFor, savePartForm } from '$lib/server/catalog/part-form';
-import { archivePart, deletePart, duplicatePart, getPart, partUseCount, restorePart } from '$lib/server/catalog/parts';
+import {
+	archivePart,
+	deletePart,
+	duplicatePart,
+	getPart,
+	partUseCount,
+	restorePart
+} from '$lib/server/catalog/parts';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals, url, params }) => {

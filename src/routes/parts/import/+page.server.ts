@@ -16,13 +16,24 @@ export const actions: Actions = {
 	preview: async ({ request, locals, url }) => {
 		const access = await activeStudio(locals, 'catalog.edit', url);
 		const file = (await request.formData()).get('file');
-		if (!(file instanceof File) || file.size === 0) return fail(400, { fileError: 'Choose a CSV file to import.' });
-		if (file.size > MAX_CSV_BYTES) return fail(400, { fileError: `The file is ${(file.size / 1024 / 1024).toFixed(1)} MB; at most 2 MB can be imported at once.` });
+		if (!(file instanceof File) || file.size === 0) {
+			return fail(400, { fileError: 'Choose a CSV file to import.' });
+		}
+		if (file.size > MAX_CSV_BYTES) {
+			return fail(400, {
+				fileError: `The file is ${(file.size / 1024 / 1024).toFixed(1)} MB; at most 2 MB can be imported at once.`
+			});
+		}
 		const decoded = decodeCsv(new Uint8Array(await file.arrayBuffer()));
 		if (!decoded.text) return fail(400, { fileError: decoded.error });
 		const report = await importPartsCsv(access.studioId, decoded.text, false);
 		if (report.fileError) return fail(400, { fileError: report.fileError });
-		return { step: 'preview' as const, fileName: file.name.slice(0, 200), csv: decoded.text, report };
+		return {
+			step: 'preview' as const,
+			fileName: file.name.slice(0, 200),
+			csv: decoded.text,
+			report
+		};
 	},
 	commit: async ({ request, locals, url }) => {
 		const access = await activeStudio(locals, 'catalog.edit', url);

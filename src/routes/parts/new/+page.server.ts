@@ -7,7 +7,11 @@ import type { Actions, PageServerLoad } from './$types';
 export const load: PageServerLoad = async ({ locals, url }) => {
 	const access = await activeStudio(locals, 'catalog.edit', url);
 	const category = partCategorySchema.safeParse(url.searchParams.get('category'));
-	const form = await superValidate({ category: category.success ? category.data : 'other', applyTemplate: true }, partAdapter, { errors: false });
+	const form = await superValidate(
+		{ category: category.success ? category.data : 'other', applyTemplate: true },
+		partAdapter,
+		{ errors: false }
+	);
 	return { studioName: access.studioName, form };
 };
 

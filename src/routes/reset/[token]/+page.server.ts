@@ -19,7 +19,13 @@ export const actions: Actions = {
 		const parsed = await parseForm(event.request, resetSchema);
 		if (!parsed.ok) return parsed.failure;
 		const userId = await resetPassword(event.params.token, parsed.data.password);
-		if (!userId) return formFail(400, {}, { _: 'This link has expired or was already used. Ask for a new one.' });
+		if (!userId) {
+			return formFail(
+				400,
+				{},
+				{ _: 'This link has expired or was already used. Ask for a new one.' }
+			);
+		}
 		// A new password ends every session, including any an attacker may hold.
 		await endAllSessions(event.cookies, userId);
 		redirect(303, '/signin?reset=1');

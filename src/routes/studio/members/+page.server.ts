@@ -26,7 +26,9 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 };
 
 function ruleFailure(e: unknown) {
-	if (e instanceof RuleError) return formFail(e.status === 404 ? 404 : 400, {}, { [e.field]: e.message });
+	if (e instanceof RuleError) {
+		return formFail(e.status === 404 ? 404 : 400, {}, { [e.field]: e.message });
+	}
 	throw e;
 }
 
@@ -35,7 +37,14 @@ export const actions: Actions = {
 		const access = await activeStudio(locals, 'studio.members', url);
 		const parsed = await parseForm(request, inviteSchema);
 		if (!parsed.ok) return parsed.failure;
-		await inviteMember({ ...access, studioId: access.studioId, studioName: access.studioName, email: parsed.data.email, role: parsed.data.role, invitedBy: access.user });
+		await inviteMember({
+			...access,
+			studioId: access.studioId,
+			studioName: access.studioName,
+			email: parsed.data.email,
+			role: parsed.data.role,
+			invitedBy: access.user
+		});
 		return { invited: parsed.data.email };
 	},
 	role: async ({ locals, request, url }) => {

@@ -18,7 +18,13 @@ export const actions: Actions = {
 	default: async (event) => {
 		await enforce(event, 'verify-token', limits.shareToken);
 		const done = await verifyEmail(event.params.token);
-		if (!done) return formFail(400, {}, { _: 'This link has expired or was already used. Sign in, or sign up again for a new one.' });
+		if (!done) {
+			return formFail(
+				400,
+				{},
+				{ _: 'This link has expired or was already used. Sign in, or sign up again for a new one.' }
+			);
+		}
 		await startSession(event.cookies, done.userId);
 		redirect(303, safeNext(done.next, event.url.origin) ?? '/studios/new');
 	}

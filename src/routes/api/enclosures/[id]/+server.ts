@@ -1,5 +1,10 @@
 import { error, json } from '@sveltejs/kit';
-import { archiveEnclosure, getEnclosure, restoreEnclosure, updateEnclosure } from '$lib/server/catalog/enclosures';
+import {
+	archiveEnclosure,
+	getEnclosure,
+	restoreEnclosure,
+	updateEnclosure
+} from '$lib/server/catalog/enclosures';
 import { answer, catalogAccess, readJson, revisionOf } from '$lib/server/catalog/http';
 import type { RequestHandler } from './$types';
 
@@ -17,11 +22,17 @@ export const GET: RequestHandler = async (event) => {
 export const PUT: RequestHandler = async (event) => {
 	const access = await catalogAccess(event, 'catalog.edit');
 	const body = await readJson(event.request);
-	const saved = await updateEnclosure(access.studioId, event.params.id, revisionOf(body), access.user.id, {
-		definition: body.definition,
-		description: body.description as string | undefined,
-		note: body.note as string | undefined
-	});
+	const saved = await updateEnclosure(
+		access.studioId,
+		event.params.id,
+		revisionOf(body),
+		access.user.id,
+		{
+			definition: body.definition,
+			description: body.description as string | undefined,
+			note: body.note as string | undefined
+		}
+	);
 	return answer(saved, 200, 'enclosure');
 };
 
@@ -29,8 +40,13 @@ export const PUT: RequestHandler = async (event) => {
 export const PATCH: RequestHandler = async (event) => {
 	const access = await catalogAccess(event, 'catalog.edit');
 	const body = await readJson(event.request);
-	if (typeof body.archived !== 'boolean') error(400, 'Send {"archived": true} or {"archived": false}.');
-	const row = await (body.archived ? archiveEnclosure : restoreEnclosure)(access.studioId, event.params.id);
+	if (typeof body.archived !== 'boolean') {
+		error(400, 'Send {"archived": true} or {"archived": false}.');
+	}
+	const row = await (body.archived ? archiveEnclosure : restoreEnclosure)(
+		access.studioId,
+		event.params.id
+	);
 	if (!row) error(404, 'Not found.');
 	return json({ enclosure: row });
 };

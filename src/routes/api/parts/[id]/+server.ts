@@ -1,6 +1,13 @@
 import { error, json } from '@sveltejs/kit';
 import { answer, catalogAccess, problem, readJson, revisionOf } from '$lib/server/catalog/http';
-import { archivePart, deletePart, duplicatePart, getPart, restorePart, updatePart } from '$lib/server/catalog/parts';
+import {
+	archivePart,
+	deletePart,
+	duplicatePart,
+	getPart,
+	restorePart,
+	updatePart
+} from '$lib/server/catalog/parts';
 import type { RequestHandler } from './$types';
 
 export const GET: RequestHandler = async (event) => {
@@ -15,15 +22,23 @@ export const PUT: RequestHandler = async (event) => {
 	const access = await catalogAccess(event, 'catalog.edit');
 	const body = await readJson(event.request);
 	const { revision: _r, ...part } = body;
-	return answer(await updatePart(access.studioId, event.params.id, revisionOf(body), part), 200, 'part');
+	return answer(
+		await updatePart(access.studioId, event.params.id, revisionOf(body), part),
+		200,
+		'part'
+	);
 };
 
 /** Body: `{archived: boolean}` or `{duplicate: true}` (also copies a standard-library entry into the studio). */
 export const PATCH: RequestHandler = async (event) => {
 	const access = await catalogAccess(event, 'catalog.edit');
 	const body = await readJson(event.request);
-	if (body.duplicate === true) return answer(await duplicatePart(access.studioId, event.params.id), 201, 'part');
-	if (typeof body.archived !== 'boolean') error(400, 'Send {"archived": true|false} or {"duplicate": true}.');
+	if (body.duplicate === true) {
+		return answer(await duplicatePart(access.studioId, event.params.id), 201, 'part');
+	}
+	if (typeof body.archived !== 'boolean') {
+		error(400, 'Send {"archived": true|false} or {"duplicate": true}.');
+	}
 	const part = await (body.archived ? archivePart : restorePart)(access.studioId, event.params.id);
 	if (!part) error(404, 'Not found.');
 	return json({ part });

@@ -18,6 +18,10 @@ export const POST: RequestHandler = async (event) => {
 	}
 	const decoded = decodeCsv(new Uint8Array(await event.request.arrayBuffer()));
 	if (!decoded.text) return problem(422, decoded.error ?? 'The file cannot be read.');
-	const report = await importPartsCsv(access.studioId, decoded.text, event.url.searchParams.get('commit') === '1');
+	const report = await importPartsCsv(
+		access.studioId,
+		decoded.text,
+		event.url.searchParams.get('commit') === '1'
+	);
 	return json({ report }, { status: report.fileError ? 422 : 200 });
 };

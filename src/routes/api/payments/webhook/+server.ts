@@ -11,7 +11,9 @@ const MAX_BODY_BYTES = 512 * 1024;
  * anything unsigned or altered answers 400 and changes nothing. Each event id is handled once.
  */
 export const POST: RequestHandler = async ({ request }) => {
-	if (Number(request.headers.get('content-length') ?? 0) > MAX_BODY_BYTES) return problem(413, 'Too large.');
+	if (Number(request.headers.get('content-length') ?? 0) > MAX_BODY_BYTES) {
+		return problem(413, 'Too large.');
+	}
 	const body = await request.text();
 	if (body.length > MAX_BODY_BYTES) return problem(413, 'Too large.');
 	try {

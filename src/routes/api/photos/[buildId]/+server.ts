@@ -12,7 +12,9 @@ export const POST: RequestHandler = async (event) => {
 	const { build, access } = await requireBuild(event.locals, event.params.buildId, 'build.photos');
 	await apiLimit(event, access.user.id);
 	const declared = Number(event.request.headers.get('content-length') ?? 0);
-	if (declared > MAX_PHOTO_BYTES + 64 * 1024) return problem(413, `The file is larger than ${MAX_PHOTO_BYTES / 1024 / 1024} MB.`);
+	if (declared > MAX_PHOTO_BYTES + 64 * 1024) {
+		return problem(413, `The file is larger than ${MAX_PHOTO_BYTES / 1024 / 1024} MB.`);
+	}
 	let form: FormData;
 	try {
 		form = await event.request.formData();
@@ -21,17 +23,43 @@ export const POST: RequestHandler = async (event) => {
 	}
 	const file = form.get('file');
 	const caption = String(form.get('caption') ?? '').trim();
-	if (!(file instanceof File)) return problem(400, 'Send the photo in a field named "file".', [{ path: 'file', message: 'Required' }]);
+	if (!(file instanceof File)) {
+		return problem(400, 'Send the photo in a field named "file".', [
+			{ path: 'file', message: 'Required' }
+		]);
+	}
 	// eslint-disable-next-line no-control-regex
-	if (caption.length > 200 || /[\u0000-\u001f\u007f]/.test(caption)) return problem(400, 'The caption is too long or has control characters.', [{ path: 'caption', message: 'At most 200 characters' }]);
-	if (file.size > MAX_PHOTO_BYTES) return problem(413, `The file is larger than ${MAX_PHOTO_BYTES / 1024 / 1024} MB.`);
+	if (caption.length > 200 || /[\u0000-\u001f\u007f]/.test(caption)) {
+		return problem(400, 'The caption is too long or has control characters.', [
+			{ path: 'caption', message: 'At most 200 characters' }
+		]);
+	}
+	if (file.size > MAX_PHOTO_BYTES) {
+		return problem(413, `The file is larger than ${MAX_PHOTO_BYTES / 1024 / 1024} MB.`);
+	}
 	try {
-		const row = await addPhoto({ buildId: build.id, uploadedBy: access.user.id, bytes: new Uint8Array(await file.arrayBuffer()), caption });
-		return json({ id: row.id, width: row.width, height: row.height, mime: row.mime, byteSize: row.byteSize }, { status: 201 });
+		const row = await addPhoto({
+			buildId: build.id,
+			uploadedBy: access.user.id,
+			bytes: new Uint8Array(await file.arrayBuffer()),
+			caption
+		});
+		return json(
+			{ id: row.id, width: row.width, height: row.height, mime: row.mime, byteSize: row.byteSize },
+			{ status: 201 }
+		);
 	} catch (e) {
-		if (e instanceof PhotoRejected) return problem(e.status, e.message, [{ path: 'file', message: e.message }]);
+		if (e instanceof PhotoRejected) {
+			return problem(e.status, e.message, [{ path: 'file', message: e.message }]);
+		}
 		throw e;
 	}
 };
 
-export type UploadResponse = { id: string; width: number; height: number; mime: string; byteSize: number };
+export type UploadResponse = {
+	id: string;
+	width: number;
+	height: number;
+	mime: string;
+	byteSize: number;
+};

@@ -6,8 +6,15 @@ import type { RequestHandler } from './$types';
 export const GET: RequestHandler = async ({ locals, params, url }) => {
 	const { build } = await requireBuild(locals, params.id, 'build.edit', url);
 	const c = await loadComparison(build, url.searchParams.get('variants'));
-	const name = build.name.replace(/[^A-Za-z0-9-]+/g, '-').replace(/^-|-$/g, '').toLowerCase() || 'build';
+	const name =
+		build.name
+			.replace(/[^A-Za-z0-9-]+/g, '-')
+			.replace(/^-|-$/g, '')
+			.toLowerCase() || 'build';
 	return new Response(compareCsv(c.inputs, c.rows), {
-		headers: { 'content-type': 'text/csv; charset=utf-8', 'content-disposition': `attachment; filename="${name}-comparison.csv"` }
+		headers: {
+			'content-type': 'text/csv; charset=utf-8',
+			'content-disposition': `attachment; filename="${name}-comparison.csv"`
+		}
 	});
 };

@@ -10,7 +10,13 @@ import { memberships, shareLinks, users } from '$lib/server/db/schema';
 import { parseForm } from '$lib/server/forms';
 import { enforce } from '$lib/server/limits';
 import { limits } from '$lib/server/rate-limit';
-import { createShareLink, linksOfBuild, revokeShareLink, sendShareMail, shareUrl } from '$lib/server/sharing/links';
+import {
+	createShareLink,
+	linksOfBuild,
+	revokeShareLink,
+	sendShareMail,
+	shareUrl
+} from '$lib/server/sharing/links';
 import { notifyClient } from '$lib/server/sharing/notify';
 import { clientStatusOf } from '$lib/server/sharing/status';
 import { ensureVersion } from '$lib/server/versions';
@@ -26,16 +32,27 @@ export const load: PageServerLoad = async ({ locals, params, url }) => {
 	const variants = await variantsOf(build.id);
 	const links = await linksOfBuild(build.id);
 	const overview = await clientStatusOf(build.id);
-	const selected = variants.find((v) => v.id === url.searchParams.get('variant')) ?? variants.find((v) => v.isProposal) ?? variants[0];
+	const selected =
+		variants.find((v) => v.id === url.searchParams.get('variant')) ??
+		variants.find((v) => v.isProposal) ??
+		variants[0];
 	let thread: Awaited<ReturnType<typeof threadOf>> = [];
 	let pins: { id: string; label: string }[] = [];
 	if (selected) {
 		thread = await threadOf(selected.id);
-		const loaded = await loadVariant(build.id, build.studioId, build.enclosureVersionId, selected.id).catch(() => null);
+		const loaded = await loadVariant(
+			build.id,
+			build.studioId,
+			build.enclosureVersionId,
+			selected.id
+		).catch(() => null);
 		if (loaded) {
 			const resolved = resolveScene(loaded.scene);
 			const names = placementNames(resolved);
-			pins = resolved.placements.map((rp) => ({ id: rp.placement.id, label: `${names.get(rp.placement.id)!.short} — ${rp.part.name}` }));
+			pins = resolved.placements.map((rp) => ({
+				id: rp.placement.id,
+				label: `${names.get(rp.placement.id)!.short} — ${rp.part.name}`
+			}));
 		}
 	}
 	const clients = await db
@@ -49,24 +66,52 @@ export const load: PageServerLoad = async ({ locals, params, url }) => {
 		variants: overview,
 		selectedId: selected?.id ?? null,
 		links,
-		thread: thread.map((c) => ({ id: c.id, kind: c.kind, body: c.body, authorName: c.authorName, side: c.authorSide, partLabel: c.partLabel, at: c.createdAt, version: c.variantVersion })),
+		thread: thread.map((c) => ({
+			id: c.id,
+			kind: c.kind,
+			body: c.body,
+			authorName: c.authorName,
+			side: c.authorSide,
+			partLabel: c.partLabel,
+			at: c.createdAt,
+			version: c.variantVersion
+		})),
 		pins,
 		clients
 	};
 };
 
 const revokeForm = z.object({ linkId: idField('Link') });
-const studioCommentForm = z.object({ body: commentForm.shape.body, variantId: z.string().min(1).max(64), part: z.string().max(120).default('') });
+const studioCommentForm = z.object({
+	body: commentForm.shape.body,
+	variantId: z.string().min(1).max(64),
+	part: z.string().max(120).default('')
+});
 
 export const actions: Actions = {
 	create: async (event) => {
-		const { build, access } = await requireBuild(event.locals, event.params.id, 'build.share', event.url);
+		const { build, access } = await requireBuild(
+			event.locals,
+			event.params.id,
+			'build.share',
+			event.url
+		);
 		const parsed = await parseForm(event.request, shareForm);
 		if (!parsed.ok) return parsed.failure;
 		const input = parsed.data;
 		const variant = (await variantsOf(build.id)).find((v) => v.id === input.variantId);
-		if (!variant) return fail(400, { values: parsed.raw, errors: { variantId: 'Choose a variant of this build.' } });
-		if (input.send === 'on' && !input.recipientEmail) return fail(400, { values: parsed.raw, errors: { recipientEmail: 'An e-mail address is needed to send the link.' } });
+		if (!variant) {
+			return fail(400, {
+				values: parsed.raw,
+				errors: { variantId: 'Choose a variant of this build.' }
+			});
+		}
+		if (input.send === 'on' && !input.recipientEmail) {
+			return fail(400, {
+				values: parsed.raw,
+				errors: { recipientEmail: 'An e-mail address is needed to send the link.' }
+			});
+		}
 		const days = EXPIRY_CHOICES[input.expires];
 		const { link, token } = await createShareLink({
 			studioId: build.studioId,
@@ -81,14 +126,32 @@ export const actions: Actions = {
 		let mailError = '';
 		if (input.send === 'on' && input.recipientEmail) {
 			try {
-				await sendShareMail({ linkId: link.id, token, to: input.recipientEmail, recipientName: input.recipientName, senderName: access.user.name, studioName: access.studioName, buildName: build.name, message: input.message });
+				await sendShareMail({
+					linkId: link.id,
+					token,
+					to: input.recipientEmail,
+					recipientName: input.recipientName,
+					senderName: access.user.name,
+					studioName: access.studioName,
+					buildName: build.name,
+					message: input.message
+				});
 				mailed = true;
 			} catch (e) {
 				console.error('mail: share link not sent', e);
-				mailError = 'The link was made, but the e-mail could not be sent. Copy the link and send it yourself.';
+				mailError =
+					'The link was made, but the e-mail could not be sent. Copy the link and send it yourself.';
 			}
 		}
-		return { created: { url: shareUrl(token), mailed, mailError, to: input.recipientEmail, variantName: variant.name } };
+		return {
+			created: {
+				url: shareUrl(token),
+				mailed,
+				mailError,
+				to: input.recipientEmail,
+				variantName: variant.name
+			}
+		};
 	},
 
 	revoke: async (event) => {
@@ -96,13 +159,23 @@ export const actions: Actions = {
 		const parsed = await parseForm(event.request, revokeForm);
 		if (!parsed.ok) return parsed.failure;
 		const ok = await revokeShareLink(build.id, parsed.data.linkId);
-		if (!ok) return fail(404, { values: {}, errors: { linkId: 'That link is already revoked or does not exist.' } });
+		if (!ok) {
+			return fail(404, {
+				values: {},
+				errors: { linkId: 'That link is already revoked or does not exist.' }
+			});
+		}
 		return { revoked: true };
 	},
 
 	comment: async (event) => {
 		// Written as the studio: owners and designers only (clients write on their own page).
-		const { build, access } = await requireBuild(event.locals, event.params.id, 'build.share', event.url);
+		const { build, access } = await requireBuild(
+			event.locals,
+			event.params.id,
+			'build.share',
+			event.url
+		);
 		await enforce(event, 'comment', limits.comment, access.user.id);
 		const parsed = await parseForm(event.request, studioCommentForm);
 		if (!parsed.ok) return parsed.failure;
@@ -110,10 +183,20 @@ export const actions: Actions = {
 		if (!variant) error(404, 'Not found.');
 		let partLabel: string | null = null;
 		if (parsed.data.part) {
-			const loaded = await loadVariant(build.id, build.studioId, build.enclosureVersionId, variant.id);
+			const loaded = await loadVariant(
+				build.id,
+				build.studioId,
+				build.enclosureVersionId,
+				variant.id
+			);
 			const resolved = loaded ? resolveScene(loaded.scene) : null;
 			const rp = resolved?.placements.find((p) => p.placement.id === parsed.data.part);
-			if (!rp || !resolved) return fail(400, { values: parsed.raw, errors: { part: 'That part is not in this variant.' } });
+			if (!rp || !resolved) {
+				return fail(400, {
+					values: parsed.raw,
+					errors: { part: 'That part is not in this variant.' }
+				});
+			}
 			partLabel = `${placementNames(resolved).get(rp.placement.id)!.short} (${rp.part.name})`;
 		}
 		await addComment({
@@ -129,11 +212,23 @@ export const actions: Actions = {
 		const recipients = await db
 			.selectDistinct({ email: shareLinks.recipientEmail })
 			.from(shareLinks)
-			.where(and(eq(shareLinks.variantId, variant.id), isNull(shareLinks.revokedAt), or(isNull(shareLinks.expiresAt), gt(shareLinks.expiresAt, sql`now()`))));
+			.where(
+				and(
+					eq(shareLinks.variantId, variant.id),
+					isNull(shareLinks.revokedAt),
+					or(isNull(shareLinks.expiresAt), gt(shareLinks.expiresAt, sql`now()`))
+				)
+			);
 		for (const r of recipients) {
 			if (!r.email) continue;
 			try {
-				await notifyClient({ to: r.email, studioName: access.studioName, buildName: build.name, authorName: access.user.name, body: parsed.data.body });
+				await notifyClient({
+					to: r.email,
+					studioName: access.studioName,
+					buildName: build.name,
+					authorName: access.user.name,
+					body: parsed.data.body
+				});
 			} catch (e) {
 				console.error('mail: reply notice not sent', e);
 			}

@@ -20,4 +20,6 @@ export const load: PageServerLoad = async (event) => {
 	};
 };
 
-export const actions: Actions = clientPageActions((event) => memberActor(event, event.params.variantId!));
+export const actions: Actions = clientPageActions((event) =>
+	memberActor(event, event.params.variantId!)
+);

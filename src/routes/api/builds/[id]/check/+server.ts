@@ -4,7 +4,12 @@ import type { EnclosureDef } from '$lib/geometry';
 import { variantSettingsSchema } from '$lib/builds/settings';
 import { requireUser, roleMay } from '$lib/server/access';
 import { apiLimit, problem, readJson } from '$lib/server/api';
-import { SceneRejected, checkContext, partsForBuildStudio, validateScene } from '$lib/server/builds';
+import {
+	SceneRejected,
+	checkContext,
+	partsForBuildStudio,
+	validateScene
+} from '$lib/server/builds';
 import { checkInPool } from '$lib/server/engine/pool';
 import type { RequestHandler } from './$types';
 
@@ -22,20 +27,31 @@ export const POST: RequestHandler = async (event) => {
 	const [ctx, limited, found] = await Promise.allSettled([
 		checkContext(event.params.id, user.id),
 		apiLimit(event, user.id),
-		partsForBuildStudio(event.params.id, settings.placements.map((p) => p.partId))
+		partsForBuildStudio(
+			event.params.id,
+			settings.placements.map((p) => p.partId)
+		)
 	]);
 	if (ctx.status === 'rejected') throw ctx.reason;
 	if (!ctx.value?.role) error(404, 'Not found.');
-	if (!roleMay(ctx.value.role, 'build.edit')) error(403, 'Your role in this studio does not allow this.');
+	if (!roleMay(ctx.value.role, 'build.edit')) {
+		error(403, 'Your role in this studio does not allow this.');
+	}
 	if (limited.status === 'rejected') throw limited.reason;
 	if (found.status === 'rejected') throw found.reason;
 	const { parts, forbidden } = found.value;
-	if (forbidden.length) return problem(403, 'A placed part is not in this studio’s catalogue.', [{ path: 'settings.placements', message: forbidden.join(', ') }]);
+	if (forbidden.length) {
+		return problem(403, 'A placed part is not in this studio’s catalogue.', [
+			{ path: 'settings.placements', message: forbidden.join(', ') }
+		]);
+	}
 	let scene;
 	try {
 		scene = validateScene(ctx.value.definition as EnclosureDef, parts, settings);
 	} catch (e) {
-		if (e instanceof SceneRejected) return problem(e.status, 'The scene does not validate.', e.issues);
+		if (e instanceof SceneRejected) {
+			return problem(e.status, 'The scene does not validate.', e.issues);
+		}
 		throw e;
 	}
 	return json(await checkInPool(scene, 'settings'));

@@ -17,5 +17,9 @@ export const GET: RequestHandler = async (event) => {
 	if (!enclosure) error(404, 'Not found.');
 	// Stored definitions were validated when saved; parsing again fills defaults a later schema added.
 	const def = enclosureDefSchema.parse(enclosure.current.def);
-	return json({ enclosureId: enclosure.id, version: enclosure.current.version, room: roomTable(def) });
+	return json({
+		enclosureId: enclosure.id,
+		version: enclosure.current.version,
+		room: roomTable(def)
+	});
 };

@@ -4,11 +4,26 @@ import { line, paragraph } from '$lib/schemas/common';
 import { requireBuild } from '$lib/server/access';
 import { variantsOf } from '$lib/server/builds';
 import { paymentsOfQuotes } from '$lib/server/payments';
-import { QuoteLocked, QuoteNotReady, ensureQuote, quoteOfVariant, refreshLines, sendQuote, updateQuote, withdrawQuote, type QuoteUpdate } from '$lib/server/sharing/quotes';
+import {
+	QuoteLocked,
+	QuoteNotReady,
+	ensureQuote,
+	quoteOfVariant,
+	refreshLines,
+	sendQuote,
+	updateQuote,
+	withdrawQuote,
+	type QuoteUpdate
+} from '$lib/server/sharing/quotes';
 import type { Actions, PageServerLoad, RequestEvent } from './$types';
 
 async function variantOf(event: Pick<RequestEvent, 'locals' | 'params' | 'url'>) {
-	const { build, access } = await requireBuild(event.locals, event.params.id, 'build.quote', event.url);
+	const { build, access } = await requireBuild(
+		event.locals,
+		event.params.id,
+		'build.quote',
+		event.url
+	);
 	const variant = (await variantsOf(build.id)).find((v) => v.id === event.params.variantId);
 	if (!variant) error(404, 'Not found.');
 	return { build, access, variant };
@@ -17,7 +32,12 @@ async function variantOf(event: Pick<RequestEvent, 'locals' | 'params' | 'url'>)
 /** For the form actions (explicit posts): the variant's quote, started from its parts if it has none. */
 async function context(event: Pick<RequestEvent, 'locals' | 'params' | 'url'>) {
 	const { build, access, variant } = await variantOf(event);
-	const quote = await ensureQuote({ studioId: build.studioId, buildId: build.id, variantId: variant.id, settings: variant.settings });
+	const quote = await ensureQuote({
+		studioId: build.studioId,
+		buildId: build.id,
+		variantId: variant.id,
+		settings: variant.settings
+	});
 	return { build, access, variant, quote };
 }
 
@@ -32,7 +52,15 @@ export const load: PageServerLoad = async (event) => {
 		quote: quote?.quote ?? null,
 		lines: quote?.lines ?? [],
 		totals: quote?.totals ?? null,
-		payments: payments.map((p) => ({ id: p.id, status: p.status, amountMinor: p.amountMinor, currency: p.currency, paidAt: p.paidAt, createdAt: p.createdAt, refundedAt: p.refundedAt })),
+		payments: payments.map((p) => ({
+			id: p.id,
+			status: p.status,
+			amountMinor: p.amountMinor,
+			currency: p.currency,
+			paidAt: p.paidAt,
+			createdAt: p.createdAt,
+			refundedAt: p.refundedAt
+		})),
 		locked: payments.some((p) => p.status === 'paid')
 	};
 };
@@ -42,13 +70,20 @@ const labourNote = line('Labour line', 200, 0);
 const notes = paragraph('Notes', 2000);
 
 /** Reads the quote form into minor units and basis points, one message per field that is wrong. */
-function readQuoteForm(form: FormData, lineIds: string[]): { ok: true; data: QuoteUpdate } | { ok: false; errors: Record<string, string>; values: Record<string, string> } {
+function readQuoteForm(
+	form: FormData,
+	lineIds: string[]
+):
+	| { ok: true; data: QuoteUpdate }
+	| { ok: false; errors: Record<string, string>; values: Record<string, string> } {
 	const values: Record<string, string> = {};
 	for (const [k, v] of form) if (typeof v === 'string') values[k] = v;
 	const errors: Record<string, string> = {};
 	const get = (k: string) => values[k] ?? '';
 	const currency = get('currency').trim().toUpperCase();
-	if (!isCurrencyCode(currency)) errors.currency = 'Use an ISO 4217 currency code such as EUR, GBP or USD.';
+	if (!isCurrencyCode(currency)) {
+		errors.currency = 'Use an ISO 4217 currency code such as EUR, GBP or USD.';
+	}
 	const cur = errors.currency ? 'EUR' : currency;
 	const money = (key: string, label: string, required: boolean): number | null => {
 		const raw = get(key).trim();
@@ -62,7 +97,9 @@ function readQuoteForm(form: FormData, lineIds: string[]): { ok: true; data: Quo
 	};
 	const qty = (key: string) => {
 		const n = Number(get(key));
-		if (!Number.isInteger(n) || n < 1 || n > 10_000) errors[key] = 'A whole number from 1 to 10,000.';
+		if (!Number.isInteger(n) || n < 1 || n > 10_000) {
+			errors[key] = 'A whole number from 1 to 10,000.';
+		}
 		return n;
 	};
 	const text = (key: string, schema: typeof description) => {
@@ -71,16 +108,25 @@ function readQuoteForm(form: FormData, lineIds: string[]): { ok: true; data: Quo
 		return r.success ? r.data : '';
 	};
 	// Lines the form does not mention stay as they are.
-	const lines = lineIds.filter((id) => `line-${id}-description` in values || `line-${id}-remove` in values).map((id) => ({
-		id,
-		remove: get(`line-${id}-remove`) === 'on',
-		description: get(`line-${id}-remove`) === 'on' ? '' : text(`line-${id}-description`, description),
-		quantity: get(`line-${id}-remove`) === 'on' ? 1 : qty(`line-${id}-quantity`),
-		unitPriceMinor: get(`line-${id}-remove`) === 'on' ? null : money(`line-${id}-price`, 'The price', false)
-	}));
+	const lines = lineIds
+		.filter((id) => `line-${id}-description` in values || `line-${id}-remove` in values)
+		.map((id) => ({
+			id,
+			remove: get(`line-${id}-remove`) === 'on',
+			description:
+				get(`line-${id}-remove`) === 'on' ? '' : text(`line-${id}-description`, description),
+			quantity: get(`line-${id}-remove`) === 'on' ? 1 : qty(`line-${id}-quantity`),
+			unitPriceMinor:
+				get(`line-${id}-remove`) === 'on' ? null : money(`line-${id}-price`, 'The price', false)
+		}));
 	const added: QuoteUpdate['added'] = [];
 	if (get('new-description').trim() || get('new-price').trim()) {
-		added.push({ partId: null, description: text('new-description', description), quantity: get('new-quantity') ? qty('new-quantity') : 1, unitPriceMinor: money('new-price', 'The price', true) });
+		added.push({
+			partId: null,
+			description: text('new-description', description),
+			quantity: get('new-quantity') ? qty('new-quantity') : 1,
+			unitPriceMinor: money('new-price', 'The price', true)
+		});
 	}
 	const labourMinor = money('labour', 'Labour', false) ?? 0;
 	const taxRateBp = parsePercent(get('tax') || '0');
@@ -89,7 +135,9 @@ function readQuoteForm(form: FormData, lineIds: string[]): { ok: true; data: Quo
 	let depositValue: number | null;
 	if (depositKind === 'percent') {
 		depositValue = parsePercent(get('depositValue') || '0');
-		if (depositValue === null) errors.depositValue = 'A percentage from 0 to 100, at most two decimals.';
+		if (depositValue === null) {
+			errors.depositValue = 'A percentage from 0 to 100, at most two decimals.';
+		}
 	} else {
 		depositValue = money('depositValue', 'The deposit', true);
 	}
@@ -100,7 +148,17 @@ function readQuoteForm(form: FormData, lineIds: string[]): { ok: true; data: Quo
 	if (Object.keys(errors).length) return { ok: false, errors, values };
 	return {
 		ok: true,
-		data: { currency, labourMinor, labourNote: labourText.data!, taxRateBp: taxRateBp!, depositKind, depositValue: depositValue!, notes: noteParsed.data!, lines, added }
+		data: {
+			currency,
+			labourMinor,
+			labourNote: labourText.data!,
+			taxRateBp: taxRateBp!,
+			depositKind,
+			depositValue: depositValue!,
+			notes: noteParsed.data!,
+			lines,
+			added
+		}
 	};
 }
 
@@ -117,7 +175,10 @@ export const actions: Actions = {
 	save: async (event) => {
 		const { quote } = await context(event);
 		const form = await event.request.formData();
-		const parsed = readQuoteForm(form, quote.lines.map((l) => l.id));
+		const parsed = readQuoteForm(
+			form,
+			quote.lines.map((l) => l.id)
+		);
 		if (!parsed.ok) return fail(400, { errors: parsed.errors, values: parsed.values });
 		try {
 			await updateQuote(quote.quote.id, parsed.data);

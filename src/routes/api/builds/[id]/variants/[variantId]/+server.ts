@@ -14,7 +14,11 @@ export const GET: RequestHandler = async (event) => {
 	const { build } = await requireBuild(event.locals, event.params.id, 'build.edit');
 	const variant = (await variantsOf(build.id)).find((v) => v.id === event.params.variantId);
 	if (!variant) error(404, 'Not found.');
-	return json({ version: variant.version, settings: variantSettingsSchema.parse(variant.settings), updatedAt: variant.updatedAt });
+	return json({
+		version: variant.version,
+		settings: variantSettingsSchema.parse(variant.settings),
+		updatedAt: variant.updatedAt
+	});
 };
 
 // The version column is a PostgreSQL integer: 2³¹ or more used to overflow it (a 500).
@@ -38,7 +42,12 @@ export const PUT: RequestHandler = async (event) => {
 			settings: input.settings,
 			userId: access.user.id
 		});
-		if (!result.ok) return json({ message: 'Someone saved this variant after you loaded it.', conflict: result.conflict }, { status: 409 });
+		if (!result.ok) {
+			return json(
+				{ message: 'Someone saved this variant after you loaded it.', conflict: result.conflict },
+				{ status: 409 }
+			);
+		}
 		return json({ version: result.version, report: await checkInPool(result.scene, 'settings') });
 	} catch (e) {
 		if (e instanceof SceneRejected) return problem(e.status, 'The scene was not saved.', e.issues);
@@ -48,4 +57,7 @@ export const PUT: RequestHandler = async (event) => {
 };
 
 export type SaveResponse = { version: number; report: FitReport };
-export type ConflictResponse = { message: string; conflict: { version: number; settings: z.infer<typeof variantSettingsSchema>; updatedAt: string } };
+export type ConflictResponse = {
+	message: string;
+	conflict: { version: number; settings: z.infer<typeof variantSettingsSchema>; updatedAt: string };
+};
