@@ -9,6 +9,9 @@ import type { VariantSettings } from '$lib/builds/settings';
 import { SceneRejected, loadVariant, saveVariantSettings } from './builds';
 import { demoBuildIn, type TestBuild } from './builds.spec-util';
 import { createTubeKind, tubeKindsForStudio } from './loop';
+import { ensureQuote } from './sharing/quotes';
+import { buildSheet } from '$lib/builds/sheet';
+import { resolveScene } from '$lib/geometry';
 import { studioWithMembers } from './testing/factories';
 
 /** A studio's own thin tube with a small bend radius (its own figure): 6 mm outside, r = 4 mm. */
@@ -159,5 +162,56 @@ describe('a variant with a loop', () => {
 			message: 'No tube kind with this id'
 		});
 		expect(await tubeKindsForStudio(build.studioId, [other.tubeId])).toEqual([]);
+	});
+});
+
+describe('the loop on the quote and the sheet', () => {
+	it('adds a loop group to the quote and a cut list to the sheet', async () => {
+		const { build, tubeId } = await fixture();
+		const settings = { ...build.settings, loops: [loopOver(tubeId)] };
+		const saved = await save(build, build.version, settings);
+		expect(saved.ok).toBe(true);
+		const quote = await ensureQuote({
+			studioId: build.studioId,
+			buildId: build.buildId,
+			variantId: build.variantId,
+			settings,
+			currency: 'EUR'
+		});
+		const tube = quote.lines.filter((l) => l.loopKey !== null);
+		// 16 + 4π ≈ 28.57 mm cut, + 10 % ≈ 31.4 mm: one whole metre at 3.00 a metre.
+		expect(tube).toEqual([
+			expect.objectContaining({
+				loopKey: `tube:${tubeId}`,
+				description: 'Loop · Thin soft tube 4/6 mm: 0.03 m cut + 10 % allowance, in whole metres',
+				quantity: 1,
+				unitPriceMinor: 300
+			})
+		]);
+		const loaded = await loadVariant(
+			build.buildId,
+			build.studioId,
+			build.enclosureVersionId,
+			build.variantId
+		);
+		const scene = loaded!.scene;
+		const sheet = buildSheet({
+			buildName: 'b',
+			variantName: 'v',
+			variantVersion: 1,
+			scene,
+			resolved: resolveScene(scene),
+			report: checkScene(scene),
+			cutAllowancePct: 10
+		});
+		// Bend middles: 6 − 4 straight + half of the π·4/2 arc = 2 + π; then π + (20 − 8) + π more.
+		expect(sheet.loop!.cutList[0].text).toBe(
+			`Run 1: ${(16 + 4 * Math.PI).toFixed(1)} mm of 4/6 mm soft tube, bends at ${(2 + Math.PI).toFixed(1)} and ${(14 + 3 * Math.PI).toFixed(1)} mm from the pump end.`
+		);
+		const group = sheet.checklist.find((g) => g.id === 'loop')!;
+		expect(group.items.map((i) => i.text)).toContain(sheet.loop!.cutList[0].text);
+		expect(group.items.map((i) => i.text)).toContain(
+			'Passes: The reservoir feeds the pump inlet from at or above it.'
+		);
 	});
 });
