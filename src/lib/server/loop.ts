@@ -1,8 +1,15 @@
 /** The coolant loop's catalogue: a studio's tube kinds (with prices) and its cut allowance. */
 import { and, eq, inArray, isNull } from 'drizzle-orm';
-import { formatZodIssues, tubeKindSchema, type FieldIssue, type TubeKindDef } from '$lib/geometry';
+import {
+	formatZodIssues,
+	partDefSchema,
+	tubeKindSchema,
+	type FieldIssue,
+	type PartDef,
+	type TubeKindDef
+} from '$lib/geometry';
 import { db } from './db';
-import { studioLoopSettings, tubeKinds } from './db/schema';
+import { parts, studioLoopSettings, tubeKinds } from './db/schema';
 import { newId } from './tokens';
 
 /** 10 % more tube than the cut list, for cutting and the odd mistake (common practice). */
@@ -67,4 +74,17 @@ export async function createTubeKind(
 		currency: price.currency
 	});
 	return { ok: true, id };
+}
+
+/** The studio's fitting parts (category fitting, not archived), for the editor's loop panel. */
+export async function fittingPartsForStudio(studioId: string): Promise<PartDef[]> {
+	const rows = await db
+		.select({ id: parts.id, name: parts.name, definition: parts.definition })
+		.from(parts)
+		.where(
+			and(eq(parts.studioId, studioId), eq(parts.category, 'fitting'), isNull(parts.archivedAt))
+		);
+	return rows
+		.map((r) => partDefSchema.parse({ ...(r.definition as object), id: r.id, name: r.name }))
+		.sort((a, b) => a.name.localeCompare(b.name));
 }
