@@ -11,7 +11,8 @@ import { demoBuildIn, type TestBuild } from './builds.spec-util';
 import { createTubeKind, tubeKindsForStudio } from './loop';
 import { ensureQuote } from './sharing/quotes';
 import { buildSheet } from '$lib/builds/sheet';
-import { resolveScene } from '$lib/geometry';
+import { resolveScene, sceneSchema } from '$lib/geometry';
+import { neutralScene } from './sharing/view';
 import { studioWithMembers } from './testing/factories';
 
 /** A studio's own thin tube with a small bend radius (its own figure): 6 mm outside, r = 4 mm. */
@@ -212,6 +213,30 @@ describe('the loop on the quote and the sheet', () => {
 		expect(group.items.map((i) => i.text)).toContain(sheet.loop!.cutList[0].text);
 		expect(group.items.map((i) => i.text)).toContain(
 			'Passes: The reservoir feeds the pump inlet from at or above it.'
+		);
+	});
+});
+
+describe('the loop on the client page', () => {
+	it('keeps its loop under the neutral ids the client sees', async () => {
+		const { build, tubeId } = await fixture();
+		const settings = { ...build.settings, loops: [loopOver(tubeId)] };
+		expect((await save(build, build.version, settings)).ok).toBe(true);
+		const loaded = await loadVariant(
+			build.buildId,
+			build.studioId,
+			build.enclosureVersionId,
+			build.variantId
+		);
+		const neutral = neutralScene(loaded!.scene);
+		const run = neutral.scene.loops![0].runs[0];
+		expect(run.from.placementId).toMatch(/^part-\d{3}$/);
+		expect(neutral.placementIds.get(run.from.placementId)).toBe('pump-res');
+		// Still a scene the engine accepts, and the same run.
+		const reparsed = sceneSchema.parse(neutral.scene);
+		expect(checkScene(reparsed).loops![0].runs[0].cutLengthMm).toBeCloseTo(
+			checkScene(loaded!.scene).loops![0].runs[0].cutLengthMm,
+			9
 		);
 	});
 });
