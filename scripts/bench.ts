@@ -20,6 +20,10 @@ import {
 } from '../src/lib/geometry/index';
 import { demoEnclosure } from '../src/lib/geometry/fixtures';
 import { roomTable } from '../src/lib/geometry/room';
+import { checkLoops, type RunCache } from '../src/lib/geometry/loop';
+import { defaultFittings, defaultTubeKinds } from '../src/lib/geometry/loop-fixtures';
+import { bendsOf, norm, sub } from '../src/lib/geometry/loop-path';
+import type { LoopDef } from '../src/lib/geometry/schema';
 import { partsByPositions, type FitCandidate } from '../src/lib/builds/fits';
 import { landOnMount } from '../src/lib/builds/placement';
 
@@ -497,6 +501,108 @@ function fitsRow() {
 	return { ms: fast.ms, p10: fast.p10, naiveMs, cells: cands.length * positions.length };
 }
 
+/**
+ * The 100-part scene with six hubs in a row near the back (x 20 + 95k, y 300, z 450) and a loop of
+ * six 12 mm hard runs between their top ports, five segments each: 30 segments, 24 bends. `shift`
+ * moves one waypoint of run 3 (a drag) along x.
+ */
+function loopBenchScene(shift = 0): Scene {
+	const base = hundredPartScene();
+	const hub = {
+		id: 'hub',
+		name: 'Generic hub',
+		category: 'other' as const,
+		bodies: [
+			{ id: 'body', label: 'body', box: { min: [0, 0, 0] as Vec3, max: [30, 20, 30] as Vec3 } }
+		],
+		ports: [
+			{ id: 'in', position: [5, 20, 15] as Vec3, direction: '+y' as const, thread: 'G 1/4' },
+			{ id: 'out', position: [25, 20, 15] as Vec3, direction: '+y' as const, thread: 'G 1/4' }
+		]
+	};
+	const hubs = Array.from({ length: 6 }, (_, k) => ({
+		id: `hub-${k}`,
+		partId: 'hub',
+		position: [20 + 95 * k, 300, 450] as Vec3
+	}));
+	// Each run: up from the out port's fitting tip (y 344) to 370, back to z 410, along x, forward
+	// to z 465 and down onto the next hub's in port.
+	const runs = hubs.map((h, k) => {
+		const next = hubs[(k + 1) % hubs.length];
+		const sx = h.position[0] + 25;
+		const ex = next.position[0] + 5;
+		return {
+			id: `run-${k}`,
+			from: { placementId: h.id, portId: 'out' },
+			to: { placementId: next.id, portId: 'in' },
+			tube: 'hard-12',
+			fittings: { from: 'fit-straight-16', to: 'fit-straight-16' },
+			waypoints: [
+				[sx, 370, 465],
+				[sx, 370, 410],
+				[ex, 370, 410],
+				[ex, 370, 465]
+			] as Vec3[]
+		};
+	});
+	if (shift) {
+		// A hard run's waypoint moves with its neighbour along one axis (the segment between them
+		// slides), or the run would leave its axes: the third run's middle segment, back or forth.
+		const w = runs[2].waypoints;
+		w[1] = [w[1][0], 370, 410 + shift];
+		w[2] = [w[2][0], 370, 410 + shift];
+	}
+	const loop: LoopDef = { id: 'bench', runs, plugs: [] };
+	return sceneSchema.parse({
+		...base,
+		parts: [...base.parts, hub, ...defaultFittings()],
+		placements: [...base.placements, ...hubs],
+		tubeKinds: defaultTubeKinds(),
+		loops: [loop]
+	});
+}
+
+/** Reference: every run's centre line sampled each 1 mm, each point against every box of the scene. */
+function naiveLoopCheck(scene: Scene, boxes: Box[]): number {
+	let hits = 0;
+	for (const run of scene.loops![0].runs) {
+		const pts = run.waypoints;
+		for (let i = 1; i < pts.length; i++) {
+			const d = sub(pts[i], pts[i - 1]);
+			const n = Math.ceil(norm(d));
+			for (let k = 0; k <= n; k++) {
+				const p = [0, 1, 2].map((a) => pts[i - 1][a] + (d[a] * k) / n);
+				for (const b of boxes) {
+					if (p.every((v, a) => v > b.min[a] - 8 && v < b.max[a] + 8)) hits++;
+				}
+			}
+		}
+		hits += bendsOf(pts, 24).length;
+	}
+	return hits;
+}
+
+function loopRow() {
+	const scene = loopBenchScene();
+	const resolved = resolveScene(scene);
+	const segments = scene.loops![0].runs.reduce((n, r) => n + r.waypoints.length + 1, 0);
+	const full = time(() => checkLoops(scene, resolved), 201, 50);
+	const boxes = [
+		...resolved.walls,
+		...resolved.dividers,
+		...resolved.brackets,
+		...resolved.placements.flatMap((p) => [...p.bodies, ...p.keepouts])
+	].map((b) => b.box);
+	const naive = time(() => naiveLoopCheck(scene, boxes), 21, 5);
+	// A drag: the same resolved scene, one run's waypoints 0.5 mm on each step, the cache warm.
+	const steps = [0.5, 1, 1.5, 2].map((s) => loopBenchScene(s));
+	const cache: RunCache = new Map();
+	checkLoops(scene, resolved, cache);
+	let i = 0;
+	const drag = time(() => checkLoops(steps[i++ % steps.length], resolved, cache), 201, 50);
+	return { full, drag, naive, segments, runs: scene.loops![0].runs.length };
+}
+
 function main(): void {
 	// The scene checks run first, before the 20,000-box sets have grown the heap.
 	const big = hundredPartScene();
@@ -504,6 +610,11 @@ function main(): void {
 	const report = check.result;
 	console.log(
 		`checkScene, 100 parts (${report.parts.length} placements, ${report.overlaps.length} overlaps): ${check.ms.toFixed(3)} ms median, ${check.p10.toFixed(3)} ms low decile`
+	);
+
+	const loop = loopRow();
+	console.log(
+		`loop check, 100 parts + ${loop.runs} runs of ${loop.segments} segments: ${loop.full.ms.toFixed(3)} ms median, ${loop.full.p10.toFixed(3)} ms low decile; one waypoint dragged (cache warm): ${loop.drag.ms.toFixed(3)} ms median; reference (centre lines sampled per mm against every box): ${loop.naive.ms.toFixed(3)} ms`
 	);
 
 	const troubled = problemScene();
@@ -577,6 +688,11 @@ function main(): void {
 			fits5000_p10_ms: round(fits.p10),
 			fits5000_vs_naive: round(fits.ms / fits.naiveMs),
 			room_table_ms: round(room.ms),
+			loop_check_ms: round(loop.full.ms),
+			loop_check_p10_ms: round(loop.full.p10),
+			loop_drag_ms: round(loop.drag.ms),
+			loop_check_vs_naive: round(loop.full.ms / loop.naive.ms),
+			loop_drag_vs_check: round(loop.drag.ms / loop.full.ms),
 			room_table_p10_ms: round(room.p10),
 			load_average_1min: round(loadavg()[0]),
 			n50_vs_box_intersect: round(byN(50).engineMs / byN(50).boxIntersectMs),

@@ -18,7 +18,7 @@ export type Cell = {
 
 export type DiffRow = {
 	key: string;
-	group: 'part' | 'compartment' | 'mount' | 'total';
+	group: 'part' | 'compartment' | 'mount' | 'loop' | 'total';
 	label: string;
 	/** Which is better: a bigger number (a gap, spare room) or a smaller one (interference). */
 	better: 'higher' | 'lower' | 'status' | 'none';
@@ -183,6 +183,7 @@ export function compareVariants(inputs: CompareInput[]): DiffRow[] {
 			)
 		);
 	}
+	rows.push(...loopRows(inputs));
 	rows.push(
 		numberRow(
 			'total:interference',
@@ -223,6 +224,70 @@ export function compareVariants(inputs: CompareInput[]): DiffRow[] {
 			inputs.map((v) => v.report.budgets.power.ratingW - v.report.budgets.power.requiredW),
 			'higher',
 			(v) => `${Math.round(v)}\u2009W`
+		)
+	);
+	return rows;
+}
+
+/** The coolant loops' totals: tube per kind, fittings, bends, run problems and loop checks. */
+function loopRows(inputs: CompareInput[]): DiffRow[] {
+	if (!inputs.some((v) => v.report.loops?.length)) return [];
+	const runs = inputs.map((v) => (v.report.loops ?? []).flatMap((l) => l.runs));
+	const checks = inputs.map((v) => (v.report.loops ?? []).flatMap((l) => l.checks));
+	const kinds = [...new Set(runs.flat().map((r) => r.tubeKindId))].sort();
+	const rows = kinds.map((kind) =>
+		numberRow(
+			`loop:tube:${kind}`,
+			'loop',
+			`Tube ${kind}, cut length`,
+			runs.map((list) => {
+				const of = list.filter((r) => r.tubeKindId === kind);
+				return of.length ? of.reduce((n, r) => n + r.cutLengthMm, 0) : null;
+			}),
+			'none',
+			mmText
+		)
+	);
+	const count = (label: string, key: string, values: number[], better: DiffRow['better']) =>
+		numberRow(`loop:${key}`, 'loop', label, values, better, (v) => String(v));
+	rows.push(
+		count(
+			'Fittings on the runs',
+			'fittings',
+			runs.map((list) =>
+				list.reduce((n, r) => n + r.pieces.filter((p) => p.kind === 'fitting').length, 0)
+			),
+			'none'
+		),
+		count(
+			'Bends',
+			'bends',
+			runs.map((list) => list.reduce((n, r) => n + r.bends.length, 0)),
+			'lower'
+		),
+		count(
+			'Run collisions and blocks',
+			'problems',
+			runs.map((list) =>
+				list.reduce(
+					(n, r) =>
+						n + r.problems.filter((p) => p.kind === 'collides' || p.kind === 'blocked').length,
+					0
+				)
+			),
+			'lower'
+		),
+		count(
+			'Loop checks failed',
+			'checks-failed',
+			checks.map((list) => list.filter((c) => c.status === 'fail').length),
+			'lower'
+		),
+		count(
+			'Loop checks to look at',
+			'checks-warn',
+			checks.map((list) => list.filter((c) => c.status === 'warn').length),
+			'lower'
 		)
 	);
 	return rows;

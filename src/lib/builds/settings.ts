@@ -9,10 +9,12 @@ import {
 	SCENE_VERSION,
 	allowedPositions,
 	budgetsSchema,
+	loopSchema,
 	placementSchema,
 	type EnclosureDef,
 	type PartDef,
-	type SceneInput
+	type SceneInput,
+	type TubeKindDef
 } from '$lib/geometry';
 
 const offsets = z.record(
@@ -32,7 +34,9 @@ export const variantSettingsSchema = z.object({
 		.min(0, 'Must not be negative')
 		.max(100, 'At most 100 mm')
 		.default(2),
-	budgets: budgetsSchema.default({ wattsPer120mm: 100, psuHeadroomPct: 30 })
+	budgets: budgetsSchema.default({ wattsPer120mm: 100, psuHeadroomPct: 30 }),
+	/** The variant's coolant loops (docs/scene-format.md); optional, so older settings stay valid. */
+	loops: z.array(loopSchema).max(8, 'At most 8 loops').optional()
 });
 export type VariantSettings = z.infer<typeof variantSettingsSchema>;
 
@@ -55,10 +59,14 @@ export function defaultSettings(enclosure: EnclosureDef): VariantSettings {
 export function composeScene(
 	enclosure: EnclosureDef,
 	parts: PartDef[],
-	settings: VariantSettings
+	settings: VariantSettings,
+	tubeKinds: TubeKindDef[] = []
 ): SceneInput {
-	const used = new Set(settings.placements.map((p) => p.partId));
+	const used = new Set(catalogueIdsOf(settings).parts);
+	const loops = settings.loops?.length ? settings.loops : undefined;
+	const tubes = new Set(catalogueIdsOf(settings).tubeKinds);
 	return {
+		...(loops ? { loops, tubeKinds: tubeKinds.filter((t) => tubes.has(t.id)) } : {}),
 		format: SCENE_FORMAT,
 		version: SCENE_VERSION,
 		enclosure,
@@ -69,4 +77,22 @@ export function composeScene(
 		marginMm: settings.marginMm,
 		budgets: settings.budgets
 	};
+}
+
+/** Catalogue ids a variant uses: placed parts, the loops' fittings and plugs, the loops' tube kinds. */
+export function catalogueIdsOf(settings: VariantSettings): {
+	parts: string[];
+	tubeKinds: string[];
+} {
+	const parts = new Set(settings.placements.map((p) => p.partId));
+	const tubeKinds = new Set<string>();
+	for (const loop of settings.loops ?? []) {
+		for (const run of loop.runs) {
+			tubeKinds.add(run.tube);
+			if (run.fittings.from) parts.add(run.fittings.from);
+			if (run.fittings.to) parts.add(run.fittings.to);
+		}
+		for (const plug of loop.plugs) if (plug.fitting) parts.add(plug.fitting);
+	}
+	return { parts: [...parts], tubeKinds: [...tubeKinds] };
 }

@@ -4,6 +4,7 @@
  * boxes and its fit report in, the sheet out. Millimetres, Y up, inner coordinates.
  */
 
+import { loopSheet, type LoopSheet } from '$lib/loop/sheet-lines';
 import {
 	EPSILON_MM,
 	FACES,
@@ -63,6 +64,8 @@ export interface SheetInput {
 	scene: Scene;
 	resolved: ResolvedScene;
 	report: FitReport;
+	/** The studio's cut allowance for tube, percent (the loop's bill). */
+	cutAllowancePct?: number;
 }
 
 export interface SettingLine {
@@ -156,7 +159,7 @@ export interface ChecklistItem {
 }
 
 export interface ChecklistGroup {
-	id: 'settings' | 'order' | 'fittings' | 'cautions';
+	id: 'settings' | 'order' | 'fittings' | 'loop' | 'cautions';
 	title: string;
 	items: ChecklistItem[];
 }
@@ -189,6 +192,8 @@ export interface SheetModel {
 	};
 	assembly: { steps: StepLine[]; rule: string[] };
 	fittings: FittingLine[];
+	/** The coolant loop's cut list, tube and checks; null when the variant has no loop. */
+	loop: LoopSheet | null;
 	checklist: ChecklistGroup[];
 	planningNote: string;
 }
@@ -574,13 +579,17 @@ export function buildSheet(input: SheetInput): SheetModel {
 	const items = fitItems(scene, resolved, report, names);
 	const plan = assemblyPlan(scene, resolved, report);
 	const steps = plan.steps.map((s) => stepLine(s, names, mountNames));
+	const loop = loopSheet(scene, report, input.cutAllowancePct ?? 0);
 	const threads = fittingsByThread(resolved);
-	const fittings: FittingLine[] = threads.map((t) => ({
-		key: `fittings:${t.thread}`,
-		thread: t.thread,
-		ports: t.ports,
-		text: `${t.ports} × ${t.thread} fittings or stop plugs${t.withPlacedFitting ? ` (${t.withPlacedFitting} placed in the plan)` : ''}: ${t.byPart.map((p) => `${p.ports} on ${p.name}`).join('; ')}.`
-	}));
+	// With a loop, its bill counts the fittings and plugs per thread; without, the ports do.
+	const fittings: FittingLine[] = loop
+		? loop.fittings.map((f) => ({ key: f.key, thread: f.thread, ports: f.count, text: f.text }))
+		: threads.map((t) => ({
+				key: `fittings:${t.thread}`,
+				thread: t.thread,
+				ports: t.ports,
+				text: `${t.ports} × ${t.thread} fittings or stop plugs${t.withPlacedFitting ? ` (${t.withPlacedFitting} placed in the plan)` : ''}: ${t.byPart.map((p) => `${p.ports} on ${p.name}`).join('; ')}.`
+			}));
 	const walls = FACES.map((f) => {
 		const name = (['left', 'right', 'bottom', 'top', 'front', 'back'] as const)[FACES.indexOf(f)];
 		const w = enclosure.walls[name];
@@ -626,6 +635,7 @@ export function buildSheet(input: SheetInput): SheetModel {
 		},
 		assembly: { steps, rule: [...ORDER_RULE] },
 		fittings,
+		loop,
 		checklist: [
 			{
 				id: 'settings',
@@ -643,8 +653,19 @@ export function buildSheet(input: SheetInput): SheetModel {
 			},
 			{
 				id: 'fittings',
-				title: 'Fittings per port thread',
+				title: loop ? 'Fittings and plugs per thread' : 'Fittings per port thread',
 				items: fittings.map((f) => ({ key: f.key, text: f.text, detail: null }))
+			},
+			{
+				id: 'loop',
+				title: 'Cut the tube and check the loop',
+				items: loop
+					? [
+							...loop.cutList.map((c) => ({ key: c.key, text: c.text, detail: null })),
+							...loop.tubes.map((t) => ({ ...t, detail: null })),
+							...loop.checks
+						]
+					: []
 			},
 			{
 				id: 'cautions',

@@ -24,6 +24,7 @@ import {
 	type FoundPair,
 	type Model
 } from './model';
+import { withLoops } from './loop-report';
 import { resolveScene } from './resolve';
 import type { Box, Scene } from './schema';
 import type {
@@ -141,7 +142,7 @@ export function reportFor(
 		compartmentId: compartmentOf(resolved.compartments, rp.bounds),
 		mountProblems: model.mountProblemsOf[p]
 	}));
-	return {
+	return withLoops(scene, resolved, {
 		overlaps,
 		overlapsNotListed: pairs.length - overlaps.length,
 		parts,
@@ -153,7 +154,7 @@ export function reportFor(
 			counts
 		},
 		compartments: resolved.compartments
-	};
+	});
 }
 
 /** The fit report of a parsed scene (see sceneSchema). Throws SceneError for positions not allowed. */

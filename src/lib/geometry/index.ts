@@ -31,3 +31,4 @@ export {
 export { unionVolume } from './union';
 export { heatBudget, powerBudget } from './budgets';
 export { sweep, sweepGrid, feasibleIntervals } from './sweep';
+export * from './loop';

@@ -5,6 +5,7 @@
  */
 
 import { z } from 'zod';
+import { loopIssues } from './loop-path';
 import { MAX_POSITIONS, allowedIndex, rangeCount } from './positions';
 
 /** Coordinates and offsets stay within ±10,000 mm (10 m): far beyond any enclosure, small enough to keep doubles exact to ~2e-12 mm. */
@@ -236,7 +237,13 @@ export const partSpecsSchema = z.object({
 	psuRatingW: wattsSchema.optional(),
 	boardFormFactor: z.enum(['Mini-ITX', 'microATX', 'ATX']).optional(),
 	cardLengthMm: sizeMm.optional(),
-	cardSlots: z.number().int().min(1).max(8).optional()
+	cardSlots: z.number().int().min(1).max(8).optional(),
+	/** For a part of category fitting: what it is (a coolant-loop fitting or a stop plug). */
+	fittingKind: z
+		.enum(['straight', '45', '90', 'rotary', 'extension', 'quick-disconnect', 'plug'])
+		.optional(),
+	/** For a fitting: how deep the tube goes in past its tip, counted in the tube's cut length. */
+	insertionDepthMm: thicknessMm.optional()
 });
 export type PartSpecs = z.infer<typeof partSpecsSchema>;
 
@@ -312,6 +319,66 @@ export const budgetsSchema = z.object({
 });
 export type Budgets = z.infer<typeof budgetsSchema>;
 
+/**
+ * A studio's tube kind: soft tube by inner/outer diameter (10/13, 10/16 mm), hard tube by outer
+ * diameter (12, 14, 16 mm). `minBendRadiusMm` is to the tube's centre line; `clearanceMm` the room
+ * kept free around it (closer than that is tight).
+ */
+export const tubeKindSchema = z
+	.object({
+		id: idSchema,
+		name: z.string().min(1, 'Required').max(200),
+		kind: z.enum(['soft', 'hard']),
+		innerMm: sizeMm.optional(),
+		outerMm: sizeMm,
+		minBendRadiusMm: thicknessMm,
+		clearanceMm: thicknessMm.default(2),
+		source: z.string().max(500).optional()
+	})
+	.refine((t) => t.innerMm === undefined || t.innerMm < t.outerMm, {
+		path: ['innerMm'],
+		message: 'Must be smaller than the outer diameter'
+	});
+export type TubeKindDef = z.infer<typeof tubeKindSchema>;
+
+export const portRefSchema = z.object({ placementId: idSchema, portId: idSchema });
+export type PortRef = z.infer<typeof portRefSchema>;
+
+/**
+ * One connection of a loop, flowing from `from` to `to`. `waypoints` are the intermediate points
+ * of the tube's centre line only: the whole line is [start, ...waypoints, end], start and end
+ * being the ports pushed out along their direction by the fittings' reach.
+ */
+export const runSchema = z.object({
+	id: idSchema,
+	from: portRefSchema,
+	to: portRefSchema,
+	/** A tube kind id of the scene's `tubeKinds`. */
+	tube: idSchema,
+	/** Fitting part ids (category fitting) at each end; null: the tube goes onto the port bare. */
+	fittings: z
+		.object({ from: idSchema.nullable().default(null), to: idSchema.nullable().default(null) })
+		.default({ from: null, to: null }),
+	waypoints: z.array(vec3Schema).max(200, 'At most 200 waypoints').default([])
+});
+export type RunDef = z.infer<typeof runSchema>;
+
+export const loopSchema = z.object({
+	id: idSchema,
+	label: labelSchema.optional(),
+	/** In flow order: pump out → block in, block out → radiator in, …, reservoir out → pump in. */
+	runs: z.array(runSchema).min(1, 'At least one run').max(100, 'At most 100 runs'),
+	/** Ports closed with a stop plug (a fitting part of kind plug, or null for a generic one). */
+	plugs: z
+		.array(portRefSchema.extend({ fitting: idSchema.nullable().default(null) }))
+		.max(200)
+		.default([]),
+	/** The plugged port the loop is filled through, and the one it is drained through. */
+	fill: portRefSchema.optional(),
+	drain: portRefSchema.optional()
+});
+export type LoopDef = z.infer<typeof loopSchema>;
+
 export const SCENE_FORMAT = 'interstice.scene';
 export const SCENE_VERSION = 1;
 
@@ -327,7 +394,11 @@ const sceneObjectSchema = z.object({
 	placements: z.array(placementSchema).max(MAX_BOXES).default([]),
 	/** Gaps under this many millimetres count as tight; a couple of mm is common practice. */
 	marginMm: thicknessMm.default(2),
-	budgets: budgetsSchema.default({ wattsPer120mm: 100, psuHeadroomPct: 30 })
+	budgets: budgetsSchema.default({ wattsPer120mm: 100, psuHeadroomPct: 30 }),
+	/** Tube kinds the loops use (optional; version 1 scenes without loops mean the same). */
+	tubeKinds: z.array(tubeKindSchema).max(100).optional(),
+	/** Coolant loops: ordered cycles of ports joined by runs (see docs/scene-format.md). */
+	loops: z.array(loopSchema).max(8, 'At most 8 loops').optional()
 });
 
 type SceneShape = z.infer<typeof sceneObjectSchema>;
@@ -416,6 +487,9 @@ export const sceneSchema = sceneObjectSchema.superRefine((scene, ctx) => {
 	const parts = checkUniqueIds(scene, ctx);
 	checkControlPositions(scene, ctx);
 	checkPlacements(scene, parts, ctx);
+	for (const issue of loopIssues(scene)) {
+		ctx.addIssue({ code: 'custom', path: issue.path, message: issue.message });
+	}
 });
 export type Scene = z.infer<typeof sceneSchema>;
 /** What a client may send: defaults not yet filled in. */

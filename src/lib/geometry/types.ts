@@ -4,6 +4,7 @@
  */
 
 import type { Axis, Face } from './box';
+import type { LoopReport } from './loop';
 import type { Box, FaceName, KeepoutDef, PartDef, Placement, PortDef, Vec3 } from './schema';
 
 /** Precedence, worst first: collides > blocked > outside > tight > clear. */
@@ -232,6 +233,8 @@ export interface FitReport {
 		counts: StatusCounts;
 	};
 	compartments: Compartment[];
+	/** The scene's coolant loops checked (loop.ts); missing when the scene has none. */
+	loops?: LoopReport[];
 }
 
 export interface SweepControl {

@@ -11,9 +11,11 @@ import {
 	type EnclosureDef,
 	type FieldIssue,
 	type PartDef,
-	type Scene
+	type Scene,
+	type TubeKindDef
 } from '$lib/geometry';
 import {
+	catalogueIdsOf,
 	composeScene,
 	defaultSettings,
 	variantSettingsSchema,
@@ -31,6 +33,7 @@ import {
 	variants,
 	type VariantRow
 } from './db/schema';
+import { engineTubeKinds, tubeKindsForStudio, type StudioTubeKind } from './loop';
 import { deleteObjects } from './storage';
 import { newId } from './tokens';
 import { assertNotFrozen, frozenState, latestVersion, recordRevision } from './versions';
@@ -198,6 +201,8 @@ export type LoadedVariant = {
 	enclosure: EnclosureDef;
 	parts: PartDef[];
 	scene: Scene;
+	/** The loops' tube kinds with the studio's prices. */
+	tubeKinds: StudioTubeKind[];
 };
 
 /**
@@ -219,15 +224,23 @@ export async function loadVariant(
 	const enc = await enclosureVersionDef(enclosureVersionId);
 	if (!enc) return null;
 	const settings = variantSettingsSchema.parse(versionSettings ?? variant.settings);
-	const { parts: defs } = await partsForStudio(
-		studioId,
-		settings.placements.map((p) => p.partId)
-	);
-	const scene = validateScene(enc.definition, defs, settings);
-	return { variant, settings, enclosure: enc.definition, parts: defs, scene };
+	const ids = catalogueIdsOf(settings);
+	const [{ parts: defs }, tubes] = await Promise.all([
+		partsForStudio(studioId, ids.parts),
+		tubeKindsForStudio(studioId, ids.tubeKinds)
+	]);
+	const scene = validateScene(enc.definition, defs, settings, engineTubeKinds(tubes));
+	return { variant, settings, enclosure: enc.definition, parts: defs, scene, tubeKinds: tubes };
 }
 
-const SETTINGS_KEYS = ['dividerPositions', 'bracketOffsets', 'placements', 'marginMm', 'budgets'];
+const SETTINGS_KEYS = [
+	'dividerPositions',
+	'bracketOffsets',
+	'placements',
+	'marginMm',
+	'budgets',
+	'loops'
+];
 
 /** A scene path in the variant's own fields, named as the request names it: `settings.…`. */
 function settingsPath(path: string) {
@@ -241,9 +254,10 @@ function settingsPath(path: string) {
 export function validateScene(
 	enclosure: EnclosureDef,
 	defs: PartDef[],
-	settings: VariantSettings
+	settings: VariantSettings,
+	tubeKinds: TubeKindDef[] = []
 ): Scene {
-	const parsed = sceneSchema.safeParse(composeScene(enclosure, defs, settings));
+	const parsed = sceneSchema.safeParse(composeScene(enclosure, defs, settings, tubeKinds));
 	if (!parsed.success) {
 		throw new SceneRejected(
 			formatZodIssues(parsed.error).map((i) => ({ ...i, path: settingsPath(i.path) }))
@@ -281,16 +295,17 @@ export async function saveVariantSettings(input: {
 		);
 	}
 	const settings = parsed.data;
-	const { parts: defs, forbidden } = await partsForStudio(
-		input.studioId,
-		settings.placements.map((p) => p.partId)
-	);
+	const ids = catalogueIdsOf(settings);
+	const [{ parts: defs, forbidden }, tubes] = await Promise.all([
+		partsForStudio(input.studioId, ids.parts),
+		tubeKindsForStudio(input.studioId, ids.tubeKinds)
+	]);
 	if (forbidden.length) {
 		const i = settings.placements.findIndex((p) => forbidden.includes(p.partId));
 		throw new SceneRejected(
 			[
 				{
-					path: `settings.placements[${i}].partId`,
+					path: i >= 0 ? `settings.placements[${i}].partId` : 'settings.loops',
 					message: 'This part is not in your studio’s catalogue.'
 				}
 			],
@@ -304,7 +319,7 @@ export async function saveVariantSettings(input: {
 			409
 		);
 	}
-	const scene = validateScene(enc.definition, defs, settings);
+	const scene = validateScene(enc.definition, defs, settings, engineTubeKinds(tubes));
 	// A stored variant is checked on every later load of the editor, sheet and client page, so
 	// one over the cost limits is refused here rather than stored.
 	const excess = checkExcess(scene, 'settings.placements');
@@ -586,13 +601,12 @@ export async function planMoveOn(build: {
 			variantSettingsSchema.parse(v.settings),
 			to.definition
 		);
-		const { parts: defs } = await partsForStudio(
-			build.studioId,
-			settings.placements.map((p) => p.partId)
-		);
+		const ids = catalogueIdsOf(settings);
+		const { parts: defs } = await partsForStudio(build.studioId, ids.parts);
+		const tubes = await tubeKindsForStudio(build.studioId, ids.tubeKinds);
 		let problems: FieldIssue[] = [];
 		try {
-			validateScene(to.definition, defs, settings);
+			validateScene(to.definition, defs, settings, engineTubeKinds(tubes));
 		} catch (e) {
 			if (!(e instanceof SceneRejected)) throw e;
 			problems = e.issues;

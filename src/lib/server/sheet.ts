@@ -22,6 +22,7 @@ import {
 } from './access';
 import type { SessionUser } from './auth';
 import { SceneRejected, loadVariant, variantsOf, type LoadedVariant } from './builds';
+import { cutAllowanceFor } from './loop';
 import { canonicalJson, ensureVersion } from './versions';
 import { variantSettingsSchema } from '$lib/builds/settings';
 import { db } from './db';
@@ -95,7 +96,11 @@ async function loadChecked(build: BuildRow, variantId: string | undefined) {
 	}
 	if (!loaded) error(404, 'No such variant in this build.');
 	const resolved = resolveScene(loaded.scene);
-	return { loaded, resolved, report: await checkInPool(loaded.scene) };
+	const [report, cutAllowancePct] = await Promise.all([
+		checkInPool(loaded.scene),
+		cutAllowanceFor(build.studioId)
+	]);
+	return { loaded, resolved, report, cutAllowancePct };
 }
 
 function sheetOf(
@@ -103,8 +108,9 @@ function sheetOf(
 	checked: Awaited<ReturnType<typeof loadChecked>>,
 	version?: { number: number; changed: boolean }
 ): SheetModel {
-	const { loaded, resolved, report } = checked;
+	const { loaded, resolved, report, cutAllowancePct } = checked;
 	return buildSheet({
+		cutAllowancePct,
 		buildName: build.name,
 		clientName: build.clientName,
 		variantName: loaded.variant.name,

@@ -20,6 +20,7 @@ import {
 	type Placement,
 	type ResolvedScene,
 	type Scene,
+	type TubeKindDef,
 	type Vec3
 } from '$lib/geometry';
 import { composeScene, type VariantSettings } from '$lib/builds/settings';
@@ -53,8 +54,13 @@ function sameSettings(a: VariantSettings, b: VariantSettings): boolean {
 	return a === b || canonicalJson(a) === canonicalJson(b);
 }
 
-function compute(enclosure: EnclosureDef, parts: PartDef[], settings: VariantSettings): Computed {
-	const parsed = sceneSchema.safeParse(composeScene(enclosure, parts, settings));
+function compute(
+	enclosure: EnclosureDef,
+	parts: PartDef[],
+	settings: VariantSettings,
+	tubeKinds: TubeKindDef[] = []
+): Computed {
+	const parsed = sceneSchema.safeParse(composeScene(enclosure, parts, settings, tubeKinds));
 	if (!parsed.success) return { ok: false, issues: formatZodIssues(parsed.error) };
 	// Over the cost limits the browser would stall on it (and the server refuses to save it).
 	const excess = checkExcess(parsed.data);
@@ -119,7 +125,11 @@ export class EditorState {
 	#saveDelayMs: number;
 	#checkDelayMs: number;
 
-	computed = $derived.by(() => compute(this.enclosure, this.parts, this.settings));
+	/** The studio's tube kinds and fitting parts, for the loop panel. */
+	readonly tubeKinds: TubeKindDef[];
+	readonly fittings: PartDef[];
+
+	computed = $derived.by(() => compute(this.enclosure, this.parts, this.settings, this.tubeKinds));
 	report = $derived(this.computed.ok ? this.computed.report : null);
 	resolved = $derived(this.computed.ok ? this.computed.resolved : null);
 	canUndo = $derived(this.#undo.length > 0);
@@ -138,6 +148,8 @@ export class EditorState {
 		variantId: string;
 		enclosure: EnclosureDef;
 		parts: PartDef[];
+		tubeKinds?: TubeKindDef[];
+		fittings?: PartDef[];
 		settings: VariantSettings;
 		version: number;
 		api: EditorApi;
@@ -154,6 +166,8 @@ export class EditorState {
 		this.variantId = init.variantId;
 		this.enclosure = init.enclosure;
 		this.parts = init.parts;
+		this.tubeKinds = init.tubeKinds ?? [];
+		this.fittings = init.fittings ?? [];
 		this.settings = init.settings;
 		this.version = init.version;
 		this.#api = init.api;
@@ -202,6 +216,33 @@ export class EditorState {
 		this.#coalesceKey = null;
 		this.settings = next;
 		this.#changed();
+	}
+
+	/** The words a refused loop change was refused with (the server's own), until the next change. */
+	loopRefusal = $state.raw<FieldIssue[]>([]);
+
+	/**
+	 * Applies a loop change unless the scene schema refuses its loops (a missing port, a port used
+	 * twice, a waypoint outside, a bend too tight…): then nothing changes and `loopRefusal` holds
+	 * the reasons. A fitting the change names joins the scene's parts first. True when applied.
+	 */
+	applyLoop(next: VariantSettings, fittingIds: (string | null)[] = [], coalesce?: string) {
+		if (this.readOnly) return false;
+		const missing = fittingIds.flatMap((id) => {
+			const f = id && !this.partsById.has(id) ? this.fittings.find((p) => p.id === id) : null;
+			return f ? [f] : [];
+		});
+		const parts = missing.length ? [...this.parts, ...missing] : this.parts;
+		const trial = compute(this.enclosure, parts, next, this.tubeKinds);
+		const refused = trial.ok ? [] : trial.issues.filter((i) => i.path.startsWith('loops'));
+		if (refused.length) {
+			this.loopRefusal = refused;
+			return false;
+		}
+		this.loopRefusal = [];
+		if (missing.length) this.parts = parts;
+		this.apply(next, coalesce);
+		return true;
 	}
 
 	// — controls —

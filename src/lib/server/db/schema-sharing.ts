@@ -174,6 +174,8 @@ export const quoteLines = pgTable(
 		quantity: integer('quantity').notNull(),
 		/** Null while the catalogue has no price in the quote's currency and nobody entered one. */
 		unitPriceMinor: integer('unit_price_minor'),
+		/** Lines of the coolant loop's group: `tube:<tube kind id>`, `fitting:<part id|plug>:<thread>`. */
+		loopKey: text('loop_key'),
 		createdAt: ts('created_at').notNull().defaultNow()
 	},
 	(t) => [

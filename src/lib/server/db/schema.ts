@@ -6,3 +6,4 @@ export * from './schema-catalog';
 export * from './schema-builds';
 export * from './schema-sharing';
 export * from './schema-sheet';
+export * from './schema-loop';

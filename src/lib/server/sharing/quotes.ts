@@ -12,6 +12,7 @@ import {
 	type QuoteLineRow,
 	type QuoteRow
 } from '../db/schema';
+import { loopLineDrafts } from '../loop-quote';
 import { newId } from '../tokens';
 
 export type LineDraft = {
@@ -19,7 +20,13 @@ export type LineDraft = {
 	description: string;
 	quantity: number;
 	unitPriceMinor: number | null;
+	/** Set on the coolant loop's lines (see loop-quote.ts). */
+	loopKey?: string | null;
 };
+
+/** A line's identity when lines follow the variant: its loop key, else its part. */
+const lineKey = (l: { partId: string | null; loopKey?: string | null }) =>
+	l.loopKey ? `loop:${l.loopKey}` : l.partId;
 
 /**
  * One line per catalogue part placed in the variant, with how many are placed. The catalogue's
@@ -27,12 +34,14 @@ export type LineDraft = {
  */
 export async function linesFromVariant(
 	settingsJson: unknown,
-	currency: string
+	currency: string,
+	build?: { studioId: string; buildId: string }
 ): Promise<LineDraft[]> {
 	const settings = variantSettingsSchema.parse(settingsJson);
+	const loop = build ? await loopLineDrafts(build.studioId, build.buildId, settings, currency) : [];
 	const counts = new Map<string, number>();
 	for (const p of settings.placements) counts.set(p.partId, (counts.get(p.partId) ?? 0) + 1);
-	if (counts.size === 0) return [];
+	if (counts.size === 0) return loop;
 	const rows = await db
 		.select({
 			id: parts.id,
@@ -43,7 +52,7 @@ export async function linesFromVariant(
 		.from(parts)
 		.where(inArray(parts.id, [...counts.keys()]));
 	const byId = new Map(rows.map((r) => [r.id, r]));
-	return [...counts.entries()].map(([partId, quantity]) => {
+	const placed = [...counts.entries()].map(([partId, quantity]) => {
 		const part = byId.get(partId);
 		return {
 			partId,
@@ -53,6 +62,7 @@ export async function linesFromVariant(
 				part && part.priceMinor !== null && part.currency === currency ? part.priceMinor : null
 		};
 	});
+	return [...placed, ...loop];
 }
 
 export type QuoteWithLines = { quote: QuoteRow; lines: QuoteLineRow[]; totals: QuoteTotals };
@@ -83,7 +93,7 @@ export async function ensureQuote(input: {
 	const existing = await quoteOfVariant(input.variantId);
 	if (existing) return existing;
 	const currency = input.currency ?? (await commonCurrency(input.settings));
-	const drafts = await linesFromVariant(input.settings, currency);
+	const drafts = await linesFromVariant(input.settings, currency, input);
 	await db.transaction(async (tx) => {
 		const id = newId();
 		const inserted = await tx
@@ -218,18 +228,18 @@ export async function refreshLines(quoteId: string, settings: unknown) {
 			.from(quoteLines)
 			.where(eq(quoteLines.quoteId, quoteId))
 			.orderBy(asc(quoteLines.sortOrder));
-		const drafts = await linesFromVariant(settings, quote.currency);
-		const wanted = new Map(drafts.map((d) => [d.partId, d]));
+		const drafts = await linesFromVariant(settings, quote.currency, quote);
+		const wanted = new Map(drafts.map((d) => [lineKey(d), d]));
 		for (const l of existing) {
-			if (l.partId === null) continue;
-			const d = wanted.get(l.partId);
+			if (lineKey(l) === null) continue;
+			const d = wanted.get(lineKey(l));
 			if (!d) await tx.delete(quoteLines).where(eq(quoteLines.id, l.id));
 			else {
 				await tx
 					.update(quoteLines)
 					.set({ quantity: d.quantity, unitPriceMinor: l.unitPriceMinor ?? d.unitPriceMinor })
 					.where(eq(quoteLines.id, l.id));
-				wanted.delete(l.partId);
+				wanted.delete(lineKey(l));
 			}
 		}
 		const next = existing.reduce((m, l) => Math.max(m, l.sortOrder + 1), 0);

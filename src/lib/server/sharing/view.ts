@@ -7,6 +7,7 @@
 import { createHash } from 'node:crypto';
 import { inArray } from 'drizzle-orm';
 import {
+	boundsOf,
 	boxSize,
 	innerVolumeLitres,
 	resolveScene,
@@ -50,12 +51,23 @@ export function neutralScene(scene: Scene): {
 	partIds: Map<string, string>;
 } {
 	const partIds = new Map<string, string>();
-	const used = scene.parts.filter((p) => scene.placements.some((pl) => pl.partId === p.id));
+	// Placed parts, then the loops' fittings and plugs (not placed, but part of the scene).
+	const loopFittings = new Set(
+		(scene.loops ?? []).flatMap((l) => [
+			...l.runs.flatMap((r) => [r.fittings.from, r.fittings.to]),
+			...l.plugs.map((p) => p.fitting)
+		])
+	);
+	const used = scene.parts.filter(
+		(p) => scene.placements.some((pl) => pl.partId === p.id) || loopFittings.has(p.id)
+	);
 	used.forEach((p, i) => partIds.set(p.id, `p${i + 1}`));
 	const placementIds = new Map<string, string>();
+	const refOf = new Map<string, string>();
 	const placements = scene.placements.map((pl, i) => {
 		const ref = `part-${pad(i + 1)}`;
 		placementIds.set(ref, pl.id);
+		refOf.set(pl.id, ref);
 		const { hidden: _h, locked: _l, ...rest } = pl;
 		return { ...rest, id: ref, partId: partIds.get(pl.partId)! };
 	});
@@ -63,7 +75,28 @@ export function neutralScene(scene: Scene): {
 		const { source: _s, ...rest } = p;
 		return { ...rest, id: partIds.get(p.id)! };
 	});
-	return { scene: { ...scene, parts, placements }, placementIds, partIds };
+	const port = <T extends { placementId: string }>(r: T): T => ({
+		...r,
+		placementId: refOf.get(r.placementId) ?? r.placementId
+	});
+	const fitting = (id: string | null) => (id ? (partIds.get(id) ?? id) : null);
+	const loops = scene.loops?.map((l) => ({
+		...l,
+		runs: l.runs.map((r) => ({
+			...r,
+			from: port(r.from),
+			to: port(r.to),
+			fittings: { from: fitting(r.fittings.from), to: fitting(r.fittings.to) }
+		})),
+		plugs: l.plugs.map((p) => ({ ...port(p), fitting: fitting(p.fitting) })),
+		fill: l.fill && port(l.fill),
+		drain: l.drain && port(l.drain)
+	}));
+	return {
+		scene: { ...scene, parts, placements, ...(loops ? { loops } : {}) },
+		placementIds,
+		partIds
+	};
 }
 
 /** An opaque, stable reference to a photo for one viewer scope (a link, or the in-app view). */
@@ -131,8 +164,32 @@ export async function clientView(input: {
 	const priceById = new Map(catalogue.map((c) => [c.id, c]));
 
 	const lines: PartLine[] = [];
+	// The loop's fittings and plugs are counted from the loop, its tube from the cut list.
+	const loopUses = new Map<string, number>();
+	for (const l of scene.loops ?? []) {
+		for (const id of [
+			...l.runs.flatMap((r) => [r.fittings.from, r.fittings.to]),
+			...l.plugs.map((p) => p.fitting)
+		]) {
+			if (id) loopUses.set(id, (loopUses.get(id) ?? 0) + 1);
+		}
+	}
 	for (const [realId, neutralId] of neutral.partIds) {
-		const first = resolved.placements.find((rp) => rp.part.id === neutralId)!;
+		const first = resolved.placements.find((rp) => rp.part.id === neutralId);
+		if (!first) {
+			const def = scene.parts.find((p) => p.id === neutralId)!;
+			const cat = priceById.get(realId);
+			const quoteLine = sentQuote?.lines.find((l) => l.partId === realId);
+			lines.push({
+				name: def.name,
+				category: CATEGORY_WORDS[def.category as PartCategory],
+				quantity: loopUses.get(neutralId) ?? 0,
+				sizeMm: boxSize(boundsOf(def.bodies.map((b) => b.box))),
+				unitPriceMinor: sentQuote ? (quoteLine?.unitPriceMinor ?? null) : (cat?.priceMinor ?? null),
+				currency: sentQuote ? sentQuote.quote.currency : (cat?.currency ?? null)
+			});
+			continue;
+		}
 		const quoteLine = sentQuote?.lines.find((l) => l.partId === realId);
 		const cat = priceById.get(realId);
 		lines.push({
@@ -142,6 +199,20 @@ export async function clientView(input: {
 			sizeMm: boxSize(first.bounds),
 			unitPriceMinor: sentQuote ? (quoteLine?.unitPriceMinor ?? null) : (cat?.priceMinor ?? null),
 			currency: sentQuote ? sentQuote.quote.currency : (cat?.currency ?? null)
+		});
+	}
+
+	for (const t of scene.tubeKinds ?? []) {
+		const runs = (report.loops ?? []).flatMap((l) => l.runs.filter((r) => r.tubeKindId === t.id));
+		if (!runs.length) continue;
+		const cutMm = runs.reduce((n, r) => n + r.cutLengthMm, 0);
+		lines.push({
+			name: `${t.name}, ${(cutMm / 1000).toFixed(2)} m cut in ${runs.length} ${runs.length === 1 ? 'run' : 'runs'}`,
+			category: 'tube',
+			quantity: runs.length,
+			sizeMm: [t.outerMm, t.outerMm, cutMm],
+			unitPriceMinor: null,
+			currency: null
 		});
 	}
 

@@ -23,6 +23,7 @@ import {
 } from '$lib/server/versions';
 import { db } from '$lib/server/db';
 import { variantSettingsSchema } from '$lib/builds/settings';
+import { engineTubeKinds, fittingPartsForStudio, tubeKindsForStudio } from '$lib/server/loop';
 import { line } from '$lib/schemas/common';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -39,11 +40,13 @@ export const load: PageServerLoad = async ({ locals, params, url }) => {
 	if (!loaded) error(404, 'No such variant.');
 	const enc = await enclosureVersionDef(build.enclosureVersionId);
 	const variants = await variantsOf(build.id);
-	const [latest, frozen, next, revisions] = await Promise.all([
+	const [latest, frozen, next, revisions, tubeKinds, fittings] = await Promise.all([
 		latestVersion(loaded.variant.id),
 		frozenState(loaded.variant.id),
 		nextNumber(db, loaded.variant),
-		recentRevisions(loaded.variant.id, loaded.variant.version)
+		recentRevisions(loaded.variant.id, loaded.variant.version),
+		tubeKindsForStudio(build.studioId),
+		fittingPartsForStudio(build.studioId)
 	]);
 	// Earlier saved states seed the undo history, so undo reaches back across a reload.
 	const history = revisions.flatMap((r) => {
@@ -74,6 +77,12 @@ export const load: PageServerLoad = async ({ locals, params, url }) => {
 		settings: loaded.settings,
 		history,
 		parts: loaded.parts,
+		/** The loop panel's catalogue: the studio's tube kinds (with the ones the loops use) and fittings. */
+		tubeKinds: engineTubeKinds([
+			...tubeKinds,
+			...loaded.tubeKinds.filter((t) => !tubeKinds.some((k) => k.id === t.id))
+		]),
+		fittings,
 		role: access.role
 	};
 };

@@ -1,7 +1,7 @@
 import { error, json } from '@sveltejs/kit';
 import { z } from 'zod';
 import type { EnclosureDef } from '$lib/geometry';
-import { variantSettingsSchema } from '$lib/builds/settings';
+import { catalogueIdsOf, variantSettingsSchema } from '$lib/builds/settings';
 import { requireUser, roleMay } from '$lib/server/access';
 import { apiLimit, problem, readJson } from '$lib/server/api';
 import {
@@ -11,6 +11,7 @@ import {
 	validateScene
 } from '$lib/server/builds';
 import { checkInPool } from '$lib/server/engine/pool';
+import { engineTubeKinds, tubeKindsForStudio } from '$lib/server/loop';
 import type { RequestHandler } from './$types';
 
 const body = z.object({ settings: variantSettingsSchema });
@@ -27,10 +28,7 @@ export const POST: RequestHandler = async (event) => {
 	const [ctx, limited, found] = await Promise.allSettled([
 		checkContext(event.params.id, user.id),
 		apiLimit(event, user.id),
-		partsForBuildStudio(
-			event.params.id,
-			settings.placements.map((p) => p.partId)
-		)
+		partsForBuildStudio(event.params.id, catalogueIdsOf(settings).parts)
 	]);
 	if (ctx.status === 'rejected') throw ctx.reason;
 	if (!ctx.value?.role) error(404, 'Not found.');
@@ -45,9 +43,18 @@ export const POST: RequestHandler = async (event) => {
 			{ path: 'settings.placements', message: forbidden.join(', ') }
 		]);
 	}
+	const tubes = await tubeKindsForStudio(
+		ctx.value.build.studioId,
+		catalogueIdsOf(settings).tubeKinds
+	);
 	let scene;
 	try {
-		scene = validateScene(ctx.value.definition as EnclosureDef, parts, settings);
+		scene = validateScene(
+			ctx.value.definition as EnclosureDef,
+			parts,
+			settings,
+			engineTubeKinds(tubes)
+		);
 	} catch (e) {
 		if (e instanceof SceneRejected) {
 			return problem(e.status, 'The scene does not validate.', e.issues);

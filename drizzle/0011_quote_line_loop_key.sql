@@ -1,0 +1,1 @@
+ALTER TABLE "quote_line" ADD COLUMN "loop_key" text;
