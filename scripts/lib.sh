@@ -111,6 +111,8 @@ stop_service() {
 }
 
 ensure_mail_catcher() { ensure_service mail-catcher 2526 node_modules/.bin/tsx scripts/mail-catcher.ts; }
+# The local S3-compatible store for photos (STORAGE_DRIVER=s3), data in .data/s3.
+ensure_s3_fake() { ensure_service s3-fake "${S3_FAKE_PORT:-4569}" node_modules/.bin/tsx scripts/s3-fake.ts; }
 ensure_payments_fake() {
 	if [ -f scripts/payments-fake.ts ]; then
 		ensure_service payments-fake "${PAYMENTS_API_PORT:-12111}" node_modules/.bin/tsx scripts/payments-fake.ts
