@@ -37,6 +37,7 @@ function script(args: string[], env: Record<string, string> = {}) {
 			...process.env,
 			DATABASE_URL: url,
 			STORAGE_DIR: store,
+			STORAGE_DRIVER: 'disk',
 			BACKUP_DIR: join(work, 'backups'),
 			...env
 		},
@@ -84,6 +85,8 @@ beforeAll(async () => {
 	// This file's own connections and photo files go to the copy's database and store.
 	process.env.DATABASE_URL = url;
 	process.env.STORAGE_DIR = store;
+	// A store of its own that can be emptied: a folder (the S3 test bucket is shared by the suite).
+	process.env.STORAGE_DRIVER = 'disk';
 	admin = postgres(adminUrl, { max: 1, onnotice: () => {} });
 	await admin`drop database if exists ${admin(dbName)} with (force)`;
 	await admin`create database ${admin(dbName)}`;
