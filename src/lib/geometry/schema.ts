@@ -418,6 +418,22 @@ export const sceneSchema = sceneObjectSchema.superRefine((scene, ctx) => {
 	checkPlacements(scene, parts, ctx);
 });
 export type Scene = z.infer<typeof sceneSchema>;
+
+/**
+ * The same scene schema for a server that composes the scene from definitions it stored itself:
+ * the enclosure and parts were parsed with their schemas when they were saved, so they are taken
+ * as they are; everything else (settings, ids, positions, box counts) is checked as in sceneSchema.
+ */
+export const trustedSceneSchema = sceneObjectSchema
+	.extend({
+		enclosure: z.custom<EnclosureDef>(),
+		parts: z.array(z.custom<PartDef>()).max(MAX_BOXES).default([])
+	})
+	.superRefine((scene, ctx) => {
+		const parts = checkUniqueIds(scene, ctx);
+		checkControlPositions(scene, ctx);
+		checkPlacements(scene, parts, ctx);
+	});
 /** What a client may send: defaults not yet filled in. */
 export type SceneInput = z.input<typeof sceneSchema>;
 
