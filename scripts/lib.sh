@@ -33,6 +33,14 @@ ensure_packages() {
 	fi
 }
 
+# Debian's nginx, for npm run start:cluster and the cluster tests (run with a prefix of our own).
+ensure_nginx() {
+	if [ ! -x /usr/sbin/nginx ] && ! command -v nginx >/dev/null; then
+		log "installing Debian's nginx"
+		apt_install nginx
+	fi
+}
+
 ensure_chromium() {
 	if [ ! -x /usr/bin/chromium ]; then
 		log "installing Debian's chromium"

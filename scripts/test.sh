@@ -8,6 +8,8 @@ started=$(date +%s)
 set -e
 ensure_packages
 ensure_chromium
+# nginx for the cluster spec (scripts/cluster.spec.ts: nginx on CLUSTER_TEST_PORT, 3130, and the two ports after it).
+ensure_nginx
 # The throwaway cluster (scripts/db.sh: fsync off, port $PGPORT or 54330), never the app's data;
 # photos in a folder of their own too.
 export DB_CLUSTER=test PGPORT=${PGPORT:-54330}
