@@ -19,5 +19,6 @@ const server = new S3rver({
 });
 await server.run();
 console.log(`S3-compatible store on http://127.0.0.1:${port}, buckets ${buckets.join(', ')}`);
-for (const sig of ['SIGINT', 'SIGTERM'] as const)
+for (const sig of ['SIGINT', 'SIGTERM'] as const) {
 	process.on(sig, () => void server.close().then(() => process.exit(0)));
+}

@@ -18,8 +18,9 @@ for (const { key } of objects) {
 	use('s3');
 	await putObject(key, bytes);
 	const back = await readObject(key);
-	if (!back || !back.equals(bytes))
+	if (!back || !back.equals(bytes)) {
 		throw new Error(`${key}: the copy in the bucket does not match the file on disk.`);
+	}
 	moved++;
 }
 console.log(

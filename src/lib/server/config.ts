@@ -88,8 +88,9 @@ export const config = {
 	storage: {
 		get driver() {
 			const d = env('STORAGE_DRIVER', 'disk');
-			if (d !== 'disk' && d !== 's3')
+			if (d !== 'disk' && d !== 's3') {
 				throw new Error(`STORAGE_DRIVER must be "disk" or "s3", not "${d}".`);
+			}
 			return d as 'disk' | 's3';
 		},
 		get endpoint() {

@@ -120,10 +120,11 @@ describe('deleting a build', () => {
 		expect(objects.map((o) => o.key)).toEqual(expect.arrayContaining(keys));
 		expect(strays).toEqual([]);
 		// On disk a write goes through a .part name first; an S3 PUT is whole by itself.
-		if (config.storage.driver === 'disk')
+		if (config.storage.driver === 'disk') {
 			expect(
 				(await readdir(join(store, keys[0].slice(0, 2)))).some((f) => f.endsWith('.part'))
 			).toBe(false);
+		}
 	});
 });
 

@@ -176,9 +176,9 @@ export async function listObjects(): Promise<{ objects: StoredObject[]; strays: 
 			);
 			for (const o of page.Contents ?? []) {
 				const key = o.Key ?? '';
-				if (isStorageKey(key))
+				if (isStorageKey(key)) {
 					objects.push({ key, bytes: o.Size ?? 0, modifiedAt: o.LastModified ?? new Date(0) });
-				else strays.push(key);
+				} else strays.push(key);
 			}
 			ContinuationToken = page.IsTruncated ? page.NextContinuationToken : undefined;
 		} while (ContinuationToken);
