@@ -6,7 +6,7 @@
 import { execFile } from 'node:child_process';
 import { createHash } from 'node:crypto';
 import { mkdtempSync } from 'node:fs';
-import { readdir, rm, writeFile } from 'node:fs/promises';
+import { mkdir, readFile, readdir, rm, writeFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { promisify } from 'node:util';
@@ -162,6 +162,31 @@ describe.runIf(config.storage.driver === 's3')('photos in the S3-compatible stor
 		expect(await other(`console.log(String(await s.readObject(${JSON.stringify(key)})));`)).toBe(
 			'null'
 		);
+	}, 60_000);
+
+	it('npm run storage:to-s3 copies a disk store into the bucket byte for byte and keeps the files', async () => {
+		const disk = mkdtempSync(join(tmpdir(), 'interstice-disk-store-'));
+		const keys = [newKey('jpg'), newKey('webp')];
+		try {
+			const bytes = [await picture(11), Buffer.from('a thumbnail, as far as this test cares')];
+			for (const [i, key] of keys.entries()) {
+				await mkdir(join(disk, key.slice(0, 2)), { recursive: true });
+				await writeFile(join(disk, key), bytes[i]);
+			}
+			const out = await run(
+				join(repo, 'node_modules/.bin/tsx'),
+				[join(repo, 'scripts/storage-to-s3.ts')],
+				{ cwd: repo, env: { ...process.env, STORAGE_DIR: disk } }
+			);
+			expect(out.stdout).toContain('copied 2 of 2 photo files');
+			for (const [i, key] of keys.entries()) {
+				expect((await readObject(key))?.equals(bytes[i]), key).toBe(true);
+				expect((await readFile(join(disk, key))).equals(bytes[i]), `${key} on disk`).toBe(true);
+			}
+		} finally {
+			for (const key of keys) await deleteObject(key);
+			await rm(disk, { recursive: true, force: true });
+		}
 	}, 60_000);
 });
 
