@@ -27,7 +27,11 @@ declare module 'autocannon' {
 		method?: 'GET' | 'POST' | 'PUT';
 		headers?: Record<string, string>;
 		body?: string;
+		/** Per-request hooks; setupRequest may change the request (here: a different body each time). */
+		requests?: { setupRequest?: (req: { body?: string | Buffer }) => { body?: string | Buffer } }[];
 		connections?: number;
+		/** Requests per second over all connections (a paced load, not as fast as possible). */
+		overallRate?: number;
 		duration?: number;
 		timeout?: number;
 	};

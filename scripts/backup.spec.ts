@@ -17,7 +17,15 @@ import { closeDb, db } from '../src/lib/server/db';
 import { runMigrations } from '../src/lib/server/db/migrate';
 import { builds, users } from '../src/lib/server/db/schema';
 import { addPhoto } from '../src/lib/server/sharing/photos';
-import { listObjects, newKey, putObject } from '../src/lib/server/storage';
+import { CreateBucketCommand, DeleteBucketCommand, S3Client } from '@aws-sdk/client-s3';
+import { config } from '../src/lib/server/config';
+import {
+	deleteObjects,
+	listObjects,
+	newKey,
+	putObject,
+	readObject
+} from '../src/lib/server/storage';
 import { testDatabaseUrl } from '../src/lib/server/testing/env';
 
 const run = promisify(execFile);
@@ -29,6 +37,10 @@ const adminUrl = Object.assign(new URL(serverUrl), { pathname: '/postgres' }).to
 let work: string;
 let store: string;
 let admin: postgres.Sql;
+// The suite's driver (npm test: the local S3-compatible store), with a store of this file's own
+// that it can empty: a folder on disk, or a bucket made here.
+const driver = config.storage.driver;
+const bucket = `interstice-backup-test-${process.pid}`;
 
 function script(args: string[], env: Record<string, string> = {}) {
 	return run('bash', args, {
@@ -37,6 +49,8 @@ function script(args: string[], env: Record<string, string> = {}) {
 			...process.env,
 			DATABASE_URL: url,
 			STORAGE_DIR: store,
+			STORAGE_DRIVER: driver,
+			S3_BUCKET: bucket,
 			BACKUP_DIR: join(work, 'backups'),
 			...env
 		},
@@ -48,6 +62,16 @@ function script(args: string[], env: Record<string, string> = {}) {
 			out: `${e.stdout ?? ''}${e.stderr ?? ''}`
 		})
 	);
+}
+
+function s3Admin() {
+	const c = config.storage;
+	return new S3Client({
+		endpoint: c.endpoint,
+		region: c.region,
+		forcePathStyle: c.forcePathStyle,
+		credentials: { accessKeyId: c.accessKeyId, secretAccessKey: c.secretAccessKey }
+	});
 }
 
 async function snapshot() {
@@ -69,7 +93,7 @@ async function snapshot() {
 		const files: Record<string, string> = {};
 		for (const o of (await listObjects()).objects) {
 			files[o.key] = createHash('sha256')
-				.update(await readFile(join(store, o.key)))
+				.update((await readObject(o.key))!)
 				.digest('hex');
 		}
 		return { counts, scenes: Object.fromEntries(scenes.map((r) => [r.id, r.hash])), files };
@@ -84,6 +108,8 @@ beforeAll(async () => {
 	// This file's own connections and photo files go to the copy's database and store.
 	process.env.DATABASE_URL = url;
 	process.env.STORAGE_DIR = store;
+	process.env.S3_BUCKET = bucket;
+	if (driver === 's3') await s3Admin().send(new CreateBucketCommand({ Bucket: bucket }));
 	admin = postgres(adminUrl, { max: 1, onnotice: () => {} });
 	await admin`drop database if exists ${admin(dbName)} with (force)`;
 	await admin`create database ${admin(dbName)}`;
@@ -119,6 +145,10 @@ beforeAll(async () => {
 }, 120_000);
 
 afterAll(async () => {
+	if (driver === 's3') {
+		await deleteObjects((await listObjects()).objects.map((o) => o.key));
+		await s3Admin().send(new DeleteBucketCommand({ Bucket: bucket }));
+	}
 	await closeDb();
 	await admin`drop database if exists ${admin(dbName)} with (force)`;
 	await admin.end({ timeout: 5 });
@@ -156,6 +186,7 @@ describe('backup and restore', () => {
 		await closeDb();
 		await admin`drop database ${admin(dbName)} with (force)`;
 		await rm(store, { recursive: true, force: true });
+		await deleteObjects((await listObjects()).objects.map((o) => o.key));
 		await putObject(newKey('jpg'), Buffer.from('not in the backup'));
 
 		const restored = await script(['scripts/backup.sh', 'restore', file, '--yes']);

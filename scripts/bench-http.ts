@@ -1,28 +1,34 @@
 /**
- * HTTP benchmark of the server's fit check (`npm run bench:http`): starts the built app itself
- * (`node build` on a free 127.0.0.1 port, the development database, building first when build/ is
- * missing), signs in as the demo designer, then runs autocannon with 50 connections for 20 s
- * against POST /api/builds/demo-build/check with the demo variant's settings and, in the same run,
- * against POST /api/noop with the same body. Prints requests/s, p99 and errors of both and the
- * ratio, then one JSON object as the last line.
+ * HTTP benchmark of the server's fit check (`npm run bench:http`): starts the built app itself,
+ * once as one process (`node build` on a free 127.0.0.1 port) and once as the cluster (two
+ * processes behind nginx, scripts/cluster.ts, on free ports), against the development database
+ * (building first when build/ is missing). Signs in as the demo designer, then runs autocannon
+ * with 50 connections against POST /api/builds/demo-build/check and, for reference, POST
+ * /api/noop (the same session and body cost, no work). Every request body moves the demo
+ * variant's parts by a different few millimetres (a pool of scenes), so no cache of identical
+ * scenes is what gets measured.
  *
- * Targets (issue 5): check ≥ 70 % of the no-op's requests/s, p99 ≤ 25 ms, 0 errors.
+ * Prints, in one run: check_vs_noop (one process; target ≥ 0.4), cluster_vs_single for the check
+ * (two processes behind nginx against one process without it; target ≥ 1.3 on 2 cores), p50/p99
+ * and errors (target 0) of every endpoint, and p99 at a realistic load, 20 editors each sending
+ * one check a second (target ≤ 30 ms), through both. The load average is printed with every
+ * figure: the machine is shared, so the endpoints take turns in rounds (4 × 5 s each by default)
+ * and every response's latency is kept, so all see the same conditions and p99 is exact over all
+ * rounds. The last line is one JSON object.
  *
- * The per-user API limit (600 a minute) would stop a load test after a second. The server is
+ * The per-user API limit (600 a minute) would stop a load test after a second. The servers are
  * started with a random INTERSTICE_BENCH_TOKEN and the requests carry it, which moves them to a
  * bucket of their own with a high limit (still counted in PostgreSQL, so the cost stays in the
  * numbers). src/lib/server/api.ts honours the token only with INTERSTICE_DEV_TOOLS=1, never in
  * production mode.
  *
- * The machine is shared, so its load drifts: the two endpoints take turns in rounds (4 × 5 s each
- * by default) and every response's latency is kept, so both see the same conditions and p99 is
- * exact over all rounds. The load average is printed beside the numbers.
- *
  * Options: --duration=S (20, per endpoint), --rounds=N (4), --connections=N (50), --warmup=S (3),
+ * --editors=N (20) and --paced=S (20) for the realistic load, --no-cluster (one process only),
  * --profile (a second, profiled server under the check's load; prints where the time goes).
  */
 import autocannon, { type Result } from 'autocannon';
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
+import { once } from 'node:events';
 import { randomBytes } from 'node:crypto';
 import { cpSync, existsSync, mkdtempSync, readFileSync, readdirSync, rmSync } from 'node:fs';
 import { availableParallelism, loadavg, tmpdir } from 'node:os';
@@ -41,11 +47,14 @@ const CONNECTIONS = Number(args.get('connections') ?? 50);
 const WARMUP_S = Number(args.get('warmup') ?? 3);
 const ROUNDS = Math.max(1, Number(args.get('rounds') ?? 4));
 const PROFILE = args.has('profile');
+const CLUSTER = !args.has('no-cluster');
+const EDITORS = Number(args.get('editors') ?? 20);
+const PACED_S = Number(args.get('paced') ?? 20);
 
 const BUILD_ID = 'demo-build';
 const VARIANT_ID = 'demo-variant-a';
 const DESIGNER = { email: 'designer@demo.interstice.test', password: 'demo-password-1' };
-const TARGET = { ratio: 0.7, p99Ms: 25, errors: 0 };
+const TARGET = { checkVsNoop: 0.4, clusterVsSingle: 1.3, pacedP99Ms: 30, errors: 0 };
 
 const root = resolve(import.meta.dirname, '..');
 const buildDir = resolve(root, 'build');
@@ -162,8 +171,14 @@ class Tally {
 	seconds = 0;
 	errors = 0;
 	statuses: Record<string, number> = {};
+	/** The machine's 1-minute load average after each round. */
+	loads: number[] = [];
 
 	constructor(readonly name: string) {}
+
+	load(): number {
+		return round1(this.loads.reduce((a, b) => a + b, 0) / Math.max(1, this.loads.length));
+	}
 
 	add(r: Result) {
 		this.seconds += r.duration;
@@ -192,16 +207,21 @@ class Tally {
 async function load(
 	url: string,
 	headers: Record<string, string>,
-	body: string,
+	bodies: string[],
 	durationS: number,
-	tally?: Tally
+	tally?: Tally,
+	paced?: { connections: number; rate: number }
 ) {
+	let n = 0;
 	const run = autocannon({
 		url,
 		method: 'POST',
 		headers,
-		body,
-		connections: CONNECTIONS,
+		body: bodies[0],
+		// A different scene for every request, in turn from the pool.
+		requests: [{ setupRequest: (req) => ({ ...req, body: bodies[n++ % bodies.length] }) }],
+		connections: paced?.connections ?? CONNECTIONS,
+		overallRate: paced?.rate,
 		duration: durationS,
 		timeout: 10
 	});
@@ -211,9 +231,82 @@ async function load(
 		);
 	}
 	const result = await run;
-	tally?.add(result);
+	if (tally) {
+		tally.add(result);
+		tally.loads.push(loadavg()[0]);
+	}
 	return result;
 }
+
+/**
+ * The demo variant's settings, with every placed part moved by its own few tenths of a millimetre
+ * to a few millimetres: `count` different scenes of the same size and cost.
+ */
+function bodyPool(settings: { placements: { position: number[] }[] }, count = 500): string[] {
+	let seed = 12345;
+	const rand = () => ((seed = (seed * 1103515245 + 12345) % 2 ** 31) / 2 ** 31) * 4 - 2;
+	return Array.from({ length: count }, () =>
+		JSON.stringify({
+			settings: {
+				...settings,
+				placements: settings.placements.map((p) => ({
+					...p,
+					position: p.position.map((v) => Math.round((v + rand()) * 10) / 10)
+				}))
+			}
+		})
+	);
+}
+
+type Target = { baseURL: string; stop(): Promise<void>; label: string };
+
+/** scripts/cluster.ts on free ports: nginx in front of two processes of the copied build. */
+async function startCluster(app: string, token: string): Promise<Target> {
+	const [port, a, b] = [await freePort(), await freePort(), await freePort()];
+	const prefix = resolve(root, '.data', `bench-http-nginx-${process.pid}`);
+	const baseURL = `http://127.0.0.1:${port}`;
+	const child = spawn(
+		resolve(root, 'node_modules/.bin/tsx'),
+		[
+			resolve(root, 'scripts/cluster.ts'),
+			`--port=${port}`,
+			`--app-ports=${a},${b}`,
+			`--prefix=${prefix}`,
+			`--build=${app}`
+		],
+		{
+			cwd: root,
+			env: {
+				...process.env,
+				ORIGIN: baseURL,
+				DATABASE_URL: databaseUrl(),
+				INTERSTICE_DEV_TOOLS: '1',
+				INTERSTICE_BENCH_TOKEN: token
+			},
+			stdio: ['ignore', 'pipe', 'pipe']
+		}
+	);
+	let out = '';
+	const keep = (c: Buffer) => (out = (out + c.toString()).slice(-10_000));
+	child.stdout?.on('data', keep);
+	child.stderr?.on('data', keep);
+	const deadline = Date.now() + 60_000;
+	while (!out.includes('cluster: ready')) {
+		if (child.exitCode !== null) throw new Error(`the cluster exited:\n${out}`);
+		if (Date.now() > deadline) throw new Error(`the cluster did not start:\n${out}`);
+		await new Promise((r) => setTimeout(r, 100));
+	}
+	const stop = async () => {
+		if (child.exitCode !== null) return;
+		await new Promise((r) => setTimeout(r, 2000));
+		child.kill('SIGTERM');
+		await once(child, 'exit');
+		rmSync(prefix, { recursive: true, force: true });
+	};
+	return { baseURL, stop, label: 'cluster (nginx, 2 processes)' };
+}
+
+const round1 = (v: number) => Math.round(v * 100) / 100;
 
 /** Where a profiled function lives: a package, a chunk of the app, Node itself, or V8's own work. */
 function areaOf(url: string, functionName: string): string {
@@ -263,56 +356,90 @@ async function main() {
 	const app = preparedBuild();
 	const token = randomBytes(32).toString('hex');
 	const profileDir = PROFILE ? mkdtempSync(join(tmpdir(), 'bench-http-prof-')) : null;
-	const server = await startServer(app, token, null);
-	let noop: Row, check: Row;
+	const single = await startServer(app, token, null);
+	const targets: Target[] = [{ ...single, label: 'one process' }];
+	const rows: (Row & { load1m: number; target: string })[] = [];
 	try {
-		const cookie = await signIn(server.baseURL);
-		const variant = await fetch(`${server.baseURL}/api/builds/${BUILD_ID}/variants/${VARIANT_ID}`, {
-			headers: { cookie, accept: 'application/json' }
-		});
-		if (!variant.ok) {
-			throw new Error(
-				`GET the demo variant answered ${variant.status}; seed the development database (npm run db:seed)`
-			);
-		}
-		const { settings } = (await variant.json()) as { settings: unknown };
-		const body = JSON.stringify({ settings });
-		const headers = {
-			cookie,
-			'content-type': 'application/json',
-			accept: 'application/json',
-			origin: server.baseURL,
-			'x-interstice-bench': token
-		};
-		const checkURL = `${server.baseURL}/api/builds/${BUILD_ID}/check`;
-		const noopURL = `${server.baseURL}/api/noop`;
-
-		// One request each, to fail early with a readable message instead of 20 s of errors.
-		for (const url of [checkURL, noopURL]) {
-			const r = await fetch(url, { method: 'POST', headers, body });
-			if (!r.ok) {
-				throw new Error(`POST ${url} answered ${r.status}: ${(await r.text()).slice(0, 300)}`);
+		if (CLUSTER) targets.push(await startCluster(app, token));
+		type Prepared = { t: Target; headers: Record<string, string>; check: string; noop: string };
+		const prepared: Prepared[] = [];
+		let bodies: string[] = [];
+		for (const t of targets) {
+			const cookie = await signIn(t.baseURL);
+			const variant = await fetch(`${t.baseURL}/api/builds/${BUILD_ID}/variants/${VARIANT_ID}`, {
+				headers: { cookie, accept: 'application/json' }
+			});
+			if (!variant.ok) {
+				throw new Error(
+					`GET the demo variant answered ${variant.status}; seed the development database (npm run db:seed)`
+				);
 			}
+			const { settings } = (await variant.json()) as {
+				settings: { placements: { position: number[] }[] };
+			};
+			if (!bodies.length) bodies = bodyPool(settings);
+			const headers = {
+				cookie,
+				'content-type': 'application/json',
+				accept: 'application/json',
+				origin: t.baseURL,
+				'x-interstice-bench': token
+			};
+			const p = {
+				t,
+				headers,
+				check: `${t.baseURL}/api/builds/${BUILD_ID}/check`,
+				noop: `${t.baseURL}/api/noop`
+			};
+			// One request each, to fail early with a readable message instead of 20 s of errors.
+			for (const url of [p.check, p.noop]) {
+				const r = await fetch(url, { method: 'POST', headers, body: bodies[1] });
+				if (!r.ok) {
+					throw new Error(`POST ${url} answered ${r.status}: ${(await r.text()).slice(0, 300)}`);
+				}
+			}
+			prepared.push(p);
 		}
 
 		console.log(
-			`bench:http: ${server.baseURL}, ${CONNECTIONS} connections, ${DURATION_S} s per endpoint in ${ROUNDS} alternating rounds (after ${WARMUP_S} s warm-up), body ${body.length} bytes`
+			`bench:http: ${CONNECTIONS} connections, ${DURATION_S} s per endpoint in ${ROUNDS} alternating rounds (after ${WARMUP_S} s warm-up), ${bodies.length} different bodies of about ${bodies[0].length} bytes; then ${EDITORS} editors × 1 check/s for ${PACED_S} s`
 		);
-		if (WARMUP_S > 0) {
-			await load(noopURL, headers, body, WARMUP_S);
-			await load(checkURL, headers, body, WARMUP_S);
+		for (const p of prepared) {
+			if (WARMUP_S > 0) {
+				await load(p.noop, p.headers, bodies, WARMUP_S);
+				await load(p.check, p.headers, bodies, WARMUP_S);
+			}
 		}
-		const noopTally = new Tally('POST /api/noop');
-		const checkTally = new Tally(`POST /api/builds/${BUILD_ID}/check`);
+		// Turns: noop and check through each target in every round, so drift in the machine's load
+		// reaches all of them alike.
+		const tallies = prepared.map((p) => ({
+			p,
+			noop: new Tally(`${p.t.label}: POST /api/noop`),
+			check: new Tally(`${p.t.label}: POST check`)
+		}));
 		const slice = DURATION_S / ROUNDS;
 		for (let i = 0; i < ROUNDS; i++) {
-			await load(noopURL, headers, body, slice, noopTally);
-			await load(checkURL, headers, body, slice, checkTally);
+			for (const { p, noop, check } of tallies) {
+				await load(p.noop, p.headers, bodies, slice, noop);
+				await load(p.check, p.headers, bodies, slice, check);
+			}
 		}
-		noop = noopTally.row();
-		check = checkTally.row();
+		const paced = prepared.map((p) => ({ p, tally: new Tally(`${p.t.label}: check, paced`) }));
+		for (const { p, tally } of paced) {
+			await load(p.check, p.headers, bodies, PACED_S, tally, {
+				connections: EDITORS,
+				rate: EDITORS
+			});
+		}
+		for (const { p, noop, check } of tallies) {
+			rows.push({ ...noop.row(), load1m: noop.load(), target: p.t.label });
+			rows.push({ ...check.row(), load1m: check.load(), target: p.t.label });
+		}
+		for (const { p, tally } of paced) {
+			rows.push({ ...tally.row(), load1m: tally.load(), target: p.t.label });
+		}
 	} finally {
-		await server.stop();
+		for (const t of targets.reverse()) await t.stop();
 	}
 
 	if (profileDir) {
@@ -324,7 +451,7 @@ async function main() {
 				await fetch(`${profiled.baseURL}/api/builds/${BUILD_ID}/variants/${VARIANT_ID}`, {
 					headers: { cookie }
 				})
-			).json()) as { settings: unknown };
+			).json()) as { settings: { placements: { position: number[] }[] } };
 			const headers = {
 				cookie,
 				'content-type': 'application/json',
@@ -334,7 +461,7 @@ async function main() {
 			await load(
 				`${profiled.baseURL}/api/builds/${BUILD_ID}/check`,
 				headers,
-				JSON.stringify({ settings: variant.settings }),
+				bodyPool(variant.settings),
 				Math.min(DURATION_S, 10)
 			);
 		} finally {
@@ -355,28 +482,43 @@ async function main() {
 		}
 	}
 
-	if (check.statuses['429']) {
+	const find = (name: string) => rows.find((r) => r.name === name);
+	const sNoop = find('one process: POST /api/noop')!;
+	const sCheck = find('one process: POST check')!;
+	const cCheck = find('cluster (nginx, 2 processes): POST check');
+	const sPaced = find('one process: check, paced')!;
+	const cPaced = find('cluster (nginx, 2 processes): check, paced');
+	if (rows.some((r) => r.statuses['429'])) {
 		console.log(
-			'bench:http: the check answered 429: build/ predates the bench token (src/lib/server/api.ts); run npx vite build'
+			'bench:http: a check answered 429: build/ predates the bench token (src/lib/server/api.ts); run npx vite build'
 		);
 	}
-	const ratio = check.rps / noop.rps;
+	const checkVsNoop = round1(sCheck.rps / sNoop.rps);
+	const clusterVsSingle = cCheck ? round1(cCheck.rps / sCheck.rps) : null;
+	const errors = rows.reduce((n, r) => n + r.errors, 0);
+	const worstPaced = Math.max(sPaced.p99Ms, cPaced?.p99Ms ?? 0);
 	const pass =
-		ratio >= TARGET.ratio &&
-		check.p99Ms <= TARGET.p99Ms &&
-		check.errors === TARGET.errors &&
-		noop.errors === 0;
+		checkVsNoop >= TARGET.checkVsNoop &&
+		(clusterVsSingle === null || clusterVsSingle >= TARGET.clusterVsSingle) &&
+		worstPaced <= TARGET.pacedP99Ms &&
+		errors === TARGET.errors;
 	console.log('');
-	console.log('endpoint                                  req/s    p50 ms   p99 ms   errors');
-	for (const r of [noop, check]) {
+	console.log(
+		'endpoint                                              req/s    p50 ms   p99 ms   errors   load (1 min)'
+	);
+	for (const r of rows) {
 		console.log(
-			`${r.name.padEnd(40)} ${r.rps.toFixed(0).padStart(6)}  ${String(r.p50Ms).padStart(7)}  ${String(r.p99Ms).padStart(7)}  ${String(r.errors).padStart(7)}`
+			`${r.name.padEnd(52)} ${r.rps.toFixed(0).padStart(6)}  ${String(r.p50Ms).padStart(7)}  ${String(r.p99Ms).padStart(7)}  ${String(r.errors).padStart(7)}   ${r.load1m.toFixed(2)}`
 		);
 	}
 	console.log(
-		`check / noop: ${(100 * ratio).toFixed(1)} % of the no-op's rate (target ≥ ${TARGET.ratio * 100} %), check p99 ${check.p99Ms} ms (target ≤ ${TARGET.p99Ms} ms): ${pass ? 'on target' : 'OFF TARGET'}`
+		`check_vs_noop (one process): ${checkVsNoop} (target ≥ ${TARGET.checkVsNoop})` +
+			(clusterVsSingle === null
+				? ''
+				: `; cluster_vs_single (check): ${clusterVsSingle} (target ≥ ${TARGET.clusterVsSingle})`) +
+			`; p99 at ${EDITORS} editors × 1 check/s: ${sPaced.p99Ms} ms one process${cPaced ? `, ${cPaced.p99Ms} ms cluster` : ''} (target ≤ ${TARGET.pacedP99Ms} ms); errors ${errors}: ${pass ? 'on target' : 'OFF TARGET'}`
 	);
-	const load1m = Math.round(loadavg()[0] * 100) / 100;
+	const load1m = round1(loadavg()[0]);
 	console.log(
 		`machine load average (1 min) at the end: ${load1m} on ${availableParallelism()} cores`
 	);
@@ -385,10 +527,13 @@ async function main() {
 			connections: CONNECTIONS,
 			durationS: DURATION_S,
 			rounds: ROUNDS,
+			editors: EDITORS,
 			loadAverage1m: load1m,
-			noop,
-			check,
-			ratio: Math.round(ratio * 1000) / 1000,
+			rows,
+			check_vs_noop: checkVsNoop,
+			cluster_vs_single: clusterVsSingle,
+			paced_p99_ms: { single: sPaced.p99Ms, cluster: cPaced?.p99Ms ?? null },
+			errors,
 			target: TARGET,
 			pass
 		})

@@ -33,6 +33,14 @@ ensure_packages() {
 	fi
 }
 
+# Debian's nginx, for npm run start:cluster and the cluster tests (run with a prefix of our own).
+ensure_nginx() {
+	if [ ! -x /usr/sbin/nginx ] && ! command -v nginx >/dev/null; then
+		log "installing Debian's nginx"
+		apt_install nginx
+	fi
+}
+
 ensure_chromium() {
 	if [ ! -x /usr/bin/chromium ]; then
 		log "installing Debian's chromium"
@@ -111,6 +119,8 @@ stop_service() {
 }
 
 ensure_mail_catcher() { ensure_service mail-catcher 2526 node_modules/.bin/tsx scripts/mail-catcher.ts; }
+# The local S3-compatible store for photos (STORAGE_DRIVER=s3), data in .data/s3.
+ensure_s3_fake() { ensure_service s3-fake "${S3_FAKE_PORT:-4569}" node_modules/.bin/tsx scripts/s3-fake.ts; }
 ensure_payments_fake() {
 	if [ -f scripts/payments-fake.ts ]; then
 		ensure_service payments-fake "${PAYMENTS_API_PORT:-12111}" node_modules/.bin/tsx scripts/payments-fake.ts

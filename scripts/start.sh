@@ -12,6 +12,10 @@ log "seeding demo data"
 node_modules/.bin/tsx scripts/seed.ts
 ensure_mail_catcher
 ensure_payments_fake
+# Photos in the local S3-compatible store, as on a deployment with several processes
+# (STORAGE_DRIVER=disk keeps them in .data/storage instead).
+export STORAGE_DRIVER=${STORAGE_DRIVER:-s3}
+if [ "$STORAGE_DRIVER" = s3 ]; then ensure_s3_fake; fi
 log "building"
 node_modules/.bin/vite build --logLevel warn
 

@@ -8,10 +8,14 @@ started=$(date +%s)
 set -e
 ensure_packages
 ensure_chromium
+# nginx for the cluster spec (scripts/cluster.spec.ts: nginx on CLUSTER_TEST_PORT, 3130, and the two ports after it).
+ensure_nginx
 # The throwaway cluster (scripts/db.sh: fsync off, port $PGPORT or 54330), never the app's data;
 # photos in a folder of their own too.
 export DB_CLUSTER=test PGPORT=${PGPORT:-54330}
 export STORAGE_DIR=${STORAGE_DIR:-.data/storage-test}
+# Photo tests run against the local S3-compatible store, in a bucket of the test run's own.
+export STORAGE_DRIVER=${STORAGE_DRIVER:-s3} S3_BUCKET=${S3_BUCKET:-interstice-photos-test}
 db_was_running=$(scripts/db.sh status >/dev/null 2>&1 && echo 1 || echo 0)
 scripts/db.sh start
 cleanup() {
@@ -28,6 +32,7 @@ node_modules/.bin/tsx scripts/migrate.ts
 node_modules/.bin/tsx scripts/seed.ts
 ensure_mail_catcher
 ensure_payments_fake
+if [ "$STORAGE_DRIVER" = s3 ]; then ensure_s3_fake; fi
 node_modules/.bin/svelte-kit sync
 set +e
 

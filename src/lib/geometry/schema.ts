@@ -483,15 +483,29 @@ function checkPlacements(scene: SceneShape, parts: Map<string, PartDef>, ctx: Re
 	}
 }
 
-export const sceneSchema = sceneObjectSchema.superRefine((scene, ctx) => {
+/** The checks that tie a scene's parts together, the same for sent and for stored definitions. */
+function refineScene(scene: z.infer<typeof sceneObjectSchema>, ctx: z.RefinementCtx) {
 	const parts = checkUniqueIds(scene, ctx);
 	checkControlPositions(scene, ctx);
 	checkPlacements(scene, parts, ctx);
 	for (const issue of loopIssues(scene)) {
 		ctx.addIssue({ code: 'custom', path: issue.path, message: issue.message });
 	}
-});
+}
+export const sceneSchema = sceneObjectSchema.superRefine(refineScene);
 export type Scene = z.infer<typeof sceneSchema>;
+
+/**
+ * The same scene schema for a server that composes the scene from definitions it stored itself:
+ * the enclosure and parts were parsed with their schemas when they were saved, so they are taken
+ * as they are; everything else (settings, ids, positions, box counts) is checked as in sceneSchema.
+ */
+export const trustedSceneSchema = sceneObjectSchema
+	.extend({
+		enclosure: z.custom<EnclosureDef>(),
+		parts: z.array(z.custom<PartDef>()).max(MAX_BOXES).default([])
+	})
+	.superRefine(refineScene);
 /** What a client may send: defaults not yet filled in. */
 export type SceneInput = z.input<typeof sceneSchema>;
 

@@ -70,8 +70,15 @@ function isBench(event: RequestEvent): boolean {
 	return timingSafeEqual(Buffer.from(sent), Buffer.from(token));
 }
 
+/** The per-user API bucket and limit for this request (the bench's own under a load test). */
+export function apiBucket(event: RequestEvent): { bucket: string; limit: Limit } {
+	return isBench(event)
+		? { bucket: 'api-bench', limit: BENCH_LIMIT }
+		: { bucket: 'api', limit: limits.api };
+}
+
 /** Per-user limit on API calls, counted in PostgreSQL like every other limit. */
 export async function apiLimit(event: RequestEvent, userId: string) {
-	if (isBench(event)) await enforce(event, 'api-bench', BENCH_LIMIT, userId);
-	else await enforce(event, 'api', limits.api, userId);
+	const { bucket, limit } = apiBucket(event);
+	await enforce(event, bucket, limit, userId);
 }

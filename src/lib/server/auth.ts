@@ -68,6 +68,19 @@ export async function endAllSessions(cookies: Cookies, userId: string) {
 /** The longest cookie value looked up; ours are 43 characters. */
 const MAX_TOKEN_CHARS = 200;
 
+/** Lucia's default session life (30 days, ms); it extends a session in its second half. */
+export const SESSION_LIFE_MS = 30 * 24 * 3600 * 1000;
+
+/**
+ * The session table's id for the cookie's token, or null: for a query that reads the session
+ * together with what a request needs (src/lib/server/check-trip.ts). The same length guard and
+ * hash as readSession.
+ */
+export function sessionIdOf(cookies: Cookies): string | null {
+	const token = cookies.get(lucia.sessionCookieName);
+	return token && token.length <= MAX_TOKEN_CHARS ? hashToken(token) : null;
+}
+
 /**
  * Reads the cookie, validates and refreshes the session. `session.id` is the hash, never the
  * token; hashing first also means whatever the cookie holds (a NUL byte, 1 MB) never reaches a

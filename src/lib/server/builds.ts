@@ -6,6 +6,7 @@ import {
 	enclosureDefSchema,
 	formatZodIssues,
 	sceneSchema,
+	trustedSceneSchema,
 	type BracketDef as BracketDefT,
 	type DividerDef as DividerDefT,
 	type EnclosureDef,
@@ -258,6 +259,25 @@ export function validateScene(
 	tubeKinds: TubeKindDef[] = []
 ): Scene {
 	const parsed = sceneSchema.safeParse(composeScene(enclosure, defs, settings, tubeKinds));
+	if (!parsed.success) {
+		throw new SceneRejected(
+			formatZodIssues(parsed.error).map((i) => ({ ...i, path: settingsPath(i.path) }))
+		);
+	}
+	return parsed.data;
+}
+
+/**
+ * validateScene for definitions read back from our own tables (validated when saved): only the
+ * settings and what ties them to the definitions are checked, not the stored definitions again.
+ */
+export function trustedScene(
+	enclosure: EnclosureDef,
+	defs: PartDef[],
+	settings: VariantSettings,
+	tubeKinds: TubeKindDef[] = []
+): Scene {
+	const parsed = trustedSceneSchema.safeParse(composeScene(enclosure, defs, settings, tubeKinds));
 	if (!parsed.success) {
 		throw new SceneRejected(
 			formatZodIssues(parsed.error).map((i) => ({ ...i, path: settingsPath(i.path) }))

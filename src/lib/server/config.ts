@@ -80,6 +80,38 @@ export const config = {
 	},
 	get storageDir() {
 		return env('STORAGE_DIR', '.data/storage');
+	},
+	/**
+	 * Where photo files live: 'disk' (STORAGE_DIR on this machine) or 's3' (an S3-compatible
+	 * bucket, the same settings a hosted provider takes; several app processes or machines share it).
+	 */
+	storage: {
+		get driver() {
+			const d = env('STORAGE_DRIVER', 'disk');
+			if (d !== 'disk' && d !== 's3') {
+				throw new Error(`STORAGE_DRIVER must be "disk" or "s3", not "${d}".`);
+			}
+			return d as 'disk' | 's3';
+		},
+		get endpoint() {
+			return env('S3_ENDPOINT', 'http://127.0.0.1:4569');
+		},
+		get bucket() {
+			return env('S3_BUCKET', 'interstice-photos');
+		},
+		get region() {
+			return env('S3_REGION', 'us-east-1');
+		},
+		get accessKeyId() {
+			return env('S3_ACCESS_KEY_ID', 'S3RVER');
+		},
+		get secretAccessKey() {
+			return env('S3_SECRET_ACCESS_KEY', 'S3RVER');
+		},
+		/** Bucket in the path (http://host/bucket/key), as local and most self-hosted stores want. */
+		get forcePathStyle() {
+			return env('S3_FORCE_PATH_STYLE', '1') !== '0';
+		}
 	}
 };
 

@@ -1,5 +1,5 @@
 import { error, type RequestEvent } from '@sveltejs/kit';
-import { hit, type Limit } from './rate-limit';
+import { hit, type Limit, type RateResult } from './rate-limit';
 
 /**
  * The client address as the adapter reports it. Behind a proxy, set adapter-node's
@@ -20,7 +20,20 @@ export async function enforce(
 	limit: Limit,
 	extraKey = ''
 ) {
-	const r = await hit(`${bucket}:${clientAddress(event)}${extraKey ? ':' + extraKey : ''}`, limit);
+	refuseOver(event, await hit(limitKey(event, bucket, extraKey), limit));
+}
+
+/** The counter's key: bucket, client address and (for per-account limits) the account. */
+export function limitKey(
+	event: Pick<RequestEvent, 'getClientAddress'>,
+	bucket: string,
+	extraKey = ''
+) {
+	return `${bucket}:${clientAddress(event)}${extraKey ? ':' + extraKey : ''}`;
+}
+
+/** Over the limit: ends the request with 429 and Retry-After. */
+export function refuseOver(event: Pick<RequestEvent, 'setHeaders'>, r: RateResult) {
 	if (!r.allowed) {
 		event.setHeaders({ 'retry-after': String(r.retryAfterSec) });
 		const minutes = Math.ceil(r.retryAfterSec / 60);

@@ -30,7 +30,14 @@ export async function hit(key: string, limit: Limit): Promise<RateResult> {
 			window_started_at = case when rate_limit.window_started_at < now() - make_interval(secs => ${limit.windowSec})
 				then now() else rate_limit.window_started_at end
 		returning count, window_started_at`);
-	const row = rows[0];
+	return rateResult(rows[0], limit);
+}
+
+/** The verdict on a counter row just written (here, or by a query that counts as it reads). */
+export function rateResult(
+	row: { count: number; window_started_at: Date | string },
+	limit: Limit
+): RateResult {
 	const started = new Date(row.window_started_at).getTime();
 	const retryAfterSec = Math.max(
 		1,

@@ -1,13 +1,22 @@
 /**
  * Files on local disk under config.storageDir (outside static/, so nothing is served without an
  * access check). Keys are made here from random ids; a path is never built from user input, and
- * every key is checked against its shape before it touches the file system. Swap this module for
- * an S3-compatible store when the app runs on several machines: backups (exportObjects,
- * importObjects) and the clean-up check (listObjects) go through it too, so they follow.
+ * every key is checked against its shape before it touches the file system. With STORAGE_DRIVER=s3
+ * the same functions talk to an S3-compatible bucket through the AWS SDK instead (several app
+ * processes or machines see one store); backups (exportObjects, importObjects) and the clean-up
+ * check (listObjects) go through them too, so they follow whichever driver is set.
  */
 import { createHash } from 'node:crypto';
 import { mkdir, open, readdir, readFile, rename, rm, stat } from 'node:fs/promises';
 import { dirname, join, resolve, sep } from 'node:path';
+import {
+	DeleteObjectCommand,
+	DeleteObjectsCommand,
+	GetObjectCommand,
+	ListObjectsV2Command,
+	PutObjectCommand,
+	S3Client
+} from '@aws-sdk/client-s3';
 import { config } from './config';
 import { newId } from './tokens';
 
@@ -33,6 +42,27 @@ function pathOf(key: string): string {
 	return full;
 }
 
+const s3on = () => config.storage.driver === 's3';
+let client: S3Client | null = null;
+function s3(): S3Client {
+	client ??= new S3Client({
+		endpoint: config.storage.endpoint,
+		region: config.storage.region,
+		forcePathStyle: config.storage.forcePathStyle,
+		credentials: {
+			accessKeyId: config.storage.accessKeyId,
+			secretAccessKey: config.storage.secretAccessKey
+		}
+	});
+	return client;
+}
+const Bucket = () => config.storage.bucket;
+const CONTENT_TYPE: Record<StoredExt, string> = {
+	jpg: 'image/jpeg',
+	png: 'image/png',
+	webp: 'image/webp'
+};
+
 export function newKey(ext: StoredExt): string {
 	if (!EXTS.includes(ext)) throw new Error('Unsupported file type.');
 	const id = newId();
@@ -54,6 +84,20 @@ async function syncDir(dir: string) {
  * folder before returning: once the photo's row commits, the bytes are on disk too.
  */
 export async function putObject(key: string, bytes: Uint8Array): Promise<void> {
+	if (s3on()) {
+		if (!isStorageKey(key)) throw new Error('Not a storage key.');
+		// A PUT is whole or not at all, and acknowledged only once the store holds it.
+		const ext = key.slice(key.lastIndexOf('.') + 1) as StoredExt;
+		await s3().send(
+			new PutObjectCommand({
+				Bucket: Bucket(),
+				Key: key,
+				Body: bytes,
+				ContentType: CONTENT_TYPE[ext]
+			})
+		);
+		return;
+	}
 	const full = pathOf(key);
 	const dir = dirname(full);
 	const made = await mkdir(dir, { recursive: true });
@@ -71,6 +115,16 @@ export async function putObject(key: string, bytes: Uint8Array): Promise<void> {
 }
 
 export async function readObject(key: string): Promise<Buffer | null> {
+	if (s3on()) {
+		if (!isStorageKey(key)) throw new Error('Not a storage key.');
+		try {
+			const out = await s3().send(new GetObjectCommand({ Bucket: Bucket(), Key: key }));
+			return Buffer.from(await out.Body!.transformToByteArray());
+		} catch (e) {
+			if ((e as { name?: string }).name === 'NoSuchKey') return null;
+			throw e;
+		}
+	}
 	try {
 		return await readFile(pathOf(key));
 	} catch (e) {
@@ -80,11 +134,28 @@ export async function readObject(key: string): Promise<Buffer | null> {
 }
 
 export async function deleteObject(key: string): Promise<void> {
+	if (s3on()) {
+		if (!isStorageKey(key)) throw new Error('Not a storage key.');
+		await s3().send(new DeleteObjectCommand({ Bucket: Bucket(), Key: key }));
+		return;
+	}
 	await rm(pathOf(key), { force: true });
 }
 
 /** Deletes several objects; missing ones are fine (a repeated clean-up is not an error). */
 export async function deleteObjects(keys: Iterable<string>): Promise<void> {
+	if (s3on()) {
+		const all = [...keys];
+		for (const k of all) if (!isStorageKey(k)) throw new Error('Not a storage key.');
+		// S3 takes up to 1000 keys per DeleteObjects request.
+		for (let i = 0; i < all.length; i += 1000) {
+			const Objects = all.slice(i, i + 1000).map((Key) => ({ Key }));
+			await s3().send(
+				new DeleteObjectsCommand({ Bucket: Bucket(), Delete: { Objects, Quiet: true } })
+			);
+		}
+		return;
+	}
 	for (const key of keys) await deleteObject(key);
 }
 
@@ -95,9 +166,26 @@ export type StoredObject = { key: string; bytes: number; modifiedAt: Date };
  * a write that never finished, anything copied in by hand), as paths relative to the store.
  */
 export async function listObjects(): Promise<{ objects: StoredObject[]; strays: string[] }> {
-	const base = root();
 	const objects: StoredObject[] = [];
 	const strays: string[] = [];
+	if (s3on()) {
+		let ContinuationToken: string | undefined;
+		do {
+			const page = await s3().send(
+				new ListObjectsV2Command({ Bucket: Bucket(), ContinuationToken })
+			);
+			for (const o of page.Contents ?? []) {
+				const key = o.Key ?? '';
+				if (isStorageKey(key)) {
+					objects.push({ key, bytes: o.Size ?? 0, modifiedAt: o.LastModified ?? new Date(0) });
+				} else strays.push(key);
+			}
+			ContinuationToken = page.IsTruncated ? page.NextContinuationToken : undefined;
+		} while (ContinuationToken);
+		objects.sort((a, b) => (a.key < b.key ? -1 : 1));
+		return { objects, strays: strays.sort() };
+	}
+	const base = root();
 	let entries: string[];
 	try {
 		entries = await readdir(base, { recursive: true });
@@ -117,6 +205,11 @@ export async function listObjects(): Promise<{ objects: StoredObject[]; strays: 
 
 /** Removes a stray file found by listObjects (never a path outside the store). */
 export async function deleteStray(rel: string): Promise<void> {
+	if (s3on()) {
+		// Any key in our bucket is inside the store; the SDK escapes it in the request path.
+		await s3().send(new DeleteObjectCommand({ Bucket: Bucket(), Key: rel }));
+		return;
+	}
 	const base = root();
 	const full = resolve(base, rel);
 	if (!full.startsWith(base + sep)) throw new Error('Not inside the store.');
@@ -180,5 +273,6 @@ export async function pruneObjects(keep: Set<string>): Promise<number> {
 
 /** Where the store is, for messages (a folder today; a bucket's address with an object store). */
 export function storeLocation(): string {
+	if (s3on()) return `${config.storage.endpoint.replace(/\/$/, '')}/${config.storage.bucket} (S3)`;
 	return root();
 }
