@@ -14,6 +14,8 @@ import {
 	checkScene,
 	formatMm,
 	mountAccepts,
+	partClasses,
+	plateNeeded,
 	resolveScene,
 	type Box,
 	type BracketDef,
@@ -504,14 +506,12 @@ export function radiatorCombinations(
 	for (const rad of radiators) {
 		const cls = rad.part.specs.radiatorClass!;
 		const fanSize = fanSizeOf(cls);
-		const plateMm =
-			mount.plateMm && (mount.plateFor === undefined || mount.plateFor.includes(String(cls)))
-				? mount.plateMm
-				: 0;
-		const availableMm = limit - plateMm - mount.standoffMm;
 		const radT = thicknessAlong(rad.part, axis);
 		for (const fan of fans) {
 			if (fan.part.specs.fanSizeMm !== fanSize) continue;
+			// The plate as the engine counts it for this radiator and these fans.
+			const plateMm = plateNeeded(mount, [...partClasses(rad.part), ...partClasses(fan.part)]);
+			const availableMm = limit - plateMm - mount.standoffMm;
 			const count = Math.max(1, Math.round(cls / fanSize!));
 			const fanT = thicknessAlong(fan.part, axis);
 			const stackMm = radT + fanT;

@@ -9,7 +9,7 @@ import {
 	boundsOf,
 	boxSize,
 	mountAccepts,
-	partClasses,
+	stackPlate,
 	placePart,
 	rotateBox,
 	rotationMap,
@@ -152,11 +152,7 @@ export function landOnMount(
 	const inner = resolved.innerBox;
 	const mounted = resolved.placements.filter((p) => p.placement.mountId === mount.id);
 	// The adapter plate sits under the stack only for the classes that need it, as the engine counts it.
-	const classes = new Set([part, ...mounted.map((p) => p.part)].flatMap(partClasses));
-	const plate =
-		mount.plateFor === undefined || mount.plateFor.some((c) => classes.has(c))
-			? (mount.plateMm ?? 0)
-			: 0;
+	const plate = stackPlate(mount, [...mounted, { part }]);
 	// Depth from the panel inward already used by the stack.
 	let used = plate + mount.standoffMm;
 	const layers = mounted.map((p) =>

@@ -2,16 +2,31 @@
  * One candidate part, placed in a scene that is otherwise fixed: its status, gaps and mount stack
  * exactly as checkScene would report them for it, without recomputing the rest of the scene.
  *
- * The scene's boxes are prepared once (walls, dividers and brackets at their offsets, every other
- * placement's bodies and keep-outs); each candidate is then tested against them alone, with the
- * same rules as the full report: pairKind for what an overlap means, the nearest box ahead of
- * each face (ties to the smaller id) for gaps, held contact as the report counts it, and the
- * mount's stack as mountReport adds it up. Millimetres, inner coordinates.
+ * The scene's boxes are prepared once (walls, dividers and brackets at their offsets, the mounts'
+ * plates, every other placement's bodies and keep-outs) into a Model of the fit report, with the
+ * candidate as its placement 0; each candidate is then tested against them alone by the report's
+ * own functions: pairKind for what an overlap means, addGap for the nearest box ahead of each
+ * face, facesOutside, mountReport and the problems that mark it (mountRankOf), and
+ * placementStatus (held contact and worst-case gaps). A mount's plate depends on what it holds,
+ * so each mount's plate boxes are kept with and without the plate, and the candidate's landing
+ * mount uses the pair the engine would build (stackPlate). Millimetres, inner coordinates.
  */
 
 import { EPSILON_MM, FACES, compareText, type Face } from './box';
 import { FACE_AXES } from './enclosure';
-import { mountReport } from './mounts';
+import {
+	addGap,
+	emptyTally,
+	facesOutside,
+	geometricStatus,
+	mountRankOf,
+	placementStatus,
+	isHeldContact,
+	problemsMarking,
+	type Model,
+	type Tally
+} from './model';
+import { mountReport, plateBoxes, stackPlate } from './mounts';
 import { isObstacle, pairKind } from './pairs';
 import { placePart } from './resolve';
 import type { Box, MountDef, PartDef, Placement, Scene, Vec3 } from './schema';
@@ -33,9 +48,23 @@ export interface ProbeBase {
 	/** Six numbers a box, same order as `boxes`. */
 	flat: Float64Array;
 	obstacle: Uint8Array;
-	/** The mount of the placement a box belongs to, for held contact on a stack. */
-	mountOfBox: (string | undefined)[];
+	/**
+	 * The report's model of the fixed scene: placement 0 is the candidate (its mount, tolerance,
+	 * outside faces and mount rank are written per probe), placements 1.. the others.
+	 */
+	model: Model;
+	tally: Tally;
+	/**
+	 * Per box: 0 for a box always there, else the plate group it belongs to: 3m + 1 for mount m's
+	 * plates as the scene has them, 3m + 2 without the plate, 3m + 3 with it (standoffs on top).
+	 */
+	group: Uint16Array;
+	/** Per group: whether its boxes are in the scene for the candidate being probed. */
+	active: Uint8Array;
 	mounts: Map<string, MountDef>;
+	mountIndex: Map<string, number>;
+	/** Per mount id: the other placements on it. */
+	stacked: Map<string, ResolvedPlacement[]>;
 	grid: Grid;
 }
 
@@ -145,45 +174,24 @@ export interface ProbeResult {
 	placed: ResolvedPlacement;
 }
 
-/** Prepares a scene for probing; `ignorePlacementId` leaves one placement out (for a replacement). */
-export function probeBase(
-	scene: Scene,
-	resolved: ResolvedScene,
-	ignorePlacementId?: string
-): ProbeBase {
-	const placements = resolved.placements.filter((rp) => rp.placement.id !== ignorePlacementId);
-	const without: ResolvedScene =
-		ignorePlacementId === undefined ? resolved : { ...resolved, placements };
-	const boxes: WorldBox[] = [...resolved.walls, ...resolved.dividers, ...resolved.brackets];
-	const mountOfBox: (string | undefined)[] = boxes.map(() => undefined);
-	for (const rp of placements) {
-		for (const b of [...rp.bodies, ...rp.keepouts]) {
-			boxes.push(b);
-			mountOfBox.push(rp.placement.mountId);
-		}
-	}
-	const flat = new Float64Array(boxes.length * 6);
-	const obstacle = new Uint8Array(boxes.length);
-	boxes.forEach((b, i) => {
-		flat.set(b.box.min, i * 6);
-		flat.set(b.box.max, i * 6 + 3);
-		obstacle[i] = isObstacle(b) ? 1 : 0;
-	});
-	return {
-		scene,
-		resolved,
-		without,
-		boxes,
-		flat,
-		obstacle,
-		mountOfBox,
-		mounts: new Map(scene.enclosure.mounts.map((m) => [m.id, m])),
-		grid: buildGrid(boxes, resolved.innerBox)
-	};
-}
-
-function worst(a: FitStatus, b: FitStatus): FitStatus {
-	return STATUS_ORDER.indexOf(a) <= STATUS_ORDER.indexOf(b) ? a : b;
+/**
+ * Which plate boxes are there with the candidate in: every mount's as the scene has them, the
+ * candidate's mount's as the engine would build them with the candidate on it. Returns the other
+ * placements on the candidate's mount.
+ */
+function activatePlates(base: ProbeBase, placed: ResolvedPlacement): ResolvedPlacement[] {
+	const { active } = base;
+	const id = placed.placement.mountId;
+	const mount = id === undefined ? undefined : base.mounts.get(id);
+	active.fill(0);
+	active[0] = 1;
+	for (let k = 0; 3 * k + 1 < active.length; k++) active[3 * k + 1] = 1;
+	if (!mount) return [];
+	const k = base.mountIndex.get(mount.id)!;
+	const stacked = base.stacked.get(mount.id)!;
+	active[3 * k + 1] = 0;
+	active[stackPlate(mount, [...stacked, placed]) > 0 ? 3 * k + 3 : 3 * k + 2] = 1;
+	return stacked;
 }
 
 /** Overlap volume of a box with base box j, or 0 when they only touch or are apart. */
@@ -198,6 +206,104 @@ function overlapWith(box: Box, flat: Float64Array, j: number): number {
 	return x * y * z;
 }
 
+/** Prepares a scene for probing; `ignorePlacementId` leaves one placement out (for a replacement). */
+export function probeBase(
+	scene: Scene,
+	resolved: ResolvedScene,
+	ignorePlacementId?: string
+): ProbeBase {
+	const placements = resolved.placements.filter((rp) => rp.placement.id !== ignorePlacementId);
+	const without: ResolvedScene =
+		ignorePlacementId === undefined ? resolved : { ...resolved, placements };
+	const inner = resolved.innerBox;
+	const mountList = scene.enclosure.mounts;
+	const boxes: WorldBox[] = [...resolved.walls, ...resolved.dividers, ...resolved.brackets];
+	const groups: number[] = boxes.map(() => 0);
+	const owners: number[] = boxes.map(() => -1);
+	const stacked = new Map<string, ResolvedPlacement[]>(mountList.map((m) => [m.id, []]));
+	for (const rp of placements) {
+		if (rp.placement.mountId !== undefined) stacked.get(rp.placement.mountId)?.push(rp);
+	}
+	mountList.forEach((m, k) => {
+		const mounted = stacked.get(m.id)!;
+		const variants = [
+			mounted.length ? plateBoxes(m, inner, stackPlate(m, mounted)) : [],
+			plateBoxes(m, inner, 0),
+			plateBoxes(m, inner, m.plateMm ?? 0)
+		];
+		variants.forEach((list, v) => {
+			for (const b of list) {
+				boxes.push(b);
+				groups.push(3 * k + 1 + v);
+				owners.push(-1);
+			}
+		});
+	});
+	placements.forEach((rp, k) => {
+		for (const b of [...rp.bodies, ...rp.keepouts]) {
+			boxes.push(b);
+			groups.push(0);
+			owners.push(k + 1);
+		}
+	});
+	const flat = new Float64Array(boxes.length * 6);
+	const obstacle = new Uint8Array(boxes.length);
+	boxes.forEach((b, i) => {
+		flat.set(b.box.min, i * 6);
+		flat.set(b.box.max, i * 6 + 3);
+		obstacle[i] = isObstacle(b) ? 1 : 0;
+	});
+	const mounts = new Map(mountList.map((m) => [m.id, m]));
+	const placementMountFace = (id: string | undefined) => {
+		const m = id === undefined ? undefined : mounts.get(id);
+		if (!m) return -1;
+		const { axis, high } = FACE_AXES[m.face];
+		return 2 * axis + (high ? 1 : 0);
+	};
+	const model: Model = {
+		scene,
+		resolved: without,
+		boxes,
+		flat,
+		owner: Int32Array.from(owners),
+		obstacle,
+		bodiesOf: [[], ...placements.map(() => [])],
+		bodyBoxes: new Int32Array(0),
+		outsideFaces: [[], ...placements.map(() => [])],
+		mountFace: Int8Array.from([
+			-1,
+			...placements.map((rp) => placementMountFace(rp.placement.mountId))
+		]),
+		mountOf: [undefined, ...placements.map((rp) => rp.placement.mountId)],
+		indexOf: new Map(),
+		wallSide: Int8Array.from(boxes, (b) => {
+			if (b.kind !== 'wall') return -1;
+			const { axis, high } = FACE_AXES[b.face!];
+			return 2 * axis + (high ? 1 : 0);
+		}),
+		toleranceMm: Float64Array.from([0, ...placements.map((rp) => rp.part.toleranceMm)]),
+		mounts: [],
+		mountProblemsOf: [],
+		mountRank: new Uint8Array(placements.length + 1)
+	};
+	return {
+		scene,
+		resolved,
+		without,
+		boxes,
+		flat,
+		obstacle,
+		model,
+		tally: emptyTally(1),
+		group: Uint16Array.from(groups),
+		active: new Uint8Array(3 * mountList.length + 1),
+		mounts,
+		mountIndex: new Map(mountList.map((m, k) => [m.id, k])),
+		stacked,
+		grid: buildGrid(boxes, inner)
+	};
+}
+
 /** Probes one placement of `part` (its id must not be another placement's). */
 export function probe(base: ProbeBase, part: PartDef, placement: Placement): ProbeResult {
 	return probePlaced(base, placePart(part, placement));
@@ -206,10 +312,23 @@ export function probe(base: ProbeBase, part: PartDef, placement: Placement): Pro
 /** `probe` for a placement already resolved (the same one tried at many positions of a control). */
 export function probePlaced(base: ProbeBase, placed: ResolvedPlacement): ProbeResult {
 	const placement = placed.placement;
-	const { flat, boxes, obstacle } = base;
+	const { flat, boxes, obstacle, model, tally, group, active } = base;
+	const stacked = activatePlates(base, placed);
 	const margin = base.scene.marginMm;
-	let collides = false;
-	let blocked = false;
+	const mount = placement.mountId === undefined ? undefined : base.mounts.get(placement.mountId);
+	const here = (j: number) => active[group[j]] === 1;
+	// Placement 0 of the model is the candidate.
+	const { axis: mountAxis, high: mountHigh } = mount
+		? FACE_AXES[mount.face]
+		: { axis: -1, high: false };
+	model.mountFace[0] = mount ? 2 * mountAxis + (mountHigh ? 1 : 0) : -1;
+	model.mountOf[0] = mount?.id;
+	model.toleranceMm[0] = placed.part.toleranceMm;
+	model.outsideFaces[0] = facesOutside(base.resolved.innerBox, placed.bodies);
+	tally.collides[0] = 0;
+	tally.blocked[0] = 0;
+	tally.gap.fill(Infinity);
+	tally.against.fill(-1);
 	const overlaps: ProbeResult['overlaps'] = [];
 	const g = base.grid;
 	for (const own of [...placed.bodies, ...placed.keepouts]) {
@@ -219,55 +338,27 @@ export function probePlaced(base: ProbeBase, placed: ResolvedPlacement): ProbeRe
 			lo,
 			hi,
 			(j) => {
-				if (overlapWith(own.box, flat, j) <= 0) return;
+				if (!here(j) || overlapWith(own.box, flat, j) <= 0) return;
 				const kind = pairKind(own, boxes[j]);
 				if (!kind) return;
-				if (kind === 'collides') collides = true;
-				else if (kind === 'blocked') blocked = true;
+				if (kind === 'collides') tally.collides[0] = 1;
+				else if (kind === 'blocked') tally.blocked[0] = 1;
 				overlaps.push({ with: boxes[j].id, label: boxes[j].label, kind });
 			},
 			true
 		);
 	}
 	overlaps.sort((x, y) => compareText(x.with, y.with));
-	const inner = base.resolved.innerBox;
-	// Faces of the inner box crossed, as bits in FACES order.
-	let outside = 0;
-	for (const b of placed.bodies) {
-		for (let a = 0; a < 3; a++) {
-			if (b.box.min[a] < inner.min[a] - EPSILON_MM) outside |= 1 << (2 * a);
-			if (b.box.max[a] > inner.max[a] + EPSILON_MM) outside |= 1 << (2 * a + 1);
-		}
-	}
-	// Nearest obstacle ahead of each face, over all bodies: ties to the smaller box id.
-	const gap = [Infinity, Infinity, Infinity, Infinity, Infinity, Infinity];
-	const against = [-1, -1, -1, -1, -1, -1];
-	const offer = (slot: number, g: number, j: number) => {
-		if (
-			g < gap[slot] ||
-			(g === gap[slot] && compareText(boxes[j].id, boxes[against[slot]].id) < 0)
-		) {
-			gap[slot] = g;
-			against[slot] = j;
-		}
-	};
-	for (const body of placed.bodies) {
+	// Nearest obstacle ahead of each face, over all bodies, by the report's own gap rule.
+	const bodyFlat = new Float64Array(placed.bodies.length * 6);
+	placed.bodies.forEach((body, k) => {
+		bodyFlat.set(body.box.min, k * 6);
+		bodyFlat.set(body.box.max, k * 6 + 3);
+	});
+	placed.bodies.forEach((body, k) => {
 		const b = body.box;
 		const test = (j: number) => {
-			if (!obstacle[j]) return;
-			const o = j * 6;
-			const ox = Math.min(b.max[0], flat[o + 3]) - Math.max(b.min[0], flat[o]) > EPSILON_MM;
-			const oy = Math.min(b.max[1], flat[o + 4]) - Math.max(b.min[1], flat[o + 1]) > EPSILON_MM;
-			if (!ox && !oy) return;
-			const oz = Math.min(b.max[2], flat[o + 5]) - Math.max(b.min[2], flat[o + 2]) > EPSILON_MM;
-			for (let a = 0; a < 3; a++) {
-				const across = a === 0 ? oy && oz : a === 1 ? ox && oz : ox && oy;
-				if (!across) continue;
-				const bodyCentre = b.min[a] + b.max[a];
-				const obstacleCentre = flat[o + a] + flat[o + 3 + a];
-				if (obstacleCentre >= bodyCentre) offer(2 * a + 1, flat[o + a] - b.max[a], j);
-				if (obstacleCentre <= bodyCentre) offer(2 * a, b.min[a] - flat[o + 3 + a], j);
-			}
+			if (obstacle[j] && here(j)) addGap(model, tally, 0, bodyFlat, k, flat, j, j);
 		};
 		// The cells the body covers, then layer by layer outward along each axis while a layer could
 		// still hold something nearer than the nearest found on that side.
@@ -276,69 +367,46 @@ export function probePlaced(base: ProbeBase, placed: ResolvedPlacement): ProbeRe
 		for (let a = 0; a < 3; a++) {
 			for (const dir of [1, -1]) {
 				const slot = dir > 0 ? 2 * a + 1 : 2 * a;
-				for (let k = dir > 0 ? hi[a] + 1 : lo[a] - 1; k >= 0 && k < g.dims[a]; k += dir) {
+				for (let c = dir > 0 ? hi[a] + 1 : lo[a] - 1; c >= 0 && c < g.dims[a]; c += dir) {
 					const near =
 						dir > 0
-							? g.origin[a] + k * g.cell - b.max[a]
-							: b.min[a] - (g.origin[a] + (k + 1) * g.cell);
-					if (near > gap[slot] + EPSILON_MM) break;
+							? g.origin[a] + c * g.cell - b.max[a]
+							: b.min[a] - (g.origin[a] + (c + 1) * g.cell);
+					if (near > tally.gap[slot] + EPSILON_MM) break;
 					const l = [...lo];
 					const h = [...hi];
-					l[a] = k;
-					h[a] = k;
+					l[a] = c;
+					h[a] = c;
 					visitCells(g, l, h, test, false);
 				}
 			}
 		}
-	}
-	const mount = placement.mountId === undefined ? undefined : base.mounts.get(placement.mountId);
-	let mountFace = -1;
+	});
+	let report: MountReport | null = null;
+	model.mountRank[0] = STATUS_ORDER.indexOf('clear');
 	if (mount) {
-		const { axis, high } = FACE_AXES[mount.face];
-		mountFace = 2 * axis + (high ? 1 : 0);
+		report = mountReport(mount, base.scene, {
+			...base.without,
+			placements: [...stacked, placed]
+		});
+		model.mountRank[0] = mountRankOf(problemsMarking(report, placement.id));
 	}
-	const held = (f: number): boolean => {
-		const j = against[f];
-		if (!(Math.abs(gap[f]) <= EPSILON_MM) || j < 0) return false;
-		if (f === 2) return true;
-		if (mountFace < 0) return false;
-		const box = boxes[j];
-		if (box.kind === 'wall') {
-			const w = FACE_AXES[box.face!];
-			return f === mountFace && 2 * w.axis + (w.high ? 1 : 0) === mountFace;
-		}
-		return base.mountOfBox[j] !== undefined && base.mountOfBox[j] === placement.mountId;
-	};
-	const worstCase = (f: number) =>
-		gap[f] - placed.part.toleranceMm - (boxes[against[f]].toleranceMm ?? 0);
-	let partStatus: FitStatus = 'clear';
-	if (collides) partStatus = 'collides';
-	else if (blocked) partStatus = 'blocked';
-	else if (outside !== 0) partStatus = 'outside';
-	// Tight on the worst case: the gap less both sides' tolerances (docs/scene-format.md, "Gaps").
-	else if (gap.some((g, f) => against[f] >= 0 && worstCase(f) < margin - EPSILON_MM && !held(f))) {
-		partStatus = 'tight';
-	}
+	const partStatus = geometricStatus(model, tally, 0, margin);
+	const status = placementStatus(model, tally, 0, margin);
 	const gaps = {} as ProbeResult['gaps'];
 	let spareMm: number | null = null;
 	FACES.forEach((face, f) => {
-		const j = against[f];
-		const h = held(f);
+		const j = tally.against[f];
+		const gap = tally.gap[f];
+		const held = isHeldContact(model, 0, f, gap, j);
 		gaps[face] =
 			j < 0
 				? { gapMm: null, against: null, held: false }
-				: { gapMm: gap[f], against: boxes[j].label, held: h };
-		if (j >= 0 && !h && (spareMm === null || gap[f] < spareMm)) spareMm = gap[f];
+				: { gapMm: gap, against: boxes[j].label, held };
+		if (j >= 0 && !held && (spareMm === null || gap < spareMm)) spareMm = gap;
 	});
-	let report: MountReport | null = null;
-	let status = partStatus;
-	if (mount) {
-		const stacked = base.without.placements.filter((rp) => rp.placement.mountId === mount.id);
-		report = mountReport(mount, base.scene, { ...base.without, placements: [...stacked, placed] });
-		status = worst(status, report.status);
-		if (report.spareMm !== null && (spareMm === null || report.spareMm < spareMm)) {
-			spareMm = report.spareMm;
-		}
+	if (report && report.spareMm !== null && (spareMm === null || report.spareMm < spareMm)) {
+		spareMm = report.spareMm;
 	}
 	return {
 		status,
@@ -346,7 +414,7 @@ export function probePlaced(base: ProbeBase, placed: ResolvedPlacement): ProbeRe
 		gaps,
 		spareMm,
 		overlaps,
-		outsideFaces: FACES.filter((_f, i) => (outside & (1 << i)) !== 0),
+		outsideFaces: model.outsideFaces[0],
 		mount: report,
 		placed
 	};
@@ -373,6 +441,7 @@ export interface PortUse {
  * other parts' bodies.
  */
 export function portUse(base: ProbeBase, placed: ResolvedPlacement): PortUse[] {
+	activatePlates(base, placed);
 	const fittings = placed.keepouts.filter((k) => k.keepoutKind === 'fitting');
 	return placed.ports.map((p) => {
 		const axis = 'xyz'.indexOf(p.direction[1]);
@@ -406,7 +475,8 @@ export function portUse(base: ProbeBase, placed: ResolvedPlacement): PortUse[] {
 		}
 		let hit: string | null = null;
 		for (let j = 0; j < base.boxes.length && hit === null; j++) {
-			if (base.obstacle[j] && overlapWith(box, base.flat, j) > 0) hit = base.boxes[j].label;
+			if (!base.active[base.group[j]] || !base.obstacle[j]) continue;
+			if (overlapWith(box, base.flat, j) > 0) hit = base.boxes[j].label;
 		}
 		return { id: p.id, thread: p.thread, usable: hit === null, blockedBy: hit, box };
 	});
