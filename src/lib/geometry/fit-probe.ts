@@ -13,7 +13,8 @@
  */
 
 import { EPSILON_MM, FACES, compareText, type Face } from './box';
-import { FACE_AXES } from './enclosure';
+import { FACE_AXES, bracketWorldBox, dividerWorldBox } from './enclosure';
+import { SceneError } from './errors';
 import {
 	addGap,
 	emptyTally,
@@ -66,6 +67,17 @@ export interface ProbeBase {
 	/** Per mount id: the other placements on it. */
 	stacked: Map<string, ResolvedPlacement[]>;
 	grid: Grid;
+	/** Index of the moving control's slot in `boxes`, -1 without one. */
+	movingSlot: number;
+	moving: MovingControl | null;
+	/** Scratch: the candidate's bodies, six numbers each. */
+	bodyFlat: Float64Array;
+}
+
+/** A divider or bracket tried at each of its positions (see probeAcross). */
+export interface MovingControl {
+	kind: 'divider' | 'bracket';
+	id: string;
 }
 
 /**
@@ -79,11 +91,19 @@ interface Grid {
 	origin: Vec3;
 	cell: number;
 	dims: [number, number, number];
-	cells: number[][];
-	always: number[];
+	/** Box indexes per cell, cell after cell (`start[c]` to `start[c + 1]`). */
+	items: Int32Array;
+	start: Int32Array;
+	always: Int32Array;
 	/** Visit stamps, one per box, so a box in several cells is looked at once per query. */
 	seen: Uint32Array;
 	stamp: number;
+	/** The boxes one query gathered (each once), and scratch cell ranges: no allocation per query. */
+	found: Int32Array;
+	lo: Int32Array;
+	hi: Int32Array;
+	l: Int32Array;
+	h: Int32Array;
 }
 
 function buildGrid(boxes: readonly WorldBox[], inner: Box): Grid {
@@ -110,54 +130,70 @@ function buildGrid(boxes: readonly WorldBox[], inner: Box): Grid {
 			}
 		}
 	});
-	return { origin, cell, dims, cells, always, seen: new Uint32Array(boxes.length), stamp: 0 };
+	const start = new Int32Array(cells.length + 1);
+	cells.forEach((c, k) => (start[k + 1] = start[k] + c.length));
+	return {
+		origin,
+		cell,
+		dims,
+		items: Int32Array.from(cells.flat()),
+		start,
+		always: Int32Array.from(always),
+		seen: new Uint32Array(boxes.length),
+		stamp: 0,
+		found: new Int32Array(boxes.length),
+		lo: new Int32Array(3),
+		hi: new Int32Array(3),
+		l: new Int32Array(3),
+		h: new Int32Array(3)
+	};
 }
 
 function clampCell(v: number, n: number): number {
 	return v < 0 ? 0 : v >= n ? n - 1 : v;
 }
 
-/** Calls `visit` once for each box in the cells from lo to hi (cell indexes, inclusive), walls first. */
-function visitCells(
-	g: Grid,
-	lo: number[],
-	hi: number[],
-	visit: (j: number) => void,
-	fresh: boolean
-): void {
+/**
+ * Gathers into g.found (from 0; returns how many) each box in the cells from lo to hi (cell
+ * indexes, inclusive) not gathered yet in this query; a fresh query starts with the walls.
+ */
+function gather(g: Grid, lo: Int32Array, hi: Int32Array, fresh: boolean): number {
+	let n = 0;
 	if (fresh) {
 		g.stamp++;
 		if (g.stamp === 0xffffffff) {
 			g.seen.fill(0);
 			g.stamp = 1;
 		}
-		for (const j of g.always) {
+		for (let k = 0; k < g.always.length; k++) {
+			const j = g.always[k];
 			g.seen[j] = g.stamp;
-			visit(j);
+			g.found[n++] = j;
 		}
 	}
+	const [, d1, d2] = g.dims;
 	for (let x = lo[0]; x <= hi[0]; x++) {
 		for (let y = lo[1]; y <= hi[1]; y++) {
 			for (let z = lo[2]; z <= hi[2]; z++) {
-				for (const j of g.cells[(x * g.dims[1] + y) * g.dims[2] + z]) {
+				const c = (x * d1 + y) * d2 + z;
+				for (let k = g.start[c]; k < g.start[c + 1]; k++) {
+					const j = g.items[k];
 					if (g.seen[j] === g.stamp) continue;
 					g.seen[j] = g.stamp;
-					visit(j);
+					g.found[n++] = j;
 				}
 			}
 		}
 	}
+	return n;
 }
 
-function cellRange(g: Grid, box: Box, pad: number): { lo: number[]; hi: number[] } {
-	return {
-		lo: [0, 1, 2].map((a) =>
-			clampCell(Math.floor((box.min[a] - pad - g.origin[a]) / g.cell), g.dims[a])
-		),
-		hi: [0, 1, 2].map((a) =>
-			clampCell(Math.floor((box.max[a] + pad - g.origin[a]) / g.cell), g.dims[a])
-		)
-	};
+/** The cells a box (grown by pad) reaches, into g.lo and g.hi. */
+function cellRange(g: Grid, box: Box, pad: number): void {
+	for (let a = 0; a < 3; a++) {
+		g.lo[a] = clampCell(Math.floor((box.min[a] - pad - g.origin[a]) / g.cell), g.dims[a]);
+		g.hi[a] = clampCell(Math.floor((box.max[a] + pad - g.origin[a]) / g.cell), g.dims[a]);
+	}
 }
 
 export interface ProbeResult {
@@ -185,7 +221,7 @@ function activatePlates(base: ProbeBase, placed: ResolvedPlacement): ResolvedPla
 	const mount = id === undefined ? undefined : base.mounts.get(id);
 	active.fill(0);
 	active[0] = 1;
-	for (let k = 0; 3 * k + 1 < active.length; k++) active[3 * k + 1] = 1;
+	for (let k = 0; k < base.mounts.size; k++) active[3 * k + 1] = 1;
 	if (!mount) return [];
 	const k = base.mountIndex.get(mount.id)!;
 	const stacked = base.stacked.get(mount.id)!;
@@ -210,14 +246,19 @@ function overlapWith(box: Box, flat: Float64Array, j: number): number {
 export function probeBase(
 	scene: Scene,
 	resolved: ResolvedScene,
-	ignorePlacementId?: string
+	ignorePlacementId?: string,
+	moving?: MovingControl
 ): ProbeBase {
 	const placements = resolved.placements.filter((rp) => rp.placement.id !== ignorePlacementId);
 	const without: ResolvedScene =
 		ignorePlacementId === undefined ? resolved : { ...resolved, placements };
 	const inner = resolved.innerBox;
 	const mountList = scene.enclosure.mounts;
-	const boxes: WorldBox[] = [...resolved.walls, ...resolved.dividers, ...resolved.brackets];
+	// A control that moves (see probeAcross) is left out of the fixed boxes.
+	const movingId = moving ? `${moving.kind}:${moving.id}` : null;
+	const boxes: WorldBox[] = [...resolved.walls, ...resolved.dividers, ...resolved.brackets].filter(
+		(b) => b.id !== movingId
+	);
 	const groups: number[] = boxes.map(() => 0);
 	const owners: number[] = boxes.map(() => -1);
 	const stacked = new Map<string, ResolvedPlacement[]>(mountList.map((m) => [m.id, []]));
@@ -246,6 +287,18 @@ export function probeBase(
 			owners.push(k + 1);
 		}
 	});
+	// The last slot holds the moving control's box at the position being tried: in no grid cell,
+	// in its own group, switched on by probeAcross alone.
+	const movingGroup = 3 * mountList.length + 1;
+	let movingSlot = -1;
+	if (moving) {
+		const current = [...resolved.dividers, ...resolved.brackets].find((b) => b.id === movingId);
+		if (!current) throw new SceneError('control.id', `No ${moving.kind} with id ${moving.id}`);
+		movingSlot = boxes.length;
+		boxes.push(current);
+		groups.push(movingGroup);
+		owners.push(-1);
+	}
 	const flat = new Float64Array(boxes.length * 6);
 	const obstacle = new Uint8Array(boxes.length);
 	boxes.forEach((b, i) => {
@@ -296,11 +349,14 @@ export function probeBase(
 		model,
 		tally: emptyTally(1),
 		group: Uint16Array.from(groups),
-		active: new Uint8Array(3 * mountList.length + 1),
+		active: new Uint8Array(movingGroup + 1),
+		movingSlot,
+		moving: moving ?? null,
+		bodyFlat: new Float64Array(6 * 8),
 		mounts,
 		mountIndex: new Map(mountList.map((m, k) => [m.id, k])),
 		stacked,
-		grid: buildGrid(boxes, inner)
+		grid: buildGrid(movingSlot < 0 ? boxes : boxes.slice(0, movingSlot), inner)
 	};
 }
 
@@ -311,17 +367,50 @@ export function probe(base: ProbeBase, part: PartDef, placement: Placement): Pro
 
 /** `probe` for a placement already resolved (the same one tried at many positions of a control). */
 export function probePlaced(base: ProbeBase, placed: ResolvedPlacement): ProbeResult {
+	const { report, overlaps } = probeCore(base, placed, true);
+	const { model, tally, boxes } = base;
+	const margin = base.scene.marginMm;
+	const gaps = {} as ProbeResult['gaps'];
+	FACES.forEach((face, f) => {
+		const j = tally.against[f];
+		gaps[face] =
+			j < 0
+				? { gapMm: null, against: null, held: false }
+				: {
+						gapMm: tally.gap[f],
+						against: boxes[j].label,
+						held: isHeldContact(model, 0, f, tally.gap[f], j)
+					};
+	});
+	return {
+		status: placementStatus(model, tally, 0, margin),
+		partStatus: geometricStatus(model, tally, 0, margin),
+		gaps,
+		spareMm: spareOf(model, tally, report),
+		overlaps: overlaps!.sort((x, y) => compareText(x.with, y.with)),
+		outsideFaces: model.outsideFaces[0],
+		mount: report,
+		placed
+	};
+}
+
+/**
+ * Fills the base's model and tally for the candidate as placement 0: its mount, tolerance,
+ * outside faces and mount rank, its overlaps (listed when `list`) and nearest gaps.
+ */
+function probeCore(
+	base: ProbeBase,
+	placed: ResolvedPlacement,
+	list: boolean
+): { report: MountReport | null; overlaps: ProbeResult['overlaps'] | null } {
 	const placement = placed.placement;
 	const { flat, boxes, obstacle, model, tally, group, active } = base;
 	const stacked = activatePlates(base, placed);
-	const margin = base.scene.marginMm;
 	const mount = placement.mountId === undefined ? undefined : base.mounts.get(placement.mountId);
-	const here = (j: number) => active[group[j]] === 1;
-	// Placement 0 of the model is the candidate.
-	const { axis: mountAxis, high: mountHigh } = mount
-		? FACE_AXES[mount.face]
-		: { axis: -1, high: false };
-	model.mountFace[0] = mount ? 2 * mountAxis + (mountHigh ? 1 : 0) : -1;
+	if (mount) {
+		const { axis, high } = FACE_AXES[mount.face];
+		model.mountFace[0] = 2 * axis + (high ? 1 : 0);
+	} else model.mountFace[0] = -1;
 	model.mountOf[0] = mount?.id;
 	model.toleranceMm[0] = placed.part.toleranceMm;
 	model.outsideFaces[0] = facesOutside(base.resolved.innerBox, placed.bodies);
@@ -329,59 +418,59 @@ export function probePlaced(base: ProbeBase, placed: ResolvedPlacement): ProbeRe
 	tally.blocked[0] = 0;
 	tally.gap.fill(Infinity);
 	tally.against.fill(-1);
-	const overlaps: ProbeResult['overlaps'] = [];
+	const overlaps: ProbeResult['overlaps'] | null = list ? [] : null;
 	const g = base.grid;
-	for (const own of [...placed.bodies, ...placed.keepouts]) {
-		const { lo, hi } = cellRange(g, own.box, 0);
-		visitCells(
-			g,
-			lo,
-			hi,
-			(j) => {
-				if (!here(j) || overlapWith(own.box, flat, j) <= 0) return;
-				const kind = pairKind(own, boxes[j]);
-				if (!kind) return;
-				if (kind === 'collides') tally.collides[0] = 1;
-				else if (kind === 'blocked') tally.blocked[0] = 1;
-				overlaps.push({ with: boxes[j].id, label: boxes[j].label, kind });
-			},
-			true
-		);
+	const found = g.found;
+	const owns = placed.keepouts.length ? [...placed.bodies, ...placed.keepouts] : placed.bodies;
+	for (const own of owns) {
+		cellRange(g, own.box, 0);
+		const n = gather(g, g.lo, g.hi, true);
+		for (let q = 0; q < n; q++) {
+			const j = found[q];
+			if (active[group[j]] !== 1 || overlapWith(own.box, flat, j) <= 0) continue;
+			const kind = pairKind(own, boxes[j]);
+			if (!kind) continue;
+			if (kind === 'collides') tally.collides[0] = 1;
+			else if (kind === 'blocked') tally.blocked[0] = 1;
+			overlaps?.push({ with: boxes[j].id, label: boxes[j].label, kind });
+		}
 	}
-	overlaps.sort((x, y) => compareText(x.with, y.with));
 	// Nearest obstacle ahead of each face, over all bodies, by the report's own gap rule.
-	const bodyFlat = new Float64Array(placed.bodies.length * 6);
-	placed.bodies.forEach((body, k) => {
-		bodyFlat.set(body.box.min, k * 6);
-		bodyFlat.set(body.box.max, k * 6 + 3);
-	});
-	placed.bodies.forEach((body, k) => {
-		const b = body.box;
-		const test = (j: number) => {
-			if (obstacle[j] && here(j)) addGap(model, tally, 0, bodyFlat, k, flat, j, j);
-		};
+	const bodyFlat = bodyFlatOf(base, placed);
+	for (let k = 0; k < placed.bodies.length; k++) {
+		const b = placed.bodies[k].box;
 		// The cells the body covers, then layer by layer outward along each axis while a layer could
 		// still hold something nearer than the nearest found on that side.
-		const { lo, hi } = cellRange(g, b, EPSILON_MM);
-		visitCells(g, lo, hi, test, true);
+		cellRange(g, b, EPSILON_MM);
+		let n = gather(g, g.lo, g.hi, true);
+		for (let q = 0; q < n; q++) {
+			const j = found[q];
+			if (obstacle[j] && active[group[j]] === 1) addGap(model, tally, 0, bodyFlat, k, flat, j, j);
+		}
 		for (let a = 0; a < 3; a++) {
-			for (const dir of [1, -1]) {
+			for (let dir = 1; dir >= -1; dir -= 2) {
 				const slot = dir > 0 ? 2 * a + 1 : 2 * a;
-				for (let c = dir > 0 ? hi[a] + 1 : lo[a] - 1; c >= 0 && c < g.dims[a]; c += dir) {
+				for (let c = dir > 0 ? g.hi[a] + 1 : g.lo[a] - 1; c >= 0 && c < g.dims[a]; c += dir) {
 					const near =
 						dir > 0
 							? g.origin[a] + c * g.cell - b.max[a]
 							: b.min[a] - (g.origin[a] + (c + 1) * g.cell);
 					if (near > tally.gap[slot] + EPSILON_MM) break;
-					const l = [...lo];
-					const h = [...hi];
-					l[a] = c;
-					h[a] = c;
-					visitCells(g, l, h, test, false);
+					g.l.set(g.lo);
+					g.h.set(g.hi);
+					g.l[a] = c;
+					g.h[a] = c;
+					n = gather(g, g.l, g.h, false);
+					for (let q = 0; q < n; q++) {
+						const j = found[q];
+						if (obstacle[j] && active[group[j]] === 1) {
+							addGap(model, tally, 0, bodyFlat, k, flat, j, j);
+						}
+					}
 				}
 			}
 		}
-	});
+	}
 	let report: MountReport | null = null;
 	model.mountRank[0] = STATUS_ORDER.indexOf('clear');
 	if (mount) {
@@ -391,33 +480,109 @@ export function probePlaced(base: ProbeBase, placed: ResolvedPlacement): ProbeRe
 		});
 		model.mountRank[0] = mountRankOf(problemsMarking(report, placement.id));
 	}
-	const partStatus = geometricStatus(model, tally, 0, margin);
-	const status = placementStatus(model, tally, 0, margin);
-	const gaps = {} as ProbeResult['gaps'];
+	return { report, overlaps };
+}
+
+/** The candidate's bodies, six numbers each, in a scratch array of the base. */
+function bodyFlatOf(base: ProbeBase, placed: ResolvedPlacement): Float64Array {
+	const n = placed.bodies.length * 6;
+	if (base.bodyFlat.length < n) base.bodyFlat = new Float64Array(n);
+	const out = base.bodyFlat;
+	for (let k = 0; k < placed.bodies.length; k++) {
+		const { min, max } = placed.bodies[k].box;
+		out[k * 6] = min[0];
+		out[k * 6 + 1] = min[1];
+		out[k * 6 + 2] = min[2];
+		out[k * 6 + 3] = max[0];
+		out[k * 6 + 4] = max[1];
+		out[k * 6 + 5] = max[2];
+	}
+	return out;
+}
+
+/** Smallest free distance on a face that is not held, or the mount's spare when smaller; null when neither. */
+function spareOf(model: Model, tally: Tally, report: MountReport | null): number | null {
 	let spareMm: number | null = null;
-	FACES.forEach((face, f) => {
+	for (let f = 0; f < 6; f++) {
 		const j = tally.against[f];
 		const gap = tally.gap[f];
-		const held = isHeldContact(model, 0, f, gap, j);
-		gaps[face] =
-			j < 0
-				? { gapMm: null, against: null, held: false }
-				: { gapMm: gap, against: boxes[j].label, held };
-		if (j >= 0 && !held && (spareMm === null || gap < spareMm)) spareMm = gap;
-	});
+		if (j >= 0 && !isHeldContact(model, 0, f, gap, j) && (spareMm === null || gap < spareMm)) {
+			spareMm = gap;
+		}
+	}
 	if (report && report.spareMm !== null && (spareMm === null || report.spareMm < spareMm)) {
 		spareMm = report.spareMm;
 	}
-	return {
-		status,
-		partStatus,
-		gaps,
-		spareMm,
-		overlaps,
-		outsideFaces: model.outsideFaces[0],
-		mount: report,
-		placed
-	};
+	return spareMm;
+}
+
+export interface CellResult {
+	status: FitStatus;
+	spareMm: number | null;
+}
+
+/** The moving control's world box at an offset, as resolveScene builds it. */
+export function movingBoxAt(base: ProbeBase, offsetMm: number): WorldBox {
+	const c = base.moving!;
+	const enclosure = base.scene.enclosure;
+	if (c.kind === 'divider') {
+		return dividerWorldBox(
+			enclosure,
+			enclosure.dividers.find((d) => d.id === c.id)!,
+			offsetMm
+		);
+	}
+	return bracketWorldBox(
+		enclosure.brackets.find((b) => b.id === c.id)!,
+		offsetMm
+	);
+}
+
+/**
+ * One placement (whose landing does not depend on the control) at every position of the base's
+ * moving control: probed once against the fixed boxes, then per position only the control's box
+ * is added (its overlaps through pairKind, its gaps through addGap) and the status taken again
+ * by placementStatus. Overlaps and nearest gaps are a union and a minimum (ties to the smaller
+ * id), so this is the full probe's answer at each position; the mount's stack does not move.
+ */
+export function probeAcross(
+	base: ProbeBase,
+	placed: ResolvedPlacement,
+	at: readonly WorldBox[]
+): CellResult[] {
+	const slot = base.movingSlot;
+	if (slot < 0) throw new Error('probeAcross needs a base with a moving control');
+	const { report } = probeCore(base, placed, false);
+	const { model, tally, flat, boxes } = base;
+	const gap = Float64Array.from(tally.gap);
+	const against = Int32Array.from(tally.against);
+	const collides = tally.collides[0];
+	const blocked = tally.blocked[0];
+	const own = placed.keepouts.length ? [...placed.bodies, ...placed.keepouts] : placed.bodies;
+	const bodyFlat = bodyFlatOf(base, placed);
+	const margin = base.scene.marginMm;
+	return at.map((w) => {
+		tally.gap.set(gap);
+		tally.against.set(against);
+		tally.collides[0] = collides;
+		tally.blocked[0] = blocked;
+		boxes[slot] = w;
+		flat.set(w.box.min, slot * 6);
+		flat.set(w.box.max, slot * 6 + 3);
+		for (const b of own) {
+			if (overlapWith(b.box, flat, slot) <= 0) continue;
+			const kind = pairKind(b, w);
+			if (kind === 'collides') tally.collides[0] = 1;
+			else if (kind === 'blocked') tally.blocked[0] = 1;
+		}
+		for (let k = 0; k < placed.bodies.length; k++) {
+			addGap(model, tally, 0, bodyFlat, k, flat, slot, slot);
+		}
+		return {
+			status: placementStatus(model, tally, 0, margin),
+			spareMm: spareOf(model, tally, report)
+		};
+	});
 }
 
 /** Common practice: a G 1/4 fitting is about 22 mm across and stands about 20 mm off its port. */
