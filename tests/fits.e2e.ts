@@ -79,3 +79,37 @@ test('parts × positions for two cards: the demo card at 3 slots has 2.0 mm spar
 	await expect(grid.locator('tbody tr')).toHaveCount(2);
 	await expect(grid.locator('[data-cell^="demo-card-block@"]')).toHaveCount(3);
 });
+
+test('parts × positions in the compare view: two cards, read a cell in each variant', async ({
+	page
+}) => {
+	await restoreDemoVariant();
+	await openEditor(page);
+	// A second variant to compare with: a fork of the demo variant, the same scene.
+	await page.getByRole('button', { name: '+ Fork' }).click();
+	await page.waitForURL(/variant=/);
+	await expect(page.getByTestId('editor')).toHaveAttribute('data-ready', 'true');
+	const forkId = new URL(page.url()).searchParams.get('variant')!;
+	await page.goto(`/builds/demo-build/compare?variants=demo-variant-a,${forkId}`);
+	await page
+		.getByLabel('Compare parts × positions: the place')
+		.selectOption({ label: 'in place of Compact graphics card, two slots, 185 mm' });
+	await page.getByLabel('Compare parts × positions: kind of part').selectOption('gpu');
+	await page.getByRole('button', { name: 'List parts' }).click();
+	const pick = page.getByRole('list', { name: 'Parts to compare' });
+	await pick.getByLabel('Compact graphics card, two slots, 185 mm').check();
+	await pick.getByLabel('Graphics card with full-cover block, one slot, 268 mm').check();
+	await page.getByLabel('Compare parts × positions: control').selectOption({ label: 'Spine' });
+	await page.getByRole('button', { name: 'Compare across positions' }).click();
+	const grid = page.getByRole('table', { name: 'Parts × positions in each variant' });
+	// The same answers as in the editor, in both variants: 2.0 mm spare at 3 slots (tight: the card
+	// is ±1 mm, 1 mm in the worst case under the 2 mm margin), a collision at 2 slots.
+	for (const v of [0, 1]) {
+		await expect(grid.locator(`[data-cell="${v}:demo-card@3 slots"]`)).toContainText('tight');
+		await expect(grid.locator(`[data-cell="${v}:demo-card@3 slots"]`)).toContainText(
+			'2.0\u2009mm spare'
+		);
+		await expect(grid.locator(`[data-cell="${v}:demo-card@2 slots"]`)).toContainText('collides');
+	}
+	await expect(grid.locator('tbody tr')).toHaveCount(2);
+});

@@ -123,6 +123,7 @@ export type FitsRequest = {
 	limit?: number;
 	positions?: { kind: 'divider' | 'bracket'; id: string };
 	combinations?: boolean;
+	stream?: boolean;
 };
 export type FitsAnswer = {
 	label: string;
@@ -143,4 +144,51 @@ export async function fitsOnServer(f: Fetch, body: FitsRequest): Promise<FitsAns
 	});
 	if (!res.ok) return problemOf(res);
 	return (await res.json()) as FitsAnswer;
+}
+
+/** One line of a streamed "what fits here": a chunk of candidates, ranked within it. */
+export type FitsChunk = {
+	label: string;
+	fits: FitRow[];
+	left: FitRow[];
+	parts: Record<string, PartDef>;
+	done: number;
+	total: number;
+};
+
+/**
+ * What fits at a target for a large catalogue: the server answers a line per chunk of parts
+ * checked, and `onChunk` gets each as it arrives (the caller merges and ranks them).
+ */
+export async function fitsStreamed(
+	f: Fetch,
+	body: Omit<FitsRequest, 'stream' | 'positions' | 'combinations'>,
+	onChunk: (chunk: FitsChunk) => void
+): Promise<Problem | null> {
+	const res = await f('/api/fits', {
+		method: 'POST',
+		headers: { 'content-type': 'application/json' },
+		body: JSON.stringify({ ...body, stream: true })
+	});
+	if (!res.ok) return problemOf(res);
+	if (!res.body) {
+		for (const line of (await res.text()).split('\n')) if (line) onChunk(JSON.parse(line));
+		return null;
+	}
+	const reader = res.body.pipeThrough(new TextDecoderStream()).getReader();
+	let rest = '';
+	for (;;) {
+		const { value, done } = await reader.read();
+		if (value) rest += value;
+		let nl = rest.indexOf('\n');
+		while (nl >= 0) {
+			const line = rest.slice(0, nl);
+			rest = rest.slice(nl + 1);
+			if (line) onChunk(JSON.parse(line) as FitsChunk);
+			nl = rest.indexOf('\n');
+		}
+		if (done) break;
+	}
+	if (rest.trim()) onChunk(JSON.parse(rest) as FitsChunk);
+	return null;
 }

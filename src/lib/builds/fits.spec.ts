@@ -6,7 +6,6 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import {
-	STATUS_ORDER,
 	checkScene,
 	sceneSchema,
 	type FitStatus,
@@ -30,10 +29,10 @@ import {
 	type FitTarget
 } from './fits';
 
-const worst = (a: FitStatus, b: FitStatus) =>
-	STATUS_ORDER.indexOf(a) <= STATUS_ORDER.indexOf(b) ? a : b;
-
-/** The candidate placed as the row says, checked by the whole engine: its part status, with its mount's. */
+/**
+ * The candidate placed as the row says, checked by the whole engine: the status checkScene gives
+ * its placement (its own overlaps and gaps, and the mount problems that mark it).
+ */
 function engineStatus(
 	scene: Scene,
 	part: PartDef,
@@ -46,11 +45,7 @@ function engineStatus(
 		placements: [...scene.placements.filter((p) => p.id !== replaces), placement]
 	};
 	const report = checkScene(sceneSchema.parse(input));
-	const own = report.parts.find((p) => p.placementId === placement.id)!.status;
-	const mount = placement.mountId
-		? report.mounts.find((m) => m.mountId === placement.mountId)!.status
-		: 'clear';
-	return worst(own, mount);
+	return report.parts.find((p) => p.placementId === placement.id)!.status;
 }
 
 const partArb = (i: number) =>
@@ -99,6 +94,20 @@ const catalogueArb = fc
 	.integer({ min: 1, max: 8 })
 	.chain((n) => fc.tuple(...Array.from({ length: n }, (_, i) => partArb(i))));
 
+/** The demo scene with a 10 mm SFX-class block on the front radiator mount, which takes 240 and 280. */
+function withStray(): Scene {
+	const input = demoSceneInput();
+	const stray = blockPart('stray', [10, 10, 10], { specs: { psuFormFactor: 'SFX' } });
+	return sceneSchema.parse({
+		...input,
+		parts: [...input.parts!, stray],
+		placements: [
+			...input.placements!,
+			{ id: 'stray', partId: 'stray', position: [0, 0, 1], mountId: 'radiator' }
+		]
+	});
+}
+
 const targets: { target: FitTarget; scene: () => Scene; replaces: string | null }[] = [
 	{
 		target: { kind: 'mount', mountId: 'radiator' },
@@ -118,6 +127,12 @@ const targets: { target: FitTarget; scene: () => Scene; replaces: string | null 
 	{
 		target: { kind: 'compartment', compartmentId: 'bulkhead.high+spine.low' },
 		scene: demoScene,
+		replaces: null
+	},
+	{
+		// A part the mount does not take sits on it: its problem marks it alone, not a candidate.
+		target: { kind: 'mount', mountId: 'radiator' },
+		scene: withStray,
 		replaces: null
 	},
 	{ target: { kind: 'replace', placementId: 'card' }, scene: demoScene, replaces: 'card' },
@@ -235,6 +250,51 @@ describe('what fits here against checkScene', () => {
 });
 
 describe('parts × positions', () => {
+	it('every cell is the status checkScene gives the part placed there at that position (random catalogues)', () => {
+		const tables: { target: FitTarget; scene: () => Scene; replaces: string | null }[] = [
+			targets[0],
+			targets[2],
+			targets[3],
+			targets[5]
+		];
+		fc.assert(
+			fc.property(
+				catalogueArb,
+				fc.integer({ min: 0, max: tables.length - 1 }),
+				fc.constantFrom(0, 2),
+				(parts, t, margin) => {
+					const { target, replaces } = tables[t];
+					const scene = { ...tables[t].scene(), marginMm: margin };
+					const table = partsByPositions(
+						scene,
+						target,
+						parts.map((part) => ({ part })),
+						{ kind: 'divider', id: 'spine' }
+					);
+					table.positions.forEach((position, k) => {
+						const at: Scene = {
+							...scene,
+							dividerPositions: { ...scene.dividerPositions, spine: position.offsetMm }
+						};
+						const listed = whatFits(
+							at,
+							target,
+							parts.map((part) => ({ part }))
+						);
+						for (const row of [...listed.fits, ...listed.left]) {
+							const cell = table.rows.find((r) => r.partId === row.partId)!.cells[k];
+							expect(cell.fits).toBe(row.fits);
+							if (!row.placement) continue;
+							const part = parts.find((p) => p.id === row.partId)!;
+							expect(cell.status).toBe(engineStatus(at, part, row.placement, replaces));
+						}
+					});
+				}
+			),
+			{ numRuns: 40 }
+		);
+	});
+
 	it('the demo card fits at 4 and 3 slots and collides at 2; a 3-slot card only at 4 slots', () => {
 		const scene = demoScene();
 		const card = demoParts().find((p) => p.id === 'demo-card')!;
@@ -292,9 +352,12 @@ describe('radiator + fans on the demo front mount (hand arithmetic)', () => {
 			spareMm: 3,
 			status: 'clear'
 		});
-		// Placed, the radiator sits on the plate 1 mm off the panel; the report may count that
-		// millimetre as a gap under the margin, so the checked scene is clear or tight, never worse.
-		expect(['clear', 'tight']).toContain(by('rad-240-45+2xstd-fan-120-15').checkedStatus);
+		// Placed and checked: the radiator's front face sits on the 1 mm plate (z 1 → 46), held
+		// contact, not a gap; the fans (0 mm tolerance) run z 46 → 61 and the bulkhead starts at
+		// z 64: 64 − 61 = 3 mm, not under the 3 mm margin; sideways the fans have 13 and 17 mm
+		// (x 13 → 133 of 150) and the radiator 13 and 32.5 mm; the stack uses 1 + 45 + 15 = 61 of 64,
+		// 3 spare, not under the margin either. So the whole engine says clear.
+		expect(by('rad-240-45+2xstd-fan-120-15').checkedStatus).toBe('clear');
 		// 36 + 25 = 61: 2 spare, under the 3 mm margin.
 		expect(by('rad-240-36+2xstd-fan-120-25')).toMatchObject({
 			stackMm: 61,

@@ -14,6 +14,8 @@ import {
 	checkScene,
 	formatMm,
 	mountAccepts,
+	partClasses,
+	plateNeeded,
 	resolveScene,
 	type Box,
 	type BracketDef,
@@ -23,17 +25,18 @@ import {
 	type MountDef,
 	type PartDef,
 	type Placement,
-	type ResolvedPlacement,
 	type ResolvedScene,
 	type Rotation,
 	type Scene,
 	type Vec3
 } from '$lib/geometry';
 import {
+	movingBoxAt,
 	probe,
+	probeAcross,
 	probeBase,
-	probePlaced,
 	portUse,
+	type MovingControl,
 	type PortUse,
 	type ProbeBase
 } from '$lib/geometry/fit-probe';
@@ -94,14 +97,19 @@ function insideBox(inner: Box, box: Box): boolean {
 }
 
 /** Checks the target against the scene and prepares the landing rule; bad ids throw SceneError naming the field. */
-export function prepareTarget(scene: Scene, resolved: ResolvedScene, target: FitTarget): Prepared {
+export function prepareTarget(
+	scene: Scene,
+	resolved: ResolvedScene,
+	target: FitTarget,
+	moving?: MovingControl
+): Prepared {
 	const common = { scene, resolved, target };
 	if (target.kind === 'mount') {
 		const mount = scene.enclosure.mounts.find((m) => m.id === target.mountId);
 		if (!mount) throw new SceneError('target.mountId', `No mount with id ${target.mountId}`);
 		return {
 			...common,
-			base: probeBase(scene, resolved),
+			base: probeBase(scene, resolved, undefined, moving),
 			label: mount.label,
 			placementId: nextPlacementId(scene.placements),
 			mount,
@@ -146,7 +154,7 @@ export function prepareTarget(scene: Scene, resolved: ResolvedScene, target: Fit
 	if (!old) {
 		throw new SceneError('target.placementId', `No placement with id ${target.placementId}`);
 	}
-	const base = probeBase(scene, resolved, old.placement.id);
+	const base = probeBase(scene, resolved, old.placement.id, moving);
 	const mount =
 		old.placement.mountId === undefined
 			? null
@@ -351,49 +359,49 @@ export function partsByPositions(
 		name: c.part.name,
 		cells: []
 	}));
-	let landed: (ResolvedPlacement | null | string)[] | null = null;
-	for (const p of positions) {
-		const at: Scene = { ...scene, [key]: { ...scene[key], [control.id]: p.offsetMm } };
-		const prepared = prepareTarget(at, resolveScene(at), target);
-		if (!prepared.movesWithControls && landed === null) {
-			landed = candidates.map((c) => {
-				if (prepared.mount && !mountAccepts(prepared.mount, c.part)) {
-					return `The ${prepared.mount.label} takes ${prepared.mount.accepts.join(', ')}.`;
-				}
-				const l = prepared.land(c.part);
-				if ('reason' in l) return l.reason;
-				return placePart(c.part, {
-					id: prepared.placementId,
-					partId: c.part.id,
-					position: l.position,
-					rotation: l.rotation,
-					...(prepared.mount ? { mountId: prepared.mount.id } : {})
-				});
-			});
-		}
+	const outside = { status: 'outside' as const, spareMm: null, fits: false };
+	if (target.kind === 'mount' || target.kind === 'replace') {
+		// Where a part lands does not depend on the control: land and probe each part once against
+		// the fixed boxes, then add the control's box at each position (probeAcross).
+		const prepared = prepareTarget(scene, resolveScene(scene), target, control);
+		const at = positions.map((p) => movingBoxAt(prepared.base, p.offsetMm));
 		candidates.forEach((c, i) => {
-			if (landed) {
-				// A cell needs only the status and the spare: the probe alone, no row to build.
-				const l = landed[i];
-				if (typeof l === 'string' || l === null) {
-					rows[i].cells.push({ status: 'outside', spareMm: null, fits: false });
-					return;
-				}
-				const r = probePlaced(prepared.base, l);
-				rows[i].cells.push({
-					status: r.status,
-					spareMm: r.spareMm,
-					fits: FIT_STATUSES.includes(r.status)
-				});
+			if (prepared.mount && !mountAccepts(prepared.mount, c.part)) {
+				rows[i].cells = positions.map(() => ({ ...outside, status: 'blocked' as const }));
 				return;
 			}
-			const row = fitRow(prepared, c);
-			rows[i].cells.push(
-				row.placement
-					? { status: row.status, spareMm: row.spareMm, fits: row.fits }
-					: { status: 'outside', spareMm: null, fits: false }
-			);
+			const l = prepared.land(c.part);
+			if ('reason' in l) {
+				rows[i].cells = positions.map(() => ({ ...outside }));
+				return;
+			}
+			const placed = placePart(c.part, {
+				id: prepared.placementId,
+				partId: c.part.id,
+				position: l.position,
+				rotation: l.rotation,
+				...(prepared.mount ? { mountId: prepared.mount.id } : {})
+			});
+			rows[i].cells = probeAcross(prepared.base, placed, at).map((r) => ({
+				status: r.status,
+				spareMm: r.spareMm,
+				fits: FIT_STATUSES.includes(r.status)
+			}));
 		});
+	} else {
+		// In a compartment or a free-space box the landing moves with the control: each position anew.
+		for (const p of positions) {
+			const at: Scene = { ...scene, [key]: { ...scene[key], [control.id]: p.offsetMm } };
+			const prepared = prepareTarget(at, resolveScene(at), target);
+			candidates.forEach((c, i) => {
+				const row = fitRow(prepared, c);
+				rows[i].cells.push(
+					row.placement
+						? { status: row.status, spareMm: row.spareMm, fits: row.fits }
+						: { ...outside }
+				);
+			});
+		}
 	}
 	return {
 		control: { ...control, label: def.label },
@@ -504,14 +512,12 @@ export function radiatorCombinations(
 	for (const rad of radiators) {
 		const cls = rad.part.specs.radiatorClass!;
 		const fanSize = fanSizeOf(cls);
-		const plateMm =
-			mount.plateMm && (mount.plateFor === undefined || mount.plateFor.includes(String(cls)))
-				? mount.plateMm
-				: 0;
-		const availableMm = limit - plateMm - mount.standoffMm;
 		const radT = thicknessAlong(rad.part, axis);
 		for (const fan of fans) {
 			if (fan.part.specs.fanSizeMm !== fanSize) continue;
+			// The plate as the engine counts it for this radiator and these fans.
+			const plateMm = plateNeeded(mount, [...partClasses(rad.part), ...partClasses(fan.part)]);
+			const availableMm = limit - plateMm - mount.standoffMm;
 			const count = Math.max(1, Math.round(cls / fanSize!));
 			const fanT = thicknessAlong(fan.part, axis);
 			const stackMm = radT + fanT;

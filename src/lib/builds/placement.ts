@@ -9,7 +9,7 @@ import {
 	boundsOf,
 	boxSize,
 	mountAccepts,
-	partClasses,
+	stackPlate,
 	placePart,
 	rotateBox,
 	rotationMap,
@@ -44,6 +44,7 @@ const ORIENTATIONS: Rotation[] = (() => {
 	}
 	return out;
 })();
+const ORIENTATION_MAPS = ORIENTATIONS.map(rotationMap);
 
 function turnedSize(part: PartDef, rotation: Rotation): Vec3 {
 	const map = rotationMap(rotation);
@@ -117,12 +118,13 @@ export function freeSpot(room: Box, size: Vec3, blocked: Box[]): Vec3 | null {
 export function flatAlong(part: PartDef, axis: AxisIndex): Rotation {
 	let best = ORIENTATIONS[0];
 	let bestThickness = Infinity;
-	// Quarter turns take boxes to boxes, so the turned bodies' bounds are the turned bounds: one box to turn, not every body.
-	const bounds = boundsOf(part.bodies.map((b) => b.box));
-	for (const r of ORIENTATIONS) {
-		const t = boxSize(rotateBox(rotationMap(r), bounds))[axis];
+	// Quarter turns take boxes to boxes, so the turned bodies' bounds are the turned bounds: one box
+	// to turn, and a turn only permutes the box's sizes (along `axis` it has the size along from[axis]).
+	const size = boxSize(boundsOf(part.bodies.map((b) => b.box)));
+	for (let k = 0; k < ORIENTATIONS.length; k++) {
+		const t = size[ORIENTATION_MAPS[k].from[axis]];
 		if (t < bestThickness - EPSILON_MM) {
-			best = r;
+			best = ORIENTATIONS[k];
 			bestThickness = t;
 		}
 	}
@@ -152,11 +154,7 @@ export function landOnMount(
 	const inner = resolved.innerBox;
 	const mounted = resolved.placements.filter((p) => p.placement.mountId === mount.id);
 	// The adapter plate sits under the stack only for the classes that need it, as the engine counts it.
-	const classes = new Set([part, ...mounted.map((p) => p.part)].flatMap(partClasses));
-	const plate =
-		mount.plateFor === undefined || mount.plateFor.some((c) => classes.has(c))
-			? (mount.plateMm ?? 0)
-			: 0;
+	const plate = stackPlate(mount, [...mounted, { part }]);
 	// Depth from the panel inward already used by the stack.
 	let used = plate + mount.standoffMm;
 	const layers = mounted.map((p) =>

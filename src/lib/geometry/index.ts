@@ -26,7 +26,9 @@ export {
 	mountAccepts,
 	mountPlates,
 	partClasses,
-	plateNeeded
+	plateNeeded,
+	plateBoxes,
+	stackPlate
 } from './mounts';
 export { unionVolume } from './union';
 export { heatBudget, powerBudget } from './budgets';

@@ -104,17 +104,12 @@ export function buildModel(scene: Scene, resolved: ResolvedScene): Model {
 	const reports = mountReports(scene, resolved);
 	const placementIndex = new Map(resolved.placements.map((rp, p) => [rp.placement.id, p]));
 	const mountProblemsOf: MountProblem[][] = resolved.placements.map(() => []);
-	const clearRank = STATUS_ORDER.indexOf('clear');
-	const mountRank = new Uint8Array(resolved.placements.length).fill(clearRank);
 	for (const m of reports) {
 		for (const problem of m.problems) {
-			for (const id of problem.placementIds) {
-				const p = placementIndex.get(id)!;
-				mountProblemsOf[p].push(problem);
-				mountRank[p] = Math.min(mountRank[p], STATUS_ORDER.indexOf(problem.status));
-			}
+			for (const id of problem.placementIds) mountProblemsOf[placementIndex.get(id)!].push(problem);
 		}
 	}
+	const mountRank = Uint8Array.from(mountProblemsOf, mountRankOf);
 	for (const list of mountProblemsOf) {
 		list.sort(
 			(x, y) =>
@@ -143,6 +138,18 @@ export function buildModel(scene: Scene, resolved: ResolvedScene): Model {
 	};
 }
 
+/** STATUS_ORDER index of the worst of the mount problems that mark a placement ('clear' when none). */
+export function mountRankOf(problems: readonly MountProblem[]): number {
+	let rank = STATUS_ORDER.indexOf('clear');
+	for (const problem of problems) rank = Math.min(rank, STATUS_ORDER.indexOf(problem.status));
+	return rank;
+}
+
+/** The problems of a mount report that mark one placement (see MountProblem.placementIds). */
+export function problemsMarking(report: MountReport, placementId: string): MountProblem[] {
+	return report.problems.filter((problem) => problem.placementIds.includes(placementId));
+}
+
 export function writeFlat(flat: Float64Array, i: number, box: Box): void {
 	const o = i * 6;
 	flat[o] = box.min[0];
@@ -153,7 +160,7 @@ export function writeFlat(flat: Float64Array, i: number, box: Box): void {
 	flat[o + 5] = box.max[2];
 }
 
-function facesOutside(inner: Box, bodies: readonly WorldBox[]): Face[] {
+export function facesOutside(inner: Box, bodies: readonly WorldBox[]): Face[] {
 	const out = new Set<Face>();
 	for (const b of bodies) {
 		for (let a = 0; a < 3; a++) {
@@ -293,7 +300,7 @@ function addPair(
  * its gap measured to the inner face, so a body through it reports how far it has gone past.
  * Ties go to the smaller id, so the answer does not depend on the order boxes are visited.
  */
-function addGap(
+export function addGap(
 	model: Model,
 	tally: Tally,
 	p: number,
@@ -587,7 +594,12 @@ export function worstCaseGap(model: Model, p: number, gap: number, against: numb
 	return gap - model.toleranceMm[p] - (other >= 0 ? model.toleranceMm[other] : 0);
 }
 
-function geometricStatus(model: Model, tally: Tally, p: number, marginMm: number): FitStatus {
+export function geometricStatus(
+	model: Model,
+	tally: Tally,
+	p: number,
+	marginMm: number
+): FitStatus {
 	if (tally.collides[p]) return 'collides';
 	if (tally.blocked[p]) return 'blocked';
 	if (model.outsideFaces[p].length > 0) return 'outside';

@@ -94,20 +94,58 @@ function stackLayers(
 }
 
 /**
- * The adapter plate's thickness a mount counts for the parts on it: its plateMm when one of their
- * classes is in plateFor (every class when plateFor is missing), 0 with no parts on it.
+ * The adapter plate's thickness a mount counts for parts of these classes: its plateMm when one
+ * of them is in plateFor (for every class, and for parts of no class, when plateFor is missing).
  */
-export function plateNeeded(mount: MountDef, mounted: readonly { part: PartDef }[]): number {
-	if (mounted.length === 0) return 0;
-	const classes = new Set(mounted.flatMap((rp) => partClasses(rp.part)));
-	const needed = mount.plateFor === undefined || mount.plateFor.some((c) => classes.has(c));
+export function plateNeeded(mount: MountDef, classes: readonly string[]): number {
+	const needed = mount.plateFor === undefined || mount.plateFor.some((c) => classes.includes(c));
 	return needed ? (mount.plateMm ?? 0) : 0;
 }
 
+/** The plate a mount counts for the parts on it (see plateNeeded), 0 with no parts on it. */
+export function stackPlate(mount: MountDef, mounted: readonly { part: PartDef }[]): number {
+	if (mounted.length === 0) return 0;
+	return plateNeeded(
+		mount,
+		mounted.flatMap((rp) => partClasses(rp.part))
+	);
+}
+
 /**
- * The plate and the standoff layer as fixed boxes, so gaps, stack and the 3D view tell one story:
- * over the mount's region on the panel's two axes, the plate from the panel inward, the standoffs
- * (as one layer) on top of it. Only for a mount with parts on it, and only layers thicker than 0.
+ * A mount's plate (plateMm thick, none at 0) and standoff layer as fixed boxes: over the mount's
+ * region on the panel's two axes, the plate from the panel inward, the standoffs (as one layer)
+ * on top of it. Only layers thicker than 0.
+ */
+export function plateBoxes(mount: MountDef, inner: Box, plateMm: number): WorldBox[] {
+	const out: WorldBox[] = [];
+	const { axis, high } = FACE_AXES[mount.face];
+	const layers: [string, string, number][] = [
+		['plate', 'adapter plate', plateMm],
+		['standoff', 'standoffs', mount.standoffMm]
+	];
+	let from = 0;
+	for (const [kind, words, thickness] of layers) {
+		if (!(thickness > 0)) continue;
+		const min: Vec3 = [...mount.region.min];
+		const max: Vec3 = [...mount.region.max];
+		min[axis] = high ? inner.max[axis] - from - thickness : inner.min[axis] + from;
+		max[axis] = min[axis] + thickness;
+		from += thickness;
+		out.push({
+			id: `${kind}:${mount.id}`,
+			kind: 'plate',
+			label: `${mount.label} ${words}`,
+			box: { min, max },
+			ownerId: `${kind}:${mount.id}`,
+			mountId: mount.id
+		});
+	}
+	return out;
+}
+
+/**
+ * The plate and the standoff layer of every mount with parts on it, so gaps, stack and the 3D
+ * view tell one story (see plateBoxes).
  */
 export function mountPlates(
 	enclosure: EnclosureDef,
@@ -118,28 +156,7 @@ export function mountPlates(
 	for (const mount of [...enclosure.mounts].sort((a, b) => compareText(a.id, b.id))) {
 		const mounted = placements.filter((rp) => rp.placement.mountId === mount.id);
 		if (mounted.length === 0) continue;
-		const { axis, high } = FACE_AXES[mount.face];
-		const layers: [string, string, number][] = [
-			['plate', 'adapter plate', plateNeeded(mount, mounted)],
-			['standoff', 'standoffs', mount.standoffMm]
-		];
-		let from = 0;
-		for (const [kind, words, thickness] of layers) {
-			if (!(thickness > 0)) continue;
-			const min: Vec3 = [...mount.region.min];
-			const max: Vec3 = [...mount.region.max];
-			min[axis] = high ? inner.max[axis] - from - thickness : inner.min[axis] + from;
-			max[axis] = min[axis] + thickness;
-			from += thickness;
-			out.push({
-				id: `${kind}:${mount.id}`,
-				kind: 'plate',
-				label: `${mount.label} ${words}`,
-				box: { min, max },
-				ownerId: `${kind}:${mount.id}`,
-				mountId: mount.id
-			});
-		}
+		out.push(...plateBoxes(mount, inner, stackPlate(mount, mounted)));
 	}
 	return out;
 }
@@ -161,7 +178,7 @@ export function mountReport(mount: MountDef, scene: Scene, resolved: ResolvedSce
 	const mounted = resolved.placements.filter((rp) => rp.placement.mountId === mount.id);
 	const { axis } = FACE_AXES[mount.face];
 	const { entries, layersMm } = stackLayers(mount, mounted, resolved.innerBox.max[axis]);
-	const plateMm = plateNeeded(mount, mounted);
+	const plateMm = stackPlate(mount, mounted);
 	const usedMm = plateMm + mount.standoffMm + layersMm;
 	const budgetMm = mount.budgetMm ?? null;
 	const spareMm = budgetMm === null ? null : budgetMm - usedMm;

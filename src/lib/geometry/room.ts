@@ -8,6 +8,7 @@
 import { AXES, EPSILON_MM, boxSize, type AxisIndex, type Face } from './box';
 import { FACE_AXES, bracketBoxAt, compartmentsFor, dividerBoxAt, innerBoxOf } from './enclosure';
 import { SceneError } from './errors';
+import { plateNeeded } from './mounts';
 import { BOARD_THICKNESS_MM } from './fixtures';
 import {
 	byVolume,
@@ -190,10 +191,9 @@ function slabOn(mount: MountDef, inner: Box, depth: number): Box {
 	return box;
 }
 
+/** The plate a part of class `cls` (none: a part of no class) would need: the engine's rule. */
 function plateFor(mount: MountDef, cls: string | null): number {
-	if (!mount.plateMm) return 0;
-	if (mount.plateFor === undefined) return mount.plateMm;
-	return cls !== null && mount.plateFor.includes(cls) ? mount.plateMm : 0;
+	return plateNeeded(mount, cls === null ? [] : [cls]);
 }
 
 function boardClassOf(mount: MountDef): string | null {

@@ -155,4 +155,43 @@ describe('POST /api/fits', () => {
 		expect(table.positions.map((p) => p.label)).toEqual(['4 slots', '3 slots', '2 slots']);
 		expect(table.rows.map((r) => r.partId)).toEqual(['std-fan-120-25', 'std-fan-140-25']);
 	});
+
+	it('streams NDJSON a chunk at a time: the lines add up to the one-shot answer; a bad target is still a 400', async () => {
+		const { client } = await designer();
+		const body = { scene: demoSceneInput(), target: { kind: 'replace', placementId: 'card' } };
+		const whole = await post(client, { ...body, limit: 200 });
+		const once = whole.json<{
+			counts: { fits: number; left: number };
+			fits: { partId: string }[];
+		}>();
+		const res = await post(client, { ...body, stream: true });
+		expect(res.status).toBe(200);
+		expect(res.headers['content-type']).toContain('application/x-ndjson');
+		const lines = res.text
+			.split('\n')
+			.filter(Boolean)
+			.map(
+				(l) =>
+					JSON.parse(l) as {
+						fits: { partId: string }[];
+						left: { partId: string }[];
+						done: number;
+						total: number;
+					}
+			);
+		expect(lines.length).toBeGreaterThan(0);
+		// Each line says how far it has got; the last has checked every candidate.
+		expect(lines.map((l) => l.done)).toEqual([...lines.map((l) => l.done)].sort((a, b) => a - b));
+		expect(lines.at(-1)!.done).toBe(lines.at(-1)!.total);
+		const fits = lines.flatMap((l) => l.fits.map((r) => r.partId)).sort();
+		expect(fits).toEqual(once.fits.map((r) => r.partId).sort());
+		expect(lines.flatMap((l) => l.left).length).toBe(once.counts.left);
+		const bad = await post(client, {
+			scene: demoSceneInput(),
+			target: { kind: 'mount', mountId: 'nope' },
+			stream: true
+		});
+		expect(bad.status).toBe(400);
+		expect(bad.json<{ issues: Issue[] }>().issues[0].path).toBe('target.mountId');
+	});
 });

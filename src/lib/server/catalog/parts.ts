@@ -360,9 +360,10 @@ export async function allParts(
  */
 export async function listPartsForStudio(
 	studioId: string,
-	opts: { q?: string; category?: PartCategory; limit?: number } = {}
+	opts: { q?: string; category?: PartCategory; limit?: number; maxLimit?: number } = {}
 ): Promise<PartRecord[]> {
-	const limit = Math.min(Math.max(opts.limit ?? 50, 1), 200);
+	// 200 for a search list; "what fits here" streams a whole catalogue and asks for more.
+	const limit = Math.min(Math.max(opts.limit ?? 50, 1), opts.maxLimit ?? 200);
 	const rows = await db
 		.select()
 		.from(parts)

@@ -7,13 +7,16 @@ import {
 	partCategorySchema,
 	resolveScene,
 	sceneSchema,
-	type PartDef
+	type PartDef,
+	type Scene
 } from '$lib/geometry';
 import {
 	partsByPositions,
 	radiatorCombinations,
 	whatFits,
-	type FitCandidate
+	type FitCandidate,
+	type FitSort,
+	type FitTarget
 } from '$lib/builds/fits';
 import { apiLimit, problem, readJson } from '$lib/server/api';
 import { catalogAccess } from '$lib/server/catalog/http';
@@ -32,6 +35,9 @@ const target = z.discriminatedUnion('kind', [
 
 /** Most candidates one call weighs, and most cells of a parts × positions table. */
 const MAX_CANDIDATES = 200;
+/** Most candidates a streamed call weighs, and how many go in each line of its answer. */
+const MAX_STREAMED = 2_000;
+const CHUNK = 100;
 const MAX_CELLS = 20_000;
 /** Radiators and fans tried for combinations (each pair is placed and checked). */
 const MAX_COMBINATION_PARTS = 30;
@@ -54,7 +60,12 @@ const body = z.object({
 	/** Parts × positions: every allowed position of this control. */
 	positions: z.object({ kind: z.enum(['divider', 'bracket']), id }).optional(),
 	/** Radiator + fan combinations for a radiator or fan mount. */
-	combinations: z.boolean().default(false)
+	combinations: z.boolean().default(false),
+	/**
+	 * Answer as NDJSON, a line per 100 candidates checked (up to 2,000 from a search), so the
+	 * editor shows results as they come; not with positions or combinations.
+	 */
+	stream: z.boolean().default(false)
 });
 
 const candidateOf = (p: PartRecord): FitCandidate => ({
@@ -91,13 +102,23 @@ export const POST: RequestHandler = async (event) => {
 		const order = new Map(input.filters.partIds.map((p, i) => [p, i]));
 		records.sort((a, b) => order.get(a.id)! - order.get(b.id)!);
 	} else {
+		const limit = input.stream ? MAX_STREAMED : MAX_CANDIDATES;
 		records = await listPartsForStudio(access.studioId, {
 			q: input.filters.q,
 			category: input.filters.category,
-			limit: MAX_CANDIDATES
+			limit,
+			maxLimit: limit
 		});
 	}
 	const candidates = records.map(candidateOf);
+	if (input.stream) {
+		if (input.positions || input.combinations) {
+			return problem(400, 'A streamed answer has no positions or combinations.', [
+				{ path: 'stream', message: 'Ask for positions and combinations without stream' }
+			]);
+		}
+		return streamed(input.scene, input.target, candidates, input.sort);
+	}
 	try {
 		const resolved = resolveScene(input.scene);
 		const found = whatFits(input.scene, input.target, candidates, input.sort, resolved);
@@ -174,3 +195,53 @@ export const POST: RequestHandler = async (event) => {
 		throw e;
 	}
 };
+
+/**
+ * The candidates in chunks of CHUNK, a JSON line each ({ label, fits, left, parts, done, total },
+ * rows ranked within the chunk; the client merges them), the event loop let go between chunks so
+ * each line leaves as soon as it is ready. The target is checked before the first byte: a bad id
+ * is still a 400 naming the field.
+ */
+function streamed(
+	scene: Scene,
+	target: FitTarget,
+	candidates: FitCandidate[],
+	sort: FitSort
+): Response {
+	let resolved;
+	let label: string;
+	try {
+		resolved = resolveScene(scene);
+		label = whatFits(scene, target, [], sort, resolved).label;
+	} catch (e) {
+		if (e instanceof SceneError) {
+			return problem(400, e.message, [{ path: e.path, message: e.message }]);
+		}
+		throw e;
+	}
+	const encoder = new TextEncoder();
+	let done = 0;
+	const stream = new ReadableStream<Uint8Array>({
+		async pull(controller) {
+			const chunk = candidates.slice(done, done + CHUNK);
+			const found = whatFits(scene, target, chunk, sort, resolved);
+			done += chunk.length;
+			const parts: Record<string, PartDef> = {};
+			for (const r of found.fits) parts[r.partId] = chunk.find((c) => c.part.id === r.partId)!.part;
+			const line = {
+				label,
+				fits: found.fits,
+				left: found.left,
+				parts,
+				done,
+				total: candidates.length
+			};
+			controller.enqueue(encoder.encode(`${JSON.stringify(line)}\n`));
+			if (done >= candidates.length) controller.close();
+			else await new Promise((r) => setTimeout(r, 0));
+		}
+	});
+	return new Response(stream, {
+		headers: { 'content-type': 'application/x-ndjson; charset=utf-8', 'cache-control': 'no-store' }
+	});
+}
