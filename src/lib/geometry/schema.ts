@@ -484,7 +484,7 @@ function checkPlacements(scene: SceneShape, parts: Map<string, PartDef>, ctx: Re
 }
 
 /** The checks that tie a scene's parts together, the same for sent and for stored definitions. */
-function refineScene(scene: z.infer<typeof sceneObjectSchema>, ctx: z.RefinementCtx) {
+function refineScene(scene: SceneShape, ctx: RefineCtx) {
 	const parts = checkUniqueIds(scene, ctx);
 	checkControlPositions(scene, ctx);
 	checkPlacements(scene, parts, ctx);
