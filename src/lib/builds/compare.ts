@@ -4,7 +4,7 @@
  */
 import { FACES, STATUS_ORDER, type Face, type FitReport, type FitStatus } from '$lib/geometry';
 import { toCsv } from '$lib/csv';
-import { gapWords } from './words';
+import { gapWords } from '../words/builds';
 
 export type CompareInput = { id: string; name: string; report: FitReport; marginMm: number };
 

@@ -12,7 +12,7 @@ import { roomAt, type RoomFigure } from '$lib/geometry/room';
 import { checkInPool } from './engine/pool';
 import { orthographicViews, type DrawingRoom, type SheetDrawing } from '$lib/builds/orthographic';
 import { buildSheet, checklistKeys, type SheetModel } from '$lib/builds/sheet';
-import { formatMoney } from '$lib/components/client/money';
+import { formatMoney } from '$lib/quotes/money';
 import {
 	requireBuild,
 	requireVariant,

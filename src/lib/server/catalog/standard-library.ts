@@ -7,7 +7,7 @@
  */
 import { SLOT_PITCH_MM, type PartDef } from '$lib/geometry';
 import { BOARD_THICKNESS_MM, standardParts } from '$lib/geometry/fixtures';
-import { oneBody } from '$lib/components/catalog/part-shape';
+import { oneBody } from '$lib/catalog/part-shape';
 
 const PCB_MM = BOARD_THICKNESS_MM;
 

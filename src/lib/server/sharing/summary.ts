@@ -11,9 +11,9 @@ import {
 	type PartCategory,
 	type ResolvedScene
 } from '$lib/geometry';
-import { CATEGORY_WORDS as SHEET_CATEGORY_WORDS } from '$lib/builds/sheet-words';
-import { gapWords, mountProblemDetail } from '$lib/builds/words';
-import type { FitSummary } from '$lib/components/client/types';
+import { CATEGORY_WORDS as SHEET_CATEGORY_WORDS } from '$lib/words/sheet';
+import { gapWords, mountProblemDetail } from '$lib/words/builds';
+import type { FitSummary } from '$lib/sharing/types';
 
 export type { FitSummary };
 

@@ -37,7 +37,7 @@ import type {
 	DepositState,
 	PartLine,
 	PlacedPart
-} from '$lib/components/client/types';
+} from '$lib/sharing/types';
 
 export type { ClientView };
 

@@ -1,7 +1,7 @@
 import { error, fail } from '@sveltejs/kit';
 import { and, eq, isNull, or, gt, sql } from 'drizzle-orm';
 import { z } from 'zod';
-import { commentForm, EXPIRY_CHOICES, shareForm } from '$lib/components/client/forms';
+import { commentForm, EXPIRY_CHOICES, shareForm } from '$lib/schemas/sharing';
 import { idField } from '$lib/schemas/common';
 import { requireBuild } from '$lib/server/access';
 import { loadVariant, variantsOf } from '$lib/server/builds';

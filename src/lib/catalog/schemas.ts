@@ -4,7 +4,7 @@
  * part is one the engine can resolve.
  */
 import { z } from 'zod';
-import { isCurrencyCode } from '../client/money';
+import { isCurrencyCode } from '../quotes/money';
 import { int4 } from '$lib/schemas/common';
 import {
 	COORD_LIMIT_MM,
