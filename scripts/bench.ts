@@ -18,7 +18,7 @@ import {
 	type SceneInput,
 	type Vec3
 } from '../src/lib/geometry/index';
-import { demoEnclosure } from '../src/lib/geometry/fixtures';
+import { demoEnclosure } from '../src/lib/geometry/standard-library';
 import { roomTable } from '../src/lib/geometry/room';
 import { partsByPositions, type FitCandidate } from '../src/lib/builds/fits';
 import { landOnMount } from '../src/lib/builds/placement';

@@ -5,8 +5,8 @@
  */
 import { describe, expect, it } from 'vitest';
 import { checkScene, resolveScene, type PartDef, type Scene } from '$lib/geometry';
-import { blockPart, makeScene, plainEnclosure } from '$lib/geometry/factories.spec-util';
-import { demoScene } from '$lib/geometry/fixtures';
+import { blockPart, makeScene, plainEnclosure } from '$lib/server/testing/engine-factories';
+import { demoScene } from '$lib/geometry/standard-library';
 import { assemblyPlan, fittingsByThread, pathBox } from './assembly';
 
 function plan(scene: Scene) {

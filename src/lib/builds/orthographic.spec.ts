@@ -6,7 +6,7 @@
 import { OrthographicCamera, Vector3 } from 'three';
 import { describe, expect, it } from 'vitest';
 import { checkScene, resolveScene, sceneSchema, type Box } from '$lib/geometry';
-import { DEMO_SPINE_OFFSETS, demoSceneInput } from '$lib/geometry/fixtures';
+import { DEMO_SPINE_OFFSETS, demoSceneInput } from '$lib/geometry/standard-library';
 import { viewPose } from '$lib/scene/view';
 import { SCALES, layoutFits, orthographicViews, viewsAt, type OrthoView } from './orthographic';
 

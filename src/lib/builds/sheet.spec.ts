@@ -5,7 +5,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { checkScene, resolveScene, sceneSchema, type Scene } from '$lib/geometry';
-import { DEMO_SPINE_OFFSETS, demoSceneInput } from '$lib/geometry/fixtures';
+import { DEMO_SPINE_OFFSETS, demoSceneInput } from '$lib/geometry/standard-library';
 import { CAUTIONS } from './cautions';
 import { buildSheet, checklistKeys, orientationText } from './sheet';
 

@@ -13,7 +13,7 @@ import {
 	type FitReport,
 	type PartDef
 } from '$lib/geometry';
-import { DEMO_SPINE_OFFSETS, demoSceneInput } from '$lib/geometry/fixtures';
+import { DEMO_SPINE_OFFSETS, demoSceneInput } from '$lib/geometry/standard-library';
 import { composeScene, variantSettingsSchema, type VariantSettings } from '$lib/builds/settings';
 import type { Problem, SaveOutcome } from '$lib/api/client';
 import { EditorState, type EditorApi } from './editor-state.svelte';

@@ -10,7 +10,7 @@ import {
 	type PartDef,
 	type Vec3
 } from '$lib/geometry';
-import { demoEnclosure, demoParts, demoTowerEnclosure } from '$lib/geometry/fixtures';
+import { demoEnclosure, demoParts, demoTowerEnclosure } from '$lib/geometry/standard-library';
 import { categoryTemplate, oneBody } from '$lib/catalog/part-shape';
 import { checkEnclosure, checkPart, type PartExtras } from '$lib/catalog/schemas';
 import { db } from '../db';

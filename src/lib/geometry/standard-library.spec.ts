@@ -2,7 +2,7 @@
 import { describe, expect, it } from 'vitest';
 import { checkScene } from './check';
 import { innerSizeMm, innerVolumeLitres } from './enclosure';
-import { DEMO_SPINE_OFFSETS, demoScene, standardParts } from './fixtures';
+import { DEMO_SPINE_OFFSETS, demoScene, standardParts } from './standard-library';
 import { partDefSchema } from './schema';
 
 describe('demo scene', () => {
