@@ -1,5 +1,5 @@
 /**
- * The sheet's content on the demo sandwich (fixtures.ts), with the numbers worked out by hand:
+ * The sheet's content on the demo sandwich (geometry/standard-library.ts), with the numbers worked out by hand:
  * slot pitch 20.32 mm (PCI Express CEM spec), board thickness 1.6 mm (common practice), the
  * cautions of docs/safety.md.
  */

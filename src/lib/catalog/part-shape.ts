@@ -95,7 +95,7 @@ export function categoryTemplate(
 		case 'reservoir':
 			return { keepouts: [fittingsAbove], ports: topPorts(w, h, d, 1) };
 		case 'radiator':
-			// Length along Y (as the engine's fixtures stand radiators), ports on the top end tank.
+			// Length along Y (as the standard library stands radiators), ports on the top end tank.
 			return {
 				keepouts: [{ ...fittingsAbove, label: 'Fittings at the port end' }],
 				ports: topPorts(w, h, d, 2)

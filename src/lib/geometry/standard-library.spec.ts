@@ -1,4 +1,4 @@
-/** The shared fixtures are what the demo seed shows: they must say what they claim. */
+/** The standard library and demo data are what the demo seed shows: they must say what they claim. */
 import { describe, expect, it } from 'vitest';
 import { checkScene } from './check';
 import { innerSizeMm, innerVolumeLitres } from './enclosure';

@@ -1,5 +1,5 @@
 /**
- * Test data for builds: the engine's demo enclosure and parts (src/lib/geometry/fixtures.ts) put
+ * Test data for builds: the engine's demo enclosure and parts (src/lib/geometry/standard-library.ts) put
  * into a studio's own catalogue, and a build with the demo scene saved as its first variant. The
  * studio's parts get ids of their own, so placements are rewritten to them.
  */
