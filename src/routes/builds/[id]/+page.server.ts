@@ -17,11 +17,10 @@ import {
 	canonicalJson,
 	frozenState,
 	latestVersion,
-	nextNumber,
+	nextVersionNumber,
 	recentRevisions,
 	saveVersion
 } from '$lib/server/versions';
-import { db } from '$lib/server/db';
 import { variantSettingsSchema } from '$lib/builds/settings';
 import { line } from '$lib/schemas/common';
 import type { Actions, PageServerLoad } from './$types';
@@ -42,7 +41,7 @@ export const load: PageServerLoad = async ({ locals, params, url }) => {
 	const [latest, frozen, next, revisions] = await Promise.all([
 		latestVersion(loaded.variant.id),
 		frozenState(loaded.variant.id),
-		nextNumber(db, loaded.variant),
+		nextVersionNumber(loaded.variant),
 		recentRevisions(loaded.variant.id, loaded.variant.version)
 	]);
 	// Earlier saved states seed the undo history, so undo reaches back across a reload.
