@@ -17,21 +17,9 @@ import {
 	type PortDef,
 	type Vec3
 } from '$lib/geometry';
+import { CATEGORY_LABELS } from '$lib/words/faces';
 
-export const CATEGORY_LABELS: Record<PartCategory, string> = {
-	board: 'Board',
-	'cpu-block': 'CPU block',
-	gpu: 'Graphics card',
-	pump: 'Pump',
-	reservoir: 'Reservoir',
-	'pump-reservoir': 'Pump-reservoir',
-	radiator: 'Radiator',
-	fan: 'Fan',
-	psu: 'Power supply',
-	fitting: 'Fitting',
-	drive: 'Drive',
-	other: 'Other'
-};
+export { CATEGORY_LABELS };
 export const CATEGORIES = partCategorySchema.options;
 
 export const KEEPOUT_KIND_LABELS: Record<KeepoutDef['kind'], string> = {

@@ -1,16 +1,10 @@
 /**
- * Numbers and directions in the words of the build sheet and the fit report (docs/look-and-words.md): millimetres with one decimal and a thin space, cm³ for interference, litres for
- * enclosures. Pure, shared by the page and the PDF so both say exactly the same.
+ * Numbers and directions in the words of the build sheet and the fit report (docs/look-and-words.md):
+ * millimetres with one decimal and a thin space, cm³ for interference, litres for enclosures. Pure, shared by the page and the PDF so both say exactly the same.
  */
 
-import {
-	formatMm,
-	type Axis,
-	type Face,
-	type FitStatus,
-	type PartCategory,
-	type Vec3
-} from '$lib/geometry';
+import { formatMm, type Axis, type FitStatus, type Vec3 } from '$lib/geometry';
+import { AXIS_TABLE, CATEGORY_WORDS, faceWords } from './faces';
 
 export const THIN = '\u2009';
 
@@ -35,69 +29,34 @@ export function litres(volumeL: number): string {
 	return `${volumeL.toFixed(1)}${THIN}L`;
 }
 
-export const AXIS_WORDS: Record<Axis, string> = { x: 'width', y: 'height', z: 'depth' };
+export const AXIS_WORDS = {
+	x: AXIS_TABLE.x.dimension,
+	y: AXIS_TABLE.y.dimension,
+	z: AXIS_TABLE.z.dimension
+} satisfies Record<Axis, string>;
 
 /** Where a gap on a face of a part lies. */
-export const FACE_SIDE: Record<Face, string> = {
-	'-x': 'to the left',
-	'+x': 'to the right',
-	'-y': 'below',
-	'+y': 'above',
-	'-z': 'in front',
-	'+z': 'behind'
-};
+export const FACE_SIDE = faceWords('toward');
 
 /** The inner-box face a part crosses, as the panel a builder sees there. */
-export const FACE_PANEL: Record<Face, string> = {
-	'-x': 'left panel',
-	'+x': 'right panel',
-	'-y': 'bottom panel',
-	'+y': 'top panel',
-	'-z': 'front panel',
-	'+z': 'back panel'
-};
+export const FACE_PANEL = faceWords('panel');
 
 /** Moving along an axis, in the builder's words. */
 export function moveWord(axis: Axis, sign: 1 | -1): string {
-	const words: Record<Axis, [string, string]> = {
-		x: ['left', 'right'],
-		y: ['down', 'up'],
-		z: ['forward', 'back']
-	};
-	return words[axis][sign > 0 ? 1 : 0];
+	return AXIS_TABLE[axis].moves[sign > 0 ? 1 : 0];
 }
 
 /** Which way a direction points, seen by someone in front of the enclosure. */
-export const POINTS_WORDS: Record<Face, string> = {
-	'-x': 'left',
-	'+x': 'right',
-	'-y': 'down',
-	'+y': 'up',
-	'-z': 'to the front',
-	'+z': 'to the back'
-};
+export const POINTS_WORDS = faceWords('points');
 
 /** The two ends of a travel along an axis, low end first. */
-export const AXIS_ENDS: Record<Axis, [string, string]> = {
-	x: ['left', 'right'],
-	y: ['bottom', 'top'],
-	z: ['front', 'back']
-};
+export const AXIS_ENDS = {
+	x: AXIS_TABLE.x.ends,
+	y: AXIS_TABLE.y.ends,
+	z: AXIS_TABLE.z.ends
+} satisfies Record<Axis, [string, string]>;
 
-export const CATEGORY_WORDS: Record<PartCategory, string> = {
-	board: 'board',
-	'cpu-block': 'CPU block',
-	gpu: 'graphics card',
-	pump: 'pump',
-	reservoir: 'reservoir',
-	'pump-reservoir': 'pump-reservoir',
-	radiator: 'radiator',
-	fan: 'fan',
-	psu: 'power supply',
-	fitting: 'fitting',
-	drive: 'drive',
-	other: 'other'
-};
+export { CATEGORY_WORDS };
 
 export const STATUS_WORDS: Record<FitStatus, string> = {
 	collides: 'collides',
