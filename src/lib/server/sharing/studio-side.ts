@@ -14,7 +14,7 @@ import { createShareLink, linksOfBuild, sendShareMail, shareUrl } from './links'
 import { linkIsActive } from './link-state';
 import { notifyClient } from './notify';
 import { clientStatusOf } from './status';
-import { placementNames } from './summary';
+import { placementNames } from '../../sharing/summary';
 import { addComment, threadOf } from './thread';
 
 const DAY_MS = 24 * 60 * 60 * 1000;

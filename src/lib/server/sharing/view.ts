@@ -28,7 +28,7 @@ import {
 import { paidDeposit } from '../payments';
 import { photosOf } from './photos';
 import { quoteOfVariant } from './quotes';
-import { CATEGORY_WORDS, fitSummary, placementNames } from './summary';
+import { CATEGORY_WORDS, fitSummary, placementNames } from '../../sharing/summary';
 import { approvalState, latestApproval, threadOf } from './thread';
 import type {
 	ClientComment,
