@@ -117,8 +117,12 @@ export function tightestGap(
 	return best;
 }
 
-/** One line for a client: "Everything fits; the tightest gap is 2.0 mm above the CPU block." */
-export function fitSummary(report: FitReport): string {
+/**
+ * The one-line verdict on a report, for lists (the comparison page): "Everything fits; the tightest
+ * gap is 2.0 mm above the CPU block." The client page's fuller summary (headline and sentences) is
+ * fitSummary in $lib/sharing/summary.ts.
+ */
+export function fitVerdict(report: FitReport): string {
 	const c = report.totals.counts;
 	if (c.collides + c.blocked + c.outside > 0) {
 		const parts = [
