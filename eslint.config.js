@@ -4,6 +4,13 @@ import globals from 'globals';
 import ts from 'typescript-eslint';
 import svelteConfig from './svelte.config.js';
 
+/** Specs and test support itself may import test support; nothing else may. */
+const TEST_FILES = ['**/*.spec.ts', 'src/lib/server/testing/**'];
+const TEST_SUPPORT = {
+	group: ['$lib/server/testing', '$lib/server/testing/*', '**/testing/*'],
+	message: 'Test support (src/lib/server/testing/) is for specs, tests/ and scripts/ only.'
+};
+
 export default ts.config(
 	{
 		ignores: [
@@ -48,10 +55,17 @@ export default ts.config(
 		files: ['**/*.svelte', '**/*.svelte.ts', '**/*.svelte.js'],
 		languageOptions: { parserOptions: { parser: ts.parser, svelteConfig } }
 	},
+	// Layers (DEVELOPERS.md): each rule below names what a layer may not import. ESLint keeps one
+	// no-restricted-imports per file, so every layer's entry also carries the test-support rule.
+	{
+		files: ['src/**/*.ts', 'src/**/*.svelte'],
+		ignores: TEST_FILES,
+		rules: { 'no-restricted-imports': ['error', { patterns: [TEST_SUPPORT] }] }
+	},
 	{
 		// The fit engine is pure: no framework, no server, no three.js, no DOM, no Node.
 		files: ['src/lib/geometry/**/*.ts'],
-		ignores: ['src/lib/geometry/**/*.spec.ts'],
+		ignores: TEST_FILES,
 		rules: {
 			'no-restricted-imports': [
 				'error',
@@ -70,11 +84,68 @@ export default ts.config(
 								'@sveltejs/*'
 							],
 							message: 'The geometry module stays pure.'
-						}
+						},
+						TEST_SUPPORT
 					]
 				}
 			],
 			'no-restricted-globals': ['error', 'window', 'document', 'process']
+		}
+	},
+	{
+		files: ['src/lib/server/**/*.ts'],
+		ignores: TEST_FILES,
+		rules: {
+			'no-restricted-imports': [
+				'error',
+				{
+					patterns: [
+						{
+							group: ['$lib/components', '$lib/components/*', '**/components/*'],
+							message:
+								'Services do not import components: move the shared code to its area module ($lib/catalog, $lib/quotes, $lib/sharing, $lib/builds, $lib/words).'
+						},
+						TEST_SUPPORT
+					]
+				}
+			]
+		}
+	},
+	{
+		files: ['src/routes/**/*.ts', 'src/routes/**/*.svelte'],
+		ignores: TEST_FILES,
+		rules: {
+			'no-restricted-imports': [
+				'error',
+				{
+					patterns: [
+						{
+							group: ['$lib/server/db', '$lib/server/db/*', 'drizzle-orm', 'drizzle-orm/*'],
+							message: 'Routes call a service in $lib/server; only services touch the database.'
+						},
+						TEST_SUPPORT
+					]
+				}
+			]
+		}
+	},
+	{
+		files: ['src/lib/components/**/*.ts', 'src/lib/components/**/*.svelte'],
+		ignores: TEST_FILES,
+		rules: {
+			'no-restricted-imports': [
+				'error',
+				{
+					patterns: [
+						{
+							group: ['$lib/server', '$lib/server/*', '**/server/*'],
+							message:
+								'Components run in the browser: take data from the page, types from an area module.'
+						},
+						TEST_SUPPORT
+					]
+				}
+			]
 		}
 	},
 	{

@@ -18,10 +18,10 @@ import {
 	type SceneInput,
 	type Vec3
 } from '../src/lib/geometry/index';
-import { demoEnclosure } from '../src/lib/geometry/fixtures';
+import { demoEnclosure } from '../src/lib/geometry/standard-library';
 import { roomTable } from '../src/lib/geometry/room';
 import { checkLoops, type RunCache } from '../src/lib/geometry/loop';
-import { defaultFittings, defaultTubeKinds } from '../src/lib/geometry/loop-fixtures';
+import { defaultFittings, defaultTubeKinds } from '../src/lib/geometry/loop-library';
 import { bendsOf, norm, sub } from '../src/lib/geometry/loop-path';
 import type { LoopDef } from '../src/lib/geometry/schema';
 import { partsByPositions, type FitCandidate } from '../src/lib/builds/fits';

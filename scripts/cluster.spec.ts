@@ -12,7 +12,7 @@ import { eq } from 'drizzle-orm';
 import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { loadVariant } from '../src/lib/server/builds';
-import { demoBuildIn } from '../src/lib/server/builds.spec-util';
+import { demoBuildIn } from '../src/lib/server/testing/builds';
 import { closeDb, db } from '../src/lib/server/db';
 import { photos } from '../src/lib/server/db/schema';
 import { readObject } from '../src/lib/server/storage';

@@ -45,7 +45,7 @@ function gzipSize(urlPath: string): number {
 /** The re-check the editor runs on each change, and a 100-part scene to run it on. */
 const RECHECK_ENTRY = `
 import { reportFor, resolveScene, sceneSchema } from '$lib/geometry';
-import { demoEnclosure, demoParts, demoSceneInput } from '$lib/geometry/fixtures';
+import { demoEnclosure, demoParts, demoSceneInput } from '../src/lib/geometry/standard-library';
 import { composeScene, variantSettingsSchema } from '$lib/builds/settings';
 
 function recheck(enclosure, parts, settings) {

@@ -15,7 +15,7 @@ import { and, eq } from 'drizzle-orm';
 import postgres from 'postgres';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { forkVariant } from '../src/lib/server/builds';
-import { demoBuildIn } from '../src/lib/server/builds.spec-util';
+import { demoBuildIn } from '../src/lib/server/testing/builds';
 import { closeDb, db } from '../src/lib/server/db';
 import { runMigrations } from '../src/lib/server/db/migrate';
 import { seedStandardLibrary } from '../src/lib/server/seed/catalog';

@@ -11,10 +11,10 @@
  * --pause-ms=N (100, between one account's requests).
  */
 import { resolve } from 'node:path';
-import { demoSceneInput } from '../src/lib/geometry/fixtures';
-import { largestAllowedPile, pileSceneInput } from '../src/lib/geometry/hostile.spec-util';
+import { demoSceneInput } from '../src/lib/geometry/standard-library';
+import { largestAllowedPile, pileSceneInput } from '../src/lib/server/testing/engine-hostile';
 import { closeDb } from '../src/lib/server/db';
-import { sharedDemo } from '../src/lib/server/sharing/test-factory';
+import { sharedDemo } from '../src/lib/server/testing/sharing';
 import { Client, startApp } from '../src/lib/server/testing/app-server';
 
 const args = new Map(

@@ -5,7 +5,7 @@
  * designer's build then shows the approval and the payment.
  */
 import { expect, test, type Page } from '@playwright/test';
-import { demoBuild } from '../src/lib/server/sharing/test-factory';
+import { demoBuild } from '../src/lib/server/testing/sharing';
 import {
 	clearBrowserRateLimits,
 	closeDb,

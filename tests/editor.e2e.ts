@@ -1,6 +1,6 @@
 /**
  * The build editor in Chromium on the seeded demo build ("Quiet desk build", variant "Spine at
- * three slots"). Known answer from the fixtures: with the spine at "2 slots" the card side is
+ * three slots"). Known answer from the demo data (geometry/standard-library.ts): with the spine at "2 slots" the card side is
  * 2 × 20.32 mm (PCI Express CEM spec slot pitch) + 1.04 mm wide, the two-slot card stands 0.96 mm
  * into the spine, a 0.96 × 185 × 120 mm interference (21.3 cm³). The variant is put back to its
  * seeded row before and after, so other tests see the seed.

@@ -7,7 +7,7 @@ import { expect, test, type Page } from '@playwright/test';
 import { eq } from 'drizzle-orm';
 import { db } from '../src/lib/server/db';
 import { builds } from '../src/lib/server/db/schema';
-import { clearTicks, createSheetBuild } from '../src/lib/server/sheet-test-build';
+import { clearTicks, createSheetBuild } from '../src/lib/server/testing/sheet-build';
 import {
 	clearBrowserRateLimits,
 	closeDb,

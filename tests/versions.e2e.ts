@@ -5,7 +5,7 @@
  */
 import { expect, test } from '@playwright/test';
 import { createShareLink } from '../src/lib/server/sharing/links';
-import { demoBuild } from '../src/lib/server/sharing/test-factory';
+import { demoBuild } from '../src/lib/server/testing/sharing';
 import {
 	clearBrowserRateLimits,
 	closeDb,

@@ -5,8 +5,8 @@
  */
 import { describe, expect, it } from 'vitest';
 import { checkScene, resolveScene, type PartDef, type Scene } from '$lib/geometry';
-import { blockPart, makeScene, plainEnclosure } from '$lib/geometry/factories.spec-util';
-import { demoScene } from '$lib/geometry/fixtures';
+import { blockPart, makeScene, plainEnclosure } from '$lib/server/testing/engine-factories';
+import { demoScene } from '$lib/geometry/standard-library';
 import { assemblyPlan, fittingsByThread, pathBox } from './assembly';
 
 function plan(scene: Scene) {
@@ -16,7 +16,7 @@ function plan(scene: Scene) {
 
 const order = (scene: Scene) => plan(scene).plan.steps.map((s) => s.placementId);
 
-describe('the demo sandwich (fixtures.ts), worked by hand', () => {
+describe('the demo sandwich (geometry/standard-library.ts), worked by hand', () => {
 	/*
 	 * Board on the left tray: its way in is the room to its right up to the spine (x 12.6 → 86),
 	 * over its own height and depth; the CPU block sits there, so the board goes first. The

@@ -35,6 +35,7 @@ import type {
 	ResolvedScene,
 	Scene
 } from '$lib/geometry';
+import { faceWords } from '$lib/words/faces';
 
 /** Tie-break when geometry leaves parts unordered (common practice, see the module comment). */
 const CATEGORY_RANK: Record<PartCategory, number> = {
@@ -59,14 +60,7 @@ const FREE_DIRECTIONS: readonly Face[] = ['+y', '-z', '+z', '-x', '+x', '-y'];
 const ACCESS_KINDS = new Set(['fitting', 'cable', 'service']);
 
 /** Where a part comes in from, in words: the side of the enclosure its path opens to. */
-export const FROM_WORDS: Record<Face, string> = {
-	'-x': 'from the left',
-	'+x': 'from the right',
-	'-y': 'from below',
-	'+y': 'from above',
-	'-z': 'from the front',
-	'+z': 'from the back'
-};
+export const FROM_WORDS = faceWords('from');
 
 export type OrderReason =
 	| { kind: 'path'; direction: Face }

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { checkScene, sceneSchema, type Scene } from '$lib/geometry';
-import { demoSceneInput } from '$lib/geometry/fixtures';
+import { demoSceneInput } from '$lib/geometry/standard-library';
 import { compareCsv, compareVariants, type CompareInput } from './compare';
 
 function variant(id: string, scene: Scene): CompareInput {

@@ -4,7 +4,8 @@
  */
 import { FACES, STATUS_ORDER, type Face, type FitReport, type FitStatus } from '$lib/geometry';
 import { toCsv } from '$lib/csv';
-import { gapWords } from './words';
+import { gapWords } from '../words/builds';
+import { faceWords } from '$lib/words/faces';
 
 export type CompareInput = { id: string; name: string; report: FitReport; marginMm: number };
 
@@ -293,14 +294,7 @@ function loopRows(inputs: CompareInput[]): DiffRow[] {
 	return rows;
 }
 
-const FACE_LABEL: Record<Face, string> = {
-	'-x': 'left',
-	'+x': 'right',
-	'-y': 'below',
-	'+y': 'above',
-	'-z': 'front',
-	'+z': 'behind'
-};
+const FACE_LABEL = faceWords('side');
 
 /** "+2.0" / "−20.3": the change against the first variant, in the row's unit. */
 export function deltaText(delta: number | null): string {

@@ -13,14 +13,14 @@ import {
 	type Scene,
 	type SceneInput
 } from '$lib/geometry';
-import { blockPart, makeScene } from '$lib/geometry/factories.spec-util';
+import { blockPart, makeScene } from '$lib/server/testing/engine-factories';
 import {
 	demoEnclosure,
 	demoParts,
 	demoScene,
 	demoSceneInput,
 	standardPart
-} from '$lib/geometry/fixtures';
+} from '$lib/geometry/standard-library';
 import {
 	partsByPositions,
 	radiatorCombinations,

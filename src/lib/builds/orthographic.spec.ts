@@ -6,8 +6,8 @@
 import { OrthographicCamera, Vector3 } from 'three';
 import { describe, expect, it } from 'vitest';
 import { checkScene, resolveScene, sceneSchema, type Box } from '$lib/geometry';
-import { DEMO_SPINE_OFFSETS, demoSceneInput } from '$lib/geometry/fixtures';
-import { viewPose } from '$lib/components/scene/view';
+import { DEMO_SPINE_OFFSETS, demoSceneInput } from '$lib/geometry/standard-library';
+import { viewPose } from '$lib/scene/view';
 import { SCALES, layoutFits, orthographicViews, viewsAt, type OrthoView } from './orthographic';
 
 const room = { widthMm: 186, heightMm: 251, gutterMm: 8 };

@@ -30,7 +30,7 @@ import {
 	type Scene,
 	type WorldBox
 } from '$lib/geometry';
-import { AXIS_WORDS, mm } from './sheet-words';
+import { AXIS_WORDS, mm } from '../words/sheet';
 
 export type ViewId = 'front' | 'top' | 'side';
 

@@ -27,8 +27,8 @@ import {
 	demoScene,
 	demoSceneInput,
 	standardPart
-} from '$lib/geometry/fixtures';
-import { blockPart } from '$lib/geometry/factories.spec-util';
+} from '$lib/geometry/standard-library';
+import { blockPart } from '$lib/server/testing/engine-factories';
 import {
 	allowedTurns,
 	freeSpot,

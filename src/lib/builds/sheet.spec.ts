@@ -1,11 +1,11 @@
 /**
- * The sheet's content on the demo sandwich (fixtures.ts), with the numbers worked out by hand:
+ * The sheet's content on the demo sandwich (geometry/standard-library.ts), with the numbers worked out by hand:
  * slot pitch 20.32 mm (PCI Express CEM spec), board thickness 1.6 mm (common practice), the
  * cautions of docs/safety.md.
  */
 import { describe, expect, it } from 'vitest';
 import { checkScene, resolveScene, sceneSchema, type Scene } from '$lib/geometry';
-import { DEMO_SPINE_OFFSETS, demoSceneInput } from '$lib/geometry/fixtures';
+import { DEMO_SPINE_OFFSETS, demoSceneInput } from '$lib/geometry/standard-library';
 import { CAUTIONS } from './cautions';
 import { buildSheet, checklistKeys, orientationText } from './sheet';
 

@@ -37,7 +37,7 @@ import {
 	type OrderEdge
 } from './assembly';
 import { CAUTIONS, PLANNING_NOTE } from './cautions';
-import { gapWords, mountProblemDetail } from './words';
+import { gapWords, mountProblemDetail } from '../words/builds';
 import {
 	AXIS_ENDS,
 	AXIS_WORDS,
@@ -52,7 +52,7 @@ import {
 	moveWord,
 	plural,
 	sizeText
-} from './sheet-words';
+} from '../words/sheet';
 
 export interface SheetInput {
 	buildName: string;

@@ -13,7 +13,7 @@ import {
 	demoEnclosure,
 	demoParts,
 	demoSceneInput
-} from '$lib/geometry/fixtures';
+} from '$lib/geometry/standard-library';
 import { composeScene, type VariantSettings } from './settings';
 import { versionChanges } from './version-diff';
 

@@ -8,7 +8,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { EPSILON_MM } from './box';
 import { checkScene } from './check';
-import { sceneArb } from './factories.spec-util';
+import { sceneArb } from '../server/testing/engine-factories';
 import { pairKind } from './pairs';
 import { allowedIndex, allowedPositions } from './positions';
 import { resolveScene } from './resolve';

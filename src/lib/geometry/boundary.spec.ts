@@ -47,7 +47,7 @@ describe('module boundary', () => {
 				'check.ts',
 				'sweep.ts',
 				'broadphase.ts',
-				'fixtures.ts',
+				'standard-library.ts',
 				'index.ts'
 			])
 		);

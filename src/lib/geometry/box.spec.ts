@@ -10,7 +10,7 @@ import {
 	intersectBoxes,
 	translateBox
 } from './box';
-import { boxArb, gridMm } from './factories.spec-util';
+import { boxArb, gridMm } from '../server/testing/engine-factories';
 import type { Box, Vec3 } from './schema';
 
 /** three.js Box3, the oracle, from and to engine boxes. */

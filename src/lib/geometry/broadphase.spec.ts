@@ -5,7 +5,7 @@ import { Box3, Vector3 } from 'three';
 import { describe, expect, it } from 'vitest';
 import { EPSILON_MM, translateBox } from './box';
 import { overlappingPairs } from './broadphase';
-import { boxArb, gridMm } from './factories.spec-util';
+import { boxArb, gridMm } from '../server/testing/engine-factories';
 import type { Box } from './schema';
 
 /** three.js Box3, the oracle. */

@@ -202,16 +202,17 @@ export function overlappingPairsFlat(
 				const end = counts[cell + 1];
 				for (let p = start; p < end; p++) {
 					const i = members[p];
-					const oi = i * 6;
-					const ax0 = flat[oi];
-					const ay0 = flat[oi + 1];
-					const az0 = flat[oi + 2];
-					const ax1 = flat[oi + 3];
-					const ay1 = flat[oi + 4];
-					const az1 = flat[oi + 5];
-					const rx = range[oi];
-					const ry = range[oi + 1];
-					const rz = range[oi + 2];
+					// boxAt: where box i's six numbers (min xyz, max xyz) start in flat.
+					const boxAt = i * 6;
+					const ax0 = flat[boxAt];
+					const ay0 = flat[boxAt + 1];
+					const az0 = flat[boxAt + 2];
+					const ax1 = flat[boxAt + 3];
+					const ay1 = flat[boxAt + 4];
+					const az1 = flat[boxAt + 5];
+					const rx = range[boxAt];
+					const ry = range[boxAt + 1];
+					const rz = range[boxAt + 2];
 					for (let q = p + 1; q < end; q++) {
 						const j = members[q];
 						const oj = j * 6;

@@ -4,7 +4,7 @@ import { Box3, Vector3 } from 'three';
 import { describe, expect, it } from 'vitest';
 import { EPSILON_MM, boxSize } from './box';
 import { checkScene } from './check';
-import { blockPart, makeScene, plainEnclosure, sceneArb } from './factories.spec-util';
+import { blockPart, makeScene, plainEnclosure, sceneArb } from '../server/testing/engine-factories';
 import { pairKind } from './pairs';
 import { resolveScene } from './resolve';
 import type { Box, PartDef, Scene, Vec3 } from './schema';

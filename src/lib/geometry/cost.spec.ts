@@ -22,9 +22,9 @@ import {
 	sweepExcess
 } from './cost';
 import { EPSILON_MM } from './box';
-import { boxArb, gridMm, sceneArb } from './factories.spec-util';
-import { demoScene } from './fixtures';
-import { largestAllowedPile, pileSceneInput } from './hostile.spec-util';
+import { boxArb, gridMm, sceneArb } from '../server/testing/engine-factories';
+import { demoScene } from './standard-library';
+import { largestAllowedPile, pileSceneInput } from '../server/testing/engine-hostile';
 import { resolveScene } from './resolve';
 import { sceneSchema, type Box } from './schema';
 

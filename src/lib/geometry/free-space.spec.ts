@@ -6,7 +6,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { boxVolume } from './box';
-import { demoScene } from './fixtures';
+import { demoScene } from './standard-library';
 import { freeSpaceAround, freeSpaceAtMount, freeSpaceIn, maximalEmptyBoxes } from './free-space';
 import { resolveScene } from './resolve';
 import type { Box, Vec3 } from './schema';

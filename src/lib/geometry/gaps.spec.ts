@@ -8,7 +8,7 @@ import { describe, expect, it } from 'vitest';
 import { EPSILON_MM, FACES } from './box';
 import { checkScene } from './check';
 import { innerSizeMm } from './enclosure';
-import { sceneArb } from './factories.spec-util';
+import { sceneArb } from '../server/testing/engine-factories';
 import { pairKind } from './pairs';
 import { resolveScene } from './resolve';
 import type { Box, Scene } from './schema';

@@ -1,9 +1,9 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { checkScene } from './check';
-import { blockPart, makeScene, plainEnclosure } from './factories.spec-util';
+import { blockPart, makeScene, plainEnclosure } from '../server/testing/engine-factories';
 import { checkLoops, loopBill, runPieces, type RunCache, type LoopReport } from './loop';
-import { defaultFittings, defaultTubeKinds } from './loop-fixtures';
+import { defaultFittings, defaultTubeKinds } from './loop-library';
 import {
 	add,
 	bendsOf,

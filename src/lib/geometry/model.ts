@@ -5,7 +5,7 @@
  * report cannot disagree.
  */
 
-import { EPSILON_MM, compareText, faceOf, type Face } from './box';
+import { EPSILON_MM, FACES, compareText, faceOf, type Face } from './box';
 import { STATUS_ORDER } from './types';
 import { overlappingPairsFlat } from './broadphase';
 import { FACE_AXES } from './enclosure';
@@ -57,7 +57,8 @@ export interface Model {
 }
 
 /** Face slots in gap arrays: '-x', '+x', '-y', '+y', '-z', '+z'. */
-export const FACE_ORDER: readonly Face[] = ['-x', '+x', '-y', '+y', '-z', '+z'];
+/** The faces in slot order (box.ts's FACES: -x, +x, -y, +y, -z, +z). */
+export const FACE_ORDER: readonly Face[] = FACES;
 
 export function buildModel(scene: Scene, resolved: ResolvedScene): Model {
 	const boxes: WorldBox[] = [
@@ -233,15 +234,15 @@ export function copyTallyInto(from: Tally, into: Tally): Tally {
 	return into;
 }
 
-/** Overlap volume of boxes i (in fa) and j (in fb), or 0 when they only touch or are apart. */
-function overlapVolume(fa: Float64Array, i: number, fb: Float64Array, j: number): number {
+/** Overlap volume of boxes i (in flatA) and j (in flatB), or 0 when they only touch or are apart. */
+function overlapVolume(flatA: Float64Array, i: number, flatB: Float64Array, j: number): number {
 	const a = i * 6;
 	const b = j * 6;
-	const x = Math.min(fa[a + 3], fb[b + 3]) - Math.max(fa[a], fb[b]);
+	const x = Math.min(flatA[a + 3], flatB[b + 3]) - Math.max(flatA[a], flatB[b]);
 	if (!(x > EPSILON_MM)) return 0;
-	const y = Math.min(fa[a + 4], fb[b + 4]) - Math.max(fa[a + 1], fb[b + 1]);
+	const y = Math.min(flatA[a + 4], flatB[b + 4]) - Math.max(flatA[a + 1], flatB[b + 1]);
 	if (!(y > EPSILON_MM)) return 0;
-	const z = Math.min(fa[a + 5], fb[b + 5]) - Math.max(fa[a + 2], fb[b + 2]);
+	const z = Math.min(flatA[a + 5], flatB[b + 5]) - Math.max(flatA[a + 2], flatB[b + 2]);
 	if (!(z > EPSILON_MM)) return 0;
 	return x * y * z;
 }
@@ -258,7 +259,7 @@ export function interferenceUnion(tally: Tally): number {
 	return unionVolume(tally.regions);
 }
 
-/** Boxes i (in fa) and j (in fb) overlap with this meaning. */
+/** Boxes i (in flatA) and j (in flatB) overlap with this meaning. */
 function addPair(
 	model: Model,
 	tally: Tally,
@@ -266,33 +267,33 @@ function addPair(
 	j: number,
 	kind: OverlapKind,
 	volume: number,
-	fa: Float64Array,
-	ia: number,
-	fb: Float64Array,
-	ib: number
+	flatA: Float64Array,
+	slotA: number,
+	flatB: Float64Array,
+	slotB: number
 ): void {
-	const pi = model.owner[i];
-	const pj = model.owner[j];
+	const placementI = model.owner[i];
+	const placementJ = model.owner[j];
 	if (kind === 'collides') {
 		tally.collisions++;
 		tally.interferenceMm3 += volume;
-		const a = ia * 6;
-		const b = ib * 6;
-		for (let k = 0; k < 3; k++) tally.regions.push(Math.max(fa[a + k], fb[b + k]));
-		for (let k = 3; k < 6; k++) tally.regions.push(Math.min(fa[a + k], fb[b + k]));
-		flag(tally, tally.collides, pi);
-		flag(tally, tally.collides, pj);
+		const a = slotA * 6;
+		const b = slotB * 6;
+		for (let k = 0; k < 3; k++) tally.regions.push(Math.max(flatA[a + k], flatB[b + k]));
+		for (let k = 3; k < 6; k++) tally.regions.push(Math.min(flatA[a + k], flatB[b + k]));
+		flag(tally, tally.collides, placementI);
+		flag(tally, tally.collides, placementJ);
 		return;
 	}
 	tally.keepoutMm3 += volume;
 	if (kind === 'blocked') {
-		flag(tally, tally.blocked, pi);
-		flag(tally, tally.blocked, pj);
+		flag(tally, tally.blocked, placementI);
+		flag(tally, tally.blocked, placementJ);
 	}
 }
 
 /**
- * Nearest box ahead of each face of body `bi` (of placement p). A box counts for the +a face when
+ * Nearest box ahead of each face of body `bodySlot` (of placement `placement`). A box counts for the +a face when
  * it shares area with the body seen along a and reaches past that face (its max beyond the body's
  * max by more than EPSILON_MM), or lies within the body's span along a on the +a side of its
  * centre (a thin divider the body went through): then the gap is its min − the body's max,
@@ -303,58 +304,103 @@ function addPair(
 export function addGap(
 	model: Model,
 	tally: Tally,
-	p: number,
-	fb: Float64Array,
-	bi: number,
-	fo: Float64Array,
-	oi: number,
+	placement: number,
+	bodyFlat: Float64Array,
+	bodySlot: number,
+	obstacleFlat: Float64Array,
+	obstacleSlot: number,
 	obstacleIndex: number
 ): void {
-	const b = bi * 6;
-	const o = oi * 6;
-	const ox = Math.min(fb[b + 3], fo[o + 3]) - Math.max(fb[b], fo[o]) > EPSILON_MM;
-	const oy = Math.min(fb[b + 4], fo[o + 4]) - Math.max(fb[b + 1], fo[o + 1]) > EPSILON_MM;
-	if (!ox && !oy) {
+	const bodyAt = bodySlot * 6;
+	const obstacleAt = obstacleSlot * 6;
+	const sharesX =
+		Math.min(bodyFlat[bodyAt + 3], obstacleFlat[obstacleAt + 3]) -
+			Math.max(bodyFlat[bodyAt], obstacleFlat[obstacleAt]) >
+		EPSILON_MM;
+	const sharesY =
+		Math.min(bodyFlat[bodyAt + 4], obstacleFlat[obstacleAt + 4]) -
+			Math.max(bodyFlat[bodyAt + 1], obstacleFlat[obstacleAt + 1]) >
+		EPSILON_MM;
+	if (!sharesX && !sharesY) {
 		return;
 	}
-	const oz = Math.min(fb[b + 5], fo[o + 5]) - Math.max(fb[b + 2], fo[o + 2]) > EPSILON_MM;
-	if (oy && oz) gapAlong(model, tally, p, fb, b, fo, o, 0, obstacleIndex);
-	if (ox && oz) gapAlong(model, tally, p, fb, b, fo, o, 1, obstacleIndex);
-	if (ox && oy) gapAlong(model, tally, p, fb, b, fo, o, 2, obstacleIndex);
+	const sharesZ =
+		Math.min(bodyFlat[bodyAt + 5], obstacleFlat[obstacleAt + 5]) -
+			Math.max(bodyFlat[bodyAt + 2], obstacleFlat[obstacleAt + 2]) >
+		EPSILON_MM;
+	if (sharesY && sharesZ) {
+		gapAlong(model, tally, placement, bodyFlat, bodyAt, obstacleFlat, obstacleAt, 0, obstacleIndex);
+	}
+	if (sharesX && sharesZ) {
+		gapAlong(model, tally, placement, bodyFlat, bodyAt, obstacleFlat, obstacleAt, 1, obstacleIndex);
+	}
+	if (sharesX && sharesY) {
+		gapAlong(model, tally, placement, bodyFlat, bodyAt, obstacleFlat, obstacleAt, 2, obstacleIndex);
+	}
 }
 
-/** The obstacle shares area with the body seen along axis a: offer it to the face it is ahead of. */
+/** The obstacle shares area with the body seen along `axis`: offer it to the face it is ahead of. */
 function gapAlong(
 	model: Model,
 	tally: Tally,
-	p: number,
-	fb: Float64Array,
-	b: number,
-	fo: Float64Array,
-	o: number,
-	a: number,
+	placement: number,
+	bodyFlat: Float64Array,
+	bodyAt: number,
+	obstacleFlat: Float64Array,
+	obstacleAt: number,
+	axis: number,
 	obstacleIndex: number
 ): void {
 	const side = model.wallSide[obstacleIndex];
 	if (side >= 0) {
-		if (side >> 1 !== a) return;
+		if (side >> 1 !== axis) return;
 		const inner = model.resolved.innerBox;
 		if (side & 1) {
-			offerGap(model, tally, p * 6 + 2 * a + 1, inner.max[a] - fb[b + 3 + a], obstacleIndex);
-		} else offerGap(model, tally, p * 6 + 2 * a, fb[b + a] - inner.min[a], obstacleIndex);
+			offerGap(
+				model,
+				tally,
+				placement * 6 + 2 * axis + 1,
+				inner.max[axis] - bodyFlat[bodyAt + 3 + axis],
+				obstacleIndex
+			);
+		} else {
+			offerGap(
+				model,
+				tally,
+				placement * 6 + 2 * axis,
+				bodyFlat[bodyAt + axis] - inner.min[axis],
+				obstacleIndex
+			);
+		}
 		return;
 	}
-	const beyondHigh = fo[o + 3 + a] > fb[b + 3 + a] + EPSILON_MM;
-	const beyondLow = fo[o + a] < fb[b + a] - EPSILON_MM;
-	// A box within the body's span along a (a thin divider the body went through) goes to the face
+	const beyondHigh = obstacleFlat[obstacleAt + 3 + axis] > bodyFlat[bodyAt + 3 + axis] + EPSILON_MM;
+	const beyondLow = obstacleFlat[obstacleAt + axis] < bodyFlat[bodyAt + axis] - EPSILON_MM;
+	// A box within the body's span along the axis (a thin divider the body went through) goes to the face
 	// on its side of the body's centre.
 	const within = !beyondHigh && !beyondLow;
-	const centre = fo[o + a] + fo[o + 3 + a] - fb[b + a] - fb[b + 3 + a];
+	const centre =
+		obstacleFlat[obstacleAt + axis] +
+		obstacleFlat[obstacleAt + 3 + axis] -
+		bodyFlat[bodyAt + axis] -
+		bodyFlat[bodyAt + 3 + axis];
 	if (beyondHigh || (within && centre >= 0)) {
-		offerGap(model, tally, p * 6 + 2 * a + 1, fo[o + a] - fb[b + 3 + a], obstacleIndex);
+		offerGap(
+			model,
+			tally,
+			placement * 6 + 2 * axis + 1,
+			obstacleFlat[obstacleAt + axis] - bodyFlat[bodyAt + 3 + axis],
+			obstacleIndex
+		);
 	}
 	if (beyondLow || (within && centre <= 0)) {
-		offerGap(model, tally, p * 6 + 2 * a, fb[b + a] - fo[o + 3 + a], obstacleIndex);
+		offerGap(
+			model,
+			tally,
+			placement * 6 + 2 * axis,
+			bodyFlat[bodyAt + axis] - obstacleFlat[obstacleAt + 3 + axis],
+			obstacleIndex
+		);
 	}
 }
 
@@ -394,11 +440,15 @@ function tallyGapsAlong(model: Model, tally: Tally, obstacles: readonly number[]
 	for (let q = 0; q < found.count; q++) {
 		const i = obstacles[found.pairs[2 * q]];
 		const j = obstacles[found.pairs[2 * q + 1]];
-		const pi = model.owner[i];
-		const pj = model.owner[j];
-		if (pi === pj) continue;
-		if (pi >= 0) gapAlong(model, tally, pi, model.flat, i * 6, model.flat, j * 6, a, j);
-		if (pj >= 0) gapAlong(model, tally, pj, model.flat, j * 6, model.flat, i * 6, a, i);
+		const placementI = model.owner[i];
+		const placementJ = model.owner[j];
+		if (placementI === placementJ) continue;
+		if (placementI >= 0) {
+			gapAlong(model, tally, placementI, model.flat, i * 6, model.flat, j * 6, a, j);
+		}
+		if (placementJ >= 0) {
+			gapAlong(model, tally, placementJ, model.flat, j * 6, model.flat, i * 6, a, i);
+		}
 	}
 }
 

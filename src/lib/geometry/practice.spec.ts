@@ -6,14 +6,14 @@
  */
 import { describe, expect, it } from 'vitest';
 import { checkScene } from './check';
-import { blockPart, makeScene } from './factories.spec-util';
+import { blockPart, makeScene } from '../server/testing/engine-factories';
 import {
 	DEMO_SPINE_OFFSETS,
 	demoEnclosure,
 	demoParts,
 	demoSceneInput,
 	standardPart
-} from './fixtures';
+} from './standard-library';
 import type { PartDef, SceneInput, Vec3 } from './schema';
 
 function radiator(cls: 240 | 280, thicknessMm: number): PartDef {

@@ -6,7 +6,7 @@
  * 20.32 mm from the PCI Express CEM spec; board thickness 1.6 mm from memory.
  */
 import { describe, expect, it } from 'vitest';
-import { DEMO_SPINE_OFFSETS, demoEnclosure, demoTowerEnclosure } from './fixtures';
+import { DEMO_SPINE_OFFSETS, demoEnclosure, demoTowerEnclosure } from './standard-library';
 import { roomTable, type RoomRow } from './room';
 import type { EnclosureDef } from './schema';
 

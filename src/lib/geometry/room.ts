@@ -9,7 +9,7 @@ import { AXES, EPSILON_MM, boxSize, type AxisIndex, type Face } from './box';
 import { FACE_AXES, bracketBoxAt, compartmentsFor, dividerBoxAt, innerBoxOf } from './enclosure';
 import { SceneError } from './errors';
 import { plateNeeded } from './mounts';
-import { BOARD_THICKNESS_MM } from './fixtures';
+import { BOARD_THICKNESS_MM } from './standard-library';
 import {
 	byVolume,
 	containerLabels,

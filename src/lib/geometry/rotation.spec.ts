@@ -2,7 +2,7 @@
 import fc from 'fast-check';
 import { Box3, Matrix4, Vector3 } from 'three';
 import { describe, expect, it } from 'vitest';
-import { boxArb, gridMm } from './factories.spec-util';
+import { boxArb, gridMm } from '../server/testing/engine-factories';
 import { rotateBox, rotateDirection, rotatePoint, rotationMap } from './rotation';
 import type { Box, Rotation, Vec3 } from './schema';
 

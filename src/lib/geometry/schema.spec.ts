@@ -5,8 +5,8 @@ import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
 import { checkScene } from './check';
 import { SceneError } from './errors';
-import { blockPart, plainEnclosure } from './factories.spec-util';
-import { demoEnclosure, demoSceneInput, standardParts } from './fixtures';
+import { blockPart, plainEnclosure } from '../server/testing/engine-factories';
+import { demoEnclosure, demoSceneInput, standardParts } from './standard-library';
 import { resolveScene } from './resolve';
 import {
 	enclosureDefSchema,

@@ -2,8 +2,13 @@
 import { describe, expect, it } from 'vitest';
 import { checkScene } from './check';
 import { compartmentsFor } from './enclosure';
-import { makeScene, plainEnclosure } from './factories.spec-util';
-import { DEMO_SPINE_OFFSETS, demoEnclosure, demoSceneInput, standardPart } from './fixtures';
+import { makeScene, plainEnclosure } from '../server/testing/engine-factories';
+import {
+	DEMO_SPINE_OFFSETS,
+	demoEnclosure,
+	demoSceneInput,
+	standardPart
+} from './standard-library';
 import { SLOT_PITCH_MM, type EnclosureDef, type Vec3 } from './schema';
 
 const sizeOf = (enclosure: EnclosureDef, positions: Record<string, number>, id: string) =>

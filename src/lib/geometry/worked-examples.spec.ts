@@ -5,8 +5,8 @@
  */
 import { describe, expect, it } from 'vitest';
 import { checkScene } from './check';
-import { blockPart, makeScene, plainEnclosure } from './factories.spec-util';
-import { demoEnclosure, standardPart } from './fixtures';
+import { blockPart, makeScene, plainEnclosure } from '../server/testing/engine-factories';
+import { demoEnclosure, standardPart } from './standard-library';
 import { SLOT_PITCH_MM, type PartDef, type Vec3 } from './schema';
 
 describe('a two-slot card flush against a divider at a slot offset (PCI Express CEM: 20.32 mm pitch)', () => {

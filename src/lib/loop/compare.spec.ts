@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { checkScene, sceneSchema, type PartDef, type SceneInput } from '$lib/geometry';
-import { defaultFittings, defaultTubeKinds } from '$lib/geometry/loop-fixtures';
+import { defaultFittings, defaultTubeKinds } from '$lib/geometry/loop-library';
 import { compareVariants } from '$lib/builds/compare';
 
 /**

@@ -3,8 +3,9 @@
  * endpoint asks here; layouts are never trusted to have checked.
  */
 import { error, redirect } from '@sveltejs/kit';
-import { and, eq, gt, isNull, or, sql } from 'drizzle-orm';
+import { and, eq } from 'drizzle-orm';
 import type { SessionUser } from './auth';
+import { linkIsActive, linkState } from './sharing/link-state';
 import { db } from './db';
 import {
 	builds,
@@ -164,13 +165,6 @@ export async function requireBuild(locals: Locals, buildId: string, action: Acti
 	return { build, access };
 }
 
-/** A share link that still works: not revoked, not past its expiry. */
-const linkIsActive = () =>
-	and(
-		isNull(shareLinks.revokedAt),
-		or(isNull(shareLinks.expiresAt), gt(shareLinks.expiresAt, sql`now()`))
-	);
-
 /**
  * Variant ids of this build shared with this signed-in client: an active share link sent to their
  * e-mail address. Revoking the link ends it for them too.
@@ -227,8 +221,6 @@ export function requireLinkHolder(
 	link: Pick<ShareLinkRow, 'revokedAt' | 'expiresAt'>,
 	action: Action
 ) {
-	if (link.revokedAt || (link.expiresAt && link.expiresAt.getTime() <= Date.now())) {
-		error(410, 'This link no longer works.');
-	}
+	if (linkState(link) !== 'active') error(410, 'This link no longer works.');
 	if (!LINK_HOLDER_ACTIONS.includes(action)) error(403, 'A share link does not allow this.');
 }

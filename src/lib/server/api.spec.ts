@@ -7,7 +7,7 @@
 import { randomBytes } from 'node:crypto';
 import { like } from 'drizzle-orm';
 import { afterAll, describe, expect, it } from 'vitest';
-import { demoSceneInput } from '$lib/geometry/fixtures';
+import { demoSceneInput } from '$lib/geometry/standard-library';
 import { closeDb, db } from './db';
 import { rateLimits } from './db/schema';
 import { startApp, type App } from './testing/app-server';

@@ -1,6 +1,9 @@
-/** Small helpers for JSON endpoints: bounded bodies, zod validation with paths, plain errors. */
+/**
+ * The one helper for JSON endpoints (every /api route): bounded bodies, zod validation with paths,
+ * one refusal shape `{message, issues}`, and the per-user API rate limit.
+ */
 import { error, json, type RequestEvent } from '@sveltejs/kit';
-import type { z } from 'zod';
+import { z } from 'zod';
 import { formatZodIssues, type FieldIssue } from '$lib/geometry';
 import { timingSafeEqual } from 'node:crypto';
 import { controlCharPath } from './boundary';
@@ -8,7 +11,11 @@ import { config } from './config';
 import { enforce } from './limits';
 import { limits, type Limit } from './rate-limit';
 
+/** Far more than any scene, variant, enclosure or part; larger bodies are refused before parsing. */
 const MAX_JSON_BYTES = 4 * 1024 * 1024;
+
+/** Any JSON object, for endpoints whose service validates the fields itself (the catalogue's). */
+export const jsonObject = z.record(z.string(), z.unknown());
 
 export function problem(status: number, message: string, issues: FieldIssue[] = []) {
 	return json({ message, issues }, { status });

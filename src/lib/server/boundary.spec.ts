@@ -4,9 +4,9 @@
  * redirect payloads sent people off-site. Now each is a 400 naming the field, writing nothing.
  */
 import { beforeAll, describe, expect, it } from 'vitest';
-import { demoParts } from '$lib/geometry/fixtures';
+import { demoParts } from '$lib/geometry/standard-library';
 import { controlCharField, controlCharPath } from './boundary';
-import { demoBuildIn, storedVariant, type TestBuild } from './builds.spec-util';
+import { demoBuildIn, storedVariant, type TestBuild } from './testing/builds';
 import { studioWithMembers, type TestMember } from './testing/factories';
 import { useApp } from './testing/suite';
 

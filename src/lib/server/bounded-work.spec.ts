@@ -9,16 +9,16 @@
 import { eq } from 'drizzle-orm';
 import { describe, expect, it } from 'vitest';
 import { MAX_CHECK_BOXES, MAX_GRID_CELLS, MAX_SWEEP_WORK, type FitReport } from '$lib/geometry';
-import { demoParts, demoSceneInput } from '$lib/geometry/fixtures';
+import { demoParts, demoSceneInput } from '$lib/geometry/standard-library';
 import {
 	PILE_CONTROL_POSITIONS,
 	largestAllowedPile,
 	pileSceneInput
-} from '$lib/geometry/hostile.spec-util';
-import { demoBuildIn, storedVariant } from './builds.spec-util';
+} from '$lib/server/testing/engine-hostile';
+import { demoBuildIn, storedVariant } from './testing/builds';
 import { db } from './db';
 import { variants } from './db/schema';
-import { sharedDemo } from './sharing/test-factory';
+import { sharedDemo } from './testing/sharing';
 import { createMember, createStudio } from './testing/factories';
 import { Client, startApp } from './testing/app-server';
 import { useApp } from './testing/suite';

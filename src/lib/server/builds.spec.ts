@@ -5,11 +5,11 @@
  */
 import { describe, expect, it } from 'vitest';
 import { MAX_BOXES, type FitReport, type PartDef } from '$lib/geometry';
-import { DEMO_SPINE_OFFSETS, demoParts } from '$lib/geometry/fixtures';
+import { DEMO_SPINE_OFFSETS, demoParts } from '$lib/geometry/standard-library';
 import { variantSettingsSchema, type VariantSettings } from '$lib/builds/settings';
 import { SceneRejected, loadVariant, saveVariantSettings } from './builds';
-import { buildRows } from './builds-access.spec-util';
-import { demoBuildIn, storedVariant, type TestBuild } from './builds.spec-util';
+import { buildRows } from './testing/builds-access-rows';
+import { demoBuildIn, storedVariant, type TestBuild } from './testing/builds';
 import { createPart } from './catalog/parts';
 import { runAccessMatrix } from './testing/access-matrix';
 import { studioWithMembers } from './testing/factories';

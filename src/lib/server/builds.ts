@@ -1,5 +1,5 @@
 /** Builds and their variants: creating, loading a variant as an engine scene, saving with versions. */
-import { and, asc, eq, inArray, isNull, or, type SQL } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray, isNull, or, type SQL } from 'drizzle-orm';
 import {
 	allowedIndex,
 	checkExcess,
@@ -186,6 +186,24 @@ export async function createBuild(input: {
 		});
 	});
 	return id;
+}
+
+/** The studio's live builds, most recently changed first, with their enclosure's name and version. */
+export async function buildsOfStudio(studioId: string) {
+	return db
+		.select({
+			id: builds.id,
+			name: builds.name,
+			clientName: builds.clientName,
+			updatedAt: builds.updatedAt,
+			enclosureName: enclosures.name,
+			enclosureVersion: enclosureVersions.version
+		})
+		.from(builds)
+		.innerJoin(enclosureVersions, eq(enclosureVersions.id, builds.enclosureVersionId))
+		.innerJoin(enclosures, eq(enclosures.id, enclosureVersions.enclosureId))
+		.where(and(eq(builds.studioId, studioId), isNull(builds.archivedAt)))
+		.orderBy(desc(builds.updatedAt));
 }
 
 export async function variantsOf(buildId: string) {

@@ -9,7 +9,7 @@ import { describe, expect, it } from 'vitest';
 import { enclosureDefSchema, partDefSchema, type EnclosureDef } from '$lib/geometry';
 import { SESSION_LIFE_MS } from './auth';
 import { loadVariant, trustedScene, validateScene } from './builds';
-import { demoBuildIn } from './builds.spec-util';
+import { demoBuildIn } from './testing/builds';
 import { checkTrip } from './check-trip';
 import { db } from './db';
 import { enclosureVersions, parts, rateLimits, sessions } from './db/schema';

@@ -4,13 +4,13 @@
  * agree with the engine run here.
  */
 import { describe, expect, it } from 'vitest';
-import { DEMO_SPINE_OFFSETS, demoSceneInput } from '$lib/geometry/fixtures';
-import { fitsRows } from './fits-access.spec-util';
+import { DEMO_SPINE_OFFSETS, demoSceneInput } from '$lib/geometry/standard-library';
+import { fitsRows } from './testing/fits-access-rows';
 import { runAccessMatrix } from './testing/access-matrix';
 import { createMember, createStudio } from './testing/factories';
 import { useApp } from './testing/suite';
 import { createEnclosure } from './catalog/enclosures';
-import { demoEnclosure } from '$lib/geometry/fixtures';
+import { demoEnclosure } from '$lib/geometry/standard-library';
 
 const app = useApp();
 

@@ -16,8 +16,8 @@
 import fc from 'fast-check';
 import { sql } from 'drizzle-orm';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { demoEnclosure, demoParts, demoSceneInput } from '$lib/geometry/fixtures';
-import { demoBuildIn, type TestBuild } from './builds.spec-util';
+import { demoEnclosure, demoParts, demoSceneInput } from '$lib/geometry/standard-library';
+import { demoBuildIn, type TestBuild } from './testing/builds';
 import { db } from './db';
 import { createShareLink } from './sharing/links';
 import {

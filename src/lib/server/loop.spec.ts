@@ -7,7 +7,7 @@ import { describe, expect, it } from 'vitest';
 import { checkScene, type LoopDef } from '$lib/geometry';
 import type { VariantSettings } from '$lib/builds/settings';
 import { SceneRejected, loadVariant, saveVariantSettings } from './builds';
-import { demoBuildIn, type TestBuild } from './builds.spec-util';
+import { demoBuildIn, type TestBuild } from './testing/builds';
 import { createTubeKind, tubeKindsForStudio } from './loop';
 import { ensureQuote } from './sharing/quotes';
 import { buildSheet } from '$lib/builds/sheet';

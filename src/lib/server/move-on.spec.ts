@@ -1,6 +1,6 @@
 import { eq } from 'drizzle-orm';
 import { describe, expect, it } from 'vitest';
-import { DEMO_SPINE_OFFSETS, demoEnclosure } from '$lib/geometry/fixtures';
+import { DEMO_SPINE_OFFSETS, demoEnclosure } from '$lib/geometry/standard-library';
 import { variantSettingsSchema } from '$lib/builds/settings';
 import { createEnclosure, getEnclosure, updateEnclosure } from './catalog/enclosures';
 import { createBuild, moveOn, planMoveOn, saveVariantSettings, variantsOf } from './builds';

@@ -14,7 +14,7 @@
 import Stripe from 'stripe';
 import { and, desc, eq, inArray, ne } from 'drizzle-orm';
 import { z } from 'zod';
-import { quoteTotals } from '$lib/components/client/quote-math';
+import { quoteTotals } from '$lib/quotes/quote-math';
 import { BUILT_IN_SECRETS, config } from './config';
 import { db, type Tx } from './db';
 import { paymentEvents, payments, quoteLines, quotes, type PaymentRow } from './db/schema';

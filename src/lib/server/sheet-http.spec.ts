@@ -3,8 +3,8 @@
  * and download, and the answers a browser gets.
  */
 import { describe, expect, it } from 'vitest';
-import { createSheetBuild } from './sheet-test-build';
-import { sheetRows } from './sheet-access.spec-util';
+import { createSheetBuild } from './testing/sheet-build';
+import { sheetRows } from './testing/sheet-access-rows';
 import { runAccessMatrix } from './testing/access-matrix';
 import { createMember, createStudio } from './testing/factories';
 import { useApp } from './testing/suite';

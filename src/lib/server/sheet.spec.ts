@@ -7,7 +7,7 @@
 import { isHttpError } from '@sveltejs/kit';
 import { extractText, getDocumentProxy } from 'unpdf';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { DEMO_SPINE_OFFSETS } from '$lib/geometry/fixtures';
+import { DEMO_SPINE_OFFSETS } from '$lib/geometry/standard-library';
 import { closeDb } from './db';
 import sharp from 'sharp';
 import { createShareLink } from './sharing/links';
@@ -15,7 +15,7 @@ import { addPhoto } from './sharing/photos';
 import { ensureQuote } from './sharing/quotes';
 import { TickRejected, loadSheet, setTick } from './sheet';
 import { renderSheetPdf } from './sheet-pdf';
-import { createSheetBuild, type SheetTestBuild } from './sheet-test-build';
+import { createSheetBuild, type SheetTestBuild } from './testing/sheet-build';
 import { createMember, createStudio, type TestMember } from './testing/factories';
 
 type Who = TestMember;

@@ -12,7 +12,8 @@ import { roomAt, type RoomFigure } from '$lib/geometry/room';
 import { checkInPool } from './engine/pool';
 import { orthographicViews, type DrawingRoom, type SheetDrawing } from '$lib/builds/orthographic';
 import { buildSheet, checklistKeys, type SheetModel } from '$lib/builds/sheet';
-import { formatMoney } from '$lib/components/client/money';
+import { formatMoney } from '$lib/quotes/money';
+import type { QuoteView } from '$lib/quotes/view';
 import {
 	requireBuild,
 	requireVariant,
@@ -57,16 +58,7 @@ export function drawingRoom(paper: Paper): DrawingRoom {
 
 export type TickView = { at: Date; by: string | null; earlierVersion: boolean };
 
-export type QuoteView = {
-	draft: boolean;
-	lines: { description: string; quantity: number; unit: string; total: string }[];
-	labour: { note: string; amount: string } | null;
-	subtotal: string;
-	tax: { rate: string; amount: string } | null;
-	total: string;
-	deposit: string;
-	unpriced: number;
-};
+export type { QuoteView };
 
 export type SheetData = {
 	build: { id: string; name: string; clientName: string };

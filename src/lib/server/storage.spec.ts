@@ -14,7 +14,7 @@ import { eq, inArray } from 'drizzle-orm';
 import sharp from 'sharp';
 import { afterAll, describe, expect, it } from 'vitest';
 import { deleteBuild } from './builds';
-import { demoBuildIn } from './builds.spec-util';
+import { demoBuildIn } from './testing/builds';
 import { config } from './config';
 import { closeDb, db } from './db';
 import { builds, payments, photos, variants } from './db/schema';

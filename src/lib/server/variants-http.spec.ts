@@ -3,11 +3,11 @@
  * compare, and what a bad request gets.
  */
 import { describe, expect, it } from 'vitest';
-import { demoBuildIn } from './builds.spec-util';
+import { demoBuildIn } from './testing/builds';
 import { runAccessMatrix } from './testing/access-matrix';
 import { createMember, createStudio } from './testing/factories';
 import { useApp } from './testing/suite';
-import { variantRows } from './variants-access.spec-util';
+import { variantRows } from './testing/variants-access-rows';
 
 const app = useApp();
 

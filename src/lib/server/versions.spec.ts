@@ -5,7 +5,7 @@
  */
 import { eq } from 'drizzle-orm';
 import { describe, expect, it } from 'vitest';
-import { DEMO_SPINE_OFFSETS } from '$lib/geometry/fixtures';
+import { DEMO_SPINE_OFFSETS } from '$lib/geometry/standard-library';
 import {
 	deleteVariant,
 	forkVariant,
@@ -17,7 +17,7 @@ import {
 import { db } from './db';
 import { variantRevisions, variantVersions } from './db/schema';
 import { sharedWithMember } from './sharing/shared';
-import { sharedDemo, variantRow } from './sharing/test-factory';
+import { sharedDemo, variantRow } from './testing/sharing';
 import { approveVersion, requestChanges, type Author } from './sharing/thread';
 import { useApp } from './testing/suite';
 import { frozenState, latestVersion, saveVersion, versionsOf } from './versions';

@@ -70,6 +70,11 @@ export async function latestVersions(
 	return out;
 }
 
+/** nextNumber outside a transaction, for pages that show the number the next save will take. */
+export function nextVersionNumber(variant: Pick<VariantRow, 'id' | 'basedOnVersionId'>) {
+	return nextNumber(db, variant);
+}
+
 /** A variant started from another's version N numbers its own from N + 1. */
 export async function nextNumber(
 	run: Run,

@@ -2,7 +2,7 @@ import { error, redirect } from '@sveltejs/kit';
 import { activeStudio, roleMay } from '$lib/server/access';
 import { partQueryOf } from '$lib/server/catalog/http';
 import { archivePart, duplicatePart, listParts, restorePart } from '$lib/server/catalog/parts';
-import { CATEGORIES } from '$lib/components/catalog/part-shape';
+import { CATEGORIES } from '$lib/catalog/part-shape';
 import { idField } from '$lib/schemas/common';
 import type { Actions, PageServerLoad } from './$types';
 

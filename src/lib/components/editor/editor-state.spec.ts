@@ -1,5 +1,5 @@
 /**
- * The editor's state on the demo scene (src/lib/geometry/fixtures.ts): undo and redo, snapping to
+ * The editor's state on the demo scene (src/lib/geometry/standard-library.ts): undo and redo, snapping to
  * allowed positions, locks, autosave and the 409 conflict. The API is a small in-memory stand-in
  * with the server's version rule (save only over the version you loaded); the fit reports come
  * from the real engine. The integration tests in src/lib/server/builds.spec.ts cover the real API.
@@ -13,7 +13,7 @@ import {
 	type FitReport,
 	type PartDef
 } from '$lib/geometry';
-import { DEMO_SPINE_OFFSETS, demoSceneInput } from '$lib/geometry/fixtures';
+import { DEMO_SPINE_OFFSETS, demoSceneInput } from '$lib/geometry/standard-library';
 import { composeScene, variantSettingsSchema, type VariantSettings } from '$lib/builds/settings';
 import type { Problem, SaveOutcome } from '$lib/api/client';
 import { EditorState, type EditorApi } from './editor-state.svelte';

@@ -35,7 +35,7 @@ import {
 import { reportDigest } from '$lib/builds/report-digest';
 import { canonicalJson } from '$lib/builds/revisions';
 import type { Problem, SaveOutcome } from '$lib/api/client';
-import type { ViewName } from '$lib/components/scene/view';
+import type { ViewName } from '$lib/scene/view';
 
 export type EditorApi = {
 	save(version: number, settings: VariantSettings): Promise<SaveOutcome>;

@@ -10,7 +10,7 @@ import { enclosures, parts } from '../db/schema';
 import { runAccessMatrix } from '../testing/access-matrix';
 import { studioWithMembers } from '../testing/factories';
 import { useApp } from '../testing/suite';
-import { catalogRows, enclosureFields, partFields, testPart } from './access-rows';
+import { catalogRows, enclosureFields, partFields, testPart } from '../testing/catalog-access-rows';
 
 const app = useApp();
 

@@ -6,7 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { and, count, eq, sql } from 'drizzle-orm';
 import { Box3, Vector3 } from 'three';
 import { SLOT_PITCH_MM, type EnclosureDef } from '$lib/geometry';
-import { demoEnclosure } from '$lib/geometry/fixtures';
+import { demoEnclosure } from '$lib/geometry/standard-library';
 import { closeDb, db } from '../db';
 import { builds, enclosureVersions, parts, variants } from '../db/schema';
 import { createStudio } from '../testing/factories';

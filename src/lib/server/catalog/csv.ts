@@ -6,8 +6,8 @@
 import Papa from 'papaparse';
 import { and, eq, inArray } from 'drizzle-orm';
 import type { PartDef, PartSpecs } from '$lib/geometry';
-import { bodySizeMm, isOneBox, oneBody } from '$lib/components/catalog/part-shape';
-import { checkPart } from '$lib/components/catalog/schemas';
+import { bodySizeMm, isOneBox, oneBody } from '$lib/catalog/part-shape';
+import { checkPart } from '$lib/catalog/schemas';
 import { toCsv } from '$lib/csv';
 import { db } from '../db';
 import { parts } from '../db/schema';

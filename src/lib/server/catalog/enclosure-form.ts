@@ -12,7 +12,7 @@ import {
 	formFieldFor,
 	formToEnclosure,
 	type EnclosureForm
-} from '$lib/components/catalog/schemas';
+} from '$lib/catalog/schemas';
 import { INT4_MAX } from '$lib/schemas/common';
 import type { StudioAccess } from '../access';
 import { controlCharField } from '../boundary';

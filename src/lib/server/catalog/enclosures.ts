@@ -5,8 +5,8 @@
  */
 import { and, asc, desc, eq, ilike, isNotNull, isNull, sql } from 'drizzle-orm';
 import { innerVolumeLitres, type EnclosureDef, type FieldIssue } from '$lib/geometry';
-import { checkEnclosure } from '$lib/components/catalog/schemas';
-import { enclosureChanges } from '$lib/components/catalog/enclosure-diff';
+import { checkEnclosure } from '$lib/catalog/schemas';
+import { enclosureChanges } from '$lib/catalog/enclosure-diff';
 import { db, type Tx } from '../db';
 import {
 	builds,

@@ -1,9 +1,10 @@
+import type { RequestEvent } from '@sveltejs/kit';
 import { allParts } from './parts';
 import { partsToCsv } from './csv';
 import { catalogAccess, partQueryOf } from './http';
 
 /** The CSV download for the page and the API alike: the same filters as the table, every page. */
-export async function csvExport(event: { locals: App.Locals; url: URL }): Promise<Response> {
+export async function csvExport(event: RequestEvent): Promise<Response> {
 	const access = await catalogAccess(event, 'catalog.view');
 	const query = partQueryOf(event.url.searchParams);
 	const rows = await allParts(access.studioId, query);

@@ -1,51 +1,26 @@
 /**
- * What the catalogue's endpoints share: the access check (the active studio, or `?studio=` for API
- * users in several), bounded JSON bodies, and the one shape of a refusal.
+ * What the catalogue's endpoints share beyond the JSON helper (../api.ts): the access check (the
+ * active studio, or `?studio=` for API users in several) with the API rate limit, a write's outcome
+ * as HTTP, the revision a save must carry, and the table's query string.
  */
-import { error, json } from '@sveltejs/kit';
-import type { FieldIssue, PartCategory } from '$lib/geometry';
+import { error, json, type RequestEvent } from '@sveltejs/kit';
+import type { PartCategory } from '$lib/geometry';
 import { partCategorySchema } from '$lib/geometry';
 import { INT4_MAX } from '$lib/schemas/common';
 import { activeStudio, requireStudio, type Action } from '../access';
-import { controlCharPath } from '../boundary';
+import { apiLimit, problem } from '../api';
 import { PART_SORTS, type PartQuery, type PartSort, type WriteResult } from './parts';
 
-type Event = { locals: App.Locals; url: URL };
-
-export function catalogAccess(
-	event: Event,
+export async function catalogAccess(
+	event: RequestEvent,
 	action: Extract<Action, 'catalog.view' | 'catalog.edit'>
 ) {
 	const chosen = event.url.searchParams.get('studio');
-	return chosen
-		? requireStudio(event.locals, chosen, action, event.url)
-		: activeStudio(event.locals, action, event.url);
-}
-
-/** 1 MB is far more than any one enclosure or part; larger bodies are refused before parsing. */
-const MAX_JSON_BYTES = 1024 * 1024;
-
-export async function readJson(request: Request): Promise<Record<string, unknown>> {
-	const length = Number(request.headers.get('content-length') ?? 0);
-	if (length > MAX_JSON_BYTES) error(413, 'The request body is larger than 1 MB.');
-	const text = await request.text();
-	if (text.length > MAX_JSON_BYTES) error(413, 'The request body is larger than 1 MB.');
-	let value: unknown;
-	try {
-		value = JSON.parse(text);
-	} catch {
-		/* answered below */
-	}
-	if (value && typeof value === 'object' && !Array.isArray(value)) {
-		const bad = controlCharPath(value);
-		if (bad) error(400, `The request body has control characters in ${bad}.`);
-		return value as Record<string, unknown>;
-	}
-	error(400, 'The body must be a JSON object.');
-}
-
-export function problem(status: number, message: string, issues: FieldIssue[] = []) {
-	return json({ message, issues }, { status });
+	const access = chosen
+		? await requireStudio(event.locals, chosen, action, event.url)
+		: await activeStudio(event.locals, action, event.url);
+	await apiLimit(event, access.user.id);
+	return access;
 }
 
 /** A write's outcome as HTTP: 200/201 with the value, 400 with issues, 404, or 409 with what is stored now. */

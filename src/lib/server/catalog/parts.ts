@@ -5,8 +5,8 @@
  */
 import { and, asc, desc, eq, inArray, isNotNull, isNull, or, sql, type SQL } from 'drizzle-orm';
 import type { FieldIssue, PartCategory, PartDef } from '$lib/geometry';
-import { bodySizeMm } from '$lib/components/catalog/part-shape';
-import { checkPart, type PartExtras } from '$lib/components/catalog/schemas';
+import { bodySizeMm } from '$lib/catalog/part-shape';
+import { checkPart, type PartExtras } from '$lib/catalog/schemas';
 import { db, type Tx } from '../db';
 import { builds, parts, variants, type PartRow } from '../db/schema';
 import { newId } from '../tokens';

@@ -6,8 +6,8 @@
  * fix them, so a studio copies an entry and adds its own. Part frame: X width, Y height, Z depth, mm.
  */
 import { SLOT_PITCH_MM, type PartDef } from '$lib/geometry';
-import { BOARD_THICKNESS_MM, standardParts } from '$lib/geometry/fixtures';
-import { oneBody } from '$lib/components/catalog/part-shape';
+import { BOARD_THICKNESS_MM, standardParts } from '$lib/geometry/standard-library';
+import { oneBody } from '$lib/catalog/part-shape';
 
 const PCB_MM = BOARD_THICKNESS_MM;
 

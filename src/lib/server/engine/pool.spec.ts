@@ -4,8 +4,8 @@
  */
 import { afterAll, describe, expect, it } from 'vitest';
 import { checkScene, sceneSchema } from '$lib/geometry';
-import { demoScene } from '$lib/geometry/fixtures';
-import { largestAllowedPile, pileSceneInput } from '$lib/geometry/hostile.spec-util';
+import { demoScene } from '$lib/geometry/standard-library';
+import { largestAllowedPile, pileSceneInput } from '$lib/server/testing/engine-hostile';
 import { checkInPool, closeEnginePool, sweepInPool } from './pool';
 
 afterAll(closeEnginePool);

@@ -10,9 +10,9 @@ import {
 	type PartDef,
 	type Vec3
 } from '$lib/geometry';
-import { demoEnclosure, demoParts, demoTowerEnclosure } from '$lib/geometry/fixtures';
-import { categoryTemplate, oneBody } from '$lib/components/catalog/part-shape';
-import { checkEnclosure, checkPart, type PartExtras } from '$lib/components/catalog/schemas';
+import { demoEnclosure, demoParts, demoTowerEnclosure } from '$lib/geometry/standard-library';
+import { categoryTemplate, oneBody } from '$lib/catalog/part-shape';
+import { checkEnclosure, checkPart, type PartExtras } from '$lib/catalog/schemas';
 import { db } from '../db';
 import { enclosures, enclosureVersions, parts } from '../db/schema';
 import { partColumns } from '../catalog/parts';

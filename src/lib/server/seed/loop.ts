@@ -5,8 +5,8 @@
  */
 import { eq, inArray } from 'drizzle-orm';
 import { partDefSchema, type PartDef } from '$lib/geometry';
-import { defaultFittings, defaultTubeKinds } from '$lib/geometry/loop-fixtures';
-import { checkPart } from '$lib/components/catalog/schemas';
+import { defaultFittings, defaultTubeKinds } from '$lib/geometry/loop-library';
+import { checkPart } from '$lib/catalog/schemas';
 import { db } from '../db';
 import { parts, studioLoopSettings, tubeKinds } from '../db/schema';
 import { partColumns } from '../catalog/parts';

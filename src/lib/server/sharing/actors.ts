@@ -3,13 +3,14 @@
  * member of the studio (a client the variant was shared with, or a designer previewing it).
  */
 import { error, type RequestEvent } from '@sveltejs/kit';
-import { and, desc, eq, gt, isNull, or, sql } from 'drizzle-orm';
+import { and, desc, eq, sql } from 'drizzle-orm';
 import { requireLinkHolder, requireUser, requireVariant, roleMay } from '../access';
 import { db } from '../db';
 import { rateLimits, shareLinks, users, variants } from '../db/schema';
 import { clientAddress, enforce } from '../limits';
 import { limits } from '../rate-limit';
 import type { ClientActor } from './client-actions';
+import { linkIsActive } from './link-state';
 import { resolveShareToken, type ResolvedShare } from './links';
 
 const MISS_BUCKET = 'share-miss';
@@ -101,8 +102,7 @@ export async function memberActor(event: RequestEvent, variantId: string): Promi
 			and(
 				eq(shareLinks.variantId, variantId),
 				isClient ? eq(shareLinks.recipientEmail, access.user.email.toLowerCase()) : sql`true`,
-				isNull(shareLinks.revokedAt),
-				or(isNull(shareLinks.expiresAt), gt(shareLinks.expiresAt, sql`now()`))
+				linkIsActive()
 			)
 		)
 		.orderBy(desc(shareLinks.createdAt))

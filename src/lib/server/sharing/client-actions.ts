@@ -4,8 +4,8 @@
  * and what they may do; this module does the rest the same way for both.
  */
 import { error, fail, type RequestEvent } from '@sveltejs/kit';
-import { approveForm, changesForm, commentForm } from '$lib/components/client/forms';
-import { formatMoney } from '$lib/components/client/money';
+import { approveForm, changesForm, commentForm } from '$lib/schemas/sharing';
+import { formatMoney } from '$lib/quotes/money';
 import type { BuildRow, VariantRow } from '../db/schema';
 import { parseForm } from '../forms';
 import { enforce } from '../limits';

@@ -6,7 +6,7 @@ import { comments } from '../db/schema';
 import { limits } from '../rate-limit';
 import { randomLoopback } from '../testing/client';
 import { useApp } from '../testing/suite';
-import { sharedDemo } from './test-factory';
+import { sharedDemo } from '../testing/sharing';
 
 const app = useApp();
 

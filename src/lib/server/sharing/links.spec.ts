@@ -14,7 +14,7 @@ import {
 	resolveShareToken,
 	revokeShareLink
 } from './links';
-import { sharedDemo } from './test-factory';
+import { sharedDemo } from '../testing/sharing';
 
 testDatabaseUrl();
 afterAll(closeDb);

@@ -7,6 +7,7 @@ import { db } from '../db';
 import { builds, shareLinks, studios, users, variants, type ShareLinkRow } from '../db/schema';
 import { link, sendMail } from '../mail';
 import { hashToken, newId, newToken } from '../tokens';
+import { linkState, type LinkState } from './link-state';
 
 /** newToken() is 32 random bytes in base64url: exactly 43 characters of [A-Za-z0-9_-]. */
 const TOKEN_SHAPE = /^[A-Za-z0-9_-]{43}$/;
@@ -111,9 +112,10 @@ export async function resolveShareToken(token: string, now = new Date()): Promis
 		.leftJoin(users, eq(users.id, shareLinks.createdBy))
 		.where(eq(shareLinks.tokenHash, hashToken(token)));
 	if (!row) return { state: 'missing' };
-	if (row.link.revokedAt) return { state: 'revoked', studioName: row.studioName };
-	if (row.link.expiresAt && row.link.expiresAt.getTime() <= now.getTime()) {
-		return { state: 'expired', studioName: row.studioName, expiredAt: row.link.expiresAt };
+	const state = linkState(row.link, now);
+	if (state === 'revoked') return { state, studioName: row.studioName };
+	if (state === 'expired') {
+		return { state, studioName: row.studioName, expiredAt: row.link.expiresAt! };
 	}
 	if (row.build.archivedAt) return { state: 'revoked', studioName: row.studioName };
 	return { state: 'ok', share: row };
@@ -155,7 +157,7 @@ export type LinkSummary = {
 	openCount: number;
 	expiresAt: Date | null;
 	revokedAt: Date | null;
-	state: 'active' | 'expired' | 'revoked';
+	state: LinkState;
 };
 
 export async function linksOfBuild(buildId: string, now = new Date()): Promise<LinkSummary[]> {
@@ -177,6 +179,6 @@ export async function linksOfBuild(buildId: string, now = new Date()): Promise<L
 		openCount: l.openCount,
 		expiresAt: l.expiresAt,
 		revokedAt: l.revokedAt,
-		state: l.revokedAt ? 'revoked' : l.expiresAt && l.expiresAt <= now ? 'expired' : 'active'
+		state: linkState(l, now)
 	}));
 }

@@ -1,7 +1,7 @@
 /** E-mail to the studio about what a client did: comments, approvals, change requests, deposits. */
 import { and, eq, inArray } from 'drizzle-orm';
 import { db } from '../db';
-import { formatMoney } from '$lib/components/client/money';
+import { formatMoney } from '$lib/quotes/money';
 import { builds, memberships, shareLinks, users } from '../db/schema';
 import { link, sendMail } from '../mail';
 

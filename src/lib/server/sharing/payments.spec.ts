@@ -13,7 +13,7 @@ import { paymentEvents, payments, quotes } from '../db/schema';
 import { listMail, waitForMail } from '../testing/mail';
 import { useApp } from '../testing/suite';
 import { ensureQuote, sendQuote } from './quotes';
-import { sharedDemo } from './test-factory';
+import { sharedDemo } from '../testing/sharing';
 
 const app = useApp();
 const fake = `${config.payments.protocol}://${config.payments.host}:${config.payments.port}`;

@@ -16,7 +16,7 @@ import { eq } from 'drizzle-orm';
 import { useApp } from '../testing/suite';
 import { revokeShareLink } from './links';
 import { MAX_PHOTO_BYTES, PhotoRejected, checkImage } from './photos';
-import { sharedDemo } from './test-factory';
+import { sharedDemo } from '../testing/sharing';
 
 const app = useApp();
 

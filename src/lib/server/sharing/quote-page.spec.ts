@@ -5,12 +5,12 @@
  */
 import { count, eq } from 'drizzle-orm';
 import { describe, expect, it } from 'vitest';
-import { testPart } from '../catalog/access-rows';
+import { testPart } from '../testing/catalog-access-rows';
 import { db } from '../db';
 import { parts, payments, quoteLines, quotes } from '../db/schema';
 import { studioWithMembers } from '../testing/factories';
 import { useApp } from '../testing/suite';
-import { demoBuild } from './test-factory';
+import { demoBuild } from '../testing/sharing';
 
 const app = useApp();
 

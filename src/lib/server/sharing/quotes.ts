@@ -1,8 +1,8 @@
 /** Quotes: one per shared variant; part lines from the catalogue, a labour line, tax and a deposit. */
 import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import { variantSettingsSchema } from '$lib/builds/settings';
-import { isCurrencyCode } from '$lib/components/client/money';
-import { quoteTotals, type QuoteTotals } from '$lib/components/client/quote-math';
+import { isCurrencyCode } from '$lib/quotes/money';
+import { quoteTotals, type QuoteTotals } from '$lib/quotes/quote-math';
 import { db, type Tx } from '../db';
 import {
 	parts,

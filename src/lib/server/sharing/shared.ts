@@ -2,7 +2,7 @@
  * What a client member finds in the app: every variant shared with them through a link sent to
  * their address in a studio where they are a client, newest first, with where it stands.
  */
-import { and, desc, eq, gt, inArray, isNull, or, sql } from 'drizzle-orm';
+import { and, desc, eq, inArray, isNull } from 'drizzle-orm';
 import { db } from '../db';
 import {
 	approvals,
@@ -15,6 +15,7 @@ import {
 	variants
 } from '../db/schema';
 import { latestVersions } from '../versions';
+import { linkIsActive } from './link-state';
 
 export type SharedStatus = 'waiting' | 'changes' | 'approved' | 'paid';
 
@@ -59,9 +60,8 @@ export async function sharedWithMember(user: { id: string; email: string }): Pro
 		.where(
 			and(
 				eq(shareLinks.recipientEmail, user.email.toLowerCase()),
-				isNull(shareLinks.revokedAt),
-				isNull(builds.archivedAt),
-				or(isNull(shareLinks.expiresAt), gt(shareLinks.expiresAt, sql`now()`))
+				linkIsActive(),
+				isNull(builds.archivedAt)
 			)
 		)
 		.orderBy(shareLinks.variantId, desc(shareLinks.createdAt));

@@ -4,7 +4,7 @@
  */
 import { variantsOf } from '../builds';
 import { paymentsOfQuotes } from '../payments';
-import type { ClientStatus } from '$lib/components/client/types';
+import type { ClientStatus } from '$lib/sharing/types';
 import { linksOfBuild } from './links';
 import { quoteOfVariant } from './quotes';
 import { approvalState, latestApproval } from './thread';

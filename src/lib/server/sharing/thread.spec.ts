@@ -14,7 +14,7 @@ import {
 	addComment,
 	type Author
 } from './thread';
-import { sharedDemo, variantRow } from './test-factory';
+import { sharedDemo, variantRow } from '../testing/sharing';
 import { VariantFrozen, saveVersion } from '../versions';
 import { clientView } from './view';
 

@@ -9,7 +9,7 @@ import { db } from '../db';
 import { approvals, comments, variants, type ApprovalRow, type CommentRow } from '../db/schema';
 import { newId } from '../tokens';
 import { canonicalJson, ensureVersion, recordRevision } from '../versions';
-import type { ApprovalState } from '$lib/components/client/types';
+import type { ApprovalState } from '$lib/sharing/types';
 
 export type Author = {
 	userId: string | null;

@@ -29,7 +29,7 @@ import {
 import { paidDeposit } from '../payments';
 import { photosOf } from './photos';
 import { quoteOfVariant } from './quotes';
-import { CATEGORY_WORDS, fitSummary, placementNames } from './summary';
+import { CATEGORY_WORDS, fitSummary, placementNames } from '../../sharing/summary';
 import { approvalState, latestApproval, threadOf } from './thread';
 import type {
 	ClientComment,
@@ -38,7 +38,7 @@ import type {
 	DepositState,
 	PartLine,
 	PlacedPart
-} from '$lib/components/client/types';
+} from '$lib/sharing/types';
 
 export type { ClientView };
 

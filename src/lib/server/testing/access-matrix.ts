@@ -10,8 +10,8 @@
  *   3. when a row declares `changes`, the request changed the studio exactly for those visitors.
  * `routeInventory()` lists what exists under src/routes, so a route without a row fails the test.
  *
- * To add routes: export your rows (a MatrixRow[]) from a module named `*access-rows.ts` or
- * `*-access.spec-util.ts` beside your code, and run them from your own spec with
+ * To add routes: export your rows (a MatrixRow[]) from `src/lib/server/testing/<area>-access-rows.ts`
+ * and run them from your own spec with
  * `runAccessMatrix(rows, useApp())`. The coverage check in src/lib/server/access-matrix.spec.ts finds
  * such modules itself and counts their rows as covered.
  */

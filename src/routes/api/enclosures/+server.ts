@@ -1,6 +1,7 @@
 import { json } from '@sveltejs/kit';
 import { createEnclosure, listEnclosures } from '$lib/server/catalog/enclosures';
-import { answer, catalogAccess, readJson } from '$lib/server/catalog/http';
+import { jsonObject, readJson } from '$lib/server/api';
+import { answer, catalogAccess } from '$lib/server/catalog/http';
 import type { RequestHandler } from './$types';
 
 export const GET: RequestHandler = async (event) => {
@@ -16,7 +17,7 @@ export const GET: RequestHandler = async (event) => {
 /** Body: `{definition, description?, note?}`; the definition is the engine's EnclosureDef. */
 export const POST: RequestHandler = async (event) => {
 	const access = await catalogAccess(event, 'catalog.edit');
-	const body = await readJson(event.request);
+	const body = await readJson(event.request, jsonObject);
 	const made = await createEnclosure(access.studioId, access.user.id, {
 		definition: body.definition,
 		description: body.description as string | undefined,

@@ -18,7 +18,7 @@ import {
 	type FitSort,
 	type FitTarget
 } from '$lib/builds/fits';
-import { apiLimit, problem, readJson } from '$lib/server/api';
+import { problem, readJson } from '$lib/server/api';
 import { catalogAccess } from '$lib/server/catalog/http';
 import { refuseCost } from '$lib/server/engine/pool';
 import { checkExcess, sceneBoxCount } from '$lib/geometry/cost';
@@ -81,7 +81,6 @@ const candidateOf = (p: PartRecord): FitCandidate => ({
  */
 export const POST: RequestHandler = async (event) => {
 	const access = await catalogAccess(event, 'catalog.view');
-	await apiLimit(event, access.user.id);
 	const input = await readJson(event.request, body);
 	// The same cost limits as /api/check, decided before any work.
 	const excess = checkExcess(input.scene);

@@ -1,6 +1,7 @@
 import { json } from '@sveltejs/kit';
 import { partCategorySchema } from '$lib/geometry';
-import { answer, catalogAccess, partQueryOf, problem, readJson } from '$lib/server/catalog/http';
+import { jsonObject, problem, readJson } from '$lib/server/api';
+import { answer, catalogAccess, partQueryOf } from '$lib/server/catalog/http';
 import {
 	createPart,
 	getPartsByIds,
@@ -46,5 +47,9 @@ export const GET: RequestHandler = async (event) => {
 /** Body: the part (name, category, bodies, keepouts, ports, specs, provenance, toleranceMm, source, priceMinor, currency, supplierNote). */
 export const POST: RequestHandler = async (event) => {
 	const access = await catalogAccess(event, 'catalog.edit');
-	return answer(await createPart(access.studioId, await readJson(event.request)), 201, 'part');
+	return answer(
+		await createPart(access.studioId, await readJson(event.request, jsonObject)),
+		201,
+		'part'
+	);
 };

@@ -17,11 +17,10 @@ import {
 	canonicalJson,
 	frozenState,
 	latestVersion,
-	nextNumber,
+	nextVersionNumber,
 	recentRevisions,
 	saveVersion
 } from '$lib/server/versions';
-import { db } from '$lib/server/db';
 import { variantSettingsSchema } from '$lib/builds/settings';
 import { engineTubeKinds, fittingPartsForStudio, tubeKindsForStudio } from '$lib/server/loop';
 import { line } from '$lib/schemas/common';
@@ -43,7 +42,7 @@ export const load: PageServerLoad = async ({ locals, params, url }) => {
 	const [latest, frozen, next, revisions, tubeKinds, fittings] = await Promise.all([
 		latestVersion(loaded.variant.id),
 		frozenState(loaded.variant.id),
-		nextNumber(db, loaded.variant),
+		nextVersionNumber(loaded.variant),
 		recentRevisions(loaded.variant.id, loaded.variant.version),
 		tubeKindsForStudio(build.studioId),
 		fittingPartsForStudio(build.studioId)

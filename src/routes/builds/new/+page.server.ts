@@ -1,10 +1,8 @@
 import { redirect } from '@sveltejs/kit';
-import { and, asc, eq, isNull } from 'drizzle-orm';
 import { z } from 'zod';
 import { activeStudio } from '$lib/server/access';
 import { SceneRejected, createBuild } from '$lib/server/builds';
-import { db } from '$lib/server/db';
-import { enclosures } from '$lib/server/db/schema';
+import { listEnclosures } from '$lib/server/catalog/enclosures';
 import { formFail, parseForm } from '$lib/server/forms';
 import { line, paragraph } from '$lib/schemas/common';
 import type { Actions, PageServerLoad } from './$types';
@@ -18,11 +16,11 @@ const schema = z.object({
 
 export const load: PageServerLoad = async ({ locals, url }) => {
 	const access = await activeStudio(locals, 'build.edit', url);
-	const list = await db
-		.select({ id: enclosures.id, name: enclosures.name, volumeLitres: enclosures.volumeLitres })
-		.from(enclosures)
-		.where(and(eq(enclosures.studioId, access.studioId), isNull(enclosures.archivedAt)))
-		.orderBy(asc(enclosures.name));
+	const list = (await listEnclosures(access.studioId)).map(({ id, name, volumeLitres }) => ({
+		id,
+		name,
+		volumeLitres
+	}));
 	return { enclosures: list, preselect: url.searchParams.get('enclosure') ?? '' };
 };
 

@@ -1,7 +1,7 @@
 import { superValidate } from 'sveltekit-superforms';
 import { activeStudio } from '$lib/server/access';
 import { enclosureAdapter, saveEnclosureForm } from '$lib/server/catalog/enclosure-form';
-import { enclosureToForm } from '$lib/components/catalog/schemas';
+import { enclosureToForm } from '$lib/catalog/schemas';
 import type { EnclosureDef } from '$lib/geometry';
 import type { Actions, PageServerLoad } from './$types';
 

@@ -5,7 +5,8 @@ import {
 	restoreEnclosure,
 	updateEnclosure
 } from '$lib/server/catalog/enclosures';
-import { answer, catalogAccess, readJson, revisionOf } from '$lib/server/catalog/http';
+import { jsonObject, readJson } from '$lib/server/api';
+import { answer, catalogAccess, revisionOf } from '$lib/server/catalog/http';
 import type { RequestHandler } from './$types';
 
 export const GET: RequestHandler = async (event) => {
@@ -21,7 +22,7 @@ export const GET: RequestHandler = async (event) => {
  */
 export const PUT: RequestHandler = async (event) => {
 	const access = await catalogAccess(event, 'catalog.edit');
-	const body = await readJson(event.request);
+	const body = await readJson(event.request, jsonObject);
 	const saved = await updateEnclosure(
 		access.studioId,
 		event.params.id,
@@ -39,7 +40,7 @@ export const PUT: RequestHandler = async (event) => {
 /** Body: `{archived: boolean}`. Enclosures are never deleted: builds pin their versions. */
 export const PATCH: RequestHandler = async (event) => {
 	const access = await catalogAccess(event, 'catalog.edit');
-	const body = await readJson(event.request);
+	const body = await readJson(event.request, jsonObject);
 	if (typeof body.archived !== 'boolean') {
 		error(400, 'Send {"archived": true} or {"archived": false}.');
 	}

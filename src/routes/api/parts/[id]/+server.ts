@@ -1,5 +1,6 @@
 import { error, json } from '@sveltejs/kit';
-import { answer, catalogAccess, problem, readJson, revisionOf } from '$lib/server/catalog/http';
+import { jsonObject, problem, readJson } from '$lib/server/api';
+import { answer, catalogAccess, revisionOf } from '$lib/server/catalog/http';
 import {
 	archivePart,
 	deletePart,
@@ -20,7 +21,7 @@ export const GET: RequestHandler = async (event) => {
 /** Body: `{revision, ...part}`. Standard-library parts are read-only (404 here: not the studio's). */
 export const PUT: RequestHandler = async (event) => {
 	const access = await catalogAccess(event, 'catalog.edit');
-	const body = await readJson(event.request);
+	const body = await readJson(event.request, jsonObject);
 	const { revision: _r, ...part } = body;
 	return answer(
 		await updatePart(access.studioId, event.params.id, revisionOf(body), part),
@@ -32,7 +33,7 @@ export const PUT: RequestHandler = async (event) => {
 /** Body: `{archived: boolean}` or `{duplicate: true}` (also copies a standard-library entry into the studio). */
 export const PATCH: RequestHandler = async (event) => {
 	const access = await catalogAccess(event, 'catalog.edit');
-	const body = await readJson(event.request);
+	const body = await readJson(event.request, jsonObject);
 	if (body.duplicate === true) {
 		return answer(await duplicatePart(access.studioId, event.params.id), 201, 'part');
 	}

@@ -1,6 +1,7 @@
 import { json } from '@sveltejs/kit';
 import { decodeCsv, importPartsCsv, MAX_CSV_BYTES } from '$lib/server/catalog/csv';
-import { catalogAccess, problem } from '$lib/server/catalog/http';
+import { problem } from '$lib/server/api';
+import { catalogAccess } from '$lib/server/catalog/http';
 import type { RequestHandler } from './$types';
 
 /**

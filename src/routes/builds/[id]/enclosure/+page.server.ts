@@ -1,6 +1,6 @@
 import { redirect } from '@sveltejs/kit';
 import { z } from 'zod';
-import { enclosureChanges } from '$lib/components/catalog/enclosure-diff';
+import { enclosureChanges } from '$lib/catalog/enclosure-diff';
 import { requireBuild } from '$lib/server/access';
 import { VariantRuleError, moveOn, planMoveOn } from '$lib/server/builds';
 import { formFail, parseForm } from '$lib/server/forms';

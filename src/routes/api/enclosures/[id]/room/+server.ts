@@ -1,7 +1,6 @@
 import { error, json } from '@sveltejs/kit';
 import { enclosureDefSchema } from '$lib/geometry';
 import { roomTable } from '$lib/geometry/room';
-import { apiLimit } from '$lib/server/api';
 import { getEnclosure } from '$lib/server/catalog/enclosures';
 import { catalogAccess } from '$lib/server/catalog/http';
 import type { RequestHandler } from './$types';
@@ -12,7 +11,6 @@ import type { RequestHandler } from './$types';
  */
 export const GET: RequestHandler = async (event) => {
 	const access = await catalogAccess(event, 'catalog.view');
-	await apiLimit(event, access.user.id);
 	const enclosure = await getEnclosure(access.studioId, event.params.id);
 	if (!enclosure) error(404, 'Not found.');
 	// Stored definitions were validated when saved; parsing again fills defaults a later schema added.

@@ -1,5 +1,5 @@
 import { error, fail } from '@sveltejs/kit';
-import { isCurrencyCode, parseMoney, parsePercent } from '$lib/components/client/money';
+import { isCurrencyCode, parseMoney, parsePercent } from '$lib/quotes/money';
 import { line, paragraph } from '$lib/schemas/common';
 import { requireBuild } from '$lib/server/access';
 import { variantsOf } from '$lib/server/builds';

@@ -17,21 +17,9 @@ import {
 	type PortDef,
 	type Vec3
 } from '$lib/geometry';
+import { CATEGORY_LABELS } from '$lib/words/faces';
 
-export const CATEGORY_LABELS: Record<PartCategory, string> = {
-	board: 'Board',
-	'cpu-block': 'CPU block',
-	gpu: 'Graphics card',
-	pump: 'Pump',
-	reservoir: 'Reservoir',
-	'pump-reservoir': 'Pump-reservoir',
-	radiator: 'Radiator',
-	fan: 'Fan',
-	psu: 'Power supply',
-	fitting: 'Fitting',
-	drive: 'Drive',
-	other: 'Other'
-};
+export { CATEGORY_LABELS };
 export const CATEGORIES = partCategorySchema.options;
 
 export const KEEPOUT_KIND_LABELS: Record<KeepoutDef['kind'], string> = {
@@ -95,7 +83,7 @@ export function categoryTemplate(
 		case 'reservoir':
 			return { keepouts: [fittingsAbove], ports: topPorts(w, h, d, 1) };
 		case 'radiator':
-			// Length along Y (as the engine's fixtures stand radiators), ports on the top end tank.
+			// Length along Y (as the standard library stands radiators), ports on the top end tank.
 			return {
 				keepouts: [{ ...fittingsAbove, label: 'Fittings at the port end' }],
 				ports: topPorts(w, h, d, 2)

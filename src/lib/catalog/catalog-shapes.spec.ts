@@ -7,7 +7,7 @@ import {
 	compartmentsFor,
 	enclosureDefSchema
 } from '$lib/geometry';
-import { demoEnclosure } from '$lib/geometry/fixtures';
+import { demoEnclosure } from '$lib/geometry/standard-library';
 import { slotPositions } from './features';
 import { bodySizeMm, categoryTemplate, FITTING_ROOM_MM } from './part-shape';
 import { enclosureToForm, formFieldFor, formToEnclosure } from './schemas';

@@ -5,10 +5,10 @@
  */
 import { randomBytes } from 'node:crypto';
 import { eq, inArray } from 'drizzle-orm';
-import { innerVolumeLitres } from '../geometry/enclosure';
-import { demoEnclosure, demoParts, demoSceneInput } from '../geometry/fixtures';
-import type { PartDef } from '../geometry/schema';
-import { db } from './db';
+import { innerVolumeLitres } from '../../geometry/enclosure';
+import { demoEnclosure, demoParts, demoSceneInput } from '../../geometry/standard-library';
+import type { PartDef } from '../../geometry/schema';
+import { db } from '../db';
 import {
 	builds,
 	checklistTicks,
@@ -16,7 +16,7 @@ import {
 	enclosures,
 	parts,
 	variants
-} from './db/schema';
+} from '../db/schema';
 
 export type SheetTestBuild = {
 	buildId: string;

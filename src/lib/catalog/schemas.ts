@@ -4,7 +4,7 @@
  * part is one the engine can resolve.
  */
 import { z } from 'zod';
-import { isCurrencyCode } from '../client/money';
+import { isCurrencyCode } from '../quotes/money';
 import { int4 } from '$lib/schemas/common';
 import {
 	COORD_LIMIT_MM,
@@ -18,7 +18,8 @@ import {
 	type PartDef
 } from '$lib/geometry';
 
-export const FACES = faceNameSchema.options;
+/** The enclosure's panels by name (the scene format's FaceName), for the wall fields. */
+export const PANELS = faceNameSchema.options;
 
 /** Money, notes and provenance: what a quote needs beyond the engine's PartDef. */
 export const partExtrasSchema = z.object({
@@ -148,7 +149,7 @@ export function enclosureToForm(
 	extra: { revision: number; description: string }
 ): EnclosureForm {
 	const walls = Object.fromEntries(
-		FACES.flatMap((f) => [
+		PANELS.flatMap((f) => [
 			[`${f}Mm`, def.walls[f].thicknessMm],
 			[`${f}Kind`, def.walls[f].kind],
 			[`${f}OffsetMm`, def.walls[f].offsetMm]
@@ -201,7 +202,7 @@ export function formToEnclosure(form: EnclosureForm): { raw: unknown; featuresEr
 	}
 	const f = features as Record<string, unknown>;
 	const walls = Object.fromEntries(
-		FACES.map((face) => [
+		PANELS.map((face) => [
 			face,
 			{
 				thicknessMm: form[`${face}Mm`],

@@ -3,8 +3,8 @@
  * shape that takes most work per box (every pair overlaps, in 3D and seen along every axis).
  * Plain JSON (SceneInput), so HTTP tests and the soak script can send them as they are.
  */
-import { checkExcess } from './cost';
-import { sceneSchema, type SceneInput } from './schema';
+import { checkExcess } from '../../geometry/cost';
+import { sceneSchema, type SceneInput } from '../../geometry/schema';
 
 const panel = { thicknessMm: 2, kind: 'solid' as const, offsetMm: 0 };
 

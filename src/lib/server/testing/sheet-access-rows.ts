@@ -7,12 +7,12 @@
  */
 import { and, count, eq } from 'drizzle-orm';
 import sharp from 'sharp';
-import { db } from './db';
-import { checklistTicks } from './db/schema';
-import { createShareLink } from './sharing/links';
-import { addPhoto } from './sharing/photos';
-import { createSheetBuild } from './sheet-test-build';
-import { SIGN_IN, type MatrixFixture, type MatrixRow } from './testing/access-matrix';
+import { db } from '../db';
+import { checklistTicks } from '../db/schema';
+import { createShareLink } from '../sharing/links';
+import { addPhoto } from '../sharing/photos';
+import { createSheetBuild } from './sheet-build';
+import { SIGN_IN, type MatrixFixture, type MatrixRow } from './access-matrix';
 
 /** The demo build in the fixture's studio, its variant shared with the fixture's client. */
 async function withSheet(f: MatrixFixture) {

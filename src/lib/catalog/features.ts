@@ -4,7 +4,8 @@ import {
 	type BracketDef,
 	type DividerDef,
 	type MountDef,
-	type Vec3
+	type Vec3,
+	axisIndex
 } from '$lib/geometry';
 
 export type Features = { dividers: DividerDef[]; brackets: BracketDef[]; mounts: MountDef[] };
@@ -81,7 +82,7 @@ export function slotPositions(
 	high: boolean,
 	pitchMm = SLOT_PITCH_MM
 ): { label: string; offsetMm: number }[] {
-	const axis = divider.axis === 'x' ? 0 : divider.axis === 'y' ? 1 : 2;
+	const axis = axisIndex(divider.axis);
 	return counts
 		.filter((n) => Number.isFinite(n) && n > 0)
 		.map((n) => {

@@ -11,18 +11,13 @@ import {
 	type FitReport,
 	type MountProblem,
 	type Overlap,
-	type PartReport
+	type PartReport,
+	axisIndex
 } from '$lib/geometry';
+import { faceWords } from './faces';
 
 /** Which side of a part a gap is on, seen from the front. */
-export const FACE_WORDS: Record<Face, string> = {
-	'-x': 'left',
-	'+x': 'right',
-	'-y': 'below',
-	'+y': 'above',
-	'-z': 'front',
-	'+z': 'behind'
-};
+export const FACE_WORDS = faceWords('side');
 
 export function mm(valueMm: number | null): string {
 	return valueMm === null ? '—' : formatMm(valueMm);
@@ -84,19 +79,12 @@ export function moveSentence(moves: readonly ClearingMove[], noMove?: string): s
 const AXIS_WORDS = { x: 'width', y: 'height', z: 'depth' } as const;
 
 /** Where a gap is, as a preposition: "2.0 mm above the CPU block". */
-const BESIDE_WORDS: Record<Face, string> = {
-	'-x': 'left of',
-	'+x': 'right of',
-	'-y': 'below',
-	'+y': 'above',
-	'-z': 'in front of',
-	'+z': 'behind'
-};
+const BESIDE_WORDS = faceWords('beside');
 
 /** "Card and support bracket overlap by 3.5 mm along depth; move the bracket 1 step back." */
 export function overlapSentence(o: Overlap): string {
 	const axis = o.axis;
-	const depth = o.depthMm[axis === 'x' ? 0 : axis === 'y' ? 1 : 2];
+	const depth = o.depthMm[axisIndex(axis)];
 	const keepout = o.a.kind === 'keepout' ? o.a : o.b.kind === 'keepout' ? o.b : null;
 	const other = keepout === o.a ? o.b : o.a;
 	const lead =
@@ -129,8 +117,12 @@ export function tightestGap(
 	return best;
 }
 
-/** One line for a client: "Everything fits; the tightest gap is 2.0 mm above the CPU block." */
-export function fitSummary(report: FitReport): string {
+/**
+ * The one-line verdict on a report, for lists (the comparison page): "Everything fits; the tightest
+ * gap is 2.0 mm above the CPU block." The client page's fuller summary (headline and sentences) is
+ * fitSummary in $lib/sharing/summary.ts.
+ */
+export function fitVerdict(report: FitReport): string {
 	const c = report.totals.counts;
 	if (c.collides + c.blocked + c.outside > 0) {
 		const parts = [

@@ -4,9 +4,9 @@
  * the studio's clients 403, another studio's owner 404 for this studio's enclosure (and their own
  * catalogue's answer for a scene), anonymous callers 401.
  */
-import { demoEnclosure, demoSceneInput } from '$lib/geometry/fixtures';
-import { createEnclosure } from './catalog/enclosures';
-import type { MatrixFixture, MatrixRow } from './testing/access-matrix';
+import { demoEnclosure, demoSceneInput } from '$lib/geometry/standard-library';
+import { createEnclosure } from '../catalog/enclosures';
+import type { MatrixFixture, MatrixRow } from './access-matrix';
 
 export async function withEnclosure(f: MatrixFixture) {
 	const made = await createEnclosure(f.studio.id, f.owner.id, { definition: demoEnclosure() });

@@ -4,11 +4,11 @@
  * them; the studio's clients get 403, another studio 404, anonymous visitors the sign-in page.
  */
 import { eq } from 'drizzle-orm';
-import { forkVariant, variantsOf } from './builds';
-import { demoBuildIn } from './builds.spec-util';
-import { db } from './db';
-import { builds, variants } from './db/schema';
-import { SIGN_IN, type MatrixFixture, type MatrixRow } from './testing/access-matrix';
+import { forkVariant, variantsOf } from '../builds';
+import { demoBuildIn } from './builds';
+import { db } from '../db';
+import { builds, variants } from '../db/schema';
+import { SIGN_IN, type MatrixFixture, type MatrixRow } from './access-matrix';
 
 async function withTwoVariants(f: MatrixFixture) {
 	const b = await demoBuildIn(f.studio.id, f.owner.id);

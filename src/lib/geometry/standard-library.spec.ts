@@ -1,8 +1,8 @@
-/** The shared fixtures are what the demo seed shows: they must say what they claim. */
+/** The standard library and demo data are what the demo seed shows: they must say what they claim. */
 import { describe, expect, it } from 'vitest';
 import { checkScene } from './check';
 import { innerSizeMm, innerVolumeLitres } from './enclosure';
-import { DEMO_SPINE_OFFSETS, demoScene, standardParts } from './fixtures';
+import { DEMO_SPINE_OFFSETS, demoScene, standardParts } from './standard-library';
 import { partDefSchema } from './schema';
 
 describe('demo scene', () => {

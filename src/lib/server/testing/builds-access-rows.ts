@@ -4,11 +4,11 @@
  * 403 on everything that edits a build, the owner of another studio 404 (the build's existence is
  * not revealed), anonymous visitors the sign-in page (pages) or 401 (API).
  */
-import { demoSceneInput } from '$lib/geometry/fixtures';
-import { SIGN_IN, type MatrixFixture, type MatrixRow } from './testing/access-matrix';
-import { variantsOf } from './builds';
-import { buildCount, demoBuildIn, demoEnclosureIn, storedVariant } from './builds.spec-util';
-import { latestVersion } from './versions';
+import { demoSceneInput } from '$lib/geometry/standard-library';
+import { SIGN_IN, type MatrixFixture, type MatrixRow } from './access-matrix';
+import { variantsOf } from '../builds';
+import { buildCount, demoBuildIn, demoEnclosureIn, storedVariant } from './builds';
+import { latestVersion } from '../versions';
 
 async function withBuild(f: MatrixFixture) {
 	const b = await demoBuildIn(f.studio.id, f.owner.id);

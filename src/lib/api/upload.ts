@@ -1,5 +1,5 @@
 /** The photos page's one network call: an upload with progress (fetch cannot report upload progress). */
-import type { UploadResponse } from '../../../routes/api/photos/[buildId]/+server';
+import type { UploadResponse } from '../../routes/api/photos/[buildId]/+server';
 
 export type UploadProgress = { loaded: number; total: number };
 

@@ -10,18 +10,13 @@ import { and, count, eq, isNotNull } from 'drizzle-orm';
 import sharp from 'sharp';
 import { db } from '../db';
 import { comments, photos, quotes, shareLinks, variants } from '../db/schema';
-import type { Fields } from '../testing/client';
-import {
-	SIGN_IN,
-	type MatrixFixture,
-	type MatrixRow,
-	type Visitor
-} from '../testing/access-matrix';
+import type { Fields } from './client';
+import { SIGN_IN, type MatrixFixture, type MatrixRow, type Visitor } from './access-matrix';
 import { newId } from '../tokens';
-import { createShareLink, revokeShareLink } from './links';
-import { addPhoto } from './photos';
-import { demoBuild } from './test-factory';
-import { photoRef } from './view';
+import { createShareLink, revokeShareLink } from '../sharing/links';
+import { addPhoto } from '../sharing/photos';
+import { demoBuild } from './sharing';
+import { photoRef } from '../sharing/view';
 
 const all = (e: MatrixRow['expect']['owner']): MatrixRow['expect'] => ({
 	owner: e,

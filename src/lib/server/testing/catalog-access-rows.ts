@@ -5,7 +5,7 @@
  * 200 and this studio's items 404; anonymous visitors go to sign-in (pages) or get 401 (API).
  */
 import { and, count, eq, isNotNull } from 'drizzle-orm';
-import { demoEnclosure } from '$lib/geometry/fixtures';
+import { demoEnclosure } from '$lib/geometry/standard-library';
 import { db } from '../db';
 import { enclosures, parts } from '../db/schema';
 import {
@@ -14,9 +14,9 @@ import {
 	type MatrixFixture,
 	type MatrixRow,
 	type Visitor
-} from '../testing/access-matrix';
-import { createEnclosure } from './enclosures';
-import { createPart } from './parts';
+} from './access-matrix';
+import { createEnclosure } from '../catalog/enclosures';
+import { createPart } from '../catalog/parts';
 
 type Cell = Expected;
 const catalogue = (

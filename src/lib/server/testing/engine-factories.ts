@@ -12,7 +12,7 @@ import {
 	type Scene,
 	type SceneInput,
 	type Vec3
-} from './schema';
+} from '../../geometry/schema';
 
 /** A plain enclosure: `innerMm` inside, every panel `wallMm` thick and solid. */
 export function plainEnclosure(

@@ -1,16 +1,16 @@
 /**
- * Test data for builds: the engine's demo enclosure and parts (src/lib/geometry/fixtures.ts) put
+ * Test data for builds: the engine's demo enclosure and parts (src/lib/geometry/standard-library.ts) put
  * into a studio's own catalogue, and a build with the demo scene saved as its first variant. The
  * studio's parts get ids of their own, so placements are rewritten to them.
  */
 import { eq } from 'drizzle-orm';
-import { demoEnclosure, demoParts, demoSceneInput } from '$lib/geometry/fixtures';
+import { demoEnclosure, demoParts, demoSceneInput } from '$lib/geometry/standard-library';
 import { variantSettingsSchema, type VariantSettings } from '$lib/builds/settings';
-import { createBuild, saveVariantSettings, variantsOf } from './builds';
-import { createEnclosure } from './catalog/enclosures';
-import { createPart } from './catalog/parts';
-import { db } from './db';
-import { builds, variants } from './db/schema';
+import { createBuild, saveVariantSettings, variantsOf } from '../builds';
+import { createEnclosure } from '../catalog/enclosures';
+import { createPart } from '../catalog/parts';
+import { db } from '../db';
+import { builds, variants } from '../db/schema';
 
 export type TestBuild = {
 	studioId: string;

@@ -4,13 +4,13 @@
  * the engine's demo scene does. Relative imports only: Playwright loads this file too.
  */
 import { eq } from 'drizzle-orm';
-import { demoEnclosure, demoParts, demoSceneInput } from '../../geometry/fixtures';
+import { demoEnclosure, demoParts, demoSceneInput } from '../../geometry/standard-library';
 import { boundsOf, innerVolumeLitres } from '../../geometry';
 import { db } from '../db';
 import { builds, enclosureVersions, enclosures, parts, variants } from '../db/schema';
-import { studioWithMembers } from '../testing/factories';
+import { studioWithMembers } from './factories';
 import { newId } from '../tokens';
-import { createShareLink } from './links';
+import { createShareLink } from '../sharing/links';
 
 /** Invented list prices, minor units (EUR cents), keyed by the demo part ids. */
 export const DEMO_PRICES: Record<string, number> = {

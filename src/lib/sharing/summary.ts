@@ -8,34 +8,28 @@ import {
 	type Face,
 	type FitReport,
 	type ItemRef,
-	type PartCategory,
-	type ResolvedScene
+	type ResolvedScene,
+	axisIndex
 } from '$lib/geometry';
-import { CATEGORY_WORDS as SHEET_CATEGORY_WORDS } from '$lib/builds/sheet-words';
-import { gapWords, mountProblemDetail } from '$lib/builds/words';
-import type { FitSummary } from '$lib/components/client/types';
+import { AXIS_TABLE, CATEGORY_NOUNS, faceWords } from '$lib/words/faces';
+import { gapWords, mountProblemDetail } from '$lib/words/builds';
+import type { FitSummary } from '$lib/sharing/types';
 
 export type { FitSummary };
 
 const mm = formatMm;
 
 /** Plain names of part kinds; 'other' reads as "the part" in a sentence. */
-export const CATEGORY_WORDS: Record<PartCategory, string> = {
-	...SHEET_CATEGORY_WORDS,
-	other: 'part'
-};
+export const CATEGORY_WORDS = CATEGORY_NOUNS;
 
 /** Where the gap on a part's face lies, seen from the front. */
-const FACE_WORDS: Record<Face, string> = {
-	'+y': 'above',
-	'-y': 'below',
-	'+x': 'to the right of',
-	'-x': 'to the left of',
-	'+z': 'behind',
-	'-z': 'in front of'
-};
+const FACE_WORDS = faceWords('besideFull');
 
-const AXIS_WORDS = { x: 'across the width', y: 'in height', z: 'in depth' } as const;
+const AXIS_WORDS = {
+	x: AXIS_TABLE.x.along,
+	y: AXIS_TABLE.y.along,
+	z: AXIS_TABLE.z.along
+} as const;
 
 /**
  * Short names for placed parts the client can follow: "the CPU block" when there is one, "fan 2"
@@ -133,7 +127,7 @@ export function fitSummary(
 	const details: string[] = [];
 
 	for (const o of report.overlaps) {
-		const depth = o.depthMm[{ x: 0, y: 1, z: 2 }[o.axis]];
+		const depth = o.depthMm[axisIndex(o.axis)];
 		const a = refName(o.a, names);
 		const b = refName(o.b, names);
 		if (o.kind === 'collides') {
