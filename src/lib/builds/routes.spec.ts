@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { checkScene, resolveScene, sceneSchema, type Scene } from '$lib/geometry';
 import { demoScene } from '$lib/geometry/fixtures';
 import { findRoute, routeBoxes } from '$lib/geometry/route';
-import { routeInputFor, routeRunSchema } from './routes';
+import { cableLengthWords, routeInputFor, routeRunSchema } from './routes';
 
 /** The routed tube as a placed part of its own, so checkScene judges its room like any body. */
 function withTube(scene: Scene, boxes: { min: number[]; max: number[] }[]): Scene {
@@ -77,5 +77,14 @@ describe('routes in the demo build', () => {
 		const made = routeInputFor(demoScene(), run);
 		expect(made.ok).toBe(false);
 		if (!made.ok) expect(made.issue.path).toBe('run.from.portId');
+	});
+});
+
+describe('cableLengthWords', () => {
+	it('adds both plugs and rounds up to 10 mm: 231.4 + 2 × 8 = 247.4 → about 250 mm', () => {
+		expect(cableLengthWords('24-pin', 231.4, 16, 'behind the board tray')).toBe(
+			'24-pin: about 250 mm, behind the board tray'
+		);
+		expect(cableLengthWords('8-pin', 100, 0)).toBe('8-pin: about 100 mm');
 	});
 });

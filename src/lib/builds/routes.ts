@@ -94,3 +94,17 @@ export function routeInputFor(
 		}
 	};
 }
+
+/**
+ * A suggested cable's length for the build sheet, in words: the centre-line length plus both
+ * plugs' reach, rounded up to the next 10 mm ("24-pin: about 250 mm, behind the board tray").
+ */
+export function cableLengthWords(
+	label: string,
+	lengthMm: number,
+	plugReachMm: number,
+	where?: string
+): string {
+	const about = Math.ceil((lengthMm + plugReachMm) / 10) * 10;
+	return `${label}: about ${about} mm${where ? `, ${where}` : ''}`;
+}
