@@ -25,6 +25,8 @@ import { defaultFittings, defaultTubeKinds } from '../src/lib/geometry/loop-libr
 import { bendsOf, norm, sub } from '../src/lib/geometry/loop-path';
 import type { LoopDef } from '../src/lib/geometry/schema';
 import { partsByPositions, type FitCandidate } from '../src/lib/builds/fits';
+import { findRoute, routeMany, type ManyRun, type RouteInput } from '../src/lib/geometry/route';
+import { routeObstacles } from '../src/lib/geometry/route-scene';
 import { landOnMount } from '../src/lib/builds/placement';
 
 const SEED = 20_240_601;
@@ -658,6 +660,281 @@ function loopRow() {
 	return { full, drag, naive, segments, runs: scene.loops![0].runs.length };
 }
 
+/** Hard tube in the route figures: 12 mm outer diameter, 24 mm bend radius (two diameters), 2 mm clearance. */
+const ROUTE_TUBE = { kind: 'round' as const, outerDiameterMm: 12 };
+const ROUTE_R = 24;
+
+/** Six runs through the 100-part scene, in both compartments (ports at the walls, invented). */
+const LOOP_RUNS: [string, Vec3, Face, Vec3, Face][] = [
+	['across', [10, 250, 250], '+x', [590, 300, 250], '-x'],
+	['front-back', [300, 150, 10], '+z', [200, 90, 490], '-z'],
+	['front-back-2', [150, 120, 10], '+z', [450, 120, 490], '-z'],
+	['upper', [300, 350, 10], '+z', [400, 260, 490], '-z'],
+	['back-right', [300, 120, 490], '-z', [590, 130, 250], '-x'],
+	['front-left', [500, 100, 10], '+z', [10, 140, 250], '+x']
+];
+type Face = '-x' | '+x' | '-y' | '+y' | '-z' | '+z';
+
+function routeShared(scene: Scene) {
+	const resolved = resolveScene(scene);
+	// The bounds are the inside: the walls are its faces, so they need not be obstacles too.
+	const obstacles = routeObstacles(resolved).filter((o) => !o.id!.startsWith('wall:'));
+	return { bounds: resolved.innerBox, obstacles, clearanceMm: 2, bendPenaltyMm: 60 };
+}
+
+/**
+ * Reference for route_vs_dijkstra: plain Dijkstra (binary heap) over every 1 mm point of the
+ * bounds with the same rules as the engine (tube boxes, bends with their box, 2r between bends,
+ * r after the start and before the end). Blocked centre points are sampled every 0.5 mm into a
+ * 3D prefix sum, so each box query is O(1): with whole-mm inputs a closed box meets an open
+ * inflated obstacle exactly when it holds a blocked half-mm sample.
+ */
+function dijkstra1mm(input: RouteInput): number {
+	const half = input.section.kind === 'round' ? input.section.outerDiameterMm / 2 : 0;
+	const c = input.clearanceMm;
+	const r = input.bendRadiusMm;
+	const B = input.bendPenaltyMm;
+	const lo = input.bounds.min.map((v) => v + c + half);
+	const hi = input.bounds.max.map((v) => v - c - half);
+	const n = [0, 1, 2].map((a) => Math.round(hi[a] - lo[a]) + 1);
+	const m = n.map((k) => 2 * k);
+	// Prefix sum over half-mm samples, one row of padding.
+	const P = new Int32Array((m[0] + 1) * (m[1] + 1) * (m[2] + 1));
+	const at = (i: number, j: number, k: number) => i + (m[0] + 1) * (j + (m[1] + 1) * k);
+	for (const o of input.obstacles) {
+		const b = 'box' in o ? o.box : o;
+		const grow = half + c;
+		const from = [0, 1, 2].map((a) => Math.max(0, Math.floor((b.min[a] - grow - lo[a]) * 2) + 1));
+		const to = [0, 1, 2].map((a) =>
+			Math.min(m[a] - 1, Math.ceil((b.max[a] + grow - lo[a]) * 2) - 1)
+		);
+		for (let k = from[2]; k <= to[2]; k++) {
+			for (let j = from[1]; j <= to[1]; j++) {
+				for (let i = from[0]; i <= to[0]; i++) P[at(i + 1, j + 1, k + 1)] = 1;
+			}
+		}
+	}
+	for (let k = 1; k <= m[2]; k++) {
+		for (let j = 1; j <= m[1]; j++) {
+			for (let i = 1; i <= m[0]; i++) {
+				P[at(i, j, k)] +=
+					P[at(i - 1, j, k)] +
+					P[at(i, j - 1, k)] +
+					P[at(i, j, k - 1)] -
+					P[at(i - 1, j - 1, k)] -
+					P[at(i - 1, j, k - 1)] -
+					P[at(i, j - 1, k - 1)] +
+					P[at(i - 1, j - 1, k - 1)];
+			}
+		}
+	}
+	/** Is any blocked sample in the centre-space box [a, b] (mm, inclusive)? */
+	const blocked = (a: number[], b: number[]) => {
+		const x0 = Math.max(0, Math.round((a[0] - lo[0]) * 2));
+		const y0 = Math.max(0, Math.round((a[1] - lo[1]) * 2));
+		const z0 = Math.max(0, Math.round((a[2] - lo[2]) * 2));
+		const x1 = Math.round((b[0] - lo[0]) * 2) + 1;
+		const y1 = Math.round((b[1] - lo[1]) * 2) + 1;
+		const z1 = Math.round((b[2] - lo[2]) * 2) + 1;
+		if (x1 > m[0] || y1 > m[1] || z1 > m[2] || x0 >= x1 || y0 >= y1 || z0 >= z1) return true;
+		const sum =
+			P[at(x1, y1, z1)] -
+			P[at(x0, y1, z1)] -
+			P[at(x1, y0, z1)] -
+			P[at(x1, y1, z0)] +
+			P[at(x0, y0, z1)] +
+			P[at(x0, y1, z0)] +
+			P[at(x1, y0, z0)] -
+			P[at(x0, y0, z0)];
+		return sum > 0;
+	};
+	const U = [
+		[-1, 0, 0],
+		[1, 0, 0],
+		[0, -1, 0],
+		[0, 1, 0],
+		[0, 0, -1],
+		[0, 0, 1]
+	];
+	const faces = ['-x', '+x', '-y', '+y', '-z', '+z'];
+	const seg = (p: number[], q: number[]) =>
+		blocked(
+			[0, 1, 2].map((a) => Math.min(p[a], q[a])),
+			[0, 1, 2].map((a) => Math.max(p[a], q[a]))
+		);
+	const S = input.start.point;
+	const E = input.end.point;
+	const sd = faces.indexOf(input.start.direction);
+	const ed = faces.indexOf(input.end.direction) ^ 1;
+	const total = n[0] * n[1] * n[2] * 6;
+	const g = new Float64Array(total).fill(Infinity);
+	const idx = (p: number[], d: number) =>
+		((Math.round(p[2] - lo[2]) * n[1] + Math.round(p[1] - lo[1])) * n[0] +
+			Math.round(p[0] - lo[0])) *
+			6 +
+		d;
+	const inside = (p: number[]) =>
+		[0, 1, 2].every((a) => p[a] >= lo[a] - 1e-9 && p[a] <= hi[a] + 1e-9);
+	const heapF: number[] = [];
+	const heapS: number[] = [];
+	const push = (f: number, s: number) => {
+		heapF.push(f);
+		heapS.push(s);
+		let i = heapF.length - 1;
+		while (i > 0) {
+			const p = (i - 1) >> 1;
+			if (heapF[p] <= heapF[i]) break;
+			[heapF[p], heapF[i]] = [heapF[i], heapF[p]];
+			[heapS[p], heapS[i]] = [heapS[i], heapS[p]];
+			i = p;
+		}
+	};
+	const pop = () => {
+		const f = heapF[0];
+		const s = heapS[0];
+		const lf = heapF.pop()!;
+		const ls = heapS.pop()!;
+		if (heapF.length) {
+			heapF[0] = lf;
+			heapS[0] = ls;
+			let i = 0;
+			for (;;) {
+				const l = 2 * i + 1;
+				let b = i;
+				if (l < heapF.length && heapF[l] < heapF[b]) b = l;
+				if (l + 1 < heapF.length && heapF[l + 1] < heapF[b]) b = l + 1;
+				if (b === i) break;
+				[heapF[b], heapF[i]] = [heapF[i], heapF[b]];
+				[heapS[b], heapS[i]] = [heapS[i], heapS[b]];
+				i = b;
+			}
+		}
+		return { f, s };
+	};
+	const relax = (p: number[], d: number, v: number) => {
+		if (!inside(p)) return;
+		const s = idx(p, d);
+		if (v < g[s]) {
+			g[s] = v;
+			push(v, s);
+		}
+	};
+	const add = (p: number[], u: number[], k: number) => p.map((v, a) => v + u[a] * k);
+	/** E straight ahead of p along u: its distance, else -1. */
+	const ahead = (p: number[], u: number[]) => {
+		let k = -1;
+		for (let a = 0; a < 3; a++) {
+			if (u[a] === 0 && p[a] !== E[a]) return -1;
+			if (u[a] !== 0) k = (E[a] - p[a]) * u[a];
+		}
+		return k;
+	};
+	let best = Infinity;
+	const su = U[sd];
+	if (sd === ed && ahead(S, su) > 0 && !seg(add(S, su, half), add(E, su, -half))) {
+		best = ahead(S, su);
+	}
+	const L = add(S, su, r);
+	if (!seg(add(S, su, half), L)) relax(L, sd, r);
+	while (heapF.length) {
+		const { f, s } = pop();
+		if (f >= best) break;
+		if (f > g[s]) continue;
+		const d = s % 6;
+		const cell = (s - d) / 6;
+		const p = [
+			lo[0] + (cell % n[0]),
+			lo[1] + (Math.floor(cell / n[0]) % n[1]),
+			lo[2] + Math.floor(cell / (n[0] * n[1]))
+		];
+		const u = U[d];
+		const q = add(p, u, 1);
+		if (d === ed && ahead(p, u) === 1 && !seg(p, add(q, u, -half))) best = Math.min(best, f + 1);
+		if (!seg(p, q)) relax(q, d, f + 1);
+		for (let d2 = 0; d2 < 6; d2++) {
+			if (d2 >> 1 === d >> 1) continue;
+			const v = U[d2];
+			// The bend's box less the half-width: back r − half along u, on r − half along v.
+			const a = add(add(p, u, -(r - half)), v, 0);
+			const b = add(p, v, r - half);
+			if (
+				seg(
+					[0, 1, 2].map((k) => Math.min(a[k], b[k], p[k])),
+					[0, 1, 2].map((k) => Math.max(a[k], b[k], p[k]))
+				)
+			) {
+				continue;
+			}
+			const k = ahead(p, v);
+			if (d2 === ed && k >= r && !seg(p, add(E, v, -half))) best = Math.min(best, f + B + k);
+			const j = add(p, v, 2 * r);
+			if (!seg(p, j)) relax(j, d2, f + B + 2 * r);
+		}
+	}
+	return best;
+}
+
+function routeRows() {
+	const scene = hundredPartScene();
+	const shared = routeShared(scene);
+	const [, s, sd, e, ed] = LOOP_RUNS[0];
+	const one: RouteInput = {
+		...shared,
+		start: { point: s, direction: sd },
+		end: { point: e, direction: ed },
+		section: ROUTE_TUBE,
+		bendRadiusMm: ROUTE_R,
+		mode: 'hard'
+	};
+	const single = time(() => findRoute(one), 21, 5);
+	if (!single.result.ok) throw new Error(`route: ${single.result.reason}`);
+	const runs: ManyRun[] = LOOP_RUNS.map(([id, s, sd, e, ed]) => ({
+		id,
+		start: { point: s, direction: sd },
+		end: { point: e, direction: ed },
+		section: ROUTE_TUBE,
+		bendRadiusMm: ROUTE_R,
+		mode: 'hard'
+	}));
+	const loop = time(() => routeMany(runs, shared), 5, 1);
+	const routed = Object.values(loop.result.results).filter((x) => x.ok).length;
+	// The same scene cropped to a 120 × 100 × 120 mm corner, small enough for a 1 mm grid.
+	const crop: Box = { min: [0, 0, 0], max: [120, 100, 120] };
+	const cropped: RouteInput = {
+		...shared,
+		bounds: crop,
+		obstacles: shared.obstacles.filter((o) =>
+			[0, 1, 2].every((a) => o.box.min[a] < crop.max[a] && o.box.max[a] > crop.min[a])
+		),
+		start: { point: [8, 92, 60], direction: '+x' },
+		end: { point: [112, 60, 112], direction: '-x' },
+		section: ROUTE_TUBE,
+		bendRadiusMm: ROUTE_R,
+		mode: 'hard'
+	};
+	// One timed run each: the 1 mm Dijkstra takes tens of seconds.
+	const timed = interleaved<unknown>(
+		{ engine: () => findRoute(cropped), dijkstra: () => dijkstra1mm(cropped) },
+		1,
+		0
+	);
+	const engineAnswer = timed.engine.result as ReturnType<typeof findRoute>;
+	const cost = engineAnswer.ok ? engineAnswer.routes[0].cost : Infinity;
+	const reference = timed.dijkstra.result as number;
+	if (Math.abs(cost - reference) > 1e-6) {
+		throw new Error(`route_vs_dijkstra: engine cost ${cost}, 1 mm Dijkstra ${reference}`);
+	}
+	return {
+		single,
+		bends: single.result.routes[0].bends,
+		loop,
+		routed,
+		cropEngineMs: timed.engine.ms,
+		cropDijkstraMs: timed.dijkstra.ms,
+		cropCost: cost
+	};
+}
+
 function main(): void {
 	// The scene checks run first, before the 20,000-box sets have grown the heap.
 	const big = hundredPartScene();
@@ -701,6 +978,17 @@ function main(): void {
 	const roomCpu = cpuMedian(() => roomTable(demoEnclosure()), 41);
 	console.log(
 		`clearance table, demo enclosure (${room.result.rows.length} rows): ${room.ms.toFixed(3)} ms median, ${room.p10.toFixed(3)} ms low decile`
+	);
+
+	const route = routeRows();
+	console.log(
+		`route, one hard-tube run across the 100-part enclosure (${route.bends} bends): ${route.single.ms.toFixed(1)} ms median, ${route.single.p10.toFixed(1)} ms low decile`
+	);
+	console.log(
+		`loop routes, six runs hardest first, each clear of the ones before (${route.routed} routed): ${route.loop.ms.toFixed(1)} ms median`
+	);
+	console.log(
+		`route vs plain Dijkstra over a 1 mm grid (120 × 100 × 120 mm corner, same cost ${route.cropCost}): ${route.cropEngineMs.toFixed(1)} ms vs ${route.cropDijkstraMs.toFixed(0)} ms`
 	);
 
 	const rows = [50, 200, 2000, 20000].map(broadphaseRow);
@@ -752,6 +1040,10 @@ function main(): void {
 			loop_drag_vs_check: round(loop.drag.ms / loop.full.ms),
 			room_table_p10_ms: round(room.p10),
 			room_table_cpu_ms: round(roomCpu),
+			route_ms: round(route.single.ms),
+			route_p10_ms: round(route.single.p10),
+			loop_route_ms: round(route.loop.ms),
+			route_vs_dijkstra: round(route.cropEngineMs / route.cropDijkstraMs),
 			load_average_1min: round(loadavg()[0]),
 			n50_vs_box_intersect: round(byN(50).engineMs / byN(50).boxIntersectMs),
 			n200_vs_box_intersect: round(byN(200).engineMs / byN(200).boxIntersectMs),

@@ -35,6 +35,10 @@ export const MAX_SWEEP_WORK = 2_000_000;
  * compartment (about 80 bytes each, so about 16 MB at most).
  */
 export const MAX_SWEEP_ROWS = 200_000;
+/** Most obstacles one route search takes (the scene's boxes plus other runs' boxes). */
+export const MAX_ROUTE_OBSTACLES = 4_000;
+/** Search states one route request may expand, across its alternatives and its explanation. */
+export const MAX_ROUTE_EXPANSIONS = 150_000;
 /** Overlaps the fit report lists; the rest are counted in `overlapsNotListed`, totals stay exact. */
 export const MAX_LISTED_OVERLAPS = 200;
 
@@ -48,7 +52,14 @@ export interface SceneCost {
 
 /** A limit a request goes over: which one, where, and a message that names it. */
 export interface CostExcess {
-	limit: 'boxes' | 'candidatePairs' | 'sweepPoints' | 'gridCells' | 'sweepWork' | 'sweepRows';
+	limit:
+		| 'boxes'
+		| 'candidatePairs'
+		| 'sweepPoints'
+		| 'gridCells'
+		| 'sweepWork'
+		| 'sweepRows'
+		| 'routeObstacles';
 	/** The request field that carries the cost, like `scene.placements` or `positions`. */
 	path: string;
 	value: number;
@@ -234,4 +245,16 @@ export function firstPairsById<P extends { i: number; j: number }>(
 	});
 	const threshold = keys.slice().sort()[max - 1];
 	return pairs.filter((_, k) => keys[k] <= threshold);
+}
+
+/** The route search's limit this many obstacles go over, or null. */
+export function routeExcess(obstacles: number, path = 'run.avoid'): CostExcess | null {
+	if (obstacles <= MAX_ROUTE_OBSTACLES) return null;
+	return {
+		limit: 'routeObstacles',
+		path,
+		value: obstacles,
+		max: MAX_ROUTE_OBSTACLES,
+		message: `The route would have to clear ${plural(obstacles, 'boxes')}; the limit is ${plural(MAX_ROUTE_OBSTACLES, 'boxes')}.`
+	};
 }

@@ -221,8 +221,12 @@ export const portDefSchema = z.object({
 	id: idSchema,
 	position: vec3Schema,
 	direction: directionSchema,
-	/** ISO 228-1 parallel pipe thread; G 1/4 for fittings is common practice. */
-	thread: z.string().min(1).max(40).default('G 1/4')
+	/** ISO 228-1 parallel pipe thread; G 1/4 for fittings is common practice. Coolant ports only. */
+	thread: z.string().min(1).max(40).default('G 1/4'),
+	/** A coolant port takes a fitting; a power port a cable's plug. Missing means coolant. */
+	kind: z.enum(['coolant', 'power']).optional(),
+	/** Power ports: the plug's reach out of the face and the straight room its cable needs before the first bend. */
+	plugReachMm: thicknessMm.optional()
 });
 export type PortDef = z.infer<typeof portDefSchema>;
 

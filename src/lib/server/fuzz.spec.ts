@@ -343,6 +343,22 @@ function targets(): fc.Arbitrary<Req>[] {
 			mutated(() => demoSceneInput())
 		),
 		api(
+			'POST /api/routes',
+			'POST',
+			'/api/routes',
+			mutated(() => ({
+				scene: demoSceneInput(),
+				run: {
+					from: { placementId: 'cpu-block', portId: 'out', reachMm: 12 },
+					to: { placementId: 'cpu-block', portId: 'in', reachMm: 12 },
+					section: { kind: 'round', outerDiameterMm: 10 },
+					bendRadiusMm: 5,
+					clearanceMm: 1,
+					mode: 'soft'
+				}
+			}))
+		),
+		api(
 			'POST /api/sweep',
 			'POST',
 			'/api/sweep',

@@ -24,6 +24,8 @@ import {
 	type SweepGridResult,
 	type SweepResult
 } from '$lib/geometry';
+import { MAX_ROUTE_EXPANSIONS, routeExcess } from '$lib/geometry/cost';
+import type { RouteInput, RouteResult } from '$lib/geometry/route';
 // Types only: a value import would fold the worker into this chunk and change its import.meta.url.
 import type { EngineAnswer, EngineTask } from './worker';
 
@@ -197,4 +199,15 @@ export async function gridInPool(
 		refuseCost(excess, excess.limit === 'boxes' || excess.limit === 'candidatePairs' ? prefix : '');
 	}
 	return valueOf<SweepGridResult>(await run(task), '');
+}
+
+/**
+ * Route suggestions for one run, always in a worker: a search is bounded by its expansions
+ * (MAX_ROUTE_EXPANSIONS, a few seconds at most here) but is too long for the request thread.
+ */
+export async function routeInPool(input: RouteInput, path = 'run.avoid'): Promise<RouteResult> {
+	const excess = routeExcess(input.obstacles.length, path);
+	if (excess) refuseCost(excess);
+	const task = { kind: 'route' as const, input: { ...input, maxExpansions: MAX_ROUTE_EXPANSIONS } };
+	return valueOf<RouteResult>(await run(task), '');
 }

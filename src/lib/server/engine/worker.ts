@@ -1,6 +1,6 @@
 /**
- * The engine's work in a worker thread (see pool.ts): a check or a sweep of a scene that already
- * passed the schema and the cost limits. Relative imports only: in development this file runs in
+ * The engine's work in a worker thread (see pool.ts): a check, a sweep or a route search of a
+ * scene that already passed the schema and the cost limits. Relative imports only: in development this file runs in
  * a worker under tsx, which knows no `$lib` alias.
  */
 import {
@@ -15,6 +15,7 @@ import {
 	type SweepGridResult,
 	type SweepResult
 } from '../../geometry/index';
+import { findRoute, type RouteInput, type RouteResult } from '../../geometry/route';
 
 /** This module's own file, for the pool to start workers on (see pool.ts). */
 export const workerUrl = import.meta.url;
@@ -28,6 +29,7 @@ export type EngineTask =
 			positions?: number[];
 			gaps?: GapRequest[];
 	  }
+	| { kind: 'route'; input: RouteInput }
 	| {
 			kind: 'grid';
 			scene: Scene;
@@ -38,12 +40,13 @@ export type EngineTask =
 
 /** A SceneError crosses the thread as a value (a class does not survive the structured clone). */
 export type EngineAnswer =
-	| { ok: true; value: FitReport | SweepResult | SweepGridResult }
+	| { ok: true; value: FitReport | SweepResult | SweepGridResult | RouteResult }
 	| { ok: false; path: string; message: string };
 
 export default function run(task: EngineTask): EngineAnswer {
 	try {
 		if (task.kind === 'check') return { ok: true, value: checkScene(task.scene) };
+		if (task.kind === 'route') return { ok: true, value: findRoute(task.input) };
 		if (task.kind === 'sweep') {
 			return {
 				ok: true,

@@ -139,6 +139,22 @@ export const buildRows: MatrixRow[] = [
 		expect: anyoneSignedIn(200)
 	},
 	{
+		route: '/api/routes',
+		method: 'POST',
+		json: () => ({
+			scene: demoSceneInput(),
+			run: {
+				from: { placementId: 'cpu-block', portId: 'out', reachMm: 12 },
+				to: { placementId: 'cpu-block', portId: 'in', reachMm: 12 },
+				section: { kind: 'round', outerDiameterMm: 10 },
+				bendRadiusMm: 5,
+				clearanceMm: 1,
+				mode: 'soft'
+			}
+		}),
+		expect: anyoneSignedIn(200)
+	},
+	{
 		route: '/api/sweep',
 		method: 'POST',
 		json: () => ({ scene: demoSceneInput(), control: { kind: 'divider', id: 'spine' } }),
