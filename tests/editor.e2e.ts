@@ -78,7 +78,7 @@ test('the spine at "2 slots": the card collides in the report and in 3D; back at
 	await expect(labels.filter({ hasText: /21\.3\scm³/ })).toBeVisible();
 	await expect(labels.filter({ hasText: /21\.3\scm³/ })).toContainText(/mm deep/);
 	await expect(labels.filter({ hasText: /21\.3\scm³/ })).toContainText(
-		/move the divider 1 step left/
+		/graphics card.* ↔ spine: .*move the compact graphics card.*0\.96\smm right, or the spine one slot left/
 	);
 	await page.screenshot({ path: testInfo.outputPath('spine-at-two-slots.png') });
 	await scene.screenshot({ path: testInfo.outputPath('scene-at-two-slots.png') });

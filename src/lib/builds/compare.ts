@@ -100,9 +100,18 @@ export function compareVariants(inputs: CompareInput[]): DiffRow[] {
 	const placementIds = [
 		...new Set(inputs.flatMap((v) => v.report.parts.map((p) => p.placementId)))
 	].sort();
+	// Repeated parts are numbered in placement order ("140 mm fan #2") so rows never share a name.
+	const baseLabel = (id: string) =>
+		inputs.map((v) => v.report.parts.find((p) => p.placementId === id)).find((r) => r)?.label ?? id;
+	const seen = new Map<string, number>();
+	const total = new Map<string, number>();
+	for (const id of placementIds) total.set(baseLabel(id), (total.get(baseLabel(id)) ?? 0) + 1);
 	for (const id of placementIds) {
 		const reports = inputs.map((v) => v.report.parts.find((p) => p.placementId === id));
-		const label = reports.find((r) => r)?.label ?? id;
+		const base = baseLabel(id);
+		const n = (seen.get(base) ?? 0) + 1;
+		seen.set(base, n);
+		const label = (total.get(base) ?? 1) > 1 ? `${base} #${n}` : base;
 		rows.push(
 			statusRow(
 				`part:${id}:status`,

@@ -12,6 +12,7 @@ import { pileSceneInput } from '$lib/geometry/hostile.spec-util';
 import { sceneSchema } from '$lib/geometry/schema';
 import type { FitReport, Scene } from '$lib/geometry';
 import { REPORT_KINDS, reportChips, reportGroups, reportItems } from './report-items';
+import { calloutSentence, gapWords } from './words';
 
 function agree(report: FitReport, marginMm: number) {
 	const items = reportItems(report, marginMm);
@@ -91,6 +92,33 @@ describe('fit report chips and lists', () => {
 		fc.assert(
 			fc.property(sceneArb, (scene) => void agree(checkScene(scene), scene.marginMm)),
 			{ numRuns: 150 }
+		);
+	});
+});
+
+describe('words that name things', () => {
+	it('an overlap in the gap table reads as an overlap, naming what it overlaps', () => {
+		const spine = {
+			id: 'divider:spine',
+			kind: 'divider' as const,
+			label: 'Spine',
+			ownerId: 'spine'
+		};
+		expect(gapWords({ gapMm: -0.96, worstCaseMm: -1.96, against: spine })).toBe(
+			'overlaps the spine by 0.96\u2009mm'
+		);
+		expect(gapWords({ gapMm: 2, worstCaseMm: 2 })).toBe('2.0\u2009mm');
+	});
+
+	it('the colliding demo callout names the card, the spine and both fixes', () => {
+		const report = checkScene({
+			...demo,
+			dividerPositions: { ...demo.dividerPositions, spine: DEMO_SPINE_OFFSETS['2 slots'] }
+		});
+		const hit = report.overlaps.find((o) => o.a.id === 'card/body')!;
+		// 21.3 cm³ and 0.96 mm are the engine's (fixtures.spec.ts checks them); this checks the words.
+		expect(calloutSentence(hit)).toBe(
+			'Compact graphics card, two slots, 185 mm ↔ spine: 21.3\u2009cm³, 0.96\u2009mm deep — move the compact graphics card, two slots, 185 mm 0.96\u2009mm right, or the spine one slot left'
 		);
 	});
 });

@@ -3,15 +3,28 @@
  * both come from here, so a chip never counts something the list doesn't show. Parts' own
  * statuses are shown per part (parts panel), not as chip counts.
  */
-import { formatMm, type FitReport, type FitStatus } from '$lib/geometry';
+import { formatMm, type Face, type FitReport, type FitStatus } from '$lib/geometry';
 import {
-	FACE_WORDS,
+	SIDE_OF_IT,
 	gapWords,
 	mountProblemDetail,
 	mountProblemWords,
 	overlapSentence,
+	theName,
 	tightestGap
 } from './words';
+
+/** Which end of the inside a part reaches past: "at the bottom and the front". */
+const INSIDE_END: Record<Face, string> = {
+	'-x': 'left',
+	'+x': 'right',
+	'-y': 'bottom',
+	'+y': 'top',
+	'-z': 'front',
+	'+z': 'back'
+};
+const listWords = (xs: string[]) =>
+	xs.length <= 1 ? (xs[0] ?? '') : `${xs.slice(0, -1).join(', ')} and ${xs[xs.length - 1]}`;
 
 /** A status, or 'note': a part in a warning keep-out still fits (its own status is unchanged). */
 export type ReportKind = FitStatus | 'note';
@@ -91,7 +104,7 @@ export function reportItems(r: FitReport, marginMm: number): ReportItem[] {
 			out.push({
 				key: `p:${p.placementId}`,
 				status: 'outside',
-				text: `${p.label} reaches past the ${p.outsideFaces.map((f) => FACE_WORDS[f]).join(', ')} of the inside.`,
+				text: `${p.label} reaches past the inside at ${listWords(p.outsideFaces.map((f) => `the ${INSIDE_END[f]}`))}.`,
 				ids: [p.placementId],
 				count: 1
 			});
@@ -100,7 +113,7 @@ export function reportItems(r: FitReport, marginMm: number): ReportItem[] {
 			const g = tightestGap(p);
 			const why =
 				g && g.worstCaseMm < marginMm
-					? `${gapWords(g)} ${FACE_WORDS[g.face]}, to the ${g.against}`
+					? `only ${gapWords(g)} to ${theName(g.against)}, ${SIDE_OF_IT[g.face]}`
 					: mp
 						? mountProblemWords(mp)
 						: 'tight';
@@ -118,7 +131,7 @@ export function reportItems(r: FitReport, marginMm: number): ReportItem[] {
 				key: `p:${p.placementId}`,
 				status: 'clear',
 				text: g
-					? `${p.label}: fits; closest ${gapWords(g)} ${FACE_WORDS[g.face]}.`
+					? `${p.label}: fits; closest ${gapWords(g)} to ${theName(g.against)}, ${SIDE_OF_IT[g.face]}.`
 					: `${p.label}: fits.`,
 				ids: [p.placementId],
 				count: 1
