@@ -71,7 +71,7 @@ test('the spine at "2 slots": the card collides in the report and in 3D; back at
 	await expect(collides).toHaveAttribute('data-status', 'collides');
 	await expect(
 		collides.getByRole('button', {
-			name: /graphics card.*and Spine overlap by 0\.96\smm along width/
+			name: /graphics card.*and the spine overlap by 0\.96\smm along width/
 		})
 	).toBeVisible();
 	// The scene: an interference box with its label (volume, depth, the move that clears it).
@@ -80,6 +80,28 @@ test('the spine at "2 slots": the card collides in the report and in 3D; back at
 	await expect(labels.filter({ hasText: /21\.3\scm³/ })).toContainText(
 		/graphics card.* ↔ spine: .*move the compact graphics card.*0\.96\smm right, or the spine one slot left/
 	);
+	// Every label over the view names both things it is between ("… ↔ …"), and no two labels
+	// overlap on the page (bounding boxes in CSS pixels), with nothing selected and with the card
+	// selected (its gap labels join the callouts).
+	const everyLabel = scene.locator('[data-testid="interference-label"], [data-testid="gap-label"]');
+	const noOverlap = async () => {
+		const rects = await everyLabel.evaluateAll((els) =>
+			els.map((e) => {
+				const r = e.getBoundingClientRect();
+				return { x: r.x, y: r.y, w: r.width, h: r.height, text: e.textContent ?? '' };
+			})
+		);
+		for (let i = 0; i < rects.length; i++) {
+			for (let j = i + 1; j < rects.length; j++) {
+				const [a, b] = [rects[i], rects[j]];
+				const apart = a.x + a.w <= b.x || b.x + b.w <= a.x || a.y + a.h <= b.y || b.y + b.h <= a.y;
+				expect(apart, `"${a.text}" and "${b.text}" overlap`).toBe(true);
+			}
+		}
+		return rects.length;
+	};
+	for (const text of await labels.allTextContents()) expect(text).toMatch(/\S ↔ \S.*: .* deep — /);
+	expect(await noOverlap()).toBeGreaterThan(0);
 	await page.screenshot({ path: testInfo.outputPath('spine-at-two-slots.png') });
 	await scene.screenshot({ path: testInfo.outputPath('scene-at-two-slots.png') });
 

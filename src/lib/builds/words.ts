@@ -63,6 +63,29 @@ export function gapWords(
 	return `${formatMm(g.gapMm)} (${formatMm(g.worstCaseMm).replace(/\u2009mm$/, '')} worst case)`;
 }
 
+/**
+ * A face's gap as the gap table and the 3D labels tell it: an overlap reads as one, with the depth
+ * that clears it (the overlap's thinnest extent), not as the face's negative reach into the other
+ * box ("overlaps the spine by 0.96 mm", not "−195.0 mm").
+ */
+export function faceGapWords(
+	g: FaceGap,
+	overlaps: readonly Overlap[],
+	placementId: string
+): string {
+	if (g.gapMm !== null && g.gapMm < -EPSILON_MM && g.against) {
+		const otherId = g.against.id;
+		const o = overlaps.find(
+			(x) =>
+				(x.a.placementId === placementId && x.b.id === otherId) ||
+				(x.b.placementId === placementId && x.a.id === otherId)
+		);
+		const depth = o ? Math.min(...o.depthMm) : -g.gapMm;
+		return gapWords({ gapMm: -depth, worstCaseMm: null, against: g.against });
+	}
+	return gapWords(g);
+}
+
 /** What is wrong with a mount's stack, in words: "stack 7.0 mm over its budget". */
 export function mountProblemDetail(m: MountProblem): string {
 	switch (m.kind) {
@@ -168,10 +191,11 @@ export function overlapSentence(o: Overlap): string {
 	const depth = o.depthMm[axis === 'x' ? 0 : axis === 'y' ? 1 : 2];
 	const keepout = o.a.kind === 'keepout' ? o.a : o.b.kind === 'keepout' ? o.b : null;
 	const other = keepout === o.a ? o.b : o.a;
+	const [nameA, nameB] = overlapParties(o);
 	const lead =
 		keepout && o.kind !== 'collides'
 			? `${other.label} is in the keep-out ${keepout.label}`
-			: `${o.a.label} and ${o.b.label} overlap`;
+			: `${nameA} and ${theName(nameB)} overlap`;
 	if (o.moves.length === 0) {
 		return `${lead} by ${formatMm(depth)} along ${AXIS_WORDS[axis]}. ${o.noMove ?? 'No single move clears this.'}`;
 	}
