@@ -8,7 +8,7 @@ import { readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import PDFDocument from 'pdfkit';
 import sharp from 'sharp';
-import { STATUS_INK, INK } from '$lib/builds/drawing-style';
+import { BUDGET_MARK, STATUS_INK, INK } from '$lib/builds/drawing-style';
 import { layoutFits } from '$lib/builds/orthographic';
 import type { FitStatus } from '$lib/geometry';
 import { MARGIN_MM, PAPER, type SheetData } from './sheet';
@@ -150,6 +150,7 @@ function swatch(doc: Doc, status: FitStatus, xMm: number, yMm: number) {
 	const s = mmToPt(3.2);
 	doc.save();
 	if (ink.pattern === 'dashed') {
+		doc.rect(x, y, s, s).fill(ink.fill);
 		doc
 			.dash(1.2 * PT, { space: 0.8 * PT })
 			.rect(x, y, s, s)
@@ -176,10 +177,23 @@ function swatch(doc: Doc, status: FitStatus, xMm: number, yMm: number) {
 			]) {
 				doc.circle(x + i * s, y + j * s, 0.25 * PT).fill('#f4efff');
 			}
-		} else if (ink.pattern === 'solid') {
+		} else if (ink.pattern === 'crosshatch') {
+			// Collides: lines both ways inside a heavy dark edge.
+			doc.save();
+			doc.rect(x, y, s, s).clip();
+			for (let k = -s; k < s; k += 1.1 * PT) {
+				doc
+					.moveTo(x + k, y + s)
+					.lineTo(x + k + s, y)
+					.moveTo(x + k, y)
+					.lineTo(x + k + s, y + s)
+					.lineWidth(0.2 * PT)
+					.stroke('#ff9a7a');
+			}
+			doc.restore();
 			doc
 				.rect(x, y, s, s)
-				.lineWidth(0.45 * PT)
+				.lineWidth(0.6 * PT)
 				.stroke(ink.edge);
 		}
 	}
@@ -224,20 +238,14 @@ function fitSection(w: Writer, data: SheetData) {
 		});
 	}
 	w.text('Budgets', { font: w.fonts.bold, gapAfter: 1.2 });
-	const statusOf = {
-		clear: 'clear',
-		tight: 'tight',
-		over: 'collides',
-		unknown: 'outside'
-	} as const;
-	const wordOf = { clear: 'clear', tight: 'tight', over: 'over', unknown: 'not known' } as const;
+	// Budgets carry their own words, not a status's swatch ("over" is not a collision).
 	for (const b of fit.budgets) {
-		w.statusRow(
-			statusOf[b.status],
-			wordOf[b.status],
-			`${b.title}${b.key === 'heat' ? ' (estimate)' : ''}`,
-			[b.text, b.estimateNote].filter(Boolean).join(' ')
+		w.text(
+			`${BUDGET_MARK[b.status].word.toUpperCase()} · ${b.title}${b.key === 'heat' ? ' (estimate)' : ''}`,
+			{ font: w.fonts.medium, gapAfter: 0.2 }
 		);
+		const detail = [b.text, b.estimateNote].filter(Boolean).join(' ');
+		if (detail) w.text(detail, { size: 8.5, color: INK.muted, gapAfter: 1.2 });
 	}
 }
 
