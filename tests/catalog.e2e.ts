@@ -40,7 +40,7 @@ test('a designer creates an enclosure with a divider and sees the 3D preview and
 	await divider.getByRole('button', { name: 'Fill positions' }).click();
 	// PCI Express CEM spec: 20.32 mm slot pitch. Three slots on the high side of a 2 mm divider in
 	// 176 mm: offset 176 − 2 − 60.96 = 113.04 mm.
-	await expect(divider.getByLabel('Offset of low face').nth(1)).toHaveValue('113.04');
+	await expect(divider.getByLabel('Near face at').nth(1)).toHaveValue('113.04');
 
 	const preview = page.getByRole('complementary', { name: 'Preview' });
 	await preview.getByLabel('Show Divider 1 at').selectOption({ label: '3 slots (113.04 mm)' });

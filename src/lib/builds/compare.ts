@@ -6,7 +6,16 @@ import { FACES, STATUS_ORDER, type Face, type FitReport, type FitStatus } from '
 import { toCsv } from '$lib/csv';
 import { gapWords } from './words';
 
-export type CompareInput = { id: string; name: string; report: FitReport; marginMm: number };
+/** A divider or bracket as set in a variant: its offset and the position's name. */
+export type ControlSetting = { key: string; label: string; offsetMm: number; position: string };
+export type CompareInput = {
+	id: string;
+	name: string;
+	report: FitReport;
+	marginMm: number;
+	/** The dividers' and brackets' settings, shown as the first rows. */
+	controls?: ControlSetting[];
+};
 
 export type Cell = {
 	value: number | null;
@@ -18,7 +27,7 @@ export type Cell = {
 
 export type DiffRow = {
 	key: string;
-	group: 'part' | 'compartment' | 'mount' | 'total';
+	group: 'setting' | 'part' | 'compartment' | 'mount' | 'total';
 	label: string;
 	/** Which is better: a bigger number (a gap, spare room) or a smaller one (interference). */
 	better: 'higher' | 'lower' | 'status' | 'none';
@@ -70,14 +79,15 @@ function statusRow(
 	key: string,
 	label: string,
 	statuses: (FitStatus | undefined)[],
-	highlight: string[]
+	highlight: string[],
+	group: DiffRow['group'] = 'part'
 ): DiffRow {
 	const present = statuses.filter((s): s is FitStatus => !!s);
 	const bestRank = present.length ? Math.max(...present.map(rank)) : 0;
 	const differs = new Set(statuses).size > 1;
 	return {
 		key,
-		group: 'part',
+		group,
 		label,
 		better: 'status',
 		differs,
@@ -97,6 +107,25 @@ const mmText = (v: number) => `${v.toFixed(1)}\u2009mm`;
 /** Rows for every part (status + six gaps), compartment, mount stack and the totals. */
 export function compareVariants(inputs: CompareInput[]): DiffRow[] {
 	const rows: DiffRow[] = [];
+	// The settings first: what was changed between the variants, before what it did.
+	const controlKeys = [...new Set(inputs.flatMap((v) => (v.controls ?? []).map((c) => c.key)))];
+	for (const key of controlKeys) {
+		const found = inputs.map((v) => v.controls?.find((c) => c.key === key));
+		const label = found.find((c) => c)?.label ?? key;
+		const row = numberRow(
+			`setting:${key}`,
+			'setting',
+			label,
+			found.map((c) => c?.offsetMm ?? null),
+			'none',
+			(v) => mmText(v)
+		);
+		row.cells = row.cells.map((cell, i) => ({
+			...cell,
+			text: found[i] ? `${found[i].position} · ${cell.text}` : cell.text
+		}));
+		rows.push(row);
+	}
 	const placementIds = [
 		...new Set(inputs.flatMap((v) => v.report.parts.map((p) => p.placementId)))
 	].sort();
@@ -202,6 +231,17 @@ export function compareVariants(inputs: CompareInput[]): DiffRow[] {
 			(v) => `${v.toFixed(1)}\u2009cm³`
 		)
 	);
+	// Better is judged on the worst status; the counts are shown but never judged alone (five
+	// tight parts becoming four is worse when the fifth now collides).
+	rows.push(
+		statusRow(
+			'total:worst',
+			'Worst status',
+			inputs.map((v) => STATUS_ORDER.find((s) => v.report.totals.counts[s] > 0) ?? 'clear'),
+			[],
+			'total'
+		)
+	);
 	for (const s of STATUS_ORDER) {
 		rows.push(
 			numberRow(
@@ -209,7 +249,7 @@ export function compareVariants(inputs: CompareInput[]): DiffRow[] {
 				'total',
 				`Parts ${s}`,
 				inputs.map((v) => v.report.totals.counts[s]),
-				s === 'clear' ? 'higher' : 'lower',
+				'none',
 				(v) => String(v)
 			)
 		);
@@ -218,7 +258,7 @@ export function compareVariants(inputs: CompareInput[]): DiffRow[] {
 		numberRow(
 			'total:heat-spare',
 			'total',
-			'Radiator estimate minus heat',
+			'Radiator capacity minus heat',
 			inputs.map((v) => v.report.budgets.heat.capacityW - v.report.budgets.heat.heatW),
 			'higher',
 			(v) => `${Math.round(v)}\u2009W (estimate)`

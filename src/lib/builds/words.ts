@@ -13,6 +13,7 @@ import {
 	type Overlap,
 	type PartReport
 } from '$lib/geometry';
+import { countWords } from '$lib/words/format';
 
 /** Which side of a part a gap is on, seen from the front. */
 export const FACE_WORDS: Record<Face, string> = {
@@ -227,9 +228,11 @@ export function fitSummary(report: FitReport): string {
 	const c = report.totals.counts;
 	if (c.collides + c.blocked + c.outside > 0) {
 		const parts = [
-			c.collides ? `${c.collides} part${c.collides === 1 ? '' : 's'} collide` : '',
-			c.blocked ? `${c.blocked} blocked` : '',
-			c.outside ? `${c.outside} outside the enclosure` : ''
+			c.collides ? countWords(c.collides, { one: 'part collides', other: 'parts collide' }) : '',
+			c.blocked ? countWords(c.blocked, { one: 'part blocked', other: 'parts blocked' }) : '',
+			c.outside
+				? countWords(c.outside, { one: 'part outside', other: 'parts outside' }) + ' the enclosure'
+				: ''
 		].filter(Boolean);
 		return `Not yet: ${parts.join(', ')}.`;
 	}
