@@ -122,6 +122,10 @@ test('a second save of the same enclosure is stopped, keeps what was typed and o
 }) => {
 	await designerIn(context, baseURL!);
 	await page.goto('/enclosures/new');
+	// A new enclosure starts from a plain box, shown at once with its inside, and says to change it.
+	// 200 × 320 × 240 mm outside less two 2 mm panels per axis = 196 × 316 × 236 mm inside.
+	await expect(page.getByText(/Inside 196\.0\smm × 316\.0\smm × 236\.0\smm/)).toBeVisible();
+	await expect(page.getByRole('note')).toContainText('change the sizes');
 	await page.getByLabel('Name', { exact: true }).fill('Shared bench box');
 	await page.getByRole('button', { name: 'Create enclosure' }).click();
 	await expect(page).toHaveURL(/\/enclosures\/\w+\?saved=1$/);
