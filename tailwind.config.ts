@@ -25,11 +25,11 @@ export default {
 				paper: { DEFAULT: '#f7f3ea', deep: '#efe8da', line: '#ddd3c0' },
 				brass: { light: '#e2c07d', DEFAULT: '#c1964a', dark: '#8f6a2b' },
 				fit: {
-					clear: '#2e9d83',
-					tight: '#e0a526',
-					blocked: '#8b5fd1',
-					collides: '#e4502c',
-					outside: '#8d939b'
+					clear: '#3aae90',
+					tight: '#f0c24a',
+					blocked: '#8357cc',
+					collides: '#8a1c12',
+					outside: '#f4f5f6'
 				}
 			}
 		}

@@ -40,7 +40,7 @@ test('a designer creates an enclosure with a divider and sees the 3D preview and
 	await divider.getByRole('button', { name: 'Fill positions' }).click();
 	// PCI Express CEM spec: 20.32 mm slot pitch. Three slots on the high side of a 2 mm divider in
 	// 176 mm: offset 176 − 2 − 60.96 = 113.04 mm.
-	await expect(divider.getByLabel('Offset of low face').nth(1)).toHaveValue('113.04');
+	await expect(divider.getByLabel('Near face at').nth(1)).toHaveValue('113.04');
 
 	const preview = page.getByRole('complementary', { name: 'Preview' });
 	await preview.getByLabel('Show Divider 1 at').selectOption({ label: '3 slots (113.04 mm)' });
@@ -122,6 +122,10 @@ test('a second save of the same enclosure is stopped, keeps what was typed and o
 }) => {
 	await designerIn(context, baseURL!);
 	await page.goto('/enclosures/new');
+	// A new enclosure starts from a plain box, shown at once with its inside, and says to change it.
+	// 200 × 320 × 240 mm outside less two 2 mm panels per axis = 196 × 316 × 236 mm inside.
+	await expect(page.getByText(/Inside 196\.0\smm × 316\.0\smm × 236\.0\smm/)).toBeVisible();
+	await expect(page.getByRole('note')).toContainText('change the sizes');
 	await page.getByLabel('Name', { exact: true }).fill('Shared bench box');
 	await page.getByRole('button', { name: 'Create enclosure' }).click();
 	await expect(page).toHaveURL(/\/enclosures\/\w+\?saved=1$/);

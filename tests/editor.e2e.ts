@@ -71,15 +71,37 @@ test('the spine at "2 slots": the card collides in the report and in 3D; back at
 	await expect(collides).toHaveAttribute('data-status', 'collides');
 	await expect(
 		collides.getByRole('button', {
-			name: /graphics card.*and Spine overlap by 0\.96\smm along width/
+			name: /graphics card.*and the spine overlap by 0\.96\smm along width/
 		})
 	).toBeVisible();
 	// The scene: an interference box with its label (volume, depth, the move that clears it).
 	await expect(labels.filter({ hasText: /21\.3\scm³/ })).toBeVisible();
 	await expect(labels.filter({ hasText: /21\.3\scm³/ })).toContainText(/mm deep/);
 	await expect(labels.filter({ hasText: /21\.3\scm³/ })).toContainText(
-		/move the divider 1 step left/
+		/graphics card.* ↔ spine: .*move the compact graphics card.*0\.96\smm right, or the spine one slot left/
 	);
+	// Every label over the view names both things it is between ("… ↔ …"), and no two labels
+	// overlap on the page (bounding boxes in CSS pixels), with nothing selected and with the card
+	// selected (its gap labels join the callouts).
+	const everyLabel = scene.locator('[data-testid="interference-label"], [data-testid="gap-label"]');
+	const noOverlap = async () => {
+		const rects = await everyLabel.evaluateAll((els) =>
+			els.map((e) => {
+				const r = e.getBoundingClientRect();
+				return { x: r.x, y: r.y, w: r.width, h: r.height, text: e.textContent ?? '' };
+			})
+		);
+		for (let i = 0; i < rects.length; i++) {
+			for (let j = i + 1; j < rects.length; j++) {
+				const [a, b] = [rects[i], rects[j]];
+				const apart = a.x + a.w <= b.x || b.x + b.w <= a.x || a.y + a.h <= b.y || b.y + b.h <= a.y;
+				expect(apart, `"${a.text}" and "${b.text}" overlap`).toBe(true);
+			}
+		}
+		return rects.length;
+	};
+	for (const text of await labels.allTextContents()) expect(text).toMatch(/\S ↔ \S.*: .* deep — /);
+	expect(await noOverlap()).toBeGreaterThan(0);
 	await page.screenshot({ path: testInfo.outputPath('spine-at-two-slots.png') });
 	await scene.screenshot({ path: testInfo.outputPath('scene-at-two-slots.png') });
 
@@ -115,7 +137,7 @@ test('the spine at "2 slots": the card collides in the report and in 3D; back at
 
 test('a sweep of the spine loads its charts on demand and says where nothing collides', async ({
 	browser
-}) => {
+}, testInfo) => {
 	await restoreDemoVariant();
 	const { context, page } = await openEditor(browser);
 	await page.getByRole('button', { name: 'every position at once' }).click();
@@ -128,14 +150,44 @@ test('a sweep of the spine loads its charts on demand and says where nothing col
 	await expect(table.getByRole('row', { name: /^2 slots.*37\.3/ })).toBeVisible();
 	await expect(page.getByText(/Nothing collides at 65\.68\smm – 86\.0\smm/)).toBeVisible();
 	await expect(page.getByText(/Compartment size along the spine's axis/)).toBeVisible();
-	await expect(
-		page.getByRole('region', { name: 'Build view' }).locator('svg').first()
-	).toBeVisible();
-	await table.getByRole('button', { name: 'Use 2 slots' }).click();
-	await expect(page.getByRole('slider', { name: 'Spine' })).toHaveAttribute(
-		'aria-valuetext',
-		'2 slots, 106.32\u2009mm'
+	const spine = page.getByRole('slider', { name: 'Spine' });
+	// The bulkhead has one position: text, no slider, no ±1, no drag.
+	await expect(page.getByRole('slider', { name: 'Bulkhead' })).toHaveCount(0);
+	await expect(page.getByTestId('ctl-fixed-bulkhead')).toContainText('its only position');
+	await expect(page.getByRole('button', { name: 'Bulkhead: one position lower' })).toHaveCount(0);
+	// The chart: one mark per allowed position (3), the band over the two that fit and no further.
+	const chart = page.getByRole('radiogroup', { name: 'Positions of Spine' });
+	const marks = chart.getByRole('radio');
+	await expect(marks).toHaveCount(3);
+	const band = chart.getByTestId('sweep-band');
+	await expect(band).toHaveCount(1);
+	const markX = async (name: RegExp) => {
+		const b = (await chart.getByRole('radio', { name }).locator('circle').first().boundingBox())!;
+		return b.x + b.width / 2;
+	};
+	const bandBox = (await band.boundingBox())!;
+	const [x4, x3, x2] = [await markX(/^4 slots/), await markX(/^3 slots/), await markX(/^2 slots/)];
+	// Band edges 6 px past the first and last feasible mark; the colliding mark lies well outside.
+	expect(bandBox.x).toBeGreaterThan(x4 - 8);
+	expect(bandBox.x).toBeLessThan(x4);
+	expect(bandBox.x + bandBox.width).toBeGreaterThan(x3);
+	expect(bandBox.x + bandBox.width).toBeLessThan(x3 + 8);
+	expect(x2).toBeGreaterThan(bandBox.x + bandBox.width + 20);
+	await chart.screenshot({ path: testInfo.outputPath('sweep-chart.png') });
+
+	// Clicking a mark applies that position; the arrow keys pick the neighbours.
+	// (on the mark's column, the group around its circles, so the click lands on the mark itself)
+	await chart.getByRole('radio', { name: /^2 slots/ }).click();
+	await expect(spine).toHaveAttribute('aria-valuetext', '2 slots, 106.32\u2009mm');
+	await expect(chart.getByRole('radio', { name: /^2 slots/ })).toHaveAttribute(
+		'aria-checked',
+		'true'
 	);
+	await chart.getByRole('radio', { name: /^2 slots/ }).focus();
+	await page.keyboard.press('ArrowLeft');
+	await expect(spine).toHaveAttribute('aria-valuetext', '3 slots, 86.0\u2009mm');
+	await table.getByRole('button', { name: 'Use 2 slots' }).click();
+	await expect(spine).toHaveAttribute('aria-valuetext', '2 slots, 106.32\u2009mm');
 	await context.close();
 });
 
@@ -204,4 +256,50 @@ test('"use the saved version" takes the other browser’s scene and keeps mine o
 	await expect(spine).toHaveAttribute('aria-valuetext', '2 slots, 106.32\u2009mm');
 	await a.context.close();
 	await b.context.close();
+});
+
+test('skip links: the fit report in three Tab presses at most, the 3D view likewise; adding a part is one stop', async ({
+	browser
+}, testInfo) => {
+	const { context, page } = await openEditor(browser);
+	await page.reload();
+	await expect(page.getByTestId('editor')).toHaveAttribute('data-ready', 'true');
+	const active = () => page.evaluate(() => document.activeElement?.textContent?.trim() ?? '');
+	let presses = 0;
+	while (presses < 3 && (await active()) !== 'Skip to the fit report') {
+		await page.keyboard.press('Tab');
+		presses++;
+	}
+	expect(await active()).toBe('Skip to the fit report');
+	await page.screenshot({ path: testInfo.outputPath('skip-link.png') });
+	await page.keyboard.press('Enter');
+	await expect(page.locator('#fit-report')).toBeFocused();
+	// The next Tab lands inside the report.
+	await page.keyboard.press('Tab');
+	expect(await page.evaluate(() => !!document.activeElement?.closest('#fit-report, aside'))).toBe(
+		true
+	);
+
+	await page.reload();
+	await expect(page.getByTestId('editor')).toHaveAttribute('data-ready', 'true');
+	await page.keyboard.press('Tab');
+	await expect(page.getByRole('link', { name: 'Skip to the 3D view' })).toBeFocused();
+	await page.keyboard.press('Enter');
+	await expect(page.locator('#scene-view')).toBeFocused();
+
+	// The catalogue search and its Add buttons stay closed until asked for.
+	const add = page.getByRole('button', { name: 'Add a part' });
+	await expect(add).toHaveAttribute('aria-expanded', 'false');
+	await expect(page.getByRole('list', { name: 'Catalogue matches' })).toHaveCount(0);
+	await add.click();
+	await expect(page.getByRole('searchbox', { name: 'Search the catalogue' })).toBeVisible();
+
+	// The toolbar keeps one height whatever the save status says.
+	const bar = page.getByTestId('save-status').locator('xpath=../..');
+	const before = (await bar.boundingBox())!.height;
+	await page.getByRole('button', { name: 'Spine: one position lower' }).click();
+	await expect(page.getByTestId('save-status')).toHaveText(/Saved · revision \d+/);
+	expect((await bar.boundingBox())!.height).toBe(before);
+	await restoreDemoVariant();
+	await context.close();
 });

@@ -109,3 +109,40 @@ test('ticking works without JavaScript, and the PDF downloads', async ({ browser
 	expect((await res.body()).subarray(0, 5).toString('latin1')).toBe('%PDF-');
 	await context.close();
 });
+
+test('the drawing key in grey-scale keeps every status tellable: a distinct mean lightness per swatch', async ({
+	page,
+	context,
+	baseURL
+}, testInfo) => {
+	const sharp = (await import('sharp')).default;
+	await signInAs(context, baseURL!, target.userId);
+	await page.goto(`/builds/${target.buildId}/sheet`);
+	const key = page.getByRole('complementary', { name: 'Drawing key' });
+	await expect(key).toBeVisible();
+	await key.screenshot({ path: testInfo.outputPath('drawing-key.png') });
+	const means: [string, number][] = [];
+	for (const status of ['collides', 'blocked', 'outside', 'tight', 'clear']) {
+		const swatch = key.locator(`[data-status="${status}"] svg`).first();
+		const png = await swatch.screenshot({ scale: 'css' });
+		// Grey as a grey-scale print makes it (sharp's luminance), then the swatch's mean 0–255.
+		// Inside the mark's edge only (the page around it is white for every status).
+		const { width = 0, height = 0 } = await sharp(png).metadata();
+		const inset = Math.round(width * 0.2);
+		const stats = await sharp(png)
+			.extract({ left: inset, top: inset, width: width - 2 * inset, height: height - 2 * inset })
+			.greyscale()
+			.stats();
+		means.push([status, stats.channels[0].mean]);
+		console.log(`${status}: mean grey ${stats.channels[0].mean.toFixed(1)} of 255`);
+	}
+	for (let i = 0; i < means.length; i++) {
+		for (let j = i + 1; j < means.length; j++) {
+			const [a, la] = means[i];
+			const [b, lb] = means[j];
+			expect(Math.abs(la - lb), `${a} ${la.toFixed(0)} vs ${b} ${lb.toFixed(0)}`).toBeGreaterThan(
+				12
+			);
+		}
+	}
+});

@@ -13,7 +13,7 @@ test('fork a variant, move the bracket in the fork, compare, cameras follow', as
 	await page.goto('/builds/demo-build?variant=demo-variant-a');
 	await expect(page.getByTestId('editor')).toHaveAttribute('data-ready', 'true');
 	await expect(page.getByTestId('save-status')).toContainText('Saved');
-	await page.getByRole('button', { name: '+ Fork' }).click();
+	await page.getByRole('button', { name: '+ Copy variant' }).click();
 	await page.waitForURL(/variant=/);
 	await expect(page.getByTestId('editor')).toHaveAttribute('data-ready', 'true');
 	const forkId = new URL(page.url()).searchParams.get('variant')!;

@@ -7,7 +7,16 @@ import { toCsv } from '$lib/csv';
 import { gapWords } from '../words/builds';
 import { faceWords } from '$lib/words/faces';
 
-export type CompareInput = { id: string; name: string; report: FitReport; marginMm: number };
+/** A divider or bracket as set in a variant: its offset and the position's name. */
+export type ControlSetting = { key: string; label: string; offsetMm: number; position: string };
+export type CompareInput = {
+	id: string;
+	name: string;
+	report: FitReport;
+	marginMm: number;
+	/** The dividers' and brackets' settings, shown as the first rows. */
+	controls?: ControlSetting[];
+};
 
 export type Cell = {
 	value: number | null;
@@ -19,7 +28,7 @@ export type Cell = {
 
 export type DiffRow = {
 	key: string;
-	group: 'part' | 'compartment' | 'mount' | 'loop' | 'total';
+	group: 'setting' | 'part' | 'compartment' | 'mount' | 'loop' | 'total';
 	label: string;
 	/** Which is better: a bigger number (a gap, spare room) or a smaller one (interference). */
 	better: 'higher' | 'lower' | 'status' | 'none';
@@ -71,14 +80,15 @@ function statusRow(
 	key: string,
 	label: string,
 	statuses: (FitStatus | undefined)[],
-	highlight: string[]
+	highlight: string[],
+	group: DiffRow['group'] = 'part'
 ): DiffRow {
 	const present = statuses.filter((s): s is FitStatus => !!s);
 	const bestRank = present.length ? Math.max(...present.map(rank)) : 0;
 	const differs = new Set(statuses).size > 1;
 	return {
 		key,
-		group: 'part',
+		group,
 		label,
 		better: 'status',
 		differs,
@@ -98,12 +108,40 @@ const mmText = (v: number) => `${v.toFixed(1)}\u2009mm`;
 /** Rows for every part (status + six gaps), compartment, mount stack and the totals. */
 export function compareVariants(inputs: CompareInput[]): DiffRow[] {
 	const rows: DiffRow[] = [];
+	// The settings first: what was changed between the variants, before what it did.
+	const controlKeys = [...new Set(inputs.flatMap((v) => (v.controls ?? []).map((c) => c.key)))];
+	for (const key of controlKeys) {
+		const found = inputs.map((v) => v.controls?.find((c) => c.key === key));
+		const label = found.find((c) => c)?.label ?? key;
+		const row = numberRow(
+			`setting:${key}`,
+			'setting',
+			label,
+			found.map((c) => c?.offsetMm ?? null),
+			'none',
+			(v) => mmText(v)
+		);
+		row.cells = row.cells.map((cell, i) => ({
+			...cell,
+			text: found[i] ? `${found[i].position} · ${cell.text}` : cell.text
+		}));
+		rows.push(row);
+	}
 	const placementIds = [
 		...new Set(inputs.flatMap((v) => v.report.parts.map((p) => p.placementId)))
 	].sort();
+	// Repeated parts are numbered in placement order ("140 mm fan #2") so rows never share a name.
+	const baseLabel = (id: string) =>
+		inputs.map((v) => v.report.parts.find((p) => p.placementId === id)).find((r) => r)?.label ?? id;
+	const seen = new Map<string, number>();
+	const total = new Map<string, number>();
+	for (const id of placementIds) total.set(baseLabel(id), (total.get(baseLabel(id)) ?? 0) + 1);
 	for (const id of placementIds) {
 		const reports = inputs.map((v) => v.report.parts.find((p) => p.placementId === id));
-		const label = reports.find((r) => r)?.label ?? id;
+		const base = baseLabel(id);
+		const n = (seen.get(base) ?? 0) + 1;
+		seen.set(base, n);
+		const label = (total.get(base) ?? 1) > 1 ? `${base} #${n}` : base;
 		rows.push(
 			statusRow(
 				`part:${id}:status`,
@@ -195,6 +233,17 @@ export function compareVariants(inputs: CompareInput[]): DiffRow[] {
 			(v) => `${v.toFixed(1)}\u2009cm³`
 		)
 	);
+	// Better is judged on the worst status; the counts are shown but never judged alone (five
+	// tight parts becoming four is worse when the fifth now collides).
+	rows.push(
+		statusRow(
+			'total:worst',
+			'Worst status',
+			inputs.map((v) => STATUS_ORDER.find((s) => v.report.totals.counts[s] > 0) ?? 'clear'),
+			[],
+			'total'
+		)
+	);
 	for (const s of STATUS_ORDER) {
 		rows.push(
 			numberRow(
@@ -202,7 +251,7 @@ export function compareVariants(inputs: CompareInput[]): DiffRow[] {
 				'total',
 				`Parts ${s}`,
 				inputs.map((v) => v.report.totals.counts[s]),
-				s === 'clear' ? 'higher' : 'lower',
+				'none',
 				(v) => String(v)
 			)
 		);
@@ -211,7 +260,7 @@ export function compareVariants(inputs: CompareInput[]): DiffRow[] {
 		numberRow(
 			'total:heat-spare',
 			'total',
-			'Radiator estimate minus heat',
+			'Radiator capacity minus heat',
 			inputs.map((v) => v.report.budgets.heat.capacityW - v.report.budgets.heat.heatW),
 			'higher',
 			(v) => `${Math.round(v)}\u2009W (estimate)`

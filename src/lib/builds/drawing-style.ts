@@ -5,17 +5,51 @@
  */
 import type { FitStatus } from '$lib/geometry';
 
-export type Pattern = 'plain' | 'hatch' | 'dots' | 'solid' | 'dashed';
+export type Pattern = 'plain' | 'hatch' | 'dots' | 'crosshatch' | 'dashed';
+
+/**
+ * One fill per status for screen, sheet and PDF, spaced in lightness so a grey-scale print or a
+ * colour-blind reader still tells them apart: CIE 1976 L* (D65) of about 30 (collides), 47
+ * (blocked), 64 (clear), 81 (tight) and 97 (outside), each at least 15 from every other
+ * (drawing-style.spec.ts computes it). Each also has its own pattern and word.
+ */
+export const STATUS_FILL: Record<FitStatus, string> = {
+	collides: '#8a1c12',
+	blocked: '#8357cc',
+	clear: '#3aae90',
+	tight: '#f0c24a',
+	outside: '#f4f5f6'
+};
 
 export const STATUS_INK: Record<
 	FitStatus,
 	{ fill: string; edge: string; pattern: Pattern; word: string }
 > = {
-	clear: { fill: '#2e9d83', edge: '#1f6e5c', pattern: 'plain', word: 'clear' },
-	tight: { fill: '#e0a526', edge: '#9c6f0e', pattern: 'hatch', word: 'tight' },
-	blocked: { fill: '#8b5fd1', edge: '#5d3a99', pattern: 'dots', word: 'blocked' },
-	collides: { fill: '#e4502c', edge: '#ff9a7a', pattern: 'solid', word: 'collides' },
-	outside: { fill: '#8d939b', edge: '#5c6778', pattern: 'dashed', word: 'outside' }
+	clear: { fill: STATUS_FILL.clear, edge: '#1f6e5c', pattern: 'plain', word: 'clear' },
+	tight: { fill: STATUS_FILL.tight, edge: '#9c6f0e', pattern: 'hatch', word: 'tight' },
+	blocked: { fill: STATUS_FILL.blocked, edge: '#4a2a80', pattern: 'dots', word: 'blocked' },
+	// Collides: a cross-hatch and a heavy dark edge, so it reads as the worst without colour.
+	collides: {
+		fill: STATUS_FILL.collides,
+		edge: '#2a0603',
+		pattern: 'crosshatch',
+		word: 'collides'
+	},
+	outside: { fill: STATUS_FILL.outside, edge: '#434d5c', pattern: 'dashed', word: 'outside' }
+};
+
+/**
+ * Budgets (stack, heat, power) have marks of their own, a symbol and a word, never a status's
+ * swatch: "over" is not a collision, "not known" is not outside.
+ */
+export const BUDGET_MARK: Record<
+	'clear' | 'tight' | 'over' | 'unknown',
+	{ symbol: string; word: string }
+> = {
+	clear: { symbol: '✓', word: 'within' },
+	tight: { symbol: '≈', word: 'near the limit' },
+	over: { symbol: '▲', word: 'over' },
+	unknown: { symbol: '?', word: 'not known' }
 };
 
 export const INK = {

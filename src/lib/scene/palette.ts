@@ -4,21 +4,27 @@
  */
 import type { FitStatus, WorldBoxKind } from '$lib/geometry';
 import type { PreviewRole } from './preview-boxes';
+import { STATUS_FILL, type Pattern } from '$lib/builds/drawing-style';
 
 export const STATUS_STYLE: Record<
 	FitStatus,
 	{
 		color: string;
 		edge: string;
-		pattern: 'plain' | 'hatch' | 'dots' | 'solid' | 'dashed';
+		pattern: Pattern;
 		word: string;
 	}
 > = {
-	clear: { color: '#2e9d83', edge: '#5cc9ad', pattern: 'plain', word: 'clear' },
-	tight: { color: '#e0a526', edge: '#f3c65e', pattern: 'hatch', word: 'tight' },
-	blocked: { color: '#8b5fd1', edge: '#b495ea', pattern: 'dots', word: 'blocked' },
-	collides: { color: '#e4502c', edge: '#ff9a7a', pattern: 'solid', word: 'collides' },
-	outside: { color: '#8d939b', edge: '#c3c8ce', pattern: 'dashed', word: 'outside' }
+	clear: { color: STATUS_FILL.clear, edge: '#7fdcc3', pattern: 'plain', word: 'clear' },
+	tight: { color: STATUS_FILL.tight, edge: '#9c6f0e', pattern: 'hatch', word: 'tight' },
+	blocked: { color: STATUS_FILL.blocked, edge: '#c9b0f2', pattern: 'dots', word: 'blocked' },
+	collides: {
+		color: STATUS_FILL.collides,
+		edge: '#ff9a7a',
+		pattern: 'crosshatch',
+		word: 'collides'
+	},
+	outside: { color: STATUS_FILL.outside, edge: '#434d5c', pattern: 'dashed', word: 'outside' }
 };
 
 /** Structure: walls, dividers, brackets and mount plates in the graphite ground, the divider in brass. */

@@ -21,8 +21,8 @@ export function statusTexture(status: FitStatus): CanvasTexture | null {
 	g.fillStyle = color;
 	g.fillRect(0, 0, size, size);
 	if (pattern === 'hatch') {
-		g.strokeStyle = '#3b2a05';
-		g.lineWidth = 7;
+		g.strokeStyle = edge;
+		g.lineWidth = 5;
 		for (let k = -size; k < size * 2; k += 20) {
 			g.beginPath();
 			g.moveTo(k, size);
@@ -34,14 +34,25 @@ export function statusTexture(status: FitStatus): CanvasTexture | null {
 		for (let y = 8; y < size; y += 16) {
 			for (let x = 8; x < size; x += 16) {
 				g.beginPath();
-				g.arc(x + (y % 32 === 8 ? 0 : 8), y, 3.5, 0, Math.PI * 2);
+				g.arc(x + (y % 32 === 8 ? 0 : 8), y, 3, 0, Math.PI * 2);
 				g.fill();
 			}
 		}
-	} else if (pattern === 'solid') {
+	} else if (pattern === 'crosshatch') {
+		// Collides: lines both ways and a heavy dark edge (the worst reads so without colour).
 		g.strokeStyle = edge;
-		g.lineWidth = 6;
-		g.strokeRect(3, 3, size - 6, size - 6);
+		g.lineWidth = 3;
+		for (let k = -size; k < size * 2; k += 16) {
+			g.beginPath();
+			g.moveTo(k, size);
+			g.lineTo(k + size, 0);
+			g.moveTo(k, 0);
+			g.lineTo(k + size, size);
+			g.stroke();
+		}
+		g.strokeStyle = '#2a0603';
+		g.lineWidth = 8;
+		g.strokeRect(4, 4, size - 8, size - 8);
 	}
 	const texture = new CanvasTexture(canvas);
 	texture.wrapS = texture.wrapT = RepeatWrapping;

@@ -1,7 +1,8 @@
 /** Loading two or three variants of a build and comparing them with the engine's reports. */
 import { error } from '@sveltejs/kit';
 import { checkInPool } from './engine/pool';
-import { compareVariants, type CompareInput } from '$lib/builds/compare';
+import { compareVariants, type CompareInput, type ControlSetting } from '$lib/builds/compare';
+import { allowedPositions, formatMm, type Scene } from '$lib/geometry';
 import type { BuildRow } from './db/schema';
 import { loadVariant, variantsOf } from './builds';
 
@@ -38,7 +39,24 @@ export async function loadComparison(build: BuildRow, param: string | null) {
 		id: i.id,
 		name: i.name,
 		report: i.report,
-		marginMm: i.marginMm
+		marginMm: i.marginMm,
+		controls: controlSettings(i.scene)
 	}));
 	return { all, items, inputs, rows: compareVariants(inputs) };
+}
+
+/** A variant's divider and bracket settings, by the names of their allowed positions. */
+function controlSettings(scene: Scene): ControlSetting[] {
+	const named = (c: Parameters<typeof allowedPositions>[0], at: number) =>
+		allowedPositions(c).find((o) => Math.abs(o.offsetMm - at) < 1e-6)?.label ?? formatMm(at);
+	return [
+		...scene.enclosure.dividers.map((d) => {
+			const at = scene.dividerPositions[d.id] ?? allowedPositions(d)[0]?.offsetMm ?? 0;
+			return { key: `divider:${d.id}`, label: d.label, offsetMm: at, position: named(d, at) };
+		}),
+		...scene.enclosure.brackets.map((b) => {
+			const at = scene.bracketOffsets[b.id] ?? 0;
+			return { key: `bracket:${b.id}`, label: b.label, offsetMm: at, position: named(b, at) };
+		})
+	];
 }

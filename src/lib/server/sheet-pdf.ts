@@ -8,7 +8,7 @@ import { readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import PDFDocument from 'pdfkit';
 import sharp from 'sharp';
-import { STATUS_INK, INK } from '$lib/builds/drawing-style';
+import { BUDGET_MARK, STATUS_INK, INK } from '$lib/builds/drawing-style';
 import { layoutFits } from '$lib/builds/orthographic';
 import type { FitStatus } from '$lib/geometry';
 import { MARGIN_MM, PAPER, type SheetData } from './sheet';
@@ -150,6 +150,7 @@ function swatch(doc: Doc, status: FitStatus, xMm: number, yMm: number) {
 	const s = mmToPt(3.2);
 	doc.save();
 	if (ink.pattern === 'dashed') {
+		doc.rect(x, y, s, s).fill(ink.fill);
 		doc
 			.dash(1.2 * PT, { space: 0.8 * PT })
 			.rect(x, y, s, s)
@@ -176,10 +177,23 @@ function swatch(doc: Doc, status: FitStatus, xMm: number, yMm: number) {
 			]) {
 				doc.circle(x + i * s, y + j * s, 0.25 * PT).fill('#f4efff');
 			}
-		} else if (ink.pattern === 'solid') {
+		} else if (ink.pattern === 'crosshatch') {
+			// Collides: lines both ways inside a heavy dark edge.
+			doc.save();
+			doc.rect(x, y, s, s).clip();
+			for (let k = -s; k < s; k += 1.1 * PT) {
+				doc
+					.moveTo(x + k, y + s)
+					.lineTo(x + k + s, y)
+					.moveTo(x + k, y)
+					.lineTo(x + k + s, y + s)
+					.lineWidth(0.2 * PT)
+					.stroke('#ff9a7a');
+			}
+			doc.restore();
 			doc
 				.rect(x, y, s, s)
-				.lineWidth(0.45 * PT)
+				.lineWidth(0.6 * PT)
 				.stroke(ink.edge);
 		}
 	}
@@ -224,20 +238,14 @@ function fitSection(w: Writer, data: SheetData) {
 		});
 	}
 	w.text('Budgets', { font: w.fonts.bold, gapAfter: 1.2 });
-	const statusOf = {
-		clear: 'clear',
-		tight: 'tight',
-		over: 'collides',
-		unknown: 'outside'
-	} as const;
-	const wordOf = { clear: 'clear', tight: 'tight', over: 'over', unknown: 'not known' } as const;
+	// Budgets carry their own words, not a status's swatch ("over" is not a collision).
 	for (const b of fit.budgets) {
-		w.statusRow(
-			statusOf[b.status],
-			wordOf[b.status],
-			`${b.title}${b.key === 'heat' ? ' (estimate)' : ''}`,
-			[b.text, b.estimateNote].filter(Boolean).join(' ')
+		w.text(
+			`${BUDGET_MARK[b.status].word.toUpperCase()} · ${b.title}${b.key === 'heat' ? ' (estimate)' : ''}`,
+			{ font: w.fonts.medium, gapAfter: 0.2 }
 		);
+		const detail = [b.text, b.estimateNote].filter(Boolean).join(' ');
+		if (detail) w.text(detail, { size: 8.5, color: INK.muted, gapAfter: 1.2 });
 	}
 }
 
@@ -276,25 +284,26 @@ function drawingsPage(w: Writer, data: SheetData) {
 			.fillColor(INK.muted)
 			.text(w.fonts.text(text), mmToPt(x), mmToPt(y - 3.6), { lineBreak: false });
 	};
+	// Third-angle projection, as on the screen: top above the front, the right side to its right.
+	caption(`Top · ${top.axisNote}, front at the bottom`, w.left, top0);
+	drawView(w.doc, w.fonts, d, top, w.left, top0);
+	const rowTop = top0 + top.frame.h * d.scale + gutter;
 	const rowH = Math.max(front.frame.h, side.frame.h) * d.scale;
-	caption(`Front · ${front.axisNote}`, w.left, top0);
-	drawView(w.doc, w.fonts, d, front, w.left, top0);
+	caption(`Front · ${front.axisNote}`, w.left, rowTop);
+	drawView(w.doc, w.fonts, d, front, w.left, rowTop);
 	const sideLeft = w.left + front.frame.w * d.scale + gutter;
-	caption(`Side, from the right · ${side.axisNote}`, sideLeft, top0);
-	drawView(w.doc, w.fonts, d, side, sideLeft, top0);
-	const topTop = top0 + rowH + gutter;
-	caption(`Top · ${top.axisNote}, front at the bottom`, w.left, topTop);
-	drawView(w.doc, w.fonts, d, top, w.left, topTop);
+	caption(`Side, from the right · ${side.axisNote}`, sideLeft, rowTop);
+	drawView(w.doc, w.fonts, d, side, sideLeft, rowTop);
 	if (
 		!layoutFits(d.views, d.scale, { widthMm: w.width, heightMm: w.bottom - top0, gutterMm: gutter })
 	) {
-		w.yMm = topTop + top.frame.h * d.scale + 4;
+		w.yMm = rowTop + rowH + 4;
 		w.text('The drawings are larger than the page at the smallest scale; they run past its edge.', {
 			size: 8,
 			color: INK.muted
 		});
 	}
-	drawingKey(w, w.left + top.frame.w * d.scale + gutter, topTop);
+	drawingKey(w, w.left + top.frame.w * d.scale + gutter, top0);
 }
 
 /** What the inks and marks of the drawings mean, beside the top view. */
@@ -310,6 +319,28 @@ function drawingKey(w: Writer, left: number, top: number) {
 			.text(w.fonts.text(text), mmToPt(left + 5.2), mmToPt(y - 0.1), { lineBreak: false });
 		y += 5;
 	};
+	// The third-angle symbol (ISO 5456-2): a truncated cone's end view left of its side view.
+	const mm = (v: number) => mmToPt(v);
+	doc.save();
+	doc.lineWidth(0.25 * PT).strokeColor(INK.text);
+	doc.circle(mm(left + 2), mm(y + 1.6), mm(1.6)).stroke();
+	doc.circle(mm(left + 2), mm(y + 1.6), mm(0.8)).stroke();
+	doc
+		.moveTo(mm(left + 4.6), mm(y + 0.8))
+		.lineTo(mm(left + 8), mm(y))
+		.lineTo(mm(left + 8), mm(y + 3.2))
+		.lineTo(mm(left + 4.6), mm(y + 2.4))
+		.closePath()
+		.stroke();
+	doc.restore();
+	doc
+		.font(w.fonts.regular)
+		.fontSize(8)
+		.fillColor(INK.text)
+		.text(w.fonts.text('Third-angle projection'), mm(left + 9.5), mm(y + 0.2), {
+			lineBreak: false
+		});
+	y += 6;
 	for (const s of ['collides', 'blocked', 'outside', 'tight', 'clear'] as const) {
 		swatch(doc, s, left, y);
 		label(STATUS_INK[s].word);

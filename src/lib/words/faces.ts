@@ -18,6 +18,8 @@ type FaceWords = {
 	panel: string;
 	/** Which way a direction points. */
 	points: string;
+	/** Where a gap is from the part's point of view: "1.0 mm to the left panel, on its left". */
+	ofIt: string;
 	/** Where a part comes in from. */
 	from: string;
 };
@@ -30,6 +32,7 @@ export const FACE_TABLE: Record<Face, FaceWords> = {
 		besideFull: 'to the left of',
 		panel: 'left panel',
 		points: 'left',
+		ofIt: 'on its left',
 		from: 'from the left'
 	},
 	'+x': {
@@ -39,6 +42,7 @@ export const FACE_TABLE: Record<Face, FaceWords> = {
 		besideFull: 'to the right of',
 		panel: 'right panel',
 		points: 'right',
+		ofIt: 'on its right',
 		from: 'from the right'
 	},
 	'-y': {
@@ -48,6 +52,7 @@ export const FACE_TABLE: Record<Face, FaceWords> = {
 		besideFull: 'below',
 		panel: 'bottom panel',
 		points: 'down',
+		ofIt: 'below it',
 		from: 'from below'
 	},
 	'+y': {
@@ -57,6 +62,7 @@ export const FACE_TABLE: Record<Face, FaceWords> = {
 		besideFull: 'above',
 		panel: 'top panel',
 		points: 'up',
+		ofIt: 'above it',
 		from: 'from above'
 	},
 	'-z': {
@@ -66,6 +72,7 @@ export const FACE_TABLE: Record<Face, FaceWords> = {
 		besideFull: 'in front of',
 		panel: 'front panel',
 		points: 'to the front',
+		ofIt: 'in front of it',
 		from: 'from the front'
 	},
 	'+z': {
@@ -75,6 +82,7 @@ export const FACE_TABLE: Record<Face, FaceWords> = {
 		besideFull: 'behind',
 		panel: 'back panel',
 		points: 'to the back',
+		ofIt: 'behind it',
 		from: 'from the back'
 	}
 };
