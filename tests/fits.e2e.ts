@@ -85,8 +85,8 @@ test('parts × positions in the compare view: two cards, read a cell in each var
 }) => {
 	await restoreDemoVariant();
 	await openEditor(page);
-	// A second variant to compare with: a fork of the demo variant, the same scene.
-	await page.getByRole('button', { name: '+ Fork' }).click();
+	// A second variant to compare with: a copy of the demo variant, the same scene.
+	await page.getByRole('button', { name: '+ Copy variant' }).click();
 	await page.waitForURL(/variant=/);
 	await expect(page.getByTestId('editor')).toHaveAttribute('data-ready', 'true');
 	const forkId = new URL(page.url()).searchParams.get('variant')!;
