@@ -1,6 +1,6 @@
 /**
- * Several app processes behind nginx, on loopback: what `npm run start:cluster` runs after
- * scripts/start-cluster.sh has set up PostgreSQL, the services and the build, and what the cluster
+ * Several app processes behind nginx, on loopback: what `npm start -- --processes N` (and
+ * `npm run start:cluster`) runs after scripts/start.sh has set up PostgreSQL, the services and the build, and what the cluster
  * spec and `npm run bench:http` start with test ports.
  *
  * Each process is `node build` (adapter-node) on a port of its own, told that nginx is in front
@@ -49,7 +49,7 @@ function nginxBinary(): string {
 	}
 	const found = spawnSync('sh', ['-c', 'command -v nginx'], { encoding: 'utf8' }).stdout.trim();
 	if (found) return found;
-	throw new Error('nginx not found: scripts/start-cluster.sh installs Debian’s nginx package');
+	throw new Error('nginx not found: npm start -- --processes 2 installs Debian’s nginx package');
 }
 
 /** scripts/nginx.conf with the ports, written into the prefix. */

@@ -326,3 +326,19 @@ describe('a crash', () => {
 		expect(await db.$count(variants, and(eq(variants.buildId, buildId)))).toBe(ids.length + 1);
 	}, 120_000);
 });
+
+describe('npm start options', () => {
+	// Checked before anything is installed or started, so a typo costs nothing.
+	it.each([
+		[['--processes', '0'], "--processes must be a whole number of at least 1, not '0'"],
+		[['--processes=two'], "--processes must be a whole number of at least 1, not 'two'"],
+		[['--process', '2'], "unknown option '--process' (known: --processes N)"]
+	])('refuses %j with a message naming the option', async (args, message) => {
+		const failed = await run('bash', [join(repo, 'scripts/start.sh'), ...args]).then(
+			() => null,
+			(e: { code: number; stderr: string }) => e
+		);
+		expect(failed?.code).toBe(1);
+		expect(failed?.stderr).toContain(message);
+	});
+});
