@@ -23,6 +23,14 @@ afterAll(async () => {
 });
 
 describe('hit() in the database', () => {
+	it('keeps its counters in an unlogged table (no WAL flush per counted request)', async () => {
+		// pg_class.relpersistence: 'p' permanent, 'u' unlogged (PostgreSQL manual, "pg_class").
+		const [row] = await db.execute<{ relpersistence: string }>(
+			sql`select relpersistence from pg_class where relname = 'rate_limit' and relkind = 'r'`
+		);
+		expect(row?.relpersistence).toBe('u');
+	});
+
 	it('counts up inside a window and starts again after it', async () => {
 		const key = unique('test-bucket');
 		const limit = { max: 2, windowSec: 60 };

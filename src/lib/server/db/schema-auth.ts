@@ -156,7 +156,11 @@ export const mailOutbox = pgTable(
 	]
 );
 
-/** Fixed-window counters. Kept in PostgreSQL so limits hold across restarts and processes. */
+/**
+ * Fixed-window counters. Kept in PostgreSQL so limits hold across app restarts and processes.
+ * UNLOGGED (migration 0012, hand-written): a counted request does not wait for a WAL flush; a
+ * database crash empties the table and every window starts again.
+ */
 export const rateLimits = pgTable(
 	'rate_limit',
 	{
