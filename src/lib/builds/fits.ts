@@ -382,11 +382,7 @@ export function partsByPositions(
 				rotation: l.rotation,
 				...(prepared.mount ? { mountId: prepared.mount.id } : {})
 			});
-			rows[i].cells = probeAcross(prepared.base, placed, at).map((r) => ({
-				status: r.status,
-				spareMm: r.spareMm,
-				fits: FIT_STATUSES.includes(r.status)
-			}));
+			rows[i].cells = probeAcross(prepared.base, placed, at);
 		});
 	} else {
 		// In a compartment or a free-space box the landing moves with the control: each position anew.

@@ -92,6 +92,11 @@ function obstacles(resolved: ResolvedScene, ignore?: string): Box[] {
  * so the search is exact without a grid. Null when nothing fits.
  */
 export function freeSpot(room: Box, size: Vec3, blocked: Box[]): Vec3 | null {
+	// Nothing in the way (an empty mount): the room's corner is the only candidate.
+	if (blocked.length === 0) {
+		const corner: Vec3 = [room.min[0], room.min[1], room.min[2]];
+		return inside(room, boxAt(corner, size)) ? corner : null;
+	}
 	const coords = [0, 1, 2].map((a) => {
 		const values = new Set<number>([room.min[a]]);
 		for (const b of blocked) {

@@ -72,6 +72,9 @@ export interface ProbeBase {
 	moving: MovingControl | null;
 	/** Scratch: the candidate's bodies, six numbers each. */
 	bodyFlat: Float64Array;
+	/** Scratch for probeAcross: the tally's gaps and what they are against, per face. */
+	acrossGap: Float64Array;
+	acrossAgainst: Int32Array;
 }
 
 /** A divider or bracket tried at each of its positions (see probeAcross). */
@@ -353,6 +356,8 @@ export function probeBase(
 		movingSlot,
 		moving: moving ?? null,
 		bodyFlat: new Float64Array(6 * 8),
+		acrossGap: new Float64Array(6),
+		acrossAgainst: new Int32Array(6),
 		mounts,
 		mountIndex: new Map(mountList.map((m, k) => [m.id, k])),
 		stacked,
@@ -421,31 +426,27 @@ function probeCore(
 	const overlaps: ProbeResult['overlaps'] | null = list ? [] : null;
 	const g = base.grid;
 	const found = g.found;
-	const owns = placed.keepouts.length ? [...placed.bodies, ...placed.keepouts] : placed.bodies;
-	for (const own of owns) {
-		cellRange(g, own.box, 0);
-		const n = gather(g, g.lo, g.hi, true);
-		for (let q = 0; q < n; q++) {
-			const j = found[q];
-			if (active[group[j]] !== 1 || overlapWith(own.box, flat, j) <= 0) continue;
-			const kind = pairKind(own, boxes[j]);
-			if (!kind) continue;
-			if (kind === 'collides') tally.collides[0] = 1;
-			else if (kind === 'blocked') tally.blocked[0] = 1;
-			overlaps?.push({ with: boxes[j].id, label: boxes[j].label, kind });
-		}
-	}
-	// Nearest obstacle ahead of each face, over all bodies, by the report's own gap rule.
+	// A body's overlaps and its nearest boxes come from one gathering of the cells it covers (grown
+	// by the tolerance, so touching boxes are seen for the gaps); keep-outs only overlap. Overlaps
+	// and nearest gaps are a union and a minimum (ties to the smaller id): the order does not count.
 	const bodyFlat = bodyFlatOf(base, placed);
 	for (let k = 0; k < placed.bodies.length; k++) {
-		const b = placed.bodies[k].box;
+		const body = placed.bodies[k];
+		const b = body.box;
 		// The cells the body covers, then layer by layer outward along each axis while a layer could
 		// still hold something nearer than the nearest found on that side.
 		cellRange(g, b, EPSILON_MM);
 		let n = gather(g, g.lo, g.hi, true);
 		for (let q = 0; q < n; q++) {
 			const j = found[q];
-			if (obstacle[j] && active[group[j]] === 1) addGap(model, tally, 0, bodyFlat, k, flat, j, j);
+			if (active[group[j]] !== 1) continue;
+			if (overlapWith(b, flat, j) > 0) {
+				const kind = pairKind(body, boxes[j]);
+				if (kind === 'collides') tally.collides[0] = 1;
+				else if (kind === 'blocked') tally.blocked[0] = 1;
+				if (kind) overlaps?.push({ with: boxes[j].id, label: boxes[j].label, kind });
+			}
+			if (obstacle[j]) addGap(model, tally, 0, bodyFlat, k, flat, j, j);
 		}
 		for (let a = 0; a < 3; a++) {
 			for (let dir = 1; dir >= -1; dir -= 2) {
@@ -469,6 +470,19 @@ function probeCore(
 					}
 				}
 			}
+		}
+	}
+	for (const own of placed.keepouts) {
+		cellRange(g, own.box, 0);
+		const n = gather(g, g.lo, g.hi, true);
+		for (let q = 0; q < n; q++) {
+			const j = found[q];
+			if (active[group[j]] !== 1 || overlapWith(own.box, flat, j) <= 0) continue;
+			const kind = pairKind(own, boxes[j]);
+			if (!kind) continue;
+			if (kind === 'collides') tally.collides[0] = 1;
+			else if (kind === 'blocked') tally.blocked[0] = 1;
+			overlaps?.push({ with: boxes[j].id, label: boxes[j].label, kind });
 		}
 	}
 	let report: MountReport | null = null;
@@ -519,6 +533,8 @@ function spareOf(model: Model, tally: Tally, report: MountReport | null): number
 export interface CellResult {
 	status: FitStatus;
 	spareMm: number | null;
+	/** Clear or tight. */
+	fits: boolean;
 }
 
 /** The moving control's world box at an offset, as resolveScene builds it. */
@@ -554,21 +570,27 @@ export function probeAcross(
 	if (slot < 0) throw new Error('probeAcross needs a base with a moving control');
 	const { report } = probeCore(base, placed, false);
 	const { model, tally, flat, boxes } = base;
-	const gap = Float64Array.from(tally.gap);
-	const against = Int32Array.from(tally.against);
+	// The fixed scene's tally, restored before each position (scratch kept on the base).
+	const gap = base.acrossGap;
+	const against = base.acrossAgainst;
+	gap.set(tally.gap);
+	against.set(tally.against);
 	const collides = tally.collides[0];
 	const blocked = tally.blocked[0];
 	const own = placed.keepouts.length ? [...placed.bodies, ...placed.keepouts] : placed.bodies;
 	const bodyFlat = bodyFlatOf(base, placed);
 	const margin = base.scene.marginMm;
-	return at.map((w) => {
+	const atFlat = flatOf(at);
+	const o = slot * 6;
+	const out: CellResult[] = new Array(at.length);
+	for (let p = 0; p < at.length; p++) {
+		const w = at[p];
 		tally.gap.set(gap);
 		tally.against.set(against);
 		tally.collides[0] = collides;
 		tally.blocked[0] = blocked;
 		boxes[slot] = w;
-		flat.set(w.box.min, slot * 6);
-		flat.set(w.box.max, slot * 6 + 3);
+		for (let i = 0; i < 6; i++) flat[o + i] = atFlat[p * 6 + i];
 		for (const b of own) {
 			if (overlapWith(b.box, flat, slot) <= 0) continue;
 			const kind = pairKind(b, w);
@@ -578,11 +600,29 @@ export function probeAcross(
 		for (let k = 0; k < placed.bodies.length; k++) {
 			addGap(model, tally, 0, bodyFlat, k, flat, slot, slot);
 		}
-		return {
-			status: placementStatus(model, tally, 0, margin),
-			spareMm: spareOf(model, tally, report)
+		const status = placementStatus(model, tally, 0, margin);
+		out[p] = {
+			status,
+			spareMm: spareOf(model, tally, report),
+			fits: status === 'clear' || status === 'tight'
 		};
-	});
+	}
+	return out;
+}
+
+/** The control's boxes at its positions, six numbers each: made once for every candidate. */
+const flats = new WeakMap<readonly WorldBox[], Float64Array>();
+function flatOf(at: readonly WorldBox[]): Float64Array {
+	let f = flats.get(at);
+	if (!f) {
+		f = new Float64Array(at.length * 6);
+		at.forEach((w, p) => {
+			f!.set(w.box.min, p * 6);
+			f!.set(w.box.max, p * 6 + 3);
+		});
+		flats.set(at, f);
+	}
+	return f;
 }
 
 /** Common practice: a G 1/4 fitting is about 22 mm across and stands about 20 mm off its port. */

@@ -105,10 +105,11 @@ export function plateNeeded(mount: MountDef, classes: readonly string[]): number
 /** The plate a mount counts for the parts on it (see plateNeeded), 0 with no parts on it. */
 export function stackPlate(mount: MountDef, mounted: readonly { part: PartDef }[]): number {
 	if (mounted.length === 0) return 0;
-	return plateNeeded(
-		mount,
-		mounted.flatMap((rp) => partClasses(rp.part))
-	);
+	// A plate for every class needs no classes looked up (this runs once per "what fits" candidate).
+	if (mount.plateFor === undefined) return plateNeeded(mount, []);
+	const classes: string[] = [];
+	for (const rp of mounted) classes.push(...partClasses(rp.part));
+	return plateNeeded(mount, classes);
 }
 
 /**

@@ -15,6 +15,7 @@ import {
 	containerLabels,
 	faceBound,
 	maximalEmptyBoxes,
+	sameLabels,
 	type LabelledBox
 } from './free-space';
 import { allowedPositions, formatMm, type AllowedPosition } from './positions';
@@ -129,9 +130,29 @@ const FACE_NAME_OF: Record<Face, FaceName> = {
 
 function clip(box: Box, to: Box): Box {
 	return {
-		min: [0, 1, 2].map((i) => Math.max(box.min[i], to.min[i])) as Vec3,
-		max: [0, 1, 2].map((i) => Math.min(box.max[i], to.max[i])) as Vec3
+		min: [
+			Math.max(box.min[0], to.min[0]),
+			Math.max(box.min[1], to.min[1]),
+			Math.max(box.min[2], to.min[2])
+		],
+		max: [
+			Math.min(box.max[0], to.max[0]),
+			Math.min(box.max[1], to.max[1]),
+			Math.min(box.max[2], to.max[2])
+		]
 	};
+}
+
+/** No face on a panel: faceBound's fallback, reached only when the panel word is empty. */
+const NO_LABELS = sameLabels('');
+
+/** The panel a face of `box` lies on, as containerLabels(box, inner, '') words it; '' when none. */
+function panelOf(box: Box, inner: Box, f: Face): string {
+	const { axis, high } = FACE_AXES[FACE_NAME_OF[f]];
+	const onPanel = high
+		? Math.abs(box.max[axis] - inner.max[axis]) <= EPSILON_MM
+		: Math.abs(box.min[axis] - inner.min[axis]) <= EPSILON_MM;
+	return onPanel ? PANEL[FACE_NAME_OF[f]] : '';
 }
 
 function shares(a: Box, b: Box, axis: number): boolean {
@@ -211,177 +232,364 @@ export interface RoomPositions {
 	bracketOffsets: Record<string, number>;
 }
 
-/** The figures at one setting of the controls (each offset must be allowed). */
-/** What the obstacles reaching into a box are, as text: rows with the same key have the same figures there. */
-function keyOf(container: Box, obstacles: readonly LabelledBox[]): string {
-	let key = `${container.min[0]},${container.min[1]},${container.min[2]},${container.max[0]},${container.max[1]},${container.max[2]}`;
-	for (const o of obstacles) {
-		const b = o.box;
-		if (Math.min(b.max[0], container.max[0]) - Math.max(b.min[0], container.min[0]) <= EPSILON_MM) {
-			continue;
-		}
-		if (Math.min(b.max[1], container.max[1]) - Math.max(b.min[1], container.min[1]) <= EPSILON_MM) {
-			continue;
-		}
-		if (Math.min(b.max[2], container.max[2]) - Math.max(b.min[2], container.min[2]) <= EPSILON_MM) {
-			continue;
-		}
-		key += `|${o.label}:${b.min[0]},${b.min[1]},${b.min[2]},${b.max[0]},${b.max[1]},${b.max[2]}`;
-	}
-	return key;
+/** An obstacle with a number of its own: the same control at the same offset is the same number. */
+interface Obstacle extends LabelledBox {
+	id: string;
+	serial: number;
 }
 
-export function roomAt(
-	enclosure: EnclosureDef,
-	at: RoomPositions,
-	cache: Map<string, RoomFigure[]> = new Map()
-): RoomFigure[] {
+interface NumberedCompartment {
+	serial: number;
+	id: string;
+	label: string;
+	box: Box;
+}
+
+/**
+ * What the rows of one enclosure's table share. Each control's box and label are made once per
+ * offset, the boards and stacks once, the compartments once per setting of the dividers; and
+ * every group of figures is kept under a key naming the numbered obstacles it can see, so a row
+ * whose moving control is out of a group's sight reuses that group's figures (the same objects).
+ */
+interface RoomContext {
+	enclosure: EnclosureDef;
+	inner: Box;
+	next: number;
+	dividerDefault: number[];
+	dividerAt: Map<number, Obstacle>[];
+	bracketAt: Map<number, Obstacle>[];
+	trays: MountDef[];
+	boards: Obstacle[];
+	stacks: Obstacle[];
+	/** By divider setting (the dividers' numbers). */
+	compartments: Map<string, NumberedCompartment[]>;
+	/** Compartment numbers by id, label and box. */
+	compartmentSerial: Map<string, number>;
+	figures: Map<string, RoomFigure[]>;
+	mm: Map<number, string>;
+	/** The room of a bracket in no compartment: the whole inside. */
+	inside: NumberedCompartment;
+}
+
+function roomContext(enclosure: EnclosureDef): RoomContext {
 	const inner = innerBoxOf(enclosure);
-	const dividers: LabelledBox[] = enclosure.dividers.map((d) => ({
-		id: `divider:${d.id}`,
-		label: d.label,
-		box: dividerBoxAt(
-			enclosure,
-			d,
-			at.dividerPositions[d.id] ?? allowedPositions(d)[0]?.offsetMm ?? 0
-		)
-	}));
-	const bracketOffset = (id: string) => at.bracketOffsets[id] ?? 0;
-	const brackets: LabelledBox[] = enclosure.brackets.map((b) => ({
-		id: `bracket:${b.id}`,
-		label: `${b.label} at ${formatMm(bracketOffset(b.id))}`,
-		box: bracketBoxAt(b, bracketOffset(b.id))
-	}));
-	const trays = enclosure.mounts.filter((m) => m.kind === 'board-tray');
-	const boards: LabelledBox[] = trays.map((m) => ({
+	const ctx: RoomContext = {
+		enclosure,
+		inner,
+		next: 1,
+		dividerDefault: enclosure.dividers.map((d) => allowedPositions(d)[0]?.offsetMm ?? 0),
+		dividerAt: enclosure.dividers.map(() => new Map()),
+		bracketAt: enclosure.brackets.map(() => new Map()),
+		trays: enclosure.mounts.filter((m) => m.kind === 'board-tray'),
+		boards: [],
+		stacks: [],
+		compartments: new Map(),
+		compartmentSerial: new Map(),
+		figures: new Map(),
+		mm: new Map(),
+		inside: { serial: 0, id: 'inside', label: 'Inside', box: inner }
+	};
+	ctx.boards = ctx.trays.map((m) => ({
 		id: `board:${m.id}`,
 		label: `board on the ${m.label}`,
-		box: slabOn(m, inner, boardDepth(m))
+		box: slabOn(m, inner, boardDepth(m)),
+		serial: ctx.next++
 	}));
-	const stacks: LabelledBox[] = enclosure.mounts
+	ctx.stacks = enclosure.mounts
 		.filter((m) => m.kind === 'radiator' || m.kind === 'fan')
 		.map((m) => {
 			const { axis } = FACE_AXES[m.face];
 			const regionDepth = clip(m.region, inner);
 			const depth = Math.min(m.budgetMm ?? Infinity, regionDepth.max[axis] - regionDepth.min[axis]);
-			return { id: `stack:${m.id}`, label: `${m.label} stack`, box: slabOn(m, inner, depth) };
+			return {
+				id: `stack:${m.id}`,
+				label: `${m.label} stack`,
+				box: slabOn(m, inner, depth),
+				serial: ctx.next++
+			};
 		});
-	const fixed = [...dividers, ...brackets, ...boards];
-	const reachObstacles = [...fixed, ...stacks];
-	const compartments = compartmentsFor(enclosure, at.dividerPositions);
+	return ctx;
+}
+
+/** formatMm, each value formatted once per table. */
+function mmOf(ctx: RoomContext, valueMm: number): string {
+	let s = ctx.mm.get(valueMm);
+	if (s === undefined) {
+		s = formatMm(valueMm);
+		ctx.mm.set(valueMm, s);
+	}
+	return s;
+}
+
+function dividerAt(ctx: RoomContext, k: number, offsetMm: number): Obstacle {
+	let o = ctx.dividerAt[k].get(offsetMm);
+	if (!o) {
+		const d = ctx.enclosure.dividers[k];
+		o = {
+			id: `divider:${d.id}`,
+			label: d.label,
+			box: dividerBoxAt(ctx.enclosure, d, offsetMm),
+			serial: ctx.next++
+		};
+		ctx.dividerAt[k].set(offsetMm, o);
+	}
+	return o;
+}
+
+function bracketAt(ctx: RoomContext, k: number, offsetMm: number): Obstacle {
+	let o = ctx.bracketAt[k].get(offsetMm);
+	if (!o) {
+		const b = ctx.enclosure.brackets[k];
+		o = {
+			id: `bracket:${b.id}`,
+			label: `${b.label} at ${mmOf(ctx, offsetMm)}`,
+			box: bracketBoxAt(b, offsetMm),
+			serial: ctx.next++
+		};
+		ctx.bracketAt[k].set(offsetMm, o);
+	}
+	return o;
+}
+
+/** A number as two key characters (any 32-bit count, no separator needed). */
+function keyChars(n: number): string {
+	return String.fromCharCode(n & 0xffff, n >>> 16);
+}
+
+/** Overlapping or touching (closed boxes, within the tolerance): what a box's figures can see. */
+function reaches(a: Box, b: Box): boolean {
+	for (let i = 0; i < 3; i++) {
+		if (Math.min(a.max[i], b.max[i]) - Math.max(a.min[i], b.min[i]) < -2 * EPSILON_MM) {
+			return false;
+		}
+	}
+	return true;
+}
+
+/** The key of a group: its tag, then the numbers of the obstacles `sees` keeps, in their order. */
+function sightKey(tag: string, obstacles: readonly Obstacle[], sees: (o: Obstacle) => boolean) {
+	let key = tag;
+	for (const o of obstacles) if (sees(o)) key += keyChars(o.serial);
+	return key;
+}
+
+/** The figures of a group, made once per key. */
+function kept(ctx: RoomContext, key: string, make: () => RoomFigure[]): RoomFigure[] {
+	let found = ctx.figures.get(key);
+	if (!found) {
+		found = make();
+		ctx.figures.set(key, found);
+	}
+	return found;
+}
+
+function compartmentsAt(
+	ctx: RoomContext,
+	dividers: readonly Obstacle[],
+	offsets: readonly number[]
+): NumberedCompartment[] {
+	let key = '';
+	for (const d of dividers) key += keyChars(d.serial);
+	let found = ctx.compartments.get(key);
+	if (!found) {
+		const positions: Record<string, number> = {};
+		ctx.enclosure.dividers.forEach((d, k) => (positions[d.id] = offsets[k]));
+		found = compartmentsFor(ctx.enclosure, positions).map((c) => {
+			const id = `${c.id}|${c.label}|${c.box.min.join(',')},${c.box.max.join(',')}`;
+			let serial = ctx.compartmentSerial.get(id);
+			if (serial === undefined) {
+				serial = ctx.next++;
+				ctx.compartmentSerial.set(id, serial);
+			}
+			return { serial, id: c.id, label: c.label, box: c.box };
+		});
+		ctx.compartments.set(key, found);
+	}
+	return found;
+}
+
+/** The figures at one setting of the controls (each offset must be allowed). */
+export function roomAt(enclosure: EnclosureDef, at: RoomPositions): RoomFigure[] {
+	const ctx = roomContext(enclosure);
+	// Validates the given divider offsets (a SceneError naming the field) before anything is made.
+	compartmentsFor(enclosure, at.dividerPositions);
+	return figuresAt(ctx, at);
+}
+
+function figuresAt(ctx: RoomContext, at: RoomPositions): RoomFigure[] {
+	const { enclosure, inner, trays } = ctx;
+	const offsets = enclosure.dividers.map(
+		(d, k) => at.dividerPositions[d.id] ?? ctx.dividerDefault[k]
+	);
+	const dividers = offsets.map((off, k) => dividerAt(ctx, k, off));
+	const bracketOffset = (id: string) => at.bracketOffsets[id] ?? 0;
+	const brackets = enclosure.brackets.map((b, k) => bracketAt(ctx, k, bracketOffset(b.id)));
+	const fixed = [...dividers, ...brackets, ...ctx.boards];
+	const reachObstacles = [...fixed, ...ctx.stacks];
+	const compartments = compartmentsAt(ctx, dividers, offsets);
 	const figures: RoomFigure[] = [];
 
 	// Per compartment: its free box, and the depth for a pump or reservoir from each of its panels.
-	// Rows share most compartments (one control moves at a time), so these are kept by what they
-	// depend on: the compartment and the obstacles that reach into it.
 	const perCompartment: RoomFigure[] = [];
 	for (const c of compartments) {
-		const key = `${c.id}#${keyOf(c.box, reachObstacles)}#${keyOf(c.box, fixed)}`;
-		let found = cache.get(key);
-		if (!found) {
-			found = compartmentFigures(c, inner, fixed, reachObstacles);
-			cache.set(key, found);
-		}
+		const key = sightKey(`c${keyChars(c.serial)}`, reachObstacles, (o) => reaches(o.box, c.box));
+		const found = kept(ctx, key, () => compartmentFigures(ctx, c, fixed, reachObstacles));
 		for (const f of found) (f.kind === 'free-box' ? figures : perCompartment).push(f);
 	}
 
-	// Height over a board on each tray.
-	for (const m of trays) {
+	// Height over a board on each tray. The reaches below are cheap; their figures (the words) are
+	// kept under what the reach found, so a row with the same distance and bound reuses them.
+	trays.forEach((m, t) => {
 		const { axis, dir, panel } = panelAt(m, inner);
-		const depth = boardDepth(m);
-		const cls = boardClassOf(m);
 		const cross = clip(m.region, inner);
 		const others = fixed.filter((o) => o.id !== `board:${m.id}`);
-		const r = reach(inner, cross, axis, dir, panel + dir * depth, others);
-		const plate = plateFor(m, cls);
-		figures.push({
-			id: `over-board:${m.id}`,
-			kind: 'over-board',
-			label: `Over the ${cls ?? ''} board on the ${m.label}`.replace('  ', ' '),
-			valueMm: r.distanceMm,
-			boundedBy: `to the ${r.against}`,
-			note: `${plate ? `${formatMm(plate)} plate + ` : ''}${formatMm(m.standoffMm)} standoffs + ${formatMm(BOARD_THICKNESS_MM)} board taken off`
+		const r = reach(inner, cross, axis, dir, panel + dir * boardDepth(m), others);
+		const [figure] = kept(ctx, `o${t}|${r.distanceMm}|${r.against}`, () => {
+			const cls = boardClassOf(m);
+			const plate = plateFor(m, cls);
+			return [
+				{
+					id: `over-board:${m.id}`,
+					kind: 'over-board',
+					label: `Over the ${cls ?? ''} board on the ${m.label}`.replace('  ', ' '),
+					valueMm: r.distanceMm,
+					boundedBy: `to the ${r.against}`,
+					note: `${plate ? `${mmOf(ctx, plate)} plate + ` : ''}${mmOf(ctx, m.standoffMm)} standoffs + ${mmOf(ctx, BOARD_THICKNESS_MM)} board taken off`
+				}
+			];
 		});
-	}
+		figures.push(figure);
+	});
 
 	// Cards: standing on a support bracket, or hanging from an expansion-slot mount.
 	const stackAxis = trays.length ? FACE_AXES[trays[0].face].axis : null;
-	for (const b of enclosure.brackets.filter((x) => x.kind === 'card-support')) {
-		const box = bracketBoxAt(b, bracketOffset(b.id));
+	enclosure.brackets.forEach((b, k) => {
+		if (b.kind !== 'card-support') return;
+		const self = brackets[k];
+		const box = self.box;
 		const L = AXES.indexOf(b.axis) as AxisIndex;
-		const centre = box.min.map((v, i) => (v + box.max[i]) / 2);
-		const room = compartments.find((c) =>
-			c.box.min.every(
-				(v, i) => v - EPSILON_MM <= centre[i] && centre[i] <= c.box.max[i] + EPSILON_MM
-			)
-		) ?? { box: inner, label: 'Inside', id: 'inside' };
+		const room = compartments.find((c) => holdsCentre(c.box, box)) ?? ctx.inside;
 		const up = box.min[L] - room.box.min[L] <= room.box.max[L] - box.max[L];
 		const dir: 1 | -1 = up ? 1 : -1;
 		const cross = clip(box, room.box);
 		const others = reachObstacles.filter((o) => o.id !== `bracket:${b.id}`);
 		const r = reach(inner, cross, L, dir, up ? box.max[L] : box.min[L], others);
-		const label = `${b.label} at ${formatMm(bracketOffset(b.id))}`;
-		figures.push({
-			id: `card-length:${b.id}`,
-			kind: 'card-length',
-			label: `Longest card, standing on the ${b.label}`,
-			valueMm: r.distanceMm,
-			boundedBy: `from the ${label} to the ${r.against}`
-		});
-		const S =
-			stackAxis !== null && stackAxis !== L
-				? stackAxis
-				: ([0, 1, 2]
-						.filter((i) => i !== L)
-						.sort(
-							(p, q) => room.box.max[p] - room.box.min[p] - (room.box.max[q] - room.box.min[q])
-						)[0] as AxisIndex);
-		const width = room.box.max[S] - room.box.min[S];
-		const labels = containerLabels(room.box, inner, '');
-		const lo =
-			labels[`-${AXES[S]}` as Face] ||
-			faceBound(
-				room.box,
-				`-${AXES[S]}` as Face,
-				dividers.map((d) => ({ ...d, box: d.box })),
-				labels
-			);
-		const hi =
-			labels[`+${AXES[S]}` as Face] || faceBound(room.box, `+${AXES[S]}` as Face, dividers, labels);
-		figures.push({
-			id: `card-slots:${b.id}`,
-			kind: 'card-slots',
-			label: `Widest card in ${room.label}`,
-			valueMm: width,
-			slots: Math.floor(width / SLOT_PITCH_MM + 1e-9),
-			boundedBy: `${lo || 'edge'} to ${hi || 'edge'}`,
-			note: `slots of ${formatMm(SLOT_PITCH_MM)} (PCI Express CEM)`
-		});
-	}
-	for (const m of enclosure.mounts.filter((x) => x.kind === 'slots')) {
+		figures.push(
+			...kept(ctx, `L${k}|${self.serial}|${r.distanceMm}|${r.against}`, () => [
+				{
+					id: `card-length:${b.id}`,
+					kind: 'card-length',
+					label: `Longest card, standing on the ${b.label}`,
+					valueMm: r.distanceMm,
+					boundedBy: `from the ${self.label} to the ${r.against}`
+				}
+			]),
+			// The width across depends on the compartment and the dividers bounding it alone.
+			...kept(
+				ctx,
+				sightKey(`W${k}|${room.serial}|`, dividers, () => true),
+				() => [cardSlots(ctx, b, L, room, dividers, stackAxis)]
+			)
+		);
+	});
+	enclosure.mounts.forEach((m, k) => {
+		if (m.kind !== 'slots') return;
 		const { axis, dir, panel } = panelAt(m, inner);
 		const cross = clip(m.region, inner);
 		const r = reach(inner, cross, axis, dir, panel, reachObstacles);
-		figures.push({
+		figures.push(
+			...kept(ctx, `s${k}|${r.distanceMm}|${r.against}`, () => slotFigures(ctx, m, r, stackAxis))
+		);
+	});
+
+	// Stack budget on each radiator or fan mount, per class it takes, after its plate.
+	const controls = [...dividers, ...brackets];
+	enclosure.mounts.forEach((m, k) => {
+		if (m.kind !== 'radiator' && m.kind !== 'fan') return;
+		const { axis, dir, panel } = panelAt(m, inner);
+		const cross = clip(m.region, inner);
+		const r = reach(inner, cross, axis, dir, panel, controls);
+		figures.push(...kept(ctx, `r${k}|${r.distanceMm}|${r.against}`, () => stackFigures(ctx, m, r)));
+	});
+
+	return figures.concat(perCompartment);
+}
+
+type Reach = ReturnType<typeof reach>;
+
+/** Whether `box`'s centre lies in `room` (within the tolerance). */
+function holdsCentre(room: Box, box: Box): boolean {
+	for (let i = 0; i < 3; i++) {
+		const centre = (box.min[i] + box.max[i]) / 2;
+		if (room.min[i] - EPSILON_MM > centre || centre > room.max[i] + EPSILON_MM) return false;
+	}
+	return true;
+}
+
+/** The widest card in the compartment a support bracket stands in, in slots. */
+function cardSlots(
+	ctx: RoomContext,
+	b: EnclosureDef['brackets'][number],
+	L: AxisIndex,
+	room: { box: Box; label: string },
+	dividers: readonly Obstacle[],
+	stackAxis: AxisIndex | null
+): RoomFigure {
+	const S =
+		stackAxis !== null && stackAxis !== L
+			? stackAxis
+			: ([0, 1, 2]
+					.filter((i) => i !== L)
+					.sort(
+						(p, q) => room.box.max[p] - room.box.min[p] - (room.box.max[q] - room.box.min[q])
+					)[0] as AxisIndex);
+	const width = room.box.max[S] - room.box.min[S];
+	const labels = containerLabels(room.box, ctx.inner, '');
+	const lo =
+		labels[`-${AXES[S]}` as Face] || faceBound(room.box, `-${AXES[S]}` as Face, dividers, labels);
+	const hi =
+		labels[`+${AXES[S]}` as Face] || faceBound(room.box, `+${AXES[S]}` as Face, dividers, labels);
+	return {
+		id: `card-slots:${b.id}`,
+		kind: 'card-slots',
+		label: `Widest card in ${room.label}`,
+		valueMm: width,
+		slots: Math.floor(width / SLOT_PITCH_MM + 1e-9),
+		boundedBy: `${lo || 'edge'} to ${hi || 'edge'}`,
+		note: `slots of ${mmOf(ctx, SLOT_PITCH_MM)} (PCI Express CEM)`
+	};
+}
+
+/** The longest card in an expansion-slot mount (`r`: its reach from the panel), and the widest it takes. */
+function slotFigures(
+	ctx: RoomContext,
+	m: MountDef,
+	r: Reach,
+	stackAxis: AxisIndex | null
+): RoomFigure[] {
+	const { axis } = panelAt(m, ctx.inner);
+	const cross = clip(m.region, ctx.inner);
+	const S =
+		stackAxis !== null && stackAxis !== axis
+			? stackAxis
+			: ([0, 1, 2]
+					.filter((i) => i !== axis)
+					.sort(
+						(p, q) => cross.max[p] - cross.min[p] - (cross.max[q] - cross.min[q])
+					)[0] as AxisIndex);
+	const width = cross.max[S] - cross.min[S];
+	const pitch = m.slotPitchMm || SLOT_PITCH_MM;
+	const byRoom = Math.floor(width / pitch + 1e-9);
+	const slots = m.slotCount !== undefined ? Math.min(m.slotCount, byRoom) : byRoom;
+	return [
+		{
 			id: `card-length:${m.id}`,
 			kind: 'card-length',
 			label: `Longest card in the ${m.label}`,
 			valueMm: r.distanceMm,
 			boundedBy: `from the ${PANEL[m.face]} to the ${r.against}`
-		});
-		const S =
-			stackAxis !== null && stackAxis !== axis
-				? stackAxis
-				: ([0, 1, 2]
-						.filter((i) => i !== axis)
-						.sort(
-							(p, q) => cross.max[p] - cross.min[p] - (cross.max[q] - cross.min[q])
-						)[0] as AxisIndex);
-		const width = cross.max[S] - cross.min[S];
-		const pitch = m.slotPitchMm || SLOT_PITCH_MM;
-		const byRoom = Math.floor(width / pitch + 1e-9);
-		const slots = m.slotCount !== undefined ? Math.min(m.slotCount, byRoom) : byRoom;
-		figures.push({
+		},
+		{
 			id: `card-slots:${m.id}`,
 			kind: 'card-slots',
 			label: `Widest card in the ${m.label}`,
@@ -390,58 +598,57 @@ export function roomAt(
 			boundedBy:
 				m.slotCount !== undefined && m.slotCount <= byRoom
 					? `${m.slotCount} slots on the mount`
-					: `the mount's ${formatMm(width)} across`,
-			note: `slots of ${formatMm(pitch)} (PCI Express CEM)`
+					: `the mount's ${mmOf(ctx, width)} across`,
+			note: `slots of ${mmOf(ctx, pitch)} (PCI Express CEM)`
+		}
+	];
+}
+
+/** The stack budget on a radiator or fan mount (`r`: its reach from the panel), per class, after its plate. */
+function stackFigures(ctx: RoomContext, m: MountDef, r: Reach): RoomFigure[] {
+	const out: RoomFigure[] = [];
+	for (const cls of m.accepts.length ? m.accepts : [null]) {
+		const plate = plateFor(m, cls);
+		const budget = m.budgetMm;
+		const byBudget = budget !== undefined && budget <= r.distanceMm + EPSILON_MM;
+		const limit = byBudget ? budget! : r.distanceMm;
+		const why = byBudget
+			? Math.abs(budget! - r.distanceMm) <= EPSILON_MM
+				? `to the ${r.against} (the ${mmOf(ctx, budget!)} budget)`
+				: `the ${mmOf(ctx, budget!)} stack budget`
+			: `to the ${r.against}`;
+		const after = [
+			plate ? `the ${mmOf(ctx, plate)} adapter plate` : '',
+			m.standoffMm ? `${mmOf(ctx, m.standoffMm)} standoffs` : ''
+		]
+			.filter(Boolean)
+			.join(' and ');
+		out.push({
+			id: `stack:${m.id}:${cls ?? 'any'}`,
+			kind: 'stack',
+			label: `${m.label}${cls ? `, ${cls}` : ''}: ${m.kind === 'radiator' ? 'radiator + fans' : 'fans'}`,
+			valueMm: Math.max(0, limit - plate - m.standoffMm),
+			boundedBy: after ? `${why}, after ${after}` : why
 		});
 	}
-
-	// Stack budget on each radiator or fan mount, per class it takes, after its plate.
-	for (const m of enclosure.mounts.filter((x) => x.kind === 'radiator' || x.kind === 'fan')) {
-		const { axis, dir, panel } = panelAt(m, inner);
-		const cross = clip(m.region, inner);
-		const r = reach(inner, cross, axis, dir, panel, [...dividers, ...brackets]);
-		for (const cls of m.accepts.length ? m.accepts : [null]) {
-			const plate = plateFor(m, cls);
-			const budget = m.budgetMm;
-			const byBudget = budget !== undefined && budget <= r.distanceMm + EPSILON_MM;
-			const limit = byBudget ? budget! : r.distanceMm;
-			const why = byBudget
-				? Math.abs(budget! - r.distanceMm) <= EPSILON_MM
-					? `to the ${r.against} (the ${formatMm(budget!)} budget)`
-					: `the ${formatMm(budget!)} stack budget`
-				: `to the ${r.against}`;
-			const after = [
-				plate ? `the ${formatMm(plate)} adapter plate` : '',
-				m.standoffMm ? `${formatMm(m.standoffMm)} standoffs` : ''
-			]
-				.filter(Boolean)
-				.join(' and ');
-			figures.push({
-				id: `stack:${m.id}:${cls ?? 'any'}`,
-				kind: 'stack',
-				label: `${m.label}${cls ? `, ${cls}` : ''}: ${m.kind === 'radiator' ? 'radiator + fans' : 'fans'}`,
-				valueMm: Math.max(0, limit - plate - m.standoffMm),
-				boundedBy: after ? `${why}, after ${after}` : why
-			});
-		}
-	}
-
-	return figures.concat(perCompartment);
+	return out;
 }
 
 /** A compartment's free box (after fixed obstacles) and its pump depths per panel (after stacks too). */
 function compartmentFigures(
+	ctx: RoomContext,
 	c: { id: string; label: string; box: Box },
-	inner: Box,
 	fixed: readonly LabelledBox[],
 	reachObstacles: readonly LabelledBox[]
 ): RoomFigure[] {
+	const { inner } = ctx;
 	const figures: RoomFigure[] = [];
-	const best = maximalEmptyBoxes(
+	const free = maximalEmptyBoxes(
 		c.box,
 		fixed.map((o) => o.box),
 		1
-	).boxes.sort(byVolume)[0];
+	).boxes.sort(byVolume);
+	const best = free[0];
 	if (!best) {
 		figures.push({
 			id: `free-box:${c.id}`,
@@ -452,9 +659,8 @@ function compartmentFigures(
 		});
 		return figures;
 	}
-	const labels = containerLabels(best, inner, '');
 	const side = (f: Face) =>
-		labels[f] || faceBound(best, f, fixed, labels) || 'the compartment edge';
+		panelOf(best, inner, f) || faceBound(best, f, fixed, NO_LABELS) || 'the compartment edge';
 	const size = boxSize(best);
 	figures.push({
 		id: `free-box:${c.id}`,
@@ -465,22 +671,30 @@ function compartmentFigures(
 		boundedBy: `${side('-x')} to ${side('+x')}, ${side('-y')} to ${side('+y')}, ${side('-z')} to ${side('+z')}`,
 		box: best
 	});
-	const boxes = maximalEmptyBoxes(
-		c.box,
-		reachObstacles.map((o) => o.box),
-		1
-	).boxes.sort(byVolume);
+	// The stacks count for a pump too; when none reaches into the compartment the boxes are the same.
+	const boxes = reachObstacles.some((o) => !fixed.includes(o) && reaches(o.box, c.box))
+		? maximalEmptyBoxes(
+				c.box,
+				reachObstacles.map((o) => o.box),
+				1
+			).boxes.sort(byVolume)
+		: free;
 	for (const f of ['-x', '+x', '-y', '+y', '-z', '+z'] as const) {
 		const { axis, high } = FACE_AXES[FACE_NAME_OF[f]];
 		const panel = high ? inner.max[axis] : inner.min[axis];
 		if (Math.abs((high ? c.box.max[axis] : c.box.min[axis]) - panel) > EPSILON_MM) continue;
+		// The two axes across the panel: the footprint's sides.
+		const u = (axis + 1) % 3;
+		const v = (axis + 2) % 3;
 		let deep: Box | null = null;
 		for (const b of boxes) {
 			if (Math.abs((high ? b.max[axis] : b.min[axis]) - panel) > EPSILON_MM) continue;
-			const wide = [0, 1, 2].every(
-				(i) => i === axis || b.max[i] - b.min[i] >= PUMP_FOOTPRINT_MM - EPSILON_MM
-			);
-			if (!wide) continue;
+			if (
+				b.max[u] - b.min[u] < PUMP_FOOTPRINT_MM - EPSILON_MM ||
+				b.max[v] - b.min[v] < PUMP_FOOTPRINT_MM - EPSILON_MM
+			) {
+				continue;
+			}
 			const d = b.max[axis] - b.min[axis];
 			if (
 				!deep ||
@@ -492,16 +706,19 @@ function compartmentFigures(
 		}
 		if (!deep) continue;
 		const far = `${high ? '-' : '+'}${AXES[axis]}` as Face;
-		const edges = containerLabels(deep, inner, '');
 		const bound =
-			edges[far] || faceBound(deep, far, reachObstacles, edges) || 'the compartment edge';
+			panelOf(deep, inner, far) ||
+			faceBound(deep, far, reachObstacles, NO_LABELS) ||
+			'the compartment edge';
+		const p = deep.max[u] - deep.min[u];
+		const q = deep.max[v] - deep.min[v];
 		figures.push({
 			id: `pump:${c.id}:${FACE_NAME_OF[f]}`,
 			kind: 'pump-depth',
 			label: `${c.label}: pump or reservoir on the ${FACE_WORD[f]}`,
 			valueMm: deep.max[axis] - deep.min[axis],
 			boundedBy: `to the ${bound}`,
-			note: `over ${formatMm(Math.min(...[0, 1, 2].filter((i) => i !== axis).map((i) => deep!.max[i] - deep!.min[i])))} × ${formatMm(Math.max(...[0, 1, 2].filter((i) => i !== axis).map((i) => deep!.max[i] - deep!.min[i])))} (a footprint of at least ${PUMP_FOOTPRINT_MM} × ${PUMP_FOOTPRINT_MM} mm)`,
+			note: `over ${mmOf(ctx, Math.min(p, q))} × ${mmOf(ctx, Math.max(p, q))} (a footprint of at least ${PUMP_FOOTPRINT_MM} × ${PUMP_FOOTPRINT_MM} mm)`,
 			box: deep
 		});
 	}
@@ -568,7 +785,7 @@ export function roomTable(enclosure: EnclosureDef): RoomTable {
 		note = `${note ? `${note} ` : ''}Only the first ${MAX_ROOM_ROWS} of ${settingsList.length} combinations are listed.`;
 		settingsList.length = MAX_ROOM_ROWS;
 	}
-	const cache = new Map<string, RoomFigure[]>();
+	const ctx = roomContext(enclosure);
 	const rows = settingsList.map((settings) => {
 		const at: RoomPositions = { dividerPositions: {}, bracketOffsets: {} };
 		for (const s of settings) {
@@ -578,7 +795,7 @@ export function roomTable(enclosure: EnclosureDef): RoomTable {
 			.filter((s) => moving.some((m) => m.kind === s.kind && m.id === s.id))
 			.map((s) => `${s.id}=${s.offsetMm}`)
 			.join(';');
-		return { key, settings, figures: roomAt(enclosure, at, cache) };
+		return { key, settings, figures: figuresAt(ctx, at) };
 	});
 	return { controls, moving: moving.map((m) => ({ kind: m.kind, id: m.id })), rows, note };
 }
