@@ -24,7 +24,7 @@ test('fork a variant, move the bracket in the fork, compare, cameras follow', as
 	await bar.focus();
 	await page.keyboard.press('ArrowRight');
 	await expect(page.getByTestId('ctl-value-bar')).toHaveText('10.0\u2009mm');
-	await expect(page.getByTestId('save-status')).toContainText('Saved · revision 2', {
+	await expect(page.getByTestId('save-status')).toContainText('Saved · change 2', {
 		timeout: 15_000
 	});
 
