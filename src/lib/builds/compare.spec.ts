@@ -126,3 +126,21 @@ describe('overlaps in the difference table', () => {
 		expect(depth).toBeCloseTo(0.96, 6);
 	});
 });
+
+describe('settings rows', () => {
+	it('say a named position and its offset, and an unnamed one once', () => {
+		// As the server names them: a divider's list label, a bracket's offset in millimetres.
+		const withControls = (id: string, bar: number): CompareInput => ({
+			...variant(id, withBar(bar)),
+			controls: [
+				{ key: 'divider:spine', label: 'Spine', offsetMm: 86, position: '3 slots' },
+				{ key: 'bracket:bar', label: 'Card support bar', offsetMm: bar, position: formatMm(bar) }
+			]
+		});
+		const rows = compareVariants([withControls('a', 0), withControls('b', 10)]);
+		const spine = rows.find((r) => r.key === 'setting:divider:spine')!;
+		expect(spine.cells[0].text).toBe('3 slots · 86.0\u2009mm');
+		const bar = rows.find((r) => r.key === 'setting:bracket:bar')!;
+		expect(bar.cells.map((c) => c.text)).toEqual(['0.0\u2009mm', '10.0\u2009mm']);
+	});
+});

@@ -123,7 +123,11 @@ export function compareVariants(inputs: CompareInput[]): DiffRow[] {
 		);
 		row.cells = row.cells.map((cell, i) => ({
 			...cell,
-			text: found[i] ? `${found[i].position} · ${cell.text}` : cell.text
+			// "3 slots · 86.0 mm"; a bracket's position is its offset, said once.
+			text:
+				found[i] && found[i].position !== cell.text
+					? `${found[i].position} · ${cell.text}`
+					: cell.text
 		}));
 		rows.push(row);
 	}
