@@ -49,7 +49,7 @@ test('sign up, make a studio, invite a designer who signs up from the mail and s
 
 	await expect(page).toHaveURL(/\/studios\/new$/);
 	await page.getByLabel('Studio name').fill(studioName);
-	await page.getByRole('button', { name: 'Create studio' }).click();
+	await page.getByRole('button', { name: 'Start the studio' }).click();
 	await expect(page).toHaveURL(/\/builds$/);
 	await expect(page.getByRole('heading', { name: 'Builds', exact: true })).toBeVisible();
 	await expect(page.getByRole('banner')).toContainText(`${studioName} · owner`);

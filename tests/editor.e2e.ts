@@ -38,12 +38,12 @@ async function openEditor(browser: Browser) {
 	await signIn(page);
 	await page.goto(BUILD);
 	await expect(page.getByTestId('editor')).toHaveAttribute('data-ready', 'true');
-	await expect(page.getByTestId('save-status')).toHaveText(/^Saved · revision \d+$/);
+	await expect(page.getByTestId('save-status')).toHaveText(/^Saved · change \d+$/);
 	return { context, page };
 }
 
 const versionOf = async (page: Page) =>
-	Number(/revision (\d+)/.exec((await page.getByTestId('save-status').textContent()) ?? '')?.[1]);
+	Number(/change (\d+)/.exec((await page.getByTestId('save-status').textContent()) ?? '')?.[1]);
 
 test('the spine at "2 slots": the card collides in the report and in 3D; back at "3 slots" it fits, and the positions persist', async ({
 	browser
@@ -114,18 +114,18 @@ test('the spine at "2 slots": the card collides in the report and in 3D; back at
 	// Autosave, and a reload shows what was saved. Back at the saved state nothing new is written
 	// unless the autosave of "2 slots" went out in between (then two revisions), so the revision is
 	// at least the first; the "4 slots" move below must write exactly one more.
-	await expect(status).toHaveText(/^Saved · revision \d+$/);
+	await expect(status).toHaveText(/^Saved · change \d+$/);
 	expect(await versionOf(page)).toBeGreaterThanOrEqual(firstVersion);
 	const savedVersion = await versionOf(page);
 	await page.reload();
 	await expect(page.getByTestId('editor')).toHaveAttribute('data-ready', 'true');
 	await expect(spine).toHaveAttribute('aria-valuetext', '3 slots, 86.0\u2009mm');
-	await expect(status).toHaveText(`Saved · revision ${savedVersion}`);
+	await expect(status).toHaveText(`Saved · change ${savedVersion}`);
 
 	// A position other than the one it opened with persists too: "4 slots" with the −1 button.
 	await page.getByRole('button', { name: 'Spine: one position lower' }).click();
 	await expect(spine).toHaveAttribute('aria-valuetext', '4 slots, 65.68\u2009mm');
-	await expect(status).toHaveText(`Saved · revision ${savedVersion + 1}`);
+	await expect(status).toHaveText(`Saved · change ${savedVersion + 1}`);
 	await page.reload();
 	await expect(spine).toHaveAttribute('aria-valuetext', '4 slots, 65.68\u2009mm');
 	await expect(page.getByRole('slider', { name: 'Card support bar' })).toHaveAttribute(
@@ -201,7 +201,7 @@ test('a second browser saving first: the stale save gets the conflict view, and 
 
 	// B saves first: the spine to "4 slots".
 	await b.page.getByRole('button', { name: 'Spine: one position lower' }).click();
-	await expect(b.page.getByTestId('save-status')).toHaveText(`Saved · revision ${opened + 1}`);
+	await expect(b.page.getByTestId('save-status')).toHaveText(`Saved · change ${opened + 1}`);
 
 	// A, still on the version it opened, moves the spine the other way and autosaves: 409.
 	await a.page.getByRole('button', { name: 'Spine: one position higher' }).click();
@@ -210,19 +210,19 @@ test('a second browser saving first: the stale save gets the conflict view, and 
 	});
 	await expect(dialog).toBeVisible();
 	await expect(a.page.getByTestId('save-status')).toHaveText(
-		'Not saved: someone saved a newer revision'
+		'Not saved: someone saved a newer change'
 	);
 	// Both scenes side by side: mine at "2 slots", theirs at "4 slots".
 	await expect(dialog.getByRole('heading', { name: 'Yours' }).locator('..')).toContainText(
 		'Spine: 106.32\u2009mm'
 	);
 	await expect(
-		dialog.getByRole('heading', { name: `Saved (revision ${opened + 1})` }).locator('..')
+		dialog.getByRole('heading', { name: `Saved (change ${opened + 1})` }).locator('..')
 	).toContainText('Spine: 65.68\u2009mm');
 
 	await dialog.getByRole('button', { name: 'Keep mine and save it' }).click();
 	await expect(dialog).toBeHidden();
-	await expect(a.page.getByTestId('save-status')).toHaveText(`Saved · revision ${opened + 2}`);
+	await expect(a.page.getByTestId('save-status')).toHaveText(`Saved · change ${opened + 2}`);
 
 	// B reloads and sees A's scene.
 	await b.page.reload();
@@ -241,7 +241,7 @@ test('"use the saved version" takes the other browser’s scene and keeps mine o
 	const a = await openEditor(browser);
 	const b = await openEditor(browser);
 	await b.page.getByRole('button', { name: 'Spine: one position lower' }).click();
-	await expect(b.page.getByTestId('save-status')).toHaveText('Saved · revision 2');
+	await expect(b.page.getByTestId('save-status')).toHaveText('Saved · change 2');
 
 	await a.page.getByRole('button', { name: 'Spine: one position higher' }).click();
 	const dialog = a.page.getByRole('dialog', {
@@ -251,7 +251,7 @@ test('"use the saved version" takes the other browser’s scene and keeps mine o
 	await expect(dialog).toBeHidden();
 	const spine = a.page.getByRole('slider', { name: 'Spine' });
 	await expect(spine).toHaveAttribute('aria-valuetext', '4 slots, 65.68\u2009mm');
-	await expect(a.page.getByTestId('save-status')).toHaveText('Saved · revision 2');
+	await expect(a.page.getByTestId('save-status')).toHaveText('Saved · change 2');
 	await a.page.getByRole('button', { name: 'Undo' }).click();
 	await expect(spine).toHaveAttribute('aria-valuetext', '2 slots, 106.32\u2009mm');
 	await a.context.close();
@@ -298,7 +298,7 @@ test('skip links: the fit report in three Tab presses at most, the 3D view likew
 	const bar = page.getByTestId('save-status').locator('xpath=../..');
 	const before = (await bar.boundingBox())!.height;
 	await page.getByRole('button', { name: 'Spine: one position lower' }).click();
-	await expect(page.getByTestId('save-status')).toHaveText(/Saved · revision \d+/);
+	await expect(page.getByTestId('save-status')).toHaveText(/Saved · change \d+/);
 	expect((await bar.boundingBox())!.height).toBe(before);
 	await restoreDemoVariant();
 	await context.close();

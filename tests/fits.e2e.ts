@@ -28,7 +28,7 @@ async function openEditor(page: import('@playwright/test').Page) {
 	await page.waitForURL(/\/builds$/);
 	await page.goto('/builds/demo-build');
 	await expect(page.getByTestId('editor')).toHaveAttribute('data-ready', 'true');
-	await expect(page.getByTestId('save-status')).toHaveText(/^Saved · revision \d+$/);
+	await expect(page.getByTestId('save-status')).toHaveText(/^Saved · change \d+$/);
 }
 
 test('the front radiator mount: combinations with spare mm; placing one updates the report', async ({
@@ -48,7 +48,7 @@ test('the front radiator mount: combinations with spare mm; placing one updates 
 	await slim.getByRole('button', { name: /^Place / }).click();
 	// The report follows: the stack is 30 + 15 = 45 mm of 64.
 	await expect(stack).toHaveAttribute('aria-valuetext', '45.0 of 64.0 mm');
-	await expect(page.getByTestId('save-status')).toHaveText(/^Saved · revision \d+$/);
+	await expect(page.getByTestId('save-status')).toHaveText(/^Saved · change \d+$/);
 });
 
 test('parts × positions for two cards: the demo card at 3 slots has 2.0 mm spare, at 2 slots it collides', async ({

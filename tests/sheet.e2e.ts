@@ -8,6 +8,7 @@ import { eq } from 'drizzle-orm';
 import { db } from '../src/lib/server/db';
 import { builds } from '../src/lib/server/db/schema';
 import { clearTicks, createSheetBuild } from '../src/lib/server/testing/sheet-build';
+import { DEMO_SPINE_OFFSETS } from '../src/lib/geometry/standard-library';
 import {
 	clearBrowserRateLimits,
 	closeDb,
@@ -110,7 +111,7 @@ test('ticking works without JavaScript, and the PDF downloads', async ({ browser
 	await context.close();
 });
 
-test('the drawing key in grey-scale keeps every status tellable: a distinct mean lightness per swatch', async ({
+test('the drawing key in grey-scale keeps every status tellable: mean lightness per swatch distinct and ordered like L*', async ({
 	page,
 	context,
 	baseURL
@@ -122,17 +123,26 @@ test('the drawing key in grey-scale keeps every status tellable: a distinct mean
 	await expect(key).toBeVisible();
 	await key.screenshot({ path: testInfo.outputPath('drawing-key.png') });
 	const means: [string, number][] = [];
-	for (const status of ['collides', 'blocked', 'outside', 'tight', 'clear']) {
+	// In the fills' lightness order, darkest first: L* 30, 47, 64, 81, 97 (drawing-style.ts).
+	for (const status of ['collides', 'blocked', 'clear', 'tight', 'outside']) {
 		const swatch = key.locator(`[data-status="${status}"] svg`).first();
-		const png = await swatch.screenshot({ scale: 'css' });
+		const png = await swatch.screenshot({
+			scale: 'css',
+			path: testInfo.outputPath(`swatch-${status}.png`)
+		});
 		// Grey as a grey-scale print makes it (sharp's luminance), then the swatch's mean 0–255.
 		// Inside the mark's edge only (the page around it is white for every status).
 		const { width = 0, height = 0 } = await sharp(png).metadata();
 		const inset = Math.round(width * 0.2);
-		const stats = await sharp(png)
+		// sharp's stats() reads its input, not the pipeline's output: make the grey image first.
+		const grey = await sharp(png)
 			.extract({ left: inset, top: inset, width: width - 2 * inset, height: height - 2 * inset })
 			.greyscale()
-			.stats();
+			.toColourspace('b-w')
+			.png()
+			.toBuffer();
+		const stats = await sharp(grey).stats();
+		expect(stats.channels.length).toBeLessThanOrEqual(2);
 		means.push([status, stats.channels[0].mean]);
 		console.log(`${status}: mean grey ${stats.channels[0].mean.toFixed(1)} of 255`);
 	}
@@ -140,9 +150,36 @@ test('the drawing key in grey-scale keeps every status tellable: a distinct mean
 		for (let j = i + 1; j < means.length; j++) {
 			const [a, la] = means[i];
 			const [b, lb] = means[j];
-			expect(Math.abs(la - lb), `${a} ${la.toFixed(0)} vs ${b} ${lb.toFixed(0)}`).toBeGreaterThan(
-				12
-			);
+			// Distinct, and in the fills' order: no pattern (dots, hatch, edge) turns the order round.
+			expect(lb - la, `${a} ${la.toFixed(0)} vs ${b} ${lb.toFixed(0)}`).toBeGreaterThan(12);
 		}
 	}
+});
+
+test('a colliding body is cross-hatched on the drawing itself, not only in the key', async ({
+	page,
+	context,
+	baseURL
+}, testInfo) => {
+	const studio = await createStudio();
+	const designer = await createMember(studio.id, 'designer');
+	const two = await createSheetBuild({
+		studioId: studio.id,
+		userId: designer.id,
+		name: 'Spine one slot left',
+		adjust: (s) => (s.dividerPositions.spine = DEMO_SPINE_OFFSETS['2 slots'])
+	});
+	await signInAs(context, baseURL!, designer.id);
+	await page.goto(`/builds/${two.buildId}/sheet`);
+	const front = page.getByRole('img', { name: /^Front view/ });
+	await expect(front).toBeVisible();
+	await front.screenshot({ path: testInfo.outputPath('front-collides.png') });
+	const collides = front.locator('g[data-kind="body"][data-status="collides"]');
+	expect(await collides.count()).toBeGreaterThan(0);
+	// Its pattern layer is the collides cross-hatch; the clear bodies have none.
+	await expect(collides.first().locator('rect[fill$="-collides)"]')).toHaveCount(1);
+	const clear = front.locator('g[data-kind="body"][data-status="clear"]');
+	if (await clear.count()) await expect(clear.first().locator('rect[fill^="url("]')).toHaveCount(0);
+	const hatch = front.locator('pattern[id$="-collides"] line');
+	await expect(hatch).toHaveCount(2);
 });

@@ -24,17 +24,20 @@ test('fork a variant, move the bracket in the fork, compare, cameras follow', as
 	await bar.focus();
 	await page.keyboard.press('ArrowRight');
 	await expect(page.getByTestId('ctl-value-bar')).toHaveText('10.0\u2009mm');
-	await expect(page.getByTestId('save-status')).toContainText('Saved · revision 2', {
+	await expect(page.getByTestId('save-status')).toContainText('Saved · change 2', {
 		timeout: 15_000
 	});
 
 	await page.goto(`/builds/demo-build/compare?variants=demo-variant-a,${forkId}`);
 	const table = page.getByRole('table', { name: 'Differences between variants' });
 	await page.getByLabel('Only differences').check();
-	// The bar rose into the card standing on it: the card's gap below changes by −10 mm.
+	// The bar rose 10 mm into the card standing on it: the card's gap below now reads as that
+	// overlap, in words, with no negative change beside it.
 	const row = table.locator('tr[data-row="part:card:gap:-y"]');
 	await expect(row).toBeVisible();
-	await expect(row.locator('[data-delta]')).toHaveText('(−10.0)');
+	await expect(row).toContainText('overlaps the card support bar by 10.0\u2009mm');
+	await expect(row.locator('[data-delta]')).toHaveCount(0);
+	await expect(row).not.toContainText('−');
 	await expect(table.locator('tr[data-row="total:interference"]')).toBeVisible();
 
 	// Orbit the first view; the second view's camera follows.

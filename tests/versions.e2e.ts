@@ -80,7 +80,7 @@ test('approve as the client; the designer starts a new variant from it, changes 
 	await spine.focus();
 	await page.keyboard.press('ArrowLeft');
 	await expect(spine).toHaveAttribute('aria-valuetext', '4 slots, 65.68\u2009mm');
-	await expect(page.getByTestId('save-status')).toHaveText(/^Saved · revision \d+$/);
+	await expect(page.getByTestId('save-status')).toHaveText(/^Saved · change \d+$/);
 	await page.getByLabel('Note for version 2').fill('Spine one slot over, more room for the card');
 	await page.getByRole('button', { name: 'Save as version 2' }).click();
 	await expect(page.getByTestId('version-done')).toHaveText('Saved as version 2.');

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { checkScene, sceneSchema, type Scene } from '$lib/geometry';
+import { checkScene, formatMm, sceneSchema, type Scene } from '$lib/geometry';
 import { demoSceneInput } from '$lib/geometry/standard-library';
 import { compareCsv, compareVariants, type CompareInput } from './compare';
 
@@ -76,5 +76,71 @@ describe('comparison CSV and formulas', () => {
 		const header = csv.split('\r\n')[0];
 		expect(header).toBe(`group,item,"'${evil.replace(/"/g, '""')}",'@B,change in @B`);
 		expect(csv).not.toMatch(/(^|,)"?[=+@]/m);
+	});
+});
+
+describe('overlaps in the difference table', () => {
+	// The demo with the spine one slot too far left: the card's body runs into the spine.
+	const fits = sceneSchema.parse({ ...demoSceneInput() });
+	const clash = sceneSchema.parse({
+		...demoSceneInput(),
+		dividerPositions: { bulkhead: 64, spine: 106.32 }
+	});
+	const inputs = [variant('fits', fits), variant('clash', clash)];
+	const rows = compareVariants(inputs);
+	const gapRows = rows.filter((r) => r.key.includes(':gap:'));
+
+	it('no gap cell, change or CSV field is a negative number', () => {
+		expect(gapRows.length).toBeGreaterThan(0);
+		for (const r of gapRows) {
+			for (const c of r.cells) {
+				expect(c.text, r.label).not.toMatch(/[−-]\s?\d/);
+				if (c.value !== null && c.value < 0) expect(c.delta).toBeNull();
+			}
+		}
+		const csv = compareCsv(inputs, rows);
+		for (const line of csv.split('\r\n').filter((l) => l.includes(' gap '))) {
+			expect(line, line).not.toMatch(/,-\d/);
+		}
+	});
+
+	it('an overlap reads as one, naming the other thing and the depth that clears it', () => {
+		const report = inputs[1].report;
+		const cardSpine = report.overlaps.find((o) =>
+			[o.a.placementId, o.b.placementId].includes('card')
+		)!;
+		expect(cardSpine).toBeDefined();
+		// The depth that clears an overlap is its thinnest extent (an oracle straight from the
+		// overlap box: the smallest of its three sizes).
+		const depth = Math.min(...cardSpine.depthMm);
+		const overlapCells = gapRows
+			.filter((r) => r.key.startsWith('part:card:'))
+			.map((r) => r.cells[1].text)
+			.filter((t) => t.startsWith('overlaps'));
+		expect(overlapCells.length).toBeGreaterThan(0);
+		for (const t of overlapCells) {
+			expect(t).toMatch(/^overlaps the [a-z ]+ by \d+\.\d\d?\u2009mm$/);
+		}
+		expect(overlapCells).toContain(`overlaps the spine by ${formatMm(depth)}`);
+		// The demo's collision, worked: the card reaches 0.96 mm into the spine.
+		expect(depth).toBeCloseTo(0.96, 6);
+	});
+});
+
+describe('settings rows', () => {
+	it('say a named position and its offset, and an unnamed one once', () => {
+		// As the server names them: a divider's list label, a bracket's offset in millimetres.
+		const withControls = (id: string, bar: number): CompareInput => ({
+			...variant(id, withBar(bar)),
+			controls: [
+				{ key: 'divider:spine', label: 'Spine', offsetMm: 86, position: '3 slots' },
+				{ key: 'bracket:bar', label: 'Card support bar', offsetMm: bar, position: formatMm(bar) }
+			]
+		});
+		const rows = compareVariants([withControls('a', 0), withControls('b', 10)]);
+		const spine = rows.find((r) => r.key === 'setting:divider:spine')!;
+		expect(spine.cells[0].text).toBe('3 slots · 86.0\u2009mm');
+		const bar = rows.find((r) => r.key === 'setting:bracket:bar')!;
+		expect(bar.cells.map((c) => c.text)).toEqual(['0.0\u2009mm', '10.0\u2009mm']);
 	});
 });

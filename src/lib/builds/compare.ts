@@ -4,7 +4,7 @@
  */
 import { FACES, STATUS_ORDER, type Face, type FitReport, type FitStatus } from '$lib/geometry';
 import { toCsv } from '$lib/csv';
-import { gapWords } from '../words/builds';
+import { faceGapWords } from '../words/builds';
 import { faceWords } from '$lib/words/faces';
 
 /** A divider or bracket as set in a variant: its offset and the position's name. */
@@ -123,7 +123,11 @@ export function compareVariants(inputs: CompareInput[]): DiffRow[] {
 		);
 		row.cells = row.cells.map((cell, i) => ({
 			...cell,
-			text: found[i] ? `${found[i].position} · ${cell.text}` : cell.text
+			// "3 slots · 86.0 mm"; a bracket's position is its offset, said once.
+			text:
+				found[i] && found[i].position !== cell.text
+					? `${found[i].position} · ${cell.text}`
+					: cell.text
 		}));
 		rows.push(row);
 	}
@@ -162,10 +166,14 @@ export function compareVariants(inputs: CompareInput[]): DiffRow[] {
 				mmText,
 				[id]
 			);
-			// "2.0 mm (1.0 worst case)" where tolerances apply.
+			// "2.0 mm (1.0 worst case)" where tolerances apply; an overlap reads as one ("overlaps the
+			// spine by 0.96 mm", its depth from the report's overlaps), never as a negative gap, and a
+			// change to or from an overlap has no number (a gap minus a depth means nothing).
 			row.cells.forEach((c, i) => {
 				const g = reports[i]?.gaps[face];
-				if (g && g.gapMm !== null) c.text = gapWords(g);
+				if (g && g.gapMm !== null) c.text = faceGapWords(g, inputs[i].report.overlaps, id);
+				const overlapped = (v: number | null) => v !== null && v < -EPS;
+				if (overlapped(c.value) || (i > 0 && overlapped(values[0]))) c.delta = null;
 			});
 			rows.push(row);
 		}
@@ -217,7 +225,8 @@ export function compareVariants(inputs: CompareInput[]): DiffRow[] {
 				`${label} — spare`,
 				found.map((m) => m?.spareMm ?? null),
 				'higher',
-				mmText,
+				// Less than no spare room is an overrun, said as one.
+				(v) => (v < -EPS ? `${mmText(-v)} over` : mmText(v)),
 				ids
 			)
 		);
@@ -363,7 +372,10 @@ export function compareCsv(inputs: CompareInput[], rows: DiffRow[]): string {
 	const lines = rows.map((r) => [
 		r.group,
 		r.label,
-		...r.cells.map((c) => (c.value === null ? c.text : round(c.value))),
+		// An overlap is written as words, like on the screen: a negative gap is not a gap.
+		...r.cells.map((c) =>
+			c.value === null || (r.key.includes(':gap:') && c.value < -EPS) ? c.text : round(c.value)
+		),
 		...r.cells.slice(1).map((c) => (c.delta === null ? '' : round(c.delta)))
 	]);
 	return toCsv(header, lines);

@@ -6,7 +6,7 @@
 import { describe, expect, it } from 'vitest';
 import { STATUS_ORDER } from '$lib/geometry';
 import { STATUS_STYLE } from '$lib/scene/palette';
-import { STATUS_FILL, STATUS_INK } from './drawing-style';
+import { STATUS_FILL, STATUS_INK, thirdAngleSymbol } from './drawing-style';
 
 /** sRGB hex → CIE 1976 L* (0 black … 100 white), D65. */
 function lightness(hex: string): number {
@@ -48,5 +48,37 @@ describe('status marks in grey-scale', () => {
 		const patterns = STATUS_ORDER.map((s) => STATUS_INK[s].pattern);
 		expect(new Set(patterns).size).toBe(STATUS_ORDER.length);
 		expect(STATUS_INK.collides.pattern).toBe('crosshatch');
+	});
+});
+
+describe('the third-angle symbol (ISO 128 / ISO 5456-2 proportions, from memory)', () => {
+	const h = 2.5;
+	const s = thirdAngleSymbol(h);
+	const [outer, inner] = s.circles;
+	const [smallTop, largeTop, largeBottom, smallBottom] = s.outline;
+
+	it("a truncated cone: the end view's circles are the side view's two ends", () => {
+		// H = 2h = 5 mm: the large end 5 mm across, the small end 2.5 mm, lines h/10 = 0.25 mm.
+		expect(outer.r * 2).toBeCloseTo(2 * h, 9);
+		expect(inner.r * 2).toBeCloseTo(h, 9);
+		expect(largeBottom[1] - largeTop[1]).toBeCloseTo(outer.r * 2, 9);
+		expect(smallBottom[1] - smallTop[1]).toBeCloseTo(inner.r * 2, 9);
+		expect(largeTop[0] - smallTop[0]).toBeCloseTo(2 * h, 9);
+		expect(s.lineMm).toBeCloseTo(h / 10, 9);
+		expect(outer.cx).toBe(inner.cx);
+		// One axis through both views' centres.
+		expect(s.axis[1]).toBe(outer.cy);
+		expect((smallTop[1] + smallBottom[1]) / 2).toBeCloseTo(s.axis[1], 9);
+	});
+
+	it("third-angle: the end view seen from the small end sits on the small end's side", () => {
+		// Two full circles: the view from the small end (from the large end the small one is hidden).
+		expect(outer.cx + outer.r).toBeLessThan(smallTop[0]);
+		expect(smallTop[0]).toBeLessThan(largeTop[0]);
+		// Everything inside the stated box, the axis past both views.
+		expect(s.axis[0]).toBeLessThan(outer.cx - outer.r);
+		expect(s.axis[2]).toBeGreaterThan(largeTop[0]);
+		expect(s.axis[2]).toBeCloseTo(s.widthMm, 9);
+		expect(s.heightMm).toBeCloseTo(2 * h, 9);
 	});
 });

@@ -75,6 +75,8 @@ export const WEIGHT = {
 	wall: 0.35,
 	divider: 0.3,
 	body: 0.3,
+	/** A colliding body's heavy dark edge, with its cross-hatch the mark that survives grey-scale. */
+	bodyCollides: 0.6,
 	keepout: 0.18,
 	dimension: 0.18,
 	gap: 0.25,
@@ -94,4 +96,58 @@ export const BODY_OPACITY: Record<FitStatus, number> = {
 };
 
 /** Pattern spacing in paper millimetres. */
-export const PATTERN_MM = { hatch: 1.6, dots: 1.4, dotRadius: 0.28, dash: 1.2 } as const;
+export const PATTERN_MM = {
+	hatch: 1.6,
+	crosshatch: 1.4,
+	dots: 1.4,
+	dotRadius: 0.28,
+	dash: 1.2
+} as const;
+
+/** A projection symbol's lines in paper millimetres, from its bounding box's top-left corner. */
+export interface ProjectionSymbol {
+	widthMm: number;
+	heightMm: number;
+	/** Line width of the outlines. */
+	lineMm: number;
+	/** The cone's end view: its large and its small end, concentric. */
+	circles: { cx: number; cy: number; r: number }[];
+	/** The cone's side view, a trapezoid: small end first, then the large end. */
+	outline: [number, number][];
+	/** The axis as a thin chain line through both views, past each by a little. */
+	axis: [number, number, number, number];
+}
+
+/**
+ * The third-angle projection symbol of ISO 128 / ISO 5456-2 for lettering height h (mm): a
+ * truncated cone seen from its small end (two full circles) and from the side (a trapezoid).
+ * Proportions from memory of the standard's figure (not checked against the text): H = 2h; the
+ * cone's ends are H and h across and it is H long; lines h/10 wide; the two views h apart; the axis
+ * runs h/2 past each. Third-angle places the end view on the side it is seen from, so the circles sit
+ * to the left of the side view's small end (first-angle would put them beyond its large end).
+ */
+export function thirdAngleSymbol(hMm: number): ProjectionSymbol {
+	const h = hMm;
+	const H = 2 * h;
+	const over = h / 2;
+	const cx = over + H / 2;
+	const cy = H / 2;
+	const small = over + H + h;
+	const large = small + H;
+	return {
+		widthMm: large + over,
+		heightMm: H,
+		lineMm: h / 10,
+		circles: [
+			{ cx, cy, r: H / 2 },
+			{ cx, cy, r: h / 2 }
+		],
+		outline: [
+			[small, cy - h / 2],
+			[large, 0],
+			[large, H],
+			[small, cy + h / 2]
+		],
+		axis: [0, cy, large + over, cy]
+	};
+}

@@ -32,6 +32,9 @@ describe('enclosure settings in words and numbers', () => {
 		const spine = sheetOf().enclosure.settings.find((s) => s.id === 'spine')!;
 		expect(spine).toMatchObject({ positionLabel: '3 slots', index: 1, count: 3, coordinateMm: 86 });
 		expect(spine.text).toBe(`Spine at position 3 slots, x = 86.0${THIN}mm; 2.0${THIN}mm thick.`);
+		// One position only: fixed, not "at position fixed".
+		const bulkhead = sheetOf().enclosure.settings.find((s) => s.id === 'bulkhead')!;
+		expect(bulkhead.text).toBe(`Bulkhead fixed at z = 64.0${THIN}mm; 2.0${THIN}mm thick.`);
 	});
 
 	it('counts bracket steps from the low end of its travel', () => {
@@ -112,7 +115,10 @@ describe('the fit report', () => {
 		const fit = sheetOf(
 			(s) => (s.dividerPositions = { ...s.dividerPositions, spine: DEMO_SPINE_OFFSETS['2 slots'] })
 		).fit;
-		expect(fit.summary).toMatch(/^Not ready to build: /);
+		// Counts in words with plural forms: two colliding parts, six clear.
+		expect(fit.summary).toBe('Not ready to build: 2 parts collide, 6 clear.');
+		// A divider moves by slots, as the editor says it.
+		expect(fit.items.map((i) => i.detail).join(' ')).toContain('move Spine 1 slot left');
 		const hit = fit.items.find((i) => i.status === 'collides')!;
 		expect(hit.title).toContain('collides with');
 		expect(hit.detail).toContain(`0.96${THIN}mm`);

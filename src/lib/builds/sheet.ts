@@ -38,6 +38,7 @@ import {
 } from './assembly';
 import { CAUTIONS, PLANNING_NOTE } from './cautions';
 import { gapWords, mountProblemDetail } from '../words/builds';
+import { countWords } from '../words/format';
 import {
 	AXIS_ENDS,
 	AXIS_WORDS,
@@ -224,13 +225,17 @@ function dividerLine(d: DividerDef, offsetMm: number): SettingLine {
 	const positionLabel = positions[index]?.label ?? mm(offsetMm);
 	const coordinateText = `${d.axis} = ${mm(offsetMm)}`;
 	const thick = `; ${mm(d.thicknessMm)} thick.`;
-	const rest = named
-		? { before: 'at position ', em: positionLabel, after: `, ${coordinateText}${thick}` }
-		: {
-				before: `at ${coordinateText} (position ${index + 1} of ${positions.length})${thick}`,
-				em: '',
-				after: ''
-			};
+	// One position only: "Bulkhead fixed at z = 64.0 mm", not "at position fixed".
+	const rest =
+		positions.length === 1
+			? { before: `fixed at ${coordinateText}${thick}`, em: '', after: '' }
+			: named
+				? { before: 'at position ', em: positionLabel, after: `, ${coordinateText}${thick}` }
+				: {
+						before: `at ${coordinateText} (position ${index + 1} of ${positions.length})${thick}`,
+						em: '',
+						after: ''
+					};
 	return {
 		key: `setting:divider:${d.id}`,
 		kind: 'divider',
@@ -337,7 +342,9 @@ function partLines(scene: Scene, resolved: ResolvedScene, report: FitReport): Pa
 function moveText(move: ClearingMove, names: Map<string, string>): string {
 	const who = names.get(move.targetId) ?? move.targetId;
 	if (move.steps !== undefined) {
-		return `move ${who} ${plural(move.steps, 'step')} ${moveWord(move.axis, move.sign)}${move.toOffsetMm !== undefined ? ` (to ${mm(move.toOffsetMm)})` : ''}`;
+		// A divider moves between slots, a bracket by its travel's steps (as the editor says).
+		const unit = move.targetKind === 'divider' ? 'slot' : 'step';
+		return `move ${who} ${plural(move.steps, unit)} ${moveWord(move.axis, move.sign)}${move.toOffsetMm !== undefined ? ` (to ${mm(move.toOffsetMm)})` : ''}`;
 	}
 	return `move ${who} ${mm(move.distanceMm)} ${moveWord(move.axis, move.sign)} (${AXIS_WORDS[move.axis]})`;
 }
@@ -522,7 +529,11 @@ function summaryOf(counts: StatusCounts, items: FitItem[]): string {
 	}
 	const words = (['collides', 'blocked', 'outside', 'tight', 'clear'] as const)
 		.filter((s) => counts[s] > 0)
-		.map((s) => `${counts[s]} ${STATUS_WORDS[s]}`);
+		.map((s) =>
+			s === 'collides'
+				? countWords(counts[s], { one: 'part collides', other: 'parts collide' })
+				: `${counts[s]} ${STATUS_WORDS[s]}`
+		);
 	return `Not ready to build: ${words.join(', ')}${mountProblems ? `; ${plural(mountProblems, 'mount')} over budget` : ''}.`;
 }
 

@@ -66,7 +66,7 @@ export function checkPart(raw: unknown, id: string, allowStandard = false): Part
 	if (def.success && def.data.provenance === 'standard' && !allowStandard) {
 		issues.push({
 			path: 'provenance',
-			message: 'Provenance must be datasheet, measured or estimate'
+			message: 'Dimensions from must be datasheet, measured or estimate'
 		});
 	}
 	if (!def.success || !extras.success || issues.length) {
@@ -105,7 +105,7 @@ const wallKind = z.enum(['solid', 'mesh']);
 
 export const enclosureFormSchema = z.object({
 	/** The revision the form was loaded at; 0 for a new enclosure. */
-	revision: int4('Revision').default(0),
+	revision: int4('Change number').default(0),
 	name: z.string().trim().min(1, 'Name is required').max(200, 'Name can be at most 200 characters'),
 	description: z
 		.string()
@@ -231,7 +231,7 @@ const optionalNumber = (label: string, max = 100_000) =>
 		.optional();
 
 export const partFormSchema = z.object({
-	revision: int4('Revision').default(0),
+	revision: int4('Change number').default(0),
 	name: z.string().trim().min(1, 'Name is required').max(200, 'Name can be at most 200 characters'),
 	category: z.enum(
 		[

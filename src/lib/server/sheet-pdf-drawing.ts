@@ -40,6 +40,28 @@ function hatch(doc: Doc, x: number, y: number, w: number, h: number, color: stri
 	doc.restore();
 }
 
+/** Collides: lines both ways at 45°, as the screen's pattern, so grey-scale still tells it. */
+function crosshatch(doc: Doc, x: number, y: number, w: number, h: number, color: string) {
+	const step = PATTERN_MM.crosshatch * PT;
+	doc.save();
+	doc.rect(x, y, w, h).clip();
+	doc
+		.lineWidth(0.3 * PT)
+		.strokeColor(color)
+		.strokeOpacity(0.8);
+	for (let k = -h; k < w; k += step) {
+		doc
+			.moveTo(x + k, y + h)
+			.lineTo(x + k + h, y)
+			.stroke();
+		doc
+			.moveTo(x + k, y)
+			.lineTo(x + k + h, y + h)
+			.stroke();
+	}
+	doc.restore();
+}
+
 function dots(doc: Doc, x: number, y: number, w: number, h: number, color: string) {
 	const step = PATTERN_MM.dots * PT;
 	doc.save();
@@ -66,12 +88,13 @@ function rect(doc: Doc, view: OrthoView, p: Place, r: ViewRect) {
 		}
 		if (ink.pattern === 'hatch') hatch(doc, x, y, w, h, ink.edge);
 		if (ink.pattern === 'dots') dots(doc, x, y, w, h, ink.edge);
+		if (ink.pattern === 'crosshatch') crosshatch(doc, x, y, w, h, ink.edge);
 		if (r.status === 'outside') {
 			doc.dash(PATTERN_MM.dash * PT, { space: PATTERN_MM.dash * 0.7 * PT });
 		}
 		doc
 			.rect(x, y, w, h)
-			.lineWidth(WEIGHT.body * PT)
+			.lineWidth((r.status === 'collides' ? WEIGHT.bodyCollides : WEIGHT.body) * PT)
 			.strokeOpacity(1)
 			.stroke(ink.edge);
 	} else if (r.kind === 'keepout') {

@@ -8,7 +8,7 @@ import { readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import PDFDocument from 'pdfkit';
 import sharp from 'sharp';
-import { BUDGET_MARK, STATUS_INK, INK } from '$lib/builds/drawing-style';
+import { BUDGET_MARK, STATUS_INK, INK, thirdAngleSymbol } from '$lib/builds/drawing-style';
 import { layoutFits } from '$lib/builds/orthographic';
 import type { FitStatus } from '$lib/geometry';
 import { MARGIN_MM, PAPER, type SheetData } from './sheet';
@@ -319,25 +319,29 @@ function drawingKey(w: Writer, left: number, top: number) {
 			.text(w.fonts.text(text), mmToPt(left + 5.2), mmToPt(y - 0.1), { lineBreak: false });
 		y += 5;
 	};
-	// The third-angle symbol (ISO 5456-2): a truncated cone's end view left of its side view.
+	// The third-angle symbol (ISO 5456-2), the same lines as on the screen (thirdAngleSymbol).
 	const mm = (v: number) => mmToPt(v);
+	const sym = thirdAngleSymbol(2.5);
 	doc.save();
-	doc.lineWidth(0.25 * PT).strokeColor(INK.text);
-	doc.circle(mm(left + 2), mm(y + 1.6), mm(1.6)).stroke();
-	doc.circle(mm(left + 2), mm(y + 1.6), mm(0.8)).stroke();
+	doc.lineWidth(sym.lineMm * PT).strokeColor(INK.text);
+	for (const c of sym.circles) doc.circle(mm(left + c.cx), mm(y + c.cy), mm(c.r)).stroke();
+	const [first, ...rest] = sym.outline;
+	doc.moveTo(mm(left + first[0]), mm(y + first[1]));
+	for (const [px, py] of rest) doc.lineTo(mm(left + px), mm(y + py));
+	doc.closePath().stroke();
 	doc
-		.moveTo(mm(left + 4.6), mm(y + 0.8))
-		.lineTo(mm(left + 8), mm(y))
-		.lineTo(mm(left + 8), mm(y + 3.2))
-		.lineTo(mm(left + 4.6), mm(y + 2.4))
-		.closePath()
-		.stroke();
+		.lineWidth((sym.lineMm / 2) * PT)
+		.dash(sym.lineMm * 12 * PT, { space: sym.lineMm * 3 * PT })
+		.moveTo(mm(left + sym.axis[0]), mm(y + sym.axis[1]))
+		.lineTo(mm(left + sym.axis[2]), mm(y + sym.axis[3]))
+		.stroke()
+		.undash();
 	doc.restore();
 	doc
 		.font(w.fonts.regular)
 		.fontSize(8)
 		.fillColor(INK.text)
-		.text(w.fonts.text('Third-angle projection'), mm(left + 9.5), mm(y + 0.2), {
+		.text(w.fonts.text('Third-angle projection'), mm(left + sym.widthMm + 1.5), mm(y + 1), {
 			lineBreak: false
 		});
 	y += 6;

@@ -49,6 +49,10 @@ export function gapWords(
 	if (g.worstCaseMm === null || Math.abs(g.worstCaseMm - g.gapMm) <= EPSILON_MM) {
 		return formatMm(g.gapMm);
 	}
+	// With tolerances taken off the faces may meet: an overlap at worst, said as one (no minus).
+	if (g.worstCaseMm < -EPSILON_MM) {
+		return `${formatMm(g.gapMm)} (overlaps by ${formatMm(-g.worstCaseMm).replace(/\u2009mm$/, '')} worst case)`;
+	}
 	return `${formatMm(g.gapMm)} (${formatMm(g.worstCaseMm).replace(/\u2009mm$/, '')} worst case)`;
 }
 

@@ -129,7 +129,7 @@ describe('CSV import', () => {
 		expect(first.updated).toBe(1);
 		const again = await importPartsCsv(studioId, exported, false);
 		expect(again.rows[0].errors[0]).toMatch(
-			/changed since this file was exported \(revision 2, file 1\)/
+			/changed since this file was exported \(now change 2, the file has change 1\)/
 		);
 	});
 });

@@ -395,7 +395,7 @@ export async function importPartsCsv(
 		const stored = existing.get(value.id);
 		if (update && value.revision !== undefined && stored !== value.revision) {
 			result.errors.push(
-				`the part changed since this file was exported (revision ${stored}, file ${value.revision})`
+				`the part changed since this file was exported (now change ${stored}, the file has change ${value.revision})`
 			);
 		}
 		return { result, value, stored };

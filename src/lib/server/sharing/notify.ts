@@ -63,7 +63,7 @@ export async function notifyClient(input: {
 			'',
 			input.body,
 			'',
-			'Open the preview link the studio sent you to answer.'
+			'Open the share link the studio sent you to answer.'
 		].join('\n')
 	});
 }
