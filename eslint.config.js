@@ -11,6 +11,32 @@ const TEST_SUPPORT = {
 	message: 'Test support (src/lib/server/testing/) is for specs, tests/ and scripts/ only.'
 };
 
+/** Services may not import components. */
+const NO_COMPONENTS = {
+	group: ['$lib/components', '$lib/components/*', '**/components/*'],
+	message:
+		'Services do not import components: move the shared code to its area module ($lib/catalog, $lib/quotes, $lib/sharing, $lib/builds, $lib/words).'
+};
+/**
+ * Services refuse by throwing a ServiceError (./errors.ts), which routes map to HTTP in one place;
+ * only that mapping, the JSON helper, the hooks' address check and the guards (access, share
+ * links, rate limits) end a request themselves.
+ */
+const SERVICE_HTTP_EXITS = [
+	'src/lib/server/errors.ts',
+	'src/lib/server/api.ts',
+	'src/lib/server/boundary.ts',
+	'src/lib/server/access.ts',
+	'src/lib/server/limits.ts',
+	'src/lib/server/sharing/actors.ts'
+];
+const NO_KIT_EXITS = {
+	name: '@sveltejs/kit',
+	importNames: ['error', 'redirect'],
+	message:
+		'Services throw a ServiceError (src/lib/server/errors.ts); routes map it to HTTP with forJson/forForm/forPage or jsonRoute/pageRoute.'
+};
+
 export default ts.config(
 	{
 		ignores: [
@@ -98,17 +124,14 @@ export default ts.config(
 		rules: {
 			'no-restricted-imports': [
 				'error',
-				{
-					patterns: [
-						{
-							group: ['$lib/components', '$lib/components/*', '**/components/*'],
-							message:
-								'Services do not import components: move the shared code to its area module ($lib/catalog, $lib/quotes, $lib/sharing, $lib/builds, $lib/words).'
-						},
-						TEST_SUPPORT
-					]
-				}
+				{ paths: [NO_KIT_EXITS], patterns: [NO_COMPONENTS, TEST_SUPPORT] }
 			]
+		}
+	},
+	{
+		files: SERVICE_HTTP_EXITS,
+		rules: {
+			'no-restricted-imports': ['error', { patterns: [NO_COMPONENTS, TEST_SUPPORT] }]
 		}
 	},
 	{

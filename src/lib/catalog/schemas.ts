@@ -5,7 +5,7 @@
  */
 import { z } from 'zod';
 import { isCurrencyCode } from '../quotes/money';
-import { int4 } from '$lib/schemas/common';
+import { idField, int4 } from '$lib/schemas/common';
 import {
 	COORD_LIMIT_MM,
 	enclosureDefSchema,
@@ -310,3 +310,6 @@ export function parsePrice(text: string): number | null {
 	}
 	return Math.round(Number(text.replace(',', '.')) * 100);
 }
+
+/** The part a catalogue list row's button acts on (duplicate, archive, restore). */
+export const partIdForm = z.object({ id: idField('Part') });

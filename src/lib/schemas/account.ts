@@ -22,3 +22,5 @@ export const studioSchema = z.object({ name: line('Studio name', 80) });
 export const inviteSchema = z.object({ email, role: roleSchema });
 export const roleChangeSchema = z.object({ userId: line('Member', 64), role: roleSchema });
 export const memberSchema = z.object({ userId: line('Member', 64) });
+export const switchStudioForm = z.object({ studioId: line('Studio', 64) });
+export const revokeInviteForm = z.object({ inviteId: line('Invitation', 64) });

@@ -81,13 +81,3 @@ export const password = z
 export const roleSchema = z.enum(['owner', 'designer', 'client'], {
 	error: 'Role must be owner, designer or client.'
 });
-
-/** Flattens zod issues into {field: message} for forms (first message per field). */
-export function fieldErrors(error: z.ZodError): Record<string, string> {
-	const out: Record<string, string> = {};
-	for (const issue of error.issues) {
-		const key = issue.path.map(String).join('.') || '_';
-		out[key] ??= issue.message;
-	}
-	return out;
-}

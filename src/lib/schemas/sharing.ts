@@ -1,6 +1,9 @@
-/** Form schemas of the client page and the share page; the browser and the server use the same ones. */
+/**
+ * Form schemas of the client page, the share page and the build's photos; the browser and the
+ * server use the same ones.
+ */
 import { z } from 'zod';
-import { email, line, paragraph } from '$lib/schemas/common';
+import { email, idField, line, paragraph } from '$lib/schemas/common';
 
 const version = z.coerce
 	.number({ error: 'The page is out of date; reload it.' })
@@ -46,3 +49,20 @@ export const shareForm = z.object({
 	send: z.enum(['on', '']).default(''),
 	message: paragraph('Message', 2000).default('')
 });
+
+/** Withdrawing a share link. */
+export const revokeLinkForm = z.object({ linkId: idField('Link') });
+
+/** A comment written as the studio on the share page (clients write on their own page). */
+export const studioCommentForm = z.object({
+	body: commentForm.shape.body,
+	variantId: z.string().min(1).max(64),
+	part: z.string().max(120).default('')
+});
+
+/** A photo's caption: one line, or empty. */
+export const photoCaption = z.union([line('Caption', 200), z.literal('')]).default('');
+export const photoCaptionForm = z.object({ photoId: idField('Photo'), caption: photoCaption });
+export const photoDeleteForm = z.object({ photoId: idField('Photo') });
+/** The upload form's text fields (the file itself is checked by the service). */
+export const photoUploadForm = z.object({ caption: photoCaption });

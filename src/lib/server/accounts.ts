@@ -14,14 +14,12 @@ import { link, sendMail } from './mail';
 import { hashPassword, verifyDummy, verifyPassword } from './passwords';
 import { enqueue, scheduleDrain, type SignUpPayload } from './outbox';
 import { hashToken, newId, newToken } from './tokens';
+import { ServiceError, type ServiceErrorKind } from './errors';
 
-export class RuleError extends Error {
-	constructor(
-		message: string,
-		public field = '_',
-		public status = 400
-	) {
-		super(message);
+/** An account or membership rule refused; `field` is the form field it is about. */
+export class RuleError extends ServiceError {
+	constructor(message: string, field?: string, kind: ServiceErrorKind = 'invalid') {
+		super(kind, message, { field });
 	}
 }
 
@@ -224,7 +222,7 @@ export async function switchStudio(userId: string, studioId: string) {
 		.select()
 		.from(memberships)
 		.where(and(eq(memberships.userId, userId), eq(memberships.studioId, studioId)));
-	if (!m) throw new RuleError('You are not a member of that studio.', 'studioId', 404);
+	if (!m) throw new RuleError('You are not a member of that studio.', 'studioId', 'not-found');
 	await db.update(users).set({ activeStudioId: studioId }).where(eq(users.id, userId));
 }
 
@@ -359,7 +357,9 @@ export async function revokeInvite(studioId: string, inviteId: string) {
 			)
 		)
 		.returning({ id: invites.id });
-	if (revoked.length === 0) throw new RuleError('No such open invitation.', 'inviteId', 404);
+	if (revoked.length === 0) {
+		throw new RuleError('No such open invitation.', 'inviteId', 'not-found');
+	}
 }
 
 /** Locks the studio's memberships so two owners can't demote each other at the same time. */
@@ -379,12 +379,12 @@ export async function changeRole(studioId: string, userId: string, role: Role) {
 			.select()
 			.from(memberships)
 			.where(and(eq(memberships.studioId, studioId), eq(memberships.userId, userId)));
-		if (!m) throw new RuleError('No such member.', 'userId', 404);
+		if (!m) throw new RuleError('No such member.', 'userId', 'not-found');
 		if (m.role === 'owner' && role !== 'owner' && (await ownersAfter(tx, studioId)) <= 1) {
 			throw new RuleError(
 				'The last owner cannot be demoted; make someone else owner first.',
 				'role',
-				409
+				'conflict'
 			);
 		}
 		await tx
@@ -400,12 +400,12 @@ export async function removeMember(studioId: string, userId: string) {
 			.select()
 			.from(memberships)
 			.where(and(eq(memberships.studioId, studioId), eq(memberships.userId, userId)));
-		if (!m) throw new RuleError('No such member.', 'userId', 404);
+		if (!m) throw new RuleError('No such member.', 'userId', 'not-found');
 		if (m.role === 'owner' && (await ownersAfter(tx, studioId)) <= 1) {
 			throw new RuleError(
 				'The last owner cannot leave or be removed; make someone else owner first.',
 				'userId',
-				409
+				'conflict'
 			);
 		}
 		await tx

@@ -17,8 +17,14 @@ const MAX_JSON_BYTES = 4 * 1024 * 1024;
 /** Any JSON object, for endpoints whose service validates the fields itself (the catalogue's). */
 export const jsonObject = z.record(z.string(), z.unknown());
 
-export function problem(status: number, message: string, issues: FieldIssue[] = []) {
-	return json({ message, issues }, { status });
+/** The refusal body of every JSON endpoint: `{message, issues}`, plus `detail` members if any. */
+export function problem(
+	status: number,
+	message: string,
+	issues: FieldIssue[] = [],
+	detail: Record<string, unknown> = {}
+) {
+	return json({ ...detail, message, issues }, { status });
 }
 
 /** Reads and validates a JSON body; a bad one ends the request with 400 and the zod paths. */

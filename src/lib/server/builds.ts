@@ -37,15 +37,14 @@ import {
 import { engineTubeKinds, tubeKindsForStudio, type StudioTubeKind } from './loop';
 import { deleteObjects } from './storage';
 import { newId } from './tokens';
+import { ServiceError, type ServiceErrorKind } from './errors';
 import { assertNotFrozen, frozenState, latestVersion, recordRevision } from './versions';
 import { variantVersions } from './db/schema';
 
-export class SceneRejected extends Error {
-	constructor(
-		public issues: FieldIssue[],
-		public status = 400
-	) {
-		super(issues.map((i) => `${i.path || 'scene'}: ${i.message}`).join('; '));
+/** A scene, variant or enclosure the server will not compose or store; `issues` name the fields. */
+export class SceneRejected extends ServiceError {
+	constructor(issues: FieldIssue[], kind: ServiceErrorKind = 'invalid') {
+		super(kind, issues.map((i) => `${i.path || 'scene'}: ${i.message}`).join('; '), { issues });
 	}
 }
 
@@ -141,7 +140,7 @@ export async function createBuild(input: {
 	if (!enc) {
 		throw new SceneRejected(
 			[{ path: 'enclosureId', message: 'No such enclosure in this studio.' }],
-			404
+			'not-found'
 		);
 	}
 	const [version] = await db
@@ -347,21 +346,23 @@ export async function saveVariantSettings(input: {
 					message: 'This part is not in your studio’s catalogue.'
 				}
 			],
-			403
+			'forbidden'
 		);
 	}
 	const enc = await enclosureVersionDef(input.enclosureVersionId);
 	if (!enc) {
 		throw new SceneRejected(
 			[{ path: 'enclosure', message: 'The build’s enclosure version is missing.' }],
-			409
+			'conflict'
 		);
 	}
 	const scene = validateScene(enc.definition, defs, settings, engineTubeKinds(tubes));
 	// A stored variant is checked on every later load of the editor, sheet and client page, so
 	// one over the cost limits is refused here rather than stored.
 	const excess = checkExcess(scene, 'settings.placements');
-	if (excess) throw new SceneRejected([{ path: excess.path, message: excess.message }], 422);
+	if (excess) {
+		throw new SceneRejected([{ path: excess.path, message: excess.message }], 'over-limit');
+	}
 	return db.transaction(async (tx) => {
 		// The row lock orders this save after an approval being written, so the freeze is seen.
 		const [locked] = await tx
@@ -398,7 +399,7 @@ export async function saveVariantSettings(input: {
 		if (!current) {
 			throw new SceneRejected(
 				[{ path: 'variantId', message: 'No such variant in this build.' }],
-				404
+				'not-found'
 			);
 		}
 		return {
@@ -414,12 +415,10 @@ export async function saveVariantSettings(input: {
 
 // — variants —
 
-export class VariantRuleError extends Error {
-	constructor(
-		message: string,
-		public status = 400
-	) {
-		super(message);
+/** A variant or build rule refused (no such variant, the last one, read-only, moved meanwhile). */
+export class VariantRuleError extends ServiceError {
+	constructor(message: string, kind: ServiceErrorKind = 'invalid') {
+		super(kind, message);
 	}
 }
 
@@ -443,10 +442,10 @@ export async function forkVariant(
 			.orderBy(asc(variants.sortOrder), asc(variants.createdAt))
 			.for('update');
 		const source = list.find((v) => v.id === variantId);
-		if (!source) throw new VariantRuleError('No such variant in this build.', 404);
+		if (!source) throw new VariantRuleError('No such variant in this build.', 'not-found');
 		const base = opts.fromVersion ? await latestVersion(source.id, tx) : null;
 		if (opts.fromVersion && !base) {
-			throw new VariantRuleError('This variant has no version to start from yet.', 409);
+			throw new VariantRuleError('This variant has no version to start from yet.', 'conflict');
 		}
 		const id = newId();
 		const at = list.indexOf(source) + 1;
@@ -494,7 +493,7 @@ export async function renameVariant(buildId: string, variantId: string, name: st
 		.set({ name, updatedAt: new Date() })
 		.where(and(eq(variants.id, variantId), eq(variants.buildId, buildId)))
 		.returning({ id: variants.id });
-	if (!rows.length) throw new VariantRuleError('No such variant in this build.', 404);
+	if (!rows.length) throw new VariantRuleError('No such variant in this build.', 'not-found');
 }
 
 /** Moves a variant one place up (−1) or down (+1). */
@@ -507,7 +506,7 @@ export async function moveVariant(buildId: string, variantId: string, by: -1 | 1
 			.orderBy(asc(variants.sortOrder), asc(variants.createdAt))
 			.for('update');
 		const i = list.findIndex((v) => v.id === variantId);
-		if (i < 0) throw new VariantRuleError('No such variant in this build.', 404);
+		if (i < 0) throw new VariantRuleError('No such variant in this build.', 'not-found');
 		const j = i + by;
 		if (j < 0 || j >= list.length) return;
 		const ids = list.map((v) => v.id);
@@ -526,13 +525,16 @@ export async function deleteVariant(buildId: string, variantId: string) {
 			.orderBy(asc(variants.sortOrder), asc(variants.createdAt))
 			.for('update');
 		const target = list.find((v) => v.id === variantId);
-		if (!target) throw new VariantRuleError('No such variant in this build.', 404);
+		if (!target) throw new VariantRuleError('No such variant in this build.', 'not-found');
 		if (list.length === 1) {
-			throw new VariantRuleError('A build keeps at least one variant; this is the last one.', 409);
+			throw new VariantRuleError(
+				'A build keeps at least one variant; this is the last one.',
+				'conflict'
+			);
 		}
 		const frozen = await frozenState(variantId, tx);
 		if (frozen.frozen) {
-			throw new VariantRuleError(`Read-only: ${frozen.reason} It cannot be deleted.`, 409);
+			throw new VariantRuleError(`Read-only: ${frozen.reason} It cannot be deleted.`, 'conflict');
 		}
 		await tx.delete(variants).where(eq(variants.id, variantId));
 		const rest = list.filter((v) => v.id !== variantId);
@@ -562,7 +564,7 @@ export async function deleteBuild(buildId: string): Promise<void> {
 			.from(builds)
 			.where(eq(builds.id, buildId))
 			.for('update');
-		if (!build) throw new VariantRuleError('No such build.', 404);
+		if (!build) throw new VariantRuleError('No such build.', 'not-found');
 		const [paid] = await tx
 			.select({ id: payments.id })
 			.from(payments)
@@ -571,7 +573,7 @@ export async function deleteBuild(buildId: string): Promise<void> {
 		if (paid) {
 			throw new VariantRuleError(
 				'This build has a deposit on record, so it stays for the studio’s accounts.',
-				409
+				'conflict'
 			);
 		}
 		const files = await tx
@@ -592,7 +594,7 @@ export async function markProposal(buildId: string, variantId: string) {
 			.from(variants)
 			.where(and(eq(variants.id, variantId), eq(variants.buildId, buildId)))
 			.for('update');
-		if (!target) throw new VariantRuleError('No such variant in this build.', 404);
+		if (!target) throw new VariantRuleError('No such variant in this build.', 'not-found');
 		await tx.update(variants).set({ isProposal: false }).where(eq(variants.buildId, buildId));
 		await tx.update(variants).set({ isProposal: true }).where(eq(variants.id, variantId));
 	});
@@ -700,9 +702,14 @@ export async function moveOn(
 	expectedToVersionId: string
 ) {
 	const plan = await planMoveOn(build);
-	if (!plan?.to) throw new VariantRuleError('The build is already on the current version.', 409);
+	if (!plan?.to) {
+		throw new VariantRuleError('The build is already on the current version.', 'conflict');
+	}
 	if (plan.to.id !== expectedToVersionId) {
-		throw new VariantRuleError('The enclosure changed again; look at the new changes first.', 409);
+		throw new VariantRuleError(
+			'The enclosure changed again; look at the new changes first.',
+			'conflict'
+		);
 	}
 	const to = plan.to;
 	for (const v of plan.variants) {
@@ -710,7 +717,7 @@ export async function moveOn(
 		if (frozen.frozen) {
 			throw new VariantRuleError(
 				`${v.name} is read-only: ${frozen.reason} Moving the build would change it.`,
-				409
+				'conflict'
 			);
 		}
 	}
@@ -720,7 +727,7 @@ export async function moveOn(
 			.set({ enclosureVersionId: to.id, updatedAt: new Date() })
 			.where(and(eq(builds.id, build.id), eq(builds.enclosureVersionId, build.enclosureVersionId)))
 			.returning({ id: builds.id });
-		if (!row) throw new VariantRuleError('Someone moved this build at the same time.', 409);
+		if (!row) throw new VariantRuleError('Someone moved this build at the same time.', 'conflict');
 		const list = await tx
 			.select()
 			.from(variants)

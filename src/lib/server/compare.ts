@@ -1,5 +1,5 @@
 /** Loading two or three variants of a build and comparing them with the engine's reports. */
-import { error } from '@sveltejs/kit';
+import { ServiceError } from './errors';
 import { checkInPool } from './engine/pool';
 import { compareVariants, type CompareInput, type ControlSetting } from '$lib/builds/compare';
 import { allowedPositions, formatMm, type Scene } from '$lib/geometry';
@@ -16,16 +16,18 @@ export async function loadComparison(build: BuildRow, param: string | null) {
 	if (ids.length === 0) ids = all.slice(0, 2).map((v) => v.id);
 	ids = [...new Set(ids)];
 	if (ids.length < 2 || ids.length > 3) {
-		error(400, 'Compare two or three variants (variants=a,b or a,b,c).');
+		throw new ServiceError('invalid', 'Compare two or three variants (variants=a,b or a,b,c).');
 	}
 	const unknown = ids.filter((id) => !all.some((v) => v.id === id));
-	if (unknown.length) error(404, 'A variant named in the address is not in this build.');
+	if (unknown.length) {
+		throw new ServiceError('not-found', 'A variant named in the address is not in this build.');
+	}
 	const loaded = await Promise.all(
 		ids.map((id) => loadVariant(build.id, build.studioId, build.enclosureVersionId, id))
 	);
 	const items = await Promise.all(
 		loaded.map(async (l) => {
-			if (!l) error(404, 'Variant not found.');
+			if (!l) throw new ServiceError('not-found', 'Variant not found.');
 			return {
 				id: l.variant.id,
 				name: l.variant.name,

@@ -20,6 +20,7 @@ import { db, type Tx } from './db';
 import { paymentEvents, payments, quoteLines, quotes, type PaymentRow } from './db/schema';
 import { notifyPaidTwice } from './sharing/notify';
 import { newId } from './tokens';
+import { ServiceError } from './errors';
 
 let client: Stripe | undefined;
 
@@ -268,7 +269,12 @@ async function settle(after: AfterCommit) {
 	}
 }
 
-export class WebhookRejected extends Error {}
+/** An unsigned, altered or malformed webhook event: 400, nothing changed. */
+export class WebhookRejected extends ServiceError {
+	constructor(message: string) {
+		super('invalid', message);
+	}
+}
 
 export type WebhookOutcome = { duplicate: boolean; paid: PaymentRow | null; type: string };
 

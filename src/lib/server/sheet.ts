@@ -3,11 +3,9 @@
  * from the browser), its sheet content and drawings, the checklist ticks, the quote and photos.
  * The page and the PDF both start from `loadSheet`.
  */
-import { error } from '@sveltejs/kit';
 import { and, eq } from 'drizzle-orm';
-import { z } from 'zod';
 import { resolveScene } from '$lib/geometry';
-import { idField } from '$lib/schemas/common';
+import type { TickInput } from '$lib/schemas/builds';
 import { roomAt, type RoomFigure } from '$lib/geometry/room';
 import { checkInPool } from './engine/pool';
 import { orthographicViews, type DrawingRoom, type SheetDrawing } from '$lib/builds/orthographic';
@@ -30,6 +28,7 @@ import { db } from './db';
 import { checklistTicks, users, type BuildRow } from './db/schema';
 import { photosOf } from './sharing/photos';
 import { quoteOfVariant } from './sharing/quotes';
+import { ServiceError } from './errors';
 
 /** ISO 216 A4 and ANSI/ASME Y14.1 Letter (8.5 × 11 in, 25.4 mm to the inch), in millimetres. */
 export const PAPER = {
@@ -82,11 +81,14 @@ async function loadChecked(build: BuildRow, variantId: string | undefined) {
 		loaded = await loadVariant(build.id, build.studioId, build.enclosureVersionId, variantId);
 	} catch (e) {
 		if (e instanceof SceneRejected) {
-			error(409, `This variant no longer checks against its enclosure and parts: ${e.message}`);
+			throw new ServiceError(
+				'conflict',
+				`This variant no longer checks against its enclosure and parts: ${e.message}`
+			);
 		}
 		throw e;
 	}
-	if (!loaded) error(404, 'No such variant in this build.');
+	if (!loaded) throw new ServiceError('not-found', 'No such variant in this build.');
 	const resolved = resolveScene(loaded.scene);
 	const [report, cutAllowancePct] = await Promise.all([
 		checkInPool(loaded.scene),
@@ -194,7 +196,7 @@ async function visibleVariants(
 		return { visible, variantId: asked };
 	}
 	const chosen = visible.find((v) => v.isProposal) ?? visible[0];
-	if (!chosen) error(404, 'No such variant in this build.');
+	if (!chosen) throw new ServiceError('not-found', 'No such variant in this build.');
 	return { visible, variantId: chosen.id };
 }
 
@@ -257,14 +259,12 @@ export async function loadSheet(locals: Locals, buildId: string, url: URL): Prom
 	};
 }
 
-export const tickSchema = z.object({
-	variantId: idField('Variant', 120),
-	key: z.string().min(1, 'Required').max(300),
-	ticked: z.enum(['1', '0'], { error: 'Must be 1 or 0' })
-});
-export type TickInput = z.infer<typeof tickSchema>;
-
-export class TickRejected extends Error {}
+/** A checklist key the variant's sheet does not have (now). */
+export class TickRejected extends ServiceError {
+	constructor(message: string) {
+		super('invalid', message, { field: 'key' });
+	}
+}
 
 /**
  * Ticks or unticks one checklist item. Only studio members who may edit the build tick (clients

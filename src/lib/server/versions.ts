@@ -24,6 +24,7 @@ import {
 	type VariantVersionRow
 } from './db/schema';
 import { newId } from './tokens';
+import { ServiceError, type ServiceErrorKind } from './errors';
 
 type Run = typeof db | Tx;
 
@@ -166,10 +167,9 @@ export async function frozenState(variantId: string, run: Run = db): Promise<Fro
 }
 
 /** Thrown by every write a frozen variant refuses; routes answer 409 with the message. */
-export class VariantFrozen extends Error {
-	status = 409 as const;
+export class VariantFrozen extends ServiceError {
 	constructor(public state: Extract<FrozenState, { frozen: true }>) {
-		super(`Read-only: ${state.reason}`);
+		super('conflict', `Read-only: ${state.reason}`);
 	}
 }
 
@@ -252,7 +252,7 @@ export async function saveVersion(input: {
 			.from(variants)
 			.where(and(eq(variants.id, input.variantId), eq(variants.buildId, input.buildId)))
 			.for('update');
-		if (!variant) throw new VersionError('No such variant in this build.', 404);
+		if (!variant) throw new VersionError('No such variant in this build.', 'not-found');
 		await assertNotFrozen(variant.id, tx);
 		if (variant.version !== input.expectedRevision) {
 			return { ok: false as const, reason: 'stale' as const, revision: variant.version };
@@ -278,11 +278,8 @@ export async function saveVersion(input: {
 	});
 }
 
-export class VersionError extends Error {
-	constructor(
-		message: string,
-		public status = 400
-	) {
-		super(message);
+export class VersionError extends ServiceError {
+	constructor(message: string, kind: ServiceErrorKind = 'invalid') {
+		super(kind, message);
 	}
 }

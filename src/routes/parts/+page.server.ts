@@ -3,7 +3,8 @@ import { activeStudio, roleMay } from '$lib/server/access';
 import { partQueryOf } from '$lib/server/catalog/http';
 import { archivePart, duplicatePart, listParts, restorePart } from '$lib/server/catalog/parts';
 import { CATEGORIES } from '$lib/catalog/part-shape';
-import { idField } from '$lib/schemas/common';
+import { partIdForm } from '$lib/catalog/schemas';
+import { readForm } from '$lib/server/forms';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals, url }) => {
@@ -35,10 +36,11 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 	};
 };
 
+/** The row's part id; a bad one shows the error page (the buttons are links in a list). */
 async function withId(request: Request) {
-	const id = idField('Part').safeParse((await request.formData()).get('id') ?? '');
-	if (!id.success) error(400, `Which part? ${id.error.issues[0].message}`);
-	return id.data;
+	const parsed = await readForm(request, partIdForm);
+	if (!parsed.ok) error(400, `Which part? ${Object.values(parsed.failure.data.errors)[0]}`);
+	return parsed.data.id;
 }
 
 export const actions: Actions = {

@@ -1,7 +1,8 @@
 import { redirect } from '@sveltejs/kit';
 import { checkCredentials, resendConfirmation } from '$lib/server/accounts';
 import { startSession } from '$lib/server/auth';
-import { formFail, parseForm } from '$lib/server/forms';
+import { formFail } from '$lib/server/errors';
+import { readForm } from '$lib/server/forms';
 import { enforce } from '$lib/server/limits';
 import { limits } from '$lib/server/rate-limit';
 import { safeNext } from '$lib/server/redirects';
@@ -16,7 +17,7 @@ export const load: PageServerLoad = ({ locals, url }) => {
 export const actions: Actions = {
 	default: async (event) => {
 		await enforce(event, 'signin-address', limits.signInAddress);
-		const parsed = await parseForm(event.request, signInSchema);
+		const parsed = await readForm(event.request, signInSchema);
 		if (!parsed.ok) return parsed.failure;
 		await enforce(event, 'signin', limits.signIn, parsed.data.email);
 		const user = await checkCredentials(parsed.data.email, parsed.data.password);
@@ -34,6 +35,6 @@ export const actions: Actions = {
 			redirect(303, '/check-mail');
 		}
 		await startSession(event.cookies, user.id);
-		redirect(303, safeNext(parsed.raw.next, event.url.origin) ?? '/builds');
+		redirect(303, safeNext(parsed.values.next, event.url.origin) ?? '/builds');
 	}
 };

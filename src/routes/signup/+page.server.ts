@@ -1,7 +1,7 @@
 import { redirect } from '@sveltejs/kit';
 import { signUp } from '$lib/server/accounts';
 import { startSession } from '$lib/server/auth';
-import { parseForm } from '$lib/server/forms';
+import { readForm } from '$lib/server/forms';
 import { enforce } from '$lib/server/limits';
 import { limits } from '$lib/server/rate-limit';
 import { signUpSchema } from '$lib/schemas/account';
@@ -16,9 +16,9 @@ export const load: PageServerLoad = ({ locals, url }) => {
 export const actions: Actions = {
 	default: async (event) => {
 		await enforce(event, 'signup', limits.signUp);
-		const parsed = await parseForm(event.request, signUpSchema);
+		const parsed = await readForm(event.request, signUpSchema);
 		if (!parsed.ok) return parsed.failure;
-		const next = safeNext(parsed.raw.next, event.url.origin);
+		const next = safeNext(parsed.values.next, event.url.origin);
 		const { userId } = await signUp({ ...parsed.data, next });
 		if (userId) {
 			// Signed up from an invitation mailed to this very address: the address is proven.

@@ -1,9 +1,9 @@
-import { error, redirect } from '@sveltejs/kit';
-import { RuleError, studiosOf, switchStudio } from '$lib/server/accounts';
+import { redirect } from '@sveltejs/kit';
+import { switchStudioForm } from '$lib/schemas/account';
+import { studiosOf, switchStudio } from '$lib/server/accounts';
 import { requireUser } from '$lib/server/access';
-import { parseForm } from '$lib/server/forms';
-import { z } from 'zod';
-import { line } from '$lib/schemas/common';
+import { forPage } from '$lib/server/errors';
+import { readForm } from '$lib/server/forms';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals, url }) => {
@@ -14,14 +14,10 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 export const actions: Actions = {
 	switch: async ({ locals, request, url }) => {
 		const user = requireUser(locals, url);
-		const parsed = await parseForm(request, z.object({ studioId: line('Studio', 64) }));
+		const parsed = await readForm(request, switchStudioForm);
 		if (!parsed.ok) return parsed.failure;
-		try {
-			await switchStudio(user.id, parsed.data.studioId);
-		} catch (e) {
-			if (e instanceof RuleError) error(e.status, e.message);
-			throw e;
-		}
+		// Not a member of that studio: the error page (404).
+		await forPage(() => switchStudio(user.id, parsed.data.studioId));
 		redirect(303, '/builds');
 	}
 };

@@ -2,7 +2,7 @@
  * The enclosure editor's form actions: superforms validates the flat fields, the engine's schema
  * validates the whole definition, and its issues land on the field they are about.
  */
-import { fail, redirect } from '@sveltejs/kit';
+import { fail } from '@sveltejs/kit';
 import { setError, superValidate, type SuperValidated } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import type { FieldIssue } from '$lib/geometry';
@@ -66,7 +66,7 @@ function placeIssues(form: Form, issues: FieldIssue[]) {
 	return refuse(400, form, features);
 }
 
-/** Creates (no id) or saves (id) from a posted form; redirects to the editor on success. */
+/** Creates (no id) or saves (id) from a posted form: `{saved}` names the editor to go to, else a failure. */
 export async function saveEnclosureForm(request: Request, access: StudioAccess, id?: string) {
 	const data = await request.formData();
 	const overwrite = Number(data.get('overwriteRevision'));
@@ -90,7 +90,7 @@ export async function saveEnclosureForm(request: Request, access: StudioAccess, 
 		if (!made.ok) {
 			return made.status === 400 ? placeIssues(form, made.issues) : refuse(made.status, form);
 		}
-		redirect(303, `/enclosures/${made.value.id}?saved=1`);
+		return { saved: `/enclosures/${made.value.id}?saved=1` };
 	}
 	// "Save mine over theirs" after a conflict names the newer revision the user has now seen.
 	const revision =
@@ -98,7 +98,7 @@ export async function saveEnclosureForm(request: Request, access: StudioAccess, 
 			? overwrite
 			: form.data.revision;
 	const saved = await updateEnclosure(access.studioId, id, revision, access.user.id, input);
-	if (saved.ok) redirect(303, `/enclosures/${id}?saved=${saved.created ? 'version' : '1'}`);
+	if (saved.ok) return { saved: `/enclosures/${id}?saved=${saved.created ? 'version' : '1'}` };
 	if (saved.status === 400) return placeIssues(form, saved.issues);
 	if (saved.status === 404) return refuse(404, form);
 	const theirs = saved.current;

@@ -3,12 +3,12 @@
  * active studio, or `?studio=` for API users in several) with the API rate limit, a write's outcome
  * as HTTP, the revision a save must carry, and the table's query string.
  */
-import { error, json, type RequestEvent } from '@sveltejs/kit';
+import { json, type RequestEvent } from '@sveltejs/kit';
 import type { PartCategory } from '$lib/geometry';
 import { partCategorySchema } from '$lib/geometry';
 import { INT4_MAX } from '$lib/schemas/common';
 import { activeStudio, requireStudio, type Action } from '../access';
-import { apiLimit, problem } from '../api';
+import { apiLimit, badRequest, problem } from '../api';
 import { PART_SORTS, type PartQuery, type PartSort, type WriteResult } from './parts';
 
 export async function catalogAccess(
@@ -34,9 +34,9 @@ export function answer<T>(result: WriteResult<T>, okStatus = 200, key = 'value')
 export function revisionOf(body: Record<string, unknown>): number {
 	const r = body.revision;
 	if (typeof r !== 'number' || !Number.isInteger(r) || r < 0 || r > INT4_MAX) {
-		error(
-			400,
-			'Send the revision you loaded (a whole number) so a conflicting save can be detected.'
+		badRequest(
+			'Send the revision you loaded (a whole number) so a conflicting save can be detected.',
+			[{ path: 'revision', message: 'Must be a whole number from 0.' }]
 		);
 	}
 	return r;

@@ -2,7 +2,7 @@
  * The part editor's form actions: superforms validates the flat fields, the engine's PartDef
  * schema validates the whole part, and its issues land on the field they are about.
  */
-import { fail, redirect } from '@sveltejs/kit';
+import { fail } from '@sveltejs/kit';
 import { setError, superValidate, type SuperValidated } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import type { FieldIssue } from '$lib/geometry';
@@ -49,6 +49,7 @@ function placeIssues(form: Form, issues: FieldIssue[]) {
 	return refuse(400, form, geometry);
 }
 
+/** Creates (no id) or saves (id) from a posted form: `{saved}` names the page to go to, else a failure. */
 export async function savePartForm(request: Request, access: StudioAccess, id?: string) {
 	const data = await request.formData();
 	const overwrite = Number(data.get('overwriteRevision'));
@@ -72,14 +73,14 @@ export async function savePartForm(request: Request, access: StudioAccess, id?: 
 		if (!made.ok) {
 			return made.status === 400 ? placeIssues(form, made.issues) : refuse(made.status, form);
 		}
-		redirect(303, `/parts/${made.value.id}?saved=1`);
+		return { saved: `/parts/${made.value.id}?saved=1` };
 	}
 	const revision =
 		Number.isInteger(overwrite) && overwrite > 0 && overwrite <= INT4_MAX
 			? overwrite
 			: form.data.revision;
 	const saved = await updatePart(access.studioId, id, revision, input);
-	if (saved.ok) redirect(303, `/parts/${id}?saved=1`);
+	if (saved.ok) return { saved: `/parts/${id}?saved=1` };
 	if (saved.status === 400) return placeIssues(form, saved.issues);
 	if (saved.status === 404) return refuse(404, form);
 	const theirs = saved.current;

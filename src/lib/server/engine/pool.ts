@@ -4,7 +4,7 @@
  * limits (src/lib/geometry/cost.ts) are applied before anything is queued, so what reaches the pool
  * is bounded; the budget is the backstop for a machine slower than expected.
  */
-import { error } from '@sveltejs/kit';
+import { ServiceError } from '../errors';
 import { availableParallelism } from 'node:os';
 import { Piscina } from 'piscina';
 import {
@@ -70,18 +70,16 @@ export async function closeEnginePool() {
 	await p?.destroy();
 }
 
-/** Ends the request with 422 naming the limit and the field; nothing was computed. */
+/** Refuses with 422 ('over-limit') naming the limit and the field; nothing was computed. */
 export function refuseCost(excess: CostExcess, prefix = ''): never {
 	const issue: FieldIssue = {
 		path: prefix ? `${prefix}.${excess.path}` : excess.path,
 		message: excess.message
 	};
-	error(422, {
-		message: excess.message,
+	throw new ServiceError('over-limit', excess.message, {
 		issues: [issue],
-		limit: excess.limit,
-		max: excess.max
-	} as App.Error & { issues: FieldIssue[] });
+		detail: { limit: excess.limit, max: excess.max }
+	});
 }
 
 /** The scene's cost limit it goes over, as a field issue for forms and saves, or null. */
@@ -104,13 +102,13 @@ async function run(task: EngineTask): Promise<EngineAnswer> {
 	} catch (e) {
 		const name = (e as Error)?.name;
 		if (name === 'AbortError' || name === 'TimeoutError') {
-			error(
-				503,
+			throw new ServiceError(
+				'busy',
 				`The check took longer than its ${TIME_BUDGET_MS / 1000} s budget and was stopped.`
 			);
 		}
 		if (/queue is at limit/i.test(String((e as Error)?.message))) {
-			error(503, 'The fit engine is busy. Try again in a moment.');
+			throw new ServiceError('busy', 'The fit engine is busy. Try again in a moment.');
 		}
 		throw e;
 	}
@@ -119,10 +117,9 @@ async function run(task: EngineTask): Promise<EngineAnswer> {
 function valueOf<T>(answer: EngineAnswer, prefix: string): T {
 	if (answer.ok) return answer.value as T;
 	const path = prefix ? `${prefix}.${answer.path}` : answer.path;
-	error(400, {
-		message: answer.message,
+	throw new ServiceError('invalid', answer.message, {
 		issues: [{ path, message: answer.message }]
-	} as App.Error & { issues: FieldIssue[] });
+	});
 }
 
 /**

@@ -3,11 +3,12 @@
  * the share-link page and the in-app page for client members. Each route resolves who is asking
  * and what they may do; this module does the rest the same way for both.
  */
-import { error, fail, type RequestEvent } from '@sveltejs/kit';
+import { fail, type RequestEvent } from '@sveltejs/kit';
 import { approveForm, changesForm, commentForm } from '$lib/schemas/sharing';
 import { formatMoney } from '$lib/quotes/money';
 import type { BuildRow, VariantRow } from '../db/schema';
-import { parseForm } from '../forms';
+import { forPage, ServiceError } from '../errors';
+import { readForm } from '../forms';
 import { enforce } from '../limits';
 import { link } from '../mail';
 import { startCheckout } from '../payments';
@@ -69,9 +70,9 @@ async function safeNotify(input: Parameters<typeof notifyStudio>[0]) {
 }
 
 export async function commentAction(event: RequestEvent, actor: ClientActor) {
-	if (!actor.may.comment) error(403, 'You may not comment here.');
+	if (!actor.may.comment) throw new ServiceError('forbidden', 'You may not comment here.');
 	await limitComments(event, actor);
-	const parsed = await parseForm(event.request, commentForm);
+	const parsed = await readForm(event.request, commentForm);
 	if (!parsed.ok) return parsed.failure;
 	const { view, placementIds } = await clientView(actor);
 	let placementId: string | null = null;
@@ -81,7 +82,7 @@ export async function commentAction(event: RequestEvent, actor: ClientActor) {
 		const placed = view.placed.find((p) => p.ref === parsed.data.part);
 		if (!placementId || !placed) {
 			return fail(400, {
-				values: parsed.raw,
+				values: parsed.values,
 				errors: { part: 'That part is no longer in the build; reload the page.' }
 			});
 		}
@@ -110,9 +111,9 @@ export async function commentAction(event: RequestEvent, actor: ClientActor) {
 }
 
 export async function approveAction(event: RequestEvent, actor: ClientActor) {
-	if (!actor.may.approve) error(403, 'You may not approve this build.');
+	if (!actor.may.approve) throw new ServiceError('forbidden', 'You may not approve this build.');
 	await limitComments(event, actor);
-	const parsed = await parseForm(event.request, approveForm);
+	const parsed = await readForm(event.request, approveForm);
 	if (!parsed.ok) return parsed.failure;
 	const { frozenScene } = await clientView(actor);
 	const { name, ...where } = target(actor, parsed.data.version, parsed.data.name);
@@ -123,7 +124,7 @@ export async function approveAction(event: RequestEvent, actor: ClientActor) {
 	});
 	if (!result.ok && result.reason === 'changed') {
 		return fail(409, {
-			values: parsed.raw,
+			values: parsed.values,
 			errors: {
 				approve: `The studio changed the build while you were looking (now version ${result.currentVersion}). Look at the new version, then approve it.`
 			}
@@ -145,9 +146,11 @@ export async function approveAction(event: RequestEvent, actor: ClientActor) {
 }
 
 export async function changesAction(event: RequestEvent, actor: ClientActor) {
-	if (!actor.may.approve) error(403, 'You may not ask for changes here.');
+	if (!actor.may.approve) {
+		throw new ServiceError('forbidden', 'You may not ask for changes here.');
+	}
 	await limitComments(event, actor);
-	const parsed = await parseForm(event.request, changesForm);
+	const parsed = await readForm(event.request, changesForm);
 	if (!parsed.ok) return parsed.failure;
 	const { name, ...where } = target(actor, parsed.data.version, parsed.data.name);
 	await requestChanges({ ...where, message: parsed.data.message });
@@ -166,13 +169,19 @@ export async function changesAction(event: RequestEvent, actor: ClientActor) {
 	return { done: 'changes' as const };
 }
 
-/** The four actions of a client page, for a route that knows how to find its actor. */
+/**
+ * The four actions of a client page, for a route that knows how to find its actor. What the viewer
+ * may not do (403) and what the engine refuses show the error page.
+ */
 export function clientPageActions(actorOf: (event: RequestEvent) => Promise<ClientActor>) {
 	return {
-		comment: async (event: RequestEvent) => commentAction(event, await actorOf(event)),
-		approve: async (event: RequestEvent) => approveAction(event, await actorOf(event)),
-		changes: async (event: RequestEvent) => changesAction(event, await actorOf(event)),
-		pay: async (event: RequestEvent) => payAction(event, await actorOf(event))
+		comment: (event: RequestEvent) =>
+			forPage(async () => commentAction(event, await actorOf(event))),
+		approve: (event: RequestEvent) =>
+			forPage(async () => approveAction(event, await actorOf(event))),
+		changes: (event: RequestEvent) =>
+			forPage(async () => changesAction(event, await actorOf(event))),
+		pay: (event: RequestEvent) => forPage(async () => payAction(event, await actorOf(event)))
 	};
 }
 
@@ -180,7 +189,7 @@ export function clientPageActions(actorOf: (event: RequestEvent) => Promise<Clie
 export const RETURN_COOKIE = 'interstice_checkout_return';
 
 export async function payAction(event: RequestEvent, actor: ClientActor) {
-	if (!actor.may.pay) error(403, 'Only the client can pay the deposit.');
+	if (!actor.may.pay) throw new ServiceError('forbidden', 'Only the client can pay the deposit.');
 	await enforce(event, 'checkout', limits.comment, actor.limitKey);
 	const { view } = await clientView(actor);
 	if (!view.deposit.canPay || !view.quote) {

@@ -10,6 +10,7 @@ import { db } from '../db';
 import { photos, type PhotoRow } from '../db/schema';
 import { deleteObject, newKey, putObject, readObject, type StoredExt } from '../storage';
 import { newId } from '../tokens';
+import { ServiceError, type ServiceErrorKind } from '../errors';
 
 export const MAX_PHOTO_BYTES = 10 * 1024 * 1024;
 /** Beyond this many pixels a "photo" is more likely a decompression bomb than a picture of a build. */
@@ -24,12 +25,10 @@ const ACCEPTED: Record<string, StoredExt> = {
 	'image/webp': 'webp'
 };
 
-export class PhotoRejected extends Error {
-	constructor(
-		message: string,
-		public status = 400
-	) {
-		super(message);
+/** A photo the build will not take (empty, too large, not an image, too many); about `file`. */
+export class PhotoRejected extends ServiceError {
+	constructor(message: string, kind: ServiceErrorKind = 'invalid') {
+		super(kind, message, { field: 'file' });
 	}
 }
 
@@ -46,14 +45,17 @@ export type CheckedImage = {
 export async function checkImage(bytes: Uint8Array): Promise<CheckedImage> {
 	if (bytes.byteLength === 0) throw new PhotoRejected('The file is empty.');
 	if (bytes.byteLength > MAX_PHOTO_BYTES) {
-		throw new PhotoRejected(`The file is larger than ${MAX_PHOTO_BYTES / 1024 / 1024} MB.`, 413);
+		throw new PhotoRejected(
+			`The file is larger than ${MAX_PHOTO_BYTES / 1024 / 1024} MB.`,
+			'too-large'
+		);
 	}
 	const type = await fileTypeFromBuffer(bytes);
 	const ext = type ? ACCEPTED[type.mime] : undefined;
 	if (!type || !ext) {
 		throw new PhotoRejected(
 			'Only JPEG, PNG and WebP photos can be uploaded; this file is something else.',
-			415
+			'unsupported-type'
 		);
 	}
 	const mime = type.mime as keyof typeof ACCEPTED;

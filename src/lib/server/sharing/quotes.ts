@@ -14,6 +14,7 @@ import {
 } from '../db/schema';
 import { loopLineDrafts } from '../loop-quote';
 import { newId } from '../tokens';
+import { ServiceError } from '../errors';
 
 export type LineDraft = {
 	partId: string | null;
@@ -138,9 +139,9 @@ async function insertLines(tx: Tx, quoteId: string, drafts: readonly LineDraft[]
 		.values(drafts.map((d, i) => ({ id: newId(), quoteId, sortOrder: i, ...d })));
 }
 
-export class QuoteLocked extends Error {
+export class QuoteLocked extends ServiceError {
 	constructor() {
-		super('The deposit on this quote is paid, so it can no longer change.');
+		super('locked', 'The deposit on this quote is paid, so it can no longer change.');
 	}
 }
 
@@ -256,7 +257,12 @@ export async function refreshLines(quoteId: string, settings: unknown) {
 	});
 }
 
-export class QuoteNotReady extends Error {}
+/** A quote that cannot be sent yet (a line without a price, a zero total or deposit). */
+export class QuoteNotReady extends ServiceError {
+	constructor(message: string) {
+		super('invalid', message);
+	}
+}
 
 /** Shows the quote on the client page. Every line needs a price and the total must be above zero. */
 export async function sendQuote(quoteId: string) {

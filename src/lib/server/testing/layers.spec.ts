@@ -20,6 +20,8 @@ async function restricted(code: string, filePath: string): Promise<string[]> {
 
 // Files of each layer (the config matches on the path); only the text is ours.
 const SERVICE = 'src/lib/server/access.ts';
+const PLAIN_SERVICE = 'src/lib/server/builds.ts';
+const MAPPING = 'src/lib/server/errors.ts';
 const ROUTE = 'src/routes/builds/+page.server.ts';
 const COMPONENT = 'src/lib/components/sheet/StatusMark.svelte';
 const AREA = 'src/lib/quotes/money.ts';
@@ -34,7 +36,14 @@ describe('layer rules', () => {
 		['a route importing drizzle', ROUTE, "import { eq } from 'drizzle-orm';\n"],
 		['an area module importing test support', AREA, "import { x } from '$lib/server/testing/x';\n"],
 		['a service importing test support', SERVICE, "import { x } from './testing/factories';\n"],
-		['a route importing test support', ROUTE, "import { x } from '$lib/server/testing/x';\n"]
+		['a route importing test support', ROUTE, "import { x } from '$lib/server/testing/x';\n"],
+		[
+			'a service ending a request with error()',
+			PLAIN_SERVICE,
+			"import { error } from '@sveltejs/kit';\n"
+		],
+		['a service redirecting', PLAIN_SERVICE, "import { json, redirect } from '@sveltejs/kit';\n"],
+		['the mapping importing a component', MAPPING, "import X from '$lib/components/x';\n"]
 	])('refuses %s', async (_name, file, code) => {
 		expect(await restricted(code, file)).toHaveLength(1);
 	});
@@ -47,7 +56,24 @@ describe('layer rules', () => {
 	it.each([
 		['a route importing a service', ROUTE, "import { x } from '$lib/server/builds';\n"],
 		['a service importing an area module', SERVICE, "import { x } from '$lib/quotes/money';\n"],
-		['a spec importing test support', SPEC, "import { x } from '$lib/server/testing/x';\n"]
+		['a spec importing test support', SPEC, "import { x } from '$lib/server/testing/x';\n"],
+		[
+			'a service throwing a ServiceError',
+			PLAIN_SERVICE,
+			"import { ServiceError } from './errors';\n"
+		],
+		[
+			'a service answering JSON',
+			PLAIN_SERVICE,
+			"import { json, type RequestEvent } from '@sveltejs/kit';\n"
+		],
+		[
+			'the mapping module ending a request',
+			MAPPING,
+			"import { error, fail } from '@sveltejs/kit';\n"
+		],
+		['an access guard redirecting', SERVICE, "import { error, redirect } from '@sveltejs/kit';\n"],
+		['a route ending a request', ROUTE, "import { error, redirect } from '@sveltejs/kit';\n"]
 	])('allows %s', async (_name, file, code) => {
 		expect(await restricted(code, file)).toEqual([]);
 	});

@@ -24,6 +24,7 @@ import { refuseCost } from '$lib/server/engine/pool';
 import { checkExcess, sceneBoxCount } from '$lib/geometry/cost';
 import { getPartsByIds, listPartsForStudio, type PartRecord } from '$lib/server/catalog/parts';
 import type { RequestHandler } from './$types';
+import { jsonRoute } from '$lib/server/errors';
 
 const id = z.string().min(1).max(120);
 const target = z.discriminatedUnion('kind', [
@@ -79,7 +80,7 @@ const candidateOf = (p: PartRecord): FitCandidate => ({
  * studio's parts and the standard library ranked by what fits there, each placed by the same
  * rules as "add part" and checked by the engine. Reads only; nothing is stored.
  */
-export const POST: RequestHandler = async (event) => {
+export const POST: RequestHandler = jsonRoute(async (event) => {
 	const access = await catalogAccess(event, 'catalog.view');
 	const input = await readJson(event.request, body);
 	// The same cost limits as /api/check, decided before any work.
@@ -193,7 +194,7 @@ export const POST: RequestHandler = async (event) => {
 		}
 		throw e;
 	}
-};
+});
 
 /**
  * The candidates in chunks of CHUNK, a JSON line each ({ label, fits, left, parts, done, total },

@@ -7,6 +7,7 @@ import { requireUser } from '$lib/server/access';
 import { apiLimit, problem, readJson } from '$lib/server/api';
 import { refuseCost, routeInPool } from '$lib/server/engine/pool';
 import type { RequestHandler } from './$types';
+import { jsonRoute } from '$lib/server/errors';
 
 const body = z.object({ scene: sceneSchema, run: routeRunSchema });
 
@@ -15,7 +16,7 @@ const body = z.object({ scene: sceneSchema, run: routeRunSchema });
  * why none fits), from the same search the editor's worker runs. Like /api/check it reads no
  * studio data: any signed-in person, rate-limited, cost limits before any work. Nothing is stored.
  */
-export const POST: RequestHandler = async (event) => {
+export const POST: RequestHandler = jsonRoute(async (event) => {
 	const user = requireUser(event.locals);
 	await apiLimit(event, user.id);
 	const input = await readJson(event.request, body);
@@ -31,4 +32,4 @@ export const POST: RequestHandler = async (event) => {
 		}
 		throw e;
 	}
-};
+});

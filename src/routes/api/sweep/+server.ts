@@ -12,6 +12,7 @@ import { requireUser } from '$lib/server/access';
 import { apiLimit, readJson } from '$lib/server/api';
 import { gridInPool, sweepInPool } from '$lib/server/engine/pool';
 import type { RequestHandler } from './$types';
+import { jsonRoute } from '$lib/server/errors';
 
 const control = z.object({ kind: z.enum(['divider', 'bracket']), id: z.string().min(1).max(120) });
 const body = z.object({
@@ -39,7 +40,7 @@ function positionCount(scene: Scene, c: SweepControl): number {
  * Runs the fit report at every allowed position of one control (or a grid of two), in a worker;
  * counted first, so a sweep over the limits is refused with 422 naming the limit.
  */
-export const POST: RequestHandler = async (event) => {
+export const POST: RequestHandler = jsonRoute(async (event) => {
 	const user = requireUser(event.locals);
 	await apiLimit(event, user.id);
 	const input = await readJson(event.request, body);
@@ -72,4 +73,4 @@ export const POST: RequestHandler = async (event) => {
 			points
 		)
 	);
-};
+});

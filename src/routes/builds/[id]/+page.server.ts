@@ -1,19 +1,17 @@
 import { error, redirect } from '@sveltejs/kit';
-import { z } from 'zod';
+import { saveVersionForm, variantForm } from '$lib/schemas/builds';
 import { requireBuild } from '$lib/server/access';
 import {
 	SceneRejected,
-	VariantRuleError,
 	enclosureVersionDef,
 	forkVariant,
 	loadVariant,
 	newerEnclosureVersion,
 	variantsOf
 } from '$lib/server/builds';
-import { formFail, parseForm } from '$lib/server/forms';
+import { forForm, formFail } from '$lib/server/errors';
+import { readForm } from '$lib/server/forms';
 import {
-	VariantFrozen,
-	VersionError,
 	canonicalJson,
 	frozenState,
 	latestVersion,
@@ -23,7 +21,6 @@ import {
 } from '$lib/server/versions';
 import { variantSettingsSchema } from '$lib/builds/settings';
 import { engineTubeKinds, fittingPartsForStudio, tubeKindsForStudio } from '$lib/server/loop';
-import { line } from '$lib/schemas/common';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals, params, url }) => {
@@ -33,6 +30,7 @@ export const load: PageServerLoad = async ({ locals, params, url }) => {
 	try {
 		loaded = await loadVariant(build.id, build.studioId, build.enclosureVersionId, variantId);
 	} catch (e) {
+		// Stored settings that no longer validate are the server's fault: 500, not the mapping's 400.
 		if (e instanceof SceneRejected) error(500, `This variant no longer validates: ${e.message}`);
 		throw e;
 	}
@@ -86,66 +84,48 @@ export const load: PageServerLoad = async ({ locals, params, url }) => {
 	};
 };
 
-const variantId = line('Variant', 64);
-
 export const actions: Actions = {
 	/** "Save as version N — note": a numbered snapshot of the revision the designer is looking at. */
 	version: async ({ locals, params, request, url }) => {
 		const { build, access } = await requireBuild(locals, params.id, 'build.edit', url);
-		const parsed = await parseForm(
-			request,
-			z.object({
-				variantId,
-				revision: z.coerce
-					.number({ error: 'Revision must be a number.' })
-					.int()
-					.min(1)
-					.max(2_147_483_647),
-				note: line('Note', 200, 0).default('')
-			})
-		);
+		const parsed = await readForm(request, saveVersionForm);
 		if (!parsed.ok) return parsed.failure;
-		try {
-			const result = await saveVersion({
-				buildId: build.id,
-				variantId: parsed.data.variantId,
-				expectedRevision: parsed.data.revision,
-				note: parsed.data.note,
-				userId: access.user.id
-			});
-			if (!result.ok && result.reason === 'stale') {
-				return formFail(409, parsed.raw, {
-					version:
-						'Your latest change is still being saved (or someone else saved); wait a moment and try again.'
+		// Read-only or no such variant: the message on the version form.
+		return forForm(
+			async () => {
+				const result = await saveVersion({
+					buildId: build.id,
+					variantId: parsed.data.variantId,
+					expectedRevision: parsed.data.revision,
+					note: parsed.data.note,
+					userId: access.user.id
 				});
-			}
-			if (!result.ok) {
-				return {
-					done: `Nothing changed since version ${result.version.number}; no new version made.`
-				};
-			}
-			return { done: `Saved as version ${result.version.number}.` };
-		} catch (e) {
-			if (e instanceof VariantFrozen || e instanceof VersionError) {
-				return formFail(e.status, parsed.raw, { version: e.message });
-			}
-			throw e;
-		}
+				if (!result.ok && result.reason === 'stale') {
+					return formFail(409, parsed.values, {
+						version:
+							'Your latest change is still being saved (or someone else saved); wait a moment and try again.'
+					});
+				}
+				if (!result.ok) {
+					return {
+						done: `Nothing changed since version ${result.version.number}; no new version made.`
+					};
+				}
+				return { done: `Saved as version ${result.version.number}.` };
+			},
+			{ values: parsed.values, field: 'version' }
+		);
 	},
 	/** "Start a new variant from it": a copy of the approved version the designer may change. */
 	startFrom: async ({ locals, params, request, url }) => {
 		const { build } = await requireBuild(locals, params.id, 'build.edit', url);
-		const parsed = await parseForm(request, z.object({ variantId }));
+		const parsed = await readForm(request, variantForm);
 		if (!parsed.ok) return parsed.failure;
-		let id: string;
-		try {
-			id = await forkVariant(build.id, parsed.data.variantId, undefined, { fromVersion: true });
-		} catch (e) {
-			if (e instanceof VariantRuleError) {
-				return formFail(e.status, parsed.raw, { startFrom: e.message });
-			}
-			throw e;
-		}
+		const id = await forForm(
+			() => forkVariant(build.id, parsed.data.variantId, undefined, { fromVersion: true }),
+			{ values: parsed.values, field: 'startFrom' }
+		);
+		if (typeof id !== 'string') return id;
 		redirect(303, `/builds/${build.id}?variant=${id}`);
 	}
 };

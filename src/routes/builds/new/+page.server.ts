@@ -1,18 +1,11 @@
 import { redirect } from '@sveltejs/kit';
-import { z } from 'zod';
+import { newBuildForm } from '$lib/schemas/builds';
 import { activeStudio } from '$lib/server/access';
-import { SceneRejected, createBuild } from '$lib/server/builds';
+import { createBuild } from '$lib/server/builds';
 import { listEnclosures } from '$lib/server/catalog/enclosures';
-import { formFail, parseForm } from '$lib/server/forms';
-import { line, paragraph } from '$lib/schemas/common';
+import { forForm } from '$lib/server/errors';
+import { readForm } from '$lib/server/forms';
 import type { Actions, PageServerLoad } from './$types';
-
-const schema = z.object({
-	name: line('Build name', 120),
-	clientName: line('Client', 120, 0).default(''),
-	notes: paragraph('Notes', 4000).default(''),
-	enclosureId: line('Enclosure', 64)
-});
 
 export const load: PageServerLoad = async ({ locals, url }) => {
 	const access = await activeStudio(locals, 'build.edit', url);
@@ -27,17 +20,15 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 export const actions: Actions = {
 	default: async ({ locals, request, url }) => {
 		const access = await activeStudio(locals, 'build.edit', url);
-		const parsed = await parseForm(request, schema);
+		const parsed = await readForm(request, newBuildForm);
 		if (!parsed.ok) return parsed.failure;
-		let id: string;
-		try {
-			id = await createBuild({ ...parsed.data, studioId: access.studioId, userId: access.user.id });
-		} catch (e) {
-			if (e instanceof SceneRejected) {
-				return formFail(400, parsed.raw, { enclosureId: e.issues[0]?.message ?? e.message });
-			}
-			throw e;
-		}
+		// An enclosure that is not there (or not this studio's) is a wrong choice in the form: 400 on
+		// its field, the form shown again.
+		const id = await forForm(
+			() => createBuild({ ...parsed.data, studioId: access.studioId, userId: access.user.id }),
+			{ values: parsed.values, field: 'enclosureId', status: 400 }
+		);
+		if (typeof id !== 'string') return id;
 		redirect(303, `/builds/${id}`);
 	}
 };

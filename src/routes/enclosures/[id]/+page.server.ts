@@ -29,7 +29,9 @@ export const load: PageServerLoad = async ({ locals, url, params }) => {
 export const actions: Actions = {
 	save: async ({ request, locals, url, params }) => {
 		const access = await activeStudio(locals, 'catalog.edit', url);
-		return saveEnclosureForm(request, access, params.id);
+		const outcome = await saveEnclosureForm(request, access, params.id);
+		if ('saved' in outcome) redirect(303, outcome.saved);
+		return outcome;
 	},
 	archive: async ({ locals, url, params }) => {
 		const access = await activeStudio(locals, 'catalog.edit', url);

@@ -1,3 +1,4 @@
+import { redirect } from '@sveltejs/kit';
 import { superValidate } from 'sveltekit-superforms';
 import { activeStudio } from '$lib/server/access';
 import { enclosureAdapter, saveEnclosureForm } from '$lib/server/catalog/enclosure-form';
@@ -38,6 +39,8 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 export const actions: Actions = {
 	save: async ({ request, locals, url }) => {
 		const access = await activeStudio(locals, 'catalog.edit', url);
-		return saveEnclosureForm(request, access);
+		const outcome = await saveEnclosureForm(request, access);
+		if ('saved' in outcome) redirect(303, outcome.saved);
+		return outcome;
 	}
 };

@@ -29,7 +29,9 @@ export const load: PageServerLoad = async ({ locals, url, params }) => {
 export const actions: Actions = {
 	save: async ({ request, locals, url, params }) => {
 		const access = await activeStudio(locals, 'catalog.edit', url);
-		return savePartForm(request, access, params.id);
+		const outcome = await savePartForm(request, access, params.id);
+		if ('saved' in outcome) redirect(303, outcome.saved);
+		return outcome;
 	},
 	duplicate: async ({ locals, url, params }) => {
 		const access = await activeStudio(locals, 'catalog.edit', url);

@@ -1,3 +1,4 @@
+import { redirect } from '@sveltejs/kit';
 import { superValidate } from 'sveltekit-superforms';
 import { activeStudio } from '$lib/server/access';
 import { partAdapter, savePartForm } from '$lib/server/catalog/part-form';
@@ -18,6 +19,8 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 export const actions: Actions = {
 	save: async ({ request, locals, url }) => {
 		const access = await activeStudio(locals, 'catalog.edit', url);
-		return savePartForm(request, access);
+		const outcome = await savePartForm(request, access);
+		if ('saved' in outcome) redirect(303, outcome.saved);
+		return outcome;
 	}
 };

@@ -1,7 +1,8 @@
 import { redirect } from '@sveltejs/kit';
 import { findValidReset, resetPassword } from '$lib/server/accounts';
 import { endAllSessions } from '$lib/server/auth';
-import { formFail, parseForm } from '$lib/server/forms';
+import { formFail } from '$lib/server/errors';
+import { readForm } from '$lib/server/forms';
 import { enforce } from '$lib/server/limits';
 import { limits } from '$lib/server/rate-limit';
 import { resetSchema } from '$lib/schemas/account';
@@ -16,7 +17,7 @@ export const load: PageServerLoad = async (event) => {
 export const actions: Actions = {
 	default: async (event) => {
 		await enforce(event, 'reset-token', limits.shareToken);
-		const parsed = await parseForm(event.request, resetSchema);
+		const parsed = await readForm(event.request, resetSchema);
 		if (!parsed.ok) return parsed.failure;
 		const userId = await resetPassword(event.params.token, parsed.data.password);
 		if (!userId) {

@@ -4,6 +4,7 @@ import { linkActor, lookupToken, requireLinkActor } from '$lib/server/sharing/ac
 import { recordOpened } from '$lib/server/sharing/links';
 import { clientView } from '$lib/server/sharing/view';
 import type { Actions, PageServerLoad } from './$types';
+import { forPage } from '$lib/server/errors';
 
 const dateWords = (d: Date) =>
 	d.toLocaleDateString('en-GB', {
@@ -34,7 +35,7 @@ export const load: PageServerLoad = async (event) => {
 	const actor = linkActor(r.share, event.params.token);
 	// Reloads after a comment or an approval are not new openings.
 	if (!event.isDataRequest) await recordOpened(r.share.link.id);
-	const { view } = await clientView(actor);
+	const { view } = await forPage(() => clientView(actor));
 	return {
 		view,
 		may: actor.may,

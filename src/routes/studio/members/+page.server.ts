@@ -1,6 +1,5 @@
-import { error, redirect } from '@sveltejs/kit';
+import { redirect } from '@sveltejs/kit';
 import {
-	RuleError,
 	changeRole,
 	inviteMember,
 	membersOf,
@@ -9,10 +8,14 @@ import {
 	revokeInvite
 } from '$lib/server/accounts';
 import { activeStudio } from '$lib/server/access';
-import { formFail, parseForm } from '$lib/server/forms';
-import { inviteSchema, memberSchema, roleChangeSchema } from '$lib/schemas/account';
-import { z } from 'zod';
-import { line } from '$lib/schemas/common';
+import { forForm, forPage } from '$lib/server/errors';
+import { readForm } from '$lib/server/forms';
+import {
+	inviteSchema,
+	memberSchema,
+	revokeInviteForm,
+	roleChangeSchema
+} from '$lib/schemas/account';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals, url }) => {
@@ -25,17 +28,13 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 	};
 };
 
-function ruleFailure(e: unknown) {
-	if (e instanceof RuleError) {
-		return formFail(e.status === 404 ? 404 : 400, {}, { [e.field]: e.message });
-	}
-	throw e;
-}
+/** A refused rule (the last owner) is 400 on its field; no such member or invitation stays 404. */
+const ruleForm = { statusFor: { conflict: 400 } } as const;
 
 export const actions: Actions = {
 	invite: async ({ locals, request, url }) => {
 		const access = await activeStudio(locals, 'studio.members', url);
-		const parsed = await parseForm(request, inviteSchema);
+		const parsed = await readForm(request, inviteSchema);
 		if (!parsed.ok) return parsed.failure;
 		await inviteMember({
 			...access,
@@ -49,46 +48,36 @@ export const actions: Actions = {
 	},
 	role: async ({ locals, request, url }) => {
 		const access = await activeStudio(locals, 'studio.members', url);
-		const parsed = await parseForm(request, roleChangeSchema);
+		const parsed = await readForm(request, roleChangeSchema);
 		if (!parsed.ok) return parsed.failure;
-		try {
+		return forForm(async () => {
 			await changeRole(access.studioId, parsed.data.userId, parsed.data.role);
-		} catch (e) {
-			return ruleFailure(e);
-		}
-		return { changed: true };
+			return { changed: true };
+		}, ruleForm);
 	},
 	remove: async ({ locals, request, url }) => {
 		const access = await activeStudio(locals, 'studio.members', url);
-		const parsed = await parseForm(request, memberSchema);
+		const parsed = await readForm(request, memberSchema);
 		if (!parsed.ok) return parsed.failure;
-		try {
+		return forForm(async () => {
 			await removeMember(access.studioId, parsed.data.userId);
-		} catch (e) {
-			return ruleFailure(e);
-		}
-		return { removed: true };
+			return { removed: true };
+		}, ruleForm);
 	},
 	revoke: async ({ locals, request, url }) => {
 		const access = await activeStudio(locals, 'studio.members', url);
-		const parsed = await parseForm(request, z.object({ inviteId: line('Invitation', 64) }));
+		const parsed = await readForm(request, revokeInviteForm);
 		if (!parsed.ok) return parsed.failure;
-		try {
+		return forForm(async () => {
 			await revokeInvite(access.studioId, parsed.data.inviteId);
-		} catch (e) {
-			return ruleFailure(e);
-		}
-		return { revoked: true };
+			return { revoked: true };
+		}, ruleForm);
 	},
 	/** Any member may leave; the last owner may not. */
 	leave: async ({ locals, url }) => {
 		const access = await activeStudio(locals, 'studio.view', url);
-		try {
-			await removeMember(access.studioId, access.user.id);
-		} catch (e) {
-			if (e instanceof RuleError) error(e.status, e.message);
-			throw e;
-		}
+		// The last owner may not leave: the error page (409).
+		await forPage(() => removeMember(access.studioId, access.user.id));
 		redirect(303, '/studios');
 	}
 };

@@ -1,7 +1,7 @@
 import { redirect } from '@sveltejs/kit';
 import { createStudio } from '$lib/server/accounts';
 import { requireUser } from '$lib/server/access';
-import { parseForm } from '$lib/server/forms';
+import { readForm } from '$lib/server/forms';
 import { studioSchema } from '$lib/schemas/account';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -13,7 +13,7 @@ export const load: PageServerLoad = ({ locals, url }) => {
 export const actions: Actions = {
 	default: async ({ locals, request, url }) => {
 		const user = requireUser(locals, url);
-		const parsed = await parseForm(request, studioSchema);
+		const parsed = await readForm(request, studioSchema);
 		if (!parsed.ok) return parsed.failure;
 		await createStudio(user.id, parsed.data.name);
 		redirect(303, '/builds');

@@ -1,7 +1,7 @@
 import { redirect } from '@sveltejs/kit';
 import { findValidVerification, verifyEmail } from '$lib/server/accounts';
 import { startSession } from '$lib/server/auth';
-import { formFail } from '$lib/server/forms';
+import { formFail } from '$lib/server/errors';
 import { enforce } from '$lib/server/limits';
 import { limits } from '$lib/server/rate-limit';
 import { safeNext } from '$lib/server/redirects';

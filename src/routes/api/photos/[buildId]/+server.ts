@@ -1,14 +1,15 @@
 import { json } from '@sveltejs/kit';
 import { requireBuild } from '$lib/server/access';
 import { apiLimit, problem } from '$lib/server/api';
-import { MAX_PHOTO_BYTES, PhotoRejected, addPhoto } from '$lib/server/sharing/photos';
+import { jsonRoute } from '$lib/server/errors';
+import { MAX_PHOTO_BYTES, addPhoto } from '$lib/server/sharing/photos';
 import type { RequestHandler } from './$types';
 
 /**
  * Upload one photo (multipart field `file`, optional `caption`); the photos page posts here so it
  * can show progress. The type comes from the bytes; the size is checked before they are read.
  */
-export const POST: RequestHandler = async (event) => {
+export const POST: RequestHandler = jsonRoute(async (event) => {
 	const { build, access } = await requireBuild(event.locals, event.params.buildId, 'build.photos');
 	await apiLimit(event, access.user.id);
 	const declared = Number(event.request.headers.get('content-length') ?? 0);
@@ -37,24 +38,18 @@ export const POST: RequestHandler = async (event) => {
 	if (file.size > MAX_PHOTO_BYTES) {
 		return problem(413, `The file is larger than ${MAX_PHOTO_BYTES / 1024 / 1024} MB.`);
 	}
-	try {
-		const row = await addPhoto({
-			buildId: build.id,
-			uploadedBy: access.user.id,
-			bytes: new Uint8Array(await file.arrayBuffer()),
-			caption
-		});
-		return json(
-			{ id: row.id, width: row.width, height: row.height, mime: row.mime, byteSize: row.byteSize },
-			{ status: 201 }
-		);
-	} catch (e) {
-		if (e instanceof PhotoRejected) {
-			return problem(e.status, e.message, [{ path: 'file', message: e.message }]);
-		}
-		throw e;
-	}
-};
+	// A refused photo (PhotoRejected) answers with its status and the message on `file`.
+	const row = await addPhoto({
+		buildId: build.id,
+		uploadedBy: access.user.id,
+		bytes: new Uint8Array(await file.arrayBuffer()),
+		caption
+	});
+	return json(
+		{ id: row.id, width: row.width, height: row.height, mime: row.mime, byteSize: row.byteSize },
+		{ status: 201 }
+	);
+});
 
 export type UploadResponse = {
 	id: string;

@@ -2,8 +2,9 @@ import { compareCsv } from '$lib/builds/compare';
 import { requireBuild } from '$lib/server/access';
 import { loadComparison } from '$lib/server/compare';
 import type { RequestHandler } from './$types';
+import { pageRoute } from '$lib/server/errors';
 
-export const GET: RequestHandler = async ({ locals, params, url }) => {
+export const GET: RequestHandler = pageRoute(async ({ locals, params, url }) => {
 	const { build } = await requireBuild(locals, params.id, 'build.edit', url);
 	const c = await loadComparison(build, url.searchParams.get('variants'));
 	const name =
@@ -17,4 +18,4 @@ export const GET: RequestHandler = async ({ locals, params, url }) => {
 			'content-disposition': `attachment; filename="${name}-comparison.csv"`
 		}
 	});
-};
+});

@@ -1,10 +1,10 @@
 import { redirect } from '@sveltejs/kit';
-import { z } from 'zod';
 import { enclosureChanges } from '$lib/catalog/enclosure-diff';
+import { moveOnForm } from '$lib/schemas/builds';
 import { requireBuild } from '$lib/server/access';
-import { VariantRuleError, moveOn, planMoveOn } from '$lib/server/builds';
-import { formFail, parseForm } from '$lib/server/forms';
-import { line } from '$lib/schemas/common';
+import { moveOn, planMoveOn } from '$lib/server/builds';
+import { forForm } from '$lib/server/errors';
+import { readForm } from '$lib/server/forms';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals, params, url }) => {
@@ -22,14 +22,10 @@ export const load: PageServerLoad = async ({ locals, params, url }) => {
 export const actions: Actions = {
 	default: async ({ locals, params, request, url }) => {
 		const { build } = await requireBuild(locals, params.id, 'build.edit', url);
-		const parsed = await parseForm(request, z.object({ toVersionId: line('Version', 64) }));
+		const parsed = await readForm(request, moveOnForm);
 		if (!parsed.ok) return parsed.failure;
-		try {
-			await moveOn(build, parsed.data.toVersionId);
-		} catch (e) {
-			if (e instanceof VariantRuleError) return formFail(e.status, {}, { _: e.message });
-			throw e;
-		}
+		const refused = await forForm(async () => void (await moveOn(build, parsed.data.toVersionId)));
+		if (refused) return refused;
 		redirect(303, `/builds/${build.id}`);
 	}
 };

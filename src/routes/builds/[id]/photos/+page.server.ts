@@ -1,11 +1,10 @@
 import { fail } from '@sveltejs/kit';
-import { z } from 'zod';
-import { idField, line } from '$lib/schemas/common';
+import { photoCaptionForm, photoDeleteForm, photoUploadForm } from '$lib/schemas/sharing';
 import { requireBuild } from '$lib/server/access';
-import { parseForm } from '$lib/server/forms';
+import { forForm } from '$lib/server/errors';
+import { readForm } from '$lib/server/forms';
 import {
 	MAX_PHOTO_BYTES,
-	PhotoRejected,
 	addPhoto,
 	deletePhoto,
 	photosOf,
@@ -30,18 +29,15 @@ export const load: PageServerLoad = async ({ locals, params, url }) => {
 	};
 };
 
-const caption = z.union([line('Caption', 200), z.literal('')]).default('');
-
 export const actions: Actions = {
 	/** The form without JavaScript; with it, the page uploads through /api/photos to show progress. */
 	upload: async ({ locals, params, url, request }) => {
 		const { build, access } = await requireBuild(locals, params.id, 'build.photos', url);
-		const form = await request.formData();
-		const file = form.get('file');
-		const text = caption.safeParse(form.get('caption') ?? '');
-		if (!text.success) {
-			return fail(400, { errors: { caption: text.error.issues[0].message }, values: {} });
-		}
+		// The file goes to the service as bytes; the caption through the form schema.
+		const data = await request.formData();
+		const file = data.get('file');
+		const parsed = await readForm(data, photoUploadForm);
+		if (!parsed.ok) return fail(parsed.failure.status, { ...parsed.failure.data, values: {} });
 		if (!(file instanceof File) || file.size === 0) {
 			return fail(400, { errors: { file: 'Choose a photo to upload.' }, values: {} });
 		}
@@ -51,24 +47,20 @@ export const actions: Actions = {
 				values: {}
 			});
 		}
-		try {
+		// A refused photo (empty, not an image, too many) answers on `file`.
+		return forForm(async () => {
 			await addPhoto({
 				buildId: build.id,
 				uploadedBy: access.user.id,
 				bytes: new Uint8Array(await file.arrayBuffer()),
-				caption: text.data
+				caption: parsed.data.caption
 			});
-		} catch (e) {
-			if (e instanceof PhotoRejected) {
-				return fail(e.status, { errors: { file: e.message }, values: {} });
-			}
-			throw e;
-		}
-		return { uploaded: true };
+			return { uploaded: true as const };
+		});
 	},
 	delete: async (event) => {
 		const { build } = await requireBuild(event.locals, event.params.id, 'build.photos', event.url);
-		const parsed = await parseForm(event.request, z.object({ photoId: idField('Photo') }));
+		const parsed = await readForm(event.request, photoDeleteForm);
 		if (!parsed.ok) return parsed.failure;
 		if (!(await deletePhoto(build.id, parsed.data.photoId))) {
 			return fail(404, { errors: { photoId: 'That photo is already gone.' }, values: {} });
@@ -77,7 +69,7 @@ export const actions: Actions = {
 	},
 	caption: async (event) => {
 		const { build } = await requireBuild(event.locals, event.params.id, 'build.photos', event.url);
-		const parsed = await parseForm(event.request, z.object({ photoId: idField('Photo'), caption }));
+		const parsed = await readForm(event.request, photoCaptionForm);
 		if (!parsed.ok) return parsed.failure;
 		if (!(await setCaption(build.id, parsed.data.photoId, parsed.data.caption))) {
 			return fail(404, { errors: { photoId: 'That photo is gone.' }, values: {} });

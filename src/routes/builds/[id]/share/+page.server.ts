@@ -1,9 +1,7 @@
 import { error, fail } from '@sveltejs/kit';
-import { z } from 'zod';
-import { commentForm, EXPIRY_CHOICES, shareForm } from '$lib/schemas/sharing';
-import { idField } from '$lib/schemas/common';
+import { EXPIRY_CHOICES, revokeLinkForm, shareForm, studioCommentForm } from '$lib/schemas/sharing';
 import { requireBuild } from '$lib/server/access';
-import { parseForm } from '$lib/server/forms';
+import { readForm } from '$lib/server/forms';
 import { enforce } from '$lib/server/limits';
 import { limits } from '$lib/server/rate-limit';
 import { revokeShareLink } from '$lib/server/sharing/links';
@@ -19,13 +17,6 @@ export const load: PageServerLoad = async ({ locals, params, url }) => {
 	};
 };
 
-const revokeForm = z.object({ linkId: idField('Link') });
-const studioCommentForm = z.object({
-	body: commentForm.shape.body,
-	variantId: z.string().min(1).max(64),
-	part: z.string().max(120).default('')
-});
-
 export const actions: Actions = {
 	create: async (event) => {
 		const { build, access } = await requireBuild(
@@ -34,7 +25,7 @@ export const actions: Actions = {
 			'build.share',
 			event.url
 		);
-		const parsed = await parseForm(event.request, shareForm);
+		const parsed = await readForm(event.request, shareForm);
 		if (!parsed.ok) return parsed.failure;
 		const input = parsed.data;
 		const outcome = await shareVariant(build, access.user, access.studioName, {
@@ -46,14 +37,14 @@ export const actions: Actions = {
 			message: input.message
 		});
 		if (!outcome.ok) {
-			return fail(400, { values: parsed.raw, errors: { [outcome.field]: outcome.message } });
+			return fail(400, { values: parsed.values, errors: { [outcome.field]: outcome.message } });
 		}
 		return { created: outcome.created };
 	},
 
 	revoke: async (event) => {
 		const { build } = await requireBuild(event.locals, event.params.id, 'build.share', event.url);
-		const parsed = await parseForm(event.request, revokeForm);
+		const parsed = await readForm(event.request, revokeLinkForm);
 		if (!parsed.ok) return parsed.failure;
 		const ok = await revokeShareLink(build.id, parsed.data.linkId);
 		if (!ok) {
@@ -74,13 +65,13 @@ export const actions: Actions = {
 			event.url
 		);
 		await enforce(event, 'comment', limits.comment, access.user.id);
-		const parsed = await parseForm(event.request, studioCommentForm);
+		const parsed = await readForm(event.request, studioCommentForm);
 		if (!parsed.ok) return parsed.failure;
 		const outcome = await postStudioComment(build, access.user, access.studioName, parsed.data);
 		if (outcome === 'no-variant') error(404, 'Not found.');
 		if (outcome === 'no-part') {
 			return fail(400, {
-				values: parsed.raw,
+				values: parsed.values,
 				errors: { part: 'That part is not in this variant.' }
 			});
 		}

@@ -1,9 +1,10 @@
 import { loadSheet } from '$lib/server/sheet';
 import { renderSheetPdf } from '$lib/server/sheet-pdf';
 import type { RequestHandler } from './$types';
+import { pageRoute } from '$lib/server/errors';
 
 /** The build sheet as a PDF (?variant=…&paper=a4|letter), for anyone who may see the build. */
-export const GET: RequestHandler = async ({ locals, params, url }) => {
+export const GET: RequestHandler = pageRoute(async ({ locals, params, url }) => {
 	const data = await loadSheet(locals, params.id, url);
 	const pdf = await renderSheetPdf(data);
 	const name = `build-sheet-${data.build.name}-${data.variant.name}`
@@ -20,4 +21,4 @@ export const GET: RequestHandler = async ({ locals, params, url }) => {
 			'x-content-type-options': 'nosniff'
 		}
 	});
-};
+});

@@ -1,23 +1,18 @@
-import { fail } from '@sveltejs/kit';
-import { parseForm } from '$lib/server/forms';
-import { TickRejected, loadSheet, setTick, tickSchema } from '$lib/server/sheet';
+import { tickForm } from '$lib/schemas/builds';
+import { forForm, forPage } from '$lib/server/errors';
+import { readForm } from '$lib/server/forms';
+import { loadSheet, setTick } from '$lib/server/sheet';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals, params, url }) =>
-	loadSheet(locals, params.id, url);
+	forPage(() => loadSheet(locals, params.id, url));
 
 export const actions: Actions = {
 	/** Ticks or unticks one checklist item; works as a plain form post without JavaScript. */
 	tick: async ({ locals, params, request }) => {
-		const parsed = await parseForm(request, tickSchema);
+		const parsed = await readForm(request, tickForm);
 		if (!parsed.ok) return parsed.failure;
-		try {
-			return await setTick(locals, params.id, parsed.data);
-		} catch (e) {
-			if (e instanceof TickRejected) {
-				return fail(400, { values: parsed.raw, errors: { key: e.message } });
-			}
-			throw e;
-		}
+		// A key the sheet does not have answers on `key`; no such variant shows the error page.
+		return forForm(() => setTick(locals, params.id, parsed.data), { values: parsed.values });
 	}
 };

@@ -1,8 +1,14 @@
 import { redirect } from '@sveltejs/kit';
-import { z } from 'zod';
+import {
+	deleteBuildForm,
+	deleteVariantForm,
+	forkVariantForm,
+	moveVariantForm,
+	renameVariantForm,
+	variantForm
+} from '$lib/schemas/builds';
 import { requireBuild } from '$lib/server/access';
 import {
-	VariantRuleError,
 	deleteBuild,
 	deleteVariant,
 	forkVariant,
@@ -11,11 +17,9 @@ import {
 	renameVariant,
 	variantsOf
 } from '$lib/server/builds';
-import { formFail, parseForm } from '$lib/server/forms';
-import { line } from '$lib/schemas/common';
+import { forForm } from '$lib/server/errors';
+import { readForm } from '$lib/server/forms';
 import type { Actions, PageServerLoad } from './$types';
-
-const variantId = line('Variant', 64);
 
 export const load: PageServerLoad = async ({ locals, params, url }) => {
 	const { build } = await requireBuild(locals, params.id, 'build.edit', url);
@@ -32,23 +36,15 @@ export const load: PageServerLoad = async ({ locals, params, url }) => {
 	};
 };
 
+/** Runs a variant rule; a refusal comes back as the form's failure (message on `_`), else null. */
 async function run(fn: () => Promise<unknown>) {
-	try {
-		await fn();
-	} catch (e) {
-		if (e instanceof VariantRuleError) return formFail(e.status, {}, { _: e.message });
-		throw e;
-	}
-	return null;
+	return (await forForm(async () => void (await fn()))) ?? null;
 }
 
 export const actions: Actions = {
 	fork: async ({ locals, params, request, url }) => {
 		const { build } = await requireBuild(locals, params.id, 'build.edit', url);
-		const parsed = await parseForm(
-			request,
-			z.object({ variantId, name: line('Name', 80).optional() })
-		);
+		const parsed = await readForm(request, forkVariantForm);
 		if (!parsed.ok) return parsed.failure;
 		let id = '';
 		const failed = await run(
@@ -59,7 +55,7 @@ export const actions: Actions = {
 	},
 	rename: async ({ locals, params, request, url }) => {
 		const { build } = await requireBuild(locals, params.id, 'build.edit', url);
-		const parsed = await parseForm(request, z.object({ variantId, name: line('Name', 80) }));
+		const parsed = await readForm(request, renameVariantForm);
 		if (!parsed.ok) return parsed.failure;
 		return (
 			(await run(() => renameVariant(build.id, parsed.data.variantId, parsed.data.name))) ?? {
@@ -69,10 +65,7 @@ export const actions: Actions = {
 	},
 	move: async ({ locals, params, request, url }) => {
 		const { build } = await requireBuild(locals, params.id, 'build.edit', url);
-		const parsed = await parseForm(
-			request,
-			z.object({ variantId, by: z.enum(['-1', '1'], { error: 'Move by −1 or 1.' }) })
-		);
+		const parsed = await readForm(request, moveVariantForm);
 		if (!parsed.ok) return parsed.failure;
 		return (
 			(await run(() =>
@@ -82,10 +75,7 @@ export const actions: Actions = {
 	},
 	delete: async ({ locals, params, request, url }) => {
 		const { build } = await requireBuild(locals, params.id, 'build.edit', url);
-		const parsed = await parseForm(
-			request,
-			z.object({ variantId, confirm: z.literal('yes', { error: 'Tick the box to confirm.' }) })
-		);
+		const parsed = await readForm(request, deleteVariantForm);
 		if (!parsed.ok) return parsed.failure;
 		return (
 			(await run(() => deleteVariant(build.id, parsed.data.variantId))) ?? { done: 'Deleted.' }
@@ -93,10 +83,7 @@ export const actions: Actions = {
 	},
 	deleteBuild: async ({ locals, params, request, url }) => {
 		const { build } = await requireBuild(locals, params.id, 'build.edit', url);
-		const parsed = await parseForm(
-			request,
-			z.object({ confirm: z.literal('yes', { error: 'Tick the box to confirm.' }) })
-		);
+		const parsed = await readForm(request, deleteBuildForm);
 		if (!parsed.ok) return parsed.failure;
 		const failed = await run(() => deleteBuild(build.id));
 		if (failed) return failed;
@@ -104,7 +91,7 @@ export const actions: Actions = {
 	},
 	propose: async ({ locals, params, request, url }) => {
 		const { build } = await requireBuild(locals, params.id, 'build.edit', url);
-		const parsed = await parseForm(request, z.object({ variantId }));
+		const parsed = await readForm(request, variantForm);
 		if (!parsed.ok) return parsed.failure;
 		return (
 			(await run(() => markProposal(build.id, parsed.data.variantId))) ?? {

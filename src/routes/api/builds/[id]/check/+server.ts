@@ -4,12 +4,13 @@ import { catalogueIdsOf, variantSettingsSchema } from '$lib/builds/settings';
 import { requireUser, roleMay } from '$lib/server/access';
 import { apiBucket, problem, readJson } from '$lib/server/api';
 import { SESSION_LIFE_MS, readSession, sessionIdOf } from '$lib/server/auth';
-import { SceneRejected, trustedScene } from '$lib/server/builds';
+import { trustedScene } from '$lib/server/builds';
 import { checkTrip } from '$lib/server/check-trip';
 import { checkInPool } from '$lib/server/engine/pool';
 import { limitKey, refuseOver } from '$lib/server/limits';
 import { engineTubeKinds, tubeKindsForStudio } from '$lib/server/loop';
 import type { RequestHandler } from './$types';
+import { forJson, jsonRoute } from '$lib/server/errors';
 
 const body = z.object({ settings: variantSettingsSchema });
 
@@ -20,7 +21,7 @@ const body = z.object({ settings: variantSettingsSchema });
  * come from one statement (src/lib/server/check-trip.ts; the session hook skips this route).
  * Nothing is answered before access is settled.
  */
-export const POST: RequestHandler = async (event) => {
+export const POST: RequestHandler = jsonRoute(async (event) => {
 	const sessionId = sessionIdOf(event.cookies);
 	if (!sessionId) requireUser(event.locals);
 	const { settings } = await readJson(event.request, body);
@@ -58,14 +59,11 @@ export const POST: RequestHandler = async (event) => {
 	// Only a variant with a coolant loop needs its tube kinds: a second statement, for those alone.
 	const tubeIds = catalogueIdsOf(settings).tubeKinds;
 	const tubes = tubeIds.length ? await tubeKindsForStudio(trip.build.studioId, tubeIds) : [];
-	let scene;
-	try {
-		scene = trustedScene(trip.build.definition, trip.parts, settings, engineTubeKinds(tubes));
-	} catch (e) {
-		if (e instanceof SceneRejected) {
-			return problem(e.status, 'The scene does not validate.', e.issues);
-		}
-		throw e;
-	}
+	const { definition } = trip.build;
+	const scene = await forJson(
+		async () => trustedScene(definition, trip.parts, settings, engineTubeKinds(tubes)),
+		'The scene does not validate.'
+	);
+	if (scene instanceof Response) return scene;
 	return json(await checkInPool(scene, 'settings'));
-};
+});
