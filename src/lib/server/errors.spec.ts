@@ -122,7 +122,7 @@ describe('the wrappers', () => {
 		expect(isActionFailure(failed) && failed.status).toBe(409);
 		const json = await forJson(refuse);
 		expect(json instanceof Response && json.status).toBe(409);
-		const routed = await jsonRoute(refuse)({});
+		const routed = await jsonRoute(async () => new Response(await refuse()))({});
 		expect(routed.status).toBe(409);
 		expect(isHttpError(await thrown(() => forPage(refuse)), 409)).toBe(true);
 	});
