@@ -157,3 +157,25 @@ test('a second save of the same enclosure is stopped, keeps what was typed and o
 	await expect(page.getByLabel('Width (X), mm')).toHaveValue('210');
 	await expect(page.getByLabel('Name', { exact: true })).toHaveValue('Renamed in the other tab');
 });
+
+test('a standard part reads in words: spec labels and where its dimensions come from, never keys', async ({
+	page,
+	context,
+	baseURL
+}) => {
+	await designerIn(context, baseURL!);
+	await page.goto('/parts/std-card-dual-slot');
+	await expect(
+		page.getByRole('heading', { name: 'Add-in card, full length, two slots' })
+	).toBeVisible();
+	const main = page.locator('main');
+	await expect(main).toContainText('Card length');
+	await expect(main).toContainText('312\u2009mm');
+	await expect(main).toContainText('Slots taken');
+	await expect(main).toContainText('Dimensions from');
+	// No schema key (camelCase or a dashed category) and no retired label on the page.
+	const text = await main.innerText();
+	expect(text).not.toMatch(/\b[a-z]+[A-Z][A-Za-z]*\b/);
+	expect(text).not.toMatch(/\bProvenance\b|\bcpu-block\b/);
+	await expect(page.getByRole('button', { name: 'Copy part' })).toBeVisible();
+});

@@ -48,7 +48,7 @@ test('share by e-mail, the client reviews, comments, approves and pays the depos
 	// The designer shares Variant A with the client by e-mail, and shows the quote.
 	await signInAs(context, baseURL!, designer.id);
 	await page.goto(`/builds/${build.buildId}/share`);
-	await expect(page.getByRole('heading', { name: 'Share with the client' })).toBeVisible();
+	await expect(page.getByRole('heading', { name: 'Share with client' })).toBeVisible();
 	await page.getByLabel("Client's e-mail").fill(clientEmail);
 	await page.getByLabel("Client's name").fill('Rowan Client');
 	await page.getByLabel('Stops working').selectOption('30');

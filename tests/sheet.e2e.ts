@@ -122,6 +122,10 @@ test('the drawing key in grey-scale keeps every status tellable: mean lightness 
 	const key = page.getByRole('complementary', { name: 'Drawing key' });
 	await expect(key).toBeVisible();
 	await key.screenshot({ path: testInfo.outputPath('drawing-key.png') });
+	// The projection symbol prints at its stated size (15 × 5 mm for 2.5 mm lettering), not squeezed.
+	const symbol = await key.getByTestId('projection-symbol').boundingBox();
+	expect(symbol!.width).toBeCloseTo((15 / 25.4) * 96, 0);
+	await expect(key).toContainText('Third-angle projection');
 	const means: [string, number][] = [];
 	// In the fills' lightness order, darkest first: L* 30, 47, 64, 81, 97 (drawing-style.ts).
 	for (const status of ['collides', 'blocked', 'clear', 'tight', 'outside']) {
