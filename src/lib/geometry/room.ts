@@ -262,10 +262,10 @@ interface RoomContext {
 	boards: Obstacle[];
 	stacks: Obstacle[];
 	/** By divider setting (the dividers' numbers). */
-	compartments: Map<string, NumberedCompartment[]>;
+	compartments: Trie<NumberedCompartment[]>;
 	/** Compartment numbers by id, label and box. */
 	compartmentSerial: Map<string, number>;
-	figures: Map<string, RoomFigure[]>;
+	figures: Trie<RoomFigure[]>;
 	mm: Map<number, string>;
 	/** The room of a bracket in no compartment: the whole inside. */
 	inside: NumberedCompartment;
@@ -283,9 +283,9 @@ function roomContext(enclosure: EnclosureDef): RoomContext {
 		trays: enclosure.mounts.filter((m) => m.kind === 'board-tray'),
 		boards: [],
 		stacks: [],
-		compartments: new Map(),
+		compartments: trie(),
 		compartmentSerial: new Map(),
-		figures: new Map(),
+		figures: trie(),
 		mm: new Map(),
 		inside: { serial: 0, id: 'inside', label: 'Inside', box: inner }
 	};
@@ -351,11 +351,6 @@ function bracketAt(ctx: RoomContext, k: number, offsetMm: number): Obstacle {
 	return o;
 }
 
-/** A number as two key characters (any 32-bit count, no separator needed). */
-function keyChars(n: number): string {
-	return String.fromCharCode(n & 0xffff, n >>> 16);
-}
-
 /** Overlapping or touching (closed boxes, within the tolerance): what a box's figures can see. */
 function reaches(a: Box, b: Box): boolean {
 	for (let i = 0; i < 3; i++) {
@@ -366,21 +361,40 @@ function reaches(a: Box, b: Box): boolean {
 	return true;
 }
 
-/** The key of a group: its tag, then the numbers of the obstacles `sees` keeps, in their order. */
-function sightKey(tag: string, obstacles: readonly Obstacle[], sees: (o: Obstacle) => boolean) {
-	let key = tag;
-	for (const o of obstacles) if (sees(o)) key += keyChars(o.serial);
-	return key;
+/**
+ * Kept values under a path of keys: a group's tag, then numbers (obstacle numbers, distances) and
+ * words the table made once. Maps of maps, so no key text is built and hashed per row.
+ */
+interface Trie<T> {
+	next: Map<number | string, Trie<T>>;
+	value?: T;
 }
 
-/** The figures of a group, made once per key. */
-function kept(ctx: RoomContext, key: string, make: () => RoomFigure[]): RoomFigure[] {
-	let found = ctx.figures.get(key);
-	if (!found) {
-		found = make();
-		ctx.figures.set(key, found);
+const trie = <T>(): Trie<T> => ({ next: new Map() });
+
+/** The node under `key`, made when missing. */
+function child<T>(node: Trie<T>, key: number | string): Trie<T> {
+	let n = node.next.get(key);
+	if (!n) {
+		n = trie<T>();
+		node.next.set(key, n);
 	}
-	return found;
+	return n;
+}
+
+/** The node under the numbers of the obstacles `sees` keeps, in their order. */
+function sight<T>(
+	node: Trie<T>,
+	obstacles: readonly Obstacle[],
+	sees: (o: Obstacle) => boolean
+): Trie<T> {
+	for (const o of obstacles) if (sees(o)) node = child(node, o.serial);
+	return node;
+}
+
+/** The figures of a group, made once per path. */
+function kept(node: Trie<RoomFigure[]>, make: () => RoomFigure[]): RoomFigure[] {
+	return (node.value ??= make());
 }
 
 function compartmentsAt(
@@ -388,9 +402,8 @@ function compartmentsAt(
 	dividers: readonly Obstacle[],
 	offsets: readonly number[]
 ): NumberedCompartment[] {
-	let key = '';
-	for (const d of dividers) key += keyChars(d.serial);
-	let found = ctx.compartments.get(key);
+	const node = sight(ctx.compartments, dividers, () => true);
+	let found = node.value;
 	if (!found) {
 		const positions: Record<string, number> = {};
 		ctx.enclosure.dividers.forEach((d, k) => (positions[d.id] = offsets[k]));
@@ -403,7 +416,7 @@ function compartmentsAt(
 			}
 			return { serial, id: c.id, label: c.label, box: c.box };
 		});
-		ctx.compartments.set(key, found);
+		node.value = found;
 	}
 	return found;
 }
@@ -432,8 +445,10 @@ function figuresAt(ctx: RoomContext, at: RoomPositions): RoomFigure[] {
 	// Per compartment: its free box, and the depth for a pump or reservoir from each of its panels.
 	const perCompartment: RoomFigure[] = [];
 	for (const c of compartments) {
-		const key = sightKey(`c${keyChars(c.serial)}`, reachObstacles, (o) => reaches(o.box, c.box));
-		const found = kept(ctx, key, () => compartmentFigures(ctx, c, fixed, reachObstacles));
+		const node = sight(child(child(ctx.figures, 'c'), c.serial), reachObstacles, (o) =>
+			reaches(o.box, c.box)
+		);
+		const found = kept(node, () => compartmentFigures(ctx, c, fixed, reachObstacles));
 		for (const f of found) (f.kind === 'free-box' ? figures : perCompartment).push(f);
 	}
 
@@ -444,7 +459,7 @@ function figuresAt(ctx: RoomContext, at: RoomPositions): RoomFigure[] {
 		const cross = clip(m.region, inner);
 		const others = fixed.filter((o) => o.id !== `board:${m.id}`);
 		const r = reach(inner, cross, axis, dir, panel + dir * boardDepth(m), others);
-		const [figure] = kept(ctx, `o${t}|${r.distanceMm}|${r.against}`, () => {
+		const [figure] = kept(path(ctx, 'o', t, r), () => {
 			const cls = boardClassOf(m);
 			const plate = plateFor(m, cls);
 			return [
@@ -475,7 +490,7 @@ function figuresAt(ctx: RoomContext, at: RoomPositions): RoomFigure[] {
 		const others = reachObstacles.filter((o) => o.id !== `bracket:${b.id}`);
 		const r = reach(inner, cross, L, dir, up ? box.max[L] : box.min[L], others);
 		figures.push(
-			...kept(ctx, `L${k}|${self.serial}|${r.distanceMm}|${r.against}`, () => [
+			...kept(child(path(ctx, 'L', k, r), self.serial), () => [
 				{
 					id: `card-length:${b.id}`,
 					kind: 'card-length',
@@ -486,8 +501,7 @@ function figuresAt(ctx: RoomContext, at: RoomPositions): RoomFigure[] {
 			]),
 			// The width across depends on the compartment and the dividers bounding it alone.
 			...kept(
-				ctx,
-				sightKey(`W${k}|${room.serial}|`, dividers, () => true),
+				sight(child(child(child(ctx.figures, 'W'), k), room.serial), dividers, () => true),
 				() => [cardSlots(ctx, b, L, room, dividers, stackAxis)]
 			)
 		);
@@ -497,9 +511,7 @@ function figuresAt(ctx: RoomContext, at: RoomPositions): RoomFigure[] {
 		const { axis, dir, panel } = panelAt(m, inner);
 		const cross = clip(m.region, inner);
 		const r = reach(inner, cross, axis, dir, panel, reachObstacles);
-		figures.push(
-			...kept(ctx, `s${k}|${r.distanceMm}|${r.against}`, () => slotFigures(ctx, m, r, stackAxis))
-		);
+		figures.push(...kept(path(ctx, 's', k, r), () => slotFigures(ctx, m, r, stackAxis)));
 	});
 
 	// Stack budget on each radiator or fan mount, per class it takes, after its plate.
@@ -509,13 +521,18 @@ function figuresAt(ctx: RoomContext, at: RoomPositions): RoomFigure[] {
 		const { axis, dir, panel } = panelAt(m, inner);
 		const cross = clip(m.region, inner);
 		const r = reach(inner, cross, axis, dir, panel, controls);
-		figures.push(...kept(ctx, `r${k}|${r.distanceMm}|${r.against}`, () => stackFigures(ctx, m, r)));
+		figures.push(...kept(path(ctx, 'r', k, r), () => stackFigures(ctx, m, r)));
 	});
 
 	return figures.concat(perCompartment);
 }
 
 type Reach = ReturnType<typeof reach>;
+
+/** Where a reach's figures are kept: the group's tag and index, then what the reach found. */
+function path(ctx: RoomContext, tag: string, index: number, r: Reach): Trie<RoomFigure[]> {
+	return child(child(child(child(ctx.figures, tag), index), r.distanceMm), r.against);
+}
 
 /** Whether `box`'s centre lies in `room` (within the tolerance). */
 function holdsCentre(room: Box, box: Box): boolean {
