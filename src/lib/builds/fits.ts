@@ -67,6 +67,12 @@ export interface FitRow {
 	/** Clear or tight: listed as fitting. */
 	fits: boolean;
 	spareMm: number | null;
+	/**
+	 * In a compartment or a free space: the free millimetres left on the part's tightest axis where
+	 * it lands (the room it has to move, which ranks the list there, since a part dropped into a
+	 * corner touches the panels and so has no spare of its own). Null on a mount or a replacement.
+	 */
+	roomToMoveMm: number | null;
 	/** Free mm ahead of each face (null: nothing ahead or held contact). */
 	spareByFace: Record<Face, number | null>;
 	stack: { usedMm: number; budgetMm: number | null; spareMm: number | null } | null;
@@ -87,7 +93,9 @@ export interface Prepared {
 	mount: MountDef | null;
 	/** Whether where a part lands depends on the controls (compartments and boxes move with them). */
 	movesWithControls: boolean;
-	land(part: PartDef): { position: Vec3; rotation: Rotation } | { reason: string };
+	land(
+		part: PartDef
+	): { position: Vec3; rotation: Rotation; roomToMoveMm?: number } | { reason: string };
 }
 
 const FIT_STATUSES: FitStatus[] = ['clear', 'tight'];
@@ -212,6 +220,7 @@ export function fitRow(prepared: Prepared, candidate: FitCandidate): FitRow {
 			status: 'blocked',
 			fits: false,
 			spareMm: null,
+			roomToMoveMm: null,
 			spareByFace: none,
 			stack: null,
 			ports: [],
@@ -226,6 +235,7 @@ export function fitRow(prepared: Prepared, candidate: FitCandidate): FitRow {
 			status: 'outside',
 			fits: false,
 			spareMm: null,
+			roomToMoveMm: null,
 			spareByFace: none,
 			stack: null,
 			ports: [],
@@ -240,10 +250,15 @@ export function fitRow(prepared: Prepared, candidate: FitCandidate): FitRow {
 		rotation: landing.rotation,
 		...(prepared.mount ? { mountId: prepared.mount.id } : {})
 	};
-	return rowAt(prepared, candidate, placement);
+	return rowAt(prepared, candidate, placement, landing.roomToMoveMm ?? null);
 }
 
-function rowAt(prepared: Prepared, candidate: FitCandidate, placement: Placement): FitRow {
+function rowAt(
+	prepared: Prepared,
+	candidate: FitCandidate,
+	placement: Placement,
+	roomToMoveMm: number | null = null
+): FitRow {
 	const part = candidate.part;
 	const r = probe(prepared.base, part, placement);
 	const spareByFace = {} as Record<Face, number | null>;
@@ -259,6 +274,7 @@ function rowAt(prepared: Prepared, candidate: FitCandidate, placement: Placement
 		status: r.status,
 		fits: FIT_STATUSES.includes(r.status),
 		spareMm: r.spareMm,
+		roomToMoveMm,
 		spareByFace,
 		stack: r.mount
 			? { usedMm: r.mount.usedMm, budgetMm: r.mount.budgetMm, spareMm: r.mount.spareMm }
@@ -272,8 +288,8 @@ function rowAt(prepared: Prepared, candidate: FitCandidate, placement: Placement
 export function sortRows(rows: FitRow[], sort: FitSort): FitRow[] {
 	const name = (a: FitRow, b: FitRow) =>
 		a.name.localeCompare(b.name, 'en') || (a.partId < b.partId ? -1 : a.partId > b.partId ? 1 : 0);
-	const spare = (a: FitRow, b: FitRow) =>
-		(b.spareMm ?? Infinity) - (a.spareMm ?? Infinity) || name(a, b);
+	const room = (r: FitRow) => r.roomToMoveMm ?? r.spareMm ?? Infinity;
+	const spare = (a: FitRow, b: FitRow) => room(b) - room(a) || name(a, b);
 	const price = (a: FitRow, b: FitRow) =>
 		(a.priceMinor ?? Infinity) - (b.priceMinor ?? Infinity) || spare(a, b);
 	const order = sort === 'name' ? name : sort === 'price' ? price : spare;

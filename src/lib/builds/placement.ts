@@ -197,7 +197,13 @@ export function landOnMount(
 }
 
 /** A landing and, in words, the quarter turn it used ("as in the catalogue", "a quarter turn about Y"). */
-export type Landing = { position: Vec3; rotation: Rotation; turn: string };
+export type Landing = {
+	position: Vec3;
+	rotation: Rotation;
+	turn: string;
+	/** Dropped into a room: the free mm left on its tightest axis there (placeInRoom). */
+	roomToMoveMm?: number;
+};
 
 const TURN_WORDS = ['', 'a quarter turn', 'a half turn', 'three quarter turns'];
 
@@ -358,7 +364,14 @@ export function placeInRoom(
 			room: spare
 		};
 	}
-	if (best) return { position: best.position, rotation: best.rotation, turn: best.turn };
+	if (best) {
+		return {
+			position: best.position,
+			rotation: best.rotation,
+			turn: best.turn,
+			roomToMoveMm: best.room
+		};
+	}
 	const where = options.roomLabel ?? 'there';
 	const free = largestFreeBox(room, blocked);
 	const noun = isCard(part) ? 'this card' : 'this part';
