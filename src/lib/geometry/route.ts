@@ -1123,10 +1123,15 @@ export interface ManyRun {
  */
 export function routeMany(
 	runs: readonly ManyRun[],
-	shared: Omit<RouteInput, 'start' | 'end' | 'section' | 'bendRadiusMm' | 'mode'>
+	shared: Omit<RouteInput, 'start' | 'end' | 'section' | 'bendRadiusMm' | 'mode'>,
+	/** Told after each search: `done` of `total` (each run is searched alone, then in order). */
+	onProgress?: (done: number, total: number) => void
 ): { order: string[]; results: Record<string, RouteResult> } {
+	const total = runs.length * 2;
+	let done = 0;
 	const solo = runs.map((run) => {
 		const res = findRoute({ ...shared, ...run, maxAlternatives: 1 });
+		onProgress?.(++done, total);
 		return { run, res, cost: res.ok ? res.routes[0].cost : Infinity };
 	});
 	solo.sort((a, b) => b.cost - a.cost || (a.run.id < b.run.id ? -1 : 1));
@@ -1151,6 +1156,7 @@ export function routeMany(
 				c
 			);
 		const res = reuse ? alone : findRoute({ ...shared, ...run, obstacles });
+		onProgress?.(++done, total);
 		results[run.id] = res;
 		if (res.ok) {
 			const points = [run.start.point, ...res.routes[0].waypoints, run.end.point];

@@ -379,7 +379,13 @@ export const loopSchema = z.object({
 		.default([]),
 	/** The plugged port the loop is filled through, and the one it is drained through. */
 	fill: portRefSchema.optional(),
-	drain: portRefSchema.optional()
+	drain: portRefSchema.optional(),
+	/** Route suggestions: one bend costs as much as this many mm of tube (missing: 100). */
+	bendPenaltyMm: z
+		.number({ error: 'Must be a finite number' })
+		.min(0, 'Must not be negative')
+		.max(10_000, 'At most 10,000 mm')
+		.optional()
 });
 export type LoopDef = z.infer<typeof loopSchema>;
 

@@ -1,0 +1,109 @@
+/**
+ * "Suggest a route" for a loop's runs: from the scene and the loop to the route search's input
+ * (each run's tube kind gives its section, bend radius, clearance and hard or soft; each fitting's
+ * reach where the run starts), and from an accepted route back to the run's waypoints. Millimetres.
+ */
+import type { LoopDef, ResolvedScene, Scene, Vec3 } from '$lib/geometry';
+import { loopLookup, runEnds } from '$lib/geometry/loop-path';
+import { routeObstacles } from '$lib/geometry/route-scene';
+import type { ManyRun, RouteInput, RouteObstacle } from '$lib/geometry/route';
+import type { LoopReport } from '$lib/geometry/loop';
+import type { VariantSettings } from '$lib/builds/settings';
+import { updateRun } from './edit';
+
+/** Fewest bends first: one bend costs as much as 100 mm of tube (the loop's `bendPenaltyMm`). */
+export const DEFAULT_BEND_PENALTY_MM = 100;
+
+export function bendPenaltyOf(loop: LoopDef | null | undefined): number {
+	return loop?.bendPenaltyMm ?? DEFAULT_BEND_PENALTY_MM;
+}
+
+export type RouteRequest =
+	| {
+			ok: true;
+			runs: ManyRun[];
+			shared: Omit<RouteInput, 'start' | 'end' | 'section' | 'bendRadiusMm' | 'mode'>;
+	  }
+	| { ok: false; message: string };
+
+/**
+ * The search input for runs `indexes` of loop `l` (one run, or all of them). Every other run of
+ * the scene keeps its boxes (from the last check) and is an obstacle; the runs being routed are
+ * not, and their ports' fitting room is where they start. Walls are the bounds' faces.
+ */
+export function routeRequest(
+	scene: Scene,
+	resolved: ResolvedScene,
+	reports: readonly LoopReport[],
+	l: number,
+	indexes: readonly number[]
+): RouteRequest {
+	const loop = scene.loops?.[l];
+	if (!loop) return { ok: false, message: 'There is no loop to route.' };
+	const lookup = loopLookup(scene);
+	const routed = new Set(indexes.map((i) => loop.runs[i]?.id));
+	const runs: ManyRun[] = [];
+	const ports = new Set<string>();
+	let clearanceMm = 0;
+	for (const i of indexes) {
+		const run = loop.runs[i];
+		if (!run) return { ok: false, message: `There is no run ${i + 1}.` };
+		const tube = lookup.tubes.get(run.tube);
+		const ends = runEnds(lookup, run);
+		if (!tube || !ends) {
+			return { ok: false, message: `Run ${i + 1} names a port or a tube kind the scene lacks.` };
+		}
+		const [start, end] = [ends.points[0], ends.points[ends.points.length - 1]];
+		runs.push({
+			id: run.id,
+			start: { point: start, direction: ends.from.direction },
+			end: { point: end, direction: ends.to.direction },
+			section: { kind: 'round', outerDiameterMm: tube.outerMm },
+			bendRadiusMm: tube.minBendRadiusMm,
+			mode: tube.kind
+		});
+		ports.add(run.from.placementId).add(run.to.placementId);
+		clearanceMm = Math.max(clearanceMm, tube.clearanceMm);
+	}
+	const others: RouteObstacle[] = reports.flatMap((lr) =>
+		lr.runs
+			.filter((rr) => !routed.has(rr.runId))
+			.flatMap((rr) => rr.pieces.map((p) => ({ box: p.tube, id: p.id, label: `${rr.label}` })))
+	);
+	const obstacles = [...routeObstacles(resolved, { skipKeepoutsOf: [...ports] }), ...others].filter(
+		(o) => !o.id?.startsWith('wall:')
+	);
+	return {
+		ok: true,
+		runs,
+		shared: {
+			bounds: resolved.innerBox,
+			obstacles,
+			clearanceMm,
+			bendPenaltyMm: bendPenaltyOf(loop),
+			maxAlternatives: 3
+		}
+	};
+}
+
+/** The run's waypoints replaced by an accepted route's (then an ordinary run: checked, priced). */
+export function acceptRoute(
+	settings: VariantSettings,
+	l: number,
+	runId: string,
+	waypoints: readonly Vec3[]
+): VariantSettings {
+	const r = settings.loops?.[l]?.runs.findIndex((x) => x.id === runId) ?? -1;
+	if (r < 0) return settings;
+	// Hundredths of a millimetre: the search's planes are sums of sizes, with float noise.
+	const clean = waypoints.map((w) => w.map((v) => Math.round(v * 100) / 100) as Vec3);
+	return updateRun(settings, l, r, (run) => ({ ...run, waypoints: clean }));
+}
+
+/** The loop's bend penalty set (mm of tube one bend costs). */
+export function setBendPenalty(settings: VariantSettings, l: number, mm: number): VariantSettings {
+	const loops = [...(settings.loops ?? [])];
+	if (!loops[l]) return settings;
+	loops[l] = { ...loops[l], bendPenaltyMm: mm };
+	return { ...settings, loops };
+}
