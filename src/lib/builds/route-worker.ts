@@ -6,6 +6,7 @@
  */
 import {
 	findRoute,
+	routeEach,
 	routeMany,
 	type ManyRun,
 	type RouteInput,
@@ -14,7 +15,8 @@ import {
 
 type Shared = Omit<RouteInput, 'start' | 'end' | 'section' | 'bendRadiusMm' | 'mode'>;
 type Request =
-	{ kind: 'one'; input: RouteInput } | { kind: 'many'; runs: ManyRun[]; shared: Shared };
+	| { kind: 'one'; input: RouteInput }
+	| { kind: 'many'; runs: ManyRun[]; shared: Shared; each: boolean };
 export type ManyAnswer = { order: string[]; results: Record<string, RouteResult> };
 type Reply =
 	| { kind: 'progress'; done: number; total: number }
@@ -35,7 +37,8 @@ if (scope && typeof (globalThis as { document?: unknown }).document === 'undefin
 		if (req.kind === 'one') {
 			scope.postMessage({ kind: 'one', answer: findRoute(req.input) });
 		} else {
-			const answer = routeMany(req.runs, req.shared, (done, total) =>
+			const route = req.each ? routeEach : routeMany;
+			const answer = route(req.runs, req.shared, (done, total) =>
 				scope.postMessage({ kind: 'progress', done, total })
 			);
 			scope.postMessage({ kind: 'many', answer });
@@ -83,11 +86,15 @@ export function suggestRoute(input: RouteInput): { result: Promise<RouteResult>;
 	return start<RouteResult>({ kind: 'one', input }, { ok: false, reason: 'Cancelled.' });
 }
 
-/** Several runs, hardest first, each clear of the ones before (routeMany), in a worker. */
+/**
+ * Several runs in a worker: hardest first, each clear of the ones before (routeMany); or with
+ * `each`, every one on its own (routeEach: cable bundles may lie together).
+ */
 export function suggestRoutes(
 	runs: ManyRun[],
 	shared: Shared,
-	onProgress?: (done: number, total: number) => void
+	onProgress?: (done: number, total: number) => void,
+	each = false
 ): { result: Promise<ManyAnswer | null>; cancel(): void } {
-	return start<ManyAnswer | null>({ kind: 'many', runs, shared }, null, onProgress);
+	return start<ManyAnswer | null>({ kind: 'many', runs, shared, each }, null, onProgress);
 }

@@ -1106,6 +1106,23 @@ function clearOf(boxes: readonly Box[], others: readonly Box[], clearanceMm: num
 	return true;
 }
 
+/**
+ * Routes several runs each on its own, none an obstacle for another: for cable bundles, which may
+ * lie together. Same answer shape as routeMany, in the runs' order.
+ */
+export function routeEach(
+	runs: readonly ManyRun[],
+	shared: Omit<RouteInput, 'start' | 'end' | 'section' | 'bendRadiusMm' | 'mode'>,
+	onProgress?: (done: number, total: number) => void
+): { order: string[]; results: Record<string, RouteResult> } {
+	const results: Record<string, RouteResult> = {};
+	runs.forEach((run, i) => {
+		results[run.id] = findRoute({ ...shared, ...run });
+		onProgress?.(i + 1, runs.length);
+	});
+	return { order: runs.map((r) => r.id), results };
+}
+
 /** One run to route among several (see routeMany). */
 export interface ManyRun {
 	id: string;

@@ -5,7 +5,7 @@
  */
 import type { LoopDef, ResolvedScene, Scene, Vec3 } from '$lib/geometry';
 import { loopLookup, runEnds } from '$lib/geometry/loop-path';
-import { routeObstacles } from '$lib/geometry/route-scene';
+import { portEnd, routeObstacles } from '$lib/geometry/route-scene';
 import type { ManyRun, RouteInput, RouteObstacle } from '$lib/geometry/route';
 import type { LoopReport } from '$lib/geometry/loop';
 import type { VariantSettings } from '$lib/builds/settings';
@@ -83,6 +83,85 @@ export function routeRequest(
 			bendPenaltyMm: bendPenaltyOf(loop),
 			maxAlternatives: 3
 		}
+	};
+}
+
+/**
+ * The search input for the scene's power cables `indexes` (flat bundles, soft: their own bend
+ * radius): clear of every coolant run (from the last check) and of the parts; the plugs' room at
+ * their own ports is where they start. Each is routed on its own (routeEach): bundles may lie
+ * together, and the checker does not hold one cable against another.
+ */
+export function cableRouteRequest(
+	scene: Scene,
+	resolved: ResolvedScene,
+	reports: readonly LoopReport[],
+	indexes: readonly number[]
+): RouteRequest {
+	const runs: ManyRun[] = [];
+	const ports = new Set<string>();
+	let clearanceMm = 0;
+	for (const i of indexes) {
+		const c = scene.cables?.[i];
+		if (!c) return { ok: false, message: `There is no cable ${i + 1}.` };
+		const reach = (placementId: string, portId: string) =>
+			resolved.placements
+				.find((p) => p.placement.id === placementId)
+				?.part.ports.find((p) => p.id === portId)?.plugReachMm ?? 0;
+		const start = portEnd(
+			resolved,
+			c.from.placementId,
+			c.from.portId,
+			reach(c.from.placementId, c.from.portId)
+		);
+		const end = portEnd(
+			resolved,
+			c.to.placementId,
+			c.to.portId,
+			reach(c.to.placementId, c.to.portId)
+		);
+		if (!start || !end) return { ok: false, message: `${c.label} names a port the scene lacks.` };
+		runs.push({
+			id: c.id,
+			start,
+			end,
+			section: { kind: 'flat', widthMm: c.widthMm, thicknessMm: c.thicknessMm },
+			bendRadiusMm: c.minBendRadiusMm,
+			mode: 'soft'
+		});
+		ports.add(c.from.placementId).add(c.to.placementId);
+		clearanceMm = Math.max(clearanceMm, c.clearanceMm);
+	}
+	const tubes: RouteObstacle[] = reports.flatMap((lr) =>
+		lr.runs.flatMap((rr) => rr.pieces.map((p) => ({ box: p.tube, id: p.id, label: rr.label })))
+	);
+	const obstacles = [...routeObstacles(resolved, { skipKeepoutsOf: [...ports] }), ...tubes].filter(
+		(o) => !o.id?.startsWith('wall:')
+	);
+	return {
+		ok: true,
+		runs,
+		shared: {
+			bounds: resolved.innerBox,
+			obstacles,
+			clearanceMm,
+			bendPenaltyMm: bendPenaltyOf(scene.loops?.[0]),
+			maxAlternatives: 3
+		}
+	};
+}
+
+/** The cable's waypoints replaced by an accepted route's. */
+export function acceptCableRoute(
+	settings: VariantSettings,
+	cableId: string,
+	waypoints: readonly Vec3[]
+): VariantSettings {
+	if (!settings.cables?.some((c) => c.id === cableId)) return settings;
+	const clean = waypoints.map((w) => w.map((v) => Math.round(v * 100) / 100) as Vec3);
+	return {
+		...settings,
+		cables: settings.cables.map((c) => (c.id === cableId ? { ...c, waypoints: clean } : c))
 	};
 }
 
