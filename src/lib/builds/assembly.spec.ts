@@ -65,16 +65,17 @@ describe('the demo sandwich (geometry/standard-library.ts), worked by hand', () 
 		});
 	});
 
-	it('counts the fittings per thread: two ports on the CPU block, two on the pump-reservoir', () => {
+	it('counts the fittings per thread: two ports on the CPU block, three on the pump-reservoir, two on the radiator', () => {
 		const [only, ...rest] = fittingsByThread(resolveScene(demoScene()));
 		expect(rest).toEqual([]);
 		expect(only).toEqual({
 			thread: 'G 1/4',
-			ports: 4,
+			ports: 7,
 			withPlacedFitting: 0,
 			byPart: [
 				{ placementId: 'cpu-block', name: 'Compact CPU block, 26 mm tall', ports: 2 },
-				{ placementId: 'pump-res', name: 'Compact pump-reservoir, 58 mm thick', ports: 2 }
+				{ placementId: 'pump-res', name: 'Compact pump-reservoir, 58 mm thick', ports: 3 },
+				{ placementId: 'radiator', name: 'Slim 280 radiator, 30 mm', ports: 2 }
 			]
 		});
 	});

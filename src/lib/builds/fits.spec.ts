@@ -224,27 +224,30 @@ describe('what fits here against checkScene', () => {
 		).toThrow(expect.objectContaining({ path: 'target.box' }));
 	});
 
-	it('ports: the demo pump-reservoir keeps both ports in its place (13 mm under the top panel, its fittings need 10)', () => {
+	it('ports: the demo pump-reservoir keeps its three ports in its place (its fill plug needs 10 mm of the 13 under the top panel)', () => {
 		const scene = demoScene();
 		const pump = demoParts().find((p) => p.id === 'demo-pump-res')!;
 		const row = whatFits(scene, { kind: 'replace', placementId: 'pump-res' }, [{ part: pump }])
 			.fits[0];
 		expect(row.ports.map((p) => [p.id, p.usable])).toEqual([
 			['in', true],
-			['out', true]
+			['out', true],
+			['fill', true]
 		]);
-		// Flush against the top panel its upward ports have no room: 227 + 13 = 240 → body top at 340.
+		// Flush against the top panel the upward fill port has no room: 227 + 13 = 240 → body top at
+		// 340; the inlet and outlet face the front and keep theirs.
 		const flush = sceneSchema.parse({
 			...demoSceneInput(),
 			placements: demoSceneInput().placements!.map((p) =>
-				p.id === 'pump-res' ? { ...p, position: [90, 240, 110] } : p
+				p.id === 'pump-res' ? { ...p, position: [90, 240, 140] } : p
 			)
 		});
 		const high = whatFits(flush, { kind: 'replace', placementId: 'pump-res' }, [{ part: pump }]);
 		const rows = [...high.fits, ...high.left];
 		expect(rows[0].ports.map((p) => [p.id, p.usable, p.blockedBy])).toEqual([
-			['in', false, 'Top panel'],
-			['out', false, 'Top panel']
+			['in', true, null],
+			['out', true, null],
+			['fill', false, 'Top panel']
 		]);
 	});
 });

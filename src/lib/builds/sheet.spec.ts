@@ -150,7 +150,7 @@ describe('the checklist', () => {
 			)
 		);
 		expect(groups.fittings.map((i) => i.text)).toEqual([
-			'4 × G 1/4 fittings or stop plugs: 2 on Compact CPU block, 26 mm tall; 2 on Compact pump-reservoir, 58 mm thick.'
+			'7 × G 1/4 fittings or stop plugs: 2 on Compact CPU block, 26 mm tall; 3 on Compact pump-reservoir, 58 mm thick; 2 on Slim 280 radiator, 30 mm.'
 		]);
 		expect(groups.cautions.map((i) => i.key)).toEqual(CAUTIONS.map((c) => `caution:${c.id}`));
 		expect(checklistKeys(sheet).size).toBe(3 + 8 + 1 + CAUTIONS.length);

@@ -6,7 +6,7 @@
 import { AXES, EPSILON_MM, axisIndex, boxSize, compareText, type AxisIndex } from './box';
 import { SceneError } from './errors';
 import { allowedIndex, defaultOffset } from './positions';
-import { formatPath } from './schema';
+import { formatPath, openingAxes } from './schema';
 import type { BracketDef, Box, DividerDef, EnclosureDef, FaceName, Vec3 } from './schema';
 import type { Compartment, WorldBox } from './types';
 
@@ -122,6 +122,86 @@ export function bracketBoxAt(bracket: BracketDef, offsetMm: number): Box {
 	return { min, max };
 }
 
+/** The divider's openings as boxes through its slab at that offset, in inner coordinates. */
+export function dividerOpeningBoxes(
+	enclosure: EnclosureDef,
+	divider: DividerDef,
+	offsetMm: number
+): Box[] {
+	const slab = dividerBoxAt(enclosure, divider, offsetMm);
+	const [u, v] = openingAxes(divider.axis);
+	return (divider.openings ?? []).map((o) => {
+		const min: Vec3 = [...slab.min];
+		const max: Vec3 = [...slab.max];
+		min[u] = slab.min[u] + o.at[0];
+		max[u] = min[u] + o.size[0];
+		min[v] = slab.min[v] + o.at[1];
+		max[v] = min[v] + o.size[1];
+		return { min, max };
+	});
+}
+
+/**
+ * `box` minus `hole` as at most six disjoint boxes (slices below and above the hole on X, then on
+ * Y, then on Z within the hole's X and Y extent). A hole that misses the box leaves it whole.
+ */
+export function subtractBox(box: Box, hole: Box): Box[] {
+	for (let i = 0; i < 3; i++) {
+		if (!(hole.min[i] < box.max[i] && box.min[i] < hole.max[i])) return [box];
+	}
+	const out: Box[] = [];
+	const rest: Box = { min: [...box.min], max: [...box.max] };
+	for (let i = 0; i < 3; i++) {
+		if (hole.min[i] > rest.min[i]) {
+			const max: Vec3 = [...rest.max];
+			max[i] = hole.min[i];
+			out.push({ min: [...rest.min], max });
+			rest.min[i] = hole.min[i];
+		}
+		if (hole.max[i] < rest.max[i]) {
+			const min: Vec3 = [...rest.min];
+			min[i] = hole.max[i];
+			out.push({ min, max: [...rest.max] });
+			rest.max[i] = hole.max[i];
+		}
+	}
+	return out;
+}
+
+/** The solid part of a divider at that offset: its slab minus every opening (disjoint boxes). */
+export function dividerPiecesAt(
+	enclosure: EnclosureDef,
+	divider: DividerDef,
+	offsetMm: number
+): Box[] {
+	let pieces = [dividerBoxAt(enclosure, divider, offsetMm)];
+	for (const hole of dividerOpeningBoxes(enclosure, divider, offsetMm)) {
+		pieces = pieces.flatMap((p) => subtractBox(p, hole));
+	}
+	return pieces;
+}
+
+/** The id of a divider's k-th solid piece: the first keeps `divider:<id>`, the next `divider:<id>#2`, … */
+export function dividerPieceId(dividerId: string, k: number): string {
+	return k === 0 ? `divider:${dividerId}` : `divider:${dividerId}#${k + 1}`;
+}
+
+/** One world box per solid piece (one, the whole slab, for a divider without openings). */
+export function dividerWorldBoxes(
+	enclosure: EnclosureDef,
+	divider: DividerDef,
+	offsetMm: number
+): WorldBox[] {
+	return dividerPiecesAt(enclosure, divider, offsetMm).map((box, k) => ({
+		id: dividerPieceId(divider.id, k),
+		kind: 'divider',
+		label: divider.label,
+		box,
+		ownerId: divider.id
+	}));
+}
+
+/** The whole slab as one box, openings ignored (compartments and room read it this way). */
 export function dividerWorldBox(
 	enclosure: EnclosureDef,
 	divider: DividerDef,

@@ -5,7 +5,7 @@ import {
 	bracketWorldBox,
 	compartmentsFor,
 	controlOffset,
-	dividerWorldBox,
+	dividerWorldBoxes,
 	innerBoxOf,
 	wallBoxes
 } from './enclosure';
@@ -90,9 +90,9 @@ export function resolveScene(scene: Scene): ResolvedScene {
 	const enclosure = scene.enclosure;
 	const dividerPositions: Record<string, number> = {};
 	const bracketOffsets: Record<string, number> = {};
-	const dividers = enclosure.dividers.map((d) => {
+	const dividers = enclosure.dividers.flatMap((d) => {
 		dividerPositions[d.id] = controlOffset(d, scene.dividerPositions, 'dividerPositions');
-		return dividerWorldBox(enclosure, d, dividerPositions[d.id]);
+		return dividerWorldBoxes(enclosure, d, dividerPositions[d.id]);
 	});
 	const brackets = enclosure.brackets.map((b) => {
 		bracketOffsets[b.id] = controlOffset(b, scene.bracketOffsets, 'bracketOffsets');

@@ -86,6 +86,24 @@ export const dividerPositionsSchema = z.discriminatedUnion('kind', [
 	rangeSchema.safeExtend({ kind: z.literal('range') })
 ]);
 
+/**
+ * A cut-out in a divider for tubes and cables, in the divider's plane: `at` and `size` are on the
+ * divider's other two axes in x, y, z order (an 'x' divider: y then z; 'y': x then z; 'z': x then
+ * y), millimetres from the low corner of the divider's span. It goes through the thickness.
+ */
+export const dividerOpeningSchema = z.object({
+	id: idSchema,
+	label: labelSchema.optional(),
+	at: z.tuple([coordMm, coordMm]),
+	size: z.tuple([sizeMm, sizeMm])
+});
+export type DividerOpening = z.infer<typeof dividerOpeningSchema>;
+
+/** The divider's two plane axes (indexes into x, y, z) in the order openings use. */
+export function openingAxes(axis: 'x' | 'y' | 'z'): [0 | 1 | 2, 0 | 1 | 2] {
+	return axis === 'x' ? [1, 2] : axis === 'y' ? [0, 2] : [0, 1];
+}
+
 export const dividerDefSchema = z.object({
 	id: idSchema,
 	label: labelSchema,
@@ -102,7 +120,9 @@ export const dividerDefSchema = z.object({
 		})
 		.optional(),
 	/** Names of the compartments on its low and high side ('CPU side', 'card side'). */
-	sides: z.object({ low: labelSchema, high: labelSchema }).optional()
+	sides: z.object({ low: labelSchema, high: labelSchema }).optional(),
+	/** Cut-outs through the slab; they let tubes pass and leave the compartments as they are. */
+	openings: z.array(dividerOpeningSchema).max(20).optional()
 });
 export type DividerDef = z.infer<typeof dividerDefSchema>;
 
@@ -176,6 +196,7 @@ export const enclosureDefSchema = z
 				});
 			}
 		});
+		enc.dividers.forEach((d, i) => checkOpenings(enc, d, ['dividers', i, 'openings'], ctx));
 		const seen = new Set<string>();
 		(['dividers', 'brackets', 'mounts'] as const).forEach((list) => {
 			enc[list].forEach((item, i) => {
@@ -187,6 +208,65 @@ export const enclosureDefSchema = z
 		});
 	});
 export type EnclosureDef = z.infer<typeof enclosureDefSchema>;
+
+/** Each opening lies inside the divider's span on its plane axes and overlaps no other one. */
+function checkOpenings(
+	enc: { outerMm: number[]; walls: Record<FaceName, WallSpec> },
+	d: DividerDef,
+	path: (string | number)[],
+	ctx: z.RefinementCtx
+) {
+	const openings = d.openings ?? [];
+	if (openings.length === 0) return;
+	const w = enc.walls;
+	const faces: [FaceName, FaceName][] = [
+		['left', 'right'],
+		['bottom', 'top'],
+		['front', 'back']
+	];
+	const plane = openingAxes(d.axis).map((a) => {
+		const [lo, hi] = faces[a];
+		const inner =
+			enc.outerMm[a] - w[lo].thicknessMm - w[hi].thicknessMm + w[lo].offsetMm + w[hi].offsetMm;
+		const span = d.span?.[(['x', 'y', 'z'] as const)[a]];
+		return span ? span.maxMm - span.minMm : inner;
+	});
+	const seen = new Set<string>();
+	openings.forEach((o, k) => {
+		for (let j = 0; j < 2; j++) {
+			if (o.at[j] < 0) {
+				ctx.addIssue({
+					code: 'custom',
+					path: [...path, k, 'at', j],
+					message: 'Must not be negative'
+				});
+			} else if (o.at[j] + o.size[j] > plane[j] + 1e-6) {
+				ctx.addIssue({
+					code: 'custom',
+					path: [...path, k, 'size', j],
+					message: `Reaches past the divider (${plane[j]} mm on this axis)`
+				});
+			}
+		}
+		if (seen.has(o.id)) {
+			ctx.addIssue({ code: 'custom', path: [...path, k, 'id'], message: 'Duplicate id' });
+		}
+		seen.add(o.id);
+		for (let m = 0; m < k; m++) {
+			const p = openings[m];
+			const overlaps = [0, 1].every(
+				(j) => o.at[j] < p.at[j] + p.size[j] && p.at[j] < o.at[j] + o.size[j]
+			);
+			if (overlaps) {
+				ctx.addIssue({
+					code: 'custom',
+					path: [...path, k, 'at'],
+					message: `Overlaps opening ${p.id}`
+				});
+			}
+		}
+	});
+}
 /** An enclosure as a client may send it: defaults not yet filled in. */
 export type EnclosureInput = z.input<typeof enclosureDefSchema>;
 

@@ -127,7 +127,9 @@ export function demoEnclosure(): EnclosureDef {
 				axis: 'z',
 				thicknessMm: 2,
 				positions: { kind: 'list', options: [{ label: 'fixed', offsetMm: 64 }] },
-				sides: { low: 'radiator bay', high: '' }
+				sides: { low: 'radiator bay', high: '' },
+				// Over the radiator's end tank: its two ports' runs pass here (x 20–130, y 300–336 mm).
+				openings: [{ id: 'tubes', label: 'tube cut-out', at: [20, 300], size: [110, 36] }]
 			},
 			{
 				id: 'spine',
@@ -142,7 +144,9 @@ export function demoEnclosure(): EnclosureDef {
 					}))
 				},
 				span: { z: { minMm: 66, maxMm: 240 } },
-				sides: { low: 'CPU side', high: 'card side' }
+				sides: { low: 'CPU side', high: 'card side' },
+				// Above the card, in front of the pump-reservoir: y 200–335, z 75–140 mm.
+				openings: [{ id: 'tubes', label: 'tube cut-out', at: [200, 9], size: [135, 65] }]
 			}
 		],
 		brackets: [
@@ -328,9 +332,10 @@ export function demoParts(): PartDef[] {
 					box: box([5, 26, 10], [55, 51, 50])
 				}
 			],
+			// Placed turned (z 3), the inlet is the lower port and the outlet the upper one.
 			ports: [
-				{ id: 'in', position: [20, 26, 30], direction: '+y', thread: 'G 1/4' },
-				{ id: 'out', position: [40, 26, 30], direction: '+y', thread: 'G 1/4' }
+				{ id: 'in', position: [40, 26, 30], direction: '+y', thread: 'G 1/4' },
+				{ id: 'out', position: [20, 26, 30], direction: '+y', thread: 'G 1/4' }
 			],
 			/** Heat and draw of the processor it cools. */
 			specs: { heatW: 65, powerDrawW: 65 },
@@ -371,12 +376,21 @@ export function demoParts(): PartDef[] {
 					label: 'fittings',
 					kind: 'fitting',
 					severity: 'error',
-					box: box([9, 100, 20], [49, 110, 60])
+					box: box([9, 83.5, -10], [49, 100, 0])
+				},
+				{
+					id: 'fill',
+					label: 'fill plug',
+					kind: 'fitting',
+					severity: 'error',
+					box: box([19, 100, 30], [39, 110, 50])
 				}
 			],
+			// Inlet and outlet on the front face near the top, the fill port on the top.
 			ports: [
-				{ id: 'in', position: [19, 100, 40], direction: '+y', thread: 'G 1/4' },
-				{ id: 'out', position: [39, 100, 40], direction: '+y', thread: 'G 1/4' }
+				{ id: 'in', position: [19, 93.5, 0], direction: '-z', thread: 'G 1/4' },
+				{ id: 'out', position: [39, 93.5, 0], direction: '-z', thread: 'G 1/4' },
+				{ id: 'fill', position: [29, 100, 40], direction: '+y', thread: 'G 1/4' }
 			],
 			specs: { powerDrawW: 18 },
 			provenance: 'estimate',
@@ -390,8 +404,13 @@ export function demoParts(): PartDef[] {
 					label: 'fittings',
 					kind: 'fitting',
 					severity: 'error',
-					box: box([25, 315, 0], [115, 325, 30])
+					box: box([25, 301, 30], [118, 315, 40])
 				}
+			],
+			// The end tank's two ports face the back, above the fans (the upper fan ends 2 mm lower).
+			ports: [
+				{ id: 'in', position: [71.5, 308, 30], direction: '+z', thread: 'G 1/4' },
+				{ id: 'out', position: [105.5, 308, 30], direction: '+z', thread: 'G 1/4' }
 			],
 			specs: { radiatorClass: 280, radiatorThicknessMm: 30 },
 			provenance: 'estimate',
@@ -440,7 +459,7 @@ export function demoSceneInput(): SceneInput {
 			{
 				id: 'pump-res',
 				partId: 'demo-pump-res',
-				position: [90, 227, 110],
+				position: [90, 227, 140],
 				rotation: { x: 0, y: 0, z: 0 }
 			},
 			{

@@ -70,6 +70,7 @@ export interface ResolvedPlacement {
 export interface ResolvedScene {
 	innerBox: Box;
 	walls: WorldBox[];
+	/** Each divider's solid pieces: its slab minus its openings (ids from dividerPieceId). */
 	dividers: WorldBox[];
 	brackets: WorldBox[];
 	/** Adapter plates and standoff layers of mounts whose parts need them (see mountPlates). */

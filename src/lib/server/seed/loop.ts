@@ -6,6 +6,7 @@
 import { eq, inArray } from 'drizzle-orm';
 import { partDefSchema, type PartDef } from '$lib/geometry';
 import { defaultFittings, defaultTubeKinds } from '$lib/geometry/loop-library';
+import { demoParts } from '$lib/geometry/standard-library';
 import { checkPart } from '$lib/catalog/schemas';
 import { db } from '../db';
 import { parts, studioLoopSettings, tubeKinds } from '../db/schema';
@@ -31,23 +32,15 @@ const FITTING_PRICES: Record<string, number> = {
 	'plug-g14': 300
 };
 
-/** Ports the demo parts get when their stored definition has none (G 1/4, part frames). */
-const DEMO_PORTS: Record<string, PartDef['ports']> = {
-	// The slim radiator's end tank is on top, where its fitting keep-out is.
-	'demo-radiator-280': [
-		{ id: 'in', position: [45, 315, 15], direction: '+y', thread: 'G 1/4' },
-		{ id: 'out', position: [95, 315, 15], direction: '+y', thread: 'G 1/4' }
-	],
-	'demo-pump-res': [
-		{ id: 'in', position: [19, 100, 40], direction: '+y', thread: 'G 1/4' },
-		{ id: 'out', position: [39, 100, 40], direction: '+y', thread: 'G 1/4' },
-		{ id: 'fill', position: [29, 100, 65], direction: '+y', thread: 'G 1/4' }
-	],
-	'demo-cpu-block': [
-		{ id: 'in', position: [20, 26, 30], direction: '+y', thread: 'G 1/4' },
-		{ id: 'out', position: [40, 26, 30], direction: '+y', thread: 'G 1/4' }
-	]
-};
+/**
+ * Ports the demo parts get when their stored definition has none: the engine's demo parts' own
+ * (G 1/4, part frames; the radiator's and pump-reservoir's face the tube cut-outs).
+ */
+const DEMO_PORTS: Record<string, PartDef['ports']> = Object.fromEntries(
+	demoParts()
+		.filter((p) => p.ports.length > 0)
+		.map((p) => [p.id, p.ports])
+);
 
 /** The older demo fittings, told what kind they are (those rows keep their prices). */
 const DEMO_FITTING_KINDS: Record<string, Partial<PartDef['specs']>> = {
