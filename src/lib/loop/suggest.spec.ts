@@ -116,6 +116,34 @@ describe('suggest a route for a loop', () => {
 		expect(report.overlaps.filter((o) => o.kind === 'collides')).toEqual([]);
 	});
 
+	it('routes runs on bare ports: their ends are lifted off the part, lengths kept', () => {
+		const input = scene();
+		for (const run of input.loops![0].runs) run.fittings = { from: null, to: null };
+		const s = parse(input);
+		const resolved = resolveScene(s);
+		const req = routeRequest(s, resolved, checkLoops(s, resolved), 0, [0, 1]);
+		if (!req.ok) throw new Error(req.message);
+		// Reservoir out (220, 200, 75) +y, bare: the search starts 8 + 2 mm out (the 16 mm tube's
+		// half-width plus its clearance), and so does it end.
+		expect(req.runs[0].start.point).toEqual([220, 210, 75]);
+		expect(req.extraMm.r1).toBe(20);
+		const { results } = routeMany(req.runs, req.shared);
+		let settings = variantSettingsSchema.parse({ loops: input.loops });
+		for (const run of req.runs) {
+			const res = results[run.id];
+			expect(res.ok).toBe(true);
+			if (res.ok) settings = acceptRoute(settings, 0, run.id, res.routes[0].waypoints);
+		}
+		const report = checkScene(parse({ ...input, loops: settings.loops }));
+		for (const run of report.loops![0].runs) {
+			expect(run.problems.filter((p) => p.kind !== 'warning')).toEqual([]);
+			const res = results[run.runId];
+			if (res.ok) {
+				expect(run.lengthMm).toBeCloseTo(res.routes[0].lengthMm + req.extraMm[run.runId], 6);
+			}
+		}
+	});
+
 	it('keeps the other runs as obstacles when one run is routed', () => {
 		const s = parse(scene());
 		const resolved = resolveScene(s);

@@ -6,7 +6,12 @@
 import type { LoopDef, ResolvedScene, Scene, Vec3 } from '$lib/geometry';
 import { loopLookup, runEnds } from '$lib/geometry/loop-path';
 import { portEnd, routeObstacles } from '$lib/geometry/route-scene';
-import type { ManyRun, RouteInput, RouteObstacle } from '$lib/geometry/route';
+import {
+	sectionHalfWidthMm,
+	type ManyRun,
+	type RouteInput,
+	type RouteObstacle
+} from '$lib/geometry/route';
 import type { LoopReport } from '$lib/geometry/loop';
 import type { VariantSettings } from '$lib/builds/settings';
 import { updateRun } from './edit';
@@ -22,6 +27,8 @@ export type RouteRequest =
 	| {
 			ok: true;
 			runs: ManyRun[];
+			/** Per run id: mm to add to a route's length (the ends lifted off a bare port, see lift). */
+			extraMm: Record<string, number>;
 			shared: Omit<RouteInput, 'start' | 'end' | 'section' | 'bendRadiusMm' | 'mode'>;
 	  }
 	| { ok: false; message: string };
@@ -43,6 +50,7 @@ export function routeRequest(
 	const lookup = loopLookup(scene);
 	const routed = new Set(indexes.map((i) => loop.runs[i]?.id));
 	const runs: ManyRun[] = [];
+	const reaches: [number, number][] = [];
 	const ports = new Set<string>();
 	let clearanceMm = 0;
 	for (const i of indexes) {
@@ -64,7 +72,9 @@ export function routeRequest(
 		});
 		ports.add(run.from.placementId).add(run.to.placementId);
 		clearanceMm = Math.max(clearanceMm, tube.clearanceMm);
+		reaches.push([ends.fittings.from.reachMm, ends.fittings.to.reachMm]);
 	}
+	const extraMm = lift(runs, reaches, clearanceMm);
 	const others: RouteObstacle[] = reports.flatMap((lr) =>
 		lr.runs
 			.filter((rr) => !routed.has(rr.runId))
@@ -76,6 +86,7 @@ export function routeRequest(
 	return {
 		ok: true,
 		runs,
+		extraMm,
 		shared: {
 			bounds: resolved.innerBox,
 			obstacles,
@@ -99,6 +110,7 @@ export function cableRouteRequest(
 	indexes: readonly number[]
 ): RouteRequest {
 	const runs: ManyRun[] = [];
+	const reaches: [number, number][] = [];
 	const ports = new Set<string>();
 	let clearanceMm = 0;
 	for (const i of indexes) {
@@ -131,7 +143,9 @@ export function cableRouteRequest(
 		});
 		ports.add(c.from.placementId).add(c.to.placementId);
 		clearanceMm = Math.max(clearanceMm, c.clearanceMm);
+		reaches.push([reach(c.from.placementId, c.from.portId), reach(c.to.placementId, c.to.portId)]);
 	}
+	const extraMm = lift(runs, reaches, clearanceMm);
 	const tubes: RouteObstacle[] = reports.flatMap((lr) =>
 		lr.runs.flatMap((rr) => rr.pieces.map((p) => ({ box: p.tube, id: p.id, label: rr.label })))
 	);
@@ -141,6 +155,7 @@ export function cableRouteRequest(
 	return {
 		ok: true,
 		runs,
+		extraMm,
 		shared: {
 			bounds: resolved.innerBox,
 			obstacles,
@@ -163,6 +178,33 @@ export function acceptCableRoute(
 		...settings,
 		cables: settings.cables.map((c) => (c.id === cableId ? { ...c, waypoints: clean } : c))
 	};
+}
+
+/**
+ * A run on a bare port (a fitting or plug reaching less than the clearance) would start inside the
+ * clearance kept around its own part, and the search would find it shut in; and the loop check
+ * holds a bend's box half the tube's width further along each leg than the search does. So each
+ * end is moved out along its port's direction until it is half the width plus the clearance from
+ * the port face. The moved piece is straight on the first and last leg, so the waypoints mean the
+ * same; the lengths get the moved millimetres back.
+ */
+function lift(runs: ManyRun[], reaches: [number, number][], clearanceMm: number) {
+	const extraMm: Record<string, number> = {};
+	runs.forEach((run, i) => {
+		const half = sectionHalfWidthMm(run.section);
+		const [a, b] = reaches[i].map((r) => Math.max(0, clearanceMm + half - r));
+		run.start = { ...run.start, point: push(run.start.point, run.start.direction, a) };
+		run.end = { ...run.end, point: push(run.end.point, run.end.direction, b) };
+		extraMm[run.id] = a + b;
+	});
+	return extraMm;
+}
+
+function push(p: Vec3, face: string, mm: number): Vec3 {
+	const axis = 'xyz'.indexOf(face[1]);
+	const out = [...p] as Vec3;
+	out[axis] += face[0] === '+' ? mm : -mm;
+	return out;
 }
 
 /** The run's waypoints replaced by an accepted route's (then an ordinary run: checked, priced). */
