@@ -71,7 +71,9 @@ test('suggests every run of the demo loop, and the accepted routes are checked a
 	await expect(list.getByRole('listitem')).toHaveCount(3, { timeout: 60_000 });
 	// Each run: up to three routes with their bends and length; none says "No route".
 	for (const item of await list.getByRole('listitem').all()) {
-		await expect(item.getByText(/^Route 1: \d+ bends?, \d+\.\d\u2009mm$/)).toBeVisible();
+		await expect(
+			item.getByRole('radio', { name: /^Route 1: \d+ bends?, \d+\.\d+\s?mm$/ })
+		).toBeChecked();
 	}
 	await expect(list).not.toContainText('No route');
 	await suggest.getByRole('button', { name: 'Accept all 3 routes' }).click();
@@ -83,7 +85,7 @@ test('suggests every run of the demo loop, and the accepted routes are checked a
 			panel.getByRole('list', { name: `Run ${n} problems` }).getByRole('listitem')
 		).toHaveCount(0);
 	}
-	await expect(runs.nth(0)).toContainText(/Cut \d+\.\d\u2009mm, \d+ bends?/);
+	await expect(runs.nth(0)).toContainText(/Cut \d+\.\d+\s?mm, \d+\s+bends?/);
 	await expect(
 		panel.getByRole('list', { name: 'Loop checks' }).getByRole('listitem')
 	).not.toHaveCount(0);
@@ -106,7 +108,7 @@ test('suggests every run of the demo loop, and the accepted routes are checked a
 	await routed.getByRole('button', { name: 'Accept the route for 24-pin' }).click();
 	await expect(cables.locator('[data-cable="cable-24"]')).toHaveAttribute('data-status', 'clear');
 	await expect(cables.locator('[data-cable="cable-24"]')).toContainText(
-		/^24-pin: about \d+0\u2009mm, behind the supply, up the board$/
+		/24-pin: about \d+0\u2009mm, behind the supply, up the board/
 	);
 
 	// Priced: the quote follows the variant, with the tube the runs use (once it is saved).
@@ -115,8 +117,16 @@ test('suggests every run of the demo loop, and the accepted routes are checked a
 	await page.goto('/builds/demo-build/quote/demo-variant-a');
 	const start = page.getByRole('button', { name: 'Start the quote' });
 	if (await start.isVisible()) await start.click();
-	await expect(
-		page.getByRole('button', { name: /^Remove Loop · Hard tube 12 mm: \d\.\d\d m cut/ })
-	).toBeVisible();
+	const refresh = page.getByRole('button', { name: 'Update parts from the variant' });
+	await refresh.click();
+	const tube = page.getByRole('row', { name: /^Loop · Hard tube 12 mm: \d\.\d\d m cut/ });
+	await expect(tube).toBeVisible();
+	// The studio's price for the tube, per whole metre.
+	await expect(tube).toContainText('7.00');
+	// Put the quote's lines back to the seeded variant's.
+	await restoreDemoVariant();
+	await page.reload();
+	await refresh.click();
+	await expect(tube).toHaveCount(0);
 	await context.close();
 });
