@@ -874,7 +874,7 @@ function dijkstra1mm(input: RouteInput): number {
 	return best;
 }
 
-function routeRows() {
+function routeRows(withDijkstra = true) {
 	const scene = hundredPartScene();
 	const shared = routeShared(scene);
 	const [, s, sd, e, ed] = LOOP_RUNS[0];
@@ -897,7 +897,11 @@ function routeRows() {
 		mode: 'hard'
 	}));
 	const loop = time(() => routeMany(runs, shared), 5, 1);
+	const loopCpu = cpuMedian(() => routeMany(runs, shared), 5);
 	const routed = Object.values(loop.result.results).filter((x) => x.ok).length;
+	const singleCpu = cpuMedian(() => findRoute(one), 21);
+	const head = { single, singleCpu, bends: single.result.routes[0].bends, loop, loopCpu, routed };
+	if (!withDijkstra) return { ...head, cropEngineMs: NaN, cropDijkstraMs: NaN, cropCost: NaN };
 	// The same scene cropped to a 120 × 100 × 120 mm corner, small enough for a 1 mm grid.
 	const crop: Box = { min: [0, 0, 0], max: [120, 100, 120] };
 	const cropped: RouteInput = {
@@ -925,10 +929,7 @@ function routeRows() {
 		throw new Error(`route_vs_dijkstra: engine cost ${cost}, 1 mm Dijkstra ${reference}`);
 	}
 	return {
-		single,
-		bends: single.result.routes[0].bends,
-		loop,
-		routed,
+		...head,
 		cropEngineMs: timed.engine.ms,
 		cropDijkstraMs: timed.dijkstra.ms,
 		cropCost: cost
@@ -1052,5 +1053,27 @@ function main(): void {
 	);
 }
 
+/**
+ * BENCH_ONLY=route runs only the route rows (for profiling them); BENCH_ONLY=route-fast leaves out
+ * the 1 mm Dijkstra reference, which takes tens of seconds.
+ */
+function routeOnly(): void {
+	const route = routeRows(process.env.BENCH_ONLY !== 'route-fast');
+	const round = (v: number) => Math.round(v * 10_000) / 10_000;
+	console.log(
+		JSON.stringify({
+			route_ms: round(route.single.ms),
+			route_cpu_ms: round(route.singleCpu),
+			loop_route_ms: round(route.loop.ms),
+			loop_route_cpu_ms: round(route.loopCpu),
+			loop_routed: route.routed,
+			route_vs_dijkstra: round(route.cropEngineMs / route.cropDijkstraMs),
+			route_crop_engine_ms: round(route.cropEngineMs),
+			route_crop_dijkstra_ms: round(route.cropDijkstraMs)
+		})
+	);
+}
+
 if (process.env.BENCH_ONLY?.startsWith('fits')) fitsOnly();
+else if (process.env.BENCH_ONLY?.startsWith('route')) routeOnly();
 else main();

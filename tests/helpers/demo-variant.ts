@@ -3,7 +3,7 @@
  * scene's settings), so browser tests that change it leave the seed for the others.
  */
 import { eq } from 'drizzle-orm';
-import { demoSceneInput } from '../../src/lib/geometry/standard-library';
+import { demoCables, demoSceneInput } from '../../src/lib/geometry/standard-library';
 import { db } from '../../src/lib/server/db';
 import { variants } from '../../src/lib/server/db/schema';
 import { testDatabaseUrl } from '../../src/lib/server/testing/env';
@@ -18,7 +18,8 @@ export async function restoreDemoVariant() {
 		bracketOffsets: s.bracketOffsets,
 		placements: s.placements,
 		marginMm: s.marginMm,
-		budgets: s.budgets
+		budgets: s.budgets,
+		cables: demoCables()
 	};
 	await db
 		.update(variants)

@@ -322,6 +322,8 @@ export function fittingsByThread(resolved: ResolvedScene): ThreadCount[] {
 	for (const rp of resolved.placements) {
 		if (rp.part.category === 'fitting') continue;
 		for (const port of rp.ports) {
+			// A power port takes a cable's plug, not a fitting.
+			if (port.kind === 'power') continue;
 			let entry = counts.get(port.thread);
 			if (!entry) {
 				entry = { thread: port.thread, ports: 0, withPlacedFitting: 0, byPart: [] };

@@ -10,6 +10,7 @@ import {
 	allowedPositions,
 	budgetsSchema,
 	loopSchema,
+	cableSchema,
 	placementSchema,
 	type EnclosureDef,
 	type PartDef,
@@ -36,7 +37,9 @@ export const variantSettingsSchema = z.object({
 		.default(2),
 	budgets: budgetsSchema.default({ wattsPer120mm: 100, psuHeadroomPct: 30 }),
 	/** The variant's coolant loops (docs/scene-format.md); optional, so older settings stay valid. */
-	loops: z.array(loopSchema).max(8, 'At most 8 loops').optional()
+	loops: z.array(loopSchema).max(8, 'At most 8 loops').optional(),
+	/** The variant's power cable bundles (docs/scene-format.md); optional like the loops. */
+	cables: z.array(cableSchema).max(50, 'At most 50 cables').optional()
 });
 export type VariantSettings = z.infer<typeof variantSettingsSchema>;
 
@@ -67,6 +70,7 @@ export function composeScene(
 	const tubes = new Set(catalogueIdsOf(settings).tubeKinds);
 	return {
 		...(loops ? { loops, tubeKinds: tubeKinds.filter((t) => tubes.has(t.id)) } : {}),
+		...(settings.cables?.length ? { cables: settings.cables } : {}),
 		format: SCENE_FORMAT,
 		version: SCENE_VERSION,
 		enclosure,

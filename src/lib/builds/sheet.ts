@@ -39,6 +39,7 @@ import {
 import { CAUTIONS, PLANNING_NOTE } from './cautions';
 import { gapWords, mountProblemDetail } from '../words/builds';
 import { countWords } from '../words/format';
+import { cableWords } from '../words/sheet';
 import {
 	AXIS_ENDS,
 	AXIS_WORDS,
@@ -160,7 +161,7 @@ export interface ChecklistItem {
 }
 
 export interface ChecklistGroup {
-	id: 'settings' | 'order' | 'fittings' | 'loop' | 'cautions';
+	id: 'settings' | 'order' | 'fittings' | 'loop' | 'cables' | 'cautions';
 	title: string;
 	items: ChecklistItem[];
 }
@@ -334,7 +335,7 @@ function partLines(scene: Scene, resolved: ResolvedScene, report: FitReport): Pa
 					? `${rp.part.provenance}, ±${mm(rp.part.toleranceMm)}`
 					: rp.part.provenance,
 			smallestGap: smallest ? gapText(smallest[0], smallest[1]) : null,
-			ports: rp.ports.length
+			ports: rp.ports.filter((p) => p.kind !== 'power').length
 		};
 	});
 }
@@ -677,6 +678,15 @@ export function buildSheet(input: SheetInput): SheetModel {
 							...loop.checks
 						]
 					: []
+			},
+			{
+				id: 'cables',
+				title: 'Power cables to order',
+				items: (report.cables ?? []).map((c) => ({
+					key: `cable:${c.cableId}`,
+					text: `${cableWords(c.label, c.lengthMm + c.plugReachMm, c.where)}.`,
+					detail: c.problems.length ? c.problems.map((p) => `${p.text}.`).join(' ') : null
+				}))
 			},
 			{
 				id: 'cautions',

@@ -660,7 +660,9 @@ export interface PortUse {
 export function portUse(base: ProbeBase, placed: ResolvedPlacement): PortUse[] {
 	activatePlates(base, placed);
 	const fittings = placed.keepouts.filter((k) => k.keepoutKind === 'fitting');
-	return placed.ports.map((p) => {
+	// A power port takes a cable's plug, not a fitting.
+	const coolant = placed.ports.filter((p) => p.kind !== 'power');
+	return coolant.map((p) => {
 		const axis = 'xyz'.indexOf(p.direction[1]);
 		const sign = p.direction[0] === '+' ? 1 : -1;
 		const min = [...p.position] as Vec3;

@@ -34,3 +34,4 @@ export { unionVolume } from './union';
 export { heatBudget, powerBudget } from './budgets';
 export { sweep, sweepGrid, feasibleIntervals } from './sweep';
 export * from './loop';
+export { checkCables, cableBoxes, type CableReport, type CableProblem } from './cables';

@@ -2,6 +2,7 @@
 
 import { STATUS_ORDER, type FitReport, type FitStatus, type ResolvedScene } from './types';
 import { checkLoops, partsHitByRuns } from './loop';
+import { checkCables } from './cables';
 import type { Scene } from './schema';
 
 /**
@@ -9,7 +10,11 @@ import type { Scene } from './schema';
  * or blocks takes that status (and the counts follow), as it would for another part's body.
  */
 export function withLoops(scene: Scene, resolved: ResolvedScene, report: FitReport): FitReport {
-	if (!scene.loops?.length) return report;
+	// Power cables are checked like runs, clear of the runs too; they change no part's status.
+	if (!scene.loops?.length) {
+		if (scene.cables?.length) report.cables = checkCables(scene, resolved);
+		return report;
+	}
 	const loops = checkLoops(scene, resolved);
 	const hit = partsHitByRuns(loops);
 	for (const part of report.parts) {
@@ -24,5 +29,6 @@ export function withLoops(scene: Scene, resolved: ResolvedScene, report: FitRepo
 		}
 	}
 	report.loops = loops;
+	if (scene.cables?.length) report.cables = checkCables(scene, resolved, loops);
 	return report;
 }

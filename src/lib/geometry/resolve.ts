@@ -70,7 +70,8 @@ export function placePart(part: PartDef, placement: Placement): ResolvedPlacemen
 			id: p.id,
 			position: [turned[0] + shift[0], turned[1] + shift[1], turned[2] + shift[2]] as Vec3,
 			direction: rotateDirection(map, p.direction),
-			thread: p.thread
+			thread: p.thread,
+			...(p.kind === 'power' ? { kind: 'power' as const } : {})
 		};
 	});
 	const bounds: Box = { min: [...turnedBounds.min], max: [...turnedBounds.max] };

@@ -398,6 +398,75 @@ describe('findRoute', { timeout: 180_000 }, () => {
 		);
 	});
 
+	it('gives each run among several the optimum among the runs placed before it (brute-force Dijkstra)', () => {
+		// routeMany keeps a run's own best route when it is still clear of the runs placed before;
+		// the oracle searches again with those runs' boxes as obstacles.
+		const second = fc.record({
+			s: fc.tuple(
+				fc.integer({ min: 2, max: 18 }),
+				fc.integer({ min: 2, max: 10 }),
+				fc.integer({ min: 2, max: 10 })
+			),
+			e: fc.tuple(
+				fc.integer({ min: 2, max: 18 }),
+				fc.integer({ min: 2, max: 10 }),
+				fc.integer({ min: 2, max: 10 })
+			),
+			sd: fc.constantFrom(...FACES),
+			ed: fc.constantFrom(...FACES)
+		});
+		fc.assert(
+			fc.property(
+				sceneArb,
+				second.filter((t) => t.s.join() !== t.e.join()),
+				(input, t) => {
+					const shared = {
+						bounds: input.bounds,
+						obstacles: input.obstacles,
+						clearanceMm: input.clearanceMm,
+						bendPenaltyMm: input.bendPenaltyMm
+					};
+					const common = {
+						section: input.section,
+						bendRadiusMm: input.bendRadiusMm,
+						mode: 'hard' as const
+					};
+					const runs = [
+						{ id: 'a', start: input.start, end: input.end, ...common },
+						{
+							id: 'b',
+							start: { point: t.s as Vec3, direction: t.sd },
+							end: { point: t.e as Vec3, direction: t.ed },
+							...common
+						}
+					];
+					const { order, results } = routeMany(runs, shared);
+					const before: Box[] = [];
+					for (const id of order) {
+						const run = runs.find((x) => x.id === id)!;
+						const oracle = bruteForce({
+							...input,
+							...run,
+							obstacles: [...input.obstacles, ...before]
+						});
+						const res = results[id];
+						expect(res.ok).toBe(oracle !== Infinity);
+						if (!res.ok) continue;
+						expect(res.routes[0].cost).toBeCloseTo(oracle, 6);
+						before.push(
+							...routeBoxes(
+								[run.start.point, ...res.routes[0].waypoints, run.end.point],
+								run.section,
+								run.bendRadiusMm
+							)
+						);
+					}
+				}
+			),
+			{ numRuns: 40, seed: 1717 }
+		);
+	});
+
 	it('routes several runs hardest first, each clear of the ones before', () => {
 		const shared = {
 			bounds: { min: [0, 0, 0], max: [200, 120, 120] } as Box,

@@ -130,9 +130,20 @@ function directionOf(a: Vec3, b: Vec3): number {
 }
 
 /** The exact bounding box of a 90° bend at corner p, arriving along d1 and leaving along d2. */
-function bendBox(p: Vec3, d1: number, d2: number, r: number, half: number): Box {
-	const min: Vec3 = [p[0] - half, p[1] - half, p[2] - half];
-	const max: Vec3 = [p[0] + half, p[1] + half, p[2] + half];
+function bendBox(
+	p: Vec3,
+	d1: number,
+	d2: number,
+	r: number,
+	half: number,
+	out: Box = { min: [0, 0, 0], max: [0, 0, 0] }
+): Box {
+	// `out` lets the search reuse one box per query instead of allocating one per move.
+	const { min, max } = out;
+	for (let i = 0; i < 3; i++) {
+		min[i] = p[i] - half;
+		max[i] = p[i] + half;
+	}
 	const a1 = AXIS_OF[d1];
 	const a2 = AXIS_OF[d2];
 	// Along d1 the tube starts bending r before the corner and bulges half beyond it.
@@ -147,13 +158,19 @@ function bendBox(p: Vec3, d1: number, d2: number, r: number, half: number): Box 
 	} else {
 		min[a2] = p[a2] - r;
 	}
-	return { min, max };
+	return out;
 }
 
 /** A straight piece from a to b grown by `half` across its axis (and `back`/`front` along it). */
-function pieceBox(a: Vec3, b: Vec3, half: number, back = 0, front = 0): Box {
-	const min: Vec3 = [0, 0, 0];
-	const max: Vec3 = [0, 0, 0];
+function pieceBox(
+	a: Vec3,
+	b: Vec3,
+	half: number,
+	back = 0,
+	front = 0,
+	out: Box = { min: [0, 0, 0], max: [0, 0, 0] }
+): Box {
+	const { min, max } = out;
 	const axis = segmentAxis(a, b);
 	for (let i = 0; i < 3; i++) {
 		const lo = Math.min(a[i], b[i]);
@@ -167,7 +184,7 @@ function pieceBox(a: Vec3, b: Vec3, half: number, back = 0, front = 0): Box {
 			max[i] = hi + half;
 		}
 	}
-	return { min, max };
+	return out;
 }
 
 /**
@@ -405,9 +422,16 @@ class Heap {
 		return this.f[i] < this.f[j] || (this.f[i] === this.f[j] && this.g[i] > this.g[j]);
 	}
 	private swap(i: number, j: number) {
-		[this.f[i], this.f[j]] = [this.f[j], this.f[i]];
-		[this.g[i], this.g[j]] = [this.g[j], this.g[i]];
-		[this.s[i], this.s[j]] = [this.s[j], this.s[i]];
+		const { f, g, s } = this;
+		const tf = f[i];
+		f[i] = f[j];
+		f[j] = tf;
+		const tg = g[i];
+		g[i] = g[j];
+		g[j] = tg;
+		const ts = s[i];
+		s[i] = s[j];
+		s[j] = ts;
 	}
 	push(f: number, g: number, s: number) {
 		this.f.push(f);
@@ -625,12 +649,21 @@ function search(input: RouteInput, prep: Prepared, opt: SearchOptions): SearchAn
 	const si = [findCoord(xs, S[0]), findCoord(ys, S[1]), findCoord(zs, S[2])];
 	const goalNode = ei[0] + nx * (ei[1] + ny * ei[2]);
 	const GOAL = -2;
-	const point = (n: number): Vec3 => {
+	const point = (n: number, out: Vec3 = [0, 0, 0]): Vec3 => {
 		const i = n % nx;
 		const j = Math.floor(n / nx) % ny;
 		const k = Math.floor(n / (nx * ny));
-		return [xs[i], ys[j], zs[k]];
+		out[0] = xs[i];
+		out[1] = ys[j];
+		out[2] = zs[k];
+		return out;
 	};
+	// Scratch for the hot loop (no allocation per move): the box queried, the current point, the next.
+	const qb: Box = { min: [0, 0, 0], max: [0, 0, 0] };
+	const P: Vec3 = [0, 0, 0];
+	const Q: Vec3 = [0, 0, 0];
+	const idx = [0, 0, 0];
+	const stride = [1, nx, nx * ny];
 	const ae = AXIS_OF[ed];
 	/**
 	 * Lower bound of the cost to the end. Per axis, the travel needed, counting the legs the
@@ -681,7 +714,9 @@ function search(input: RouteInput, prep: Prepared, opt: SearchOptions): SearchAn
 	let goalG = Infinity;
 	let goalParent = -1;
 	let best = { h: Infinity, state: -1 };
-	const blockersOf = new Map<number, Set<number>>();
+	// Only the closest state's blockers are ever told, so only its are kept: its moves are tried
+	// right after it becomes the closest, and a closer one starts a new set.
+	let bestBlockers = new Set<number>();
 
 	const relax = (state: number, g: number, from: number, p: Vec3, d: number) => {
 		if (gGet(state) <= g + 1e-9) return;
@@ -697,9 +732,7 @@ function search(input: RouteInput, prep: Prepared, opt: SearchOptions): SearchAn
 	};
 	const noteBlock = (from: number, o: number) => {
 		if (o < 0) return;
-		let set = blockersOf.get(from);
-		if (!set) blockersOf.set(from, (set = new Set()));
-		set.add(o);
+		if (from === best.state) bestBlockers.add(o);
 	};
 
 	/** Index along axis `a` of the first coordinate at least `dist` from `from` in direction `d`. */
@@ -785,24 +818,29 @@ function search(input: RouteInput, prep: Prepared, opt: SearchOptions): SearchAn
 		}
 		const d = state % 6;
 		const n = (state - d) / 6;
-		const P = point(n);
+		point(n, P);
 		const hp = top.f - g;
-		if (hp < best.h) best = { h: hp, state };
-		const idx = [n % nx, Math.floor(n / nx) % ny, Math.floor(n / (nx * ny))];
+		if (hp < best.h) {
+			best = { h: hp, state };
+			bestBlockers = new Set();
+		}
+		idx[0] = n % nx;
+		idx[1] = Math.floor(n / nx) % ny;
+		idx[2] = Math.floor(n / (nx * ny));
 		const a = AXIS_OF[d];
 
 		// Straight on to the next plane.
 		const next = idx[a] + SIGN_OF[d];
 		if (next >= 0 && next < coords[a].length) {
-			const m = withAxis(idx, a, next);
-			const Q = point(m);
+			const m = n + (next - idx[a]) * stride[a];
+			point(m, Q);
 			const len = Math.abs(Q[a] - P[a]);
 			if (m === goalNode && d === ed) {
-				const o = clear(pieceBox(P, Q, half, half, 0));
+				const o = clear(pieceBox(P, Q, half, half, 0, qb));
 				if (o === -1) reachGoal(g + len + penaltyCost(P, Q, penalties), state);
 				else noteBlock(state, o);
 			}
-			const o = clear(pieceBox(P, Q, half, half, half));
+			const o = clear(pieceBox(P, Q, half, half, half, qb));
 			if (o === -1) relax(m * 6 + d, g + len + penaltyCost(P, Q, penalties), state, Q, d);
 			else noteBlock(state, o);
 		}
@@ -811,7 +849,7 @@ function search(input: RouteInput, prep: Prepared, opt: SearchOptions): SearchAn
 		for (let d2 = 0; d2 < 6; d2++) {
 			const a2 = AXIS_OF[d2];
 			if (a2 === a) continue;
-			const o = clear(bendBox(P, d, d2, r, half));
+			const o = clear(bendBox(P, d, d2, r, half, qb));
 			if (o !== -1) {
 				noteBlock(state, o);
 				continue;
@@ -819,16 +857,16 @@ function search(input: RouteInput, prep: Prepared, opt: SearchOptions): SearchAn
 			if (d2 === ed) {
 				const dist = onRay(P, d2);
 				if (dist >= r - 1e-6 && dist > 1e-6) {
-					const ob = clear(pieceBox(P, E, half, half, 0));
+					const ob = clear(pieceBox(P, E, half, half, 0, qb));
 					if (ob === -1) reachGoal(g + B + dist + penaltyCost(P, E, penalties), state);
 					else noteBlock(state, ob);
 				}
 			}
 			const li = landing(a2, P[a2], d2, Math.max(2 * r, 1e-3));
 			if (li < 0) continue;
-			const m = withAxis(idx, a2, li);
-			const L = point(m);
-			const ob = clear(pieceBox(P, L, half, half, half));
+			const m = n + (li - idx[a2]) * stride[a2];
+			const L = point(m, Q);
+			const ob = clear(pieceBox(P, L, half, half, half, qb));
 			if (ob !== -1) {
 				noteBlock(state, ob);
 				continue;
@@ -848,7 +886,7 @@ function search(input: RouteInput, prep: Prepared, opt: SearchOptions): SearchAn
 			found: false,
 			expansions,
 			exhausted: true,
-			blockers: best.state >= 0 ? [...(blockersOf.get(best.state) ?? [])] : [],
+			blockers: [...bestBlockers],
 			startBlockedBy
 		};
 	}
@@ -1052,6 +1090,39 @@ function explain(
 	};
 }
 
+/** Do the boxes keep `clearanceMm` from every one of `others` (touching at that distance is clear)? */
+function clearOf(boxes: readonly Box[], others: readonly Box[], clearanceMm: number): boolean {
+	for (const b of boxes) {
+		for (const o of others) {
+			let overlap = true;
+			for (let a = 0; a < 3 && overlap; a++) {
+				overlap =
+					Math.min(b.max[a], o.max[a] + clearanceMm) - Math.max(b.min[a], o.min[a] - clearanceMm) >
+					EPS;
+			}
+			if (overlap) return false;
+		}
+	}
+	return true;
+}
+
+/**
+ * Routes several runs each on its own, none an obstacle for another: for cable bundles, which may
+ * lie together. Same answer shape as routeMany, in the runs' order.
+ */
+export function routeEach(
+	runs: readonly ManyRun[],
+	shared: Omit<RouteInput, 'start' | 'end' | 'section' | 'bendRadiusMm' | 'mode'>,
+	onProgress?: (done: number, total: number) => void
+): { order: string[]; results: Record<string, RouteResult> } {
+	const results: Record<string, RouteResult> = {};
+	runs.forEach((run, i) => {
+		results[run.id] = findRoute({ ...shared, ...run });
+		onProgress?.(i + 1, runs.length);
+	});
+	return { order: runs.map((r) => r.id), results };
+}
+
 /** One run to route among several (see routeMany). */
 export interface ManyRun {
 	id: string;
@@ -1069,27 +1140,47 @@ export interface ManyRun {
  */
 export function routeMany(
 	runs: readonly ManyRun[],
-	shared: Omit<RouteInput, 'start' | 'end' | 'section' | 'bendRadiusMm' | 'mode'>
+	shared: Omit<RouteInput, 'start' | 'end' | 'section' | 'bendRadiusMm' | 'mode'>,
+	/** Told after each search: `done` of `total` (each run is searched alone, then in order). */
+	onProgress?: (done: number, total: number) => void
 ): { order: string[]; results: Record<string, RouteResult> } {
+	const total = runs.length * 2;
+	let done = 0;
 	const solo = runs.map((run) => {
 		const res = findRoute({ ...shared, ...run, maxAlternatives: 1 });
+		onProgress?.(++done, total);
 		return { run, res, cost: res.ok ? res.routes[0].cost : Infinity };
 	});
 	solo.sort((a, b) => b.cost - a.cost || (a.run.id < b.run.id ? -1 : 1));
 	const obstacles: (Box | RouteObstacle)[] = [...shared.obstacles];
 	const results: Record<string, RouteResult> = {};
-	solo.forEach(({ run, res: alone }, k) => {
-		// The first run sees only the scene: its search alone is its answer.
-		const res =
-			k === 0 && (shared.maxAlternatives ?? 1) === 1
-				? alone
-				: findRoute({ ...shared, ...run, obstacles });
+	const c = shared.clearanceMm;
+	const placed: Box[] = [];
+	solo.forEach(({ run, res: alone }) => {
+		// Runs placed before only take free space away, so a run's best route alone that is still
+		// clear of them (with the clearance) is still its best: no second search. The first run sees
+		// only the scene, so its search alone is always its answer.
+		const reuse =
+			alone.ok &&
+			(shared.maxAlternatives ?? 1) === 1 &&
+			clearOf(
+				routeBoxes(
+					[run.start.point, ...alone.routes[0].waypoints, run.end.point],
+					run.section,
+					run.bendRadiusMm
+				),
+				placed,
+				c
+			);
+		const res = reuse ? alone : findRoute({ ...shared, ...run, obstacles });
+		onProgress?.(++done, total);
 		results[run.id] = res;
 		if (res.ok) {
 			const points = [run.start.point, ...res.routes[0].waypoints, run.end.point];
-			routeBoxes(points, run.section, run.bendRadiusMm).forEach((box, i) =>
-				obstacles.push({ box, id: `run:${run.id}#${i + 1}`, label: `run ${run.id}` })
-			);
+			routeBoxes(points, run.section, run.bendRadiusMm).forEach((box, i) => {
+				placed.push(box);
+				obstacles.push({ box, id: `run:${run.id}#${i + 1}`, label: `run ${run.id}` });
+			});
 		}
 	});
 	return { order: solo.map((s) => s.run.id), results };

@@ -459,9 +459,36 @@ export const loopSchema = z.object({
 		.default([]),
 	/** The plugged port the loop is filled through, and the one it is drained through. */
 	fill: portRefSchema.optional(),
-	drain: portRefSchema.optional()
+	drain: portRefSchema.optional(),
+	/** Route suggestions: one bend costs as much as this many mm of tube (missing: 100). */
+	bendPenaltyMm: z
+		.number({ error: 'Must be a finite number' })
+		.min(0, 'Must not be negative')
+		.max(10_000, 'At most 10,000 mm')
+		.optional()
 });
 export type LoopDef = z.infer<typeof loopSchema>;
+
+/**
+ * A power cable bundle from a supply connector to a board's or card's power input (ports of kind
+ * power): a flat section, a minimum bend radius, and the intermediate points of its centre line
+ * (the ends are the ports pushed out by their `plugReachMm`). Checked like a coolant run.
+ */
+export const cableSchema = z.object({
+	id: idSchema,
+	/** What the builder orders it as: "24-pin", "8-pin processor", "card power". */
+	label: z.string().min(1, 'Required').max(200, 'At most 200 characters'),
+	from: portRefSchema,
+	to: portRefSchema,
+	widthMm: sizeMm,
+	thicknessMm: sizeMm,
+	minBendRadiusMm: thicknessMm,
+	clearanceMm: thicknessMm.default(2),
+	/** Where it runs, for the sheet ("behind the board tray"); optional. */
+	where: z.string().max(200, 'At most 200 characters').optional(),
+	waypoints: z.array(vec3Schema).max(200, 'At most 200 waypoints').default([])
+});
+export type CableDef = z.infer<typeof cableSchema>;
 
 export const SCENE_FORMAT = 'interstice.scene';
 export const SCENE_VERSION = 1;
@@ -482,7 +509,9 @@ const sceneObjectSchema = z.object({
 	/** Tube kinds the loops use (optional; version 1 scenes without loops mean the same). */
 	tubeKinds: z.array(tubeKindSchema).max(100).optional(),
 	/** Coolant loops: ordered cycles of ports joined by runs (see docs/scene-format.md). */
-	loops: z.array(loopSchema).max(8, 'At most 8 loops').optional()
+	loops: z.array(loopSchema).max(8, 'At most 8 loops').optional(),
+	/** Power cable bundles (optional; version 1 scenes without them mean the same). */
+	cables: z.array(cableSchema).max(50, 'At most 50 cables').optional()
 });
 
 type SceneShape = z.infer<typeof sceneObjectSchema>;
@@ -575,6 +604,38 @@ function refineScene(scene: SceneShape, ctx: RefineCtx) {
 	for (const issue of loopIssues(scene)) {
 		ctx.addIssue({ code: 'custom', path: issue.path, message: issue.message });
 	}
+	checkCablePorts(scene, parts, ctx);
+}
+
+/** Every cable joins two power ports of placed parts. */
+function checkCablePorts(scene: SceneShape, parts: Map<string, PartDef>, ctx: RefineCtx) {
+	const placements = new Map(scene.placements.map((p) => [p.id, p]));
+	(scene.cables ?? []).forEach((c, i) => {
+		for (const key of ['from', 'to'] as const) {
+			const ref = c[key];
+			const placement = placements.get(ref.placementId);
+			const port = placement && parts.get(placement.partId)?.ports.find((p) => p.id === ref.portId);
+			if (!placement) {
+				ctx.addIssue({
+					code: 'custom',
+					path: ['cables', i, key, 'placementId'],
+					message: 'No placement with this id'
+				});
+			} else if (!port) {
+				ctx.addIssue({
+					code: 'custom',
+					path: ['cables', i, key, 'portId'],
+					message: 'No port with this id on that part'
+				});
+			} else if (port.kind !== 'power') {
+				ctx.addIssue({
+					code: 'custom',
+					path: ['cables', i, key, 'portId'],
+					message: 'A cable joins power ports; this one is a coolant port'
+				});
+			}
+		}
+	});
 }
 export const sceneSchema = sceneObjectSchema.superRefine(refineScene);
 export type Scene = z.infer<typeof sceneSchema>;

@@ -11,12 +11,14 @@ import {
 	SLOT_PITCH_MM,
 	sceneSchema,
 	type Box,
+	type CableDef,
 	type EnclosureDef,
 	type PartDef,
 	type Scene,
 	type SceneInput,
 	type Vec3
 } from './schema';
+import type { Face } from './box';
 
 export function box(min: Vec3, max: Vec3): Box {
 	return { min: [...min], max: [...max] };
@@ -291,12 +293,32 @@ export function demoTowerEnclosure(): EnclosureDef {
 
 /** Invented generic parts for the demo; sizes are plausible, not any product's. */
 export function demoParts(): PartDef[] {
+	// Power ports (invented positions): a plug's reach is the plug plus the straight cable it needs
+	// before its first bend, about 25 mm for a 24-pin or 8-pin (common practice, from memory).
+	const power = (id: string, position: Vec3, direction: Face, plugReachMm: number) => ({
+		id,
+		position,
+		direction,
+		thread: 'none',
+		kind: 'power' as const,
+		plugReachMm
+	});
 	return [
-		standardPart('std-mini-itx'),
+		{
+			...standardPart('std-mini-itx'),
+			// The demo board's parts face its -y side (the tray holds it that way round).
+			ports: [power('atx24', [120, 0, 140], '-y', 25), power('eps8', [160, 0, 30], '-y', 25)]
+		},
 		standardPart('std-fan-140-25'),
 		solidPart('demo-psu', 'SFX supply, 600 W', 'psu', [125, 63.5, 100], {
 			specs: { psuFormFactor: 'SFX', psuRatingW: 600 },
-			provenance: 'estimate'
+			provenance: 'estimate',
+			// Modular sockets on its back face.
+			ports: [
+				power('atx24', [100, 30, 100], '+z', 20),
+				power('eps8', [70, 30, 100], '+z', 20),
+				power('pcie', [40, 30, 100], '+z', 20)
+			]
 		}),
 		{
 			...solidPart('demo-cpu-block', 'Compact CPU block, 26 mm tall', 'cpu-block', [60, 26, 60]),
@@ -335,6 +357,8 @@ export function demoParts(): PartDef[] {
 					box: box([185, 80, 0], [215, 120, 2 * SLOT_PITCH_MM])
 				}
 			],
+			// At its end, into the "power cable bend" room.
+			ports: [power('power', [185, 100, SLOT_PITCH_MM], '+x', 20)],
 			specs: { heatW: 160, powerDrawW: 170, cardLengthMm: 185, cardSlots: 2 },
 			provenance: 'estimate',
 			toleranceMm: 1
@@ -463,6 +487,39 @@ export function demoSceneInput(): SceneInput {
 		marginMm: 2,
 		budgets: { wattsPer120mm: 100, psuHeadroomPct: 30 }
 	};
+}
+
+/**
+ * The demo's power cable bundles, drawn straight from plug to plug (no waypoints yet: route them
+ * with "suggest a route"). Flat bundles of insulated 18 AWG wires, about 2.2 mm a wire, in two
+ * rows: 24-pin 12 wires wide, 26 × 5 mm; 8-pin 4 wide, 10 × 5 mm; bend radius about three times
+ * the thickness, 15 mm (common practice, from memory).
+ */
+export function demoCables(): CableDef[] {
+	const cable = (
+		id: string,
+		label: string,
+		from: string,
+		to: [string, string],
+		widthMm: number,
+		where: string
+	): CableDef => ({
+		id,
+		label,
+		from: { placementId: 'psu', portId: from },
+		to: { placementId: to[0], portId: to[1] },
+		widthMm,
+		thicknessMm: 5,
+		minBendRadiusMm: 15,
+		clearanceMm: 2,
+		where,
+		waypoints: []
+	});
+	return [
+		cable('cable-24', '24-pin', 'atx24', ['board', 'atx24'], 26, 'behind the supply, up the board'),
+		cable('cable-eps', '8-pin processor', 'eps8', ['board', 'eps8'], 10, 'along the board top'),
+		cable('cable-card', 'Card power', 'pcie', ['card', 'power'], 10, 'across to the card side')
+	];
 }
 
 export function demoScene(): Scene {

@@ -5,6 +5,7 @@
 
 import type { Axis, Face } from './box';
 import type { LoopReport } from './loop';
+import type { CableReport } from './cables';
 import type { Box, FaceName, KeepoutDef, PartDef, Placement, PortDef, Vec3 } from './schema';
 
 /** Precedence, worst first: collides > blocked > outside > tight > clear. */
@@ -54,7 +55,14 @@ export interface ResolvedPlacement {
 	bodies: WorldBox[];
 	keepouts: WorldBox[];
 	/** Ports in inner coordinates, directions turned with the part. */
-	ports: { id: string; position: Vec3; direction: PortDef['direction']; thread: string }[];
+	ports: {
+		id: string;
+		position: Vec3;
+		direction: PortDef['direction'];
+		thread: string;
+		/** Set on power ports (a cable's plug, no fitting); coolant ports have none. */
+		kind?: 'power';
+	}[];
 	/** Bounding box of the placed bodies (keep-outs excluded). */
 	bounds: Box;
 }
@@ -236,6 +244,8 @@ export interface FitReport {
 	compartments: Compartment[];
 	/** The scene's coolant loops checked (loop.ts); missing when the scene has none. */
 	loops?: LoopReport[];
+	/** The scene's power cable bundles checked (cables.ts); missing when the scene has none. */
+	cables?: CableReport[];
 }
 
 export interface SweepControl {

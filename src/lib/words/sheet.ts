@@ -25,6 +25,15 @@ export function cm3(volumeMm3: number): string {
 	return `${v.toFixed(v < 1 ? 2 : 1)}${THIN}cm³`;
 }
 
+/**
+ * A power cable to order, rounded up to the next 10 mm: "24-pin: about 250 mm, behind the board
+ * tray". `lengthMm` is the centre line plus both plugs' reach.
+ */
+export function cableWords(label: string, lengthMm: number, where?: string | null): string {
+	const about = Math.ceil(lengthMm / 10) * 10;
+	return `${label}: about ${about}${THIN}mm${where ? `, ${where}` : ''}`;
+}
+
 export function litres(volumeL: number): string {
 	return `${volumeL.toFixed(1)}${THIN}L`;
 }

@@ -100,6 +100,8 @@ export class EditorState {
 	showKeepouts = $state(true);
 	/** A free-space box picked in "what fits here", drawn as a ghost in 3D. */
 	freeSpaceGhost = $state.raw<Box | null>(null);
+	/** A suggested route's tube boxes, previewed as a ghost run in 3D before it is accepted. */
+	routeGhost = $state.raw<Box[]>([]);
 	dragTarget = $state.raw<
 		| { kind: 'divider' | 'bracket'; id: string }
 		| { kind: 'part'; id: string; axis: 'x' | 'y' | 'z' }

@@ -3,7 +3,7 @@
  * fits with the spine at "3 slots" and the card collides at "2 slots". Two variants to compare.
  */
 import { eq } from 'drizzle-orm';
-import { DEMO_SPINE_OFFSETS, demoSceneInput } from '$lib/geometry/standard-library';
+import { DEMO_SPINE_OFFSETS, demoCables, demoSceneInput } from '$lib/geometry/standard-library';
 import { variantSettingsSchema } from '$lib/builds/settings';
 import { db } from '../db';
 import { builds, variants } from '../db/schema';
@@ -19,7 +19,8 @@ export async function seedBuilds() {
 		bracketOffsets: scene.bracketOffsets,
 		placements: scene.placements,
 		marginMm: scene.marginMm,
-		budgets: scene.budgets
+		budgets: scene.budgets,
+		cables: demoCables()
 	});
 	await db
 		.insert(builds)

@@ -1,0 +1,230 @@
+/**
+ * "Suggest a route" for a loop's runs: from the scene and the loop to the route search's input
+ * (each run's tube kind gives its section, bend radius, clearance and hard or soft; each fitting's
+ * reach where the run starts), and from an accepted route back to the run's waypoints. Millimetres.
+ */
+import type { LoopDef, ResolvedScene, Scene, Vec3 } from '$lib/geometry';
+import { loopLookup, runEnds } from '$lib/geometry/loop-path';
+import { portEnd, routeObstacles } from '$lib/geometry/route-scene';
+import {
+	sectionHalfWidthMm,
+	type ManyRun,
+	type RouteInput,
+	type RouteObstacle
+} from '$lib/geometry/route';
+import type { LoopReport } from '$lib/geometry/loop';
+import type { VariantSettings } from '$lib/builds/settings';
+import { updateRun } from './edit';
+
+/** Fewest bends first: one bend costs as much as 100 mm of tube (the loop's `bendPenaltyMm`). */
+export const DEFAULT_BEND_PENALTY_MM = 100;
+
+export function bendPenaltyOf(loop: LoopDef | null | undefined): number {
+	return loop?.bendPenaltyMm ?? DEFAULT_BEND_PENALTY_MM;
+}
+
+export type RouteRequest =
+	| {
+			ok: true;
+			runs: ManyRun[];
+			/** Per run id: mm to add to a route's length (the ends lifted off a bare port, see lift). */
+			extraMm: Record<string, number>;
+			shared: Omit<RouteInput, 'start' | 'end' | 'section' | 'bendRadiusMm' | 'mode'>;
+	  }
+	| { ok: false; message: string };
+
+/**
+ * The search input for runs `indexes` of loop `l` (one run, or all of them). Every other run of
+ * the scene keeps its boxes (from the last check) and is an obstacle; the runs being routed are
+ * not, and their ports' fitting room is where they start. Walls are the bounds' faces.
+ */
+export function routeRequest(
+	scene: Scene,
+	resolved: ResolvedScene,
+	reports: readonly LoopReport[],
+	l: number,
+	indexes: readonly number[]
+): RouteRequest {
+	const loop = scene.loops?.[l];
+	if (!loop) return { ok: false, message: 'There is no loop to route.' };
+	const lookup = loopLookup(scene);
+	const routed = new Set(indexes.map((i) => loop.runs[i]?.id));
+	const runs: ManyRun[] = [];
+	const reaches: [number, number][] = [];
+	const ports = new Set<string>();
+	let clearanceMm = 0;
+	for (const i of indexes) {
+		const run = loop.runs[i];
+		if (!run) return { ok: false, message: `There is no run ${i + 1}.` };
+		const tube = lookup.tubes.get(run.tube);
+		const ends = runEnds(lookup, run);
+		if (!tube || !ends) {
+			return { ok: false, message: `Run ${i + 1} names a port or a tube kind the scene lacks.` };
+		}
+		const [start, end] = [ends.points[0], ends.points[ends.points.length - 1]];
+		runs.push({
+			id: run.id,
+			start: { point: start, direction: ends.from.direction },
+			end: { point: end, direction: ends.to.direction },
+			section: { kind: 'round', outerDiameterMm: tube.outerMm },
+			bendRadiusMm: tube.minBendRadiusMm,
+			mode: tube.kind
+		});
+		ports.add(run.from.placementId).add(run.to.placementId);
+		clearanceMm = Math.max(clearanceMm, tube.clearanceMm);
+		reaches.push([ends.fittings.from.reachMm, ends.fittings.to.reachMm]);
+	}
+	const extraMm = lift(runs, reaches, clearanceMm);
+	const others: RouteObstacle[] = reports.flatMap((lr) =>
+		lr.runs
+			.filter((rr) => !routed.has(rr.runId))
+			.flatMap((rr) => rr.pieces.map((p) => ({ box: p.tube, id: p.id, label: `${rr.label}` })))
+	);
+	const obstacles = [...routeObstacles(resolved, { skipKeepoutsOf: [...ports] }), ...others].filter(
+		(o) => !o.id?.startsWith('wall:')
+	);
+	return {
+		ok: true,
+		runs,
+		extraMm,
+		shared: {
+			bounds: resolved.innerBox,
+			obstacles,
+			clearanceMm,
+			bendPenaltyMm: bendPenaltyOf(loop),
+			maxAlternatives: 3
+		}
+	};
+}
+
+/**
+ * The search input for the scene's power cables `indexes` (flat bundles, soft: their own bend
+ * radius): clear of every coolant run (from the last check) and of the parts; the plugs' room at
+ * their own ports is where they start. Each is routed on its own (routeEach): bundles may lie
+ * together, and the checker does not hold one cable against another.
+ */
+export function cableRouteRequest(
+	scene: Scene,
+	resolved: ResolvedScene,
+	reports: readonly LoopReport[],
+	indexes: readonly number[]
+): RouteRequest {
+	const runs: ManyRun[] = [];
+	const reaches: [number, number][] = [];
+	const ports = new Set<string>();
+	let clearanceMm = 0;
+	for (const i of indexes) {
+		const c = scene.cables?.[i];
+		if (!c) return { ok: false, message: `There is no cable ${i + 1}.` };
+		const reach = (placementId: string, portId: string) =>
+			resolved.placements
+				.find((p) => p.placement.id === placementId)
+				?.part.ports.find((p) => p.id === portId)?.plugReachMm ?? 0;
+		const start = portEnd(
+			resolved,
+			c.from.placementId,
+			c.from.portId,
+			reach(c.from.placementId, c.from.portId)
+		);
+		const end = portEnd(
+			resolved,
+			c.to.placementId,
+			c.to.portId,
+			reach(c.to.placementId, c.to.portId)
+		);
+		if (!start || !end) return { ok: false, message: `${c.label} names a port the scene lacks.` };
+		runs.push({
+			id: c.id,
+			start,
+			end,
+			section: { kind: 'flat', widthMm: c.widthMm, thicknessMm: c.thicknessMm },
+			bendRadiusMm: c.minBendRadiusMm,
+			mode: 'soft'
+		});
+		ports.add(c.from.placementId).add(c.to.placementId);
+		clearanceMm = Math.max(clearanceMm, c.clearanceMm);
+		reaches.push([reach(c.from.placementId, c.from.portId), reach(c.to.placementId, c.to.portId)]);
+	}
+	const extraMm = lift(runs, reaches, clearanceMm);
+	const tubes: RouteObstacle[] = reports.flatMap((lr) =>
+		lr.runs.flatMap((rr) => rr.pieces.map((p) => ({ box: p.tube, id: p.id, label: rr.label })))
+	);
+	const obstacles = [...routeObstacles(resolved, { skipKeepoutsOf: [...ports] }), ...tubes].filter(
+		(o) => !o.id?.startsWith('wall:')
+	);
+	return {
+		ok: true,
+		runs,
+		extraMm,
+		shared: {
+			bounds: resolved.innerBox,
+			obstacles,
+			clearanceMm,
+			bendPenaltyMm: bendPenaltyOf(scene.loops?.[0]),
+			maxAlternatives: 3
+		}
+	};
+}
+
+/** The cable's waypoints replaced by an accepted route's. */
+export function acceptCableRoute(
+	settings: VariantSettings,
+	cableId: string,
+	waypoints: readonly Vec3[]
+): VariantSettings {
+	if (!settings.cables?.some((c) => c.id === cableId)) return settings;
+	const clean = waypoints.map((w) => w.map((v) => Math.round(v * 100) / 100) as Vec3);
+	return {
+		...settings,
+		cables: settings.cables.map((c) => (c.id === cableId ? { ...c, waypoints: clean } : c))
+	};
+}
+
+/**
+ * A run on a bare port (a fitting or plug reaching less than the clearance) would start inside the
+ * clearance kept around its own part, and the search would find it shut in; and the loop check
+ * holds a bend's box half the tube's width further along each leg than the search does. So each
+ * end is moved out along its port's direction until it is half the width plus the clearance from
+ * the port face. The moved piece is straight on the first and last leg, so the waypoints mean the
+ * same; the lengths get the moved millimetres back.
+ */
+function lift(runs: ManyRun[], reaches: [number, number][], clearanceMm: number) {
+	const extraMm: Record<string, number> = {};
+	runs.forEach((run, i) => {
+		const half = sectionHalfWidthMm(run.section);
+		const [a, b] = reaches[i].map((r) => Math.max(0, clearanceMm + half - r));
+		run.start = { ...run.start, point: push(run.start.point, run.start.direction, a) };
+		run.end = { ...run.end, point: push(run.end.point, run.end.direction, b) };
+		extraMm[run.id] = a + b;
+	});
+	return extraMm;
+}
+
+function push(p: Vec3, face: string, mm: number): Vec3 {
+	const axis = 'xyz'.indexOf(face[1]);
+	const out = [...p] as Vec3;
+	out[axis] += face[0] === '+' ? mm : -mm;
+	return out;
+}
+
+/** The run's waypoints replaced by an accepted route's (then an ordinary run: checked, priced). */
+export function acceptRoute(
+	settings: VariantSettings,
+	l: number,
+	runId: string,
+	waypoints: readonly Vec3[]
+): VariantSettings {
+	const r = settings.loops?.[l]?.runs.findIndex((x) => x.id === runId) ?? -1;
+	if (r < 0) return settings;
+	// Hundredths of a millimetre: the search's planes are sums of sizes, with float noise.
+	const clean = waypoints.map((w) => w.map((v) => Math.round(v * 100) / 100) as Vec3);
+	return updateRun(settings, l, r, (run) => ({ ...run, waypoints: clean }));
+}
+
+/** The loop's bend penalty set (mm of tube one bend costs). */
+export function setBendPenalty(settings: VariantSettings, l: number, mm: number): VariantSettings {
+	const loops = [...(settings.loops ?? [])];
+	if (!loops[l]) return settings;
+	loops[l] = { ...loops[l], bendPenaltyMm: mm };
+	return { ...settings, loops };
+}
