@@ -13,7 +13,7 @@ import { restoreDemoVariant } from './helpers/demo-variant';
 const DESIGNER = { email: 'designer@demo.interstice.test', password: 'demo-password-1' };
 
 test.beforeAll(async () => {
-	await restoreDemoVariant();
+	await restoreDemoVariant({ cables: 'straight' });
 	await clearRateLimits('127.0.0.1');
 });
 test.afterAll(async () => {
@@ -90,7 +90,7 @@ test('suggests every run of the demo loop, and the accepted routes are checked a
 		panel.getByRole('list', { name: 'Loop checks' }).getByRole('listitem')
 	).not.toHaveCount(0);
 	// The routes are saved with the variant.
-	await expect(page.getByTestId('save-status')).toHaveText(/^Saved · revision \d+$/);
+	await expect(page.getByTestId('save-status')).toHaveText(/^Saved · change \d+$/);
 
 	// The power cables, drawn straight through the processor block, routed the same way.
 	const cables = suggest.getByRole('list', { name: 'Power cables' });
@@ -101,8 +101,7 @@ test('suggests every run of the demo loop, and the accepted routes are checked a
 	await suggest.getByRole('button', { name: 'Suggest cable routes' }).click();
 	await expect(list.getByRole('listitem')).toHaveCount(3, { timeout: 60_000 });
 	const status = page.getByTestId('save-status');
-	const revision = async () =>
-		Number(/revision (\d+)/.exec((await status.textContent()) ?? '')?.[1]);
+	const revision = async () => Number(/change (\d+)/.exec((await status.textContent()) ?? '')?.[1]);
 	const before = await revision();
 	const routed = list.locator('[data-suggestion="cable-24"]');
 	await routed.getByRole('button', { name: 'Accept the route for 24-pin' }).click();
@@ -113,7 +112,7 @@ test('suggests every run of the demo loop, and the accepted routes are checked a
 
 	// Priced: the quote follows the variant, with the tube the runs use (once it is saved).
 	await expect.poll(revision, { timeout: 20_000 }).toBeGreaterThan(before);
-	await expect(status).toHaveText(/^Saved · revision \d+$/);
+	await expect(status).toHaveText(/^Saved · change \d+$/);
 	await page.goto('/builds/demo-build/quote/demo-variant-a');
 	const start = page.getByRole('button', { name: 'Start the quote' });
 	if (await start.isVisible()) await start.click();

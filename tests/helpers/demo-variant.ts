@@ -4,13 +4,18 @@
  */
 import { eq } from 'drizzle-orm';
 import { demoCables, demoSceneInput } from '../../src/lib/geometry/standard-library';
+import { demoRoutedCables } from '../../src/lib/loop/suggest';
 import { db } from '../../src/lib/server/db';
 import { variants } from '../../src/lib/server/db/schema';
 import { testDatabaseUrl } from '../../src/lib/server/testing/env';
 
 export const DEMO_VARIANT = 'demo-variant-a';
 
-export async function restoreDemoVariant() {
+/**
+ * `cables: 'straight'` puts the standard library's cables in unrouted (drawn straight from plug to
+ * plug, through whatever is between), for a test that routes them itself.
+ */
+export async function restoreDemoVariant(options: { cables?: 'routed' | 'straight' } = {}) {
 	testDatabaseUrl();
 	const s = demoSceneInput();
 	const settings = {
@@ -19,7 +24,7 @@ export async function restoreDemoVariant() {
 		placements: s.placements,
 		marginMm: s.marginMm,
 		budgets: s.budgets,
-		cables: demoCables()
+		cables: options.cables === 'straight' ? demoCables() : demoRoutedCables()
 	};
 	await db
 		.update(variants)

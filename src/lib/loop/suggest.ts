@@ -6,7 +6,11 @@
 import type { LoopDef, ResolvedScene, Scene, Vec3 } from '$lib/geometry';
 import { loopLookup, runEnds } from '$lib/geometry/loop-path';
 import { portEnd, routeObstacles } from '$lib/geometry/route-scene';
+import { resolveScene } from '$lib/geometry/resolve';
+import { sceneSchema } from '$lib/geometry/schema';
+import { demoCables, demoSceneInput } from '$lib/geometry/standard-library';
 import {
+	routeEach,
 	sectionHalfWidthMm,
 	type ManyRun,
 	type RouteInput,
@@ -227,4 +231,36 @@ export function setBendPenalty(settings: VariantSettings, l: number, mm: number)
 	if (!loops[l]) return settings;
 	loops[l] = { ...loops[l], bendPenaltyMm: mm };
 	return { ...settings, loops };
+}
+
+/**
+ * The scene's power cables, each routed by the engine through the free space as "suggest cable
+ * routes" would, the best route accepted; cables the search finds no route for are left out. The
+ * demo seed uses it, so the demo opens with its cables laid as a builder would lay them, not drawn
+ * straight through the parts.
+ */
+export function routedCables(scene: Scene): NonNullable<Scene['cables']> {
+	const cables = scene.cables ?? [];
+	if (!cables.length) return [];
+	const request = cableRouteRequest(
+		scene,
+		resolveScene(scene),
+		[],
+		cables.map((_, i) => i)
+	);
+	if (!request.ok) return [];
+	const { results } = routeEach(request.runs, request.shared);
+	return cables.flatMap((c) => {
+		const r = results[c.id];
+		if (!r?.ok || !r.routes.length) return [];
+		const waypoints = r.routes[0].waypoints.map(
+			(w) => w.map((v) => Math.round(v * 100) / 100) as Vec3
+		);
+		return [{ ...c, waypoints }];
+	});
+}
+
+/** The demo variant's power cables as seeded: the standard library's, routed (routedCables). */
+export function demoRoutedCables(): NonNullable<Scene['cables']> {
+	return routedCables(sceneSchema.parse({ ...demoSceneInput(), cables: demoCables() }));
 }

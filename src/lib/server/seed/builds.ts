@@ -3,7 +3,8 @@
  * fits with the spine at "3 slots" and the card collides at "2 slots". Two variants to compare.
  */
 import { eq } from 'drizzle-orm';
-import { DEMO_SPINE_OFFSETS, demoCables, demoSceneInput } from '$lib/geometry/standard-library';
+import { DEMO_SPINE_OFFSETS, demoSceneInput } from '$lib/geometry/standard-library';
+import { demoRoutedCables } from '$lib/loop/suggest';
 import { variantSettingsSchema } from '$lib/builds/settings';
 import { db } from '../db';
 import { builds, variants } from '../db/schema';
@@ -20,7 +21,8 @@ export async function seedBuilds() {
 		placements: scene.placements,
 		marginMm: scene.marginMm,
 		budgets: scene.budgets,
-		cables: demoCables()
+		// Routed by the engine at seed time (about a second), so the demo opens with its cables clear.
+		cables: demoRoutedCables()
 	});
 	await db
 		.insert(builds)
