@@ -43,6 +43,11 @@ export const CAUTIONS: readonly Caution[] = [
 		detail: 'Check every fitting and the paper beneath it before powering anything else.'
 	},
 	{
+		id: 'drain',
+		text: 'Drain the loop before opening a fitting or moving a part a run goes through.',
+		detail: 'Unplug first; catch the coolant in a tray and dry every drop before power returns.'
+	},
+	{
 		id: 'rules',
 		text: 'Selling the system to a client? Check the local electrical-safety and product rules that apply to it.',
 		detail:

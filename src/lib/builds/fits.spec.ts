@@ -243,7 +243,7 @@ describe('what fits here against checkScene', () => {
 		const flush = sceneSchema.parse({
 			...demoSceneInput(),
 			placements: demoSceneInput().placements!.map((p) =>
-				p.id === 'pump-res' ? { ...p, position: [90, 240, 140] } : p
+				p.id === 'pump-res' ? { ...p, position: [90, 240, 150] } : p
 			)
 		});
 		const high = whatFits(flush, { kind: 'replace', placementId: 'pump-res' }, [{ part: pump }]);

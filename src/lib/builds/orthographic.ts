@@ -460,11 +460,7 @@ function outsideDims(
 	);
 	let above = 0;
 	let right = 0;
-	const dimensioned = new Set<string>();
 	for (const c of [...resolved.dividers, ...resolved.brackets]) {
-		// One dimension per control: a divider with openings comes as several pieces.
-		if (dimensioned.has(`${c.kind}:${c.ownerId}`)) continue;
-		dimensioned.add(`${c.kind}:${c.ownerId}`);
 		// Dividers by where their low face sits, brackets by where they have slid to.
 		const axis = AXIS_NAMES.indexOf(axisOf.get(c.ownerId) ?? 'x');
 		const at = c.box.min[axis];

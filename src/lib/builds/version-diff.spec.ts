@@ -47,7 +47,7 @@ describe('versionChanges', () => {
 				...v1.placements
 					.filter((p) => p.id !== 'cpu-block')
 					.map((p) =>
-						p.id === 'pump-res' ? { ...p, position: [80, 227, 140] as [number, number, number] } : p
+						p.id === 'pump-res' ? { ...p, position: [80, 227, 150] as [number, number, number] } : p
 					),
 				{
 					id: 'fan-3',

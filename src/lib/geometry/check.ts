@@ -24,6 +24,7 @@ import {
 	type FoundPair,
 	type Model
 } from './model';
+import type { RunCache } from './loop';
 import { withLoops } from './loop-report';
 import { resolveScene } from './resolve';
 import type { Box, Scene } from './schema';
@@ -115,6 +116,11 @@ function gapsOf(
 export interface ReportOptions {
 	/** Overlaps listed at most (default MAX_LISTED_OVERLAPS); totals and statuses count them all. */
 	maxListedOverlaps?: number;
+	/**
+	 * Runs checked before, by run id, for a scene whose everything but its loops is unchanged (a
+	 * waypoint dragged): a run whose key is unchanged is not rebuilt (loop.ts, runEntry).
+	 */
+	runCache?: RunCache;
 }
 
 /** Report for a scene already resolved (so callers that resolved once need not do it again). */
@@ -142,7 +148,7 @@ export function reportFor(
 		compartmentId: compartmentOf(resolved.compartments, rp.bounds),
 		mountProblems: model.mountProblemsOf[p]
 	}));
-	return withLoops(scene, resolved, {
+	return withLoops(scene, resolved, options.runCache, {
 		overlaps,
 		overlapsNotListed: pairs.length - overlaps.length,
 		parts,

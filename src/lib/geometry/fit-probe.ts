@@ -259,10 +259,8 @@ export function probeBase(
 	const mountList = scene.enclosure.mounts;
 	// A control that moves (see probeAcross) is left out of the fixed boxes.
 	const movingId = moving ? `${moving.kind}:${moving.id}` : null;
-	// A divider with openings has several pieces, all owned by it; while it moves, its whole slab
-	// stands in for them (openings counted as solid: the safe side).
 	const boxes: WorldBox[] = [...resolved.walls, ...resolved.dividers, ...resolved.brackets].filter(
-		(b) => !moving || `${b.kind}:${b.ownerId}` !== movingId
+		(b) => b.id !== movingId
 	);
 	const groups: number[] = boxes.map(() => 0);
 	const owners: number[] = boxes.map(() => -1);
@@ -297,13 +295,7 @@ export function probeBase(
 	const movingGroup = 3 * mountList.length + 1;
 	let movingSlot = -1;
 	if (moving) {
-		const known = [...resolved.dividers, ...resolved.brackets].some(
-			(b) => `${b.kind}:${b.ownerId}` === movingId
-		);
-		const offset = (
-			moving.kind === 'divider' ? resolved.dividerPositions : resolved.bracketOffsets
-		)[moving.id];
-		const current = known ? controlBoxAt(scene, moving, offset) : undefined;
+		const current = [...resolved.dividers, ...resolved.brackets].find((b) => b.id === movingId);
 		if (!current) throw new SceneError('control.id', `No ${moving.kind} with id ${moving.id}`);
 		movingSlot = boxes.length;
 		boxes.push(current);
@@ -547,12 +539,8 @@ export interface CellResult {
 
 /** The moving control's world box at an offset, as resolveScene builds it. */
 export function movingBoxAt(base: ProbeBase, offsetMm: number): WorldBox {
-	return controlBoxAt(base.scene, base.moving!, offsetMm);
-}
-
-/** A control's one box at an offset: a divider's whole slab (openings left solid), a bracket's box. */
-function controlBoxAt(scene: Scene, c: MovingControl, offsetMm: number): WorldBox {
-	const enclosure = scene.enclosure;
+	const c = base.moving!;
+	const enclosure = base.scene.enclosure;
 	if (c.kind === 'divider') {
 		return dividerWorldBox(
 			enclosure,

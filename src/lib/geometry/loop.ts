@@ -368,9 +368,10 @@ export interface LoopCheckContext {
 }
 
 export function loopContext(scene: Scene, resolved: ResolvedScene): LoopCheckContext {
+	// Runs meet a divider's solid pieces: its openings are where tubes pass.
 	const boxes: WorldBox[] = [
 		...resolved.walls,
-		...resolved.dividers,
+		...resolved.dividerPieces,
 		...resolved.brackets,
 		...resolved.plates
 	];

@@ -194,19 +194,59 @@ describe('divider openings: the schema', () => {
 });
 
 describe('divider openings in the engine', () => {
-	it('a body through an opening meets no divider; moved onto the solid part it collides', () => {
+	it('a run through the bulkhead cut-out meets nothing; without the cut-outs it hits the bulkhead; a part still counts the whole slab', () => {
+		// The radiator's outlet (109, 320.5, 30) straight back to the pump-reservoir's inlet
+		// (109, 320.5, 150): through the bulkhead's cut-out (x 20–130, y 300–336 mm).
+		const loops = [
+			{
+				id: 'main',
+				runs: [
+					{
+						id: 'r1',
+						from: { placementId: 'radiator', portId: 'out' },
+						to: { placementId: 'pump-res', portId: 'in' },
+						tube: 'hard-12',
+						fittings: { from: null, to: null },
+						waypoints: []
+					}
+				],
+				plugs: []
+			}
+		];
 		const input = demoSceneInput();
+		const withOpenings = sceneSchema.parse({ ...input, tubeKinds: defaultTubeKinds(), loops });
+		const [open] = checkLoops(withOpenings, resolveScene(withOpenings));
+		expect(open.runs[0].problems).toEqual([]);
+		const enclosure = demoEnclosure();
+		const solid = sceneSchema.parse({
+			...input,
+			enclosure: {
+				...enclosure,
+				dividers: enclosure.dividers.map(({ openings: _o, ...d }) => d)
+			},
+			tubeKinds: defaultTubeKinds(),
+			loops
+		});
+		const [shut] = checkLoops(solid, resolveScene(solid));
+		expect(shut.runs[0].problems.map((p) => p.text)).toContain(
+			'Run 1, first segment, against the bulkhead'
+		);
+		// A 10 mm cube straddling the spine (x 82–92) inside its cut-out (y 200–335, z 75–140):
+		// openings are for tubes and cables, a part is checked against the whole slab.
 		const base = sceneSchema.parse(input);
-		// A 10 mm cube straddling the spine (x 82–92) inside its cut-out (y 200–335, z 75–140).
 		const cube = {
 			id: 'probe-cube',
 			name: 'Probe cube',
 			category: 'other' as const,
 			bodies: [
-				{ id: 'body', label: 'body', box: { min: [0, 0, 0] as Vec3, max: [10, 10, 10] as Vec3 } }
+				{
+					id: 'body',
+					label: 'body',
+					box: { min: [0, 0, 0] as Vec3, max: [10, 10, 10] as Vec3 }
+				}
 			]
 		};
-		const at = (y: number) =>
+		const report = checkScene(
 			sceneSchema.parse({
 				...input,
 				parts: [...base.parts, cube],
@@ -215,18 +255,14 @@ describe('divider openings in the engine', () => {
 					{
 						id: 'probe',
 						partId: 'probe-cube',
-						position: [82, y, 100],
+						position: [82, 260, 100],
 						rotation: { x: 0, y: 0, z: 0 }
 					}
 				]
-			});
-		const through = checkScene(at(260));
+			})
+		);
 		expect(
-			through.overlaps.filter((o) => o.a.placementId === 'probe' || o.b.placementId === 'probe')
-		).toEqual([]);
-		const solid = checkScene(at(150));
-		expect(
-			solid.overlaps
+			report.overlaps
 				.filter((o) => o.kind === 'collides')
 				.map((o) => [o.a.id, o.b.id].sort().join(' × '))
 		).toContain('divider:spine × probe/body');
@@ -234,11 +270,11 @@ describe('divider openings in the engine', () => {
 
 	it('the demo loop is drawn through the cut-outs in 12 mm hard tube: every check passes', () => {
 		// Waypoints by hand (bare ports, bend radius 24 mm: ≥ 24 mm at a run's ends, ≥ 48 mm between
-		// two bends). Run 1 leaves the pump-reservoir's outlet (129, 320.5, 140) forwards, drops
+		// two bends). Run 1 leaves the pump-reservoir's outlet (129, 320.5, 150) forwards, drops
 		// above the card, crosses the spine's cut-out at y 225, z 100 and comes back to the block's
 		// inlet (38.6, 225, 153); run 2 leaves the block's outlet (38.6, 245, 153), rises to the
 		// bulkhead's cut-out and ends on the radiator's inlet (75, 320.5, 30); run 3 is straight, from
-		// the radiator's outlet (109, 320.5, 30) through the bulkhead to the pump inlet (109, 320.5, 140).
+		// the radiator's outlet (109, 320.5, 30) through the bulkhead to the pump inlet (109, 320.5, 150).
 		const hard = (id: string, from: [string, string], to: [string, string], waypoints: Vec3[]) => ({
 			id,
 			from: { placementId: from[0], portId: from[1] },
@@ -284,8 +320,8 @@ describe('divider openings in the engine', () => {
 		const [loop] = checkLoops(scene, resolveScene(scene));
 		expect(loop.checks.filter((c) => c.status === 'fail' || c.status === 'warn')).toEqual([]);
 		expect(loop.runs.flatMap((r) => r.problems)).toEqual([]);
-		// Run 3 is 110 mm of straight tube: from z 30 to z 140.
-		expect(loop.runs[2].cutLengthMm).toBeCloseTo(110, 6);
+		// Run 3 is 120 mm of straight tube: from z 30 to z 150.
+		expect(loop.runs[2].cutLengthMm).toBeCloseTo(120, 6);
 	});
 
 	it('the demo build itself still fits everywhere at its default positions', () => {

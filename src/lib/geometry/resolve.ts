@@ -5,6 +5,7 @@ import {
 	bracketWorldBox,
 	compartmentsFor,
 	controlOffset,
+	dividerWorldBox,
 	dividerWorldBoxes,
 	innerBoxOf,
 	wallBoxes
@@ -90,10 +91,13 @@ export function resolveScene(scene: Scene): ResolvedScene {
 	const enclosure = scene.enclosure;
 	const dividerPositions: Record<string, number> = {};
 	const bracketOffsets: Record<string, number> = {};
-	const dividers = enclosure.dividers.flatMap((d) => {
+	const dividers = enclosure.dividers.map((d) => {
 		dividerPositions[d.id] = controlOffset(d, scene.dividerPositions, 'dividerPositions');
-		return dividerWorldBoxes(enclosure, d, dividerPositions[d.id]);
+		return dividerWorldBox(enclosure, d, dividerPositions[d.id]);
 	});
+	const dividerPieces = enclosure.dividers.flatMap((d) =>
+		dividerWorldBoxes(enclosure, d, dividerPositions[d.id])
+	);
 	const brackets = enclosure.brackets.map((b) => {
 		bracketOffsets[b.id] = controlOffset(b, scene.bracketOffsets, 'bracketOffsets');
 		return bracketWorldBox(b, bracketOffsets[b.id]);
@@ -124,6 +128,7 @@ export function resolveScene(scene: Scene): ResolvedScene {
 		innerBox,
 		walls: wallBoxes(enclosure),
 		dividers,
+		dividerPieces,
 		brackets,
 		plates: mountPlates(enclosure, innerBox, placements),
 		placements,

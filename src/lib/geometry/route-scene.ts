@@ -25,7 +25,7 @@ export function routeObstacles(
 ): RouteObstacle[] {
 	const skip = new Set(options.skipKeepoutsOf ?? []);
 	const out: RouteObstacle[] = [];
-	for (const w of [...resolved.walls, ...resolved.dividers, ...resolved.brackets]) {
+	for (const w of [...resolved.walls, ...resolved.dividerPieces, ...resolved.brackets]) {
 		out.push({ box: w.box, id: w.id, label: w.label });
 	}
 	for (const p of resolved.plates) out.push({ box: p.box, id: p.id, label: p.label });

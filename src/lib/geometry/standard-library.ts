@@ -145,8 +145,12 @@ export function demoEnclosure(): EnclosureDef {
 				},
 				span: { z: { minMm: 66, maxMm: 240 } },
 				sides: { low: 'CPU side', high: 'card side' },
-				// Above the card, in front of the pump-reservoir: y 200–335, z 75–140 mm.
-				openings: [{ id: 'tubes', label: 'tube cut-out', at: [200, 9], size: [135, 65] }]
+				// Above the card, in front of the pump-reservoir (y 200–335, z 75–140 mm), and a low one
+				// in front of the card (y 100–190, z 70–95 mm); neither reaches the card's own room.
+				openings: [
+					{ id: 'tubes', label: 'tube cut-out', at: [200, 9], size: [135, 65] },
+					{ id: 'low', label: 'low cut-out', at: [100, 4], size: [90, 25] }
+				]
 			}
 		],
 		brackets: [
@@ -459,7 +463,7 @@ export function demoSceneInput(): SceneInput {
 			{
 				id: 'pump-res',
 				partId: 'demo-pump-res',
-				position: [90, 227, 140],
+				position: [90, 227, 150],
 				rotation: { x: 0, y: 0, z: 0 }
 			},
 			{

@@ -5,14 +5,7 @@
  */
 
 import { FACES, compareText, type Face } from './box';
-import {
-	bracketBoxAt,
-	cutCompartments,
-	dividerBoxAt,
-	dividerPieceId,
-	dividerPiecesAt,
-	slabsFor
-} from './enclosure';
+import { bracketBoxAt, cutCompartments, dividerBoxAt, slabsFor } from './enclosure';
 import { SceneError } from './errors';
 import {
 	buildModel,
@@ -44,11 +37,8 @@ import type {
 interface Moving {
 	control: SweepControl;
 	def: DividerDef | BracketDef;
-	/** Box indexes of its pieces (several for a divider with openings), in piecesAt order. */
-	indexes: number[];
-	/** The whole slab or bracket box (compartments are cut by the slab). */
+	index: number;
 	boxAt: (offsetMm: number) => Box;
-	piecesAt: (offsetMm: number) => Box[];
 }
 
 function movingOf(scene: Scene, model: Model, control: SweepControl, path: string): Moving {
@@ -56,15 +46,11 @@ function movingOf(scene: Scene, model: Model, control: SweepControl, path: strin
 	if (control.kind === 'divider') {
 		const def = enclosure.dividers.find((d) => d.id === control.id);
 		if (!def) throw new SceneError(`${path}.id`, `No divider with id ${control.id}`);
-		const pieces = dividerPiecesAt(enclosure, def, 0).length;
 		return {
 			control,
 			def,
-			indexes: Array.from({ length: pieces }, (_, k) =>
-				model.indexOf.get(dividerPieceId(def.id, k))!
-			),
-			boxAt: (o) => dividerBoxAt(enclosure, def, o),
-			piecesAt: (o) => dividerPiecesAt(enclosure, def, o)
+			index: model.indexOf.get(`divider:${def.id}`)!,
+			boxAt: (o) => dividerBoxAt(enclosure, def, o)
 		};
 	}
 	const def = enclosure.brackets.find((b) => b.id === control.id);
@@ -72,9 +58,8 @@ function movingOf(scene: Scene, model: Model, control: SweepControl, path: strin
 	return {
 		control,
 		def,
-		indexes: [model.indexOf.get(`bracket:${def.id}`)!],
-		boxAt: (o) => bracketBoxAt(def, o),
-		piecesAt: (o) => [bracketBoxAt(def, o)]
+		index: model.indexOf.get(`bracket:${def.id}`)!,
+		boxAt: (o) => bracketBoxAt(def, o)
 	};
 }
 
@@ -112,17 +97,14 @@ function prepare(scene: Scene, controls: SweepControl[], gaps: GapRequest[] | un
 		movingOf(scene, model, c, controls.length === 1 ? 'control' : `control${'AB'[i]}`)
 	);
 	const included = new Uint8Array(model.boxes.length).fill(1);
-	for (const m of moving) for (const i of m.indexes) included[i] = 0;
+	for (const m of moving) included[m.index] = 0;
 	const base: Tally = tallyStatic(model, included).tally;
 	const slots = gapSlots(model, gaps);
-	const slides = moving.flatMap((m) => {
-		const slide = slideIndex(model, included, 'xyz'.indexOf(m.def.axis));
-		return m.indexes.map(() => slide);
-	});
+	const slides = moving.map((m) => slideIndex(model, included, 'xyz'.indexOf(m.def.axis)));
 	const reported = [...new Set(slots.map((s) => (s.slot / 6) | 0))];
 	const movesDivider = moving.some((m) => m.control.kind === 'divider');
-	const indexes = moving.flatMap((m) => m.indexes);
-	const movingFlat = new Float64Array(indexes.length * 6);
+	const movingFlat = new Float64Array(moving.length * 6);
+	const indexes = moving.map((m) => m.index);
 	const scratch = emptyTally(model.bodiesOf.length, true);
 	const baseStatus = statusCounts(model, base, scene.marginMm);
 	const slabs = slabsFor(scene.enclosure, resolved.dividerPositions);
@@ -131,10 +113,7 @@ function prepare(scene: Scene, controls: SweepControl[], gaps: GapRequest[] | un
 	return {
 		moving,
 		evaluate(offsets: number[]): SweepMetrics {
-			let slot = 0;
-			moving.forEach((m, k) => {
-				for (const piece of m.piecesAt(offsets[k])) writeFlat(movingFlat, slot++, piece);
-			});
+			moving.forEach((m, k) => writeFlat(movingFlat, k, m.boxAt(offsets[k])));
 			const tally = tallyMoving(
 				model,
 				base,

@@ -70,8 +70,13 @@ export interface ResolvedPlacement {
 export interface ResolvedScene {
 	innerBox: Box;
 	walls: WorldBox[];
-	/** Each divider's solid pieces: its slab minus its openings (ids from dividerPieceId). */
+	/** One box per divider, its whole slab: parts are checked against it, openings or not. */
 	dividers: WorldBox[];
+	/**
+	 * Each divider's solid pieces, its slab minus its openings (ids from dividerPieceId): what
+	 * tube runs and routes meet and the 3D view draws. The same boxes as `dividers` without openings.
+	 */
+	dividerPieces: WorldBox[];
 	brackets: WorldBox[];
 	/** Adapter plates and standoff layers of mounts whose parts need them (see mountPlates). */
 	plates: WorldBox[];

@@ -27,8 +27,8 @@ const THIN = {
 };
 
 /**
- * One run in front of the demo pump-reservoir, from its out port (129, 320.5, 140) to its in port
- * (109, 320.5, 140), bare (no fittings): forwards 6 mm, across 20 mm, back 6 mm — clear of the
+ * One run in front of the demo pump-reservoir, from its out port (129, 320.5, 150) to its in port
+ * (109, 320.5, 150), bare (no fittings): forwards 6 mm, across 20 mm, back 6 mm — clear of the
  * card below and of the top panel at 340 mm with the tube's 3 mm radius and 1 mm clearance.
  */
 function loopOver(tube: string): LoopDef {
@@ -42,8 +42,8 @@ function loopOver(tube: string): LoopDef {
 				tube,
 				fittings: { from: null, to: null },
 				waypoints: [
-					[129, 320.5, 134],
-					[109, 320.5, 134]
+					[129, 320.5, 144],
+					[109, 320.5, 144]
 				]
 			}
 		],
@@ -116,7 +116,7 @@ describe('a variant with a loop', () => {
 		],
 		[
 			'a waypoint outside the enclosure',
-			(l) => (l.runs[0].waypoints[1] = [109, 345, 134]),
+			(l) => (l.runs[0].waypoints[1] = [109, 345, 144]),
 			'settings.loops[0].runs[0].waypoints[1][1]',
 			'Outside the enclosure: 345.0 mm along y, the inside is 0 to 340.0 mm'
 		],
@@ -124,8 +124,8 @@ describe('a variant with a loop', () => {
 			'a bend tighter than the tube allows',
 			(l) =>
 				(l.runs[0].waypoints = [
-					[129, 320.5, 137],
-					[109, 320.5, 137]
+					[129, 320.5, 147],
+					[109, 320.5, 147]
 				]),
 			'settings.loops[0].runs[0].waypoints[0]',
 			'Bend tighter than the tube allows: the first segment is 3.0 mm long and its bends need 4.0 mm at a 4.0 mm bend radius'

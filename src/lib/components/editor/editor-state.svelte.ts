@@ -18,7 +18,9 @@ import {
 	type FitReport,
 	type PartDef,
 	type Placement,
+	type PortRef,
 	type ResolvedScene,
+	type RunCache,
 	type Scene,
 	type TubeKindDef,
 	type Vec3
@@ -33,6 +35,11 @@ import {
 	turnQuarter
 } from '$lib/builds/placement';
 import { reportDigest } from '$lib/builds/report-digest';
+import {
+	dragWaypoint as dragWaypointIn,
+	newRunCache,
+	type WaypointHandle
+} from '$lib/loop/handles';
 import { canonicalJson } from '$lib/builds/revisions';
 import type { Problem, SaveOutcome } from '$lib/api/client';
 import type { ViewName } from '$lib/scene/view';
@@ -58,7 +65,8 @@ function compute(
 	enclosure: EnclosureDef,
 	parts: PartDef[],
 	settings: VariantSettings,
-	tubeKinds: TubeKindDef[] = []
+	tubeKinds: TubeKindDef[] = [],
+	runCache?: RunCache
 ): Computed {
 	const parsed = sceneSchema.safeParse(composeScene(enclosure, parts, settings, tubeKinds));
 	if (!parsed.success) return { ok: false, issues: formatZodIssues(parsed.error) };
@@ -76,7 +84,7 @@ function compute(
 			ok: true,
 			scene: parsed.data,
 			resolved,
-			report: reportFor(parsed.data, resolved),
+			report: reportFor(parsed.data, resolved, { runCache }),
 			issues: []
 		};
 	} catch (e) {
@@ -131,7 +139,58 @@ export class EditorState {
 	readonly tubeKinds: TubeKindDef[];
 	readonly fittings: PartDef[];
 
-	computed = $derived.by(() => compute(this.enclosure, this.parts, this.settings, this.tubeKinds));
+	/**
+	 * Runs checked before, kept while nothing but the loops changes (a waypoint dragged re-checks
+	 * only its run: the engine's run cache); anything else changing starts a fresh one.
+	 */
+	#runCache: { base: string; parts: PartDef[]; cache: RunCache } = {
+		base: '',
+		parts: [],
+		cache: newRunCache()
+	};
+
+	#cacheFor(settings: VariantSettings, parts: PartDef[]): RunCache {
+		const base = canonicalJson({ ...settings, loops: null });
+		if (base !== this.#runCache.base || parts !== this.#runCache.parts) {
+			this.#runCache = { base, parts, cache: newRunCache() };
+		}
+		return this.#runCache.cache;
+	}
+
+	computed = $derived.by(() =>
+		compute(
+			this.enclosure,
+			this.parts,
+			this.settings,
+			this.tubeKinds,
+			this.#cacheFor(this.settings, this.parts)
+		)
+	);
+
+	/** A coolant port clicked in the 3D view, for the loop panel to start or finish a run with. */
+	portPick = $state.raw<PortRef | null>(null);
+
+	/**
+	 * Waypoint `handle` dragged to `to` (see dragWaypoint): applied when the scene accepts it, one
+	 * undo step per drag; a hard run that cannot follow keeps its last accepted place.
+	 */
+	dragWaypoint(handle: WaypointHandle, to: Vec3, done: boolean) {
+		const run = this.settings.loops?.[handle.loop]?.runs[handle.run];
+		const points = this.report?.loops?.[handle.loop]?.runs[handle.run]?.points;
+		if (run && points && points.length >= 2) {
+			const next = dragWaypointIn(
+				this.settings,
+				handle.loop,
+				handle.run,
+				handle.index,
+				to,
+				this.tubeKinds.find((t) => t.id === run.tube),
+				{ start: points[0], end: points[points.length - 1] }
+			);
+			if (next) this.applyLoop(next, [], `waypoint:${handle.key}`);
+		}
+		if (done) this.endGesture();
+	}
 	report = $derived(this.computed.ok ? this.computed.report : null);
 	resolved = $derived(this.computed.ok ? this.computed.resolved : null);
 	canUndo = $derived(this.#undo.length > 0);
