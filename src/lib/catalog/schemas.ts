@@ -8,18 +8,18 @@ import { isCurrencyCode } from '../quotes/money';
 import { int4 } from '$lib/schemas/common';
 import {
 	COORD_LIMIT_MM,
+	PANELS,
 	enclosureDefSchema,
-	faceNameSchema,
 	formatZodIssues,
 	partDefSchema,
 	type EnclosureDef,
-	type FaceName,
+	type PanelName,
 	type FieldIssue,
 	type PartDef
 } from '$lib/geometry';
 
-/** The enclosure's panels by name (the scene format's FaceName), for the wall fields. */
-export const PANELS = faceNameSchema.options;
+/** The enclosure's panels by name, for the wall fields. */
+export { PANELS };
 
 /** Money, notes and provenance: what a quote needs beyond the engine's PartDef. */
 export const partExtrasSchema = z.object({
@@ -142,7 +142,7 @@ export const enclosureFormSchema = z.object({
 });
 export type EnclosureForm = z.infer<typeof enclosureFormSchema>;
 
-type WallKey = `${FaceName}Mm` | `${FaceName}Kind` | `${FaceName}OffsetMm`;
+type WallKey = `${PanelName}Mm` | `${PanelName}Kind` | `${PanelName}OffsetMm`;
 
 export function enclosureToForm(
 	def: EnclosureDef,

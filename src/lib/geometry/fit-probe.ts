@@ -318,6 +318,7 @@ export function probeBase(
 		resolved: without,
 		boxes,
 		flat,
+		refs: boxes.map((_, index) => ({ index, coords: flat, slot: index })),
 		owner: Int32Array.from(owners),
 		obstacle,
 		bodiesOf: [[], ...placements.map(() => [])],
@@ -439,13 +440,14 @@ function probeCore(
 	const bodyFlat = bodyFlatOf(base, placed);
 	for (let k = 0; k < placed.bodies.length; k++) {
 		const b = placed.bodies[k].box;
+		const body = { coords: bodyFlat, slot: k };
 		// The cells the body covers, then layer by layer outward along each axis while a layer could
 		// still hold something nearer than the nearest found on that side.
 		cellRange(g, b, EPSILON_MM);
 		let n = gather(g, g.lo, g.hi, true);
 		for (let q = 0; q < n; q++) {
 			const j = found[q];
-			if (obstacle[j] && active[group[j]] === 1) addGap(model, tally, 0, bodyFlat, k, flat, j, j);
+			if (obstacle[j] && active[group[j]] === 1) addGap(model, tally, 0, body, model.refs[j]);
 		}
 		for (let a = 0; a < 3; a++) {
 			for (let dir = 1; dir >= -1; dir -= 2) {
@@ -464,7 +466,7 @@ function probeCore(
 					for (let q = 0; q < n; q++) {
 						const j = found[q];
 						if (obstacle[j] && active[group[j]] === 1) {
-							addGap(model, tally, 0, bodyFlat, k, flat, j, j);
+							addGap(model, tally, 0, body, model.refs[j]);
 						}
 					}
 				}
@@ -576,7 +578,7 @@ export function probeAcross(
 			else if (kind === 'blocked') tally.blocked[0] = 1;
 		}
 		for (let k = 0; k < placed.bodies.length; k++) {
-			addGap(model, tally, 0, bodyFlat, k, flat, slot, slot);
+			addGap(model, tally, 0, { coords: bodyFlat, slot: k }, model.refs[slot]);
 		}
 		return {
 			status: placementStatus(model, tally, 0, margin),
