@@ -29,6 +29,7 @@ import {
 } from './model';
 import { mountReport, plateBoxes, stackPlate } from './mounts';
 import { isObstacle, pairKind } from './pairs';
+import type { BoxRef } from './packed';
 import { placePart } from './resolve';
 import type { Box, MountDef, PartDef, Placement, Scene, Vec3 } from './schema';
 import {
@@ -437,10 +438,10 @@ function probeCore(
 		}
 	}
 	// Nearest obstacle ahead of each face, over all bodies, by the report's own gap rule.
-	const bodyFlat = bodyFlatOf(base, placed);
+	const bodies = bodyRefs(bodyFlatOf(base, placed), placed.bodies.length);
 	for (let k = 0; k < placed.bodies.length; k++) {
 		const b = placed.bodies[k].box;
-		const body = { coords: bodyFlat, slot: k };
+		const body = bodies[k];
 		// The cells the body covers, then layer by layer outward along each axis while a layer could
 		// still hold something nearer than the nearest found on that side.
 		cellRange(g, b, EPSILON_MM);
@@ -486,6 +487,14 @@ function probeCore(
 }
 
 /** The candidate's bodies, six numbers each, in a scratch array of the base. */
+/**
+ * The probed part's bodies as gap records over `bodyFlat`. Index -1: they are not among the
+ * model's boxes; the field is there so addGap sees one record shape (the model's own) and stays fast.
+ */
+function bodyRefs(bodyFlat: Float64Array, count: number): BoxRef[] {
+	return Array.from({ length: count }, (_, slot) => ({ index: -1, coords: bodyFlat, slot }));
+}
+
 function bodyFlatOf(base: ProbeBase, placed: ResolvedPlacement): Float64Array {
 	const n = placed.bodies.length * 6;
 	if (base.bodyFlat.length < n) base.bodyFlat = new Float64Array(n);
@@ -561,7 +570,7 @@ export function probeAcross(
 	const collides = tally.collides[0];
 	const blocked = tally.blocked[0];
 	const own = placed.keepouts.length ? [...placed.bodies, ...placed.keepouts] : placed.bodies;
-	const bodyFlat = bodyFlatOf(base, placed);
+	const bodies = bodyRefs(bodyFlatOf(base, placed), placed.bodies.length);
 	const margin = base.scene.marginMm;
 	return at.map((w) => {
 		tally.gap.set(gap);
@@ -577,9 +586,7 @@ export function probeAcross(
 			if (kind === 'collides') tally.collides[0] = 1;
 			else if (kind === 'blocked') tally.blocked[0] = 1;
 		}
-		for (let k = 0; k < placed.bodies.length; k++) {
-			addGap(model, tally, 0, { coords: bodyFlat, slot: k }, model.refs[slot]);
-		}
+		for (const body of bodies) addGap(model, tally, 0, body, model.refs[slot]);
 		return {
 			status: placementStatus(model, tally, 0, margin),
 			spareMm: spareOf(model, tally, report)
