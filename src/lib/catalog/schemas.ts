@@ -11,6 +11,7 @@ import {
 	PANELS,
 	enclosureDefSchema,
 	formatZodIssues,
+	partCategorySchema,
 	partDefSchema,
 	type EnclosureDef,
 	type PanelName,
@@ -233,23 +234,7 @@ const optionalNumber = (label: string, max = 100_000) =>
 export const partFormSchema = z.object({
 	revision: int4('Revision').default(0),
 	name: z.string().trim().min(1, 'Name is required').max(200, 'Name can be at most 200 characters'),
-	category: z.enum(
-		[
-			'board',
-			'cpu-block',
-			'gpu',
-			'pump',
-			'reservoir',
-			'pump-reservoir',
-			'radiator',
-			'fan',
-			'psu',
-			'fitting',
-			'drive',
-			'other'
-		],
-		{ error: 'Choose a category from the list' }
-	),
+	category: z.enum(partCategorySchema.options, { error: 'Choose a category from the list' }),
 	/** 'box': one body typed as width × height × depth; 'boxes': bodies from the geometry JSON. */
 	shape: z.enum(['box', 'boxes']).default('box'),
 	widthMm: sizeMm('Width').optional(),
