@@ -31,6 +31,11 @@ export type Face = (typeof FACES)[number];
 export const PANELS = ['left', 'right', 'bottom', 'top', 'front', 'back'] as const;
 export type PanelName = (typeof PANELS)[number];
 
+/** The enclosure panel on a face: '-x' → 'left', '+z' → 'back'. */
+export function panelOf(face: Face): PanelName {
+	return PANELS[FACES.indexOf(face)];
+}
+
 export function axisIndex(axis: Axis): AxisIndex {
 	return axis === 'x' ? 0 : axis === 'y' ? 1 : 2;
 }
