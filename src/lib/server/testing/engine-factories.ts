@@ -237,3 +237,18 @@ export function worldBoxesOf(scene: Scene, { plates = true } = {}): WorldBox[] {
 /** Oracle: how far two boxes share one axis (mm; ≤ 0 when apart or only touching). */
 export const sharedAlong = (a: Box, b: Box, axis: number) =>
 	Math.min(a.max[axis], b.max[axis]) - Math.max(a.min[axis], b.min[axis]);
+
+/**
+ * A soft loop-back run between the demo CPU block's two ports, as a request sends it: the ports
+ * sit 20 mm apart, room for two bends of 5 mm between them.
+ */
+export function demoLoopBackRun() {
+	return {
+		from: { placementId: 'cpu-block', portId: 'out', reachMm: 12 },
+		to: { placementId: 'cpu-block', portId: 'in', reachMm: 12 },
+		section: { kind: 'round' as const, outerDiameterMm: 10 },
+		bendRadiusMm: 5,
+		clearanceMm: 1,
+		mode: 'soft' as const
+	};
+}
