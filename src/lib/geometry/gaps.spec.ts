@@ -8,7 +8,14 @@ import { describe, expect, it } from 'vitest';
 import { EPSILON_MM, FACES, panelOf } from './box';
 import { checkScene } from './check';
 import { innerSizeMm } from './enclosure';
-import { sceneArb, sharedAlong, worldBoxesOf } from '../server/testing/engine-factories';
+import {
+	blockPart,
+	makeScene,
+	plainEnclosure,
+	sceneArb,
+	sharedAlong,
+	worldBoxesOf
+} from '../server/testing/engine-factories';
 import { pairKind } from './pairs';
 import { resolveScene } from './resolve';
 import type { Box, Scene } from './schema';
@@ -247,38 +254,15 @@ describe('interference total against an exact union (1,000 random scenes)', () =
 	});
 });
 
+/** A 100 mm cube inside 2 mm walls, with a 10 mm block pushed 2 mm into its front-bottom-left corner. */
 function cornerScene(): Scene {
-	const panel = { thicknessMm: 2, kind: 'solid' as const, offsetMm: 0 };
-	return {
-		format: 'interstice.scene',
-		version: 1,
-		enclosure: {
-			name: 'Box',
-			outerMm: [104, 104, 104],
-			walls: { left: panel, right: panel, bottom: panel, top: panel, front: panel, back: panel },
-			dividers: [],
-			brackets: [],
-			mounts: []
-		},
-		parts: [
-			{
-				id: 'cube',
-				name: 'Cube',
-				category: 'other',
-				bodies: [{ id: 'body', label: 'body', box: { min: [0, 0, 0], max: [10, 10, 10] } }],
-				keepouts: [],
-				ports: [],
-				specs: {},
-				provenance: 'estimate',
-				toleranceMm: 0
-			}
-		],
-		dividerPositions: {},
-		bracketOffsets: {},
+	return makeScene({
+		enclosure: plainEnclosure([100, 100, 100], 2),
+		parts: [blockPart('cube', [10, 10, 10])],
 		placements: [
 			{ id: 'cube', partId: 'cube', position: [-2, -2, -2], rotation: { x: 0, y: 0, z: 0 } }
 		],
 		marginMm: 2,
 		budgets: { wattsPer120mm: 100, psuHeadroomPct: 30 }
-	};
+	});
 }
