@@ -29,6 +29,7 @@ import {
 	type ResolvedScene,
 	type Rotation,
 	type Scene,
+	type SceneInput,
 	type Vec3
 } from '$lib/geometry';
 import {
@@ -375,7 +376,7 @@ export function targetOfKey(key: string): FitTarget | null {
 
 /** The `/api/fits` body for a parts × positions table: the picked parts at every position of one control. */
 export function positionsRequest(
-	scene: Scene,
+	scene: SceneInput,
 	target: FitTarget,
 	partIds: string[],
 	control: PositionsControl
