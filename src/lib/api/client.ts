@@ -15,6 +15,12 @@ import type { FitRow, FitTarget, PartsByPositions, RadiatorCombination } from '$
 
 export type Problem = { message: string; issues: FieldIssue[] };
 
+/** A refusal in one line: its message and the first field it names. */
+export function problemText(problem: Problem): string {
+	const first = problem.issues[0];
+	return first ? `${problem.message} ${first.path}: ${first.message}` : problem.message;
+}
+
 export type SaveOutcome =
 	| { kind: 'saved'; version: number; report: FitReport }
 	| { kind: 'conflict'; version: number; settings: VariantSettings; updatedAt: string }

@@ -20,6 +20,7 @@ import {
 	type Box,
 	type BracketDef,
 	type DividerDef,
+	type EnclosureDef,
 	type Face,
 	type FitStatus,
 	type MountDef,
@@ -28,6 +29,7 @@ import {
 	type ResolvedScene,
 	type Rotation,
 	type Scene,
+	type SceneInput,
 	type Vec3
 } from '$lib/geometry';
 import {
@@ -204,6 +206,26 @@ function reasonOf(status: FitStatus, r: ReturnType<typeof probe>): string | null
 }
 
 /** One candidate at a prepared target. */
+/** A part that cannot be placed at all: no spare room, no placement, only the reason. */
+function refusedRow(
+	common: Pick<FitRow, 'partId' | 'name' | 'category' | 'isStandard' | 'priceMinor'>,
+	status: 'blocked' | 'outside',
+	reason: string
+): FitRow {
+	return {
+		...common,
+		status,
+		fits: false,
+		spareMm: null,
+		roomToMoveMm: null,
+		spareByFace: { '-x': null, '+x': null, '-y': null, '+y': null, '-z': null, '+z': null },
+		stack: null,
+		ports: [],
+		placement: null,
+		reason
+	};
+}
+
 export function fitRow(prepared: Prepared, candidate: FitCandidate): FitRow {
 	const part = candidate.part;
 	const common = {
@@ -213,36 +235,12 @@ export function fitRow(prepared: Prepared, candidate: FitCandidate): FitRow {
 		isStandard: candidate.isStandard ?? part.provenance === 'standard',
 		priceMinor: candidate.priceMinor ?? null
 	};
-	const none = { '-x': null, '+x': null, '-y': null, '+y': null, '-z': null, '+z': null };
 	if (prepared.mount && !mountAccepts(prepared.mount, part)) {
-		return {
-			...common,
-			status: 'blocked',
-			fits: false,
-			spareMm: null,
-			roomToMoveMm: null,
-			spareByFace: none,
-			stack: null,
-			ports: [],
-			placement: null,
-			reason: `The ${prepared.mount.label} takes ${prepared.mount.accepts.join(', ')}.`
-		};
+		const reason = `The ${prepared.mount.label} takes ${prepared.mount.accepts.join(', ')}.`;
+		return refusedRow(common, 'blocked', reason);
 	}
 	const landing = prepared.land(part);
-	if ('reason' in landing) {
-		return {
-			...common,
-			status: 'outside',
-			fits: false,
-			spareMm: null,
-			roomToMoveMm: null,
-			spareByFace: none,
-			stack: null,
-			ports: [],
-			placement: null,
-			reason: landing.reason
-		};
-	}
+	if ('reason' in landing) return refusedRow(common, 'outside', landing.reason);
 	const placement: Placement = {
 		id: prepared.placementId,
 		partId: part.id,
@@ -346,6 +344,65 @@ export interface PartsByPositions {
 		name: string;
 		cells: { status: FitStatus; spareMm: number | null; fits: boolean }[];
 	}[];
+}
+
+/** A divider or bracket with more than one allowed position: what a parts × positions table runs along. */
+export interface SlidingControl extends PositionsControl {
+	/** `divider:<id>` or `bracket:<id>`, unique among the enclosure's controls. */
+	key: string;
+	label: string;
+	positionCount: number;
+}
+
+/** The enclosure's dividers, then its brackets, that have more than one allowed position. */
+export function slidingControls(enclosure: EnclosureDef): SlidingControl[] {
+	return [
+		...enclosure.dividers.map((d) => ({
+			key: `divider:${d.id}`,
+			kind: 'divider' as const,
+			id: d.id,
+			label: d.label,
+			positionCount: allowedPositions(d).length
+		})),
+		...enclosure.brackets.map((b) => ({
+			key: `bracket:${b.id}`,
+			kind: 'bracket' as const,
+			id: b.id,
+			label: b.label,
+			positionCount: allowedPositions(b).length
+		}))
+	].filter((c) => c.positionCount > 1);
+}
+
+/**
+ * A place picker's key as a fit target: `mount:<id>`, `room:<compartment id>` or
+ * `replace:<placement id>`; null for any other key (free-space boxes are the picker's own).
+ */
+export function targetOfKey(key: string): FitTarget | null {
+	if (key.startsWith('mount:')) return { kind: 'mount', mountId: key.slice('mount:'.length) };
+	if (key.startsWith('room:')) {
+		return { kind: 'compartment', compartmentId: key.slice('room:'.length) };
+	}
+	if (key.startsWith('replace:')) {
+		return { kind: 'replace', placementId: key.slice('replace:'.length) };
+	}
+	return null;
+}
+
+/** The `/api/fits` body for a parts × positions table: the picked parts at every position of one control. */
+export function positionsRequest(
+	scene: SceneInput,
+	target: FitTarget,
+	partIds: string[],
+	control: PositionsControl
+) {
+	return {
+		scene,
+		target,
+		filters: { partIds },
+		positions: { kind: control.kind, id: control.id },
+		limit: Math.max(1, partIds.length)
+	};
 }
 
 function controlDef(scene: Scene, control: PositionsControl): DividerDef | BracketDef {

@@ -3,7 +3,7 @@
  * both come from here, so a chip never counts something the list doesn't show. Parts' own
  * statuses are shown per part (parts panel), not as chip counts.
  */
-import { formatMm, type Face, type FitReport, type FitStatus } from '$lib/geometry';
+import { formatMm, type FitReport, type FitStatus } from '$lib/geometry';
 import {
 	SIDE_OF_IT,
 	gapWords,
@@ -13,16 +13,10 @@ import {
 	theName,
 	tightestGap
 } from '$lib/words/builds';
+import { faceWords } from '$lib/words/faces';
 
 /** Which end of the inside a part reaches past: "at the bottom and the front". */
-const INSIDE_END: Record<Face, string> = {
-	'-x': 'left',
-	'+x': 'right',
-	'-y': 'bottom',
-	'+y': 'top',
-	'-z': 'front',
-	'+z': 'back'
-};
+const INSIDE_END = faceWords('end');
 const listWords = (xs: string[]) =>
 	xs.length <= 1 ? (xs[0] ?? '') : `${xs.slice(0, -1).join(', ')} and ${xs[xs.length - 1]}`;
 

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { checkScene, resolveScene, sceneSchema, type Scene } from '$lib/geometry';
 import { demoScene } from '$lib/geometry/standard-library';
+import { demoLoopBackRun } from '$lib/server/testing/engine-factories';
 import { findRoute, routeBoxes } from '$lib/geometry/route';
 import { cableLengthWords, routeInputFor, routeRunSchema } from './routes';
 
@@ -24,15 +25,8 @@ function withTube(scene: Scene, boxes: { min: number[]; max: number[] }[]): Scen
 describe('routes in the demo build', () => {
 	it("routes a soft loop-back between the block's two ports clear of everything checkScene knows", () => {
 		const scene = demoScene();
-		const run = routeRunSchema.parse({
-			from: { placementId: 'cpu-block', portId: 'out', reachMm: 12 },
-			to: { placementId: 'cpu-block', portId: 'in', reachMm: 12 },
-			section: { kind: 'round', outerDiameterMm: 10 },
-			// Soft tube: its ports sit 20 mm apart, room for two bends of 5 mm between them.
-			bendRadiusMm: 5,
-			clearanceMm: 1,
-			mode: 'soft'
-		});
+		// Soft tube: its ports sit 20 mm apart, room for two bends of 5 mm between them.
+		const run = routeRunSchema.parse(demoLoopBackRun());
 		const made = routeInputFor(scene, run);
 		expect(made.ok).toBe(true);
 		if (!made.ok) return;

@@ -8,6 +8,7 @@ import { loopSheet, type LoopSheet } from '$lib/loop/sheet-lines';
 import {
 	EPSILON_MM,
 	FACES,
+	panelOf,
 	allowedIndex,
 	allowedPositions,
 	innerSizeMm,
@@ -603,8 +604,7 @@ export function buildSheet(input: SheetInput): SheetModel {
 				text: `${t.ports} × ${t.thread} fittings or stop plugs${t.withPlacedFitting ? ` (${t.withPlacedFitting} placed in the plan)` : ''}: ${t.byPart.map((p) => `${p.ports} on ${p.name}`).join('; ')}.`
 			}));
 	const walls = FACES.map((f) => {
-		const name = (['left', 'right', 'bottom', 'top', 'front', 'back'] as const)[FACES.indexOf(f)];
-		const w = enclosure.walls[name];
+		const w = enclosure.walls[panelOf(f)];
 		return `${FACE_PANEL[f].replace(/^./, (c) => c.toUpperCase())}: ${mm(w.thicknessMm)} ${w.kind}${w.offsetMm ? `, ${mm(w.offsetMm)} offset` : ''}`;
 	});
 

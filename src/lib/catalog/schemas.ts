@@ -8,18 +8,19 @@ import { isCurrencyCode } from '../quotes/money';
 import { idField, int4 } from '$lib/schemas/common';
 import {
 	COORD_LIMIT_MM,
+	PANELS,
 	enclosureDefSchema,
-	faceNameSchema,
 	formatZodIssues,
+	partCategorySchema,
 	partDefSchema,
 	type EnclosureDef,
-	type FaceName,
+	type PanelName,
 	type FieldIssue,
 	type PartDef
 } from '$lib/geometry';
 
-/** The enclosure's panels by name (the scene format's FaceName), for the wall fields. */
-export const PANELS = faceNameSchema.options;
+/** The enclosure's panels by name, for the wall fields. */
+export { PANELS };
 
 /** Money, notes and provenance: what a quote needs beyond the engine's PartDef. */
 export const partExtrasSchema = z.object({
@@ -142,7 +143,7 @@ export const enclosureFormSchema = z.object({
 });
 export type EnclosureForm = z.infer<typeof enclosureFormSchema>;
 
-type WallKey = `${FaceName}Mm` | `${FaceName}Kind` | `${FaceName}OffsetMm`;
+type WallKey = `${PanelName}Mm` | `${PanelName}Kind` | `${PanelName}OffsetMm`;
 
 export function enclosureToForm(
 	def: EnclosureDef,
@@ -233,23 +234,7 @@ const optionalNumber = (label: string, max = 100_000) =>
 export const partFormSchema = z.object({
 	revision: int4('Change number').default(0),
 	name: z.string().trim().min(1, 'Name is required').max(200, 'Name can be at most 200 characters'),
-	category: z.enum(
-		[
-			'board',
-			'cpu-block',
-			'gpu',
-			'pump',
-			'reservoir',
-			'pump-reservoir',
-			'radiator',
-			'fan',
-			'psu',
-			'fitting',
-			'drive',
-			'other'
-		],
-		{ error: 'Choose a category from the list' }
-	),
+	category: z.enum(partCategorySchema.options, { error: 'Choose a category from the list' }),
 	/** 'box': one body typed as width × height × depth; 'boxes': bodies from the geometry JSON. */
 	shape: z.enum(['box', 'boxes']).default('box'),
 	widthMm: sizeMm('Width').optional(),

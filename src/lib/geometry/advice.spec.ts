@@ -8,7 +8,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { EPSILON_MM } from './box';
 import { checkScene } from './check';
-import { sceneArb } from '../server/testing/engine-factories';
+import { sceneArb, sharedAlong, worldBoxesOf } from '../server/testing/engine-factories';
 import { pairKind } from './pairs';
 import { allowedIndex, allowedPositions } from './positions';
 import { resolveScene } from './resolve';
@@ -23,22 +23,8 @@ const lockedSceneArb = fc
 		placements: scene.placements.map((p, i) => (locks[i] ? { ...p, locked: true } : p))
 	}));
 
-function allBoxes(scene: Scene): WorldBox[] {
-	const r = resolveScene(scene);
-	return [
-		...r.walls,
-		...r.dividers,
-		...r.brackets,
-		...r.plates,
-		...r.placements.flatMap((p) => [...p.bodies, ...p.keepouts])
-	];
-}
-
-/** Overlap along one axis of two boxes. */
-const along = (a: Box, b: Box, k: number) =>
-	Math.min(a.max[k], b.max[k]) - Math.max(a.min[k], b.min[k]);
 const overlapVolume = (a: Box, b: Box) => {
-	const d = [0, 1, 2].map((k) => along(a, b, k));
+	const d = [0, 1, 2].map((k) => sharedAlong(a, b, k));
 	return d.every((v) => v > EPSILON_MM) ? d[0] * d[1] * d[2] : 0;
 };
 const key = (a: string, b: string) => (a < b ? `${a}|${b}` : `${b}|${a}`);
@@ -145,7 +131,7 @@ describe('clearing moves, applied and re-checked (1,000 random scenes)', () => {
 				const empty = report.overlaps.filter((o) => o.moves.length === 0);
 				if (empty.length === 0) return;
 				const resolved = resolveScene(scene);
-				const boxes = allBoxes(scene);
+				const boxes = worldBoxesOf(scene);
 				const before = problems(boxes);
 				const inner = resolved.innerBox;
 				for (const o of empty) {
@@ -204,7 +190,7 @@ describe('clearing moves, applied and re-checked (1,000 random scenes)', () => {
 								(b) =>
 									b.ownerId === owner ||
 									own.some((m) =>
-										[0, 1, 2].every((k) => k === a || along(m.box, b.box, k) > EPSILON_MM)
+										[0, 1, 2].every((k) => k === a || sharedAlong(m.box, b.box, k) > EPSILON_MM)
 									)
 							)
 						);

@@ -21,8 +21,20 @@ export const AXES = ['x', 'y', 'z'] as const;
 export type Axis = (typeof AXES)[number];
 export type AxisIndex = 0 | 1 | 2;
 
+/**
+ * The six faces of a box, in slot order (a gap array's slot is 2 × axis, + 1 on the high side):
+ * the one list of faces; `Face` and the scene format's `faceSchema` are made from it.
+ */
 export const FACES = ['-x', '+x', '-y', '+y', '-z', '+z'] as const;
 export type Face = (typeof FACES)[number];
+/** The enclosure's panel on each face, in the same order: PANELS[k] is the wall on FACES[k]. */
+export const PANELS = ['left', 'right', 'bottom', 'top', 'front', 'back'] as const;
+export type PanelName = (typeof PANELS)[number];
+
+/** The enclosure panel on a face: '-x' → 'left', '+z' → 'back'. */
+export function panelOf(face: Face): PanelName {
+	return PANELS[FACES.indexOf(face)];
+}
 
 export function axisIndex(axis: Axis): AxisIndex {
 	return axis === 'x' ? 0 : axis === 'y' ? 1 : 2;

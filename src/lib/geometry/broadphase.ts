@@ -8,23 +8,11 @@
  */
 
 import { EPSILON_MM } from './box';
+import { BOX_STRIDE, MAX, packBoxes, type PackedBoxes } from './packed';
 import type { Box } from './schema';
 
-/** Six numbers per box: minX, minY, minZ, maxX, maxY, maxZ. */
-export function flattenBoxes(boxes: readonly Box[]): Float64Array {
-	const flat = new Float64Array(boxes.length * 6);
-	for (let i = 0; i < boxes.length; i++) {
-		const { min, max } = boxes[i];
-		const o = i * 6;
-		flat[o] = min[0];
-		flat[o + 1] = min[1];
-		flat[o + 2] = min[2];
-		flat[o + 3] = max[0];
-		flat[o + 4] = max[1];
-		flat[o + 5] = max[2];
-	}
-	return flat;
-}
+/** The boxes packed six numbers each (see packed.ts). */
+export const flattenBoxes: (boxes: readonly Box[]) => PackedBoxes = packBoxes;
 
 /** Grows as pairs are found; `data[2k], data[2k + 1]` is the k-th pair. */
 class PairBuffer {
@@ -48,21 +36,23 @@ class PairBuffer {
 	}
 }
 
-/** Boxes i and j of a flat list (six numbers a box) share volume: more than EPSILON_MM on every axis. */
-export function overlapsFlat(f: ArrayLike<number>, i: number, j: number): boolean {
-	const a = i * 6;
-	const b = j * 6;
+/** Packed boxes i and j share volume: more than EPSILON_MM on every axis. */
+export function overlapsFlat(coords: ArrayLike<number>, i: number, j: number): boolean {
+	const a = i * BOX_STRIDE;
+	const b = j * BOX_STRIDE;
 	return (
-		Math.min(f[a + 3], f[b + 3]) - Math.max(f[a], f[b]) > EPSILON_MM &&
-		Math.min(f[a + 4], f[b + 4]) - Math.max(f[a + 1], f[b + 1]) > EPSILON_MM &&
-		Math.min(f[a + 5], f[b + 5]) - Math.max(f[a + 2], f[b + 2]) > EPSILON_MM
+		Math.min(coords[a + MAX], coords[b + MAX]) - Math.max(coords[a], coords[b]) > EPSILON_MM &&
+		Math.min(coords[a + MAX + 1], coords[b + MAX + 1]) - Math.max(coords[a + 1], coords[b + 1]) >
+			EPSILON_MM &&
+		Math.min(coords[a + MAX + 2], coords[b + MAX + 2]) - Math.max(coords[a + 2], coords[b + 2]) >
+			EPSILON_MM
 	);
 }
 
-function bruteForce(f: Float64Array, n: number, out: PairBuffer): void {
+function bruteForce(coords: PackedBoxes, n: number, out: PairBuffer): void {
 	for (let i = 0; i < n; i++) {
 		for (let j = i + 1; j < n; j++) {
-			if (overlapsFlat(f, i, j)) {
+			if (overlapsFlat(coords, i, j)) {
 				out.push(i, j);
 			}
 		}
@@ -75,20 +65,23 @@ const BRUTE_FORCE_BELOW = 64;
 const MAX_CELLS_PER_BOX = 64;
 
 interface Grid {
+	/** Low corner of the boxes' bounds (mm). */
 	origin: [number, number, number];
+	/** Cells per millimetre along each axis. */
 	inv: [number, number, number];
+	/** Cells along each axis. */
 	dims: [number, number, number];
 }
 
-function planGrid(f: Float64Array, n: number): Grid {
+function planGrid(coords: PackedBoxes, n: number): Grid {
 	const lo = [Infinity, Infinity, Infinity];
 	const hi = [-Infinity, -Infinity, -Infinity];
 	const mean = [0, 0, 0];
 	for (let i = 0; i < n; i++) {
-		const o = i * 6;
+		const at = i * BOX_STRIDE;
 		for (let a = 0; a < 3; a++) {
-			const min = f[o + a];
-			const max = f[o + 3 + a];
+			const min = coords[at + a];
+			const max = coords[at + MAX + a];
 			if (min < lo[a]) lo[a] = min;
 			if (max > hi[a]) hi[a] = max;
 			mean[a] += max - min;
@@ -121,12 +114,12 @@ function clampCell(c: number, max: number): number {
 }
 
 /**
- * Pairs (i < j) of boxes in `flat` (six numbers a box) that share more than EPSILON_MM on every
- * axis, as `[i0, j0, i1, j1, …]` in `pairs` up to `count`. Order follows the grid, the same for the
- * same input.
+ * Pairs (i < j) of the first n boxes in `flat` (packed, see packed.ts) that share more than
+ * EPSILON_MM on every axis, as `[i0, j0, i1, j1, …]` in `pairs` up to `count`. Order follows the
+ * grid, the same for the same input.
  */
 export function overlappingPairsFlat(
-	flat: Float64Array,
+	flat: PackedBoxes,
 	n: number
 ): { pairs: Int32Array; count: number } {
 	const out = new PairBuffer();
@@ -137,8 +130,9 @@ export function overlappingPairsFlat(
 	const grid = planGrid(flat, n);
 	const [dx, dy, dz] = grid.dims;
 	const cellCount = dx * dy * dz;
-	// Cell range of every box, and which boxes are too big for the grid.
-	const range = new Int32Array(n * 6);
+	// Cell range of every box (low cell x, y, z, then high, at the box's packed offsets), and which
+	// boxes are too big for the grid.
+	const range = new Int32Array(n * BOX_STRIDE);
 	const big: number[] = [];
 	const isBig = new Uint8Array(n);
 	const counts = new Int32Array(cellCount + 1);
@@ -148,19 +142,19 @@ export function overlappingPairsFlat(
 	const my = dy - 1;
 	const mz = dz - 1;
 	for (let i = 0; i < n; i++) {
-		const o = i * 6;
-		const x0 = clampCell(Math.floor((flat[o] - ox) * ix), mx);
-		const y0 = clampCell(Math.floor((flat[o + 1] - oy) * iy), my);
-		const z0 = clampCell(Math.floor((flat[o + 2] - oz) * iz), mz);
-		const x1 = clampCell(Math.floor((flat[o + 3] - ox) * ix), mx);
-		const y1 = clampCell(Math.floor((flat[o + 4] - oy) * iy), my);
-		const z1 = clampCell(Math.floor((flat[o + 5] - oz) * iz), mz);
-		range[o] = x0;
-		range[o + 1] = y0;
-		range[o + 2] = z0;
-		range[o + 3] = x1;
-		range[o + 4] = y1;
-		range[o + 5] = z1;
+		const at = i * BOX_STRIDE;
+		const x0 = clampCell(Math.floor((flat[at] - ox) * ix), mx);
+		const y0 = clampCell(Math.floor((flat[at + 1] - oy) * iy), my);
+		const z0 = clampCell(Math.floor((flat[at + 2] - oz) * iz), mz);
+		const x1 = clampCell(Math.floor((flat[at + MAX] - ox) * ix), mx);
+		const y1 = clampCell(Math.floor((flat[at + MAX + 1] - oy) * iy), my);
+		const z1 = clampCell(Math.floor((flat[at + MAX + 2] - oz) * iz), mz);
+		range[at] = x0;
+		range[at + 1] = y0;
+		range[at + 2] = z0;
+		range[at + MAX] = x1;
+		range[at + MAX + 1] = y1;
+		range[at + MAX + 2] = z1;
 		if ((x1 - x0 + 1) * (y1 - y0 + 1) * (z1 - z0 + 1) > MAX_CELLS_PER_BOX) {
 			isBig[i] = 1;
 			big.push(i);
@@ -184,11 +178,11 @@ export function overlappingPairsFlat(
 		if (isBig[i]) {
 			continue;
 		}
-		const o = i * 6;
-		for (let z = range[o + 2]; z <= range[o + 5]; z++) {
-			for (let y = range[o + 1]; y <= range[o + 4]; y++) {
+		const at = i * BOX_STRIDE;
+		for (let z = range[at + 2]; z <= range[at + MAX + 2]; z++) {
+			for (let y = range[at + 1]; y <= range[at + MAX + 1]; y++) {
 				const row = (z * dy + y) * dx;
-				for (let x = range[o]; x <= range[o + 3]; x++) {
+				for (let x = range[at]; x <= range[at + MAX]; x++) {
 					members[fill[row + x]++] = i;
 				}
 			}
@@ -202,28 +196,28 @@ export function overlappingPairsFlat(
 				const end = counts[cell + 1];
 				for (let p = start; p < end; p++) {
 					const i = members[p];
-					// boxAt: where box i's six numbers (min xyz, max xyz) start in flat.
-					const boxAt = i * 6;
-					const ax0 = flat[boxAt];
-					const ay0 = flat[boxAt + 1];
-					const az0 = flat[boxAt + 2];
-					const ax1 = flat[boxAt + 3];
-					const ay1 = flat[boxAt + 4];
-					const az1 = flat[boxAt + 5];
-					const rx = range[boxAt];
-					const ry = range[boxAt + 1];
-					const rz = range[boxAt + 2];
+					// Box i's corners and low cell, read once for every partner in the cell.
+					const iAt = i * BOX_STRIDE;
+					const iMinX = flat[iAt];
+					const iMinY = flat[iAt + 1];
+					const iMinZ = flat[iAt + 2];
+					const iMaxX = flat[iAt + MAX];
+					const iMaxY = flat[iAt + MAX + 1];
+					const iMaxZ = flat[iAt + MAX + 2];
+					const iCellX = range[iAt];
+					const iCellY = range[iAt + 1];
+					const iCellZ = range[iAt + 2];
 					for (let q = p + 1; q < end; q++) {
 						const j = members[q];
-						const oj = j * 6;
+						const jAt = j * BOX_STRIDE;
 						if (
-							Math.min(ax1, flat[oj + 3]) - Math.max(ax0, flat[oj]) > EPSILON_MM &&
-							Math.min(ay1, flat[oj + 4]) - Math.max(ay0, flat[oj + 1]) > EPSILON_MM &&
-							Math.min(az1, flat[oj + 5]) - Math.max(az0, flat[oj + 2]) > EPSILON_MM &&
+							Math.min(iMaxX, flat[jAt + MAX]) - Math.max(iMinX, flat[jAt]) > EPSILON_MM &&
+							Math.min(iMaxY, flat[jAt + MAX + 1]) - Math.max(iMinY, flat[jAt + 1]) > EPSILON_MM &&
+							Math.min(iMaxZ, flat[jAt + MAX + 2]) - Math.max(iMinZ, flat[jAt + 2]) > EPSILON_MM &&
 							// The cell holding the overlap's low corner reports the pair; others skip it.
-							(rx > range[oj] ? rx : range[oj]) === x &&
-							(ry > range[oj + 1] ? ry : range[oj + 1]) === y &&
-							(rz > range[oj + 2] ? rz : range[oj + 2]) === z
+							(iCellX > range[jAt] ? iCellX : range[jAt]) === x &&
+							(iCellY > range[jAt + 1] ? iCellY : range[jAt + 1]) === y &&
+							(iCellZ > range[jAt + 2] ? iCellZ : range[jAt + 2]) === z
 						) {
 							out.push(i, j);
 						}
@@ -266,12 +260,12 @@ export function overlapVolumes(boxes: readonly Box[]): {
 	const { pairs, count } = overlappingPairsFlat(flat, boxes.length);
 	const volumesMm3 = new Float64Array(count);
 	for (let k = 0; k < count; k++) {
-		const a = pairs[2 * k] * 6;
-		const b = pairs[2 * k + 1] * 6;
+		const a = pairs[2 * k] * BOX_STRIDE;
+		const b = pairs[2 * k + 1] * BOX_STRIDE;
 		volumesMm3[k] =
-			(Math.min(flat[a + 3], flat[b + 3]) - Math.max(flat[a], flat[b])) *
-			(Math.min(flat[a + 4], flat[b + 4]) - Math.max(flat[a + 1], flat[b + 1])) *
-			(Math.min(flat[a + 5], flat[b + 5]) - Math.max(flat[a + 2], flat[b + 2]));
+			(Math.min(flat[a + MAX], flat[b + MAX]) - Math.max(flat[a], flat[b])) *
+			(Math.min(flat[a + MAX + 1], flat[b + MAX + 1]) - Math.max(flat[a + 1], flat[b + 1])) *
+			(Math.min(flat[a + MAX + 2], flat[b + MAX + 2]) - Math.max(flat[a + 2], flat[b + 2]));
 	}
 	return { pairs: pairs.subarray(0, 2 * count), volumesMm3, count };
 }

@@ -4,6 +4,7 @@ import { adviceCache, adviseOverlap, type AdviceCache } from './advice';
 import {
 	AXES,
 	EPSILON_MM,
+	FACES,
 	boxContains,
 	boxSize,
 	compareText,
@@ -15,7 +16,6 @@ import { heatBudget, powerBudget } from './budgets';
 import { MAX_LISTED_OVERLAPS, firstPairsById } from './cost';
 import {
 	buildModel,
-	FACE_ORDER,
 	interferenceUnion,
 	isHeldContact,
 	statusCounts,
@@ -97,7 +97,7 @@ function gapsOf(
 	p: number
 ): Record<Face, FaceGap> {
 	const out = {} as Record<Face, FaceGap>;
-	FACE_ORDER.forEach((face, f) => {
+	FACES.forEach((face, f) => {
 		const g = gap[p * 6 + f];
 		const idx = against[p * 6 + f];
 		out[face] =

@@ -3,15 +3,24 @@
  * origin at the inner front-bottom-left corner, X width, Y height, Z depth, millimetres.
  */
 
-import { AXES, EPSILON_MM, axisIndex, boxSize, compareText, type AxisIndex } from './box';
+import {
+	AXES,
+	EPSILON_MM,
+	PANELS,
+	axisIndex,
+	boxSize,
+	compareText,
+	type AxisIndex,
+	type PanelName
+} from './box';
 import { SceneError } from './errors';
 import { allowedIndex, defaultOffset } from './positions';
 import { formatPath, openingAxes } from './schema';
-import type { BracketDef, Box, DividerDef, EnclosureDef, FaceName, Vec3 } from './schema';
+import type { BracketDef, Box, DividerDef, EnclosureDef, Vec3 } from './schema';
 import type { Compartment, WorldBox } from './types';
 
-/** Faces as (axis, low or high side), in the order walls are listed. */
-export const FACE_AXES: Record<FaceName, { axis: AxisIndex; high: boolean }> = {
+/** Panels as (axis, low or high side), in the order walls are listed (PANELS). */
+export const FACE_AXES: Record<PanelName, { axis: AxisIndex; high: boolean }> = {
 	left: { axis: 0, high: false },
 	right: { axis: 0, high: true },
 	bottom: { axis: 1, high: false },
@@ -19,13 +28,12 @@ export const FACE_AXES: Record<FaceName, { axis: AxisIndex; high: boolean }> = {
 	front: { axis: 2, high: false },
 	back: { axis: 2, high: true }
 };
-const FACE_NAMES = Object.keys(FACE_AXES) as FaceName[];
-const PAIRS: [FaceName, FaceName][] = [
+const PAIRS: [PanelName, PanelName][] = [
 	['left', 'right'],
 	['bottom', 'top'],
 	['front', 'back']
 ];
-const FACE_LABELS: Record<FaceName, string> = {
+const FACE_LABELS: Record<PanelName, string> = {
 	left: 'Left panel',
 	right: 'Right panel',
 	bottom: 'Bottom panel',
@@ -69,7 +77,7 @@ export function wallBoxes(enclosure: EnclosureDef): WorldBox[] {
 		size[2] + w.back.thicknessMm
 	];
 	const out: WorldBox[] = [];
-	for (const face of FACE_NAMES) {
+	for (const face of PANELS) {
 		const spec = w[face];
 		if (!(spec.thicknessMm > 0)) {
 			continue;

@@ -29,6 +29,7 @@ import {
 } from './model';
 import { mountReport, plateBoxes, stackPlate } from './mounts';
 import { isObstacle, pairKind } from './pairs';
+import type { BoxRef } from './packed';
 import { placePart } from './resolve';
 import type { Box, MountDef, PartDef, Placement, Scene, Vec3 } from './schema';
 import {
@@ -321,6 +322,7 @@ export function probeBase(
 		resolved: without,
 		boxes,
 		flat,
+		refs: boxes.map((_, index) => ({ index, coords: flat, slot: index })),
 		owner: Int32Array.from(owners),
 		obstacle,
 		bodiesOf: [[], ...placements.map(() => [])],
@@ -429,10 +431,11 @@ function probeCore(
 	// A body's overlaps and its nearest boxes come from one gathering of the cells it covers (grown
 	// by the tolerance, so touching boxes are seen for the gaps); keep-outs only overlap. Overlaps
 	// and nearest gaps are a union and a minimum (ties to the smaller id): the order does not count.
-	const bodyFlat = bodyFlatOf(base, placed);
+	const bodies = bodyRefs(bodyFlatOf(base, placed), placed.bodies.length);
 	for (let k = 0; k < placed.bodies.length; k++) {
-		const body = placed.bodies[k];
-		const b = body.box;
+		const own = placed.bodies[k];
+		const b = own.box;
+		const body = bodies[k];
 		// The cells the body covers, then layer by layer outward along each axis while a layer could
 		// still hold something nearer than the nearest found on that side.
 		cellRange(g, b, EPSILON_MM);
@@ -441,12 +444,12 @@ function probeCore(
 			const j = found[q];
 			if (active[group[j]] !== 1) continue;
 			if (overlapWith(b, flat, j) > 0) {
-				const kind = pairKind(body, boxes[j]);
+				const kind = pairKind(own, boxes[j]);
 				if (kind === 'collides') tally.collides[0] = 1;
 				else if (kind === 'blocked') tally.blocked[0] = 1;
 				if (kind) overlaps?.push({ with: boxes[j].id, label: boxes[j].label, kind });
 			}
-			if (obstacle[j]) addGap(model, tally, 0, bodyFlat, k, flat, j, j);
+			if (obstacle[j]) addGap(model, tally, 0, body, model.refs[j]);
 		}
 		for (let a = 0; a < 3; a++) {
 			for (let dir = 1; dir >= -1; dir -= 2) {
@@ -465,7 +468,7 @@ function probeCore(
 					for (let q = 0; q < n; q++) {
 						const j = found[q];
 						if (obstacle[j] && active[group[j]] === 1) {
-							addGap(model, tally, 0, bodyFlat, k, flat, j, j);
+							addGap(model, tally, 0, body, model.refs[j]);
 						}
 					}
 				}
@@ -495,6 +498,14 @@ function probeCore(
 		model.mountRank[0] = mountRankOf(problemsMarking(report, placement.id));
 	}
 	return { report, overlaps };
+}
+
+/**
+ * The probed part's bodies as gap records over `bodyFlat`. Index -1: they are not among the
+ * model's boxes; the field is there so addGap sees one record shape (the model's own) and stays fast.
+ */
+function bodyRefs(bodyFlat: Float64Array, count: number): BoxRef[] {
+	return Array.from({ length: count }, (_, slot) => ({ index: -1, coords: bodyFlat, slot }));
 }
 
 /** The candidate's bodies, six numbers each, in a scratch array of the base. */
@@ -578,7 +589,7 @@ export function probeAcross(
 	const collides = tally.collides[0];
 	const blocked = tally.blocked[0];
 	const own = placed.keepouts.length ? [...placed.bodies, ...placed.keepouts] : placed.bodies;
-	const bodyFlat = bodyFlatOf(base, placed);
+	const bodies = bodyRefs(bodyFlatOf(base, placed), placed.bodies.length);
 	const margin = base.scene.marginMm;
 	const atFlat = flatOf(at);
 	const o = slot * 6;
@@ -597,9 +608,7 @@ export function probeAcross(
 			if (kind === 'collides') tally.collides[0] = 1;
 			else if (kind === 'blocked') tally.blocked[0] = 1;
 		}
-		for (let k = 0; k < placed.bodies.length; k++) {
-			addGap(model, tally, 0, bodyFlat, k, flat, slot, slot);
-		}
+		for (const body of bodies) addGap(model, tally, 0, body, model.refs[slot]);
 		const status = placementStatus(model, tally, 0, margin);
 		out[p] = {
 			status,

@@ -5,10 +5,17 @@
  */
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { EPSILON_MM, FACES } from './box';
+import { EPSILON_MM, FACES, panelOf } from './box';
 import { checkScene } from './check';
 import { innerSizeMm } from './enclosure';
-import { sceneArb } from '../server/testing/engine-factories';
+import {
+	blockPart,
+	makeScene,
+	plainEnclosure,
+	sceneArb,
+	sharedAlong,
+	worldBoxesOf
+} from '../server/testing/engine-factories';
 import { pairKind } from './pairs';
 import { resolveScene } from './resolve';
 import type { Box, Scene } from './schema';
@@ -22,20 +29,6 @@ const tolerancedArb = fc
 		parts: scene.parts.map((p, i) => ({ ...p, toleranceMm: tol[i] }))
 	}));
 
-const along = (a: Box, b: Box, k: number) =>
-	Math.min(a.max[k], b.max[k]) - Math.max(a.min[k], b.min[k]);
-
-function fixedAndPlaced(scene: Scene): WorldBox[] {
-	const r = resolveScene(scene);
-	return [
-		...r.walls,
-		...r.dividers,
-		...r.brackets,
-		...r.plates,
-		...r.placements.flatMap((p) => [...p.bodies, ...p.keepouts])
-	];
-}
-
 /**
  * The oracle's gap of one face: over the part's bodies and every obstacle (not a keep-out, not the
  * part's own) that shares area with the body seen along the axis. A wall bounds only the face
@@ -47,7 +40,7 @@ function oracleGap(
 	placementId: string,
 	face: (typeof FACES)[number]
 ): { gap: number; ahead: WorldBox[] } | null {
-	const all = fixedAndPlaced(scene);
+	const all = worldBoxesOf(scene);
 	const inner = resolveScene(scene).innerBox;
 	const a = 'xyz'.indexOf(face[1]);
 	const high = face[0] === '+';
@@ -57,7 +50,9 @@ function oracleGap(
 	for (const body of bodies) {
 		for (const o of all) {
 			if (o.ownerId === placementId || o.kind === 'keepout') continue;
-			const shares = [0, 1, 2].every((k) => k === a || along(body.box, o.box, k) > EPSILON_MM);
+			const shares = [0, 1, 2].every(
+				(k) => k === a || sharedAlong(body.box, o.box, k) > EPSILON_MM
+			);
 			if (!shares) continue;
 			let gap: number | null = null;
 			if (o.kind === 'wall') {
@@ -136,23 +131,12 @@ describe('gaps against a brute-force nearest-box search (1,000 random scenes)', 
 					for (const face of part.outsideFaces) {
 						const g = part.gaps[face];
 						const a = 'xyz'.indexOf(face[1]);
-						const wall = resolved.walls.find(
-							(w) =>
-								w.face ===
-								{
-									'-x': 'left',
-									'+x': 'right',
-									'-y': 'bottom',
-									'+y': 'top',
-									'-z': 'front',
-									'+z': 'back'
-								}[face]
-						);
+						const wall = resolved.walls.find((w) => w.face === panelOf(face));
 						if (!wall || g.against?.kind !== 'wall') continue;
 						expect(g.against.id).toBe(wall.id);
 						// Depth past the inner face of the deepest body that meets the wall.
 						const meeting = rp.bodies.filter((b) =>
-							[0, 1, 2].every((k) => k === a || along(b.box, wall.box, k) > EPSILON_MM)
+							[0, 1, 2].every((k) => k === a || sharedAlong(b.box, wall.box, k) > EPSILON_MM)
 						);
 						const depth = Math.max(
 							...meeting.map((b) =>
@@ -200,12 +184,12 @@ describe('interference total against an exact union (1,000 random scenes)', () =
 	it('is the volume of the union of every collision region, however many obstacles overlap a point', () => {
 		fc.assert(
 			fc.property(sceneArb, (scene) => {
-				const boxes = fixedAndPlaced(scene);
+				const boxes = worldBoxesOf(scene);
 				const regions: Box[] = [];
 				for (let i = 0; i < boxes.length; i++) {
 					for (let j = i + 1; j < boxes.length; j++) {
 						if (pairKind(boxes[i], boxes[j]) !== 'collides') continue;
-						const d = [0, 1, 2].map((k) => along(boxes[i].box, boxes[j].box, k));
+						const d = [0, 1, 2].map((k) => sharedAlong(boxes[i].box, boxes[j].box, k));
 						if (!d.every((v) => v > EPSILON_MM)) continue;
 						regions.push({
 							min: [0, 1, 2].map((k) =>
@@ -236,7 +220,9 @@ describe('interference total against an exact union (1,000 random scenes)', () =
 				const walls = resolveScene(scene).walls.map((w) => w.box);
 				for (let i = 0; i < walls.length; i++) {
 					for (let j = i + 1; j < walls.length; j++) {
-						expect([0, 1, 2].every((k) => along(walls[i], walls[j], k) > EPSILON_MM)).toBe(false);
+						expect([0, 1, 2].every((k) => sharedAlong(walls[i], walls[j], k) > EPSILON_MM)).toBe(
+							false
+						);
 					}
 				}
 				const w = scene.enclosure.walls;
@@ -268,38 +254,15 @@ describe('interference total against an exact union (1,000 random scenes)', () =
 	});
 });
 
+/** A 100 mm cube inside 2 mm walls, with a 10 mm block pushed 2 mm into its front-bottom-left corner. */
 function cornerScene(): Scene {
-	const panel = { thicknessMm: 2, kind: 'solid' as const, offsetMm: 0 };
-	return {
-		format: 'interstice.scene',
-		version: 1,
-		enclosure: {
-			name: 'Box',
-			outerMm: [104, 104, 104],
-			walls: { left: panel, right: panel, bottom: panel, top: panel, front: panel, back: panel },
-			dividers: [],
-			brackets: [],
-			mounts: []
-		},
-		parts: [
-			{
-				id: 'cube',
-				name: 'Cube',
-				category: 'other',
-				bodies: [{ id: 'body', label: 'body', box: { min: [0, 0, 0], max: [10, 10, 10] } }],
-				keepouts: [],
-				ports: [],
-				specs: {},
-				provenance: 'estimate',
-				toleranceMm: 0
-			}
-		],
-		dividerPositions: {},
-		bracketOffsets: {},
+	return makeScene({
+		enclosure: plainEnclosure([100, 100, 100], 2),
+		parts: [blockPart('cube', [10, 10, 10])],
 		placements: [
 			{ id: 'cube', partId: 'cube', position: [-2, -2, -2], rotation: { x: 0, y: 0, z: 0 } }
 		],
 		marginMm: 2,
 		budgets: { wattsPer120mm: 100, psuHeadroomPct: 30 }
-	};
+	});
 }

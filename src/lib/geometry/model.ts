@@ -6,6 +6,14 @@
  */
 
 import { EPSILON_MM, FACES, compareText, faceOf, type Face } from './box';
+import {
+	BOX_STRIDE,
+	MAX,
+	writePacked,
+	type BoxRef,
+	type PackedBox,
+	type PackedBoxes
+} from './packed';
 import { STATUS_ORDER } from './types';
 import { overlappingPairsFlat } from './broadphase';
 import { FACE_AXES } from './enclosure';
@@ -28,8 +36,10 @@ export interface Model {
 	resolved: ResolvedScene;
 	/** Walls, dividers, brackets, plates, then each placement's bodies and keep-outs (placements by id). */
 	boxes: WorldBox[];
-	/** Six numbers a box, same order as `boxes`. */
-	flat: Float64Array;
+	/** Every box packed (see packed.ts), same order as `boxes`. */
+	flat: PackedBoxes;
+	/** Per box: its index and where its numbers are (slot i of `flat`), made once for the hot loops. */
+	refs: BoxRef[];
 	/** Placement index per box, -1 for walls, dividers and brackets. */
 	owner: Int32Array;
 	obstacle: Uint8Array;
@@ -55,10 +65,6 @@ export interface Model {
 	/** Per placement: STATUS_ORDER index of its worst mount problem (that of 'clear' when none). */
 	mountRank: Uint8Array;
 }
-
-/** Face slots in gap arrays: '-x', '+x', '-y', '+y', '-z', '+z'. */
-/** The faces in slot order (box.ts's FACES: -x, +x, -y, +y, -z, +z). */
-export const FACE_ORDER: readonly Face[] = FACES;
 
 export function buildModel(scene: Scene, resolved: ResolvedScene): Model {
 	const boxes: WorldBox[] = [
@@ -88,12 +94,13 @@ export function buildModel(scene: Scene, resolved: ResolvedScene): Model {
 		}
 	});
 	const owner = Int32Array.from(owners);
-	const flat = new Float64Array(boxes.length * 6);
+	const flat = new Float64Array(boxes.length * BOX_STRIDE);
 	const obstacle = new Uint8Array(boxes.length);
 	boxes.forEach((b, i) => {
-		writeFlat(flat, i, b.box);
+		writePacked(flat, i, b.box);
 		obstacle[i] = isObstacle(b) ? 1 : 0;
 	});
+	const refs = boxes.map((_, index): BoxRef => ({ index, coords: flat, slot: index }));
 	const indexOf = new Map(boxes.map((b, i) => [b.id, i]));
 	const bodyBoxes = Int32Array.from(bodiesOf.flat());
 	const wallSide = Int8Array.from(boxes, (b) => {
@@ -123,6 +130,7 @@ export function buildModel(scene: Scene, resolved: ResolvedScene): Model {
 		resolved,
 		boxes,
 		flat,
+		refs,
 		owner,
 		obstacle,
 		bodiesOf,
@@ -151,16 +159,6 @@ export function problemsMarking(report: MountReport, placementId: string): Mount
 	return report.problems.filter((problem) => problem.placementIds.includes(placementId));
 }
 
-export function writeFlat(flat: Float64Array, i: number, box: Box): void {
-	const o = i * 6;
-	flat[o] = box.min[0];
-	flat[o + 1] = box.min[1];
-	flat[o + 2] = box.min[2];
-	flat[o + 3] = box.max[0];
-	flat[o + 4] = box.max[1];
-	flat[o + 5] = box.max[2];
-}
-
 export function facesOutside(inner: Box, bodies: readonly WorldBox[]): Face[] {
 	const out = new Set<Face>();
 	for (const b of bodies) {
@@ -173,14 +171,14 @@ export function facesOutside(inner: Box, bodies: readonly WorldBox[]): Face[] {
 			}
 		}
 	}
-	return FACE_ORDER.filter((f) => out.has(f));
+	return FACES.filter((f) => out.has(f));
 }
 
 /** What overlaps and gaps add up to, per placement. */
 export interface Tally {
 	collides: Uint8Array;
 	blocked: Uint8Array;
-	/** Per placement × FACE_ORDER: nearest gap (mm, +Infinity when nothing is ahead) and its box. */
+	/** Per placement × FACES (slot p × 6 + face): nearest gap (mm, +Infinity when nothing is ahead) and its box. */
 	gap: Float64Array;
 	against: Int32Array;
 	/** Sum of the 'collides' pair volumes (see `regions` for the union). */
@@ -234,15 +232,21 @@ export function copyTallyInto(from: Tally, into: Tally): Tally {
 	return into;
 }
 
-/** Overlap volume of boxes i (in flatA) and j (in flatB), or 0 when they only touch or are apart. */
-function overlapVolume(flatA: Float64Array, i: number, flatB: Float64Array, j: number): number {
-	const a = i * 6;
-	const b = j * 6;
-	const x = Math.min(flatA[a + 3], flatB[b + 3]) - Math.max(flatA[a], flatB[b]);
+/** Overlap volume (mm³) of two packed boxes, or 0 when they only touch or are apart. */
+function overlapVolume(a: PackedBox, b: PackedBox): number {
+	const coordsA = a.coords;
+	const coordsB = b.coords;
+	const atA = a.slot * BOX_STRIDE;
+	const atB = b.slot * BOX_STRIDE;
+	const x = Math.min(coordsA[atA + MAX], coordsB[atB + MAX]) - Math.max(coordsA[atA], coordsB[atB]);
 	if (!(x > EPSILON_MM)) return 0;
-	const y = Math.min(flatA[a + 4], flatB[b + 4]) - Math.max(flatA[a + 1], flatB[b + 1]);
+	const y =
+		Math.min(coordsA[atA + MAX + 1], coordsB[atB + MAX + 1]) -
+		Math.max(coordsA[atA + 1], coordsB[atB + 1]);
 	if (!(y > EPSILON_MM)) return 0;
-	const z = Math.min(flatA[a + 5], flatB[b + 5]) - Math.max(flatA[a + 2], flatB[b + 2]);
+	const z =
+		Math.min(coordsA[atA + MAX + 2], coordsB[atB + MAX + 2]) -
+		Math.max(coordsA[atA + 2], coordsB[atB + 2]);
 	if (!(z > EPSILON_MM)) return 0;
 	return x * y * z;
 }
@@ -259,41 +263,40 @@ export function interferenceUnion(tally: Tally): number {
 	return unionVolume(tally.regions);
 }
 
-/** Boxes i (in flatA) and j (in flatB) overlap with this meaning. */
+/** Boxes `a` and `b` overlap by `volumeMm3` with this meaning. */
 function addPair(
 	model: Model,
 	tally: Tally,
-	i: number,
-	j: number,
+	a: BoxRef,
+	b: BoxRef,
 	kind: OverlapKind,
-	volume: number,
-	flatA: Float64Array,
-	slotA: number,
-	flatB: Float64Array,
-	slotB: number
+	volumeMm3: number
 ): void {
-	const placementI = model.owner[i];
-	const placementJ = model.owner[j];
+	const placementA = model.owner[a.index];
+	const placementB = model.owner[b.index];
 	if (kind === 'collides') {
 		tally.collisions++;
-		tally.interferenceMm3 += volume;
-		const a = slotA * 6;
-		const b = slotB * 6;
-		for (let k = 0; k < 3; k++) tally.regions.push(Math.max(flatA[a + k], flatB[b + k]));
-		for (let k = 3; k < 6; k++) tally.regions.push(Math.min(flatA[a + k], flatB[b + k]));
-		flag(tally, tally.collides, placementI);
-		flag(tally, tally.collides, placementJ);
+		tally.interferenceMm3 += volumeMm3;
+		const atA = a.slot * BOX_STRIDE;
+		const atB = b.slot * BOX_STRIDE;
+		// The overlap region: the larger min and the smaller max on each axis.
+		for (let k = 0; k < 3; k++) tally.regions.push(Math.max(a.coords[atA + k], b.coords[atB + k]));
+		for (let k = MAX; k < BOX_STRIDE; k++) {
+			tally.regions.push(Math.min(a.coords[atA + k], b.coords[atB + k]));
+		}
+		flag(tally, tally.collides, placementA);
+		flag(tally, tally.collides, placementB);
 		return;
 	}
-	tally.keepoutMm3 += volume;
+	tally.keepoutMm3 += volumeMm3;
 	if (kind === 'blocked') {
-		flag(tally, tally.blocked, placementI);
-		flag(tally, tally.blocked, placementJ);
+		flag(tally, tally.blocked, placementA);
+		flag(tally, tally.blocked, placementB);
 	}
 }
 
 /**
- * Nearest box ahead of each face of body `bodySlot` (of placement `placement`). A box counts for the +a face when
+ * Nearest box ahead of each face of one body of placement `placement`. A box counts for the +a face when
  * it shares area with the body seen along a and reaches past that face (its max beyond the body's
  * max by more than EPSILON_MM), or lies within the body's span along a on the +a side of its
  * centre (a thin divider the body went through): then the gap is its min − the body's max,
@@ -305,38 +308,31 @@ export function addGap(
 	model: Model,
 	tally: Tally,
 	placement: number,
-	bodyFlat: Float64Array,
-	bodySlot: number,
-	obstacleFlat: Float64Array,
-	obstacleSlot: number,
-	obstacleIndex: number
+	body: PackedBox,
+	obstacle: BoxRef
 ): void {
-	const bodyAt = bodySlot * 6;
-	const obstacleAt = obstacleSlot * 6;
+	const bodyCoords = body.coords;
+	const obstacleCoords = obstacle.coords;
+	const bodyAt = body.slot * BOX_STRIDE;
+	const obstacleAt = obstacle.slot * BOX_STRIDE;
 	const sharesX =
-		Math.min(bodyFlat[bodyAt + 3], obstacleFlat[obstacleAt + 3]) -
-			Math.max(bodyFlat[bodyAt], obstacleFlat[obstacleAt]) >
+		Math.min(bodyCoords[bodyAt + MAX], obstacleCoords[obstacleAt + MAX]) -
+			Math.max(bodyCoords[bodyAt], obstacleCoords[obstacleAt]) >
 		EPSILON_MM;
 	const sharesY =
-		Math.min(bodyFlat[bodyAt + 4], obstacleFlat[obstacleAt + 4]) -
-			Math.max(bodyFlat[bodyAt + 1], obstacleFlat[obstacleAt + 1]) >
+		Math.min(bodyCoords[bodyAt + MAX + 1], obstacleCoords[obstacleAt + MAX + 1]) -
+			Math.max(bodyCoords[bodyAt + 1], obstacleCoords[obstacleAt + 1]) >
 		EPSILON_MM;
 	if (!sharesX && !sharesY) {
 		return;
 	}
 	const sharesZ =
-		Math.min(bodyFlat[bodyAt + 5], obstacleFlat[obstacleAt + 5]) -
-			Math.max(bodyFlat[bodyAt + 2], obstacleFlat[obstacleAt + 2]) >
+		Math.min(bodyCoords[bodyAt + MAX + 2], obstacleCoords[obstacleAt + MAX + 2]) -
+			Math.max(bodyCoords[bodyAt + 2], obstacleCoords[obstacleAt + 2]) >
 		EPSILON_MM;
-	if (sharesY && sharesZ) {
-		gapAlong(model, tally, placement, bodyFlat, bodyAt, obstacleFlat, obstacleAt, 0, obstacleIndex);
-	}
-	if (sharesX && sharesZ) {
-		gapAlong(model, tally, placement, bodyFlat, bodyAt, obstacleFlat, obstacleAt, 1, obstacleIndex);
-	}
-	if (sharesX && sharesY) {
-		gapAlong(model, tally, placement, bodyFlat, bodyAt, obstacleFlat, obstacleAt, 2, obstacleIndex);
-	}
+	if (sharesY && sharesZ) gapAlong(model, tally, placement, body, obstacle, 0);
+	if (sharesX && sharesZ) gapAlong(model, tally, placement, body, obstacle, 1);
+	if (sharesX && sharesY) gapAlong(model, tally, placement, body, obstacle, 2);
 }
 
 /** The obstacle shares area with the body seen along `axis`: offer it to the face it is ahead of. */
@@ -344,111 +340,86 @@ function gapAlong(
 	model: Model,
 	tally: Tally,
 	placement: number,
-	bodyFlat: Float64Array,
-	bodyAt: number,
-	obstacleFlat: Float64Array,
-	obstacleAt: number,
-	axis: number,
-	obstacleIndex: number
+	body: PackedBox,
+	obstacle: BoxRef,
+	axis: number
 ): void {
-	const side = model.wallSide[obstacleIndex];
+	// Gap slots: placement × 6 + 2 × axis, + 1 for the face on the high side.
+	const lowFace = placement * 6 + 2 * axis;
+	const highFace = lowFace + 1;
+	const bodyCoords = body.coords;
+	const bodyMin = bodyCoords[body.slot * BOX_STRIDE + axis];
+	const bodyMax = bodyCoords[body.slot * BOX_STRIDE + MAX + axis];
+	const side = model.wallSide[obstacle.index];
 	if (side >= 0) {
 		if (side >> 1 !== axis) return;
 		const inner = model.resolved.innerBox;
-		if (side & 1) {
-			offerGap(
-				model,
-				tally,
-				placement * 6 + 2 * axis + 1,
-				inner.max[axis] - bodyFlat[bodyAt + 3 + axis],
-				obstacleIndex
-			);
-		} else {
-			offerGap(
-				model,
-				tally,
-				placement * 6 + 2 * axis,
-				bodyFlat[bodyAt + axis] - inner.min[axis],
-				obstacleIndex
-			);
-		}
+		if (side & 1) offerGap(model, tally, highFace, inner.max[axis] - bodyMax, obstacle.index);
+		else offerGap(model, tally, lowFace, bodyMin - inner.min[axis], obstacle.index);
 		return;
 	}
-	const beyondHigh = obstacleFlat[obstacleAt + 3 + axis] > bodyFlat[bodyAt + 3 + axis] + EPSILON_MM;
-	const beyondLow = obstacleFlat[obstacleAt + axis] < bodyFlat[bodyAt + axis] - EPSILON_MM;
+	const obstacleMin = obstacle.coords[obstacle.slot * BOX_STRIDE + axis];
+	const obstacleMax = obstacle.coords[obstacle.slot * BOX_STRIDE + MAX + axis];
+	const beyondHigh = obstacleMax > bodyMax + EPSILON_MM;
+	const beyondLow = obstacleMin < bodyMin - EPSILON_MM;
 	// A box within the body's span along the axis (a thin divider the body went through) goes to the face
 	// on its side of the body's centre.
 	const within = !beyondHigh && !beyondLow;
-	const centre =
-		obstacleFlat[obstacleAt + axis] +
-		obstacleFlat[obstacleAt + 3 + axis] -
-		bodyFlat[bodyAt + axis] -
-		bodyFlat[bodyAt + 3 + axis];
+	const centre = obstacleMin + obstacleMax - bodyMin - bodyMax;
 	if (beyondHigh || (within && centre >= 0)) {
-		offerGap(
-			model,
-			tally,
-			placement * 6 + 2 * axis + 1,
-			obstacleFlat[obstacleAt + axis] - bodyFlat[bodyAt + 3 + axis],
-			obstacleIndex
-		);
+		offerGap(model, tally, highFace, obstacleMin - bodyMax, obstacle.index);
 	}
 	if (beyondLow || (within && centre <= 0)) {
-		offerGap(
-			model,
-			tally,
-			placement * 6 + 2 * axis,
-			bodyFlat[bodyAt + axis] - obstacleFlat[obstacleAt + 3 + axis],
-			obstacleIndex
-		);
+		offerGap(model, tally, lowFace, bodyMin - obstacleMax, obstacle.index);
 	}
 }
 
+/** Keeps `gap` (mm) against box `against` for gap slot `faceSlot` when it is the nearest so far. */
 function offerGap(
 	model: Model,
 	tally: Tally,
-	slot: number,
+	faceSlot: number,
 	gap: number,
-	obstacleIndex: number
+	against: number
 ): void {
-	const current = tally.gap[slot];
+	const current = tally.gap[faceSlot];
 	if (
 		gap < current ||
 		(gap === current &&
-			compareText(model.boxes[obstacleIndex].id, model.boxes[tally.against[slot]].id) < 0)
+			compareText(model.boxes[against].id, model.boxes[tally.against[faceSlot]].id) < 0)
 	) {
-		tally.gap[slot] = gap;
-		tally.against[slot] = obstacleIndex;
-		touch(tally, (slot / 6) | 0);
+		tally.gap[faceSlot] = gap;
+		tally.against[faceSlot] = against;
+		touch(tally, (faceSlot / 6) | 0);
 	}
 }
 
 /**
- * Gaps along axis a. Only boxes that share area seen along a can be ahead of each other, so the
- * broadphase runs on the boxes stretched to the same unit slab along a: its pairs are exactly the
+ * Gaps along `axis`. Only boxes that share area seen along it can be ahead of each other, so the
+ * broadphase runs on the boxes stretched to the same unit slab along it: its pairs are exactly the
  * pairs whose projections on the other two axes overlap.
  */
-function tallyGapsAlong(model: Model, tally: Tally, obstacles: readonly number[], a: number): void {
-	const m = obstacles.length;
-	const beams = new Float64Array(m * 6);
-	for (let k = 0; k < m; k++) {
-		beams.set(model.flat.subarray(obstacles[k] * 6, obstacles[k] * 6 + 6), k * 6);
-		beams[k * 6 + a] = 0;
-		beams[k * 6 + 3 + a] = 1;
-	}
-	const found = overlappingPairsFlat(beams, m);
+function tallyGapsAlong(
+	model: Model,
+	tally: Tally,
+	obstacles: readonly number[],
+	axis: number
+): void {
+	const beams: PackedBoxes = new Float64Array(obstacles.length * BOX_STRIDE);
+	obstacles.forEach((box, k) => {
+		beams.set(model.flat.subarray(box * BOX_STRIDE, (box + 1) * BOX_STRIDE), k * BOX_STRIDE);
+		beams[k * BOX_STRIDE + axis] = 0;
+		beams[k * BOX_STRIDE + MAX + axis] = 1;
+	});
+	const found = overlappingPairsFlat(beams, obstacles.length);
 	for (let q = 0; q < found.count; q++) {
-		const i = obstacles[found.pairs[2 * q]];
-		const j = obstacles[found.pairs[2 * q + 1]];
-		const placementI = model.owner[i];
-		const placementJ = model.owner[j];
-		if (placementI === placementJ) continue;
-		if (placementI >= 0) {
-			gapAlong(model, tally, placementI, model.flat, i * 6, model.flat, j * 6, a, j);
-		}
-		if (placementJ >= 0) {
-			gapAlong(model, tally, placementJ, model.flat, j * 6, model.flat, i * 6, a, i);
-		}
+		const a = model.refs[obstacles[found.pairs[2 * q]]];
+		const b = model.refs[obstacles[found.pairs[2 * q + 1]]];
+		const placementA = model.owner[a.index];
+		const placementB = model.owner[b.index];
+		if (placementA === placementB) continue;
+		if (placementA >= 0) gapAlong(model, tally, placementA, a, b, axis);
+		if (placementB >= 0) gapAlong(model, tally, placementB, b, a, axis);
 	}
 }
 
@@ -472,8 +443,10 @@ export function tallyStatic(
 	for (let i = 0; i < model.boxes.length; i++) {
 		if (!included || included[i]) ids.push(i);
 	}
-	const sub = new Float64Array(ids.length * 6);
-	ids.forEach((id, k) => sub.set(model.flat.subarray(id * 6, id * 6 + 6), k * 6));
+	const sub: PackedBoxes = new Float64Array(ids.length * BOX_STRIDE);
+	ids.forEach((id, k) =>
+		sub.set(model.flat.subarray(id * BOX_STRIDE, (id + 1) * BOX_STRIDE), k * BOX_STRIDE)
+	);
 	const found = overlappingPairsFlat(sub, ids.length);
 	const pairs: FoundPair[] = [];
 	for (let k = 0; k < found.count; k++) {
@@ -481,13 +454,13 @@ export function tallyStatic(
 		const j = ids[found.pairs[2 * k + 1]];
 		const kind = pairKind(model.boxes[i], model.boxes[j]);
 		if (!kind) continue;
-		const volumeMm3 = overlapVolume(model.flat, i, model.flat, j);
-		addPair(model, tally, i, j, kind, volumeMm3, model.flat, i, model.flat, j);
+		const volumeMm3 = overlapVolume(model.refs[i], model.refs[j]);
+		addPair(model, tally, model.refs[i], model.refs[j], kind, volumeMm3);
 		pairs.push({ i: Math.min(i, j), j: Math.max(i, j), kind, volumeMm3 });
 	}
 	const obstacles = ids.filter((i) => model.obstacle[i]);
-	for (let a = 0; a < 3; a++) {
-		tallyGapsAlong(model, tally, obstacles, a);
+	for (let axis = 0; axis < 3; axis++) {
+		tallyGapsAlong(model, tally, obstacles, axis);
 	}
 	return { tally, pairs };
 }
@@ -499,32 +472,35 @@ export function tallyStatic(
  */
 export interface SlideIndex {
 	axis: number;
+	/** Box indexes of the short boxes, by their min along the axis. */
 	order: Int32Array;
+	/** Their mins along the axis (mm), same order. */
 	mins: Float64Array;
 	/** Longest extent along the axis among the sorted boxes. */
 	reach: number;
+	/** Box indexes of the long boxes. */
 	long: Int32Array;
 }
 
 export function slideIndex(model: Model, included: Uint8Array, axis: number): SlideIndex {
-	const f = model.flat;
+	const coords = model.flat;
+	const minOf = (box: number) => coords[box * BOX_STRIDE + axis];
+	const maxOf = (box: number) => coords[box * BOX_STRIDE + MAX + axis];
 	const ids: number[] = [];
 	for (let i = 0; i < model.boxes.length; i++) if (included[i]) ids.push(i);
 	let lo = Infinity;
 	let hi = -Infinity;
 	for (const i of ids) {
-		lo = Math.min(lo, f[i * 6 + axis]);
-		hi = Math.max(hi, f[i * 6 + 3 + axis]);
+		lo = Math.min(lo, minOf(i));
+		hi = Math.max(hi, maxOf(i));
 	}
 	const longest = (hi - lo) / 4;
-	const extent = (i: number) => f[i * 6 + 3 + axis] - f[i * 6 + axis];
-	const short = ids
-		.filter((i) => !(extent(i) > longest))
-		.sort((x, y) => f[x * 6 + axis] - f[y * 6 + axis]);
+	const extent = (i: number) => maxOf(i) - minOf(i);
+	const short = ids.filter((i) => !(extent(i) > longest)).sort((x, y) => minOf(x) - minOf(y));
 	return {
 		axis,
 		order: Int32Array.from(short),
-		mins: Float64Array.from(short, (i) => f[i * 6 + axis]),
+		mins: Float64Array.from(short, minOf),
 		reach: short.reduce((r, i) => Math.max(r, extent(i)), 0),
 		long: Int32Array.from(ids.filter((i) => extent(i) > longest))
 	};
@@ -542,66 +518,68 @@ function lowerBound(mins: Float64Array, v: number): number {
 	return lo;
 }
 
+/** What one sweep step moves, and what it reports beyond the statuses. */
+export interface MovingStep {
+	/** The moved dividers and brackets: box index, and their geometry for this step (own array). */
+	moved: readonly BoxRef[];
+	/** Per moved box, same order: the static boxes sorted along its slide axis. */
+	slides: readonly SlideIndex[];
+	marginMm: number;
+	/** Placements whose gaps the sweep reports: offered every moved box, however far. */
+	reportedPlacements: readonly number[];
+}
+
 /**
- * Adds moved control boxes to a copy of a static tally (written into `scratch`): `moving[k]` is
- * the box index of a divider or bracket, its geometry for this step in `movingFlat` at k.
+ * Adds moved control boxes to a copy of a static tally (written into `scratch`).
  *
  * Only static boxes within `marginMm` of a moved box along its slide axis are visited: farther
  * ones can neither overlap it nor be made tight by it, so their status stays the static one (the
- * gaps of `extraPlacements`, which a sweep reports, are offered in full).
+ * gaps of `reportedPlacements`, which a sweep reports, are offered in full).
  */
 export function tallyMoving(
 	model: Model,
 	base: Tally,
-	moving: readonly number[],
-	movingFlat: Float64Array,
-	slides: readonly SlideIndex[],
-	marginMm: number,
-	extraPlacements: readonly number[],
+	step: MovingStep,
 	scratch: Tally = emptyTally(model.bodiesOf.length, true)
 ): Tally {
 	const tally = copyTallyInto(base, scratch);
-	for (let k = 0; k < moving.length; k++) {
-		const mi = moving[k];
+	const { moved, slides, marginMm, reportedPlacements } = step;
+	for (let k = 0; k < moved.length; k++) {
+		const box = moved[k];
 		const { axis, order, mins, reach, long } = slides[k];
 		const pad = marginMm + 1;
-		const lo = movingFlat[k * 6 + axis] - pad;
-		const hi = movingFlat[k * 6 + 3 + axis] + pad;
-		for (let q = 0; q < long.length; q++) visitNear(model, tally, mi, k, movingFlat, long[q]);
+		const lo = box.coords[box.slot * BOX_STRIDE + axis] - pad;
+		const hi = box.coords[box.slot * BOX_STRIDE + MAX + axis] + pad;
+		for (let q = 0; q < long.length; q++) visitNear(model, tally, box, model.refs[long[q]]);
 		const end = lowerBound(mins, hi);
 		for (let q = lowerBound(mins, lo - reach); q < end; q++) {
-			const i = order[q];
-			if (model.flat[i * 6 + 3 + axis] >= lo) visitNear(model, tally, mi, k, movingFlat, i);
-		}
-		for (let l = k + 1; l < moving.length; l++) {
-			const volume = overlapVolume(movingFlat, k, movingFlat, l);
-			const kind = volume > 0 ? pairKind(model.boxes[mi], model.boxes[moving[l]]) : null;
-			if (kind) addPair(model, tally, mi, moving[l], kind, volume, movingFlat, k, movingFlat, l);
-		}
-		for (const p of extraPlacements) {
-			for (const bi of model.bodiesOf[p]) {
-				addGap(model, tally, p, model.flat, bi, movingFlat, k, mi);
+			const near = order[q];
+			if (model.flat[near * BOX_STRIDE + MAX + axis] >= lo) {
+				visitNear(model, tally, box, model.refs[near]);
 			}
+		}
+		for (let l = k + 1; l < moved.length; l++) {
+			const other = moved[l];
+			const volume = overlapVolume(box, other);
+			const kind = volume > 0 ? pairKind(model.boxes[box.index], model.boxes[other.index]) : null;
+			if (kind) addPair(model, tally, box, other, kind, volume);
+		}
+		for (const p of reportedPlacements) {
+			for (const body of model.bodiesOf[p]) addGap(model, tally, p, model.refs[body], box);
 		}
 	}
 	return tally;
 }
 
-function visitNear(
-	model: Model,
-	tally: Tally,
-	mi: number,
-	k: number,
-	movingFlat: Float64Array,
-	i: number
-): void {
-	const volume = overlapVolume(movingFlat, k, model.flat, i);
+/** A moved box against a static one near it: their overlap, and the gap it leaves the static one. */
+function visitNear(model: Model, tally: Tally, moved: BoxRef, near: BoxRef): void {
+	const volume = overlapVolume(moved, near);
 	if (volume > 0) {
-		const kind = pairKind(model.boxes[mi], model.boxes[i]);
-		if (kind) addPair(model, tally, mi, i, kind, volume, movingFlat, k, model.flat, i);
+		const kind = pairKind(model.boxes[moved.index], model.boxes[near.index]);
+		if (kind) addPair(model, tally, moved, near, kind, volume);
 	}
-	const p = model.owner[i];
-	if (p >= 0 && model.obstacle[i]) addGap(model, tally, p, model.flat, i, movingFlat, k, mi);
+	const p = model.owner[near.index];
+	if (p >= 0 && model.obstacle[near.index]) addGap(model, tally, p, near, moved);
 }
 
 /**

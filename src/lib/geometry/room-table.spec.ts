@@ -7,7 +7,7 @@
  */
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { AXES, EPSILON_MM, boxSize, type AxisIndex, type Face } from './box';
+import { AXES, EPSILON_MM, boxSize, type AxisIndex, type Face, type PanelName } from './box';
 import { FACE_AXES, bracketBoxAt, compartmentsFor, dividerBoxAt, innerBoxOf } from './enclosure';
 import { plateNeeded } from './mounts';
 import { BOARD_THICKNESS_MM, demoEnclosure, demoTowerEnclosure } from './standard-library';
@@ -33,14 +33,13 @@ import {
 	enclosureDefSchema,
 	type Box,
 	type EnclosureDef,
-	type FaceName,
 	type MountDef,
 	type Vec3
 } from './schema';
 
 // — the oracle: one row from nothing —
 
-const PANEL: Record<FaceName, string> = {
+const PANEL: Record<PanelName, string> = {
 	left: 'Left panel',
 	right: 'Right panel',
 	bottom: 'Bottom panel',
@@ -56,7 +55,7 @@ const FACE_WORD: Record<Face, string> = {
 	'-z': 'front panel',
 	'+z': 'back panel'
 };
-const FACE_NAME_OF: Record<Face, FaceName> = {
+const FACE_NAME_OF: Record<Face, PanelName> = {
 	'-x': 'left',
 	'+x': 'right',
 	'-y': 'bottom',

@@ -5,7 +5,7 @@
  * is chosen. Each figure says what bounds it. Millimetres, inner coordinates, Y up.
  */
 
-import { AXES, EPSILON_MM, boxSize, type AxisIndex, type Face } from './box';
+import { AXES, EPSILON_MM, boxSize, type AxisIndex, type Face, type PanelName } from './box';
 import { FACE_AXES, bracketBoxAt, compartmentsFor, dividerBoxAt, innerBoxOf } from './enclosure';
 import { SceneError } from './errors';
 import { plateNeeded } from './mounts';
@@ -19,14 +19,7 @@ import {
 	type LabelledBox
 } from './free-space';
 import { allowedPositions, formatMm, type AllowedPosition } from './positions';
-import {
-	SLOT_PITCH_MM,
-	type Box,
-	type EnclosureDef,
-	type FaceName,
-	type MountDef,
-	type Vec3
-} from './schema';
+import { SLOT_PITCH_MM, type Box, type EnclosureDef, type MountDef, type Vec3 } from './schema';
 
 /**
  * Board outlines by class, from the documents that define them. The thickness is not in them:
@@ -103,7 +96,7 @@ export interface RoomTable {
 	note: string | null;
 }
 
-const PANEL: Record<FaceName, string> = {
+const PANEL: Record<PanelName, string> = {
 	left: 'Left panel',
 	right: 'Right panel',
 	bottom: 'Bottom panel',
@@ -119,7 +112,7 @@ const FACE_WORD: Record<Face, string> = {
 	'-z': 'front panel',
 	'+z': 'back panel'
 };
-const FACE_NAME_OF: Record<Face, FaceName> = {
+const FACE_NAME_OF: Record<Face, PanelName> = {
 	'-x': 'left',
 	'+x': 'right',
 	'-y': 'bottom',
@@ -192,7 +185,7 @@ export function reach(
 	return best;
 }
 
-const FACE_NAMES_BY_AXIS: [FaceName, FaceName][] = [
+const FACE_NAMES_BY_AXIS: [PanelName, PanelName][] = [
 	['left', 'right'],
 	['bottom', 'top'],
 	['front', 'back']

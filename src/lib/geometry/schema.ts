@@ -5,6 +5,7 @@
  */
 
 import { z } from 'zod';
+import { FACES, PANELS, type PanelName } from './box';
 import { loopIssues } from './loop-path';
 import { MAX_POSITIONS, allowedIndex, rangeCount } from './positions';
 
@@ -46,8 +47,10 @@ export const boxSchema = z.object({ min: vec3Schema, max: vec3Schema }).superRef
 export type Box = { min: Vec3; max: Vec3 };
 
 export const axisSchema = z.enum(['x', 'y', 'z']);
-export const faceNameSchema = z.enum(['left', 'right', 'bottom', 'top', 'front', 'back']);
-export type FaceName = z.infer<typeof faceNameSchema>;
+/** A box face (`Face` in box.ts): a port's direction, a gap's side. */
+export const faceSchema = z.enum(FACES);
+/** An enclosure panel by name (`PanelName` in box.ts): a wall, the panel a mount sits on. */
+export const panelSchema = z.enum(PANELS);
 
 export const wallSpecSchema = z.object({
 	thicknessMm,
@@ -145,7 +148,7 @@ export const mountDefSchema = z.object({
 	label: labelSchema,
 	kind: z.enum(['radiator', 'fan', 'board-tray', 'psu-bay', 'slots']),
 	/** The panel the mount sits on; its normal points from that panel into the inside. */
-	face: faceNameSchema,
+	face: panelSchema,
 	/** Where mounted parts must lie on the face's two axes (all three for a power-supply bay). */
 	region: boxSchema,
 	/** Classes taken: radiator/fan sizes ('240', '280'), supply form factors ('SFX'), boards ('Mini-ITX'). */
@@ -211,7 +214,7 @@ export type EnclosureDef = z.infer<typeof enclosureDefSchema>;
 
 /** Each opening lies inside the divider's span on its plane axes and overlaps no other one. */
 function checkOpenings(
-	enc: { outerMm: number[]; walls: Record<FaceName, WallSpec> },
+	enc: { outerMm: number[]; walls: Record<PanelName, WallSpec> },
 	d: DividerDef,
 	path: (string | number)[],
 	ctx: z.RefinementCtx
@@ -219,7 +222,7 @@ function checkOpenings(
 	const openings = d.openings ?? [];
 	if (openings.length === 0) return;
 	const w = enc.walls;
-	const faces: [FaceName, FaceName][] = [
+	const faces: [PanelName, PanelName][] = [
 		['left', 'right'],
 		['bottom', 'top'],
 		['front', 'back']
@@ -295,12 +298,10 @@ export const keepoutDefSchema = z.object({
 });
 export type KeepoutDef = z.infer<typeof keepoutDefSchema>;
 
-export const directionSchema = z.enum(['+x', '-x', '+y', '-y', '+z', '-z']);
-
 export const portDefSchema = z.object({
 	id: idSchema,
 	position: vec3Schema,
-	direction: directionSchema,
+	direction: faceSchema,
 	/** ISO 228-1 parallel pipe thread; G 1/4 for fittings is common practice. Coolant ports only. */
 	thread: z.string().min(1).max(40).default('G 1/4'),
 	/** A coolant port takes a fitting; a power port a cable's plug. Missing means coolant. */

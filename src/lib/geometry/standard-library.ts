@@ -13,7 +13,10 @@ import {
 	type Box,
 	type CableDef,
 	type EnclosureDef,
+	type KeepoutDef,
+	type MountDef,
 	type PartDef,
+	type PortDef,
 	type Scene,
 	type SceneInput,
 	type Vec3
@@ -43,6 +46,29 @@ function solidPart(
 		toleranceMm: 0,
 		...rest
 	};
+}
+
+/** A mount row: most mounts sit flush (no standoff) on the standard slot pitch. */
+function mount(
+	row: Omit<MountDef, 'standoffMm' | 'slotPitchMm'> & { standoffMm?: number }
+): MountDef {
+	return { standoffMm: 0, slotPitchMm: SLOT_PITCH_MM, ...row };
+}
+
+/** The room fittings need over a part's coolant ports (a hard error when something is in it). */
+function fittingsKeepout(min: Vec3, max: Vec3): KeepoutDef {
+	return {
+		id: 'fittings',
+		label: 'fittings',
+		kind: 'fitting',
+		severity: 'error',
+		box: box(min, max)
+	};
+}
+
+/** A G 1/4 coolant port facing up (+y), the common thread for fittings (common practice). */
+function portUp(id: string, position: Vec3): PortDef {
+	return { id, position, direction: '+y', thread: 'G 1/4' };
 }
 
 /** Board thickness of 1.6 mm (0.062 in) is common practice, not part of the form factor. */
@@ -164,7 +190,7 @@ export function demoEnclosure(): EnclosureDef {
 			}
 		],
 		mounts: [
-			{
+			mount({
 				id: 'radiator',
 				label: 'Front radiator mount',
 				kind: 'radiator',
@@ -173,11 +199,9 @@ export function demoEnclosure(): EnclosureDef {
 				accepts: ['240', '280'],
 				budgetMm: 64,
 				plateMm: 1,
-				plateFor: ['240'],
-				standoffMm: 0,
-				slotPitchMm: SLOT_PITCH_MM
-			},
-			{
+				plateFor: ['240']
+			}),
+			mount({
 				id: 'tray',
 				label: 'Board tray',
 				kind: 'board-tray',
@@ -186,19 +210,16 @@ export function demoEnclosure(): EnclosureDef {
 				accepts: ['Mini-ITX'],
 				// A raised tray: the board sits 11 mm off the left panel, which leaves about 53 mm over
 				// it with the spine at '4 slots' (65.68 − 11 − 1.6 = 53.08 mm; common practice).
-				standoffMm: 11,
-				slotPitchMm: SLOT_PITCH_MM
-			},
-			{
+				standoffMm: 11
+			}),
+			mount({
 				id: 'psu',
 				label: 'SFX bay',
 				kind: 'psu-bay',
 				face: 'left',
 				region: box([0, 0, 70], [63.5, 125, 170]),
-				accepts: ['SFX'],
-				standoffMm: 0,
-				slotPitchMm: SLOT_PITCH_MM
-			}
+				accepts: ['SFX']
+			})
 		]
 	};
 }
@@ -238,59 +259,50 @@ export function demoTowerEnclosure(): EnclosureDef {
 			}
 		],
 		mounts: [
-			{
+			mount({
 				id: 'top-radiator',
 				label: 'Top radiator mount',
 				kind: 'radiator',
 				face: 'top',
 				region: { min: [0, 325, 0], max: [205, 376, 236] },
 				accepts: ['240', '280'],
-				budgetMm: 50,
-				standoffMm: 0,
-				slotPitchMm: SLOT_PITCH_MM
-			},
-			{
+				budgetMm: 50
+			}),
+			mount({
 				id: 'front-fans',
 				label: 'Front fans',
 				kind: 'fan',
 				face: 'front',
 				region: { min: [0, 125, 0], max: [205, 376, 30] },
 				accepts: ['120', '140'],
-				budgetMm: 30,
-				standoffMm: 0,
-				slotPitchMm: SLOT_PITCH_MM
-			},
-			{
+				budgetMm: 30
+			}),
+			mount({
 				id: 'tray',
 				label: 'Board tray',
 				kind: 'board-tray',
 				face: 'right',
 				region: { min: [165, 125, 0], max: [205, 376, 236] },
 				accepts: ['Mini-ITX', 'microATX'],
-				standoffMm: 6,
-				slotPitchMm: SLOT_PITCH_MM
-			},
-			{
+				standoffMm: 6
+			}),
+			mount({
 				id: 'slots',
 				label: 'Expansion slots',
 				kind: 'slots',
 				face: 'back',
 				region: { min: [80, 125, 226], max: [165, 290, 236] },
 				accepts: [],
-				standoffMm: 0,
-				slotPitchMm: SLOT_PITCH_MM,
 				slotCount: 4
-			},
-			{
+			}),
+			mount({
 				id: 'psu',
 				label: 'Supply bay',
 				kind: 'psu-bay',
 				face: 'bottom',
 				region: { min: [0, 0, 0], max: [155, 88, 170] },
-				accepts: ['SFX', 'SFX-L', 'ATX'],
-				standoffMm: 0,
-				slotPitchMm: SLOT_PITCH_MM
-			}
+				accepts: ['SFX', 'SFX-L', 'ATX']
+			})
 		]
 	};
 }
@@ -327,20 +339,9 @@ export function demoParts(): PartDef[] {
 		{
 			...solidPart('demo-cpu-block', 'Compact CPU block, 26 mm tall', 'cpu-block', [60, 26, 60]),
 			// 25 mm over the block for G 1/4 elbow fittings (common practice).
-			keepouts: [
-				{
-					id: 'fittings',
-					label: 'fittings',
-					kind: 'fitting',
-					severity: 'error',
-					box: box([5, 26, 10], [55, 51, 50])
-				}
-			],
+			keepouts: [fittingsKeepout([5, 26, 10], [55, 51, 50])],
 			// Placed turned (z 3), the inlet is the lower port and the outlet the upper one.
-			ports: [
-				{ id: 'in', position: [40, 26, 30], direction: '+y', thread: 'G 1/4' },
-				{ id: 'out', position: [20, 26, 30], direction: '+y', thread: 'G 1/4' }
-			],
+			ports: [portUp('in', [40, 26, 30]), portUp('out', [20, 26, 30])],
 			/** Heat and draw of the processor it cools. */
 			specs: { heatW: 65, powerDrawW: 65 },
 			provenance: 'estimate',
@@ -375,13 +376,7 @@ export function demoParts(): PartDef[] {
 				[58, 100, 80]
 			),
 			keepouts: [
-				{
-					id: 'fittings',
-					label: 'fittings',
-					kind: 'fitting',
-					severity: 'error',
-					box: box([9, 83.5, -10], [49, 100, 0])
-				},
+				fittingsKeepout([9, 83.5, -10], [49, 100, 0]),
 				{
 					id: 'fill',
 					label: 'fill plug',
@@ -394,7 +389,7 @@ export function demoParts(): PartDef[] {
 			ports: [
 				{ id: 'in', position: [19, 93.5, 0], direction: '-z', thread: 'G 1/4' },
 				{ id: 'out', position: [39, 93.5, 0], direction: '-z', thread: 'G 1/4' },
-				{ id: 'fill', position: [29, 100, 40], direction: '+y', thread: 'G 1/4' }
+				portUp('fill', [29, 100, 40])
 			],
 			specs: { powerDrawW: 18 },
 			provenance: 'estimate',
@@ -402,15 +397,7 @@ export function demoParts(): PartDef[] {
 		},
 		{
 			...solidPart('demo-radiator-280', 'Slim 280 radiator, 30 mm', 'radiator', [143, 315, 30]),
-			keepouts: [
-				{
-					id: 'fittings',
-					label: 'fittings',
-					kind: 'fitting',
-					severity: 'error',
-					box: box([25, 301, 30], [118, 315, 40])
-				}
-			],
+			keepouts: [fittingsKeepout([25, 301, 30], [118, 315, 40])],
 			// The end tank's two ports face the back, above the fans (the upper fan ends 2 mm lower).
 			ports: [
 				{ id: 'in', position: [71.5, 308, 30], direction: '+z', thread: 'G 1/4' },

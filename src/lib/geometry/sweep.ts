@@ -16,10 +16,11 @@ import {
 	stepCounts,
 	tallyMoving,
 	tallyStatic,
-	writeFlat,
 	type Model,
+	type MovingStep,
 	type Tally
 } from './model';
+import { BOX_STRIDE, writePacked, type BoxRef } from './packed';
 import { allowedIndex, allowedPositions, type AllowedPosition } from './positions';
 import { resolveScene } from './resolve';
 import type { Box, BracketDef, DividerDef, Scene } from './schema';
@@ -103,8 +104,14 @@ function prepare(scene: Scene, controls: SweepControl[], gaps: GapRequest[] | un
 	const slides = moving.map((m) => slideIndex(model, included, 'xyz'.indexOf(m.def.axis)));
 	const reported = [...new Set(slots.map((s) => (s.slot / 6) | 0))];
 	const movesDivider = moving.some((m) => m.control.kind === 'divider');
-	const movingFlat = new Float64Array(moving.length * 6);
-	const indexes = moving.map((m) => m.index);
+	// The moved boxes' geometry for the current step, one slot each, rewritten by every step.
+	const movingCoords = new Float64Array(moving.length * BOX_STRIDE);
+	const step: MovingStep = {
+		moved: moving.map((m, slot): BoxRef => ({ index: m.index, coords: movingCoords, slot })),
+		slides,
+		marginMm: scene.marginMm,
+		reportedPlacements: reported
+	};
 	const scratch = emptyTally(model.bodiesOf.length, true);
 	const baseStatus = statusCounts(model, base, scene.marginMm);
 	const slabs = slabsFor(scene.enclosure, resolved.dividerPositions);
@@ -113,17 +120,8 @@ function prepare(scene: Scene, controls: SweepControl[], gaps: GapRequest[] | un
 	return {
 		moving,
 		evaluate(offsets: number[]): SweepMetrics {
-			moving.forEach((m, k) => writeFlat(movingFlat, k, m.boxAt(offsets[k])));
-			const tally = tallyMoving(
-				model,
-				base,
-				indexes,
-				movingFlat,
-				slides,
-				scene.marginMm,
-				reported,
-				scratch
-			);
+			moving.forEach((m, k) => writePacked(movingCoords, k, m.boxAt(offsets[k])));
+			const tally = tallyMoving(model, base, step, scratch);
 			const counts = stepCounts(model, tally, scene.marginMm, baseStatus);
 			let compartments = resolved.compartments;
 			if (movesDivider) {

@@ -3,10 +3,10 @@
  * Every list is sorted by id so the same scene always gives the same report.
  */
 
-import type { Axis, Face } from './box';
+import type { Axis, Face, PanelName } from './box';
 import type { LoopReport } from './loop';
 import type { CableReport } from './cables';
-import type { Box, FaceName, KeepoutDef, PartDef, Placement, PortDef, Vec3 } from './schema';
+import type { Box, KeepoutDef, PartDef, Placement, PortDef, Vec3 } from './schema';
 
 /** Precedence, worst first: collides > blocked > outside > tight > clear. */
 export const STATUS_ORDER = ['collides', 'blocked', 'outside', 'tight', 'clear'] as const;
@@ -34,7 +34,7 @@ export interface WorldBox {
 	keepoutKind?: KeepoutDef['kind'];
 	severity?: KeepoutDef['severity'];
 	wallKind?: 'solid' | 'mesh';
-	face?: FaceName;
+	face?: PanelName;
 	/** For a plate or standoff layer: the mount it belongs to. */
 	mountId?: string;
 	/** ± mm a placed part's dimensions may be off by (its part's toleranceMm). */

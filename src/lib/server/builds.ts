@@ -269,19 +269,30 @@ function settingsPath(path: string) {
 		: path;
 }
 
-export function validateScene(
+/** Composes the scene and parses it with `schema`; a refusal names the fields as the request does. */
+function parseComposed(
+	schema: typeof sceneSchema | typeof trustedSceneSchema,
 	enclosure: EnclosureDef,
 	defs: PartDef[],
 	settings: VariantSettings,
-	tubeKinds: TubeKindDef[] = []
+	tubeKinds: TubeKindDef[]
 ): Scene {
-	const parsed = sceneSchema.safeParse(composeScene(enclosure, defs, settings, tubeKinds));
+	const parsed = schema.safeParse(composeScene(enclosure, defs, settings, tubeKinds));
 	if (!parsed.success) {
 		throw new SceneRejected(
 			formatZodIssues(parsed.error).map((i) => ({ ...i, path: settingsPath(i.path) }))
 		);
 	}
 	return parsed.data;
+}
+
+export function validateScene(
+	enclosure: EnclosureDef,
+	defs: PartDef[],
+	settings: VariantSettings,
+	tubeKinds: TubeKindDef[] = []
+): Scene {
+	return parseComposed(sceneSchema, enclosure, defs, settings, tubeKinds);
 }
 
 /**
@@ -294,13 +305,7 @@ export function trustedScene(
 	settings: VariantSettings,
 	tubeKinds: TubeKindDef[] = []
 ): Scene {
-	const parsed = trustedSceneSchema.safeParse(composeScene(enclosure, defs, settings, tubeKinds));
-	if (!parsed.success) {
-		throw new SceneRejected(
-			formatZodIssues(parsed.error).map((i) => ({ ...i, path: settingsPath(i.path) }))
-		);
-	}
-	return parsed.data;
+	return parseComposed(trustedSceneSchema, enclosure, defs, settings, tubeKinds);
 }
 
 export type SaveResult =

@@ -18,6 +18,7 @@ import { sql } from 'drizzle-orm';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { demoEnclosure, demoParts, demoSceneInput } from '$lib/geometry/standard-library';
 import { demoBuildIn, type TestBuild } from './testing/builds';
+import { demoLoopBackRun } from './testing/engine-factories';
 import { db } from './db';
 import { createShareLink } from './sharing/links';
 import {
@@ -348,14 +349,7 @@ function targets(): fc.Arbitrary<Req>[] {
 			'/api/routes',
 			mutated(() => ({
 				scene: demoSceneInput(),
-				run: {
-					from: { placementId: 'cpu-block', portId: 'out', reachMm: 12 },
-					to: { placementId: 'cpu-block', portId: 'in', reachMm: 12 },
-					section: { kind: 'round', outerDiameterMm: 10 },
-					bendRadiusMm: 5,
-					clearanceMm: 1,
-					mode: 'soft'
-				}
+				run: demoLoopBackRun()
 			}))
 		),
 		api(

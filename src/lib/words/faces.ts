@@ -22,6 +22,8 @@ type FaceWords = {
 	ofIt: string;
 	/** Where a part comes in from. */
 	from: string;
+	/** Which end of the inside a part reaches past: "at the bottom". */
+	end: string;
 };
 
 export const FACE_TABLE: Record<Face, FaceWords> = {
@@ -33,7 +35,8 @@ export const FACE_TABLE: Record<Face, FaceWords> = {
 		panel: 'left panel',
 		points: 'left',
 		ofIt: 'on its left',
-		from: 'from the left'
+		from: 'from the left',
+		end: 'left'
 	},
 	'+x': {
 		side: 'right',
@@ -43,7 +46,8 @@ export const FACE_TABLE: Record<Face, FaceWords> = {
 		panel: 'right panel',
 		points: 'right',
 		ofIt: 'on its right',
-		from: 'from the right'
+		from: 'from the right',
+		end: 'right'
 	},
 	'-y': {
 		side: 'below',
@@ -53,7 +57,8 @@ export const FACE_TABLE: Record<Face, FaceWords> = {
 		panel: 'bottom panel',
 		points: 'down',
 		ofIt: 'below it',
-		from: 'from below'
+		from: 'from below',
+		end: 'bottom'
 	},
 	'+y': {
 		side: 'above',
@@ -63,7 +68,8 @@ export const FACE_TABLE: Record<Face, FaceWords> = {
 		panel: 'top panel',
 		points: 'up',
 		ofIt: 'above it',
-		from: 'from above'
+		from: 'from above',
+		end: 'top'
 	},
 	'-z': {
 		side: 'front',
@@ -73,7 +79,8 @@ export const FACE_TABLE: Record<Face, FaceWords> = {
 		panel: 'front panel',
 		points: 'to the front',
 		ofIt: 'in front of it',
-		from: 'from the front'
+		from: 'from the front',
+		end: 'front'
 	},
 	'+z': {
 		side: 'behind',
@@ -83,7 +90,8 @@ export const FACE_TABLE: Record<Face, FaceWords> = {
 		panel: 'back panel',
 		points: 'to the back',
 		ofIt: 'behind it',
-		from: 'from the back'
+		from: 'from the back',
+		end: 'back'
 	}
 };
 

@@ -8,6 +8,7 @@ import { demoSceneInput } from '$lib/geometry/standard-library';
 import { SIGN_IN, type MatrixFixture, type MatrixRow } from './access-matrix';
 import { variantsOf } from '../builds';
 import { buildCount, demoBuildIn, demoEnclosureIn, storedVariant } from './builds';
+import { demoLoopBackRun } from './engine-factories';
 import { latestVersion } from '../versions';
 
 async function withBuild(f: MatrixFixture) {
@@ -143,14 +144,7 @@ export const buildRows: MatrixRow[] = [
 		method: 'POST',
 		json: () => ({
 			scene: demoSceneInput(),
-			run: {
-				from: { placementId: 'cpu-block', portId: 'out', reachMm: 12 },
-				to: { placementId: 'cpu-block', portId: 'in', reachMm: 12 },
-				section: { kind: 'round', outerDiameterMm: 10 },
-				bendRadiusMm: 5,
-				clearanceMm: 1,
-				mode: 'soft'
-			}
+			run: demoLoopBackRun()
 		}),
 		expect: anyoneSignedIn(200)
 	},

@@ -13,6 +13,8 @@ import {
 	type SceneInput,
 	type Vec3
 } from '../../geometry/schema';
+import { resolveScene } from '../../geometry/resolve';
+import type { WorldBox } from '../../geometry/types';
 
 /** A plain enclosure: `innerMm` inside, every panel `wallMm` thick and solid. */
 export function plainEnclosure(
@@ -216,3 +218,37 @@ export const sceneArb: fc.Arbitrary<Scene> = fc
 			marginMm: r.margin
 		});
 	});
+
+/**
+ * Every world box of a scene as the resolver makes it: walls, dividers, brackets, mount plates
+ * (unless `plates` is false), then each placement's bodies and keep-outs.
+ */
+export function worldBoxesOf(scene: Scene, { plates = true } = {}): WorldBox[] {
+	const r = resolveScene(scene);
+	return [
+		...r.walls,
+		...r.dividers,
+		...r.brackets,
+		...(plates ? r.plates : []),
+		...r.placements.flatMap((p) => [...p.bodies, ...p.keepouts])
+	];
+}
+
+/** Oracle: how far two boxes share one axis (mm; ≤ 0 when apart or only touching). */
+export const sharedAlong = (a: Box, b: Box, axis: number) =>
+	Math.min(a.max[axis], b.max[axis]) - Math.max(a.min[axis], b.min[axis]);
+
+/**
+ * A soft loop-back run between the demo CPU block's two ports, as a request sends it: the ports
+ * sit 20 mm apart, room for two bends of 5 mm between them.
+ */
+export function demoLoopBackRun() {
+	return {
+		from: { placementId: 'cpu-block', portId: 'out', reachMm: 12 },
+		to: { placementId: 'cpu-block', portId: 'in', reachMm: 12 },
+		section: { kind: 'round' as const, outerDiameterMm: 10 },
+		bendRadiusMm: 5,
+		clearanceMm: 1,
+		mode: 'soft' as const
+	};
+}
