@@ -61,7 +61,8 @@ test('suggests every run of the demo loop, and the accepted routes are checked a
 	);
 	await addRun(panel, `${block} · out`, `${radiator} · in`, '75, 245, 153\n75, 320.5, 153');
 	await addRun(panel, `${radiator} · out`, `${pump} · in`, '');
-	const runs = panel.getByRole('list', { name: 'Runs' }).getByRole('listitem');
+	// The runs themselves, not the waypoint lists inside each run's entry.
+	const runs = panel.getByRole('list', { name: 'Runs' }).locator(':scope > li');
 	await expect(runs).toHaveCount(3);
 
 	const suggest = panel.locator('section[aria-labelledby="route-h"]');

@@ -20,21 +20,22 @@ describe('the engine pool in development', () => {
 		expect(await checkInPool(demoScene())).toEqual(checkScene(demoScene()));
 	});
 
-	it('an engine error in the worker comes back as a 400 naming the field', async () => {
+	it('an engine error in the worker comes back as an invalid-input refusal naming the field (400)', async () => {
 		const scene = sceneSchema.parse(pileSceneInput(300));
 		const refused = sweepInPool(
 			{ kind: 'sweep', scene, control: { kind: 'divider', id: 'nope' } },
 			0
 		);
+		// A service refusal of kind 'invalid': errors.ts answers it with 400 and these issues.
 		await expect(refused).rejects.toMatchObject({
-			status: 400,
-			body: { issues: [{ path: 'control.id' }] }
+			kind: 'invalid',
+			issues: [{ path: 'control.id' }]
 		});
 	});
 
-	it('over the limits: 422 before any work', async () => {
+	it('over the limits: an over-limit refusal (422) before any work', async () => {
 		await expect(
 			checkInPool(sceneSchema.parse(pileSceneInput(4_900)), 'scene')
-		).rejects.toMatchObject({ status: 422, body: { issues: [{ path: 'scene.placements' }] } });
+		).rejects.toMatchObject({ kind: 'over-limit', issues: [{ path: 'scene.placements' }] });
 	});
 });
