@@ -307,8 +307,10 @@ const mmText = (label: string, atLeastZero = false) =>
 		.min(1, `${label} is required.`)
 		.pipe(
 			atLeastZero
-				? z.coerce.number({ error: `${label} must be a number in mm.` }).pipe(thicknessMm(label))
-				: z.coerce.number({ error: `${label} must be a number in mm.` }).pipe(sizeMm(label))
+				? z.coerce
+						.number<string>({ error: `${label} must be a number in mm.` })
+						.pipe(thicknessMm(label))
+				: z.coerce.number<string>({ error: `${label} must be a number in mm.` }).pipe(sizeMm(label))
 		);
 
 /**
@@ -380,7 +382,7 @@ export const cutAllowanceForm = z.object({
 		.min(1, 'Cut allowance is required.')
 		.pipe(
 			z.coerce
-				.number({ error: 'Cut allowance must be a number in %.' })
+				.number<string>({ error: 'Cut allowance must be a number in %.' })
 				.min(0, 'Cut allowance must not be negative.')
 				.max(100, 'Cut allowance can be at most 100 %.')
 		)
