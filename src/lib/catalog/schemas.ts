@@ -298,3 +298,92 @@ export function parsePrice(text: string): number | null {
 
 /** The part a catalogue list row's button acts on (duplicate, archive, restore). */
 export const partIdForm = z.object({ id: idField('Part') });
+
+/** A length in mm typed into a form: required, a number, greater than 0 (or at least 0). */
+const mmText = (label: string, atLeastZero = false) =>
+	z
+		.string({ error: `${label} is required.` })
+		.trim()
+		.min(1, `${label} is required.`)
+		.pipe(
+			atLeastZero
+				? z.coerce
+						.number<string>({ error: `${label} must be a number in mm.` })
+						.pipe(thicknessMm(label))
+				: z.coerce.number<string>({ error: `${label} must be a number in mm.` }).pipe(sizeMm(label))
+		);
+
+/**
+ * A tube kind as the catalogue's form posts it: soft tube by inner/outer diameter, hard tube by
+ * outer diameter (its inner one optional), the bend radius to the centre line, the room kept free
+ * around it and a price per metre. The engine's own schema checks the result again on the server.
+ */
+export const tubeKindForm = z
+	.object({
+		/** Empty when adding; the kind's id when editing. */
+		id: z.string().trim().max(120, 'Tube kind can be at most 120 characters.').default(''),
+		/** When editing: the time (ms) of the change the form was filled from, for stale edits. */
+		stamp: z.string().trim().max(20).default(''),
+		name: z
+			.string({ error: 'Name is required.' })
+			.trim()
+			.min(1, 'Name is required.')
+			.max(200, 'Name can be at most 200 characters.'),
+		kind: z.enum(['soft', 'hard'], { error: 'Kind must be soft or hard.' }),
+		innerMm: z
+			.string()
+			.trim()
+			.default('')
+			.refine(
+				(s) => s === '' || (Number.isFinite(Number(s)) && Number(s) > 0),
+				'Inner diameter must be a number in mm greater than 0.'
+			),
+		outerMm: mmText('Outer diameter'),
+		minBendRadiusMm: mmText('Minimum bend radius', true),
+		clearanceMm: mmText('Clearance', true),
+		price: z
+			.string()
+			.trim()
+			.regex(/^(\d{1,7}([.,]\d{1,2})?)?$/, 'Price per metre must be an amount such as 4.50')
+			.default(''),
+		currency: z
+			.string()
+			.trim()
+			.toUpperCase()
+			.refine(isCurrencyCode, 'Currency must be an ISO 4217 code such as EUR, GBP or USD')
+			.default('EUR')
+	})
+	.superRefine((t, ctx) => {
+		if (t.kind === 'soft' && t.innerMm === '') {
+			ctx.addIssue({
+				code: 'custom',
+				path: ['innerMm'],
+				message: 'Inner diameter is required for soft tube.'
+			});
+		}
+		if (t.innerMm !== '' && Number(t.innerMm) >= t.outerMm) {
+			ctx.addIssue({
+				code: 'custom',
+				path: ['innerMm'],
+				message: 'Inner diameter must be smaller than the outer diameter.'
+			});
+		}
+	});
+export type TubeKindForm = z.infer<typeof tubeKindForm>;
+
+/** The tube kind a row's button acts on (retire, restore). */
+export const tubeKindIdForm = z.object({ id: idField('Tube kind', 120) });
+
+/** The studio's cut allowance: percent added to the cut lengths when buying tube. */
+export const cutAllowanceForm = z.object({
+	cutAllowancePct: z
+		.string({ error: 'Cut allowance is required.' })
+		.trim()
+		.min(1, 'Cut allowance is required.')
+		.pipe(
+			z.coerce
+				.number<string>({ error: 'Cut allowance must be a number in %.' })
+				.min(0, 'Cut allowance must not be negative.')
+				.max(100, 'Cut allowance can be at most 100 %.')
+		)
+});
