@@ -18,6 +18,8 @@ test('fork a variant, move the bracket in the fork, compare, cameras follow', as
 	await expect(page.getByTestId('editor')).toHaveAttribute('data-ready', 'true');
 	const forkId = new URL(page.url()).searchParams.get('variant')!;
 	expect(forkId).not.toBe('demo-variant-a');
+	// The copy is named after its source: "<name> — copy" (a number after it when that is taken).
+	await expect(page).toHaveTitle(/ — copy( \d+)? · Interstice$/);
 
 	// Raise the card support bar one step (10 mm) with the keyboard on its slider.
 	const bar = page.getByRole('slider', { name: 'Card support bar' });

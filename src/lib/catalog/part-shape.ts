@@ -18,6 +18,7 @@ import {
 	type Vec3
 } from '$lib/geometry';
 import { CATEGORY_LABELS } from '$lib/words/faces';
+import { formatMoney } from '$lib/quotes/money';
 
 export { CATEGORY_LABELS };
 export const CATEGORIES = partCategorySchema.options;
@@ -155,10 +156,7 @@ export function formatSize([w, h, d]: Vec3): string {
 	return `${w.toFixed(1)} × ${h.toFixed(1)} × ${d.toFixed(1)}\u2009mm`;
 }
 
-/** Price in minor units (cents) → `12.50 EUR`. */
+/** Price in minor units (cents) → `€12.50`, through the one money formatter; none → `—`. */
 export function formatPrice(minor: number | null, currency: string): string {
-	if (minor === null) {
-		return '—';
-	}
-	return `${(minor / 100).toFixed(2)} ${currency}`;
+	return minor === null ? '—' : formatMoney(minor, currency);
 }

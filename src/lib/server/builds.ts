@@ -40,6 +40,7 @@ import { newId } from './tokens';
 import { ServiceError, type ServiceErrorKind } from './errors';
 import { assertNotFrozen, frozenState, latestVersion, recordRevision } from './versions';
 import { variantVersions } from './db/schema';
+import { copyName } from '$lib/words/builds';
 
 /** A scene, variant or enclosure the server will not compose or store; `issues` name the fields. */
 export class SceneRejected extends ServiceError {
@@ -455,7 +456,10 @@ export async function forkVariant(
 		const id = newId();
 		const at = list.indexOf(source) + 1;
 		const ordered = [...list.slice(0, at).map((v) => v.id), id, ...list.slice(at).map((v) => v.id)];
-		const wanted = base ? `${source.name}, after version ${base.number}` : `${source.name} (copy)`;
+		const taken = list.map((v) => v.name);
+		const wanted = base
+			? uniqueName(taken, `${source.name}, after version ${base.number}`)
+			: copyName(source.name, taken);
 		const proposal = !!base && source.isProposal;
 		if (proposal) {
 			await tx.update(variants).set({ isProposal: false }).where(eq(variants.buildId, buildId));
@@ -463,12 +467,7 @@ export async function forkVariant(
 		await tx.insert(variants).values({
 			id,
 			buildId,
-			name:
-				name ??
-				uniqueName(
-					list.map((v) => v.name),
-					wanted
-				),
+			name: name ?? wanted,
 			sortOrder: at,
 			isProposal: proposal,
 			settings: base ? base.settings : source.settings,

@@ -13,6 +13,7 @@ import {
 } from '$lib/geometry';
 import { AXIS_TABLE, CATEGORY_NOUNS, faceWords } from '$lib/words/faces';
 import { gapWords, mountProblemDetail } from '$lib/words/builds';
+import { categoryLabel } from '$lib/words/specs';
 import type { FitSummary } from '$lib/sharing/types';
 
 export type { FitSummary };
@@ -37,20 +38,24 @@ const AXIS_WORDS = {
  */
 export function placementNames(
 	resolved: Pick<ResolvedScene, 'placements'>
-): Map<string, { short: string; sentence: string }> {
+): Map<string, { short: string; sentence: string; label: string }> {
 	const perCategory = new Map<string, number>();
 	for (const rp of resolved.placements) {
 		perCategory.set(rp.part.category, (perCategory.get(rp.part.category) ?? 0) + 1);
 	}
 	const seen = new Map<string, number>();
-	const out = new Map<string, { short: string; sentence: string }>();
+	const out = new Map<string, { short: string; sentence: string; label: string }>();
 	for (const rp of resolved.placements) {
 		const word = CATEGORY_WORDS[rp.part.category];
 		const n = (seen.get(rp.part.category) ?? 0) + 1;
 		seen.set(rp.part.category, n);
 		const several = (perCategory.get(rp.part.category) ?? 0) > 1;
 		const short = several ? `${word} ${n}` : word;
-		out.set(rp.placement.id, { short, sentence: several ? short : `the ${word}` });
+		// A list entry or a table cell starts with the category's label ("Fan 2", "Graphics card").
+		const label = several
+			? `${categoryLabel(rp.part.category)} ${n}`
+			: categoryLabel(rp.part.category);
+		out.set(rp.placement.id, { short, sentence: several ? short : `the ${word}`, label });
 	}
 	return out;
 }

@@ -12,6 +12,8 @@ export type FitSummary = {
 export type PlacedPart = {
 	ref: string;
 	short: string;
+	/** The short name as a list entry starts: "Fan 2", "Graphics card". */
+	label: string;
 	name: string;
 	category: string;
 	sizeMm: Vec3;

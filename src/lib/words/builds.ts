@@ -171,6 +171,19 @@ export function calloutSentence(o: Overlap): string {
 	return `${nameA} ↔ ${theName(nameB).slice(4)}: ${(o.volumeMm3 / 1000).toFixed(1)}\u2009cm³, ${formatMm(deepest)} deep — ${fix.charAt(0).toLowerCase()}${fix.slice(1)}`;
 }
 
+/**
+ * "The spine is in the room kept free for the compact graphics card’s power cable bend": a keep-out
+ * by its owner's name and its own label (the engine labels it "<part> · <keep-out>").
+ */
+function keepoutLead(keepout: Overlap['a'], otherName: string): string {
+	const cut = keepout.label.indexOf(' · ');
+	const owner = cut < 0 ? 'the part' : theName(keepout.label.slice(0, cut));
+	const what = cut < 0 ? keepout.label : keepout.label.slice(cut + 3);
+	const room = what.charAt(0).toLowerCase() + what.slice(1);
+	const lead = theName(otherName);
+	return `${lead.charAt(0).toUpperCase()}${lead.slice(1)} is in the room kept free for ${owner}’s ${room},`;
+}
+
 /** "Card and support bracket overlap by 3.5 mm along depth; move the bracket 1 step back." */
 export function overlapSentence(o: Overlap): string {
 	const axis = o.axis;
@@ -180,7 +193,7 @@ export function overlapSentence(o: Overlap): string {
 	const [nameA, nameB] = overlapParties(o);
 	const lead =
 		keepout && o.kind !== 'collides'
-			? `${other.label} is in the keep-out ${keepout.label}`
+			? keepoutLead(keepout, other === o.a ? nameA : nameB)
 			: `${nameA} and ${theName(nameB)} overlap`;
 	if (o.moves.length === 0) {
 		return `${lead} by ${formatMm(depth)} along ${AXIS_WORDS[axis]}. ${o.noMove ?? 'No single move clears this.'}`;
@@ -234,4 +247,19 @@ export function fitVerdict(report: FitReport): string {
 	}
 	if (!best) return 'Everything fits.';
 	return `Everything fits; the tightest gap is ${gapWords(best)} ${BESIDE_WORDS[best.face]} the ${best.label}.`;
+}
+
+/**
+ * A copy's name, unique among `taken`: "Tall loop — copy", then "Tall loop — copy 2", … A copy of
+ * a copy counts on from its source's name ("Tall loop — copy 2" → "Tall loop — copy 3"), never
+ * "— copy — copy". At most `maxLength` characters: the source name is cut to leave room.
+ */
+export function copyName(source: string, taken: readonly string[], maxLength = 80): string {
+	const base = source.replace(/ — copy(?: \d+)?$/, '');
+	const used = new Set(taken);
+	for (let n = 1; ; n++) {
+		const suffix = n === 1 ? ' — copy' : ` — copy ${n}`;
+		const name = `${base.slice(0, maxLength - suffix.length)}${suffix}`;
+		if (!used.has(name)) return name;
+	}
 }

@@ -44,7 +44,7 @@ export async function shareOverview(build: BuildRow, wantedVariantId: string | n
 			const names = placementNames(resolved);
 			pins = resolved.placements.map((rp) => ({
 				id: rp.placement.id,
-				label: `${names.get(rp.placement.id)!.short} — ${rp.part.name}`
+				label: `${names.get(rp.placement.id)!.label} — ${rp.part.name}`
 			}));
 		}
 	}

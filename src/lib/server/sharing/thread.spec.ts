@@ -210,6 +210,6 @@ describe('the client view', () => {
 		);
 		// Eight parts placed, seven different ones (two fans): the list groups them.
 		expect(view.lines.reduce((n, l) => n + l.quantity, 0)).toBe(8);
-		expect(view.lines.find((l) => l.category === 'fan')?.quantity).toBe(2);
+		expect(view.lines.find((l) => l.category === 'Fan')?.quantity).toBe(2);
 	});
 });

@@ -11,7 +11,6 @@ import {
 	boxSize,
 	innerVolumeLitres,
 	resolveScene,
-	type PartCategory,
 	type PartDef,
 	type Scene
 } from '$lib/geometry';
@@ -29,7 +28,8 @@ import {
 import { paidDeposit } from '../payments';
 import { photosOf } from './photos';
 import { quoteOfVariant } from './quotes';
-import { CATEGORY_WORDS, fitSummary, placementNames } from '../../sharing/summary';
+import { fitSummary, placementNames } from '../../sharing/summary';
+import { categoryLabel } from '$lib/words/specs';
 import { approvalState, latestApproval, threadOf } from './thread';
 import type {
 	ClientComment,
@@ -137,8 +137,9 @@ export async function clientView(input: {
 	const placed: PlacedPart[] = resolved.placements.map((rp) => ({
 		ref: rp.placement.id,
 		short: names.get(rp.placement.id)!.short,
+		label: names.get(rp.placement.id)!.label,
 		name: rp.part.name,
-		category: CATEGORY_WORDS[rp.part.category as PartCategory],
+		category: categoryLabel(rp.part.category),
 		sizeMm: boxSize(rp.bounds),
 		status: statusOf.get(rp.placement.id) ?? 'clear'
 	}));
@@ -182,7 +183,7 @@ export async function clientView(input: {
 			const quoteLine = sentQuote?.lines.find((l) => l.partId === realId);
 			lines.push({
 				name: def.name,
-				category: CATEGORY_WORDS[def.category as PartCategory],
+				category: categoryLabel(def.category),
 				quantity: loopUses.get(neutralId) ?? 0,
 				sizeMm: boxSize(boundsOf(def.bodies.map((b) => b.box))),
 				unitPriceMinor: sentQuote ? (quoteLine?.unitPriceMinor ?? null) : (cat?.priceMinor ?? null),
@@ -194,7 +195,7 @@ export async function clientView(input: {
 		const cat = priceById.get(realId);
 		lines.push({
 			name: first.part.name,
-			category: CATEGORY_WORDS[first.part.category as PartCategory],
+			category: categoryLabel(first.part.category),
 			quantity: resolved.placements.filter((rp) => rp.part.id === neutralId).length,
 			sizeMm: boxSize(first.bounds),
 			unitPriceMinor: sentQuote ? (quoteLine?.unitPriceMinor ?? null) : (cat?.priceMinor ?? null),
@@ -208,7 +209,7 @@ export async function clientView(input: {
 		const cutMm = runs.reduce((n, r) => n + r.cutLengthMm, 0);
 		lines.push({
 			name: `${t.name}, ${(cutMm / 1000).toFixed(2)} m cut in ${runs.length} ${runs.length === 1 ? 'run' : 'runs'}`,
-			category: 'tube',
+			category: 'Tube',
 			quantity: runs.length,
 			sizeMm: [t.outerMm, t.outerMm, cutMm],
 			unitPriceMinor: null,
