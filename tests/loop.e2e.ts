@@ -7,9 +7,8 @@
 import { expect, test } from '@playwright/test';
 import { closeDb } from '../src/lib/server/db';
 import { clearRateLimits } from '../src/lib/server/testing/factories';
+import { openDemoEditor } from './helpers/editor';
 import { restoreDemoVariant } from './helpers/demo-variant';
-
-const DESIGNER = { email: 'designer@demo.interstice.test', password: 'demo-password-1' };
 
 test.beforeAll(async () => {
 	await restoreDemoVariant();
@@ -23,15 +22,7 @@ test.afterAll(async () => {
 test('a run the tube cannot make is refused with the words of the scene check', async ({
 	browser
 }) => {
-	const context = await browser.newContext({ viewport: { width: 1440, height: 900 } });
-	const page = await context.newPage();
-	await page.goto('/signin');
-	await page.getByLabel('E-mail').fill(DESIGNER.email);
-	await page.getByLabel('Password').fill(DESIGNER.password);
-	await page.getByRole('button', { name: 'Sign in' }).click();
-	await page.waitForURL(/\/builds$/);
-	await page.goto('/builds/demo-build');
-	await expect(page.getByTestId('editor')).toHaveAttribute('data-ready', 'true');
+	const { context, page } = await openDemoEditor(browser);
 
 	const panel = page.locator('section[aria-labelledby="loop-h"]');
 	await expect(panel.getByText('No loop yet.')).toBeVisible();
@@ -64,15 +55,7 @@ test('the demo loop drawn from the 3D view: a waypoint dragged into the card col
 	browser
 }) => {
 	await restoreDemoVariant();
-	const context = await browser.newContext({ viewport: { width: 1440, height: 900 } });
-	const page = await context.newPage();
-	await page.goto('/signin');
-	await page.getByLabel('E-mail').fill(DESIGNER.email);
-	await page.getByLabel('Password').fill(DESIGNER.password);
-	await page.getByRole('button', { name: 'Sign in' }).click();
-	await page.waitForURL(/\/builds$/);
-	await page.goto('/builds/demo-build');
-	await expect(page.getByTestId('editor')).toHaveAttribute('data-ready', 'true');
+	const { context, page } = await openDemoEditor(browser);
 	const panel = page.locator('section[aria-labelledby="loop-h"]');
 	const scene = page.getByRole('region', { name: '3D view of the build' });
 

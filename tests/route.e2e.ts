@@ -8,9 +8,8 @@
 import { expect, test, type Locator } from '@playwright/test';
 import { closeDb } from '../src/lib/server/db';
 import { clearRateLimits } from '../src/lib/server/testing/factories';
+import { openDemoEditor } from './helpers/editor';
 import { restoreDemoVariant } from './helpers/demo-variant';
-
-const DESIGNER = { email: 'designer@demo.interstice.test', password: 'demo-password-1' };
 
 test.beforeAll(async () => {
 	await restoreDemoVariant({ cables: 'straight' });
@@ -38,15 +37,7 @@ test('suggests every run of the demo loop, and the accepted routes are checked a
 	browser
 }) => {
 	test.setTimeout(120_000);
-	const context = await browser.newContext({ viewport: { width: 1440, height: 900 } });
-	const page = await context.newPage();
-	await page.goto('/signin');
-	await page.getByLabel('E-mail').fill(DESIGNER.email);
-	await page.getByLabel('Password').fill(DESIGNER.password);
-	await page.getByRole('button', { name: 'Sign in' }).click();
-	await page.waitForURL(/\/builds$/);
-	await page.goto('/builds/demo-build');
-	await expect(page.getByTestId('editor')).toHaveAttribute('data-ready', 'true');
+	const { context, page } = await openDemoEditor(browser);
 
 	const panel = page.locator('section[aria-labelledby="loop-h"]');
 	const pump = 'Compact pump-reservoir, 58 mm thick';
