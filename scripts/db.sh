@@ -1,7 +1,7 @@
 #!/usr/bin/env bash
 # PostgreSQL for this clone: Debian's server, our own cluster, 127.0.0.1 only (no Unix socket, so
 # no socket-path length limit and no socket folder to share).
-# Usage: scripts/db.sh start|stop|status|where|create NAME|drop NAME|reset [--yes]|destroy [--yes]
+# Usage: scripts/db.sh start|stop|status|where|create NAME|drop NAME|copy FROM TO|reset [--yes]|destroy [--yes]
 #
 # Two clusters per clone:
 #   the app's (default): PostgreSQL's own durability settings (fsync, full_page_writes and
@@ -151,6 +151,13 @@ status) if have_cluster && running; then echo "db: running on 127.0.0.1:$PGPORT 
 where) echo "$DATA" ;;
 create) start >/dev/null; create_db "$2" ;;
 drop) start >/dev/null; echo 'drop database if exists :"n" with (force)' | psql_admin -v n="$2" >/dev/null; echo "db: dropped $2" ;;
+copy)
+	# TO made anew as a copy of FROM (PostgreSQL's template copy: nothing may be connected to FROM).
+	start >/dev/null
+	echo 'drop database if exists :"t" with (force)' | psql_admin -v t="$3" >/dev/null
+	echo 'create database :"t" template :"f"' | psql_admin -v f="$2" -v t="$3" >/dev/null
+	echo "db: copied $2 to $3"
+	;;
 reset)
 	confirm "This deletes every database in $DATA (make a copy first with npm run backup)." "${2:-}"
 	destroy
@@ -160,5 +167,5 @@ destroy)
 	confirm "This deletes the $CLUSTER cluster in $DATA and every database in it." "${2:-}"
 	destroy
 	;;
-*) echo "usage: $0 start|stop|status|where|create NAME|drop NAME|reset [--yes]|destroy [--yes]" >&2; exit 2 ;;
+*) echo "usage: $0 start|stop|status|where|create NAME|drop NAME|copy FROM TO|reset [--yes]|destroy [--yes]" >&2; exit 2 ;;
 esac

@@ -7,9 +7,11 @@ let failed = Number(stepsFail);
 let skipped = 0;
 const lines = [];
 
-const vitestFile = `${dir}/vitest.json`;
-if (existsSync(vitestFile)) {
-	const v = JSON.parse(readFileSync(vitestFile, 'utf8'));
+// One JSON report per vitest line (scripts/test.sh runs the engine and services groups side by side).
+const vitestFiles = ['engine', 'services'].map((g) => [g, `${dir}/vitest-${g}.json`]);
+for (const [group, file] of vitestFiles) {
+	if (!existsSync(file)) continue;
+	const v = JSON.parse(readFileSync(file, 'utf8'));
 	passed += v.numPassedTests;
 	failed += v.numFailedTests;
 	skipped += v.numPendingTests + (v.numTodoTests ?? 0);
@@ -18,10 +20,14 @@ if (existsSync(vitestFile)) {
 		(r) => r.status === 'failed' && r.assertionResults.length === 0
 	).length;
 	failed += brokenSuites;
-	lines.push(`vitest: ${v.numPassedTests} passed, ${v.numFailedTests + brokenSuites} failed`);
-} else if (vitestRc !== '0') {
+	lines.push(
+		`vitest (${group}): ${v.numPassedTests} passed, ${v.numFailedTests + brokenSuites} failed`
+	);
+}
+const missing = vitestFiles.filter(([, f]) => !existsSync(f)).map(([g]) => g);
+if (missing.length && vitestRc !== '0') {
 	failed += 1;
-	lines.push('vitest: did not report');
+	lines.push(`vitest (${missing.join(', ')}): did not report`);
 }
 
 const pwFile = `${dir}/playwright.json`;
@@ -39,6 +45,7 @@ if (existsSync(pwFile)) {
 }
 
 if (existsSync(`${dir}/steps`)) process.stdout.write(readFileSync(`${dir}/steps`, 'utf8'));
+if (existsSync(`${dir}/timings`)) process.stdout.write(readFileSync(`${dir}/timings`, 'utf8'));
 for (const l of lines) console.log(l);
 console.log(`(${seconds} s)`);
 console.log(`${passed} passed, ${failed} failed${skipped ? `, ${skipped} skipped` : ''}`);

@@ -10,9 +10,11 @@ import { createHash } from 'node:crypto';
 import { mkdir, open, readdir, readFile, rename, rm, stat } from 'node:fs/promises';
 import { dirname, join, resolve, sep } from 'node:path';
 import {
+	CreateBucketCommand,
 	DeleteObjectCommand,
 	DeleteObjectsCommand,
 	GetObjectCommand,
+	HeadBucketCommand,
 	ListObjectsV2Command,
 	PutObjectCommand,
 	S3Client
@@ -140,6 +142,24 @@ export async function deleteObject(key: string): Promise<void> {
 		return;
 	}
 	await rm(pathOf(key), { force: true });
+}
+
+/**
+ * Makes the configured bucket when it is missing (S3 only; true when it made one). For the local
+ * fake: one left running from an earlier checkout knows only the buckets it was started with.
+ */
+export async function ensureBucket(): Promise<boolean> {
+	if (!s3on()) return false;
+	try {
+		await s3().send(new HeadBucketCommand({ Bucket: Bucket() }));
+		return false;
+	} catch (e) {
+		if ((e as { $metadata?: { httpStatusCode?: number } }).$metadata?.httpStatusCode !== 404) {
+			throw e;
+		}
+	}
+	await s3().send(new CreateBucketCommand({ Bucket: Bucket() }));
+	return true;
 }
 
 /** Deletes several objects; missing ones are fine (a repeated clean-up is not an error). */
