@@ -32,10 +32,20 @@ import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
 import { once } from 'node:events';
 import { Agent, request as httpRequest } from 'node:http';
 import { randomBytes } from 'node:crypto';
-import { cpSync, existsSync, mkdtempSync, readFileSync, readdirSync, rmSync } from 'node:fs';
+import {
+	cpSync,
+	existsSync,
+	mkdtempSync,
+	readFileSync,
+	readdirSync,
+	rmSync,
+	writeFileSync
+} from 'node:fs';
 import { availableParallelism, loadavg, tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
+import postgres from 'postgres';
 import { databaseUrl } from './env';
+import { below, cpuNow, cpuSince, postgresOf, thisProcess, type Groups } from './proc-cpu';
 import { Client, freePort } from '../src/lib/server/testing/app-server';
 
 const args = new Map<string, string | undefined>(
@@ -52,6 +62,11 @@ const PROFILE = args.has('profile');
 const CLUSTER = !args.has('no-cluster');
 const EDITORS = Number(args.get('editors') ?? 20);
 const PACED_S = Number(args.get('paced') ?? 20);
+/** The saturating load's generator: wrk (Debian's package, installed when missing) or autocannon. */
+const LOADER = args.get('loader') ?? 'wrk';
+if (LOADER !== 'wrk' && LOADER !== 'autocannon') {
+	throw new Error(`--loader must be wrk or autocannon, not ${LOADER}`);
+}
 
 const BUILD_ID = 'demo-build';
 const VARIANT_ID = 'demo-variant-a';
@@ -161,6 +176,8 @@ async function signIn(baseURL: string): Promise<string> {
 type Row = {
 	name: string;
 	rps: number;
+	/** Microseconds of CPU per answered request, by group of processes. */
+	cpuUsPerRequest: Record<string, number>;
 	p50Ms: number;
 	p99Ms: number;
 	errors: number;
@@ -175,6 +192,8 @@ class Tally {
 	statuses: Record<string, number> = {};
 	/** The machine's 1-minute load average after each round. */
 	loads: number[] = [];
+	/** CPU seconds each group of processes used during the rounds (scripts/proc-cpu.ts). */
+	cpu: Record<string, number> = {};
 
 	constructor(readonly name: string) {}
 
@@ -190,20 +209,121 @@ class Tally {
 		}
 	}
 
+	/** wrk's rounds: it reports percentiles, not each response's latency. */
+	wrkRounds: { requests: number; p50Ms: number; p99Ms: number }[] = [];
+
+	addWrk(r: WrkResult) {
+		this.seconds += r.durationUs / 1e6;
+		this.errors += r.connect + r.read + r.write + r.status + r.timeout;
+		this.statuses['2xx'] = (this.statuses['2xx'] ?? 0) + r.requests - r.status;
+		if (r.status) this.statuses['other'] = (this.statuses['other'] ?? 0) + r.status;
+		this.wrkRounds.push({ requests: r.requests, p50Ms: r.p50Us / 1000, p99Ms: r.p99Us / 1000 });
+	}
+
 	row(): Row {
 		const sorted = [...this.latenciesMs].sort((a, b) => a - b);
 		const at = (q: number) =>
 			sorted[Math.min(sorted.length - 1, Math.ceil(q * sorted.length) - 1)] ?? NaN;
 		const round = (v: number) => Math.round(v * 10) / 10;
+		// With wrk: the median is the rounds' median weighted by their requests, p99 the worst round's.
+		const wrkCount = this.wrkRounds.reduce((n, r) => n + r.requests, 0);
+		const count = sorted.length + wrkCount;
+		const p50 = wrkCount
+			? this.wrkRounds.reduce((s, r) => s + r.p50Ms * r.requests, 0) / wrkCount
+			: at(0.5);
+		const p99 = wrkCount ? Math.max(...this.wrkRounds.map((r) => r.p99Ms)) : at(0.99);
 		return {
 			name: this.name,
-			rps: round(sorted.length / this.seconds),
-			p50Ms: round(at(0.5)),
-			p99Ms: round(at(0.99)),
+			rps: round(count / this.seconds),
+			p50Ms: round(p50),
+			p99Ms: round(p99),
 			errors: this.errors,
-			statuses: this.statuses
+			statuses: this.statuses,
+			cpuUsPerRequest: Object.fromEntries(
+				Object.entries(this.cpu).map(([k, cpuS]) => [
+					k,
+					Math.round((cpuS * 1e6) / Math.max(1, count))
+				])
+			)
 		};
 	}
+}
+
+type WrkResult = {
+	requests: number;
+	durationUs: number;
+	connect: number;
+	read: number;
+	write: number;
+	status: number;
+	timeout: number;
+	p50Us: number;
+	p99Us: number;
+};
+
+let bodiesFile = '';
+/** The pool of bodies as one JSON line each, for wrk's script (scripts/bench-wrk.lua). */
+function wrkBodies(bodies: string[]): string {
+	if (!bodiesFile) {
+		bodiesFile = resolve(root, '.data', `bench-http-bodies-${process.pid}.jsonl`);
+		writeFileSync(bodiesFile, bodies.join('\n') + '\n');
+		process.once('exit', () => rmSync(bodiesFile, { force: true }));
+	}
+	return bodiesFile;
+}
+
+/**
+ * A saturated load from wrk (one thread, CONNECTIONS connections): wrk is a C program, so it
+ * takes a small share of the cores the servers are measured on; autocannon, in this Node process,
+ * took about as much CPU per request as PostgreSQL did. The shell's `times` gives wrk's CPU.
+ */
+async function wrkLoad(
+	url: string,
+	headers: Record<string, string>,
+	bodies: string[],
+	durationS: number,
+	tally?: Tally,
+	groups?: Groups
+) {
+	const before = groups ? cpuNow(groups) : null;
+	const wrkArgs = [
+		'-t1',
+		`-c${CONNECTIONS}`,
+		`-d${durationS}s`,
+		'--timeout',
+		'10s',
+		'-s',
+		resolve(root, 'scripts/bench-wrk.lua'),
+		...Object.entries(headers).flatMap(([k, v]) => ['-H', `${k}: ${v}`]),
+		url,
+		'--',
+		wrkBodies(bodies)
+	];
+	const child = spawn('sh', ['-c', 'wrk "$@"; rc=$?; times; exit $rc', 'sh', ...wrkArgs], {
+		stdio: ['ignore', 'pipe', 'inherit']
+	});
+	let out = '';
+	child.stdout.on('data', (b: Buffer) => (out += b.toString()));
+	const [code] = (await once(child, 'exit')) as [number];
+	const json = out.split('\n').find((l) => l.startsWith('{"requests"'));
+	if (code !== 0 || !json) throw new Error(`wrk failed (${code}):\n${out}`);
+	const result = JSON.parse(json) as WrkResult;
+	if (tally && groups && before) {
+		const used = cpuSince(groups, before);
+		// `times`' second line: the children's user and system time, as 0m1.234s 0m0.567s.
+		const seconds = (t: string) => {
+			const m = /(\d+)m([\d.]+)s/.exec(t);
+			return m ? Number(m[1]) * 60 + Number(m[2]) : 0;
+		};
+		const childLine = out.trim().split('\n').at(-1) ?? '';
+		used['load generator'] = childLine.split(/\s+/).reduce((a, t) => a + seconds(t), 0);
+		for (const [k, v] of Object.entries(used)) tally.cpu[k] = (tally.cpu[k] ?? 0) + v;
+	}
+	if (tally) {
+		tally.addWrk(result);
+		tally.loads.push(loadavg()[0]);
+	}
+	return result;
 }
 
 async function load(
@@ -212,9 +332,14 @@ async function load(
 	bodies: string[],
 	durationS: number,
 	tally?: Tally,
-	paced?: { connections: number; rate: number }
+	paced?: { connections: number; rate: number },
+	groups?: Groups
 ) {
+	if (LOADER === 'wrk' && !paced) {
+		return void (await wrkLoad(url, headers, bodies, durationS, tally, groups));
+	}
 	let n = 0;
+	const before = groups ? cpuNow(groups) : null;
 	const run = autocannon({
 		url,
 		method: 'POST',
@@ -233,6 +358,11 @@ async function load(
 		);
 	}
 	const result = await run;
+	if (tally && groups && before) {
+		for (const [k, v] of Object.entries(cpuSince(groups, before))) {
+			tally.cpu[k] = (tally.cpu[k] ?? 0) + v;
+		}
+	}
 	if (tally) {
 		tally.add(result);
 		tally.loads.push(loadavg()[0]);
@@ -326,7 +456,13 @@ async function editorsLoad(
 	tally.loads.push(loadavg()[0]);
 }
 
-type Target = { baseURL: string; stop(): Promise<void>; label: string };
+type Target = {
+	baseURL: string;
+	stop(): Promise<void>;
+	label: string;
+	/** The target's own processes, for the CPU breakdown (PostgreSQL and the load generator are added). */
+	groups: Groups;
+};
 
 /** scripts/cluster.ts on free ports: nginx in front of two processes of the copied build. */
 async function startCluster(app: string, token: string): Promise<Target> {
@@ -371,7 +507,13 @@ async function startCluster(app: string, token: string): Promise<Target> {
 		await once(child, 'exit');
 		rmSync(prefix, { recursive: true, force: true });
 	};
-	return { baseURL, stop, label: 'cluster (nginx, 2 processes)' };
+	const pid = child.pid!;
+	return {
+		baseURL,
+		stop,
+		label: 'cluster (nginx, 2 processes)',
+		groups: { app: below(pid, app), nginx: below(pid, /^nginx/) }
+	};
 }
 
 const round1 = (v: number) => Math.round(v * 100) / 100;
@@ -421,11 +563,30 @@ function profileSummary(file: string, n = 20) {
 }
 
 async function main() {
+	if (LOADER === 'wrk') {
+		const r = spawnSync('bash', ['-c', 'source scripts/lib.sh && ensure_wrk'], {
+			cwd: root,
+			stdio: 'inherit'
+		});
+		if (r.status !== 0) {
+			throw new Error(
+				'wrk is missing and could not be installed (--loader=autocannon runs without it)'
+			);
+		}
+	}
 	const app = preparedBuild();
 	const token = randomBytes(32).toString('hex');
 	const profileDir = PROFILE ? mkdtempSync(join(tmpdir(), 'bench-http-prof-')) : null;
 	const single = await startServer(app, token, null);
-	const targets: Target[] = [{ ...single, label: 'one process' }];
+	const targets: Target[] = [
+		{ ...single, label: 'one process', groups: { app: below(single.child.pid!, app) } }
+	];
+	// PostgreSQL's processes, found from one backend's parent (the postmaster).
+	const sql = postgres(databaseUrl(), { max: 1 });
+	const [{ pid: backendPid }] = await sql<{ pid: number }[]>`select pg_backend_pid() as pid`;
+	// The load generator is autocannon, in this process.
+	const shared: Groups = { postgresql: postgresOf(backendPid), 'load generator': thisProcess };
+	await sql.end();
 	const rows: (Row & { load1m: number; target: string })[] = [];
 	try {
 		if (CLUSTER) targets.push(await startCluster(app, token));
@@ -470,7 +631,7 @@ async function main() {
 		}
 
 		console.log(
-			`bench:http: ${CONNECTIONS} connections, ${DURATION_S} s per endpoint in ${ROUNDS} alternating rounds (after ${WARMUP_S} s warm-up), ${bodies.length} different bodies of about ${bodies[0].length} bytes; then ${EDITORS} editors × 1 check/s for ${PACED_S} s`
+			`bench:http: ${LOADER}, ${CONNECTIONS} connections, ${DURATION_S} s per endpoint in ${ROUNDS} alternating rounds (after ${WARMUP_S} s warm-up), ${bodies.length} different bodies of about ${bodies[0].length} bytes; then ${EDITORS} editors × 1 check/s for ${PACED_S} s`
 		);
 		for (const p of prepared) {
 			if (WARMUP_S > 0) {
@@ -488,8 +649,9 @@ async function main() {
 		const slice = DURATION_S / ROUNDS;
 		for (let i = 0; i < ROUNDS; i++) {
 			for (const { p, noop, check } of tallies) {
-				await load(p.noop, p.headers, bodies, slice, noop);
-				await load(p.check, p.headers, bodies, slice, check);
+				const groups = { ...p.t.groups, ...shared };
+				await load(p.noop, p.headers, bodies, slice, noop, undefined, groups);
+				await load(p.check, p.headers, bodies, slice, check, undefined, groups);
 			}
 		}
 		const paced = prepared.map((p) => ({
@@ -585,6 +747,17 @@ async function main() {
 	for (const r of rows) {
 		console.log(
 			`${r.name.padEnd(52)} ${r.rps.toFixed(0).padStart(6)}  ${String(r.p50Ms).padStart(7)}  ${String(r.p99Ms).padStart(7)}  ${String(r.errors).padStart(7)}   ${r.load1m.toFixed(2)}`
+		);
+	}
+	// Where each answered request's CPU went. On this machine every group shares the same cores,
+	// so the cluster's ceiling is cores ÷ (sum of the groups) however many app processes there are.
+	console.log('\nCPU per answered request (µs), by group of processes, saturated rounds:');
+	for (const r of rows.filter((r) => Object.keys(r.cpuUsPerRequest).length)) {
+		const total = Object.values(r.cpuUsPerRequest).reduce((a, b) => a + b, 0);
+		const parts = Object.entries(r.cpuUsPerRequest).map(([k, us]) => `${k} ${us}`);
+		const ceiling = Math.round((availableParallelism() * 1e6) / Math.max(1, total));
+		console.log(
+			`${r.name.padEnd(52)} ${parts.join(', ')}; total ${total} (all ${availableParallelism()} cores: at most ${ceiling} req/s)`
 		);
 	}
 	console.log(

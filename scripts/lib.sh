@@ -131,3 +131,12 @@ ensure_payments_fake() {
 stop_started_services() {
 	for name in ${STARTED_SERVICES:-}; do stop_service "$name"; done
 }
+
+# Debian's wrk, the load generator of npm run bench:http (a C program: it leaves the cores to the
+# servers it measures).
+ensure_wrk() {
+	if ! command -v wrk >/dev/null; then
+		log "installing Debian's wrk"
+		apt_install wrk
+	fi
+}
