@@ -137,10 +137,14 @@ export function cableRouteRequest(
 			reach(c.to.placementId, c.to.portId)
 		);
 		if (!start || !end) return { ok: false, message: `${c.label} names a port the scene lacks.` };
+		const name = (placementId: string, portId: string) => {
+			const part = resolved.placements.find((p) => p.placement.id === placementId)?.part.name;
+			return `${part ?? placementId} · ${portId}`;
+		};
 		runs.push({
 			id: c.id,
-			start,
-			end,
+			start: { ...start, label: name(c.from.placementId, c.from.portId) },
+			end: { ...end, label: name(c.to.placementId, c.to.portId) },
 			section: { kind: 'flat', widthMm: c.widthMm, thicknessMm: c.thicknessMm },
 			bendRadiusMm: c.minBendRadiusMm,
 			mode: 'soft'
