@@ -274,7 +274,7 @@ describe('findRoute', { timeout: 180_000 }, () => {
 		// bend of radius 40) > 30 − 2 − 5 = 23 mm of room above it.
 		expect(res.cause).toBe('disconnected');
 		expect(res.reason).toMatch(
-			/the start has no room to turn.* 40\.0 mm radius.*walls are in the way/
+			/the start has no room to turn.* 40\.0 mm radius.*panels are in the way/
 		);
 	});
 

@@ -1195,7 +1195,7 @@ function noRoomToTurn(
 	shut: { blockers: number[]; bounds: boolean }
 ): RouteResult {
 	const blockedBy = names(prep, shut.blockers);
-	const what = [...blockedBy, ...(shut.bounds ? ["the enclosure's walls"] : [])];
+	const what = [...blockedBy, ...(shut.bounds ? ["the enclosure's panels"] : [])];
 	const r = prep.r;
 	const leg = which === 'start' ? 'out of its port' : 'into its port';
 	return {
