@@ -26,7 +26,7 @@ const UNIT: Record<Face, Vec3> = {
  * Independent oracle: Dijkstra over every integer point of the bounds (a 1-unit grid, finer than
  * or equal to the engine's candidate planes when all inputs are integers), written here from the
  * problem's rules and not from the engine's code. The tube occupies its straight pieces grown by
- * the half-width across their axis and the bounding box of each bend; a bend needs r of straight
+ * the half-width across their axis and each bend's tangent points and corner grown by the half-width; a bend needs r of straight
  * leg on both sides (so 2r between two bends, r after the start and before the end); the route
  * leaves the start along its port and arrives against the end's port. Cost = polyline length +
  * penalty × bends. Answers Infinity when nothing connects.
@@ -63,15 +63,16 @@ function bruteForce(input: RouteInput): number {
 		}
 		return free(min, max);
 	};
-	/** A 90° bend at p from unit u to unit v: the bent tube's bounding box. */
+	/** A 90° bend at p from unit u to unit v: the box of its tangent points and corner, grown. */
 	const bend = (p: Vec3, u: Vec3, v: Vec3) => {
 		const min = [p[0] - half, p[1] - half, p[2] - half];
 		const max = [p[0] + half, p[1] + half, p[2] + half];
 		for (let a = 0; a < 3; a++) {
-			if (u[a] > 0) min[a] = p[a] - r;
-			if (u[a] < 0) max[a] = p[a] + r;
-			if (v[a] > 0) max[a] = p[a] + r;
-			if (v[a] < 0) min[a] = p[a] - r;
+			// The tangent points grown by the half-width every way (the loop checker's bend box).
+			if (u[a] > 0) min[a] = p[a] - r - half;
+			if (u[a] < 0) max[a] = p[a] + r + half;
+			if (v[a] > 0) max[a] = p[a] + r + half;
+			if (v[a] < 0) min[a] = p[a] - r - half;
 		}
 		return free(min, max);
 	};

@@ -21,8 +21,9 @@
  *
  * What the tube occupies (the same boxes `routeBoxes` gives, so what the search calls clear is
  * what the checker sees): each straight piece is its segment grown by the half-width across its
- * axis; each bend is the exact bounding box of the bent tube, the square between the bend's two
- * tangent points grown by the half-width on its outer sides and across the bend's plane.
+ * axis; each bend is the square between the bend's two
+ * tangent points grown by the half-width on every side (the loop checker's bend box: the exact
+ * box of the bent tube plus half the width along each leg at its tangent end).
  *
  * Soft tube uses the same search with its own (smaller) bend radius: the waypoints are the corners
  * of a rectilinear path that the soft tube follows with bends no tighter than that radius, so the
@@ -144,7 +145,10 @@ function directionOf(a: Vec3, b: Vec3): number {
 	return axis * 2 + (b[axis] > a[axis] ? 1 : 0);
 }
 
-/** The exact bounding box of a 90° bend at corner p, arriving along d1 and leaving along d2. */
+/**
+ * The box a 90° bend at corner p takes, arriving along d1 and leaving along d2: the bent tube's
+ * exact bounding box, with `half` more along each leg at its tangent end (see below).
+ */
 function bendBox(
 	p: Vec3,
 	d1: number,
@@ -161,17 +165,19 @@ function bendBox(
 	}
 	const a1 = AXIS_OF[d1];
 	const a2 = AXIS_OF[d2];
-	// Along d1 the tube starts bending r before the corner and bulges half beyond it.
+	// Along d1 the tube starts bending r before the corner and bulges half beyond it. Along d2 it
+	// reaches r past the corner and bulges half behind it. Both tangent ends also take `half` more
+	// along their legs: the loop checker's bend box (its tangent points and corner grown by the
+	// tube's radius every way, loop.ts runPieces), so a route the search calls clear is clear there.
 	if (SIGN_OF[d1] > 0) {
-		min[a1] = p[a1] - r;
+		min[a1] = p[a1] - r - half;
 	} else {
-		max[a1] = p[a1] + r;
+		max[a1] = p[a1] + r + half;
 	}
-	// Along d2 it reaches r past the corner and bulges half behind it.
 	if (SIGN_OF[d2] > 0) {
-		max[a2] = p[a2] + r;
+		max[a2] = p[a2] + r + half;
 	} else {
-		min[a2] = p[a2] - r;
+		min[a2] = p[a2] - r - half;
 	}
 	return out;
 }
@@ -204,7 +210,7 @@ function pieceBox(
 
 /**
  * The boxes a routed tube or bundle occupies: each straight piece between its bends' tangent
- * points grown by the half-width across its axis, and each bend's exact bounding box. `points` is
+ * points grown by the half-width across its axis, and each bend's box (bendBox). `points` is
  * the full centre-line [start, ...waypoints, end].
  */
 export function routeBoxes(
