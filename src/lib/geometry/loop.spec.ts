@@ -1,7 +1,12 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { checkScene } from './check';
-import { blockPart, makeScene, plainEnclosure } from '../server/testing/engine-factories';
+import {
+	blockPart,
+	makeScene,
+	plainEnclosure,
+	pumpLoopScene
+} from '../server/testing/engine-factories';
 import { checkLoops, loopBill, runPieces, type RunCache, type LoopReport } from './loop';
 import { defaultFittings, defaultTubeKinds } from './loop-library';
 import {
@@ -26,82 +31,6 @@ import {
 } from './schema';
 
 const HARD16 = defaultTubeKinds().find((t) => t.id === 'hard-16')!;
-
-/**
- * A 400 mm cube inside; a pump (in on top, out on its +x side) and a reservoir (out and in, a
- * fill port on top), joined by two 16 mm hard runs with straight fittings (reach 24 mm, insertion
- * 10 mm). World ports: pump in (65, 80, 75) +y, pump out (110, 50, 75) +x; reservoir out
- * (220, 200, 75) +y, in (280, 170, 75) +x, fill (240, 200, 55) +y.
- */
-function loopScene(edit: (s: { input: SceneInput; loop: LoopDef }) => void = () => {}): SceneInput {
-	const pump: PartDef = {
-		...blockPart('pump', [60, 60, 60]),
-		name: 'Pump',
-		category: 'pump',
-		ports: [
-			{ id: 'in', position: [15, 60, 30], direction: '+y', thread: 'G 1/4' },
-			{ id: 'out', position: [60, 30, 30], direction: '+x', thread: 'G 1/4' }
-		]
-	};
-	const res: PartDef = {
-		...blockPart('res', [80, 100, 70]),
-		name: 'Reservoir',
-		category: 'reservoir',
-		ports: [
-			{ id: 'out', position: [20, 100, 35], direction: '+y', thread: 'G 1/4' },
-			{ id: 'in', position: [80, 70, 35], direction: '+x', thread: 'G 1/4' },
-			{ id: 'fill', position: [40, 100, 15], direction: '+y', thread: 'G 1/4' },
-			{ id: 'side', position: [40, 20, 70], direction: '+z', thread: 'G 1/4' }
-		]
-	};
-	const loop: LoopDef = {
-		id: 'main',
-		label: 'Main loop',
-		runs: [
-			{
-				id: 'r1',
-				from: { placementId: 'res-1', portId: 'out' },
-				to: { placementId: 'pump-1', portId: 'in' },
-				tube: 'hard-16',
-				fittings: { from: 'fit-straight-16', to: 'fit-straight-16' },
-				waypoints: [
-					[220, 300, 75],
-					[65, 300, 75]
-				]
-			},
-			{
-				id: 'r2',
-				from: { placementId: 'pump-1', portId: 'out' },
-				to: { placementId: 'res-1', portId: 'in' },
-				tube: 'hard-16',
-				fittings: { from: 'fit-straight-16', to: 'fit-straight-16' },
-				waypoints: [
-					[350, 50, 75],
-					[350, 170, 75]
-				]
-			}
-		],
-		plugs: [
-			{ placementId: 'res-1', portId: 'fill', fitting: 'plug-g14' },
-			{ placementId: 'res-1', portId: 'side', fitting: null }
-		],
-		fill: { placementId: 'res-1', portId: 'fill' }
-	};
-	const input: SceneInput = {
-		format: 'interstice.scene',
-		version: 1,
-		enclosure: plainEnclosure([400, 400, 400]),
-		parts: [pump, res, ...defaultFittings()],
-		placements: [
-			{ id: 'pump-1', partId: 'pump', position: [50, 20, 45] },
-			{ id: 'res-1', partId: 'res', position: [200, 100, 40] }
-		],
-		tubeKinds: defaultTubeKinds(),
-		loops: [loop]
-	};
-	edit({ input, loop });
-	return input;
-}
 
 function parse(input: SceneInput) {
 	const parsed = sceneSchema.safeParse(input);
@@ -181,7 +110,7 @@ describe('cut lengths, worked by hand', () => {
 		// Run 1: (220, 224, 75) → (220, 300, 75) → (65, 300, 75) → (65, 104, 75): 76 + 155 + 196 =
 		// 427 mm of polyline; two 90° bends of r = 32: −4·32 + 2·(π·32/2) = −128 + 32π. Centre line
 		// 299 + 32π ≈ 399.531 mm; cut 319 + 32π ≈ 419.531 mm with 10 mm in each fitting.
-		const [loop] = loopsOf(loopScene());
+		const [loop] = loopsOf(pumpLoopScene());
 		const run = loop.runs[0];
 		expect(run.lengthMm).toBeCloseTo(299 + 32 * Math.PI, 9);
 		expect(run.cutLengthMm).toBeCloseTo(319 + 32 * Math.PI, 9);
@@ -200,7 +129,7 @@ describe('cut lengths, worked by hand', () => {
 
 describe('the bill', () => {
 	it('lists the cut, the tube to buy with the allowance and the fittings per thread', () => {
-		const input = loopScene();
+		const input = pumpLoopScene();
 		const scene = parse(input);
 		const loops = checkLoops(scene, resolveScene(scene));
 		const bill = loopBill(scene, loops, 10);
@@ -223,7 +152,7 @@ describe('the bill', () => {
 
 describe('loop checks', () => {
 	it('the loop scene passes every check but the drain advice', () => {
-		const [loop] = loopsOf(loopScene());
+		const [loop] = loopsOf(pumpLoopScene());
 		expect(loop.checks.map((c) => [c.id, c.status])).toEqual([
 			['closed', 'pass'],
 			['reservoir', 'pass'],
@@ -242,7 +171,7 @@ describe('loop checks', () => {
 
 	it('a reservoir below the pump inlet fails', () => {
 		// Raise the pump 200 mm: its inlet at y 280 is 80 mm above the reservoir's outlet at 200.
-		const input = loopScene(({ input, loop }) => {
+		const input = pumpLoopScene(({ input, loop }) => {
 			input.placements![0].position = [50, 220, 45];
 			loop.runs[0].waypoints = [
 				[220, 350, 75],
@@ -260,14 +189,14 @@ describe('loop checks', () => {
 	});
 
 	it('a pump fed by anything but a reservoir fails', () => {
-		const input = loopScene(({ input }) => {
+		const input = pumpLoopScene(({ input }) => {
 			(input.parts![1] as PartDef).category = 'other';
 		});
 		expect(checkOf(loopsOf(input)[0], 'reservoir').status).toBe('fail');
 	});
 
 	it('a fill port below the top of the loop warns', () => {
-		const input = loopScene(({ loop }) => {
+		const input = pumpLoopScene(({ loop }) => {
 			loop.fill = { placementId: 'res-1', portId: 'side' };
 		});
 		const fill = checkOf(loopsOf(input)[0], 'fill');
@@ -277,7 +206,7 @@ describe('loop checks', () => {
 	});
 
 	it('a fill port with a part over it warns that it is not reachable', () => {
-		const input = loopScene(({ input }) => {
+		const input = pumpLoopScene(({ input }) => {
 			input.parts!.push(blockPart('shelf', [40, 10, 20]));
 			input.placements!.push({ id: 'shelf-1', partId: 'shelf', position: [220, 350, 45] });
 		});
@@ -287,7 +216,7 @@ describe('loop checks', () => {
 	});
 
 	it('a port left open fails until it is plugged', () => {
-		const open = loopScene(({ loop }) => {
+		const open = pumpLoopScene(({ loop }) => {
 			loop.plugs = loop.plugs.filter((p) => p.portId !== 'side');
 		});
 		const [loop] = loopsOf(open);
@@ -295,11 +224,11 @@ describe('loop checks', () => {
 		expect(loop.needsPlug).toEqual([
 			{ placementId: 'res-1', portId: 'side', label: 'Reservoir · side', thread: 'G 1/4' }
 		]);
-		expect(checkOf(loopsOf(loopScene())[0], 'ports').status).toBe('pass');
+		expect(checkOf(loopsOf(pumpLoopScene())[0], 'ports').status).toBe('pass');
 	});
 
 	it('a fitting of another thread fails', () => {
-		const input = loopScene(({ input }) => {
+		const input = pumpLoopScene(({ input }) => {
 			const pump = input.parts![0] as PartDef;
 			pump.ports[0].thread = 'G 3/8';
 		});
@@ -309,7 +238,7 @@ describe('loop checks', () => {
 	});
 
 	it('an open chain says where it breaks', () => {
-		const input = loopScene(({ loop }) => {
+		const input = pumpLoopScene(({ loop }) => {
 			loop.runs = [loop.runs[0]];
 		});
 		const closed = checkOf(loopsOf(input)[0], 'closed');
@@ -318,7 +247,7 @@ describe('loop checks', () => {
 	});
 
 	it('a drain near the lowest point passes, one high up is advice', () => {
-		const low = loopScene(({ loop }) => {
+		const low = pumpLoopScene(({ loop }) => {
 			loop.drain = { placementId: 'res-1', portId: 'side' };
 		});
 		// Lowest point: run 2 at y 50; the side port at y 120 is 70 mm above it.
@@ -330,7 +259,7 @@ describe('loop checks', () => {
 
 describe('runs checked like bodies', () => {
 	it('names the run, the segment and what it meets', () => {
-		const input = loopScene(({ input }) => {
+		const input = pumpLoopScene(({ input }) => {
 			input.parts!.push({ ...blockPart('card', [50, 40, 70]), name: 'Card' });
 			input.placements!.push({ id: 'card-1', partId: 'card', position: [120, 280, 40] });
 		});
@@ -347,7 +276,7 @@ describe('runs checked like bodies', () => {
 
 	it('closer than the clearance is tight, with the gap', () => {
 		// Run 1's second segment is at y 300 ± 8; a box from y 309 leaves 1 mm, under 2 mm.
-		const input = loopScene(({ input }) => {
+		const input = pumpLoopScene(({ input }) => {
 			input.parts!.push(blockPart('lid', [50, 20, 70]));
 			input.placements!.push({ id: 'lid-1', partId: 'lid', position: [120, 309, 40] });
 		});
@@ -359,14 +288,14 @@ describe('runs checked like bodies', () => {
 	});
 
 	it("a run's end fittings do not collide with the ports they screw into", () => {
-		const [loop] = loopsOf(loopScene());
+		const [loop] = loopsOf(pumpLoopScene());
 		expect(loop.runs.flatMap((r) => r.problems)).toEqual([]);
 		expect(loop.runs[0].pieces.filter((p) => p.kind === 'fitting')).toHaveLength(2);
 	});
 
 	it('two runs that cross collide and name each other', () => {
 		// Run 2 rises at x 180 through run 1's second segment (y 300, z 75), then goes round.
-		const input = loopScene(({ loop }) => {
+		const input = pumpLoopScene(({ loop }) => {
 			loop.runs[1].waypoints = [
 				[180, 50, 75],
 				[180, 300, 75],
@@ -383,13 +312,13 @@ describe('runs checked like bodies', () => {
 	});
 
 	it('a dragged waypoint re-checks only its run', () => {
-		const scene = parse(loopScene());
+		const scene = parse(pumpLoopScene());
 		const resolved = resolveScene(scene);
 		const cache: RunCache = new Map();
 		checkLoops(scene, resolved, cache);
 		const before = { r1: cache.get('r1'), r2: cache.get('r2') };
 		const moved = parse(
-			loopScene(({ loop }) => {
+			pumpLoopScene(({ loop }) => {
 				loop.runs[1].waypoints = [
 					[340.5, 50, 75],
 					[340.5, 170, 75]
@@ -484,12 +413,12 @@ describe('bad input, with the path', () => {
 	];
 	for (const [what, edit, path, message] of cases) {
 		it(`refuses ${what}`, () => {
-			expect(issuesOf(loopScene(edit))).toContainEqual({ path, message });
+			expect(issuesOf(pumpLoopScene(edit))).toContainEqual({ path, message });
 		});
 	}
 
 	it('refuses more segments than the engine checks', () => {
-		const input = loopScene(({ loop }) => {
+		const input = pumpLoopScene(({ loop }) => {
 			loop.runs[1].waypoints = Array.from({ length: 200 }, () => [350, 50, 75] as Vec3);
 			for (let i = 0; i < 5; i++) loop.runs.push({ ...loop.runs[1], id: `extra-${i}` });
 		});
@@ -674,7 +603,7 @@ describe('properties', () => {
 			.map(([x, y, z, s]) => ({ min: [x, y, z] as Vec3, max: [x + s, y + s, z + s] as Vec3 }));
 		fc.assert(
 			fc.property(fc.array(obstacle, { minLength: 1, maxLength: 8 }), (boxes) => {
-				const input = loopScene(({ input }) => {
+				const input = pumpLoopScene(({ input }) => {
 					boxes.forEach((b, i) => {
 						input.parts!.push(
 							blockPart(`ob${i}`, [b.max[0] - b.min[0], b.max[1] - b.min[1], b.max[2] - b.min[2]])

@@ -1,7 +1,14 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { Box3, Vector3 } from 'three';
-import { centreLineLengthMm, findRoute, routeBoxes, routeMany, type RouteInput } from './route';
+import {
+	centreLineLengthMm,
+	findRoute,
+	routeBoxes,
+	routeMany,
+	type RouteInput,
+	type RouteObstacle
+} from './route';
 import type { Face } from './box';
 import type { Box, Vec3 } from './schema';
 
@@ -19,7 +26,7 @@ const UNIT: Record<Face, Vec3> = {
  * Independent oracle: Dijkstra over every integer point of the bounds (a 1-unit grid, finer than
  * or equal to the engine's candidate planes when all inputs are integers), written here from the
  * problem's rules and not from the engine's code. The tube occupies its straight pieces grown by
- * the half-width across their axis and the bounding box of each bend; a bend needs r of straight
+ * the half-width across their axis and each bend's tangent points and corner grown by the half-width; a bend needs r of straight
  * leg on both sides (so 2r between two bends, r after the start and before the end); the route
  * leaves the start along its port and arrives against the end's port. Cost = polyline length +
  * penalty × bends. Answers Infinity when nothing connects.
@@ -56,15 +63,16 @@ function bruteForce(input: RouteInput): number {
 		}
 		return free(min, max);
 	};
-	/** A 90° bend at p from unit u to unit v: the bent tube's bounding box. */
+	/** A 90° bend at p from unit u to unit v: the box of its tangent points and corner, grown. */
 	const bend = (p: Vec3, u: Vec3, v: Vec3) => {
 		const min = [p[0] - half, p[1] - half, p[2] - half];
 		const max = [p[0] + half, p[1] + half, p[2] + half];
 		for (let a = 0; a < 3; a++) {
-			if (u[a] > 0) min[a] = p[a] - r;
-			if (u[a] < 0) max[a] = p[a] + r;
-			if (v[a] > 0) max[a] = p[a] + r;
-			if (v[a] < 0) min[a] = p[a] - r;
+			// The tangent points grown by the half-width every way (the loop checker's bend box).
+			if (u[a] > 0) min[a] = p[a] - r - half;
+			if (u[a] < 0) max[a] = p[a] + r + half;
+			if (v[a] > 0) max[a] = p[a] + r + half;
+			if (v[a] < 0) min[a] = p[a] - r - half;
 		}
 		return free(min, max);
 	};
@@ -262,7 +270,13 @@ describe('findRoute', { timeout: 180_000 }, () => {
 			mode: 'hard'
 		});
 		expect(res.ok).toBe(false);
-		if (!res.ok) expect(res.reason).toMatch(/not for its 40\.0 mm bends/);
+		if (res.ok) return;
+		// The start's own room decides it, before any search: 10 + 40 (the straight leg before a
+		// bend of radius 40) > 30 − 2 − 5 = 23 mm of room above it.
+		expect(res.cause).toBe('disconnected');
+		expect(res.reason).toMatch(
+			/the start has no room to turn.* 40\.0 mm radius.*panels are in the way/
+		);
 	});
 
 	it('finds the same optimum as a brute-force Dijkstra over the unit grid (random small scenes)', () => {
@@ -395,6 +409,139 @@ describe('findRoute', { timeout: 180_000 }, () => {
 				}
 			}),
 			{ numRuns: 150, seed: 4242 }
+		);
+	});
+
+	it('tells "no route exists" from "the search gave up" when the step cap stops it (brute-force flood fill)', () => {
+		fc.assert(
+			fc.property(sceneArb, (input) => {
+				// The relaxed question the engine proves: can the tube's square cross-section (2 units
+				// wide) slide from the start to the end one unit at a step, each step's swept box clear
+				// by the clearance and inside the bounds? Written here over every integer point.
+				const half = 1;
+				const c = input.clearanceMm;
+				const obstacles = input.obstacles.map((o) => ('box' in o ? o.box : o));
+				const sweepFree = (p: Vec3, q: Vec3) => {
+					const min = [0, 1, 2].map((a) => (p[a] === q[a] ? p[a] - half : Math.min(p[a], q[a])));
+					const max = [0, 1, 2].map((a) => (p[a] === q[a] ? p[a] + half : Math.max(p[a], q[a])));
+					return (
+						[0, 1, 2].every(
+							(a) => min[a] >= input.bounds.min[a] + c && max[a] <= input.bounds.max[a] - c
+						) &&
+						obstacles.every((o) =>
+							[0, 1, 2].some((a) => max[a] <= o.min[a] - c || min[a] >= o.max[a] + c)
+						)
+					);
+				};
+				const S = input.start.point;
+				const E = input.end.point;
+				const seen = new Set([S.join()]);
+				const queue: Vec3[] = [S];
+				let connected = false;
+				while (queue.length && !connected) {
+					const p = queue.pop()!;
+					if (p.join() === E.join()) connected = true;
+					for (const u of Object.values(UNIT)) {
+						const q: Vec3 = [p[0] + u[0], p[1] + u[1], p[2] + u[2]];
+						if (!seen.has(q.join()) && sweepFree(p, q)) {
+							seen.add(q.join());
+							queue.push(q);
+						}
+					}
+				}
+				// Five steps: far too few for most scenes, so the cap decides the answer's path.
+				const res = findRoute({ ...input, maxExpansions: 5, maxAlternatives: 1 });
+				if (!connected) {
+					expect(res.ok).toBe(false);
+					if (!res.ok) expect(res.cause).toBe('disconnected');
+				}
+				if (!res.ok && res.cause === 'capped') {
+					expect(connected).toBe(true);
+					expect(res.furthest).toBeDefined();
+					expect(res.reason).toMatch(/^The search stopped after 5 steps .* got to \(/);
+				}
+			}),
+			{ numRuns: 200, seed: 2024 }
+		);
+	});
+
+	it('names what walls the ports off when the cap stops the search (worked example)', () => {
+		// The start sits inside a closed shell of six 2 mm plates (an inner room 30 mm on a side);
+		// the end is outside it. With a cap of 20 steps the search cannot exhaust the shell's inside,
+		// so only the flood fill can say that no route exists.
+		const plates: RouteObstacle[] = [
+			{ id: 'left', label: 'Left plate', box: { min: [18, 18, 18], max: [20, 52, 52] } },
+			{ id: 'right', label: 'Right plate', box: { min: [50, 18, 18], max: [52, 52, 52] } },
+			{ id: 'floor', label: 'Floor plate', box: { min: [18, 18, 18], max: [52, 20, 52] } },
+			{ id: 'roof', label: 'Roof plate', box: { min: [18, 50, 18], max: [52, 52, 52] } },
+			{ id: 'back', label: 'Back plate', box: { min: [18, 18, 18], max: [52, 52, 20] } },
+			{ id: 'front', label: 'Front plate', box: { min: [18, 18, 50], max: [52, 52, 52] } }
+		];
+		const input: RouteInput = {
+			start: { point: [30, 30, 35], direction: '+x' },
+			end: { point: [80, 80, 80], direction: '-y' },
+			bounds: { min: [0, 0, 0], max: [100, 100, 100] },
+			obstacles: plates,
+			section: { kind: 'round', outerDiameterMm: 4 },
+			clearanceMm: 1,
+			bendRadiusMm: 4,
+			bendPenaltyMm: 10,
+			mode: 'soft',
+			maxExpansions: 20
+		};
+		const res = findRoute(input);
+		expect(res.ok).toBe(false);
+		if (res.ok) return;
+		expect(res.cause).toBe('disconnected');
+		expect(res.reason).toMatch(/^No route exists: the start and the end are not connected/);
+		// Every plate bounds the region the start can reach; all six are named.
+		expect([...(res.blockedBy ?? [])].sort()).toEqual(
+			plates.map((p) => `${p.label} (${p.id})`).sort()
+		);
+		// Open the right plate with a 10 mm window: now a route exists, so the same cap only gives up.
+		const open: RouteObstacle[] = [
+			...plates.filter((p) => p.id !== 'right'),
+			{ id: 'right-a', label: 'Right plate', box: { min: [50, 18, 18], max: [52, 30, 52] } },
+			{ id: 'right-b', label: 'Right plate', box: { min: [50, 40, 18], max: [52, 52, 52] } },
+			{ id: 'right-c', label: 'Right plate', box: { min: [50, 30, 18], max: [52, 40, 30] } },
+			{ id: 'right-d', label: 'Right plate', box: { min: [50, 30, 40], max: [52, 40, 52] } }
+		];
+		const gaveUp = findRoute({ ...input, obstacles: open });
+		expect(gaveUp.ok).toBe(false);
+		if (gaveUp.ok) return;
+		expect(gaveUp.cause).toBe('capped');
+		// The furthest point is named in mm, with what stops the search there.
+		const [x, y, z] = gaveUp.furthest!;
+		expect(gaveUp.reason).toContain(
+			`got to (${Math.round(x)}, ${Math.round(y)}, ${Math.round(z)}) mm`
+		);
+		expect(gaveUp.reason).toMatch(/short of the end, where .*Right plate \(right-/);
+		expect(gaveUp.reason).toMatch(/tightest spot is \d+\.\d mm from /);
+		// And with no cap it finds the route through the window.
+		const routed = findRoute({ ...input, obstacles: open, maxExpansions: undefined });
+		expect(routed.ok).toBe(true);
+	});
+
+	it('proves at once that a port with no room for its first bend has no route, naming what is in the way', () => {
+		// The end port faces up under a shelf 20 mm above it: the 10 mm bundle needs 15 mm straight
+		// into the port and a 15 mm bend above that (15 + 5 + 2 = 22 mm > 20), so no corner fits.
+		const res = findRoute({
+			start: { point: [20, 20, 50], direction: '+y' },
+			end: { point: [150, 20, 50], direction: '+y' },
+			bounds: { min: [0, 0, 0], max: [200, 200, 100] },
+			obstacles: [{ id: 'shelf', label: 'Shelf', box: { min: [120, 40, 0], max: [200, 45, 100] } }],
+			section: { kind: 'flat', widthMm: 10, thicknessMm: 5 },
+			clearanceMm: 2,
+			bendRadiusMm: 15,
+			bendPenaltyMm: 100,
+			mode: 'soft'
+		});
+		expect(res.ok).toBe(false);
+		if (res.ok) return;
+		expect(res.cause).toBe('disconnected');
+		expect(res.blockedBy).toEqual(['Shelf (shelf)']);
+		expect(res.reason).toMatch(
+			/^No route exists: the end has no room to turn\..* Shelf \(shelf\) is in the way/
 		);
 	});
 

@@ -21,8 +21,9 @@
  *
  * What the tube occupies (the same boxes `routeBoxes` gives, so what the search calls clear is
  * what the checker sees): each straight piece is its segment grown by the half-width across its
- * axis; each bend is the exact bounding box of the bent tube, the square between the bend's two
- * tangent points grown by the half-width on its outer sides and across the bend's plane.
+ * axis; each bend is the square between the bend's two
+ * tangent points grown by the half-width on every side (the loop checker's bend box: the exact
+ * box of the bent tube plus half the width along each leg at its tangent end).
  *
  * Soft tube uses the same search with its own (smaller) bend radius: the waypoints are the corners
  * of a rectilinear path that the soft tube follows with bends no tighter than that radius, so the
@@ -39,6 +40,8 @@ export interface RouteEnd {
 	point: Vec3;
 	/** The port's direction: the route leaves the start along it and arrives against the end's. */
 	direction: Face;
+	/** The port's name in the scene ("SFX supply · pcie"), for the no-route words. */
+	label?: string;
 }
 
 export type RouteSection =
@@ -89,7 +92,20 @@ export interface Route {
 
 export type RouteResult =
 	| { ok: true; routes: Route[] }
-	| { ok: false; reason: string; narrowestGapMm?: number; blockedBy?: string[] };
+	| {
+			ok: false;
+			reason: string;
+			narrowestGapMm?: number;
+			blockedBy?: string[];
+			/**
+			 * `disconnected`: proven that no route exists (a flood fill or the ports' own room);
+			 * `capped`: the search gave up at its step cap, so a route may still exist; `narrow`: the
+			 * search ran out of moves (no route on the grid) for the reasons the words give.
+			 */
+			cause?: 'disconnected' | 'capped' | 'narrow' | 'input';
+			/** When capped: the furthest point the best partial route reached. */
+			furthest?: Vec3;
+	  };
 
 /** Expansions a search may make unless the caller says otherwise. */
 export const DEFAULT_MAX_EXPANSIONS = 150_000;
@@ -129,7 +145,10 @@ function directionOf(a: Vec3, b: Vec3): number {
 	return axis * 2 + (b[axis] > a[axis] ? 1 : 0);
 }
 
-/** The exact bounding box of a 90° bend at corner p, arriving along d1 and leaving along d2. */
+/**
+ * The box a 90° bend at corner p takes, arriving along d1 and leaving along d2: the bent tube's
+ * exact bounding box, with `half` more along each leg at its tangent end (see below).
+ */
 function bendBox(
 	p: Vec3,
 	d1: number,
@@ -146,17 +165,19 @@ function bendBox(
 	}
 	const a1 = AXIS_OF[d1];
 	const a2 = AXIS_OF[d2];
-	// Along d1 the tube starts bending r before the corner and bulges half beyond it.
+	// Along d1 the tube starts bending r before the corner and bulges half beyond it. Along d2 it
+	// reaches r past the corner and bulges half behind it. Both tangent ends also take `half` more
+	// along their legs: the loop checker's bend box (its tangent points and corner grown by the
+	// tube's radius every way, loop.ts runPieces), so a route the search calls clear is clear there.
 	if (SIGN_OF[d1] > 0) {
-		min[a1] = p[a1] - r;
+		min[a1] = p[a1] - r - half;
 	} else {
-		max[a1] = p[a1] + r;
+		max[a1] = p[a1] + r + half;
 	}
-	// Along d2 it reaches r past the corner and bulges half behind it.
 	if (SIGN_OF[d2] > 0) {
-		max[a2] = p[a2] + r;
+		max[a2] = p[a2] + r + half;
 	} else {
-		min[a2] = p[a2] - r;
+		min[a2] = p[a2] - r - half;
 	}
 	return out;
 }
@@ -189,7 +210,7 @@ function pieceBox(
 
 /**
  * The boxes a routed tube or bundle occupies: each straight piece between its bends' tangent
- * points grown by the half-width across its axis, and each bend's exact bounding box. `points` is
+ * points grown by the half-width across its axis, and each bend's box (bendBox). `points` is
  * the full centre-line [start, ...waypoints, end].
  */
 export function routeBoxes(
@@ -580,6 +601,8 @@ type SearchAnswer =
 			/** Obstacles that stopped the moves of the state that came closest to the end. */
 			blockers: number[];
 			startBlockedBy: number;
+			/** The centre-line from the start to the state that came closest to the end (corners). */
+			partial: Vec3[];
 	  };
 
 function normalise(o: Box | RouteObstacle, i: number): RouteObstacle {
@@ -775,8 +798,29 @@ function search(input: RouteInput, prep: Prepared, opt: SearchOptions): SearchAn
 		return dist >= -1e-9 ? dist : -1;
 	};
 
-	// Leaving the start: straight along the port for at least r before any bend.
+	// Walk back from a state: the states' nodes, then keep the corners where the direction changes.
 	const START = -1;
+	const nodeOf = (s: number) => (s - (s % 6)) / 6;
+	let chain: number[] = [];
+	function cornersTo(last: number): Vec3[] {
+		chain = [];
+		for (let s = last; s !== START && s !== undefined; s = parent.get(s)!) chain.push(s);
+		chain.reverse();
+		const out: Vec3[] = [S];
+		for (let i = 1; i < chain.length; i++) {
+			if (chain[i] % 6 !== chain[i - 1] % 6) out.push(point(nodeOf(chain[i - 1])));
+		}
+		return out;
+	}
+	/** The corners from the start to a state, and the state's own point: a partial route. */
+	function partialTo(state: number): Vec3[] {
+		if (state < 0) return [[...S] as Vec3];
+		const out = cornersTo(state);
+		out.push(point(nodeOf(state)));
+		return out;
+	}
+
+	// Leaving the start: straight along the port for at least r before any bend.
 	let startBlockedBy = -1;
 	{
 		const a = AXIS_OF[sd];
@@ -812,8 +856,9 @@ function search(input: RouteInput, prep: Prepared, opt: SearchOptions): SearchAn
 				found: false,
 				expansions,
 				exhausted: false,
-				blockers: [],
-				startBlockedBy
+				blockers: [...bestBlockers],
+				startBlockedBy,
+				partial: partialTo(best.state)
 			};
 		}
 		const d = state % 6;
@@ -887,24 +932,163 @@ function search(input: RouteInput, prep: Prepared, opt: SearchOptions): SearchAn
 			expansions,
 			exhausted: true,
 			blockers: [...bestBlockers],
-			startBlockedBy
+			startBlockedBy,
+			partial: partialTo(best.state)
 		};
 	}
 
-	// Walk back: the states' nodes, then keep the corners where the direction changes.
-	const chain: number[] = [];
-	for (let s = goalParent; s !== START; s = parent.get(s)!) chain.push(s);
-	chain.reverse();
-	const nodeOf = (s: number) => (s - (s % 6)) / 6;
-	const points: Vec3[] = [S];
-	for (let i = 1; i < chain.length; i++) {
-		if (chain[i] % 6 !== chain[i - 1] % 6) points.push(point(nodeOf(chain[i - 1])));
-	}
+	const points = cornersTo(goalParent);
 	if (chain.length > 0 && chain[chain.length - 1] % 6 !== ed) {
 		points.push(point(nodeOf(chain[chain.length - 1])));
 	}
 	points.push(E);
 	return { found: true, points, bends: points.length - 2, cost: goalG, expansions };
+}
+
+/**
+ * Proof that no route can leave the start (which = 'start') or reach the end ('end'), from the
+ * port's own room alone. Every route the search can find runs straight out of the start along its
+ * port for at least max(r, 1e-3) to its first corner (and into the end for at least r from its
+ * last corner), that straight piece clear, and the corner's bend box clear into some
+ * perpendicular direction. So when no grid plane on that ray offers both, there is no route on
+ * the grid: a check of O(planes on one axis) that spares a search which could only end at its
+ * step cap. Returns null when some corner could serve (or a straight run from port to port might),
+ * else what is in the way (obstacle indexes; `bounds` when the ray meets the room's edge first).
+ */
+function approachBlocked(
+	input: RouteInput,
+	prep: Prepared,
+	which: 'start' | 'end'
+): { blockers: number[]; bounds: boolean } | null {
+	const { coords, index, half, r } = prep;
+	const S = input.start.point;
+	const E = input.end.point;
+	const sd = dirIndex(input.start.direction);
+	const ed = dirIndex(input.end.direction) ^ 1;
+	// A straight run from port to port needs no corner at all: nothing to prove here.
+	if (sd === ed) {
+		const a = AXIS_OF[sd];
+		const inLine = [0, 1, 2].every((i) => i === a || Math.abs(S[i] - E[i]) <= 1e-6);
+		if (inLine && (E[a] - S[a]) * SIGN_OF[sd] > 1e-6) return null;
+	}
+	const p0 = which === 'start' ? S : E;
+	// The ray is walked away from the port: along the start's direction, back from the end.
+	const ray = which === 'start' ? sd : ed ^ 1;
+	const a = AXIS_OF[ray];
+	const c = coords[a];
+	const i0 = findCoord(c, p0[a]);
+	if (i0 < 0) return null;
+	const minLeg = which === 'start' ? Math.max(r, 1e-3) - 1e-6 : Math.max(r - 1e-6, 1e-6);
+	const blockers = new Set<number>();
+	const C: Vec3 = [p0[0], p0[1], p0[2]];
+	const qb: Box = { min: [0, 0, 0], max: [0, 0, 0] };
+	for (let i = i0 + SIGN_OF[ray]; i >= 0 && i < c.length; i += SIGN_OF[ray]) {
+		C[a] = c[i];
+		const piece =
+			which === 'start' ? pieceBox(S, C, half, 0, half, qb) : pieceBox(C, E, half, half, 0, qb);
+		const o = index.first(piece);
+		if (o !== -1) {
+			blockers.add(o);
+			return { blockers: [...blockers], bounds: false };
+		}
+		if (Math.abs(C[a] - p0[a]) < minLeg) continue;
+		for (let d = 0; d < 6; d++) {
+			if (AXIS_OF[d] === a) continue;
+			const bend =
+				which === 'start' ? bendBox(C, sd, d, r, half, qb) : bendBox(C, d, ed, r, half, qb);
+			const ob = index.first(bend);
+			if (ob === -1) return null;
+			blockers.add(ob);
+		}
+	}
+	return { blockers: [...blockers], bounds: true };
+}
+
+/**
+ * Proof that the start and the end are not connected at all, for the section's width with bends
+ * of no radius (a relaxation: every route with bends is also such a path). Breadth-first over the
+ * zero-radius escape-line grid (the inflated obstacles' faces, the ports and the room's edges),
+ * one plane to the next, each step's piece clear. On that grid a cell between neighbouring planes
+ * is wholly free or wholly blocked, so the grid's nodes are connected exactly when the free space
+ * is: "no route exists", not "the search gave up". `blockers`: what stops the reached region,
+ * nearest the end first.
+ */
+function floodConnected(
+	input: RouteInput,
+	half: number
+): { connected: boolean; blockers: number[] } {
+	const prep = prepare(input, half, 0);
+	const { coords, index } = prep;
+	const [xs, ys, zs] = coords;
+	const nx = xs.length;
+	const ny = ys.length;
+	const nz = zs.length;
+	const S = input.start.point;
+	const E = input.end.point;
+	const s = findCoord(xs, S[0]) + nx * (findCoord(ys, S[1]) + ny * findCoord(zs, S[2]));
+	const e = findCoord(xs, E[0]) + nx * (findCoord(ys, E[1]) + ny * findCoord(zs, E[2]));
+	const seen = new Uint8Array(nx * ny * nz);
+	const queue = new Int32Array(nx * ny * nz);
+	const blockers = new Map<number, number>();
+	const P: Vec3 = [0, 0, 0];
+	const Q: Vec3 = [0, 0, 0];
+	const qb: Box = { min: [0, 0, 0], max: [0, 0, 0] };
+	const stride = [1, nx, nx * ny];
+	const size = [nx, ny, nz];
+	let head = 0;
+	let tail = 0;
+	queue[tail++] = s;
+	seen[s] = 1;
+	while (head < tail) {
+		const n = queue[head++];
+		if (n === e) return { connected: true, blockers: [] };
+		const ijk = [n % nx, Math.floor(n / nx) % ny, Math.floor(n / (nx * ny))];
+		P[0] = xs[ijk[0]];
+		P[1] = ys[ijk[1]];
+		P[2] = zs[ijk[2]];
+		for (let d = 0; d < 6; d++) {
+			const a = AXIS_OF[d];
+			const j = ijk[a] + SIGN_OF[d];
+			if (j < 0 || j >= size[a]) continue;
+			const m = n + SIGN_OF[d] * stride[a];
+			if (seen[m]) continue;
+			Q[0] = P[0];
+			Q[1] = P[1];
+			Q[2] = P[2];
+			Q[a] = coords[a][j];
+			const o = index.first(pieceBox(P, Q, half, 0, 0, qb));
+			if (o !== -1) {
+				if (!blockers.has(o)) blockers.set(o, boxDistance(prep.obstacles[o].box, E));
+				continue;
+			}
+			seen[m] = 1;
+			queue[tail++] = m;
+		}
+	}
+	return {
+		connected: false,
+		blockers: [...blockers.entries()].sort((x, y) => x[1] - y[1]).map(([o]) => o)
+	};
+}
+
+/** Distance from a point to a box (0 inside). */
+function boxDistance(b: Box, p: Vec3): number {
+	let s = 0;
+	for (let a = 0; a < 3; a++) {
+		const d = Math.max(b.min[a] - p[a], 0, p[a] - b.max[a]);
+		s += d * d;
+	}
+	return Math.sqrt(s);
+}
+
+/** Distance between two boxes (0 when they touch or overlap). */
+function boxGap(a: Box, b: Box): number {
+	let s = 0;
+	for (let k = 0; k < 3; k++) {
+		const d = Math.max(a.min[k] - b.max[k], 0, b.min[k] - a.max[k]);
+		s += d * d;
+	}
+	return Math.sqrt(s);
 }
 
 function routeFrom(points: Vec3[], bends: number, cost: number, r: number): Route {
@@ -967,9 +1151,13 @@ function penaltiesToTry(B: number, count: number): number[] {
 export function findRoute(input: RouteInput): RouteResult {
 	const half = sectionHalfWidthMm(input.section);
 	const bad = validate(input, half);
-	if (bad) return { ok: false, reason: bad };
+	if (bad) return { ok: false, reason: bad, cause: 'input' };
 	const r = input.bendRadiusMm;
 	const prep = prepare(input, half, r);
+	for (const which of ['start', 'end'] as const) {
+		const shut = approachBlocked(input, prep, which);
+		if (shut) return noRoomToTurn(input, prep, which, shut);
+	}
 	const maxExpansions = input.maxExpansions ?? DEFAULT_MAX_EXPANSIONS;
 	const budget = { left: maxExpansions };
 	const found: Route[] = [];
@@ -1000,6 +1188,93 @@ export function findRoute(input: RouteInput): RouteResult {
 	return explain(input, prep, first!, maxExpansions, budget);
 }
 
+function endName(input: RouteInput, which: 'start' | 'end'): string {
+	const label = input[which].label;
+	return label ? `The ${which} (${label})` : `The ${which}`;
+}
+
+/** Words for a port with no room for its first (or last) straight leg and bend. */
+function noRoomToTurn(
+	input: RouteInput,
+	prep: Prepared,
+	which: 'start' | 'end',
+	shut: { blockers: number[]; bounds: boolean }
+): RouteResult {
+	const blockedBy = names(prep, shut.blockers);
+	const what = [...blockedBy, ...(shut.bounds ? ["the enclosure's panels"] : [])];
+	const r = prep.r;
+	const leg = which === 'start' ? 'out of its port' : 'into its port';
+	return {
+		ok: false,
+		cause: 'disconnected',
+		reason: `No route exists: ${endName(input, which).replace(/^The/, 'the')} has no room to turn. The ${fmt(2 * prep.half)} section runs at least ${fmt(Math.max(r, 0))} straight ${leg} and then bends with a ${fmt(r)} radius, keeping ${fmt(input.clearanceMm)} of clearance, and ${what.length ? what.join(', ') : 'something'} ${what.length > 1 || (shut.bounds && !blockedBy.length) ? 'are' : 'is'} in the way. Move the part or the port, use an angled plug or fitting, or a tighter-bending section.`,
+		blockedBy
+	};
+}
+
+/**
+ * Words for a search that stopped at its step cap. First a flood fill tells "no route exists"
+ * from "the search gave up"; when it gave up, the words say how far its best partial route got
+ * (the furthest point, what stopped it there) and the tightest spot on the way.
+ */
+function capped(
+	input: RouteInput,
+	prep: Prepared,
+	answer: Extract<SearchAnswer, { found: false }>,
+	maxExpansions: number
+): RouteResult {
+	const flood = floodConnected(input, prep.half);
+	if (!flood.connected) {
+		const blockedBy = names(prep, flood.blockers.slice(0, 6));
+		return {
+			ok: false,
+			cause: 'disconnected',
+			reason: `No route exists: the start and the end are not connected for the ${fmt(2 * prep.half)} section with its ${fmt(input.clearanceMm)} clearance, not even without bends${blockedBy.length ? ` (closed off by ${blockedBy.join(', ')})` : ''}.`,
+			narrowestGapMm: 0,
+			blockedBy
+		};
+	}
+	const path = answer.partial;
+	const far = path[path.length - 1];
+	const E = input.end.point;
+	const left = Math.abs(E[0] - far[0]) + Math.abs(E[1] - far[1]) + Math.abs(E[2] - far[2]);
+	// What stopped the furthest state's moves; else the obstacle nearest that point.
+	let stoppers = answer.blockers;
+	if (!stoppers.length && prep.obstacles.length) {
+		let nearest = 0;
+		prep.obstacles.forEach((o, i) => {
+			if (boxDistance(o.box, far) < boxDistance(prep.obstacles[nearest].box, far)) nearest = i;
+		});
+		stoppers = [nearest];
+	}
+	const stoppedBy = names(prep, stoppers.slice(0, 3));
+	// The tightest spot on the partial route: the least room between its tube and an obstacle.
+	let tight = -1;
+	let tightGap = Infinity;
+	if (path.length > 1) {
+		for (const b of routeBoxes(path, input.section, prep.r)) {
+			prep.obstacles.forEach((o, i) => {
+				const g = boxGap(b, o.box);
+				if (g < tightGap) {
+					tightGap = g;
+					tight = i;
+				}
+			});
+		}
+	}
+	const at = `(${far.map((v) => Math.round(v)).join(', ')}) mm`;
+	const tightWords =
+		tight >= 0 ? ` Its tightest spot is ${fmt(tightGap)} from ${names(prep, [tight])[0]}.` : '';
+	return {
+		ok: false,
+		cause: 'capped',
+		reason: `The search stopped after ${maxExpansions.toLocaleString('en-US')} steps without reaching the end. Its best partial route got to ${at}, ${fmt(left)} short of the end${stoppedBy.length ? `, where ${stoppedBy.join(', ')} ${stoppedBy.length > 1 ? 'stop' : 'stops'} it` : ''}.${tightWords} A way through exists for the section without its bends, so a route may exist: add a waypoint past that point or route a shorter run.`,
+		narrowestGapMm: Number.isFinite(tightGap) ? Math.round(tightGap * 10) / 10 : undefined,
+		blockedBy: stoppedBy,
+		furthest: [...far] as Vec3
+	};
+}
+
 /** Words for a failed search (see findRoute). */
 function explain(
 	input: RouteInput,
@@ -1009,10 +1284,7 @@ function explain(
 	budget: { left: number }
 ): RouteResult {
 	if (answer.found) throw new Error('unreachable');
-	const stopped = (): RouteResult => ({
-		ok: false,
-		reason: `The search stopped after ${maxExpansions.toLocaleString('en-US')} steps without reaching the end; the scene is too crowded to search in one go. Add a waypoint or route a shorter run.`
-	});
+	const stopped = (): RouteResult => capped(input, prep, answer, maxExpansions);
 	if (!answer.exhausted) return stopped();
 	const { half, r } = prep;
 	const need = 2 * (half + input.clearanceMm);
@@ -1031,6 +1303,7 @@ function explain(
 			const blockedBy = names(prep, blockers);
 			return {
 				ok: false,
+				cause: 'narrow',
 				reason: `There is room for the ${fmt(2 * half)} section but not for its ${fmt(r)} bends${blockedBy.length ? `, at ${blockedBy.join(', ')}` : ''}. A 90° fitting in place of a bend, a soft tube or a tighter-bending bundle may fit.`,
 				blockedBy
 			};
@@ -1052,6 +1325,7 @@ function explain(
 		const blockedBy = names(prep, ids.size ? ids : answer.blockers);
 		return {
 			ok: false,
+			cause: 'disconnected',
 			reason: `The start and the end are not connected: no opening at all leads from one to the other${blockedBy.length ? ` (closed off by ${blockedBy.join(', ')})` : ''}.`,
 			narrowestGapMm: 0,
 			blockedBy
@@ -1084,6 +1358,7 @@ function explain(
 	const gap = 2 * lo + 2 * input.clearanceMm;
 	return {
 		ok: false,
+		cause: 'narrow',
 		reason: `The narrowest gap on the best route is about ${fmt(gap)}${blockedBy.length ? `, at ${blockedBy.join(', ')}` : ''}; the ${fmt(2 * half)} section needs ${fmt(need)} with its clearance.`,
 		narrowestGapMm: Math.round(gap * 10) / 10,
 		blockedBy

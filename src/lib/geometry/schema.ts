@@ -608,9 +608,39 @@ function refineScene(scene: SceneShape, ctx: RefineCtx) {
 	checkCablePorts(scene, parts, ctx);
 }
 
-/** Every cable joins two power ports of placed parts. */
+/**
+ * Every cable joins two different power ports of placed parts, and a socket takes one plug: a port
+ * is the end of one cable only. Ids are unique.
+ */
 function checkCablePorts(scene: SceneShape, parts: Map<string, PartDef>, ctx: RefineCtx) {
 	const placements = new Map(scene.placements.map((p) => [p.id, p]));
+	const ids = new Set<string>();
+	const used = new Map<string, number>();
+	(scene.cables ?? []).forEach((c, i) => {
+		if (ids.has(c.id)) {
+			ctx.addIssue({ code: 'custom', path: ['cables', i, 'id'], message: 'Duplicate id' });
+		}
+		ids.add(c.id);
+		if (c.from.placementId === c.to.placementId && c.from.portId === c.to.portId) {
+			ctx.addIssue({
+				code: 'custom',
+				path: ['cables', i, 'to', 'portId'],
+				message: 'A cable joins two different ports; this is the port it starts at'
+			});
+		}
+		for (const key of ['from', 'to'] as const) {
+			const k = `${c[key].placementId}/${c[key].portId}`;
+			const other = used.get(k);
+			if (other !== undefined && other !== i) {
+				ctx.addIssue({
+					code: 'custom',
+					path: ['cables', i, key, 'portId'],
+					message: `This port already takes cable ${other + 1}`
+				});
+			}
+			used.set(k, i);
+		}
+	});
 	(scene.cables ?? []).forEach((c, i) => {
 		for (const key of ['from', 'to'] as const) {
 			const ref = c[key];

@@ -359,11 +359,13 @@ export function demoParts(): PartDef[] {
 					label: 'power cable bend',
 					kind: 'cable',
 					severity: 'error',
-					box: box([185, 80, 0], [215, 120, 2 * SLOT_PITCH_MM])
+					box: box([185, 15, 0], [215, 55, 2 * SLOT_PITCH_MM])
 				}
 			],
-			// At its end, into the "power cable bend" room.
-			ports: [power('power', [185, 100, SLOT_PITCH_MM], '+x', 20)],
+			// At its end, 33 mm above its slot edge, into the "power cable bend" room: low enough that
+			// the plug (20 mm), the bundle's 15 mm bend and its clearance pass under the
+			// pump-reservoir, which sits 32 mm past the card's end higher up.
+			ports: [power('power', [185, 33, SLOT_PITCH_MM], '+x', 20)],
 			specs: { heatW: 160, powerDrawW: 170, cardLengthMm: 185, cardSlots: 2 },
 			provenance: 'estimate',
 			toleranceMm: 1

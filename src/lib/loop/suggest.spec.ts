@@ -3,83 +3,22 @@ import { checkLoops } from '$lib/geometry/loop';
 import { defaultFittings, defaultTubeKinds } from '$lib/geometry/loop-library';
 import { routeMany } from '$lib/geometry/route';
 import { resolveScene } from '$lib/geometry/resolve';
-import {
-	formatZodIssues,
-	sceneSchema,
-	type LoopDef,
-	type PartDef,
-	type SceneInput
-} from '$lib/geometry/schema';
+import { formatZodIssues, sceneSchema, type SceneInput } from '$lib/geometry/schema';
 import { checkScene } from '$lib/geometry/check';
 import { variantSettingsSchema } from '$lib/builds/settings';
-import { blockPart, plainEnclosure } from '$lib/server/testing/engine-factories';
-import { acceptRoute, bendPenaltyOf, routeRequest, setBendPenalty } from './suggest';
+import { pumpLoopScene } from '$lib/server/testing/engine-factories';
+import { addRun } from './edit';
+import {
+	acceptRoute,
+	bendPenaltyOf,
+	DRAFT_RUN_ID,
+	draftRouteRequest,
+	routeRequest,
+	setBendPenalty
+} from './suggest';
 
-/**
- * A 400 mm cube inside with a pump and a reservoir joined by two 16 mm hard runs; a block
- * (x 120–160, y 260–380, z 20–140) sits across the first run's top segment (y 300, z 75).
- */
-function scene(): SceneInput {
-	const pump: PartDef = {
-		...blockPart('pump', [60, 60, 60]),
-		name: 'Pump',
-		category: 'pump',
-		ports: [
-			{ id: 'in', position: [15, 60, 30], direction: '+y', thread: 'G 1/4' },
-			{ id: 'out', position: [60, 30, 30], direction: '+x', thread: 'G 1/4' }
-		]
-	};
-	const res: PartDef = {
-		...blockPart('res', [80, 100, 70]),
-		name: 'Reservoir',
-		category: 'reservoir',
-		ports: [
-			{ id: 'out', position: [20, 100, 35], direction: '+y', thread: 'G 1/4' },
-			{ id: 'in', position: [80, 70, 35], direction: '+x', thread: 'G 1/4' }
-		]
-	};
-	const loop: LoopDef = {
-		id: 'main',
-		runs: [
-			{
-				id: 'r1',
-				from: { placementId: 'res-1', portId: 'out' },
-				to: { placementId: 'pump-1', portId: 'in' },
-				tube: 'hard-16',
-				fittings: { from: 'fit-straight-16', to: 'fit-straight-16' },
-				waypoints: [
-					[220, 300, 75],
-					[65, 300, 75]
-				]
-			},
-			{
-				id: 'r2',
-				from: { placementId: 'pump-1', portId: 'out' },
-				to: { placementId: 'res-1', portId: 'in' },
-				tube: 'hard-16',
-				fittings: { from: 'fit-straight-16', to: 'fit-straight-16' },
-				waypoints: [
-					[350, 50, 75],
-					[350, 170, 75]
-				]
-			}
-		],
-		plugs: []
-	};
-	return {
-		format: 'interstice.scene',
-		version: 1,
-		enclosure: plainEnclosure([400, 400, 400]),
-		parts: [pump, res, blockPart('block', [40, 120, 120]), ...defaultFittings()],
-		placements: [
-			{ id: 'pump-1', partId: 'pump', position: [50, 20, 45] },
-			{ id: 'res-1', partId: 'res', position: [200, 100, 40] },
-			{ id: 'block-1', partId: 'block', position: [120, 260, 20] }
-		],
-		tubeKinds: defaultTubeKinds(),
-		loops: [loop]
-	};
-}
+/** The loop checker's pump-and-reservoir scene with a block across the first run's top segment. */
+const scene = () => pumpLoopScene(() => {}, { block: true });
 
 function parse(input: SceneInput) {
 	const parsed = sceneSchema.safeParse(input);
@@ -163,5 +102,57 @@ describe('suggest a route for a loop', () => {
 			sceneSchema.safeParse({ ...scene(), loops: [{ ...scene().loops![0], bendPenaltyMm: -1 }] })
 				.success
 		).toBe(false);
+	});
+	it('suggests a route for a run still being drafted, the same one the saved run would get', () => {
+		// The first run taken out of the loop and drafted again: its ports, tube and fittings only.
+		const input = scene();
+		const full = parse(input);
+		const [first, second] = full.loops![0].runs;
+		const withoutFirst = parse({
+			...input,
+			loops: [{ ...input.loops![0], runs: [second] }],
+			tubeKinds: input.tubeKinds
+		});
+		const resolved = resolveScene(withoutFirst);
+		const reports = checkLoops(withoutFirst, resolved);
+		const catalogue = { tubeKinds: defaultTubeKinds(), fittings: defaultFittings() };
+		const draft = { from: first.from, to: first.to, tube: first.tube, fittings: first.fittings };
+		const req = draftRouteRequest(withoutFirst, resolved, reports, 0, draft, catalogue);
+		if (!req.ok) throw new Error(req.message);
+		expect(req.runs.map((r) => r.id)).toEqual([DRAFT_RUN_ID]);
+		// Oracle: the saved run's own request (the run back in the loop, before run 2 as it was).
+		const saved = routeRequest(
+			full,
+			resolveScene(full),
+			checkLoops(full, resolveScene(full)),
+			0,
+			[0]
+		);
+		if (!saved.ok) throw new Error(saved.message);
+		expect(req.runs[0]).toEqual({ ...saved.runs[0], id: DRAFT_RUN_ID });
+		const answer = routeMany(req.runs, { ...req.shared, maxAlternatives: 1 });
+		const res = answer.results[DRAFT_RUN_ID];
+		if (!res.ok) throw new Error(res.reason);
+		// Accepted: the run is created with the route's waypoints and the checker finds it clear.
+		const settings = variantSettingsSchema.parse({
+			placements: withoutFirst.placements,
+			loops: withoutFirst.loops
+		});
+		const next = addRun(settings, 0, { ...draft, waypoints: res.routes[0].waypoints });
+		const after = parse({ ...input, loops: next.loops });
+		const run = after.loops![0].runs.at(-1)!;
+		expect(run.waypoints).toEqual(res.routes[0].waypoints);
+		const report = checkLoops(after, resolveScene(after))[0].runs.find((r) => r.runId === run.id)!;
+		expect(report.problems).toEqual([]);
+		// A tube kind the studio lacks is refused in words.
+		const none = draftRouteRequest(
+			withoutFirst,
+			resolved,
+			reports,
+			0,
+			{ ...draft, tube: 'x' },
+			catalogue
+		);
+		expect(none).toEqual({ ok: false, message: 'Pick a tube kind for the new run.' });
 	});
 });

@@ -3,7 +3,15 @@
  * (each run's tube kind gives its section, bend radius, clearance and hard or soft; each fitting's
  * reach where the run starts), and from an accepted route back to the run's waypoints. Millimetres.
  */
-import type { LoopDef, ResolvedScene, Scene, Vec3 } from '$lib/geometry';
+import type {
+	LoopDef,
+	PartDef,
+	ResolvedScene,
+	RunDef,
+	Scene,
+	TubeKindDef,
+	Vec3
+} from '$lib/geometry';
 import { loopLookup, runEnds } from '$lib/geometry/loop-path';
 import { portEnd, routeObstacles } from '$lib/geometry/route-scene';
 import { resolveScene } from '$lib/geometry/resolve';
@@ -101,6 +109,46 @@ export function routeRequest(
 	};
 }
 
+/** The id a run still being drafted has in its route request (it has none of its own yet). */
+export const DRAFT_RUN_ID = 'draft';
+
+/**
+ * The search input for a run still being drafted (its two ports, tube kind and fittings chosen,
+ * not yet part of the loop): the scene as it is, with the draft appended to loop `l` (or a new
+ * loop) for the search only, so every run already drawn is an obstacle. `tubeKinds` and
+ * `fittings` are the studio's (the scene holds only those its runs use). Accepting the route
+ * creates the run with its waypoints (see the loop form).
+ */
+export function draftRouteRequest(
+	scene: Scene,
+	resolved: ResolvedScene,
+	reports: readonly LoopReport[],
+	l: number,
+	draft: Omit<RunDef, 'id' | 'waypoints'>,
+	catalogue: { tubeKinds: readonly TubeKindDef[]; fittings: readonly PartDef[] }
+): RouteRequest {
+	const tube = catalogue.tubeKinds.find((t) => t.id === draft.tube);
+	if (!tube) return { ok: false, message: 'Pick a tube kind for the new run.' };
+	const fittings = [draft.fittings.from, draft.fittings.to].flatMap((id) => {
+		if (!id || scene.parts.some((p) => p.id === id)) return [];
+		const f = catalogue.fittings.find((p) => p.id === id);
+		return f ? [f] : [];
+	});
+	const loops = [...(scene.loops ?? [])];
+	const at = loops[l] ? l : loops.length;
+	const run: RunDef = { ...draft, id: DRAFT_RUN_ID, waypoints: [] };
+	loops[at] = loops[at]
+		? { ...loops[at], runs: [...loops[at].runs, run] }
+		: { id: 'draft-loop', runs: [run], plugs: [] };
+	const withDraft: Scene = {
+		...scene,
+		parts: [...scene.parts, ...fittings],
+		tubeKinds: [...(scene.tubeKinds ?? []).filter((t) => t.id !== tube.id), tube],
+		loops
+	};
+	return routeRequest(withDraft, resolved, reports, at, [loops[at].runs.length - 1]);
+}
+
 /**
  * The search input for the scene's power cables `indexes` (flat bundles, soft: their own bend
  * radius): clear of every coolant run (from the last check) and of the parts; the plugs' room at
@@ -137,10 +185,14 @@ export function cableRouteRequest(
 			reach(c.to.placementId, c.to.portId)
 		);
 		if (!start || !end) return { ok: false, message: `${c.label} names a port the scene lacks.` };
+		const name = (placementId: string, portId: string) => {
+			const part = resolved.placements.find((p) => p.placement.id === placementId)?.part.name;
+			return `${part ?? placementId} · ${portId}`;
+		};
 		runs.push({
 			id: c.id,
-			start,
-			end,
+			start: { ...start, label: name(c.from.placementId, c.from.portId) },
+			end: { ...end, label: name(c.to.placementId, c.to.portId) },
 			section: { kind: 'flat', widthMm: c.widthMm, thicknessMm: c.thicknessMm },
 			bendRadiusMm: c.minBendRadiusMm,
 			mode: 'soft'
@@ -170,6 +222,11 @@ export function cableRouteRequest(
 	};
 }
 
+/** Hundredths of a millimetre: the search's planes are sums of sizes, with float noise. */
+export function cleanWaypoints(waypoints: readonly Vec3[]): Vec3[] {
+	return waypoints.map((w) => w.map((v) => Math.round(v * 100) / 100) as Vec3);
+}
+
 /** The cable's waypoints replaced by an accepted route's. */
 export function acceptCableRoute(
 	settings: VariantSettings,
@@ -177,7 +234,7 @@ export function acceptCableRoute(
 	waypoints: readonly Vec3[]
 ): VariantSettings {
 	if (!settings.cables?.some((c) => c.id === cableId)) return settings;
-	const clean = waypoints.map((w) => w.map((v) => Math.round(v * 100) / 100) as Vec3);
+	const clean = cleanWaypoints(waypoints);
 	return {
 		...settings,
 		cables: settings.cables.map((c) => (c.id === cableId ? { ...c, waypoints: clean } : c))
@@ -220,8 +277,7 @@ export function acceptRoute(
 ): VariantSettings {
 	const r = settings.loops?.[l]?.runs.findIndex((x) => x.id === runId) ?? -1;
 	if (r < 0) return settings;
-	// Hundredths of a millimetre: the search's planes are sums of sizes, with float noise.
-	const clean = waypoints.map((w) => w.map((v) => Math.round(v * 100) / 100) as Vec3);
+	const clean = cleanWaypoints(waypoints);
 	return updateRun(settings, l, r, (run) => ({ ...run, waypoints: clean }));
 }
 
@@ -253,10 +309,7 @@ export function routedCables(scene: Scene): NonNullable<Scene['cables']> {
 	return cables.flatMap((c) => {
 		const r = results[c.id];
 		if (!r?.ok || !r.routes.length) return [];
-		const waypoints = r.routes[0].waypoints.map(
-			(w) => w.map((v) => Math.round(v * 100) / 100) as Vec3
-		);
-		return [{ ...c, waypoints }];
+		return [{ ...c, waypoints: cleanWaypoints(r.routes[0].waypoints) }];
 	});
 }
 

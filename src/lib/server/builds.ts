@@ -258,7 +258,8 @@ const SETTINGS_KEYS = [
 	'placements',
 	'marginMm',
 	'budgets',
-	'loops'
+	'loops',
+	'cables'
 ];
 
 /** A scene path in the variant's own fields, named as the request names it: `settings.…`. */

@@ -295,7 +295,10 @@ export class EditorState {
 		});
 		const parts = missing.length ? [...this.parts, ...missing] : this.parts;
 		const trial = compute(this.enclosure, parts, next, this.tubeKinds);
-		const refused = trial.ok ? [] : trial.issues.filter((i) => i.path.startsWith('loops'));
+		// Loop and cable edits are refused in their own words (the runs' and cables' forms show them).
+		const refused = trial.ok
+			? []
+			: trial.issues.filter((i) => i.path.startsWith('loops') || i.path.startsWith('cables'));
 		if (refused.length) {
 			this.loopRefusal = refused;
 			return false;

@@ -8,12 +8,14 @@ import {
 	type Box,
 	type EnclosureDef,
 	type EnclosureInput,
+	type LoopDef,
 	type PartDef,
 	type Scene,
 	type SceneInput,
 	type Vec3
 } from '../../geometry/schema';
 import { resolveScene } from '../../geometry/resolve';
+import { defaultFittings, defaultTubeKinds } from '../../geometry/loop-library';
 import type { WorldBox } from '../../geometry/types';
 
 /** A plain enclosure: `innerMm` inside, every panel `wallMm` thick and solid. */
@@ -251,4 +253,93 @@ export function demoLoopBackRun() {
 		clearanceMm: 1,
 		mode: 'soft' as const
 	};
+}
+
+/**
+ * A 400 mm cube inside; a pump (in on top, out on its +x side) and a reservoir (out and in, a
+ * fill port on top), joined by two 16 mm hard runs with straight fittings (reach 24 mm, insertion
+ * 10 mm). World ports: pump in (65, 80, 75) +y, pump out (110, 50, 75) +x; reservoir out
+ * (220, 200, 75) +y, in (280, 170, 75) +x, fill (240, 200, 55) +y. With `block`, a 40 × 120 ×
+ * 120 mm block (x 120–160, y 260–380, z 20–140) sits across the first run's top segment
+ * (y 300, z 75). The loop checker's and the route suggestion's specs both start from it.
+ */
+export function pumpLoopScene(
+	edit: (s: { input: SceneInput; loop: LoopDef }) => void = () => {},
+	options: { block?: boolean } = {}
+): SceneInput {
+	const pump: PartDef = {
+		...blockPart('pump', [60, 60, 60]),
+		name: 'Pump',
+		category: 'pump',
+		ports: [
+			{ id: 'in', position: [15, 60, 30], direction: '+y', thread: 'G 1/4' },
+			{ id: 'out', position: [60, 30, 30], direction: '+x', thread: 'G 1/4' }
+		]
+	};
+	const res: PartDef = {
+		...blockPart('res', [80, 100, 70]),
+		name: 'Reservoir',
+		category: 'reservoir',
+		ports: [
+			{ id: 'out', position: [20, 100, 35], direction: '+y', thread: 'G 1/4' },
+			{ id: 'in', position: [80, 70, 35], direction: '+x', thread: 'G 1/4' },
+			{ id: 'fill', position: [40, 100, 15], direction: '+y', thread: 'G 1/4' },
+			{ id: 'side', position: [40, 20, 70], direction: '+z', thread: 'G 1/4' }
+		]
+	};
+	const loop: LoopDef = {
+		id: 'main',
+		label: 'Main loop',
+		runs: [
+			{
+				id: 'r1',
+				from: { placementId: 'res-1', portId: 'out' },
+				to: { placementId: 'pump-1', portId: 'in' },
+				tube: 'hard-16',
+				fittings: { from: 'fit-straight-16', to: 'fit-straight-16' },
+				waypoints: [
+					[220, 300, 75],
+					[65, 300, 75]
+				]
+			},
+			{
+				id: 'r2',
+				from: { placementId: 'pump-1', portId: 'out' },
+				to: { placementId: 'res-1', portId: 'in' },
+				tube: 'hard-16',
+				fittings: { from: 'fit-straight-16', to: 'fit-straight-16' },
+				waypoints: [
+					[350, 50, 75],
+					[350, 170, 75]
+				]
+			}
+		],
+		plugs: [
+			{ placementId: 'res-1', portId: 'fill', fitting: 'plug-g14' },
+			{ placementId: 'res-1', portId: 'side', fitting: null }
+		],
+		fill: { placementId: 'res-1', portId: 'fill' }
+	};
+	const input: SceneInput = {
+		format: 'interstice.scene',
+		version: 1,
+		enclosure: plainEnclosure([400, 400, 400]),
+		parts: [
+			pump,
+			res,
+			...(options.block ? [blockPart('block', [40, 120, 120])] : []),
+			...defaultFittings()
+		],
+		placements: [
+			{ id: 'pump-1', partId: 'pump', position: [50, 20, 45] },
+			{ id: 'res-1', partId: 'res', position: [200, 100, 40] },
+			...(options.block
+				? [{ id: 'block-1', partId: 'block', position: [120, 260, 20] as Vec3 }]
+				: [])
+		],
+		tubeKinds: defaultTubeKinds(),
+		loops: [loop]
+	};
+	edit({ input, loop });
+	return input;
 }
