@@ -13,6 +13,18 @@ import { newId } from '../tokens';
 import { createShareLink } from '../sharing/links';
 
 /** Invented list prices, minor units (EUR cents), keyed by the demo part ids. */
+/** The quote form as the studio posts it: EUR, 150.00 labour, 20 % tax, a 30 % deposit. */
+export const quoteFormFields = (extra: Record<string, string> = {}) => ({
+	currency: 'EUR',
+	labour: '150',
+	labourNote: 'Assembly',
+	tax: '20',
+	depositKind: 'percent',
+	depositValue: '30',
+	notes: '',
+	...extra
+});
+
 export const DEMO_PRICES: Record<string, number> = {
 	'std-mini-itx': 15_900,
 	'std-fan-140-25': 1_850,
