@@ -387,3 +387,22 @@ export const cutAllowanceForm = z.object({
 				.max(100, 'Cut allowance can be at most 100 %.')
 		)
 });
+
+/** The largest CSV file the parts import reads at once: 2 MiB. */
+export const MAX_CSV_BYTES = 2 * 1024 * 1024;
+
+/** The parts import's first step: one CSV file, not empty, at most MAX_CSV_BYTES. */
+export const csvUploadForm = z.object({
+	file: z.instanceof(File, { message: 'Choose a CSV file to import.' }).superRefine((file, ctx) => {
+		if (file.size === 0) ctx.addIssue({ code: 'custom', message: 'Choose a CSV file to import.' });
+		else if (file.size > MAX_CSV_BYTES) {
+			ctx.addIssue({
+				code: 'custom',
+				message: `The file is ${(file.size / 1024 / 1024).toFixed(1)} MB; at most ${MAX_CSV_BYTES / 1024 / 1024} MB can be imported at once.`
+			});
+		}
+	})
+});
+
+/** The second step: the previewed text, sent back so the server keeps nothing in between. */
+export const csvCommitForm = z.object({ csv: z.string().default('') });
