@@ -346,13 +346,20 @@ async function ownersAfter(tx: Tx, studioId: string) {
 	return row.n;
 }
 
+/** The membership row of this user in this studio. */
+const isMember = (studioId: string, userId: string) =>
+	and(eq(memberships.studioId, studioId), eq(memberships.userId, userId));
+
+/** The member about to be changed or removed; "No such member." when the user is not one. */
+async function memberFor(tx: Tx, studioId: string, userId: string) {
+	const [m] = await tx.select().from(memberships).where(isMember(studioId, userId));
+	if (!m) throw new RuleError('No such member.', 'userId', 'not-found');
+	return m;
+}
+
 export async function changeRole(studioId: string, userId: string, role: Role) {
 	await db.transaction(async (tx) => {
-		const [m] = await tx
-			.select()
-			.from(memberships)
-			.where(and(eq(memberships.studioId, studioId), eq(memberships.userId, userId)));
-		if (!m) throw new RuleError('No such member.', 'userId', 'not-found');
+		const m = await memberFor(tx, studioId, userId);
 		if (m.role === 'owner' && role !== 'owner' && (await ownersAfter(tx, studioId)) <= 1) {
 			throw new RuleError(
 				'The last owner cannot be demoted; make someone else owner first.',
@@ -360,20 +367,13 @@ export async function changeRole(studioId: string, userId: string, role: Role) {
 				'conflict'
 			);
 		}
-		await tx
-			.update(memberships)
-			.set({ role })
-			.where(and(eq(memberships.studioId, studioId), eq(memberships.userId, userId)));
+		await tx.update(memberships).set({ role }).where(isMember(studioId, userId));
 	});
 }
 
 export async function removeMember(studioId: string, userId: string) {
 	await db.transaction(async (tx) => {
-		const [m] = await tx
-			.select()
-			.from(memberships)
-			.where(and(eq(memberships.studioId, studioId), eq(memberships.userId, userId)));
-		if (!m) throw new RuleError('No such member.', 'userId', 'not-found');
+		const m = await memberFor(tx, studioId, userId);
 		if (m.role === 'owner' && (await ownersAfter(tx, studioId)) <= 1) {
 			throw new RuleError(
 				'The last owner cannot leave or be removed; make someone else owner first.',
@@ -381,9 +381,7 @@ export async function removeMember(studioId: string, userId: string) {
 				'conflict'
 			);
 		}
-		await tx
-			.delete(memberships)
-			.where(and(eq(memberships.studioId, studioId), eq(memberships.userId, userId)));
+		await tx.delete(memberships).where(isMember(studioId, userId));
 		await tx
 			.update(users)
 			.set({ activeStudioId: null })
