@@ -40,6 +40,12 @@ export function valueOf<T>(result: WriteResult<T>): T {
 /** What the catalogue answers for an item that is not the studio's (or does not exist). */
 export const notFound = () => new ServiceError('not-found', 'Not found.');
 
+/** The item looked up, or 404 when the studio has no such item. */
+export function found<T>(item: T | null | undefined): T {
+	if (item === null || item === undefined) throw notFound();
+	return item;
+}
+
 export function revisionOf(body: Record<string, unknown>): number {
 	const r = body.revision;
 	if (typeof r !== 'number' || !Number.isInteger(r) || r < 0 || r > INT4_MAX) {

@@ -6,15 +6,13 @@ import {
 	updateEnclosure
 } from '$lib/server/catalog/enclosures';
 import { jsonObject, readJson } from '$lib/server/api';
-import { catalogAccess, notFound, revisionOf, valueOf } from '$lib/server/catalog/http';
+import { catalogAccess, found, revisionOf, valueOf } from '$lib/server/catalog/http';
 import { ServiceError, jsonRoute } from '$lib/server/errors';
 import type { RequestHandler } from './$types';
 
 export const GET: RequestHandler = jsonRoute(async (event) => {
 	const access = await catalogAccess(event, 'catalog.view');
-	const enclosure = await getEnclosure(access.studioId, event.params.id);
-	if (!enclosure) throw notFound();
-	return json({ enclosure });
+	return json({ enclosure: found(await getEnclosure(access.studioId, event.params.id)) });
 });
 
 /**
@@ -47,10 +45,6 @@ export const PATCH: RequestHandler = jsonRoute(async (event) => {
 			field: 'archived'
 		});
 	}
-	const row = await (body.archived ? archiveEnclosure : restoreEnclosure)(
-		access.studioId,
-		event.params.id
-	);
-	if (!row) throw notFound();
-	return json({ enclosure: row });
+	const change = body.archived ? archiveEnclosure : restoreEnclosure;
+	return json({ enclosure: found(await change(access.studioId, event.params.id)) });
 });

@@ -1,6 +1,6 @@
 import { json } from '@sveltejs/kit';
 import { jsonObject, readJson } from '$lib/server/api';
-import { catalogAccess, notFound, revisionOf, valueOf } from '$lib/server/catalog/http';
+import { catalogAccess, found, revisionOf, valueOf } from '$lib/server/catalog/http';
 import {
 	archivePart,
 	deletePart,
@@ -14,9 +14,7 @@ import type { RequestHandler } from './$types';
 
 export const GET: RequestHandler = jsonRoute(async (event) => {
 	const access = await catalogAccess(event, 'catalog.view');
-	const part = await getPart(access.studioId, event.params.id);
-	if (!part) throw notFound();
-	return json({ part });
+	return json({ part: found(await getPart(access.studioId, event.params.id)) });
 });
 
 /** Body: `{revision, ...part}`. Standard-library parts are read-only (404 here: not the studio's). */
@@ -41,9 +39,8 @@ export const PATCH: RequestHandler = jsonRoute(async (event) => {
 			field: 'archived'
 		});
 	}
-	const part = await (body.archived ? archivePart : restorePart)(access.studioId, event.params.id);
-	if (!part) throw notFound();
-	return json({ part });
+	const change = body.archived ? archivePart : restorePart;
+	return json({ part: found(await change(access.studioId, event.params.id)) });
 });
 
 /** Deletes a part no build places; 409 when one does (archive it instead). */
