@@ -104,6 +104,18 @@ const offsetMm = (label: string) =>
 		.max(COORD_LIMIT_MM, `${label} must be at most ${COORD_LIMIT_MM} mm`);
 const wallKind = z.enum(['solid', 'mesh']);
 
+type WallFields<F extends string> = Record<`${F}Mm`, ReturnType<typeof thicknessMm>> &
+	Record<`${F}Kind`, z.ZodDefault<typeof wallKind>> &
+	Record<`${F}OffsetMm`, z.ZodDefault<ReturnType<typeof offsetMm>>>;
+
+/** One wall's three fields (thickness, solid or mesh, inward offset), named after its face. */
+const wallFields = <F extends string>(face: F, label: string) =>
+	({
+		[`${face}Mm`]: thicknessMm(`${label} panel`),
+		[`${face}Kind`]: wallKind.default('solid'),
+		[`${face}OffsetMm`]: offsetMm(`${label} offset`).default(0)
+	}) as WallFields<F>;
+
 export const enclosureFormSchema = z.object({
 	/** The revision the form was loaded at; 0 for a new enclosure. */
 	revision: int4('Change number').default(0),
@@ -117,24 +129,12 @@ export const enclosureFormSchema = z.object({
 	outerX: sizeMm('Outer width'),
 	outerY: sizeMm('Outer height'),
 	outerZ: sizeMm('Outer depth'),
-	leftMm: thicknessMm('Left panel'),
-	leftKind: wallKind.default('solid'),
-	leftOffsetMm: offsetMm('Left offset').default(0),
-	rightMm: thicknessMm('Right panel'),
-	rightKind: wallKind.default('solid'),
-	rightOffsetMm: offsetMm('Right offset').default(0),
-	bottomMm: thicknessMm('Bottom panel'),
-	bottomKind: wallKind.default('solid'),
-	bottomOffsetMm: offsetMm('Bottom offset').default(0),
-	topMm: thicknessMm('Top panel'),
-	topKind: wallKind.default('solid'),
-	topOffsetMm: offsetMm('Top offset').default(0),
-	frontMm: thicknessMm('Front panel'),
-	frontKind: wallKind.default('solid'),
-	frontOffsetMm: offsetMm('Front offset').default(0),
-	backMm: thicknessMm('Back panel'),
-	backKind: wallKind.default('solid'),
-	backOffsetMm: offsetMm('Back offset').default(0),
+	...wallFields('left', 'Left'),
+	...wallFields('right', 'Right'),
+	...wallFields('bottom', 'Bottom'),
+	...wallFields('top', 'Top'),
+	...wallFields('front', 'Front'),
+	...wallFields('back', 'Back'),
 	/** Dividers, brackets and mounts as JSON: edited by the structured editor, or by hand without JavaScript. */
 	features: z
 		.string()
@@ -387,3 +387,22 @@ export const cutAllowanceForm = z.object({
 				.max(100, 'Cut allowance can be at most 100 %.')
 		)
 });
+
+/** The largest CSV file the parts import reads at once: 2 MiB. */
+export const MAX_CSV_BYTES = 2 * 1024 * 1024;
+
+/** The parts import's first step: one CSV file, not empty, at most MAX_CSV_BYTES. */
+export const csvUploadForm = z.object({
+	file: z.instanceof(File, { message: 'Choose a CSV file to import.' }).superRefine((file, ctx) => {
+		if (file.size === 0) ctx.addIssue({ code: 'custom', message: 'Choose a CSV file to import.' });
+		else if (file.size > MAX_CSV_BYTES) {
+			ctx.addIssue({
+				code: 'custom',
+				message: `The file is ${(file.size / 1024 / 1024).toFixed(1)} MB; at most ${MAX_CSV_BYTES / 1024 / 1024} MB can be imported at once.`
+			});
+		}
+	})
+});
+
+/** The second step: the previewed text, sent back so the server keeps nothing in between. */
+export const csvCommitForm = z.object({ csv: z.string().default('') });

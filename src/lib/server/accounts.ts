@@ -25,6 +25,34 @@ export class RuleError extends ServiceError {
 
 const INVITE_TTL_MS = 7 * 24 * 60 * 60 * 1000;
 
+type OneUseLinks = typeof passwordResets | typeof emailVerifications;
+
+/** The unspent, unexpired reset or confirmation link with this token. */
+function liveToken(table: OneUseLinks, token: string) {
+	return and(
+		eq(table.tokenHash, hashToken(token)),
+		isNull(table.usedAt),
+		gt(table.expiresAt, new Date())
+	);
+}
+
+/** Spends every link of the user still open: one used link kills those mailed before it. */
+async function spendAll(tx: Tx, table: OneUseLinks, userId: string) {
+	await tx
+		.update(table)
+		.set({ usedAt: new Date() })
+		.where(and(eq(table.userId, userId), isNull(table.usedAt)));
+}
+
+/** An invitation still open: not accepted, not withdrawn, not expired. */
+function inviteOpen() {
+	return and(
+		isNull(invites.acceptedAt),
+		isNull(invites.revokedAt),
+		gt(invites.expiresAt, new Date())
+	);
+}
+
 export async function findUserByEmail(email: string) {
 	const [u] = await db.select().from(users).where(eq(users.email, email.toLowerCase()));
 	return u ?? null;
@@ -107,14 +135,7 @@ export async function findValidVerification(token: string) {
 		.select({ userId: emailVerifications.userId, email: users.email })
 		.from(emailVerifications)
 		.innerJoin(users, eq(users.id, emailVerifications.userId))
-		.where(
-			and(
-				eq(emailVerifications.tokenHash, hashToken(token)),
-				isNull(emailVerifications.usedAt),
-				isNull(users.emailVerifiedAt),
-				gt(emailVerifications.expiresAt, new Date())
-			)
-		);
+		.where(and(liveToken(emailVerifications, token), isNull(users.emailVerifiedAt)));
 	return row ?? null;
 }
 
@@ -130,13 +151,7 @@ export async function verifyEmail(
 		const [v] = await tx
 			.update(emailVerifications)
 			.set({ usedAt: new Date() })
-			.where(
-				and(
-					eq(emailVerifications.tokenHash, hashToken(token)),
-					isNull(emailVerifications.usedAt),
-					gt(emailVerifications.expiresAt, new Date())
-				)
-			)
+			.where(liveToken(emailVerifications, token))
 			.returning();
 		if (!v) return null;
 		const [u] = await tx
@@ -145,25 +160,13 @@ export async function verifyEmail(
 			.where(and(eq(users.id, v.userId), isNull(users.emailVerifiedAt)))
 			.returning({ id: users.id });
 		if (!u) return null;
-		await tx
-			.update(emailVerifications)
-			.set({ usedAt: new Date() })
-			.where(and(eq(emailVerifications.userId, v.userId), isNull(emailVerifications.usedAt)));
+		await spendAll(tx, emailVerifications, v.userId);
 		return { userId: v.userId, next: v.next };
 	});
 }
 
 export async function findValidReset(token: string) {
-	const [row] = await db
-		.select()
-		.from(passwordResets)
-		.where(
-			and(
-				eq(passwordResets.tokenHash, hashToken(token)),
-				isNull(passwordResets.usedAt),
-				gt(passwordResets.expiresAt, new Date())
-			)
-		);
+	const [row] = await db.select().from(passwordResets).where(liveToken(passwordResets, token));
 	return row ?? null;
 }
 
@@ -174,21 +177,12 @@ export async function resetPassword(token: string, password: string) {
 		const [used] = await tx
 			.update(passwordResets)
 			.set({ usedAt: new Date() })
-			.where(
-				and(
-					eq(passwordResets.tokenHash, hashToken(token)),
-					isNull(passwordResets.usedAt),
-					gt(passwordResets.expiresAt, new Date())
-				)
-			)
+			.where(liveToken(passwordResets, token))
 			.returning({ userId: passwordResets.userId });
 		if (!used) return null;
 		// Every other reset link of the account dies with this one: a link mailed earlier, or one
 		// an attacker asked for, must not set the password again.
-		await tx
-			.update(passwordResets)
-			.set({ usedAt: new Date() })
-			.where(and(eq(passwordResets.userId, used.userId), isNull(passwordResets.usedAt)));
+		await spendAll(tx, passwordResets, used.userId);
 		// The link came by mail, so the address is proven too.
 		await tx
 			.update(users)
@@ -250,14 +244,7 @@ export async function pendingInvites(studioId: string) {
 			expiresAt: invites.expiresAt
 		})
 		.from(invites)
-		.where(
-			and(
-				eq(invites.studioId, studioId),
-				isNull(invites.acceptedAt),
-				isNull(invites.revokedAt),
-				gt(invites.expiresAt, new Date())
-			)
-		)
+		.where(and(eq(invites.studioId, studioId), inviteOpen()))
 		.orderBy(invites.createdAt);
 }
 
@@ -297,14 +284,7 @@ export async function findValidInvite(token: string) {
 		})
 		.from(invites)
 		.innerJoin(studios, eq(studios.id, invites.studioId))
-		.where(
-			and(
-				eq(invites.tokenHash, hashToken(token)),
-				isNull(invites.acceptedAt),
-				isNull(invites.revokedAt),
-				gt(invites.expiresAt, new Date())
-			)
-		);
+		.where(and(eq(invites.tokenHash, hashToken(token)), inviteOpen()));
 	return row ?? null;
 }
 
@@ -314,14 +294,7 @@ export async function acceptInvite(token: string, userId: string) {
 		const [inv] = await tx
 			.update(invites)
 			.set({ acceptedAt: new Date() })
-			.where(
-				and(
-					eq(invites.tokenHash, hashToken(token)),
-					isNull(invites.acceptedAt),
-					isNull(invites.revokedAt),
-					gt(invites.expiresAt, new Date())
-				)
-			)
+			.where(and(eq(invites.tokenHash, hashToken(token)), inviteOpen()))
 			.returning();
 		if (!inv) return null;
 		const [existing] = await tx
@@ -373,13 +346,20 @@ async function ownersAfter(tx: Tx, studioId: string) {
 	return row.n;
 }
 
+/** The membership row of this user in this studio. */
+const isMember = (studioId: string, userId: string) =>
+	and(eq(memberships.studioId, studioId), eq(memberships.userId, userId));
+
+/** The member about to be changed or removed; "No such member." when the user is not one. */
+async function memberFor(tx: Tx, studioId: string, userId: string) {
+	const [m] = await tx.select().from(memberships).where(isMember(studioId, userId));
+	if (!m) throw new RuleError('No such member.', 'userId', 'not-found');
+	return m;
+}
+
 export async function changeRole(studioId: string, userId: string, role: Role) {
 	await db.transaction(async (tx) => {
-		const [m] = await tx
-			.select()
-			.from(memberships)
-			.where(and(eq(memberships.studioId, studioId), eq(memberships.userId, userId)));
-		if (!m) throw new RuleError('No such member.', 'userId', 'not-found');
+		const m = await memberFor(tx, studioId, userId);
 		if (m.role === 'owner' && role !== 'owner' && (await ownersAfter(tx, studioId)) <= 1) {
 			throw new RuleError(
 				'The last owner cannot be demoted; make someone else owner first.',
@@ -387,20 +367,13 @@ export async function changeRole(studioId: string, userId: string, role: Role) {
 				'conflict'
 			);
 		}
-		await tx
-			.update(memberships)
-			.set({ role })
-			.where(and(eq(memberships.studioId, studioId), eq(memberships.userId, userId)));
+		await tx.update(memberships).set({ role }).where(isMember(studioId, userId));
 	});
 }
 
 export async function removeMember(studioId: string, userId: string) {
 	await db.transaction(async (tx) => {
-		const [m] = await tx
-			.select()
-			.from(memberships)
-			.where(and(eq(memberships.studioId, studioId), eq(memberships.userId, userId)));
-		if (!m) throw new RuleError('No such member.', 'userId', 'not-found');
+		const m = await memberFor(tx, studioId, userId);
 		if (m.role === 'owner' && (await ownersAfter(tx, studioId)) <= 1) {
 			throw new RuleError(
 				'The last owner cannot leave or be removed; make someone else owner first.',
@@ -408,9 +381,7 @@ export async function removeMember(studioId: string, userId: string) {
 				'conflict'
 			);
 		}
-		await tx
-			.delete(memberships)
-			.where(and(eq(memberships.studioId, studioId), eq(memberships.userId, userId)));
+		await tx.delete(memberships).where(isMember(studioId, userId));
 		await tx
 			.update(users)
 			.set({ activeStudioId: null })

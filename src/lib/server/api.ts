@@ -1,6 +1,7 @@
 /**
- * The one helper for JSON endpoints (every /api route): bounded bodies, zod validation with paths,
- * one refusal shape `{message, issues}`, and the per-user API rate limit.
+ * The one helper for JSON endpoints (every /api route): bounded bodies (JSON, multipart, or raw for
+ * a signature check), zod validation with paths, one refusal shape `{message, issues}`, and the
+ * per-user API rate limit.
  */
 import { error, json, type RequestEvent } from '@sveltejs/kit';
 import { z } from 'zod';
@@ -27,19 +28,37 @@ export function problem(
 	return json({ ...detail, message, issues }, { status });
 }
 
+/**
+ * A body as text, at most `maxBytes`: the declared length is checked before reading, the text
+ * after. A larger one ends the request with 413 in the problem shape.
+ */
+async function boundedText(request: Request, maxBytes: number): Promise<string> {
+	const tooLarge = () =>
+		error(413, {
+			message: `The body is larger than ${maxBytes / 1024 / 1024} MB.`,
+			issues: []
+		} as App.Error & { issues: FieldIssue[] });
+	if (Number(request.headers.get('content-length') ?? 0) > maxBytes) tooLarge();
+	const text = await request.text();
+	if (text.length > maxBytes) tooLarge();
+	return text;
+}
+
+/**
+ * The body exactly as sent, bounded like every other, for an endpoint that must check it before
+ * reading it: the payments webhook's signature is over the raw bytes, and parsing the JSON first
+ * (readJson) and writing it out again would not give the same bytes back.
+ */
+export function readRawBody(request: Request, maxBytes: number): Promise<string> {
+	return boundedText(request, maxBytes);
+}
+
 /** Reads and validates a JSON body; a bad one ends the request with 400 and the zod paths. */
 export async function readJson<S extends z.ZodType>(
 	request: Request,
 	schema: S
 ): Promise<z.infer<S>> {
-	const length = Number(request.headers.get('content-length') ?? 0);
-	if (length > MAX_JSON_BYTES) {
-		error(413, `The body is larger than ${MAX_JSON_BYTES / 1024 / 1024} MB.`);
-	}
-	const text = await request.text();
-	if (text.length > MAX_JSON_BYTES) {
-		error(413, `The body is larger than ${MAX_JSON_BYTES / 1024 / 1024} MB.`);
-	}
+	const text = await boundedText(request, MAX_JSON_BYTES);
 	let body: unknown;
 	try {
 		body = JSON.parse(text);
@@ -52,6 +71,30 @@ export async function readJson<S extends z.ZodType>(
 			{ path: bad, message: 'Contains control characters' }
 		]);
 	}
+	return validated(schema, body);
+}
+
+/**
+ * Reads a multipart body (a file upload to a JSON endpoint): the form, and its text fields
+ * validated with the schema (the files are the caller's, read from `form`). A body that is not
+ * a form, or fields that do not validate, end the request with 400 and the zod paths.
+ */
+export async function readMultipart<S extends z.ZodType>(
+	request: Request,
+	schema: S
+): Promise<{ form: FormData; fields: z.infer<S> }> {
+	let form: FormData;
+	try {
+		form = await request.formData();
+	} catch {
+		badRequest('Send the body as multipart form data.', []);
+	}
+	const text: Record<string, string> = {};
+	for (const [name, value] of form) if (typeof value === 'string') text[name] = value;
+	return { form, fields: validated(schema, text) };
+}
+
+function validated<S extends z.ZodType>(schema: S, body: unknown): z.infer<S> {
 	const parsed = schema.safeParse(body);
 	if (!parsed.success) badRequest('The request does not validate.', formatZodIssues(parsed.error));
 	return parsed.data;

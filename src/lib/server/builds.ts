@@ -429,6 +429,18 @@ export class VariantRuleError extends ServiceError {
 	}
 }
 
+const noSuchVariant = () => new VariantRuleError('No such variant in this build.', 'not-found');
+
+/** The build's variants in their order, locked until the transaction ends (a reorder rewrites all). */
+function lockedVariants(tx: Tx, buildId: string) {
+	return tx
+		.select()
+		.from(variants)
+		.where(eq(variants.buildId, buildId))
+		.orderBy(asc(variants.sortOrder), asc(variants.createdAt))
+		.for('update');
+}
+
 /**
  * A copy of a variant with all its settings and placements, right after it in the order. With
  * `fromVersion`, the copy starts from the source's latest version (what the client approved, not
@@ -442,14 +454,9 @@ export async function forkVariant(
 	opts: { fromVersion?: boolean } = {}
 ) {
 	return db.transaction(async (tx) => {
-		const list = await tx
-			.select()
-			.from(variants)
-			.where(eq(variants.buildId, buildId))
-			.orderBy(asc(variants.sortOrder), asc(variants.createdAt))
-			.for('update');
+		const list = await lockedVariants(tx, buildId);
 		const source = list.find((v) => v.id === variantId);
-		if (!source) throw new VariantRuleError('No such variant in this build.', 'not-found');
+		if (!source) throw noSuchVariant();
 		const base = opts.fromVersion ? await latestVersion(source.id, tx) : null;
 		if (opts.fromVersion && !base) {
 			throw new VariantRuleError('This variant has no version to start from yet.', 'conflict');
@@ -498,20 +505,15 @@ export async function renameVariant(buildId: string, variantId: string, name: st
 		.set({ name, updatedAt: new Date() })
 		.where(and(eq(variants.id, variantId), eq(variants.buildId, buildId)))
 		.returning({ id: variants.id });
-	if (!rows.length) throw new VariantRuleError('No such variant in this build.', 'not-found');
+	if (!rows.length) throw noSuchVariant();
 }
 
 /** Moves a variant one place up (−1) or down (+1). */
 export async function moveVariant(buildId: string, variantId: string, by: -1 | 1) {
 	await db.transaction(async (tx) => {
-		const list = await tx
-			.select()
-			.from(variants)
-			.where(eq(variants.buildId, buildId))
-			.orderBy(asc(variants.sortOrder), asc(variants.createdAt))
-			.for('update');
+		const list = await lockedVariants(tx, buildId);
 		const i = list.findIndex((v) => v.id === variantId);
-		if (i < 0) throw new VariantRuleError('No such variant in this build.', 'not-found');
+		if (i < 0) throw noSuchVariant();
 		const j = i + by;
 		if (j < 0 || j >= list.length) return;
 		const ids = list.map((v) => v.id);
@@ -523,14 +525,9 @@ export async function moveVariant(buildId: string, variantId: string, by: -1 | 1
 /** The last variant can't go; deleting the proposal makes the first remaining one the proposal. */
 export async function deleteVariant(buildId: string, variantId: string) {
 	await db.transaction(async (tx) => {
-		const list = await tx
-			.select()
-			.from(variants)
-			.where(eq(variants.buildId, buildId))
-			.orderBy(asc(variants.sortOrder), asc(variants.createdAt))
-			.for('update');
+		const list = await lockedVariants(tx, buildId);
 		const target = list.find((v) => v.id === variantId);
-		if (!target) throw new VariantRuleError('No such variant in this build.', 'not-found');
+		if (!target) throw noSuchVariant();
 		if (list.length === 1) {
 			throw new VariantRuleError(
 				'A build keeps at least one variant; this is the last one.',
@@ -599,7 +596,7 @@ export async function markProposal(buildId: string, variantId: string) {
 			.from(variants)
 			.where(and(eq(variants.id, variantId), eq(variants.buildId, buildId)))
 			.for('update');
-		if (!target) throw new VariantRuleError('No such variant in this build.', 'not-found');
+		if (!target) throw noSuchVariant();
 		await tx.update(variants).set({ isProposal: false }).where(eq(variants.buildId, buildId));
 		await tx.update(variants).set({ isProposal: true }).where(eq(variants.id, variantId));
 	});

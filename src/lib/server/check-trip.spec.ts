@@ -20,16 +20,22 @@ import { hashToken } from './tokens';
 const app = useApp();
 const limit = { max: 3, windowSec: 60 };
 
+/** A studio with a demo build, and its variant as the check loads it. */
+async function demoVariant() {
+	const f = await studioWithMembers();
+	const build = await demoBuildIn(f.studio.id, f.owner.id);
+	const loaded = (await loadVariant(
+		build.buildId,
+		build.studioId,
+		build.enclosureVersionId,
+		build.variantId
+	))!;
+	return { f, build, loaded };
+}
+
 describe('the check’s one statement', () => {
 	it('reads session, role, pinned enclosure and allowed parts, and counts the call', async () => {
-		const f = await studioWithMembers();
-		const build = await demoBuildIn(f.studio.id, f.owner.id);
-		const loaded = (await loadVariant(
-			build.buildId,
-			build.studioId,
-			build.enclosureVersionId,
-			build.variantId
-		))!;
+		const { f, build, loaded } = await demoVariant();
 		const ids = loaded.settings.placements.map((p) => p.partId);
 		const prefix = `api-test:${unique('addr')}`;
 		const input = {
@@ -93,14 +99,7 @@ describe('the check’s one statement', () => {
 
 describe('POST /api/builds/:id/check and sessions', () => {
 	async function setup() {
-		const f = await studioWithMembers();
-		const build = await demoBuildIn(f.studio.id, f.owner.id);
-		const loaded = (await loadVariant(
-			build.buildId,
-			build.studioId,
-			build.enclosureVersionId,
-			build.variantId
-		))!;
+		const { f, build, loaded } = await demoVariant();
 		return { f, build, body: JSON.stringify({ settings: loaded.settings }) };
 	}
 	const post = (c: ReturnType<typeof app.client>, buildId: string, body: string) =>

@@ -4,6 +4,7 @@ import { saveVersionForm, deleteBuildForm } from '$lib/schemas/builds';
 import { signInSchema } from '$lib/schemas/account';
 import { shareForm } from '$lib/schemas/sharing';
 import { quoteFields, quoteForm } from '$lib/schemas/quotes';
+import { MAX_CSV_BYTES, csvUploadForm } from '$lib/catalog/schemas';
 import { readForm } from './forms';
 
 function post(fields: Record<string, string>) {
@@ -108,5 +109,32 @@ describe('readForm', () => {
 			'new-price': 'The price must be an amount like 120.50.',
 			tax: 'A percentage from 0 to 100, at most two decimals.'
 		});
+	});
+
+	it('takes an uploaded file as a File: the CSV import’s schema checks it is there, not empty, not too big', async () => {
+		const upload = (bytes: number) => {
+			const body = new FormData();
+			body.append(
+				'file',
+				new Blob([new Uint8Array(bytes).fill(65)], { type: 'text/csv' }),
+				'p.csv'
+			);
+			return new Request('http://localhost/x', { method: 'POST', body });
+		};
+		const ok = await readForm(upload(3), csvUploadForm);
+		expect(ok.ok && ok.data.file instanceof File && ok.data.file.size).toBe(3);
+		expect(ok.ok && (await ok.data.file.text())).toBe('AAA');
+		const none = await readForm(post({}), csvUploadForm);
+		expect(!none.ok && none.failure.data.errors).toEqual({ file: 'Choose a CSV file to import.' });
+		const empty = await readForm(upload(0), csvUploadForm);
+		expect(!empty.ok && empty.failure.data.errors).toEqual({
+			file: 'Choose a CSV file to import.'
+		});
+		// 2 MiB + 1 byte: one byte over the limit (2 × 1024 × 1024 = 2,097,152 bytes).
+		const big = await readForm(upload(MAX_CSV_BYTES + 1), csvUploadForm);
+		expect(!big.ok && big.failure.status).toBe(400);
+		expect(!big.ok && big.failure.data.errors.file).toBe(
+			'The file is 2.0 MB; at most 2 MB can be imported at once.'
+		);
 	});
 });

@@ -23,12 +23,22 @@ interface Place {
 const px = (p: Place, view: OrthoView, x: number) => (p.leftMm + (x - view.frame.x) * p.scale) * PT;
 const py = (p: Place, view: OrthoView, y: number) => (p.topMm + (y - view.frame.y) * p.scale) * PT;
 
-function hatch(doc: Doc, x: number, y: number, w: number, h: number, color: string) {
-	const step = PATTERN_MM.hatch * PT;
+/**
+ * 45° lines across the rectangle, clipped to it, `stepMm` apart and `lineMm` wide: rising only
+ * (hatch), or falling too (crosshatch, so grey-scale still tells the two apart).
+ */
+function diagonals(
+	doc: Doc,
+	rect: { x: number; y: number; w: number; h: number },
+	color: string,
+	style: { stepMm: number; lineMm: number; bothWays: boolean }
+) {
+	const { x, y, w, h } = rect;
+	const step = style.stepMm * PT;
 	doc.save();
 	doc.rect(x, y, w, h).clip();
 	doc
-		.lineWidth(0.35 * PT)
+		.lineWidth(style.lineMm * PT)
 		.strokeColor(color)
 		.strokeOpacity(0.8);
 	for (let k = -h; k < w; k += step) {
@@ -36,28 +46,12 @@ function hatch(doc: Doc, x: number, y: number, w: number, h: number, color: stri
 			.moveTo(x + k, y + h)
 			.lineTo(x + k + h, y)
 			.stroke();
-	}
-	doc.restore();
-}
-
-/** Collides: lines both ways at 45°, as the screen's pattern, so grey-scale still tells it. */
-function crosshatch(doc: Doc, x: number, y: number, w: number, h: number, color: string) {
-	const step = PATTERN_MM.crosshatch * PT;
-	doc.save();
-	doc.rect(x, y, w, h).clip();
-	doc
-		.lineWidth(0.3 * PT)
-		.strokeColor(color)
-		.strokeOpacity(0.8);
-	for (let k = -h; k < w; k += step) {
-		doc
-			.moveTo(x + k, y + h)
-			.lineTo(x + k + h, y)
-			.stroke();
-		doc
-			.moveTo(x + k, y)
-			.lineTo(x + k + h, y + h)
-			.stroke();
+		if (style.bothWays) {
+			doc
+				.moveTo(x + k, y)
+				.lineTo(x + k + h, y + h)
+				.stroke();
+		}
 	}
 	doc.restore();
 }
@@ -86,9 +80,21 @@ function rect(doc: Doc, view: OrthoView, p: Place, r: ViewRect) {
 		if (r.status !== 'outside') {
 			doc.rect(x, y, w, h).fillOpacity(BODY_OPACITY[r.status]).fill(ink.fill);
 		}
-		if (ink.pattern === 'hatch') hatch(doc, x, y, w, h, ink.edge);
+		if (ink.pattern === 'hatch') {
+			diagonals(doc, { x, y, w, h }, ink.edge, {
+				stepMm: PATTERN_MM.hatch,
+				lineMm: 0.35,
+				bothWays: false
+			});
+		}
 		if (ink.pattern === 'dots') dots(doc, x, y, w, h, ink.edge);
-		if (ink.pattern === 'crosshatch') crosshatch(doc, x, y, w, h, ink.edge);
+		if (ink.pattern === 'crosshatch') {
+			diagonals(doc, { x, y, w, h }, ink.edge, {
+				stepMm: PATTERN_MM.crosshatch,
+				lineMm: 0.3,
+				bothWays: true
+			});
+		}
 		if (r.status === 'outside') {
 			doc.dash(PATTERN_MM.dash * PT, { space: PATTERN_MM.dash * 0.7 * PT });
 		}

@@ -7,13 +7,13 @@ import Papa from 'papaparse';
 import { and, eq, inArray } from 'drizzle-orm';
 import type { PartDef, PartSpecs } from '$lib/geometry';
 import { bodySizeMm, isOneBox, oneBody } from '$lib/catalog/part-shape';
-import { checkPart } from '$lib/catalog/schemas';
+import { MAX_CSV_BYTES, checkPart } from '$lib/catalog/schemas';
 import { toCsv } from '$lib/csv';
 import { db } from '../db';
 import { parts } from '../db/schema';
 import { insertPart, updatePart, type PartRecord } from './parts';
 
-export const MAX_CSV_BYTES = 2 * 1024 * 1024;
+export { MAX_CSV_BYTES };
 export const MAX_CSV_ROWS = 2_000;
 
 export const CSV_COLUMNS = [

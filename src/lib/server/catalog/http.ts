@@ -1,14 +1,15 @@
 /**
  * What the catalogue's endpoints share beyond the JSON helper (../api.ts): the access check (the
  * active studio, or `?studio=` for API users in several) with the API rate limit, a write's outcome
- * as HTTP, the revision a save must carry, and the table's query string.
+ * as a value or a ServiceError, the revision a save must carry, and the table's query string.
  */
-import { json, type RequestEvent } from '@sveltejs/kit';
+import type { RequestEvent } from '@sveltejs/kit';
 import type { PartCategory } from '$lib/geometry';
 import { partCategorySchema } from '$lib/geometry';
 import { INT4_MAX } from '$lib/schemas/common';
 import { activeStudio, requireStudio, type Action } from '../access';
-import { apiLimit, badRequest, problem } from '../api';
+import { apiLimit, badRequest } from '../api';
+import { ServiceError } from '../errors';
 import { PART_SORTS, type PartQuery, type PartSort, type WriteResult } from './parts';
 
 export async function catalogAccess(
@@ -23,12 +24,26 @@ export async function catalogAccess(
 	return access;
 }
 
-/** A write's outcome as HTTP: 200/201 with the value, 400 with issues, 404, or 409 with what is stored now. */
-export function answer<T>(result: WriteResult<T>, okStatus = 200, key = 'value') {
-	if (result.ok) return json({ [key]: result.value }, { status: okStatus });
-	if (result.status === 400) return problem(400, 'Some fields need attention.', result.issues);
-	if (result.status === 404) return problem(404, 'Not found.');
-	return json({ message: result.message, conflict: result.current }, { status: 409 });
+/**
+ * A write's value, or its refusal thrown as a ServiceError for `jsonRoute` to answer: 400 with the
+ * issues, 404, or 409 with what is stored now under `conflict`.
+ */
+export function valueOf<T>(result: WriteResult<T>): T {
+	if (result.ok) return result.value;
+	if (result.status === 400) {
+		throw new ServiceError('invalid', 'Some fields need attention.', { issues: result.issues });
+	}
+	if (result.status === 404) throw notFound();
+	throw new ServiceError('conflict', result.message, { detail: { conflict: result.current } });
+}
+
+/** What the catalogue answers for an item that is not the studio's (or does not exist). */
+export const notFound = () => new ServiceError('not-found', 'Not found.');
+
+/** The item looked up, or 404 when the studio has no such item. */
+export function found<T>(item: T | null | undefined): T {
+	if (item === null || item === undefined) throw notFound();
+	return item;
 }
 
 export function revisionOf(body: Record<string, unknown>): number {

@@ -9,11 +9,9 @@ import {
 	pgTable,
 	primaryKey,
 	text,
-	timestamp,
 	uniqueIndex
 } from 'drizzle-orm/pg-core';
-
-const ts = (name: string) => timestamp(name, { withTimezone: true, mode: 'date' });
+import { createdAt, looseRef, ownerRef, ts } from './columns';
 
 export const roleEnum = pgEnum('studio_role', ['owner', 'designer', 'client']);
 
@@ -28,7 +26,7 @@ export const users = pgTable(
 		activeStudioId: text('active_studio_id'),
 		/** When the owner of the address proved it (a mailed link, an accepted invitation); null until then. */
 		emailVerifiedAt: ts('email_verified_at'),
-		createdAt: ts('created_at').notNull().defaultNow()
+		createdAt: createdAt()
 	},
 	(t) => [uniqueIndex('user_email_key').on(t.email)]
 );
@@ -38,9 +36,7 @@ export const sessions = pgTable(
 	{
 		/** SHA-256 (hex) of the token in the cookie; the token itself is never stored. */
 		id: text('id').primaryKey(),
-		userId: text('user_id')
-			.notNull()
-			.references(() => users.id, { onDelete: 'cascade' }),
+		userId: ownerRef('user_id', () => users.id),
 		expiresAt: ts('expires_at').notNull()
 	},
 	(t) => [index('session_user_idx').on(t.userId)]
@@ -49,20 +45,16 @@ export const sessions = pgTable(
 export const studios = pgTable('studio', {
 	id: text('id').primaryKey(),
 	name: text('name').notNull(),
-	createdAt: ts('created_at').notNull().defaultNow()
+	createdAt: createdAt()
 });
 
 export const memberships = pgTable(
 	'membership',
 	{
-		studioId: text('studio_id')
-			.notNull()
-			.references(() => studios.id, { onDelete: 'cascade' }),
-		userId: text('user_id')
-			.notNull()
-			.references(() => users.id, { onDelete: 'cascade' }),
+		studioId: ownerRef('studio_id', () => studios.id),
+		userId: ownerRef('user_id', () => users.id),
 		role: roleEnum('role').notNull(),
-		createdAt: ts('created_at').notNull().defaultNow()
+		createdAt: createdAt()
 	},
 	(t) => [
 		primaryKey({ columns: [t.studioId, t.userId] }),
@@ -74,18 +66,16 @@ export const invites = pgTable(
 	'invite',
 	{
 		id: text('id').primaryKey(),
-		studioId: text('studio_id')
-			.notNull()
-			.references(() => studios.id, { onDelete: 'cascade' }),
+		studioId: ownerRef('studio_id', () => studios.id),
 		email: text('email').notNull(),
 		role: roleEnum('role').notNull(),
 		/** SHA-256 of the token in the link; the token itself is never stored. */
 		tokenHash: text('token_hash').notNull(),
-		invitedBy: text('invited_by').references(() => users.id, { onDelete: 'set null' }),
+		invitedBy: looseRef('invited_by', () => users.id),
 		expiresAt: ts('expires_at').notNull(),
 		acceptedAt: ts('accepted_at'),
 		revokedAt: ts('revoked_at'),
-		createdAt: ts('created_at').notNull().defaultNow()
+		createdAt: createdAt()
 	},
 	(t) => [
 		uniqueIndex('invite_token_key').on(t.tokenHash),
@@ -93,16 +83,22 @@ export const invites = pgTable(
 	]
 );
 
+/**
+ * A mailed one-use link for one user: keyed by the SHA-256 of its token (the token itself is never
+ * stored), good until expires_at, spent once used_at is set.
+ */
+const oneUseToken = () => ({
+	tokenHash: text('token_hash').primaryKey(),
+	userId: ownerRef('user_id', () => users.id),
+	expiresAt: ts('expires_at').notNull(),
+	usedAt: ts('used_at'),
+	createdAt: createdAt()
+});
+
 export const passwordResets = pgTable(
 	'password_reset',
 	{
-		tokenHash: text('token_hash').primaryKey(),
-		userId: text('user_id')
-			.notNull()
-			.references(() => users.id, { onDelete: 'cascade' }),
-		expiresAt: ts('expires_at').notNull(),
-		usedAt: ts('used_at'),
-		createdAt: ts('created_at').notNull().defaultNow()
+		...oneUseToken()
 	},
 	(t) => [index('password_reset_user_idx').on(t.userId)]
 );
@@ -115,16 +111,10 @@ export const passwordResets = pgTable(
 export const emailVerifications = pgTable(
 	'email_verification',
 	{
-		tokenHash: text('token_hash').primaryKey(),
-		userId: text('user_id')
-			.notNull()
-			.references(() => users.id, { onDelete: 'cascade' }),
+		...oneUseToken(),
 		name: text('name').notNull(),
 		passwordHash: text('password_hash').notNull(),
-		next: text('next'),
-		expiresAt: ts('expires_at').notNull(),
-		usedAt: ts('used_at'),
-		createdAt: ts('created_at').notNull().defaultNow()
+		next: text('next')
 	},
 	(t) => [index('email_verification_user_idx').on(t.userId)]
 );
@@ -146,7 +136,7 @@ export const mailOutbox = pgTable(
 		lastError: text('last_error'),
 		notBefore: ts('not_before').notNull().defaultNow(),
 		doneAt: ts('done_at'),
-		createdAt: ts('created_at').notNull().defaultNow()
+		createdAt: createdAt()
 	},
 	(t) => [
 		index('mail_outbox_pending_idx')

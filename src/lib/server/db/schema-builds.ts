@@ -5,22 +5,18 @@ import {
 	jsonb,
 	pgTable,
 	text,
-	timestamp,
 	uniqueIndex,
 	type AnyPgColumn
 } from 'drizzle-orm/pg-core';
+import { archivable, createdAt, looseRef, ownerRef, timestamps } from './columns';
 import { studios, users } from './schema-auth';
 import { enclosureVersions } from './schema-catalog';
-
-const ts = (name: string) => timestamp(name, { withTimezone: true, mode: 'date' });
 
 export const builds = pgTable(
 	'build',
 	{
 		id: text('id').primaryKey(),
-		studioId: text('studio_id')
-			.notNull()
-			.references(() => studios.id, { onDelete: 'cascade' }),
+		studioId: ownerRef('studio_id', () => studios.id),
 		name: text('name').notNull(),
 		clientName: text('client_name').notNull().default(''),
 		notes: text('notes').notNull().default(''),
@@ -28,10 +24,8 @@ export const builds = pgTable(
 		enclosureVersionId: text('enclosure_version_id')
 			.notNull()
 			.references(() => enclosureVersions.id),
-		createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
-		archivedAt: ts('archived_at'),
-		createdAt: ts('created_at').notNull().defaultNow(),
-		updatedAt: ts('updated_at').notNull().defaultNow()
+		createdBy: looseRef('created_by', () => users.id),
+		...archivable()
 	},
 	(t) => [index('build_studio_idx').on(t.studioId)]
 );
@@ -41,9 +35,7 @@ export const variants = pgTable(
 	'variant',
 	{
 		id: text('id').primaryKey(),
-		buildId: text('build_id')
-			.notNull()
-			.references(() => builds.id, { onDelete: 'cascade' }),
+		buildId: ownerRef('build_id', () => builds.id),
 		name: text('name').notNull(),
 		sortOrder: integer('sort_order').notNull().default(0),
 		isProposal: boolean('is_proposal').notNull().default(false),
@@ -55,12 +47,8 @@ export const variants = pgTable(
 		 */
 		version: integer('version').notNull().default(1),
 		/** For a variant started from another's version ("start a new variant from it"): that version. */
-		basedOnVersionId: text('based_on_version_id').references(
-			(): AnyPgColumn => variantVersions.id,
-			{ onDelete: 'set null' }
-		),
-		createdAt: ts('created_at').notNull().defaultNow(),
-		updatedAt: ts('updated_at').notNull().defaultNow()
+		basedOnVersionId: looseRef('based_on_version_id', (): AnyPgColumn => variantVersions.id),
+		...timestamps()
 	},
 	(t) => [index('variant_build_idx').on(t.buildId)]
 );
@@ -73,14 +61,12 @@ export const variantRevisions = pgTable(
 	'variant_revision',
 	{
 		id: text('id').primaryKey(),
-		variantId: text('variant_id')
-			.notNull()
-			.references(() => variants.id, { onDelete: 'cascade' }),
+		variantId: ownerRef('variant_id', () => variants.id),
 		/** The variant's revision number after this save. */
 		revision: integer('revision').notNull(),
 		settings: jsonb('settings').notNull(),
-		createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
-		createdAt: ts('created_at').notNull().defaultNow()
+		createdBy: looseRef('created_by', () => users.id),
+		createdAt: createdAt()
 	},
 	(t) => [
 		uniqueIndex('variant_revision_key').on(t.variantId, t.revision),
@@ -96,17 +82,15 @@ export const variantVersions = pgTable(
 	'variant_version',
 	{
 		id: text('id').primaryKey(),
-		variantId: text('variant_id')
-			.notNull()
-			.references(() => variants.id, { onDelete: 'cascade' }),
+		variantId: ownerRef('variant_id', () => variants.id),
 		/** 1, 2, 3 … per variant; a variant started from another's version N continues at N + 1. */
 		number: integer('number').notNull(),
 		note: text('note').notNull().default(''),
 		settings: jsonb('settings').notNull(),
 		/** The revision it was made from. */
 		revision: integer('revision').notNull(),
-		createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
-		createdAt: ts('created_at').notNull().defaultNow()
+		createdBy: looseRef('created_by', () => users.id),
+		createdAt: createdAt()
 	},
 	(t) => [uniqueIndex('variant_version_number_key').on(t.variantId, t.number)]
 );

@@ -1,36 +1,21 @@
-import {
-	boolean,
-	index,
-	integer,
-	jsonb,
-	pgTable,
-	text,
-	timestamp,
-	uniqueIndex
-} from 'drizzle-orm/pg-core';
-import { float4 } from './columns';
+import { boolean, index, integer, jsonb, pgTable, text, uniqueIndex } from 'drizzle-orm/pg-core';
+import { archivable, createdAt, float4, looseRef, ownerRef, revision } from './columns';
 import { studios, users } from './schema-auth';
-
-const ts = (name: string) => timestamp(name, { withTimezone: true, mode: 'date' });
 
 /** An enclosure's identity; its geometry lives in versions so builds can stay pinned to one. */
 export const enclosures = pgTable(
 	'enclosure',
 	{
 		id: text('id').primaryKey(),
-		studioId: text('studio_id')
-			.notNull()
-			.references(() => studios.id, { onDelete: 'cascade' }),
+		studioId: ownerRef('studio_id', () => studios.id),
 		name: text('name').notNull(),
 		description: text('description').notNull().default(''),
 		/** Litres of inner volume of the current version, for search and sorting. */
 		volumeLitres: float4('volume_litres').notNull(),
 		currentVersion: integer('current_version').notNull().default(1),
 		/** Bumped on every save; a save that names an older revision is a conflict. */
-		revision: integer('revision').notNull().default(1),
-		archivedAt: ts('archived_at'),
-		createdAt: ts('created_at').notNull().defaultNow(),
-		updatedAt: ts('updated_at').notNull().defaultNow()
+		revision: revision(),
+		...archivable()
 	},
 	(t) => [index('enclosure_studio_idx').on(t.studioId)]
 );
@@ -39,17 +24,15 @@ export const enclosureVersions = pgTable(
 	'enclosure_version',
 	{
 		id: text('id').primaryKey(),
-		enclosureId: text('enclosure_id')
-			.notNull()
-			.references(() => enclosures.id, { onDelete: 'cascade' }),
+		enclosureId: ownerRef('enclosure_id', () => enclosures.id),
 		version: integer('version').notNull(),
 		/** The engine's EnclosureDef, validated with its zod schema before every write. */
 		definition: jsonb('definition').notNull(),
 		volumeLitres: float4('volume_litres').notNull(),
 		/** What changed in this version, in the user's words or generated from the diff. */
 		note: text('note').notNull().default(''),
-		createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
-		createdAt: ts('created_at').notNull().defaultNow()
+		createdBy: looseRef('created_by', () => users.id),
+		createdAt: createdAt()
 	},
 	(t) => [uniqueIndex('enclosure_version_key').on(t.enclosureId, t.version)]
 );
@@ -78,10 +61,8 @@ export const parts = pgTable(
 		isStandard: boolean('is_standard').notNull().default(false),
 		/** The part this one was duplicated or copied from (a standard-library entry, another part). */
 		copiedFromId: text('copied_from_id'),
-		revision: integer('revision').notNull().default(1),
-		archivedAt: ts('archived_at'),
-		createdAt: ts('created_at').notNull().defaultNow(),
-		updatedAt: ts('updated_at').notNull().defaultNow()
+		revision: revision(),
+		...archivable()
 	},
 	(t) => [
 		index('part_studio_idx').on(t.studioId, t.archivedAt),

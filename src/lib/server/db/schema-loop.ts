@@ -1,26 +1,20 @@
-import { index, integer, jsonb, pgTable, text, timestamp } from 'drizzle-orm/pg-core';
-import { float4 } from './columns';
+import { index, integer, jsonb, pgTable, text } from 'drizzle-orm/pg-core';
+import { archivable, float4, ownerRef } from './columns';
 import { studios } from './schema-auth';
-
-const ts = (name: string) => timestamp(name, { withTimezone: true, mode: 'date' });
 
 /** A studio's tube kinds for coolant loops (fittings are catalogue parts of category fitting). */
 export const tubeKinds = pgTable(
 	'tube_kind',
 	{
 		id: text('id').primaryKey(),
-		studioId: text('studio_id')
-			.notNull()
-			.references(() => studios.id, { onDelete: 'cascade' }),
+		studioId: ownerRef('studio_id', () => studios.id),
 		name: text('name').notNull(),
 		/** The engine's TubeKindDef, validated with its zod schema before every write. */
 		definition: jsonb('definition').notNull(),
 		/** Price of one metre, in the currency's minor unit; null when the studio has none. */
 		pricePerMetreMinor: integer('price_per_metre_minor'),
 		currency: text('currency').notNull().default('EUR'),
-		archivedAt: ts('archived_at'),
-		createdAt: ts('created_at').notNull().defaultNow(),
-		updatedAt: ts('updated_at').notNull().defaultNow()
+		...archivable()
 	},
 	(t) => [index('tube_kind_studio_idx').on(t.studioId)]
 );

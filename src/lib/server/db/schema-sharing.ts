@@ -11,40 +11,32 @@ import {
 	pgEnum,
 	pgTable,
 	text,
-	timestamp,
 	uniqueIndex
 } from 'drizzle-orm/pg-core';
+import { createdAt, looseRef, ownerRef, revision, timestamps, ts } from './columns';
 import { studios, users } from './schema-auth';
 import { builds, variants } from './schema-builds';
 import { parts } from './schema-catalog';
-
-const ts = (name: string) => timestamp(name, { withTimezone: true, mode: 'date' });
 
 /** One link to one variant. The token in the link is never stored, only its SHA-256. */
 export const shareLinks = pgTable(
 	'share_link',
 	{
 		id: text('id').primaryKey(),
-		studioId: text('studio_id')
-			.notNull()
-			.references(() => studios.id, { onDelete: 'cascade' }),
-		buildId: text('build_id')
-			.notNull()
-			.references(() => builds.id, { onDelete: 'cascade' }),
-		variantId: text('variant_id')
-			.notNull()
-			.references(() => variants.id, { onDelete: 'cascade' }),
+		studioId: ownerRef('studio_id', () => studios.id),
+		buildId: ownerRef('build_id', () => builds.id),
+		variantId: ownerRef('variant_id', () => variants.id),
 		tokenHash: text('token_hash').notNull(),
 		/** Lower-case; a client member of the studio with this address sees the variant in the app. */
 		recipientEmail: text('recipient_email'),
 		recipientName: text('recipient_name').notNull().default(''),
-		createdBy: text('created_by').references(() => users.id, { onDelete: 'set null' }),
+		createdBy: looseRef('created_by', () => users.id),
 		expiresAt: ts('expires_at'),
 		revokedAt: ts('revoked_at'),
 		sentAt: ts('sent_at'),
 		lastOpenedAt: ts('last_opened_at'),
 		openCount: integer('open_count').notNull().default(0),
-		createdAt: ts('created_at').notNull().defaultNow()
+		createdAt: createdAt()
 	},
 	(t) => [
 		uniqueIndex('share_link_token_key').on(t.tokenHash),
@@ -60,12 +52,8 @@ export const comments = pgTable(
 	'build_comment',
 	{
 		id: text('id').primaryKey(),
-		buildId: text('build_id')
-			.notNull()
-			.references(() => builds.id, { onDelete: 'cascade' }),
-		variantId: text('variant_id')
-			.notNull()
-			.references(() => variants.id, { onDelete: 'cascade' }),
+		buildId: ownerRef('build_id', () => builds.id),
+		variantId: ownerRef('variant_id', () => variants.id),
 		/** The variant's version the writer was looking at. */
 		variantVersion: integer('variant_version').notNull(),
 		kind: commentKind('kind').notNull().default('comment'),
@@ -74,12 +62,12 @@ export const comments = pgTable(
 		/** The part's name when written, so the comment reads the same after the part is moved out. */
 		partLabel: text('part_label'),
 		body: text('body').notNull(),
-		authorUserId: text('author_user_id').references(() => users.id, { onDelete: 'set null' }),
-		shareLinkId: text('share_link_id').references(() => shareLinks.id, { onDelete: 'set null' }),
+		authorUserId: looseRef('author_user_id', () => users.id),
+		shareLinkId: looseRef('share_link_id', () => shareLinks.id),
 		authorName: text('author_name').notNull(),
 		/** 'studio' for owners and designers, 'client' for clients and link holders. */
 		authorSide: text('author_side').notNull(),
-		createdAt: ts('created_at').notNull().defaultNow()
+		createdAt: createdAt()
 	},
 	(t) => [
 		index('build_comment_variant_idx').on(t.variantId, t.createdAt),
@@ -96,22 +84,16 @@ export const approvals = pgTable(
 	'variant_approval',
 	{
 		id: text('id').primaryKey(),
-		buildId: text('build_id')
-			.notNull()
-			.references(() => builds.id, { onDelete: 'cascade' }),
-		variantId: text('variant_id')
-			.notNull()
-			.references(() => variants.id, { onDelete: 'cascade' }),
+		buildId: ownerRef('build_id', () => builds.id),
+		variantId: ownerRef('variant_id', () => variants.id),
 		variantVersion: integer('variant_version').notNull(),
 		/** The composed engine scene (enclosure, parts, settings) of that version. */
 		scene: jsonb('scene').notNull(),
-		commentId: text('comment_id').references(() => comments.id, { onDelete: 'set null' }),
-		byUserId: text('by_user_id').references(() => users.id, { onDelete: 'set null' }),
-		byShareLinkId: text('by_share_link_id').references(() => shareLinks.id, {
-			onDelete: 'set null'
-		}),
+		commentId: looseRef('comment_id', () => comments.id),
+		byUserId: looseRef('by_user_id', () => users.id),
+		byShareLinkId: looseRef('by_share_link_id', () => shareLinks.id),
 		byName: text('by_name').notNull(),
-		createdAt: ts('created_at').notNull().defaultNow()
+		createdAt: createdAt()
 	},
 	(t) => [uniqueIndex('variant_approval_version_key').on(t.variantId, t.variantVersion)]
 );
@@ -124,15 +106,9 @@ export const quotes = pgTable(
 	'quote',
 	{
 		id: text('id').primaryKey(),
-		studioId: text('studio_id')
-			.notNull()
-			.references(() => studios.id, { onDelete: 'cascade' }),
-		buildId: text('build_id')
-			.notNull()
-			.references(() => builds.id, { onDelete: 'cascade' }),
-		variantId: text('variant_id')
-			.notNull()
-			.references(() => variants.id, { onDelete: 'cascade' }),
+		studioId: ownerRef('studio_id', () => studios.id),
+		buildId: ownerRef('build_id', () => builds.id),
+		variantId: ownerRef('variant_id', () => variants.id),
 		currency: text('currency').notNull().default('EUR'),
 		labourMinor: integer('labour_minor').notNull().default(0),
 		labourNote: text('labour_note').notNull().default('Assembly, leak test and cable work'),
@@ -144,9 +120,8 @@ export const quotes = pgTable(
 		notes: text('notes').notNull().default(''),
 		status: quoteStatus('status').notNull().default('draft'),
 		sentAt: ts('sent_at'),
-		revision: integer('revision').notNull().default(1),
-		createdAt: ts('created_at').notNull().defaultNow(),
-		updatedAt: ts('updated_at').notNull().defaultNow()
+		revision: revision(),
+		...timestamps()
 	},
 	(t) => [
 		uniqueIndex('quote_variant_key').on(t.variantId),
@@ -165,18 +140,16 @@ export const quoteLines = pgTable(
 	'quote_line',
 	{
 		id: text('id').primaryKey(),
-		quoteId: text('quote_id')
-			.notNull()
-			.references(() => quotes.id, { onDelete: 'cascade' }),
+		quoteId: ownerRef('quote_id', () => quotes.id),
 		sortOrder: integer('sort_order').notNull(),
-		partId: text('part_id').references(() => parts.id, { onDelete: 'set null' }),
+		partId: looseRef('part_id', () => parts.id),
 		description: text('description').notNull(),
 		quantity: integer('quantity').notNull(),
 		/** Null while the catalogue has no price in the quote's currency and nobody entered one. */
 		unitPriceMinor: integer('unit_price_minor'),
 		/** Lines of the coolant loop's group: `tube:<tube kind id>`, `fitting:<part id|plug>:<thread>`. */
 		loopKey: text('loop_key'),
-		createdAt: ts('created_at').notNull().defaultNow()
+		createdAt: createdAt()
 	},
 	(t) => [
 		index('quote_line_quote_idx').on(t.quoteId, t.sortOrder),
@@ -212,26 +185,20 @@ export const payments = pgTable(
 		quoteId: text('quote_id')
 			.notNull()
 			.references(() => quotes.id, { onDelete: 'restrict' }),
-		buildId: text('build_id')
-			.notNull()
-			.references(() => builds.id, { onDelete: 'cascade' }),
-		variantId: text('variant_id')
-			.notNull()
-			.references(() => variants.id, { onDelete: 'cascade' }),
+		buildId: ownerRef('build_id', () => builds.id),
+		variantId: ownerRef('variant_id', () => variants.id),
 		amountMinor: integer('amount_minor').notNull(),
 		currency: text('currency').notNull(),
 		checkoutSessionId: text('checkout_session_id'),
 		checkoutUrl: text('checkout_url'),
 		status: paymentStatus('status').notNull().default('pending'),
 		paidAt: ts('paid_at'),
-		payerShareLinkId: text('payer_share_link_id').references(() => shareLinks.id, {
-			onDelete: 'set null'
-		}),
-		payerUserId: text('payer_user_id').references(() => users.id, { onDelete: 'set null' }),
+		payerShareLinkId: looseRef('payer_share_link_id', () => shareLinks.id),
+		payerUserId: looseRef('payer_user_id', () => users.id),
 		/** The service's refund of a duplicate payment. */
 		refundId: text('refund_id'),
 		refundedAt: ts('refunded_at'),
-		createdAt: ts('created_at').notNull().defaultNow()
+		createdAt: createdAt()
 	},
 	(t) => [
 		uniqueIndex('payment_session_key').on(t.checkoutSessionId),
@@ -256,9 +223,7 @@ export const photos = pgTable(
 	'photo',
 	{
 		id: text('id').primaryKey(),
-		buildId: text('build_id')
-			.notNull()
-			.references(() => builds.id, { onDelete: 'cascade' }),
+		buildId: ownerRef('build_id', () => builds.id),
 		storageKey: text('storage_key').notNull(),
 		thumbKey: text('thumb_key').notNull(),
 		mime: text('mime').notNull(),
@@ -266,8 +231,8 @@ export const photos = pgTable(
 		width: integer('width').notNull(),
 		height: integer('height').notNull(),
 		caption: text('caption').notNull().default(''),
-		uploadedBy: text('uploaded_by').references(() => users.id, { onDelete: 'set null' }),
-		createdAt: ts('created_at').notNull().defaultNow()
+		uploadedBy: looseRef('uploaded_by', () => users.id),
+		createdAt: createdAt()
 	},
 	(t) => [
 		index('photo_build_idx').on(t.buildId, t.createdAt),

@@ -1,9 +1,8 @@
 /** The build sheet: the checklist ticks a builder sets at the bench, per build variant. */
-import { index, integer, pgTable, primaryKey, text, timestamp } from 'drizzle-orm/pg-core';
+import { index, integer, pgTable, primaryKey, text } from 'drizzle-orm/pg-core';
+import { looseRef, ownerRef, ts } from './columns';
 import { users } from './schema-auth';
 import { builds, variants } from './schema-builds';
-
-const ts = (name: string) => timestamp(name, { withTimezone: true, mode: 'date' });
 
 /**
  * One ticked checklist item. Keys come from the sheet (`part:<placementId>`, `caution:leak-test`);
@@ -12,16 +11,12 @@ const ts = (name: string) => timestamp(name, { withTimezone: true, mode: 'date' 
 export const checklistTicks = pgTable(
 	'checklist_tick',
 	{
-		variantId: text('variant_id')
-			.notNull()
-			.references(() => variants.id, { onDelete: 'cascade' }),
+		variantId: ownerRef('variant_id', () => variants.id),
 		itemKey: text('item_key').notNull(),
-		buildId: text('build_id')
-			.notNull()
-			.references(() => builds.id, { onDelete: 'cascade' }),
+		buildId: ownerRef('build_id', () => builds.id),
 		/** The variant's version when ticked: the sheet notes ticks made before a later change. */
 		variantVersion: integer('variant_version').notNull(),
-		tickedBy: text('ticked_by').references(() => users.id, { onDelete: 'set null' }),
+		tickedBy: looseRef('ticked_by', () => users.id),
 		tickedAt: ts('ticked_at').notNull().defaultNow()
 	},
 	(t) => [

@@ -68,6 +68,16 @@ export async function notifyClient(input: {
 	});
 }
 
+/** Who made the link the client paid through (they hear about its payments); null without one. */
+async function linkCreator(linkId: string | null): Promise<string | null> {
+	if (!linkId) return null;
+	const [l] = await db
+		.select({ createdBy: shareLinks.createdBy })
+		.from(shareLinks)
+		.where(eq(shareLinks.id, linkId));
+	return l?.createdBy ?? null;
+}
+
 /** The studio hears once per deposit: called only by whichever path actually marked it paid. */
 export async function notifyDepositPaid(payment: {
 	buildId: string;
@@ -78,14 +88,7 @@ export async function notifyDepositPaid(payment: {
 }) {
 	const [build] = await db.select().from(builds).where(eq(builds.id, payment.buildId));
 	if (!build) return;
-	let linkCreatedBy: string | null = null;
-	if (payment.payerShareLinkId) {
-		const [l] = await db
-			.select({ createdBy: shareLinks.createdBy })
-			.from(shareLinks)
-			.where(eq(shareLinks.id, payment.payerShareLinkId));
-		linkCreatedBy = l?.createdBy ?? null;
-	}
+	const linkCreatedBy = await linkCreator(payment.payerShareLinkId);
 	try {
 		await notifyStudio({
 			buildId: build.id,
@@ -116,14 +119,7 @@ export async function notifyPaidTwice(
 ) {
 	const [build] = await db.select().from(builds).where(eq(builds.id, payment.buildId));
 	if (!build) return;
-	let linkCreatedBy: string | null = null;
-	if (payment.payerShareLinkId) {
-		const [l] = await db
-			.select({ createdBy: shareLinks.createdBy })
-			.from(shareLinks)
-			.where(eq(shareLinks.id, payment.payerShareLinkId));
-		linkCreatedBy = l?.createdBy ?? null;
-	}
+	const linkCreatedBy = await linkCreator(payment.payerShareLinkId);
 	const amount = formatMoney(payment.amountMinor, payment.currency);
 	try {
 		await notifyStudio({

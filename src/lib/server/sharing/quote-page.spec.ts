@@ -10,7 +10,7 @@ import { db } from '../db';
 import { parts, payments, quoteLines, quotes } from '../db/schema';
 import { studioWithMembers } from '../testing/factories';
 import { useApp } from '../testing/suite';
-import { demoBuild } from '../testing/sharing';
+import { demoBuild, quoteFormFields } from '../testing/sharing';
 
 const app = useApp();
 
@@ -54,34 +54,16 @@ describe('the quote page', () => {
 		const { b, c, page } = await setUp();
 		expect((await c.action(`${page}?/create`, {})).type).toBe('success');
 		const [before] = await db.select().from(quotes).where(eq(quotes.variantId, b.variantId));
-		const res = await c.action(`${page}?/save`, {
-			currency: 'QQQ',
-			labour: '150',
-			labourNote: 'Assembly',
-			tax: '20',
-			depositKind: 'percent',
-			depositValue: '30',
-			notes: ''
-		});
+		const res = await c.action(`${page}?/save`, quoteFormFields({ currency: 'QQQ' }));
 		expect(res.type).toBe('failure');
 		expect(res.status).toBe(400);
 		expect(res.data.errors.currency).toBe('Use an ISO 4217 currency code such as EUR, GBP or USD.');
 		const [after] = await db.select().from(quotes).where(eq(quotes.id, before.id));
 		expect(after).toEqual(before);
 		// An assigned code is taken.
-		expect(
-			(
-				await c.action(`${page}?/save`, {
-					currency: 'GBP',
-					labour: '150',
-					labourNote: 'Assembly',
-					tax: '20',
-					depositKind: 'percent',
-					depositValue: '30',
-					notes: ''
-				})
-			).type
-		).toBe('success');
+		expect((await c.action(`${page}?/save`, quoteFormFields({ currency: 'GBP' }))).type).toBe(
+			'success'
+		);
 		expect((await db.select().from(quotes).where(eq(quotes.id, before.id)))[0].currency).toBe(
 			'GBP'
 		);

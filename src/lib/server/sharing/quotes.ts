@@ -3,6 +3,7 @@ import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import { variantSettingsSchema } from '$lib/builds/settings';
 import { isCurrencyCode } from '$lib/quotes/money';
 import { quoteTotals, type QuoteTotals } from '$lib/quotes/quote-math';
+import type { QuoteFields } from '$lib/schemas/quotes';
 import { db, type Tx } from '../db';
 import {
 	parts,
@@ -154,23 +155,8 @@ async function assertEditable(tx: Tx, quoteId: string) {
 	if (paid.length) throw new QuoteLocked();
 }
 
-export type QuoteUpdate = {
-	currency: string;
-	labourMinor: number;
-	labourNote: string;
-	taxRateBp: number;
-	depositKind: 'amount' | 'percent';
-	depositValue: number;
-	notes: string;
-	lines: {
-		id: string;
-		description: string;
-		quantity: number;
-		unitPriceMinor: number | null;
-		remove: boolean;
-	}[];
-	added: LineDraft[];
-};
+/** The quote form's fields (the same shape), with added lines that may name a catalogue part. */
+export type QuoteUpdate = Omit<QuoteFields, 'added'> & { added: LineDraft[] };
 
 /** Saves the designer's edits; lines not belonging to this quote are ignored. */
 export async function updateQuote(quoteId: string, input: QuoteUpdate) {

@@ -6,6 +6,7 @@
  */
 import { demoSceneInput } from '$lib/geometry/standard-library';
 import { SIGN_IN, type MatrixFixture, type MatrixRow } from './access-matrix';
+import { studioOnly } from './matrix-rows';
 import { variantsOf } from '../builds';
 import { buildCount, demoBuildIn, demoEnclosureIn, storedVariant } from './builds';
 import { demoLoopBackRun } from './engine-factories';
@@ -19,13 +20,7 @@ async function withBuild(f: MatrixFixture) {
 	f.vars.settings = JSON.stringify(b.settings);
 }
 
-const editors = (ok: number): MatrixRow['expect'] => ({
-	owner: ok,
-	designer: ok,
-	client: 403,
-	outsider: 404,
-	anonymous: 401
-});
+const editors = (ok: number) => studioOnly(ok, 404, 401);
 const anyoneSignedIn = (ok: number): MatrixRow['expect'] => ({
 	owner: ok,
 	designer: ok,

@@ -9,8 +9,31 @@ import { variantSettingsSchema, type VariantSettings } from '$lib/builds/setting
 import { createBuild, saveVariantSettings, variantsOf } from '../builds';
 import { createEnclosure } from '../catalog/enclosures';
 import { createPart } from '../catalog/parts';
-import { db } from '../db';
-import { builds, variants } from '../db/schema';
+import { innerVolumeLitres } from '$lib/geometry/enclosure';
+import type { EnclosureDef } from '$lib/geometry/schema';
+import { db, type Tx } from '../db';
+import { builds, enclosureVersions, enclosures, variants } from '../db/schema';
+
+/** Writes an enclosure and its version 1 straight to the tables, for fixtures that pick their ids. */
+export async function insertEnclosure(
+	run: Tx | typeof db,
+	row: { enclosureId: string; versionId: string; studioId: string; definition: EnclosureDef }
+) {
+	const volumeLitres = innerVolumeLitres(row.definition);
+	await run.insert(enclosures).values({
+		id: row.enclosureId,
+		studioId: row.studioId,
+		name: row.definition.name,
+		volumeLitres
+	});
+	await run.insert(enclosureVersions).values({
+		id: row.versionId,
+		enclosureId: row.enclosureId,
+		version: 1,
+		definition: row.definition,
+		volumeLitres
+	});
+}
 
 export type TestBuild = {
 	studioId: string;

@@ -4,35 +4,18 @@
  * client gets 403; an outsider (owner of another studio) works in their own studio, so lists answer
  * 200 and this studio's items 404; anonymous visitors go to sign-in (pages) or get 401 (API).
  */
-import { and, count, eq, isNotNull } from 'drizzle-orm';
+import { and, eq, isNotNull } from 'drizzle-orm';
 import { demoEnclosure } from '$lib/geometry/standard-library';
 import { db } from '../db';
 import { enclosures, parts } from '../db/schema';
-import {
-	SIGN_IN,
-	type Expected,
-	type MatrixFixture,
-	type MatrixRow,
-	type Visitor
-} from './access-matrix';
+import type { Expected, MatrixFixture, MatrixRow } from './access-matrix';
+import { EDITORS, about, countRows, studioOnly } from './matrix-rows';
 import { createEnclosure } from '../catalog/enclosures';
 import { createPart } from '../catalog/parts';
 
-type Cell = Expected;
-const catalogue = (
-	member: Cell,
-	outsider: Cell,
-	anonymous: Cell = SIGN_IN
-): MatrixRow['expect'] => ({
-	owner: member,
-	designer: member,
-	client: 403,
-	outsider,
-	anonymous
-});
-const api = (member: Cell, outsider: Cell) => catalogue(member, outsider, 401);
+const catalogue = studioOnly;
+const api = (member: Expected, outsider: Expected) => studioOnly(member, outsider, 401);
 const redirectTo = (location: RegExp): Expected => ({ status: 303, location });
-const editors: Visitor[] = ['owner', 'designer'];
 
 export const testPart = (name = 'Matrix pump') => ({
 	name,
@@ -53,18 +36,14 @@ async function withPart(f: MatrixFixture) {
 	f.vars.part = made.value.id;
 }
 
-const enclosureCount = async (f: MatrixFixture) =>
-	(await db.select({ n: count() }).from(enclosures).where(eq(enclosures.studioId, f.studio.id)))[0]
-		.n;
-const partCount = async (f: MatrixFixture) =>
-	(await db.select({ n: count() }).from(parts).where(eq(parts.studioId, f.studio.id)))[0].n;
+const ofEnclosure = about(withEnclosure, { id: 'enclosure', versionId: 'version' });
+const ofPart = about(withPart, { id: 'part' });
+
+const enclosureCount = (f: MatrixFixture) =>
+	countRows(enclosures, eq(enclosures.studioId, f.studio.id));
+const partCount = (f: MatrixFixture) => countRows(parts, eq(parts.studioId, f.studio.id));
 const partArchived = async (f: MatrixFixture) =>
-	(
-		await db
-			.select()
-			.from(parts)
-			.where(and(eq(parts.id, f.vars.part), isNotNull(parts.archivedAt)))
-	).length === 1;
+	(await countRows(parts, and(eq(parts.id, f.vars.part), isNotNull(parts.archivedAt)))) === 1;
 const enclosureRevision = async (f: MatrixFixture) =>
 	(
 		await db
@@ -121,68 +100,52 @@ export const catalogRows: MatrixRow[] = [
 		action: 'save',
 		form: () => enclosureFields(),
 		expect: catalogue(redirectTo(/^\/enclosures\/\w+\?saved=1$/), redirectTo(/^\/enclosures\//)),
-		changes: { by: editors, check: async (f) => (await enclosureCount(f)) === 1 }
+		changes: { by: EDITORS, check: async (f) => (await enclosureCount(f)) === 1 }
 	},
-	{
-		route: '/enclosures/[id]',
-		method: 'GET',
-		setup: withEnclosure,
-		path: (f) => `/enclosures/${f.vars.enclosure}`,
-		expect: catalogue(200, 404)
-	},
-	{
+	ofEnclosure({ route: '/enclosures/[id]', method: 'GET', expect: catalogue(200, 404) }),
+	ofEnclosure({
 		route: '/enclosures/[id]',
 		method: 'POST',
 		action: 'save',
-		setup: withEnclosure,
-		path: (f) => `/enclosures/${f.vars.enclosure}?/save`,
 		form: () => enclosureFields(1, 'Matrix box, saved'),
 		expect: catalogue(redirectTo(/^\/enclosures\/\w+\?saved=1$/), 404),
-		changes: { by: editors, check: async (f) => (await enclosureRevision(f)) === 2 }
-	},
-	...(['archive', 'restore', 'duplicate'] as const).map((action): MatrixRow => ({
-		route: '/enclosures/[id]',
+		changes: { by: EDITORS, check: async (f) => (await enclosureRevision(f)) === 2 }
+	}),
+	...(['archive', 'restore', 'duplicate'] as const).map((action) =>
+		ofEnclosure({
+			route: '/enclosures/[id]',
+			method: 'POST',
+			action,
+			expect: catalogue(redirectTo(/^\/enclosures\/\w+$/), 404),
+			changes: {
+				by: EDITORS,
+				check: async (f) =>
+					action === 'duplicate'
+						? (await enclosureCount(f)) === 2
+						: (await enclosureRevision(f)) === 2
+			}
+		})
+	),
+	{ route: '/parts', method: 'GET', expect: catalogue(200, 200) },
+	...(
+		[
+			[
+				'duplicate',
+				redirectTo(/^\/parts\/\w+\?copied=1$/),
+				async (f) => (await partCount(f)) === 2
+			],
+			['archive', 200, partArchived],
+			['restore', 200, async (f) => (await partRevision(f)) === 2]
+		] satisfies [string, Expected, (f: MatrixFixture) => Promise<boolean>][]
+	).map(([action, ok, check]): MatrixRow => ({
+		route: '/parts',
 		method: 'POST',
 		action,
-		setup: withEnclosure,
-		path: (f) => `/enclosures/${f.vars.enclosure}?/${action}`,
-		expect: catalogue(redirectTo(/^\/enclosures\/\w+$/), 404),
-		changes: {
-			by: editors,
-			check: async (f) =>
-				action === 'duplicate'
-					? (await enclosureCount(f)) === 2
-					: (await enclosureRevision(f)) === 2
-		}
+		setup: withPart,
+		form: (f) => ({ id: f.vars.part }),
+		expect: catalogue(ok, 404),
+		changes: { by: EDITORS, check }
 	})),
-	{ route: '/parts', method: 'GET', expect: catalogue(200, 200) },
-	{
-		route: '/parts',
-		method: 'POST',
-		action: 'duplicate',
-		setup: withPart,
-		form: (f) => ({ id: f.vars.part }),
-		expect: catalogue(redirectTo(/^\/parts\/\w+\?copied=1$/), 404),
-		changes: { by: editors, check: async (f) => (await partCount(f)) === 2 }
-	},
-	{
-		route: '/parts',
-		method: 'POST',
-		action: 'archive',
-		setup: withPart,
-		form: (f) => ({ id: f.vars.part }),
-		expect: catalogue(200, 404),
-		changes: { by: editors, check: partArchived }
-	},
-	{
-		route: '/parts',
-		method: 'POST',
-		action: 'restore',
-		setup: withPart,
-		form: (f) => ({ id: f.vars.part }),
-		expect: catalogue(200, 404),
-		changes: { by: editors, check: async (f) => (await partRevision(f)) === 2 }
-	},
 	{ route: '/parts/new', method: 'GET', expect: catalogue(200, 200) },
 	{
 		route: '/parts/new',
@@ -190,51 +153,43 @@ export const catalogRows: MatrixRow[] = [
 		action: 'save',
 		form: () => partFields(),
 		expect: catalogue(redirectTo(/^\/parts\/\w+\?saved=1$/), redirectTo(/^\/parts\//)),
-		changes: { by: editors, check: async (f) => (await partCount(f)) === 1 }
+		changes: { by: EDITORS, check: async (f) => (await partCount(f)) === 1 }
 	},
-	{
-		route: '/parts/[id]',
-		method: 'GET',
-		setup: withPart,
-		path: (f) => `/parts/${f.vars.part}`,
-		expect: catalogue(200, 404)
-	},
-	{
+	ofPart({ route: '/parts/[id]', method: 'GET', expect: catalogue(200, 404) }),
+	ofPart({
 		route: '/parts/[id]',
 		method: 'POST',
 		action: 'save',
-		setup: withPart,
-		path: (f) => `/parts/${f.vars.part}?/save`,
 		form: () => partFields(1, 'Matrix fan, saved'),
 		expect: catalogue(redirectTo(/^\/parts\/\w+\?saved=1$/), 404),
-		changes: { by: editors, check: async (f) => (await partRevision(f)) === 2 }
-	},
-	...(['duplicate', 'archive', 'restore', 'delete'] as const).map((action): MatrixRow => ({
-		route: '/parts/[id]',
-		method: 'POST',
-		action,
-		setup: withPart,
-		path: (f) => `/parts/${f.vars.part}?/${action}`,
-		expect: catalogue(
-			redirectTo(
-				action === 'delete'
-					? /^\/parts$/
-					: action === 'duplicate'
-						? /^\/parts\/\w+\?copied=1$/
-						: /^\/parts\/\w+$/
+		changes: { by: EDITORS, check: async (f) => (await partRevision(f)) === 2 }
+	}),
+	...(['duplicate', 'archive', 'restore', 'delete'] as const).map((action) =>
+		ofPart({
+			route: '/parts/[id]',
+			method: 'POST',
+			action,
+			expect: catalogue(
+				redirectTo(
+					action === 'delete'
+						? /^\/parts$/
+						: action === 'duplicate'
+							? /^\/parts\/\w+\?copied=1$/
+							: /^\/parts\/\w+$/
+				),
+				404
 			),
-			404
-		),
-		changes: {
-			by: editors,
-			check: async (f) =>
-				action === 'duplicate'
-					? (await partCount(f)) === 2
-					: action === 'delete'
-						? (await partCount(f)) === 0
-						: (await partRevision(f)) === 2
-		}
-	})),
+			changes: {
+				by: EDITORS,
+				check: async (f) =>
+					action === 'duplicate'
+						? (await partCount(f)) === 2
+						: action === 'delete'
+							? (await partCount(f)) === 0
+							: (await partRevision(f)) === 2
+			}
+		})
+	),
 	{ route: '/parts/import', method: 'GET', expect: catalogue(200, 200) },
 	// No file: the members get the form back with a message; nothing is written.
 	{ route: '/parts/import', method: 'POST', action: 'preview', expect: catalogue(400, 400) },
@@ -244,7 +199,7 @@ export const catalogRows: MatrixRow[] = [
 		action: 'commit',
 		form: () => ({ csv: CSV }),
 		expect: catalogue(200, 200),
-		changes: { by: editors, check: async (f) => (await partCount(f)) === 1 }
+		changes: { by: EDITORS, check: async (f) => (await partCount(f)) === 1 }
 	},
 	{ route: '/parts/export', method: 'GET', expect: catalogue(200, 200) },
 
@@ -255,82 +210,58 @@ export const catalogRows: MatrixRow[] = [
 		method: 'POST',
 		json: () => ({ definition: demoEnclosure() }),
 		expect: api(201, 201),
-		changes: { by: editors, check: async (f) => (await enclosureCount(f)) === 1 }
+		changes: { by: EDITORS, check: async (f) => (await enclosureCount(f)) === 1 }
 	},
-	{
-		route: '/api/enclosures/[id]',
-		method: 'GET',
-		setup: withEnclosure,
-		path: (f) => `/api/enclosures/${f.vars.enclosure}`,
-		expect: api(200, 404)
-	},
-	{
+	ofEnclosure({ route: '/api/enclosures/[id]', method: 'GET', expect: api(200, 404) }),
+	ofEnclosure({
 		route: '/api/enclosures/[id]',
 		method: 'PUT',
-		setup: withEnclosure,
-		path: (f) => `/api/enclosures/${f.vars.enclosure}`,
 		json: () => ({ revision: 1, definition: { ...demoEnclosure(), name: 'Renamed' } }),
 		expect: api(200, 404),
-		changes: { by: editors, check: async (f) => (await enclosureRevision(f)) === 2 }
-	},
-	{
+		changes: { by: EDITORS, check: async (f) => (await enclosureRevision(f)) === 2 }
+	}),
+	ofEnclosure({
 		route: '/api/enclosures/[id]',
 		method: 'PATCH',
-		setup: withEnclosure,
-		path: (f) => `/api/enclosures/${f.vars.enclosure}`,
 		json: () => ({ archived: true }),
 		expect: api(200, 404),
-		changes: { by: editors, check: async (f) => (await enclosureRevision(f)) === 2 }
-	},
-	{
+		changes: { by: EDITORS, check: async (f) => (await enclosureRevision(f)) === 2 }
+	}),
+	ofEnclosure({
 		route: '/api/enclosures/[id]/versions/[versionId]',
 		method: 'GET',
-		setup: withEnclosure,
-		path: (f) => `/api/enclosures/${f.vars.enclosure}/versions/${f.vars.version}`,
 		expect: api(200, 404)
-	},
+	}),
 	{ route: '/api/parts', method: 'GET', expect: api(200, 200) },
 	{
 		route: '/api/parts',
 		method: 'POST',
 		json: () => testPart(),
 		expect: api(201, 201),
-		changes: { by: editors, check: async (f) => (await partCount(f)) === 1 }
+		changes: { by: EDITORS, check: async (f) => (await partCount(f)) === 1 }
 	},
-	{
-		route: '/api/parts/[id]',
-		method: 'GET',
-		setup: withPart,
-		path: (f) => `/api/parts/${f.vars.part}`,
-		expect: api(200, 404)
-	},
-	{
+	ofPart({ route: '/api/parts/[id]', method: 'GET', expect: api(200, 404) }),
+	ofPart({
 		route: '/api/parts/[id]',
 		method: 'PUT',
-		setup: withPart,
-		path: (f) => `/api/parts/${f.vars.part}`,
 		json: () => ({ revision: 1, ...testPart('Matrix pump, saved') }),
 		expect: api(200, 404),
-		changes: { by: editors, check: async (f) => (await partRevision(f)) === 2 }
-	},
-	{
+		changes: { by: EDITORS, check: async (f) => (await partRevision(f)) === 2 }
+	}),
+	ofPart({
 		route: '/api/parts/[id]',
 		method: 'PATCH',
-		setup: withPart,
-		path: (f) => `/api/parts/${f.vars.part}`,
 		json: () => ({ archived: true }),
 		expect: api(200, 404),
-		changes: { by: editors, check: partArchived }
-	},
-	{
+		changes: { by: EDITORS, check: partArchived }
+	}),
+	ofPart({
 		route: '/api/parts/[id]',
 		method: 'DELETE',
-		setup: withPart,
-		path: (f) => `/api/parts/${f.vars.part}`,
 		json: () => ({}),
 		expect: api(204, 404),
-		changes: { by: editors, check: async (f) => (await partCount(f)) === 0 }
-	},
+		changes: { by: EDITORS, check: async (f) => (await partCount(f)) === 0 }
+	}),
 	{ route: '/api/parts/export', method: 'GET', expect: api(200, 200) },
 	// The matrix sends JSON; the endpoint takes text/csv, so members who pass the check get 415.
 	{ route: '/api/parts/import', method: 'POST', json: () => ({}), expect: api(415, 415) }

@@ -6,7 +6,7 @@
  * The link is the key on /s/[token]: everyone holding it (owner, designer, client, the outsider,
  * anonymous) gets the page; everyone holding a revoked one gets 410.
  */
-import { and, count, eq, isNotNull } from 'drizzle-orm';
+import { and, eq, isNotNull } from 'drizzle-orm';
 import sharp from 'sharp';
 import { db } from '../db';
 import { comments, photos, quotes, shareLinks, variants } from '../db/schema';
@@ -15,20 +15,11 @@ import { SIGN_IN, type MatrixFixture, type MatrixRow, type Visitor } from './acc
 import { newId } from '../tokens';
 import { createShareLink, revokeShareLink } from '../sharing/links';
 import { addPhoto } from '../sharing/photos';
-import { demoBuild } from './sharing';
+import { demoBuild, quoteFormFields } from './sharing';
+import { EDITORS, about, countRows, everyone, studioOnly } from './matrix-rows';
 import { photoRef } from '../sharing/view';
 
-const all = (e: MatrixRow['expect']['owner']): MatrixRow['expect'] => ({
-	owner: e,
-	designer: e,
-	client: e,
-	outsider: e,
-	anonymous: e
-});
-const studioOnly = (
-	ok: MatrixRow['expect']['owner'],
-	anonymous: MatrixRow['expect']['owner'] = SIGN_IN
-): MatrixRow['expect'] => ({ owner: ok, designer: ok, client: 403, outsider: 404, anonymous });
+const all = everyone;
 const EVERYONE: Visitor[] = ['owner', 'designer', 'client', 'outsider', 'anonymous'];
 
 let tinyPng: Promise<Buffer> | undefined;
@@ -81,12 +72,10 @@ async function shared(f: MatrixFixture) {
 	});
 }
 
-const commentCount = async (f: MatrixFixture) =>
-	(await db.select({ n: count() }).from(comments).where(eq(comments.buildId, f.vars.buildId)))[0].n;
-const linkCount = async (f: MatrixFixture) =>
-	(
-		await db.select({ n: count() }).from(shareLinks).where(eq(shareLinks.buildId, f.vars.buildId))
-	)[0].n;
+const commentCount = (f: MatrixFixture) =>
+	countRows(comments, eq(comments.buildId, f.vars.buildId));
+const linkCount = (f: MatrixFixture) =>
+	countRows(shareLinks, eq(shareLinks.buildId, f.vars.buildId));
 const commented = { by: EVERYONE, check: async (f: MatrixFixture) => (await commentCount(f)) > 0 };
 const nothingCommented = {
 	by: [] as Visitor[],
@@ -96,6 +85,7 @@ const nothingCommented = {
 const link = (f: MatrixFixture) => `/s/${f.vars.token}`;
 const revoked = (f: MatrixFixture) => `/s/${f.vars.revokedToken}`;
 const member = (f: MatrixFixture) => `/s/v/${f.vars.variantId}`;
+const ofBuild = about(shared, { id: 'buildId', variantId: 'variantId' });
 const build = (f: MatrixFixture) => `/builds/${f.vars.buildId}`;
 
 const commentForm = () => ({
@@ -105,6 +95,45 @@ const commentForm = () => ({
 });
 const approveForm = () => ({ version: 1, message: '' });
 const changesForm = () => ({ version: 1, message: 'A larger radiator, please.' });
+
+type ClientAction = 'comment' | 'approve' | 'changes';
+
+/**
+ * One client action posted by everyone holding the live link (done, a comment row written) and by
+ * everyone holding the revoked one (410, nothing written).
+ */
+const linkActions = (action: ClientAction, form: () => Fields): MatrixRow[] =>
+	[
+		{ path: link, expect: all(200), changes: commented },
+		{ path: revoked, expect: all(410), changes: nothingCommented }
+	].map(({ path, expect, changes }) => ({
+		route: '/s/[token]',
+		method: 'POST',
+		action,
+		path: (f) => `${path(f)}?/${action}`,
+		form,
+		setup: shared,
+		expect,
+		showsStudioToLinkHolders: true,
+		changes
+	}));
+
+/** One client action on the in-app client page; `designer` is what a designer gets. */
+const memberAction = (
+	action: ClientAction,
+	form: () => Fields,
+	designer: 200 | 403,
+	by: Visitor[]
+): MatrixRow => ({
+	route: '/s/v/[variantId]',
+	method: 'POST',
+	action,
+	path: (f) => `${member(f)}?/${action}`,
+	form,
+	setup: shared,
+	expect: { owner: 200, designer, client: 200, outsider: 404, anonymous: SIGN_IN },
+	changes: { by, check: async (f) => (await commentCount(f)) > 0 }
+});
 
 function uploadForm(): Fields {
 	const form = new FormData();
@@ -131,72 +160,9 @@ export const sharingRows: MatrixRow[] = [
 		showsStudioToLinkHolders: true
 	},
 	{ route: '/s/[token]', method: 'GET', path: () => `/s/${'x'.repeat(43)}`, expect: all(404) },
-	{
-		route: '/s/[token]',
-		method: 'POST',
-		action: 'comment',
-		path: (f) => `${link(f)}?/comment`,
-		form: commentForm,
-		setup: shared,
-		expect: all(200),
-		showsStudioToLinkHolders: true,
-		changes: commented
-	},
-	{
-		route: '/s/[token]',
-		method: 'POST',
-		action: 'comment',
-		path: (f) => `${revoked(f)}?/comment`,
-		form: commentForm,
-		setup: shared,
-		expect: all(410),
-		showsStudioToLinkHolders: true,
-		changes: nothingCommented
-	},
-	{
-		route: '/s/[token]',
-		method: 'POST',
-		action: 'approve',
-		path: (f) => `${link(f)}?/approve`,
-		form: approveForm,
-		setup: shared,
-		expect: all(200),
-		showsStudioToLinkHolders: true,
-		changes: commented
-	},
-	{
-		route: '/s/[token]',
-		method: 'POST',
-		action: 'approve',
-		path: (f) => `${revoked(f)}?/approve`,
-		form: approveForm,
-		setup: shared,
-		expect: all(410),
-		showsStudioToLinkHolders: true,
-		changes: nothingCommented
-	},
-	{
-		route: '/s/[token]',
-		method: 'POST',
-		action: 'changes',
-		path: (f) => `${link(f)}?/changes`,
-		form: changesForm,
-		setup: shared,
-		expect: all(200),
-		showsStudioToLinkHolders: true,
-		changes: commented
-	},
-	{
-		route: '/s/[token]',
-		method: 'POST',
-		action: 'changes',
-		path: (f) => `${revoked(f)}?/changes`,
-		form: changesForm,
-		setup: shared,
-		expect: all(410),
-		showsStudioToLinkHolders: true,
-		changes: nothingCommented
-	},
+	...linkActions('comment', commentForm),
+	...linkActions('approve', approveForm),
+	...linkActions('changes', changesForm),
 	// No quote sent yet: nobody can pay, link or not.
 	{
 		route: '/s/[token]',
@@ -267,50 +233,15 @@ export const sharingRows: MatrixRow[] = [
 		setup: shared,
 		expect: { owner: 200, designer: 200, client: 404, outsider: 404, anonymous: SIGN_IN }
 	},
-	{
-		route: '/s/v/[variantId]',
-		method: 'POST',
-		action: 'comment',
-		path: (f) => `${member(f)}?/comment`,
-		form: commentForm,
-		setup: shared,
-		expect: { owner: 200, designer: 200, client: 200, outsider: 404, anonymous: SIGN_IN },
-		changes: {
-			by: ['owner', 'designer', 'client'],
-			check: async (f) => (await commentCount(f)) > 0
-		}
-	},
-	{
-		route: '/s/v/[variantId]',
-		method: 'POST',
-		action: 'approve',
-		path: (f) => `${member(f)}?/approve`,
-		form: approveForm,
-		setup: shared,
-		expect: { owner: 200, designer: 403, client: 200, outsider: 404, anonymous: SIGN_IN },
-		changes: { by: ['owner', 'client'], check: async (f) => (await commentCount(f)) > 0 }
-	},
+	memberAction('comment', commentForm, 200, ['owner', 'designer', 'client']),
+	memberAction('approve', approveForm, 403, ['owner', 'client']),
 	// A client may not approve a variant they were not sent.
 	{
-		route: '/s/v/[variantId]',
-		method: 'POST',
-		action: 'approve',
+		...memberAction('approve', approveForm, 403, ['owner']),
 		path: (f) => `/s/v/${f.vars.otherVariantId}?/approve`,
-		form: approveForm,
-		setup: shared,
-		expect: { owner: 200, designer: 403, client: 404, outsider: 404, anonymous: SIGN_IN },
-		changes: { by: ['owner'], check: async (f) => (await commentCount(f)) > 0 }
+		expect: { owner: 200, designer: 403, client: 404, outsider: 404, anonymous: SIGN_IN }
 	},
-	{
-		route: '/s/v/[variantId]',
-		method: 'POST',
-		action: 'changes',
-		path: (f) => `${member(f)}?/changes`,
-		form: changesForm,
-		setup: shared,
-		expect: { owner: 200, designer: 403, client: 200, outsider: 404, anonymous: SIGN_IN },
-		changes: { by: ['owner', 'client'], check: async (f) => (await commentCount(f)) > 0 }
-	},
+	memberAction('changes', changesForm, 403, ['owner', 'client']),
 	{
 		route: '/s/v/[variantId]',
 		method: 'POST',
@@ -328,18 +259,15 @@ export const sharingRows: MatrixRow[] = [
 	},
 
 	// The studio's side.
-	{
+	ofBuild({
 		route: '/builds/[id]/share',
 		method: 'GET',
-		path: (f) => `${build(f)}/share`,
-		setup: shared,
 		expect: studioOnly(200)
-	},
-	{
+	}),
+	ofBuild({
 		route: '/builds/[id]/share',
 		method: 'POST',
 		action: 'create',
-		path: (f) => `${build(f)}/share?/create`,
 		form: (f) => ({
 			variantId: f.vars.variantId,
 			recipientEmail: '',
@@ -347,20 +275,17 @@ export const sharingRows: MatrixRow[] = [
 			expires: '7',
 			send: ''
 		}),
-		setup: shared,
 		expect: studioOnly(200),
-		changes: { by: ['owner', 'designer'], check: async (f) => (await linkCount(f)) > 2 }
-	},
-	{
+		changes: { by: EDITORS, check: async (f) => (await linkCount(f)) > 2 }
+	}),
+	ofBuild({
 		route: '/builds/[id]/share',
 		method: 'POST',
 		action: 'revoke',
-		path: (f) => `${build(f)}/share?/revoke`,
 		form: (f) => ({ linkId: f.vars.linkId }),
-		setup: shared,
 		expect: studioOnly(200),
 		changes: {
-			by: ['owner', 'designer'],
+			by: EDITORS,
 			check: async (f) =>
 				(
 					await db
@@ -369,54 +294,37 @@ export const sharingRows: MatrixRow[] = [
 						.where(and(eq(shareLinks.id, f.vars.linkId), isNotNull(shareLinks.revokedAt)))
 				).length === 1
 		}
-	},
-	{
+	}),
+	ofBuild({
 		route: '/builds/[id]/share',
 		method: 'POST',
 		action: 'comment',
-		path: (f) => `${build(f)}/share?/comment`,
 		form: (f) => ({ variantId: f.vars.variantId, body: 'The fittings clear by 4 mm.', part: '' }),
-		setup: shared,
 		expect: studioOnly(200),
-		changes: { by: ['owner', 'designer'], check: async (f) => (await commentCount(f)) > 0 }
-	},
-	{
+		changes: { by: EDITORS, check: async (f) => (await commentCount(f)) > 0 }
+	}),
+	ofBuild({
 		route: '/builds/[id]/quote/[variantId]',
 		method: 'GET',
-		path: (f) => `${build(f)}/quote/${f.vars.variantId}`,
-		setup: shared,
 		expect: studioOnly(200)
-	},
-	{
+	}),
+	ofBuild({
 		route: '/builds/[id]/quote/[variantId]',
 		method: 'POST',
 		action: 'create',
-		path: (f) => `${build(f)}/quote/${f.vars.variantId}?/create`,
-		setup: shared,
 		expect: studioOnly(200),
 		changes: {
-			by: ['owner', 'designer'],
+			by: EDITORS,
 			check: async (f) =>
 				(await db.select().from(quotes).where(eq(quotes.variantId, f.vars.variantId))).length === 1
 		}
-	},
+	}),
 	...(['save', 'refresh', 'send', 'withdraw'] as const).map((action): MatrixRow => ({
 		route: '/builds/[id]/quote/[variantId]',
 		method: 'POST',
 		action,
 		path: (f) => `${build(f)}/quote/${f.vars.variantId}?/${action}`,
-		form: () =>
-			action === 'save'
-				? {
-						currency: 'EUR',
-						labour: '150',
-						labourNote: 'Assembly',
-						tax: '20',
-						depositKind: 'percent',
-						depositValue: '30',
-						notes: ''
-					}
-				: {},
+		form: () => (action === 'save' ? quoteFormFields() : {}),
 		setup: shared,
 		expect: studioOnly(200),
 		changes: {
@@ -427,45 +335,37 @@ export const sharingRows: MatrixRow[] = [
 				)
 		}
 	})),
-	{
+	ofBuild({
 		route: '/builds/[id]/photos',
 		method: 'GET',
-		path: (f) => `${build(f)}/photos`,
-		setup: shared,
 		expect: studioOnly(200)
-	},
-	{
+	}),
+	ofBuild({
 		route: '/builds/[id]/photos',
 		method: 'POST',
 		action: 'upload',
-		path: (f) => `${build(f)}/photos?/upload`,
 		form: uploadForm,
-		setup: shared,
 		expect: studioOnly(415)
-	},
-	{
+	}),
+	ofBuild({
 		route: '/builds/[id]/photos',
 		method: 'POST',
 		action: 'delete',
-		path: (f) => `${build(f)}/photos?/delete`,
 		form: (f) => ({ photoId: f.vars.photoId }),
-		setup: shared,
 		expect: studioOnly(200),
 		changes: {
-			by: ['owner', 'designer'],
+			by: EDITORS,
 			check: async (f) =>
 				(await db.select().from(photos).where(eq(photos.id, f.vars.photoId))).length === 0
 		}
-	},
-	{
+	}),
+	ofBuild({
 		route: '/builds/[id]/photos',
 		method: 'POST',
 		action: 'caption',
-		path: (f) => `${build(f)}/photos?/caption`,
 		form: (f) => ({ photoId: f.vars.photoId, caption: 'Bench test' }),
-		setup: shared,
 		expect: studioOnly(200)
-	},
+	}),
 	// Images for members: clients see the build's photos once something of it is shared with them.
 	{
 		route: '/builds/[id]/photos/[photoId]/[size]',

@@ -5,14 +5,27 @@
  */
 import { eq } from 'drizzle-orm';
 import { demoEnclosure, demoParts, demoSceneInput } from '../../geometry/standard-library';
-import { boundsOf, innerVolumeLitres } from '../../geometry';
+import { boundsOf } from '../../geometry';
 import { db } from '../db';
-import { builds, enclosureVersions, enclosures, parts, variants } from '../db/schema';
+import { builds, parts, variants } from '../db/schema';
+import { insertEnclosure } from './builds';
 import { studioWithMembers } from './factories';
 import { newId } from '../tokens';
 import { createShareLink } from '../sharing/links';
 
 /** Invented list prices, minor units (EUR cents), keyed by the demo part ids. */
+/** The quote form as the studio posts it: EUR, 150.00 labour, 20 % tax, a 30 % deposit. */
+export const quoteFormFields = (extra: Record<string, string> = {}) => ({
+	currency: 'EUR',
+	labour: '150',
+	labourNote: 'Assembly',
+	tax: '20',
+	depositKind: 'percent',
+	depositValue: '30',
+	notes: '',
+	...extra
+});
+
 export const DEMO_PRICES: Record<string, number> = {
 	'std-mini-itx': 15_900,
 	'std-fan-140-25': 1_850,
@@ -32,18 +45,11 @@ export async function demoBuild(opts: {
 	const enclosure = demoEnclosure();
 	const enclosureId = newId();
 	const versionId = newId();
-	await db.insert(enclosures).values({
-		id: enclosureId,
-		studioId: opts.studioId,
-		name: enclosure.name,
-		volumeLitres: innerVolumeLitres(enclosure)
-	});
-	await db.insert(enclosureVersions).values({
-		id: versionId,
+	await insertEnclosure(db, {
 		enclosureId,
-		version: 1,
-		definition: enclosure,
-		volumeLitres: innerVolumeLitres(enclosure)
+		versionId,
+		studioId: opts.studioId,
+		definition: enclosure
 	});
 	const idMap = new Map<string, string>();
 	for (const part of demoParts()) {

@@ -5,18 +5,11 @@
  */
 import { randomBytes } from 'node:crypto';
 import { eq, inArray } from 'drizzle-orm';
-import { innerVolumeLitres } from '../../geometry/enclosure';
 import { demoEnclosure, demoParts, demoSceneInput } from '../../geometry/standard-library';
 import type { PartDef } from '../../geometry/schema';
 import { db } from '../db';
-import {
-	builds,
-	checklistTicks,
-	enclosureVersions,
-	enclosures,
-	parts,
-	variants
-} from '../db/schema';
+import { insertEnclosure } from './builds';
+import { builds, checklistTicks, parts, variants } from '../db/schema';
 
 export type SheetTestBuild = {
 	buildId: string;
@@ -74,19 +67,7 @@ export async function createSheetBuild(opts: {
 	const buildId = id('build');
 	const variantId = id('variant');
 	await db.transaction(async (tx) => {
-		await tx.insert(enclosures).values({
-			id: enclosureId,
-			studioId: opts.studioId,
-			name: definition.name,
-			volumeLitres: innerVolumeLitres(definition)
-		});
-		await tx.insert(enclosureVersions).values({
-			id: versionId,
-			enclosureId,
-			version: 1,
-			definition,
-			volumeLitres: innerVolumeLitres(definition)
-		});
+		await insertEnclosure(tx, { enclosureId, versionId, studioId: opts.studioId, definition });
 		await tx.insert(parts).values(rows);
 		await tx.insert(builds).values({
 			id: buildId,

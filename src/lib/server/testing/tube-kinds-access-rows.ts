@@ -4,26 +4,14 @@
  * an outsider sees their own studio's page (200) and cannot touch this studio's kinds (404),
  * anonymous visitors go to sign-in.
  */
-import { and, count, eq, isNotNull } from 'drizzle-orm';
+import { and, eq, isNotNull } from 'drizzle-orm';
 import { db } from '../db';
 import { studioLoopSettings, tubeKinds } from '../db/schema';
-import {
-	SIGN_IN,
-	type Expected,
-	type MatrixFixture,
-	type MatrixRow,
-	type Visitor
-} from './access-matrix';
+import type { Expected, MatrixFixture, MatrixRow } from './access-matrix';
+import { EDITORS, countRows, studioOnly } from './matrix-rows';
 import { addTubeKind } from '../catalog/tube-kinds';
 
-const catalogue = (member: Expected, outsider: Expected): MatrixRow['expect'] => ({
-	owner: member,
-	designer: member,
-	client: 403,
-	outsider,
-	anonymous: SIGN_IN
-});
-const editors: Visitor[] = ['owner', 'designer'];
+const catalogue = (member: Expected, outsider: Expected) => studioOnly(member, outsider);
 
 /** A 14 mm hard tube kind as the form posts it. */
 export const tubeFields = (extra: Record<string, string> = {}) => ({
@@ -58,15 +46,12 @@ async function withTube(f: MatrixFixture) {
 	f.vars.stamp = String(row.at.getTime());
 }
 
-const tubeCount = async (f: MatrixFixture) =>
-	(await db.select({ n: count() }).from(tubeKinds).where(eq(tubeKinds.studioId, f.studio.id)))[0].n;
+const tubeCount = (f: MatrixFixture) => countRows(tubeKinds, eq(tubeKinds.studioId, f.studio.id));
 const tubeRetired = async (f: MatrixFixture) =>
-	(
-		await db
-			.select()
-			.from(tubeKinds)
-			.where(and(eq(tubeKinds.id, f.vars.tube), isNotNull(tubeKinds.archivedAt)))
-	).length === 1;
+	(await countRows(
+		tubeKinds,
+		and(eq(tubeKinds.id, f.vars.tube), isNotNull(tubeKinds.archivedAt))
+	)) === 1;
 const tubeName = async (f: MatrixFixture) =>
 	(await db.select({ n: tubeKinds.name }).from(tubeKinds).where(eq(tubeKinds.id, f.vars.tube)))[0]
 		?.n;
@@ -80,7 +65,7 @@ export const tubeKindRows: MatrixRow[] = [
 		form: () => tubeFields(),
 		// The outsider adds to their own studio: this one is untouched.
 		expect: catalogue(200, 200),
-		changes: { by: editors, check: async (f) => (await tubeCount(f)) === 1 }
+		changes: { by: EDITORS, check: async (f) => (await tubeCount(f)) === 1 }
 	},
 	{
 		route: '/tube-kinds',
@@ -89,7 +74,7 @@ export const tubeKindRows: MatrixRow[] = [
 		setup: withTube,
 		form: (f) => tubeFields({ id: f.vars.tube, stamp: f.vars.stamp, name: 'Matrix tube, saved' }),
 		expect: catalogue(200, 404),
-		changes: { by: editors, check: async (f) => (await tubeName(f)) === 'Matrix tube, saved' }
+		changes: { by: EDITORS, check: async (f) => (await tubeName(f)) === 'Matrix tube, saved' }
 	},
 	{
 		route: '/tube-kinds',
@@ -98,7 +83,7 @@ export const tubeKindRows: MatrixRow[] = [
 		setup: withTube,
 		form: (f) => ({ id: f.vars.tube }),
 		expect: catalogue(200, 404),
-		changes: { by: editors, check: tubeRetired }
+		changes: { by: EDITORS, check: tubeRetired }
 	},
 	{
 		route: '/tube-kinds',
@@ -113,7 +98,7 @@ export const tubeKindRows: MatrixRow[] = [
 		},
 		form: (f) => ({ id: f.vars.tube }),
 		expect: catalogue(200, 404),
-		changes: { by: editors, check: async (f) => !(await tubeRetired(f)) }
+		changes: { by: EDITORS, check: async (f) => !(await tubeRetired(f)) }
 	},
 	{
 		route: '/tube-kinds',
@@ -122,7 +107,7 @@ export const tubeKindRows: MatrixRow[] = [
 		form: () => ({ cutAllowancePct: '15' }),
 		expect: catalogue(200, 200),
 		changes: {
-			by: editors,
+			by: EDITORS,
 			check: async (f) =>
 				(
 					await db

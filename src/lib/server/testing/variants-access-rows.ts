@@ -8,7 +8,8 @@ import { forkVariant, variantsOf } from '../builds';
 import { demoBuildIn } from './builds';
 import { db } from '../db';
 import { builds, variants } from '../db/schema';
-import { SIGN_IN, type MatrixFixture, type MatrixRow } from './access-matrix';
+import { SIGN_IN, type Expected, type MatrixFixture, type MatrixRow } from './access-matrix';
+import { EDITORS, about, studioOnly } from './matrix-rows';
 
 async function withTwoVariants(f: MatrixFixture) {
 	const b = await demoBuildIn(f.studio.id, f.owner.id);
@@ -18,99 +19,80 @@ async function withTwoVariants(f: MatrixFixture) {
 }
 
 const count = async (f: MatrixFixture) => (await variantsOf(f.vars.buildId)).length;
-const editors = (ok: MatrixRow['expect']['owner']): MatrixRow['expect'] => ({
-	owner: ok,
-	designer: ok,
-	client: 403,
-	outsider: 404,
-	anonymous: SIGN_IN
-});
+const editors = (ok: Expected) => studioOnly(ok);
+const ofBuild = about(withTwoVariants, { id: 'buildId' });
 const page = (f: MatrixFixture, rest = '') => `/builds/${f.vars.buildId}${rest}`;
 
 export const variantRows: MatrixRow[] = [
-	{
+	ofBuild({
 		route: '/builds/[id]/variants',
 		method: 'GET',
-		path: (f) => page(f, '/variants'),
-		setup: withTwoVariants,
 		expect: editors(200)
-	},
-	{
+	}),
+	ofBuild({
 		route: '/builds/[id]/variants',
 		method: 'POST',
 		action: 'fork',
-		path: (f) => page(f, '/variants?/fork'),
-		setup: withTwoVariants,
 		form: (f) => ({ variantId: f.vars.variantId }),
 		expect: editors({ status: 303, location: /\?variant=/ }),
-		changes: { by: ['owner', 'designer'], check: async (f) => (await count(f)) === 3 }
-	},
-	{
+		changes: { by: EDITORS, check: async (f) => (await count(f)) === 3 }
+	}),
+	ofBuild({
 		route: '/builds/[id]/variants',
 		method: 'POST',
 		action: 'rename',
-		path: (f) => page(f, '/variants?/rename'),
-		setup: withTwoVariants,
 		form: (f) => ({ variantId: f.vars.otherId, name: 'Renamed in the matrix' }),
 		expect: editors(200),
 		changes: {
-			by: ['owner', 'designer'],
+			by: EDITORS,
 			check: async (f) =>
 				(await db.select().from(variants).where(eq(variants.id, f.vars.otherId)))[0].name ===
 				'Renamed in the matrix'
 		}
-	},
-	{
+	}),
+	ofBuild({
 		route: '/builds/[id]/variants',
 		method: 'POST',
 		action: 'move',
-		path: (f) => page(f, '/variants?/move'),
-		setup: withTwoVariants,
 		form: (f) => ({ variantId: f.vars.otherId, by: '-1' }),
 		expect: editors(200),
 		changes: {
-			by: ['owner', 'designer'],
+			by: EDITORS,
 			check: async (f) => (await variantsOf(f.vars.buildId))[0].id === f.vars.otherId
 		}
-	},
-	{
+	}),
+	ofBuild({
 		route: '/builds/[id]/variants',
 		method: 'POST',
 		action: 'delete',
-		path: (f) => page(f, '/variants?/delete'),
-		setup: withTwoVariants,
 		form: (f) => ({ variantId: f.vars.otherId, confirm: 'yes' }),
 		expect: editors(200),
-		changes: { by: ['owner', 'designer'], check: async (f) => (await count(f)) === 1 }
-	},
-	{
+		changes: { by: EDITORS, check: async (f) => (await count(f)) === 1 }
+	}),
+	ofBuild({
 		route: '/builds/[id]/variants',
 		method: 'POST',
 		action: 'propose',
-		path: (f) => page(f, '/variants?/propose'),
-		setup: withTwoVariants,
 		form: (f) => ({ variantId: f.vars.otherId }),
 		expect: editors(200),
 		changes: {
-			by: ['owner', 'designer'],
+			by: EDITORS,
 			check: async (f) =>
 				(await db.select().from(variants).where(eq(variants.id, f.vars.otherId)))[0].isProposal
 		}
-	},
-	{
+	}),
+	ofBuild({
 		route: '/builds/[id]/variants',
 		method: 'POST',
 		action: 'deleteBuild',
-		path: (f) => page(f, '/variants?/deleteBuild'),
-		setup: withTwoVariants,
 		form: () => ({ confirm: 'yes' }),
 		expect: editors({ status: 303, location: '/builds' }),
 		changes: {
-			by: ['owner', 'designer'],
+			by: EDITORS,
 			check: async (f) =>
 				(await db.select().from(builds).where(eq(builds.id, f.vars.buildId))).length === 0
 		}
-	},
+	}),
 	{
 		route: '/builds/[id]/compare',
 		method: 'GET',
@@ -125,21 +107,17 @@ export const variantRows: MatrixRow[] = [
 		setup: withTwoVariants,
 		expect: { owner: 200, designer: 200, client: 403, outsider: 404, anonymous: SIGN_IN }
 	},
-	{
+	ofBuild({
 		route: '/builds/[id]/enclosure',
 		method: 'GET',
-		path: (f) => page(f, '/enclosure'),
-		setup: withTwoVariants,
 		expect: editors(200)
-	},
-	{
+	}),
+	ofBuild({
 		route: '/builds/[id]/enclosure',
 		method: 'POST',
 		action: 'default',
-		path: (f) => page(f, '/enclosure'),
-		setup: withTwoVariants,
 		form: () => ({ toVersionId: 'no-such-version' }),
 		// Already on the current version: the form comes back with a message, nothing moves.
 		expect: editors(409)
-	}
+	})
 ];

@@ -1,7 +1,8 @@
 import { json } from '@sveltejs/kit';
 import { partCategorySchema } from '$lib/geometry';
-import { jsonObject, problem, readJson } from '$lib/server/api';
-import { answer, catalogAccess, partQueryOf } from '$lib/server/catalog/http';
+import { jsonObject, readJson } from '$lib/server/api';
+import { catalogAccess, partQueryOf, valueOf } from '$lib/server/catalog/http';
+import { ServiceError, jsonRoute } from '$lib/server/errors';
 import {
 	createPart,
 	getPartsByIds,
@@ -18,16 +19,20 @@ const MAX_IDS = 500;
  * `?search=1&q=&category=&limit=` → the add-part search (archived left out);
  * otherwise one page of the catalogue table (`q, category, scope, archived, sort, dir, page, size`).
  */
-export const GET: RequestHandler = async (event) => {
+export const GET: RequestHandler = jsonRoute(async (event) => {
 	const access = await catalogAccess(event, 'catalog.view');
 	const params = event.url.searchParams;
 	const ids = params.get('ids');
 	if (ids !== null) {
 		const list = ids.split(',').filter(Boolean);
 		if (list.length > MAX_IDS || list.some((id) => id.length > 64)) {
-			return problem(400, `ids: at most ${MAX_IDS} ids of at most 64 characters each.`, [
-				{ path: 'ids', message: 'Too many or too long' }
-			]);
+			throw new ServiceError(
+				'invalid',
+				`ids: at most ${MAX_IDS} ids of at most 64 characters each.`,
+				{
+					issues: [{ path: 'ids', message: 'Too many or too long' }]
+				}
+			);
 		}
 		return json({ parts: await getPartsByIds(access.studioId, list) });
 	}
@@ -42,14 +47,11 @@ export const GET: RequestHandler = async (event) => {
 	}
 	const page = await listParts(access.studioId, partQueryOf(params));
 	return json({ parts: page.rows, total: page.total, page: page.page, pageSize: page.pageSize });
-};
+});
 
 /** Body: the part (name, category, bodies, keepouts, ports, specs, provenance, toleranceMm, source, priceMinor, currency, supplierNote). */
-export const POST: RequestHandler = async (event) => {
+export const POST: RequestHandler = jsonRoute(async (event) => {
 	const access = await catalogAccess(event, 'catalog.edit');
-	return answer(
-		await createPart(access.studioId, await readJson(event.request, jsonObject)),
-		201,
-		'part'
-	);
-};
+	const made = await createPart(access.studioId, await readJson(event.request, jsonObject));
+	return json({ part: valueOf(made) }, { status: 201 });
+});

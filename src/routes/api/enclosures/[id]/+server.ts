@@ -1,4 +1,4 @@
-import { error, json } from '@sveltejs/kit';
+import { json } from '@sveltejs/kit';
 import {
 	archiveEnclosure,
 	getEnclosure,
@@ -6,21 +6,20 @@ import {
 	updateEnclosure
 } from '$lib/server/catalog/enclosures';
 import { jsonObject, readJson } from '$lib/server/api';
-import { answer, catalogAccess, revisionOf } from '$lib/server/catalog/http';
+import { catalogAccess, found, revisionOf, valueOf } from '$lib/server/catalog/http';
+import { ServiceError, jsonRoute } from '$lib/server/errors';
 import type { RequestHandler } from './$types';
 
-export const GET: RequestHandler = async (event) => {
+export const GET: RequestHandler = jsonRoute(async (event) => {
 	const access = await catalogAccess(event, 'catalog.view');
-	const enclosure = await getEnclosure(access.studioId, event.params.id);
-	if (!enclosure) error(404, 'Not found.');
-	return json({ enclosure });
-};
+	return json({ enclosure: found(await getEnclosure(access.studioId, event.params.id)) });
+});
 
 /**
  * Body: `{revision, definition, description?, note?}`. A build using the current version makes
  * this a new version; a stale revision answers 409 with what is stored now.
  */
-export const PUT: RequestHandler = async (event) => {
+export const PUT: RequestHandler = jsonRoute(async (event) => {
 	const access = await catalogAccess(event, 'catalog.edit');
 	const body = await readJson(event.request, jsonObject);
 	const saved = await updateEnclosure(
@@ -34,20 +33,18 @@ export const PUT: RequestHandler = async (event) => {
 			note: body.note as string | undefined
 		}
 	);
-	return answer(saved, 200, 'enclosure');
-};
+	return json({ enclosure: valueOf(saved) });
+});
 
 /** Body: `{archived: boolean}`. Enclosures are never deleted: builds pin their versions. */
-export const PATCH: RequestHandler = async (event) => {
+export const PATCH: RequestHandler = jsonRoute(async (event) => {
 	const access = await catalogAccess(event, 'catalog.edit');
 	const body = await readJson(event.request, jsonObject);
 	if (typeof body.archived !== 'boolean') {
-		error(400, 'Send {"archived": true} or {"archived": false}.');
+		throw new ServiceError('invalid', 'Send {"archived": true} or {"archived": false}.', {
+			field: 'archived'
+		});
 	}
-	const row = await (body.archived ? archiveEnclosure : restoreEnclosure)(
-		access.studioId,
-		event.params.id
-	);
-	if (!row) error(404, 'Not found.');
-	return json({ enclosure: row });
-};
+	const change = body.archived ? archiveEnclosure : restoreEnclosure;
+	return json({ enclosure: found(await change(access.studioId, event.params.id)) });
+});

@@ -1,6 +1,6 @@
-import { error, json } from '@sveltejs/kit';
-import { jsonObject, problem, readJson } from '$lib/server/api';
-import { answer, catalogAccess, revisionOf } from '$lib/server/catalog/http';
+import { json } from '@sveltejs/kit';
+import { jsonObject, readJson } from '$lib/server/api';
+import { catalogAccess, found, revisionOf, valueOf } from '$lib/server/catalog/http';
 import {
 	archivePart,
 	deletePart,
@@ -9,46 +9,46 @@ import {
 	restorePart,
 	updatePart
 } from '$lib/server/catalog/parts';
+import { ServiceError, jsonRoute } from '$lib/server/errors';
 import type { RequestHandler } from './$types';
 
-export const GET: RequestHandler = async (event) => {
+export const GET: RequestHandler = jsonRoute(async (event) => {
 	const access = await catalogAccess(event, 'catalog.view');
-	const part = await getPart(access.studioId, event.params.id);
-	if (!part) error(404, 'Not found.');
-	return json({ part });
-};
+	return json({ part: found(await getPart(access.studioId, event.params.id)) });
+});
 
 /** Body: `{revision, ...part}`. Standard-library parts are read-only (404 here: not the studio's). */
-export const PUT: RequestHandler = async (event) => {
+export const PUT: RequestHandler = jsonRoute(async (event) => {
 	const access = await catalogAccess(event, 'catalog.edit');
 	const body = await readJson(event.request, jsonObject);
 	const { revision: _r, ...part } = body;
-	return answer(
-		await updatePart(access.studioId, event.params.id, revisionOf(body), part),
-		200,
-		'part'
-	);
-};
+	const saved = await updatePart(access.studioId, event.params.id, revisionOf(body), part);
+	return json({ part: valueOf(saved) });
+});
 
 /** Body: `{archived: boolean}` or `{duplicate: true}` (also copies a standard-library entry into the studio). */
-export const PATCH: RequestHandler = async (event) => {
+export const PATCH: RequestHandler = jsonRoute(async (event) => {
 	const access = await catalogAccess(event, 'catalog.edit');
 	const body = await readJson(event.request, jsonObject);
 	if (body.duplicate === true) {
-		return answer(await duplicatePart(access.studioId, event.params.id), 201, 'part');
+		const copy = await duplicatePart(access.studioId, event.params.id);
+		return json({ part: valueOf(copy) }, { status: 201 });
 	}
 	if (typeof body.archived !== 'boolean') {
-		error(400, 'Send {"archived": true|false} or {"duplicate": true}.');
+		throw new ServiceError('invalid', 'Send {"archived": true|false} or {"duplicate": true}.', {
+			field: 'archived'
+		});
 	}
-	const part = await (body.archived ? archivePart : restorePart)(access.studioId, event.params.id);
-	if (!part) error(404, 'Not found.');
-	return json({ part });
-};
+	const change = body.archived ? archivePart : restorePart;
+	return json({ part: found(await change(access.studioId, event.params.id)) });
+});
 
 /** Deletes a part no build places; 409 when one does (archive it instead). */
-export const DELETE: RequestHandler = async (event) => {
+export const DELETE: RequestHandler = jsonRoute(async (event) => {
 	const access = await catalogAccess(event, 'catalog.edit');
 	const done = await deletePart(access.studioId, event.params.id);
-	if (!done.ok) return problem(done.status, done.message);
+	if (!done.ok) {
+		throw new ServiceError(done.status === 404 ? 'not-found' : 'conflict', done.message);
+	}
 	return new Response(null, { status: 204 });
-};
+});

@@ -1,11 +1,12 @@
-import { error, json } from '@sveltejs/kit';
+import { json } from '@sveltejs/kit';
 import { getEnclosureVersion } from '$lib/server/catalog/enclosures';
-import { catalogAccess } from '$lib/server/catalog/http';
+import { catalogAccess, notFound } from '$lib/server/catalog/http';
+import { jsonRoute } from '$lib/server/errors';
 import type { RequestHandler } from './$types';
 
-export const GET: RequestHandler = async (event) => {
+export const GET: RequestHandler = jsonRoute(async (event) => {
 	const access = await catalogAccess(event, 'catalog.view');
 	const version = await getEnclosureVersion(access.studioId, event.params.versionId);
-	if (!version || version.enclosureId !== event.params.id) error(404, 'Not found.');
+	if (!version || version.enclosureId !== event.params.id) throw notFound();
 	return json({ version });
-};
+});
