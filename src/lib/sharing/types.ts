@@ -95,6 +95,17 @@ export type ClientView = {
 
 export type ClientMay = { comment: boolean; approve: boolean; pay: boolean };
 
+/** What both client pages (share link, in-app) load for the one client view. */
+export type ClientPageData = {
+	view: ClientView;
+	may: ClientMay;
+	defaultName: string;
+	fixedName: boolean;
+	photoBase: string;
+	/** `?deposit=` after the payment page sends the viewer back: paid or cancelled. */
+	deposit: string | null;
+};
+
 export type ThreadItem = {
 	kind: 'comment' | 'approved' | 'changes';
 	body: string;

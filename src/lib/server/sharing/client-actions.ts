@@ -16,6 +16,7 @@ import { limits } from '../rate-limit';
 import { notifyDepositPaid, notifyStudio } from './notify';
 import { quoteOfVariant } from './quotes';
 import { addComment, approveVersion, requestChanges, type Author } from './thread';
+import type { ClientPageData } from '$lib/sharing/types';
 import { clientView, type ViewerKind } from './view';
 
 export type ClientActor = {
@@ -33,6 +34,23 @@ export type ClientActor = {
 	pagePath: string;
 	limitKey: string;
 };
+
+/** The load both client pages return for this actor; photoBase is the page's photo path. */
+export async function clientPageData(
+	actor: ClientActor,
+	photoBase: string,
+	url: URL
+): Promise<ClientPageData> {
+	const { view } = await forPage(() => clientView(actor));
+	return {
+		view,
+		may: actor.may,
+		defaultName: actor.author.defaultName,
+		fixedName: actor.author.fixedName,
+		photoBase,
+		deposit: url.searchParams.get('deposit')
+	};
+}
 
 function nameOf(actor: ClientActor, typed: string) {
 	return actor.author.fixedName

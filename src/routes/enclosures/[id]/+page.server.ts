@@ -9,6 +9,7 @@ import {
 	restoreEnclosure
 } from '$lib/server/catalog/enclosures';
 import { formFor, saveEnclosureForm } from '$lib/server/catalog/enclosure-form';
+import { archivedAction, saveAction } from '../../catalog-actions';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals, url, params }) => {
@@ -27,22 +28,9 @@ export const load: PageServerLoad = async ({ locals, url, params }) => {
 };
 
 export const actions: Actions = {
-	save: async ({ request, locals, url, params }) => {
-		const access = await activeStudio(locals, 'catalog.edit', url);
-		const outcome = await saveEnclosureForm(request, access, params.id);
-		if ('saved' in outcome) redirect(303, outcome.saved);
-		return outcome;
-	},
-	archive: async ({ locals, url, params }) => {
-		const access = await activeStudio(locals, 'catalog.edit', url);
-		if (!(await archiveEnclosure(access.studioId, params.id))) error(404, 'Not found.');
-		redirect(303, `/enclosures/${params.id}`);
-	},
-	restore: async ({ locals, url, params }) => {
-		const access = await activeStudio(locals, 'catalog.edit', url);
-		if (!(await restoreEnclosure(access.studioId, params.id))) error(404, 'Not found.');
-		redirect(303, `/enclosures/${params.id}`);
-	},
+	save: saveAction(saveEnclosureForm),
+	archive: archivedAction(archiveEnclosure, '/enclosures'),
+	restore: archivedAction(restoreEnclosure, '/enclosures'),
 	duplicate: async ({ locals, url, params }) => {
 		const access = await activeStudio(locals, 'catalog.edit', url);
 		const copy = await duplicateEnclosure(access.studioId, access.user.id, params.id);

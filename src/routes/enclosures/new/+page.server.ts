@@ -1,9 +1,9 @@
-import { redirect } from '@sveltejs/kit';
 import { superValidate } from 'sveltekit-superforms';
 import { activeStudio } from '$lib/server/access';
 import { enclosureAdapter, saveEnclosureForm } from '$lib/server/catalog/enclosure-form';
 import { enclosureToForm } from '$lib/catalog/schemas';
 import type { EnclosureDef } from '$lib/geometry';
+import { saveAction } from '../../catalog-actions';
 import type { Actions, PageServerLoad } from './$types';
 
 /** A plain starting box: 2 mm panels, nothing inside yet. */
@@ -37,10 +37,5 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 };
 
 export const actions: Actions = {
-	save: async ({ request, locals, url }) => {
-		const access = await activeStudio(locals, 'catalog.edit', url);
-		const outcome = await saveEnclosureForm(request, access);
-		if ('saved' in outcome) redirect(303, outcome.saved);
-		return outcome;
-	}
+	save: saveAction(saveEnclosureForm)
 };

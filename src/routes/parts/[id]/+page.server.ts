@@ -9,6 +9,7 @@ import {
 	partUseCount,
 	restorePart
 } from '$lib/server/catalog/parts';
+import { archivedAction, saveAction } from '../../catalog-actions';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals, url, params }) => {
@@ -27,28 +28,15 @@ export const load: PageServerLoad = async ({ locals, url, params }) => {
 };
 
 export const actions: Actions = {
-	save: async ({ request, locals, url, params }) => {
-		const access = await activeStudio(locals, 'catalog.edit', url);
-		const outcome = await savePartForm(request, access, params.id);
-		if ('saved' in outcome) redirect(303, outcome.saved);
-		return outcome;
-	},
+	save: saveAction(savePartForm),
 	duplicate: async ({ locals, url, params }) => {
 		const access = await activeStudio(locals, 'catalog.edit', url);
 		const copy = await duplicatePart(access.studioId, params.id);
 		if (!copy.ok) error(copy.status === 404 ? 404 : 400, 'Could not copy this part.');
 		redirect(303, `/parts/${copy.value.id}?copied=1`);
 	},
-	archive: async ({ locals, url, params }) => {
-		const access = await activeStudio(locals, 'catalog.edit', url);
-		if (!(await archivePart(access.studioId, params.id))) error(404, 'Not found.');
-		redirect(303, `/parts/${params.id}`);
-	},
-	restore: async ({ locals, url, params }) => {
-		const access = await activeStudio(locals, 'catalog.edit', url);
-		if (!(await restorePart(access.studioId, params.id))) error(404, 'Not found.');
-		redirect(303, `/parts/${params.id}`);
-	},
+	archive: archivedAction(archivePart, '/parts'),
+	restore: archivedAction(restorePart, '/parts'),
 	delete: async ({ locals, url, params }) => {
 		const access = await activeStudio(locals, 'catalog.edit', url);
 		const done = await deletePart(access.studioId, params.id);

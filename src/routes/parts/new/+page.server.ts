@@ -1,8 +1,8 @@
-import { redirect } from '@sveltejs/kit';
 import { superValidate } from 'sveltekit-superforms';
 import { activeStudio } from '$lib/server/access';
 import { partAdapter, savePartForm } from '$lib/server/catalog/part-form';
 import { partCategorySchema } from '$lib/geometry';
+import { saveAction } from '../../catalog-actions';
 import type { Actions, PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals, url }) => {
@@ -17,10 +17,5 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 };
 
 export const actions: Actions = {
-	save: async ({ request, locals, url }) => {
-		const access = await activeStudio(locals, 'catalog.edit', url);
-		const outcome = await savePartForm(request, access);
-		if ('saved' in outcome) redirect(303, outcome.saved);
-		return outcome;
-	}
+	save: saveAction(savePartForm)
 };

@@ -1,10 +1,8 @@
 import { error } from '@sveltejs/kit';
-import { clientPageActions } from '$lib/server/sharing/client-actions';
+import { clientPageActions, clientPageData } from '$lib/server/sharing/client-actions';
 import { linkActor, lookupToken, requireLinkActor } from '$lib/server/sharing/actors';
 import { recordOpened } from '$lib/server/sharing/links';
-import { clientView } from '$lib/server/sharing/view';
 import type { Actions, PageServerLoad } from './$types';
-import { forPage } from '$lib/server/errors';
 
 const dateWords = (d: Date) =>
 	d.toLocaleDateString('en-GB', {
@@ -35,15 +33,9 @@ export const load: PageServerLoad = async (event) => {
 	const actor = linkActor(r.share, event.params.token);
 	// Reloads after a comment or an approval are not new openings.
 	if (!event.isDataRequest) await recordOpened(r.share.link.id);
-	const { view } = await forPage(() => clientView(actor));
 	return {
-		view,
-		may: actor.may,
-		defaultName: actor.author.defaultName,
-		fixedName: actor.author.fixedName,
-		photoBase: `/s/${event.params.token}/photos`,
-		inApp: false,
-		deposit: event.url.searchParams.get('deposit')
+		...(await clientPageData(actor, `/s/${event.params.token}/photos`, event.url)),
+		inApp: false
 	};
 };
 
