@@ -141,7 +141,7 @@ test('a sweep of the spine loads its charts on demand and says where nothing col
 	await restoreDemoVariant();
 	const { context, page } = await openEditor(browser);
 	await page.getByRole('button', { name: 'every position at once' }).click();
-	await expect(page.getByLabel('Move')).toHaveValue('divider:spine');
+	await expect(page.getByRole('combobox', { name: /^Move/ })).toHaveValue('divider:spine');
 	await page.getByRole('button', { name: 'Run sweep' }).click();
 	const table = page.getByRole('table', { name: 'Sweep results' });
 	// "4 slots" and "3 slots" fit; at "2 slots" the card (21.3 cm³) and the pump-reservoir (16.0 cm³) collide.

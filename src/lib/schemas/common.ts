@@ -4,8 +4,10 @@ import { z } from 'zod';
 // eslint-disable-next-line no-control-regex
 export const CONTROL = /[\u0000-\u001f\u007f]/;
 /** Control characters no text field may hold, multi-line ones included (tab, LF and CR are allowed). */
-// eslint-disable-next-line no-control-regex
-export const CONTROL_IN_TEXT = /[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f]/;
+// Also a lone UTF-16 surrogate: PostgreSQL refuses to store one, so it is bad input, not a 500.
+export const CONTROL_IN_TEXT =
+	// eslint-disable-next-line no-control-regex
+	/[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f]|[\ud800-\udbff](?![\udc00-\udfff])|(?<![\ud800-\udbff])[\udc00-\udfff]/;
 
 /** The largest value a PostgreSQL `integer` column holds (2³¹ − 1). */
 export const INT4_MAX = 2_147_483_647;
