@@ -289,7 +289,8 @@ async function wrkLoad(
 	const wrkArgs = [
 		'-t1',
 		`-c${CONNECTIONS}`,
-		`-d${durationS}s`,
+		// wrk reads whole seconds only (3.3s is a usage error).
+		`-d${Math.max(1, Math.round(durationS))}s`,
 		'--timeout',
 		'10s',
 		'-s',
