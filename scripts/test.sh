@@ -14,8 +14,11 @@ ensure_nginx
 # photos in a folder of their own too.
 export DB_CLUSTER=test PGPORT=${PGPORT:-54330}
 export STORAGE_DIR=${STORAGE_DIR:-.data/storage-test}
-# Photo tests run against the local S3-compatible store, in a bucket of the test run's own.
-export STORAGE_DRIVER=${STORAGE_DRIVER:-s3} S3_BUCKET=${S3_BUCKET:-interstice-photos-test}
+# Photo tests run against the local S3-compatible store, in a bucket of this clone's own: a store
+# already listening on the port (npm start's, or another clone's test run) is used as it is, and the
+# storage specs delete every orphan in their bucket, so two clones must never share one.
+clone_tag=$(printf %s "$ROOT" | sha256sum | cut -c1-10)
+export STORAGE_DRIVER=${STORAGE_DRIVER:-s3} S3_BUCKET=${S3_BUCKET:-interstice-photos-test-$clone_tag}
 db_was_running=$(scripts/db.sh status >/dev/null 2>&1 && echo 1 || echo 0)
 scripts/db.sh start
 cleanup() {
@@ -37,6 +40,7 @@ ensure_mail_catcher
 ensure_payments_fake
 if [ "$STORAGE_DRIVER" = s3 ]; then
 	ensure_s3_fake
+	node_modules/.bin/tsx scripts/s3-bucket.ts
 	S3_BUCKET=$S3_BUCKET_BROWSER node_modules/.bin/tsx scripts/s3-bucket.ts
 fi
 node_modules/.bin/svelte-kit sync
