@@ -3,7 +3,7 @@
  * match line for line. Our own conventions (see orthographic.ts); sizes in paper millimetres.
  * Status colours as in docs/look-and-words.md, each with its pattern and word.
  */
-import type { FitStatus } from '$lib/geometry';
+import { STATUS_ORDER, type FitStatus } from '$lib/geometry';
 
 export type Pattern = 'plain' | 'hatch' | 'dots' | 'crosshatch' | 'dashed';
 
@@ -21,22 +21,35 @@ export const STATUS_FILL: Record<FitStatus, string> = {
 	outside: '#f4f5f6'
 };
 
-export const STATUS_INK: Record<
-	FitStatus,
-	{ fill: string; edge: string; pattern: Pattern; word: string }
-> = {
-	clear: { fill: STATUS_FILL.clear, edge: '#1f6e5c', pattern: 'plain', word: 'clear' },
-	tight: { fill: STATUS_FILL.tight, edge: '#9c6f0e', pattern: 'hatch', word: 'tight' },
-	blocked: { fill: STATUS_FILL.blocked, edge: '#4a2a80', pattern: 'dots', word: 'blocked' },
-	// Collides: a cross-hatch and a heavy dark edge, so it reads as the worst without colour.
-	collides: {
-		fill: STATUS_FILL.collides,
-		edge: '#2a0603',
-		pattern: 'crosshatch',
-		word: 'collides'
-	},
-	outside: { fill: STATUS_FILL.outside, edge: '#434d5c', pattern: 'dashed', word: 'outside' }
+/** Each status's surface pattern and word, the same on paper and on screen. */
+export const STATUS_MARK: Record<FitStatus, { pattern: Pattern; word: string }> = {
+	clear: { pattern: 'plain', word: 'clear' },
+	tight: { pattern: 'hatch', word: 'tight' },
+	blocked: { pattern: 'dots', word: 'blocked' },
+	collides: { pattern: 'crosshatch', word: 'collides' },
+	outside: { pattern: 'dashed', word: 'outside' }
 };
+
+/** A table by status built from a function of the status. */
+export function byStatus<T>(of: (s: FitStatus) => T): Record<FitStatus, T> {
+	return Object.fromEntries(STATUS_ORDER.map((s) => [s, of(s)])) as Record<FitStatus, T>;
+}
+
+/** Edges on paper: darker than each fill. Collides has a heavy dark edge with its cross-hatch, so it
+ * reads as the worst without colour. */
+const PAPER_EDGE: Record<FitStatus, string> = {
+	clear: '#1f6e5c',
+	tight: '#9c6f0e',
+	blocked: '#4a2a80',
+	collides: '#2a0603',
+	outside: '#434d5c'
+};
+
+export const STATUS_INK = byStatus((s) => ({
+	fill: STATUS_FILL[s],
+	edge: PAPER_EDGE[s],
+	...STATUS_MARK[s]
+}));
 
 /**
  * Budgets (stack, heat, power) have marks of their own, a symbol and a word, never a status's

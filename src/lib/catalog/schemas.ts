@@ -22,6 +22,22 @@ import {
 /** The enclosure's panels by name, for the wall fields. */
 export { PANELS };
 
+const CURRENCY_RULE = 'Currency must be an ISO 4217 code such as EUR, GBP or USD';
+
+/** A price typed in a form: blank, or an amount with up to two decimals. */
+function priceText(label: string, example: string) {
+	return z
+		.string()
+		.trim()
+		.regex(/^(\d{1,7}([.,]\d{1,2})?)?$/, `${label} must be an amount such as ${example}`)
+		.default('');
+}
+
+/** A currency typed in a form (any case). */
+function currencyText() {
+	return z.string().trim().toUpperCase().refine(isCurrencyCode, CURRENCY_RULE).default('EUR');
+}
+
 /** Money, notes and provenance: what a quote needs beyond the engine's PartDef. */
 export const partExtrasSchema = z.object({
 	priceMinor: z
@@ -31,10 +47,7 @@ export const partExtrasSchema = z.object({
 		.max(1_000_000_000, 'Price is too large')
 		.nullable()
 		.default(null),
-	currency: z
-		.string()
-		.refine(isCurrencyCode, 'Currency must be an ISO 4217 code such as EUR, GBP or USD')
-		.default('EUR'),
+	currency: z.string().refine(isCurrencyCode, CURRENCY_RULE).default('EUR'),
 	supplierNote: z.string().max(1000, 'Supplier note can be at most 1000 characters').default('')
 });
 export type PartExtras = z.infer<typeof partExtrasSchema>;
@@ -254,17 +267,8 @@ export const partFormSchema = z.object({
 		.default('estimate'),
 	toleranceMm: thicknessMm('Tolerance').default(0),
 	source: z.string().trim().max(500, 'Source can be at most 500 characters').default(''),
-	price: z
-		.string()
-		.trim()
-		.regex(/^(\d{1,7}([.,]\d{1,2})?)?$/, 'Price must be an amount such as 24.90')
-		.default(''),
-	currency: z
-		.string()
-		.trim()
-		.toUpperCase()
-		.refine(isCurrencyCode, 'Currency must be an ISO 4217 code such as EUR, GBP or USD')
-		.default('EUR'),
+	price: priceText('Price', '24.90'),
+	currency: currencyText(),
 	supplierNote: z
 		.string()
 		.trim()
@@ -341,17 +345,8 @@ export const tubeKindForm = z
 		outerMm: mmText('Outer diameter'),
 		minBendRadiusMm: mmText('Minimum bend radius', true),
 		clearanceMm: mmText('Clearance', true),
-		price: z
-			.string()
-			.trim()
-			.regex(/^(\d{1,7}([.,]\d{1,2})?)?$/, 'Price per metre must be an amount such as 4.50')
-			.default(''),
-		currency: z
-			.string()
-			.trim()
-			.toUpperCase()
-			.refine(isCurrencyCode, 'Currency must be an ISO 4217 code such as EUR, GBP or USD')
-			.default('EUR')
+		price: priceText('Price per metre', '4.50'),
+		currency: currencyText()
 	})
 	.superRefine((t, ctx) => {
 		if (t.kind === 'soft' && t.innerMm === '') {

@@ -4,28 +4,22 @@
  */
 import type { FitStatus, WorldBoxKind } from '$lib/geometry';
 import type { PreviewRole } from './preview-boxes';
-import { STATUS_FILL, type Pattern } from '$lib/builds/drawing-style';
+import { STATUS_FILL, STATUS_MARK, byStatus } from '$lib/builds/drawing-style';
 
-export const STATUS_STYLE: Record<
-	FitStatus,
-	{
-		color: string;
-		edge: string;
-		pattern: Pattern;
-		word: string;
-	}
-> = {
-	clear: { color: STATUS_FILL.clear, edge: '#7fdcc3', pattern: 'plain', word: 'clear' },
-	tight: { color: STATUS_FILL.tight, edge: '#9c6f0e', pattern: 'hatch', word: 'tight' },
-	blocked: { color: STATUS_FILL.blocked, edge: '#c9b0f2', pattern: 'dots', word: 'blocked' },
-	collides: {
-		color: STATUS_FILL.collides,
-		edge: '#ff9a7a',
-		pattern: 'crosshatch',
-		word: 'collides'
-	},
-	outside: { color: STATUS_FILL.outside, edge: '#434d5c', pattern: 'dashed', word: 'outside' }
+/** Edges on the dark 3D ground: lighter than each fill. */
+const SCREEN_EDGE: Record<FitStatus, string> = {
+	clear: '#7fdcc3',
+	tight: '#9c6f0e',
+	blocked: '#c9b0f2',
+	collides: '#ff9a7a',
+	outside: '#434d5c'
 };
+
+export const STATUS_STYLE = byStatus((s) => ({
+	color: STATUS_FILL[s],
+	edge: SCREEN_EDGE[s],
+	...STATUS_MARK[s]
+}));
 
 /** Structure: walls, dividers, brackets and mount plates in the graphite ground, the divider in brass. */
 export const STRUCTURE_STYLE: Record<

@@ -21,14 +21,7 @@ export function statusTexture(status: FitStatus): CanvasTexture | null {
 	g.fillStyle = color;
 	g.fillRect(0, 0, size, size);
 	if (pattern === 'hatch') {
-		g.strokeStyle = edge;
-		g.lineWidth = 5;
-		for (let k = -size; k < size * 2; k += 20) {
-			g.beginPath();
-			g.moveTo(k, size);
-			g.lineTo(k + size, 0);
-			g.stroke();
-		}
+		diagonals(g, size, { color: edge, width: 5, step: 20, both: false });
 	} else if (pattern === 'dots') {
 		g.fillStyle = '#f1eafe';
 		for (let y = 8; y < size; y += 16) {
@@ -40,16 +33,7 @@ export function statusTexture(status: FitStatus): CanvasTexture | null {
 		}
 	} else if (pattern === 'crosshatch') {
 		// Collides: lines both ways and a heavy dark edge (the worst reads so without colour).
-		g.strokeStyle = edge;
-		g.lineWidth = 3;
-		for (let k = -size; k < size * 2; k += 16) {
-			g.beginPath();
-			g.moveTo(k, size);
-			g.lineTo(k + size, 0);
-			g.moveTo(k, 0);
-			g.lineTo(k + size, size);
-			g.stroke();
-		}
+		diagonals(g, size, { color: edge, width: 3, step: 16, both: true });
 		g.strokeStyle = '#2a0603';
 		g.lineWidth = 8;
 		g.strokeRect(4, 4, size - 8, size - 8);
@@ -59,4 +43,24 @@ export function statusTexture(status: FitStatus): CanvasTexture | null {
 	texture.colorSpace = SRGBColorSpace;
 	cache.set(status, texture);
 	return texture;
+}
+
+/** Diagonal lines across the square every `step` pixels, rising, and falling too when `both`. */
+function diagonals(
+	g: CanvasRenderingContext2D,
+	size: number,
+	line: { color: string; width: number; step: number; both: boolean }
+) {
+	g.strokeStyle = line.color;
+	g.lineWidth = line.width;
+	for (let k = -size; k < size * 2; k += line.step) {
+		g.beginPath();
+		g.moveTo(k, size);
+		g.lineTo(k + size, 0);
+		if (line.both) {
+			g.moveTo(k, 0);
+			g.lineTo(k + size, size);
+		}
+		g.stroke();
+	}
 }
