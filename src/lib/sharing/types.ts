@@ -106,14 +106,13 @@ export type ClientPageData = {
 	deposit: string | null;
 };
 
-export type ThreadItem = {
-	kind: 'comment' | 'approved' | 'changes';
-	body: string;
-	authorName: string;
+/** A comment as the thread shows it, from the client view or from the studio's own list. */
+export type ThreadItem = Pick<
+	ClientComment,
+	'kind' | 'body' | 'authorName' | 'partLabel' | 'version'
+> & {
 	side: string;
-	partLabel: string | null;
 	at: Date | string;
-	version: number;
 };
 
 /** One variant's standing with the client, for the studio's pages. */
