@@ -390,28 +390,33 @@ function drawingKey(w: Writer, left: number, top: number) {
 type Column = { title: string; widthMm: number; cell: (i: number) => string };
 
 function table(w: Writer, rows: number, columns: Column[], size = 8) {
-	const drawHeader = () => {
-		let x = w.left;
+	/** One row of cells in `font` at the current line, then a rule under it. */
+	const row = (
+		text: (c: Column) => string,
+		font: string,
+		rule: { widthPt: number; color: string }
+	) => {
 		const y = w.yMm;
+		let x = w.left;
+		const h = Math.max(...columns.map((c) => w.heightOf(text(c), size, c.widthMm - 1.5, font)));
 		for (const c of columns) {
 			w.doc
-				.font(w.fonts.bold)
+				.font(font)
 				.fontSize(size)
 				.fillColor(INK.text)
-				.text(w.fonts.text(c.title), mmToPt(x), mmToPt(y), { width: mmToPt(c.widthMm - 1.5) });
+				.text(w.fonts.text(text(c)), mmToPt(x), mmToPt(y), { width: mmToPt(c.widthMm - 1.5) });
 			x += c.widthMm;
 		}
-		w.yMm =
-			y +
-			Math.max(...columns.map((c) => w.heightOf(c.title, size, c.widthMm - 1.5, w.fonts.bold))) +
-			0.8;
+		w.yMm = y + h + 0.8;
 		w.doc
 			.moveTo(mmToPt(w.left), w.doc.y)
 			.lineTo(mmToPt(w.left + w.width), w.doc.y)
-			.lineWidth(0.4 * PT)
-			.stroke(INK.line);
+			.lineWidth(rule.widthPt)
+			.stroke(rule.color);
 		w.yMm += 1;
 	};
+	const drawHeader = () =>
+		row((c) => c.title, w.fonts.bold, { widthPt: 0.4 * PT, color: INK.line });
 	w.need(14);
 	drawHeader();
 	for (let i = 0; i < rows; i++) {
@@ -420,23 +425,7 @@ function table(w: Writer, rows: number, columns: Column[], size = 8) {
 			w.newPage();
 			drawHeader();
 		}
-		const y = w.yMm;
-		let x = w.left;
-		for (const c of columns) {
-			w.doc
-				.font(w.fonts.regular)
-				.fontSize(size)
-				.fillColor(INK.text)
-				.text(w.fonts.text(c.cell(i)), mmToPt(x), mmToPt(y), { width: mmToPt(c.widthMm - 1.5) });
-			x += c.widthMm;
-		}
-		w.yMm = y + h + 0.8;
-		w.doc
-			.moveTo(mmToPt(w.left), w.doc.y)
-			.lineTo(mmToPt(w.left + w.width), w.doc.y)
-			.lineWidth(0.15 * PT)
-			.stroke('#ddd3c0');
-		w.yMm += 1;
+		row((c) => c.cell(i), w.fonts.regular, { widthPt: 0.15 * PT, color: '#ddd3c0' });
 	}
 }
 
