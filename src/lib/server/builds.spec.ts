@@ -7,9 +7,9 @@ import { describe, expect, it } from 'vitest';
 import { MAX_BOXES, type FitReport, type PartDef } from '$lib/geometry';
 import { DEMO_SPINE_OFFSETS, demoParts } from '$lib/geometry/standard-library';
 import { variantSettingsSchema, type VariantSettings } from '$lib/builds/settings';
-import { SceneRejected, loadVariant, saveVariantSettings } from './builds';
+import { SceneRejected, loadVariant } from './builds';
 import { buildRows } from './testing/builds-access-rows';
-import { demoBuildIn, storedVariant, type TestBuild } from './testing/builds';
+import { demoBuildIn, saveOver as save, storedVariant, type TestBuild } from './testing/builds';
 import { createPart } from './catalog/parts';
 import { runAccessMatrix } from './testing/access-matrix';
 import { studioWithMembers } from './testing/factories';
@@ -21,17 +21,6 @@ async function fixture() {
 	const f = await studioWithMembers();
 	const build = await demoBuildIn(f.studio.id, f.owner.id);
 	return { ...f, build };
-}
-
-function save(b: TestBuild, expectedVersion: number, settings: unknown) {
-	return saveVariantSettings({
-		buildId: b.buildId,
-		studioId: b.studioId,
-		enclosureVersionId: b.enclosureVersionId,
-		variantId: b.variantId,
-		expectedVersion,
-		settings
-	});
 }
 
 const load = (b: TestBuild) =>

@@ -8,34 +8,18 @@ import { checkScene, resolveScene } from '$lib/geometry';
 import type { VariantSettings } from '$lib/builds/settings';
 import { buildSheet } from '$lib/builds/sheet';
 import { addCable, cableFromDraft, removeCable } from '$lib/loop/cables';
-import { SceneRejected, loadVariant, saveVariantSettings } from './builds';
-import { demoBuildIn, storedVariant, type TestBuild } from './testing/builds';
+import { loadVariant } from './builds';
+import {
+	demoBuildIn,
+	saveOver as save,
+	sceneRefusal as refusal,
+	storedVariant
+} from './testing/builds';
 import { studioWithMembers } from './testing/factories';
 
 async function fixture() {
 	const f = await studioWithMembers();
 	return demoBuildIn(f.studio.id, f.owner.id);
-}
-
-function save(b: TestBuild, expectedVersion: number, settings: VariantSettings) {
-	return saveVariantSettings({
-		buildId: b.buildId,
-		studioId: b.studioId,
-		enclosureVersionId: b.enclosureVersionId,
-		variantId: b.variantId,
-		expectedVersion,
-		settings
-	});
-}
-
-async function refusal(p: Promise<unknown>) {
-	try {
-		await p;
-	} catch (e) {
-		if (e instanceof SceneRejected) return { status: e.status, issues: e.issues };
-		throw e;
-	}
-	throw new Error('saved');
 }
 
 /** The card's power cable as the form makes it: supply pcie socket → card power, "Card power". */

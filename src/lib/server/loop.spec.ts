@@ -5,9 +5,8 @@
  */
 import { describe, expect, it } from 'vitest';
 import { checkScene, type LoopDef } from '$lib/geometry';
-import type { VariantSettings } from '$lib/builds/settings';
-import { SceneRejected, loadVariant, saveVariantSettings } from './builds';
-import { demoBuildIn, type TestBuild } from './testing/builds';
+import { loadVariant } from './builds';
+import { demoBuildIn, saveOver as save, sceneRefusal as refusal } from './testing/builds';
 import { createTubeKind, tubeKindsForStudio } from './loop';
 import { ensureQuote } from './sharing/quotes';
 import { buildSheet } from '$lib/builds/sheet';
@@ -60,27 +59,6 @@ async function fixture() {
 	});
 	if (!created.ok) throw new Error(JSON.stringify(created.issues));
 	return { ...f, build, tubeId: created.id };
-}
-
-function save(b: TestBuild, expectedVersion: number, settings: VariantSettings) {
-	return saveVariantSettings({
-		buildId: b.buildId,
-		studioId: b.studioId,
-		enclosureVersionId: b.enclosureVersionId,
-		variantId: b.variantId,
-		expectedVersion,
-		settings
-	});
-}
-
-async function refusal(p: Promise<unknown>) {
-	try {
-		await p;
-	} catch (e) {
-		if (e instanceof SceneRejected) return { status: e.status, issues: e.issues };
-		throw e;
-	}
-	throw new Error('saved');
 }
 
 describe('a variant with a loop', () => {

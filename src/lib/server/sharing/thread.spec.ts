@@ -28,6 +28,16 @@ const client = (linkId: string): Author => ({
 	side: 'client'
 });
 
+/** Who writes and about what: the shared build's variant at a version, as the link's client. */
+function asClient(s: Awaited<ReturnType<typeof sharedDemo>>, variantVersion: number) {
+	return {
+		buildId: s.buildId,
+		variantId: s.variantId,
+		variantVersion,
+		author: client(s.link.id)
+	};
+}
+
 async function sceneOf(s: Awaited<ReturnType<typeof sharedDemo>>) {
 	const loaded = await loadVariant(s.buildId, s.studio.id, s.enclosureVersionId, s.variantId);
 	return loaded!.scene;
@@ -39,10 +49,7 @@ describe('approval freezes a version', () => {
 		const v1 = await variantRow(s.variantId);
 		const scene1 = await sceneOf(s);
 		const first = await approveVersion({
-			buildId: s.buildId,
-			variantId: s.variantId,
-			variantVersion: 1,
-			author: client(s.link.id),
+			...asClient(s, 1),
 			message: 'Looks right.',
 			scene: scene1
 		});
@@ -67,10 +74,7 @@ describe('approval freezes a version', () => {
 
 		// The client asks for changes: the designer may change it and save version 2.
 		await requestChanges({
-			buildId: s.buildId,
-			variantId: s.variantId,
-			variantVersion: 1,
-			author: client(s.link.id),
+			...asClient(s, 1),
 			message: 'The spine one slot over, please.'
 		});
 		expect((await save()).ok).toBe(true);
@@ -94,20 +98,14 @@ describe('approval freezes a version', () => {
 
 		// Approving the old version again is refused: the client must look at the new one.
 		const stale = await approveVersion({
-			buildId: s.buildId,
-			variantId: s.variantId,
-			variantVersion: 1,
-			author: client(s.link.id),
+			...asClient(s, 1),
 			message: '',
 			scene: scene1
 		});
 		expect(stale).toMatchObject({ ok: false, reason: 'changed', currentVersion: 2 });
 
 		const second = await approveVersion({
-			buildId: s.buildId,
-			variantId: s.variantId,
-			variantVersion: 2,
-			author: client(s.link.id),
+			...asClient(s, 2),
 			message: '',
 			scene: await sceneOf(s)
 		});
@@ -123,18 +121,12 @@ describe('approval freezes a version', () => {
 		const v = await variantRow(s.variantId);
 		const scene = await sceneOf(s);
 		await approveVersion({
-			buildId: s.buildId,
-			variantId: s.variantId,
-			variantVersion: v.version,
-			author: client(s.link.id),
+			...asClient(s, v.version),
 			message: '',
 			scene
 		});
 		const again = await approveVersion({
-			buildId: s.buildId,
-			variantId: s.variantId,
-			variantVersion: v.version,
-			author: client(s.link.id),
+			...asClient(s, v.version),
 			message: '',
 			scene
 		});
@@ -146,26 +138,17 @@ describe('approval freezes a version', () => {
 		const s = await sharedDemo();
 		const v = await variantRow(s.variantId);
 		await addComment({
-			buildId: s.buildId,
-			variantId: s.variantId,
-			variantVersion: v.version,
-			author: client(s.link.id),
+			...asClient(s, v.version),
 			body: 'Is the pump reachable?',
 			placementId: 'pump-res',
 			partLabel: 'pump-reservoir'
 		});
 		await requestChanges({
-			buildId: s.buildId,
-			variantId: s.variantId,
-			variantVersion: v.version,
-			author: client(s.link.id),
+			...asClient(s, v.version),
 			message: 'A larger radiator, please.'
 		});
 		await approveVersion({
-			buildId: s.buildId,
-			variantId: s.variantId,
-			variantVersion: v.version,
-			author: client(s.link.id),
+			...asClient(s, v.version),
 			message: '',
 			scene: await sceneOf(s)
 		});

@@ -6,7 +6,7 @@
 import { eq } from 'drizzle-orm';
 import { demoEnclosure, demoParts, demoSceneInput } from '$lib/geometry/standard-library';
 import { variantSettingsSchema, type VariantSettings } from '$lib/builds/settings';
-import { createBuild, saveVariantSettings, variantsOf } from '../builds';
+import { SceneRejected, createBuild, saveVariantSettings, variantsOf } from '../builds';
 import { createEnclosure } from '../catalog/enclosures';
 import { createPart } from '../catalog/parts';
 import { innerVolumeLitres } from '$lib/geometry/enclosure';
@@ -138,4 +138,29 @@ export async function storedVariant(variantId: string) {
 export async function buildCount(studioId: string) {
 	return (await db.select({ id: builds.id }).from(builds).where(eq(builds.studioId, studioId)))
 		.length;
+}
+
+/** Saves settings over the test build's variant, expecting it to be at `expectedVersion`. */
+export function saveOver(b: TestBuild, expectedVersion: number, settings: unknown) {
+	return saveVariantSettings({
+		buildId: b.buildId,
+		studioId: b.studioId,
+		enclosureVersionId: b.enclosureVersionId,
+		variantId: b.variantId,
+		expectedVersion,
+		settings
+	});
+}
+
+/** The status and issues of a save the server refused; any other outcome fails the test. */
+export async function sceneRefusal(p: Promise<unknown>) {
+	try {
+		await p;
+	} catch (e) {
+		if (e instanceof SceneRejected) {
+			return { status: e.status, issues: e.issues };
+		}
+		throw e;
+	}
+	throw new Error('saved');
 }
