@@ -303,44 +303,43 @@ function roomContext(enclosure: EnclosureDef): RoomContext {
 	return ctx;
 }
 
+/** The value cached under `key`, made by `make` the first time it is asked for. */
+function cached<V>(map: Map<number, V>, key: number, make: () => V): V {
+	let v = map.get(key);
+	if (v === undefined) {
+		v = make();
+		map.set(key, v);
+	}
+	return v;
+}
+
 /** formatMm, each value formatted once per table. */
 function mmOf(ctx: RoomContext, valueMm: number): string {
-	let s = ctx.mm.get(valueMm);
-	if (s === undefined) {
-		s = formatMm(valueMm);
-		ctx.mm.set(valueMm, s);
-	}
-	return s;
+	return cached(ctx.mm, valueMm, () => formatMm(valueMm));
 }
 
 function dividerAt(ctx: RoomContext, k: number, offsetMm: number): Obstacle {
-	let o = ctx.dividerAt[k].get(offsetMm);
-	if (!o) {
+	return cached(ctx.dividerAt[k], offsetMm, () => {
 		const d = ctx.enclosure.dividers[k];
-		o = {
+		return {
 			id: `divider:${d.id}`,
 			label: d.label,
 			box: dividerBoxAt(ctx.enclosure, d, offsetMm),
 			serial: ctx.next++
 		};
-		ctx.dividerAt[k].set(offsetMm, o);
-	}
-	return o;
+	});
 }
 
 function bracketAt(ctx: RoomContext, k: number, offsetMm: number): Obstacle {
-	let o = ctx.bracketAt[k].get(offsetMm);
-	if (!o) {
+	return cached(ctx.bracketAt[k], offsetMm, () => {
 		const b = ctx.enclosure.brackets[k];
-		o = {
+		return {
 			id: `bracket:${b.id}`,
 			label: `${b.label} at ${mmOf(ctx, offsetMm)}`,
 			box: bracketBoxAt(b, offsetMm),
 			serial: ctx.next++
 		};
-		ctx.bracketAt[k].set(offsetMm, o);
-	}
-	return o;
+	});
 }
 
 /** Overlapping or touching (closed boxes, within the tolerance): what a box's figures can see. */
