@@ -27,6 +27,15 @@ export type AxisIndex = 0 | 1 | 2;
  */
 export const FACES = ['-x', '+x', '-y', '+y', '-z', '+z'] as const;
 export type Face = (typeof FACES)[number];
+/** The outward unit vector of each face, in FACES order. */
+export const FACE_UNIT: Readonly<Record<Face, Vec3>> = {
+	'-x': [-1, 0, 0],
+	'+x': [1, 0, 0],
+	'-y': [0, -1, 0],
+	'+y': [0, 1, 0],
+	'-z': [0, 0, -1],
+	'+z': [0, 0, 1]
+};
 /** The enclosure's panel on each face, in the same order: PANELS[k] is the wall on FACES[k]. */
 export const PANELS = ['left', 'right', 'bottom', 'top', 'front', 'back'] as const;
 export type PanelName = (typeof PANELS)[number];

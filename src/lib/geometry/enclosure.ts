@@ -33,7 +33,8 @@ const PAIRS: [PanelName, PanelName][] = [
 	['bottom', 'top'],
 	['front', 'back']
 ];
-const FACE_LABELS: Record<PanelName, string> = {
+/** Each panel's name as the reports write it. */
+export const PANEL_LABELS: Record<PanelName, string> = {
 	left: 'Left panel',
 	right: 'Right panel',
 	bottom: 'Bottom panel',
@@ -94,7 +95,7 @@ export function wallBoxes(enclosure: EnclosureDef): WorldBox[] {
 		out.push({
 			id: `wall:${face}`,
 			kind: 'wall',
-			label: FACE_LABELS[face],
+			label: PANEL_LABELS[face],
 			box: { min, max },
 			ownerId: `wall:${face}`,
 			wallKind: spec.kind,

@@ -11,8 +11,8 @@
  * the maximal empty boxes.
  */
 
-import { EPSILON_MM, FACES, boxSize, boxVolume, compareText, type Face } from './box';
-import { FACE_AXES } from './enclosure';
+import { EPSILON_MM, FACES, boxSize, boxVolume, compareText, panelOf, type Face } from './box';
+import { FACE_AXES, PANEL_LABELS } from './enclosure';
 import type { Box, MountDef, Vec3 } from './schema';
 import type { ResolvedScene } from './types';
 
@@ -184,15 +184,6 @@ export function sceneObstacles(resolved: ResolvedScene, ignorePlacementId?: stri
 	return out;
 }
 
-const PANEL_OF: Record<Face, string> = {
-	'-x': 'Left panel',
-	'+x': 'Right panel',
-	'-y': 'Bottom panel',
-	'+y': 'Top panel',
-	'-z': 'Front panel',
-	'+z': 'Back panel'
-};
-
 /** Labels for a container's faces: the panel where it lies on the inner box, else `other`. */
 export function containerLabels(container: Box, inner: Box, other: string): Record<Face, string> {
 	const out = {} as Record<Face, string>;
@@ -201,7 +192,7 @@ export function containerLabels(container: Box, inner: Box, other: string): Reco
 		const onPanel = high
 			? Math.abs(container.max[a] - inner.max[a]) <= EPSILON_MM
 			: Math.abs(container.min[a] - inner.min[a]) <= EPSILON_MM;
-		out[f] = onPanel ? PANEL_OF[f] : other;
+		out[f] = onPanel ? PANEL_LABELS[panelOf(f)] : other;
 	}
 	return out;
 }

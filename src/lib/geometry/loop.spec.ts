@@ -3,12 +3,13 @@ import { describe, expect, it } from 'vitest';
 import { checkScene } from './check';
 import {
 	blockPart,
+	facingBlocksScene,
 	makeScene,
 	plainEnclosure,
 	pumpLoopScene
 } from '../server/testing/engine-factories';
 import { checkLoops, loopBill, runPieces, type RunCache, type LoopReport } from './loop';
-import { defaultFittings, defaultTubeKinds } from './loop-library';
+import { defaultTubeKinds } from './loop-library';
 import {
 	add,
 	bendsOf,
@@ -55,40 +56,7 @@ describe('cut lengths, worked by hand', () => {
 		// Two ports facing each other 100 mm apart: (100, 50, 50) +x and (200, 50, 50) −x. Straight
 		// fittings reach 24 mm each, so the tube's centre line runs 124 → 176 mm: 52 mm. Cut length
 		// 52 + 10 + 10 = 72 mm.
-		const a: PartDef = {
-			...blockPart('a', [100, 100, 100]),
-			ports: [{ id: 'p', position: [100, 50, 50], direction: '+x', thread: 'G 1/4' }]
-		};
-		const b: PartDef = {
-			...blockPart('b', [100, 100, 100]),
-			ports: [{ id: 'p', position: [0, 50, 50], direction: '-x', thread: 'G 1/4' }]
-		};
-		const input: SceneInput = {
-			format: 'interstice.scene',
-			version: 1,
-			enclosure: plainEnclosure([400, 200, 200]),
-			parts: [a, b, ...defaultFittings()],
-			placements: [
-				{ id: 'a1', partId: 'a', position: [0, 0, 0] },
-				{ id: 'b1', partId: 'b', position: [200, 0, 0] }
-			],
-			tubeKinds: defaultTubeKinds(),
-			loops: [
-				{
-					id: 'l',
-					runs: [
-						{
-							id: 'r',
-							from: { placementId: 'a1', portId: 'p' },
-							to: { placementId: 'b1', portId: 'p' },
-							tube: 'hard-16',
-							fittings: { from: 'fit-straight-16', to: 'fit-straight-16' },
-							waypoints: []
-						}
-					]
-				}
-			]
-		};
+		const input = facingBlocksScene(200);
 		const [loop] = loopsOf(input);
 		expect(loop.runs[0].lengthMm).toBeCloseTo(52, 9);
 		expect(loop.runs[0].cutLengthMm).toBeCloseTo(72, 9);

@@ -5,7 +5,7 @@
  * bill of tube and fittings. Millimetres, inner coordinates, Y up.
  */
 
-import { EPSILON_MM, boxesOverlap, compareText, intersectBoxes } from './box';
+import { EPSILON_MM, boxesOverlap, compareText, intersectBoxes, panelOf } from './box';
 import {
 	DEFAULT_THREAD,
 	add,
@@ -530,15 +530,6 @@ function reachability(ctx: LoopCheckContext, ref: PortRef): string | null {
 	return null;
 }
 
-const PANEL_OF: Record<string, string> = {
-	'+x': 'right',
-	'-x': 'left',
-	'+y': 'top',
-	'-y': 'bottom',
-	'+z': 'back',
-	'-z': 'front'
-};
-
 /** Near enough to the lowest point to drain nearly all of the loop, mm (common practice). */
 export const DRAIN_NEAR_MM = 20;
 
@@ -643,7 +634,7 @@ function loopChecks(ctx: LoopCheckContext, loop: LoopDef, runs: BuiltRun[]): Loo
 		const ok = (onTop || below <= 0.5) && blocked === null;
 		const reach = port
 			? blocked === null
-				? `reachable through the ${PANEL_OF[port.direction]} panel`
+				? `reachable through the ${panelOf(port.direction)} panel`
 				: `not reachable: ${blocked}`
 			: 'missing';
 		checks.push(

@@ -9,6 +9,7 @@ import { Box3, Vector3 } from 'three';
 import { describe, expect, it } from 'vitest';
 import { boxVolume, intersectBoxes } from './box';
 import { checkScene } from './check';
+import { runDef } from '../server/testing/engine-factories';
 import { dividerBoxAt, dividerOpeningBoxes, dividerPiecesAt, subtractBox } from './enclosure';
 import { checkLoops } from './loop';
 import { defaultTubeKinds } from './loop-library';
@@ -200,16 +201,7 @@ describe('divider openings in the engine', () => {
 		const loops = [
 			{
 				id: 'main',
-				runs: [
-					{
-						id: 'r1',
-						from: { placementId: 'radiator', portId: 'out' },
-						to: { placementId: 'pump-res', portId: 'in' },
-						tube: 'hard-12',
-						fittings: { from: null, to: null },
-						waypoints: []
-					}
-				],
+				runs: [runDef('r1', ['radiator', 'out'], ['pump-res', 'in'], 'hard-12')],
 				plugs: []
 			}
 		];
@@ -275,14 +267,8 @@ describe('divider openings in the engine', () => {
 		// inlet (38.6, 225, 153); run 2 leaves the block's outlet (38.6, 245, 153), rises to the
 		// bulkhead's cut-out and ends on the radiator's inlet (75, 320.5, 30); run 3 is straight, from
 		// the radiator's outlet (109, 320.5, 30) through the bulkhead to the pump inlet (109, 320.5, 150).
-		const hard = (id: string, from: [string, string], to: [string, string], waypoints: Vec3[]) => ({
-			id,
-			from: { placementId: from[0], portId: from[1] },
-			to: { placementId: to[0], portId: to[1] },
-			tube: 'hard-12',
-			fittings: { from: null, to: null },
-			waypoints
-		});
+		const hard = (id: string, from: [string, string], to: [string, string], waypoints: Vec3[]) =>
+			runDef(id, from, to, 'hard-12', [null, null], waypoints);
 		const scene = sceneSchema.parse({
 			...demoSceneInput(),
 			tubeKinds: defaultTubeKinds(),

@@ -6,7 +6,14 @@
  */
 
 import { AXES, EPSILON_MM, boxSize, type AxisIndex, type Face, type PanelName } from './box';
-import { FACE_AXES, bracketBoxAt, compartmentsFor, dividerBoxAt, innerBoxOf } from './enclosure';
+import {
+	FACE_AXES,
+	PANEL_LABELS,
+	bracketBoxAt,
+	compartmentsFor,
+	dividerBoxAt,
+	innerBoxOf
+} from './enclosure';
 import { SceneError } from './errors';
 import { plateNeeded } from './mounts';
 import { BOARD_THICKNESS_MM } from './standard-library';
@@ -96,14 +103,6 @@ export interface RoomTable {
 	note: string | null;
 }
 
-const PANEL: Record<PanelName, string> = {
-	left: 'Left panel',
-	right: 'Right panel',
-	bottom: 'Bottom panel',
-	top: 'Top panel',
-	front: 'Front panel',
-	back: 'Back panel'
-};
 const FACE_WORD: Record<Face, string> = {
 	'-x': 'left panel',
 	'+x': 'right panel',
@@ -145,7 +144,7 @@ function panelOf(box: Box, inner: Box, f: Face): string {
 	const onPanel = high
 		? Math.abs(box.max[axis] - inner.max[axis]) <= EPSILON_MM
 		: Math.abs(box.min[axis] - inner.min[axis]) <= EPSILON_MM;
-	return onPanel ? PANEL[FACE_NAME_OF[f]] : '';
+	return onPanel ? PANEL_LABELS[FACE_NAME_OF[f]] : '';
 }
 
 function shares(a: Box, b: Box, axis: number): boolean {
@@ -172,7 +171,7 @@ export function reach(
 	const panelFace = FACE_NAMES_BY_AXIS[axis][dir > 0 ? 1 : 0];
 	let best = {
 		distanceMm: dir > 0 ? inner.max[axis] - start : start - inner.min[axis],
-		against: PANEL[panelFace]
+		against: PANEL_LABELS[panelFace]
 	};
 	for (const o of obstacles) {
 		if (!shares(o.box, cross, axis)) continue;
@@ -304,44 +303,43 @@ function roomContext(enclosure: EnclosureDef): RoomContext {
 	return ctx;
 }
 
+/** The value cached under `key`, made by `make` the first time it is asked for. */
+function cached<V>(map: Map<number, V>, key: number, make: () => V): V {
+	let v = map.get(key);
+	if (v === undefined) {
+		v = make();
+		map.set(key, v);
+	}
+	return v;
+}
+
 /** formatMm, each value formatted once per table. */
 function mmOf(ctx: RoomContext, valueMm: number): string {
-	let s = ctx.mm.get(valueMm);
-	if (s === undefined) {
-		s = formatMm(valueMm);
-		ctx.mm.set(valueMm, s);
-	}
-	return s;
+	return cached(ctx.mm, valueMm, () => formatMm(valueMm));
 }
 
 function dividerAt(ctx: RoomContext, k: number, offsetMm: number): Obstacle {
-	let o = ctx.dividerAt[k].get(offsetMm);
-	if (!o) {
+	return cached(ctx.dividerAt[k], offsetMm, () => {
 		const d = ctx.enclosure.dividers[k];
-		o = {
+		return {
 			id: `divider:${d.id}`,
 			label: d.label,
 			box: dividerBoxAt(ctx.enclosure, d, offsetMm),
 			serial: ctx.next++
 		};
-		ctx.dividerAt[k].set(offsetMm, o);
-	}
-	return o;
+	});
 }
 
 function bracketAt(ctx: RoomContext, k: number, offsetMm: number): Obstacle {
-	let o = ctx.bracketAt[k].get(offsetMm);
-	if (!o) {
+	return cached(ctx.bracketAt[k], offsetMm, () => {
 		const b = ctx.enclosure.brackets[k];
-		o = {
+		return {
 			id: `bracket:${b.id}`,
 			label: `${b.label} at ${mmOf(ctx, offsetMm)}`,
 			box: bracketBoxAt(b, offsetMm),
 			serial: ctx.next++
 		};
-		ctx.bracketAt[k].set(offsetMm, o);
-	}
-	return o;
+	});
 }
 
 /** Overlapping or touching (closed boxes, within the tolerance): what a box's figures can see. */
@@ -597,7 +595,7 @@ function slotFigures(
 			kind: 'card-length',
 			label: `Longest card in the ${m.label}`,
 			valueMm: r.distanceMm,
-			boundedBy: `from the ${PANEL[m.face]} to the ${r.against}`
+			boundedBy: `from the ${PANEL_LABELS[m.face]} to the ${r.against}`
 		},
 		{
 			id: `card-slots:${m.id}`,

@@ -4,19 +4,9 @@
  * obstacles) and a port's end point pushed out by its fitting's or plug's reach. Millimetres.
  */
 
-import { FACES, type Face } from './box';
-import type { Vec3 } from './schema';
+import { FACES, FACE_UNIT } from './box';
 import type { ResolvedScene } from './types';
 import type { RouteEnd, RouteObstacle } from './route';
-
-const UNIT: Record<Face, Vec3> = {
-	'-x': [-1, 0, 0],
-	'+x': [1, 0, 0],
-	'-y': [0, -1, 0],
-	'+y': [0, 1, 0],
-	'-z': [0, 0, -1],
-	'+z': [0, 0, 1]
-};
 
 /** Every box a run must clear, by its world-box id and label. */
 export function routeObstacles(
@@ -52,7 +42,7 @@ export function portEnd(
 	const rp = resolved.placements.find((p) => p.placement.id === placementId);
 	const port = rp?.ports.find((p) => p.id === portId);
 	if (!port || !FACES.includes(port.direction)) return null;
-	const u = UNIT[port.direction];
+	const u = FACE_UNIT[port.direction];
 	return {
 		point: [
 			port.position[0] + u[0] * reachMm,

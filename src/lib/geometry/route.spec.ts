@@ -9,18 +9,16 @@ import {
 	type RouteInput,
 	type RouteObstacle
 } from './route';
-import type { Face } from './box';
+import { FACE_UNIT, type Face } from './box';
 import type { Box, Vec3 } from './schema';
 
 const FACES: Face[] = ['-x', '+x', '-y', '+y', '-z', '+z'];
-const UNIT: Record<Face, Vec3> = {
-	'-x': [-1, 0, 0],
-	'+x': [1, 0, 0],
-	'-y': [0, -1, 0],
-	'+y': [0, 1, 0],
-	'-z': [0, 0, -1],
-	'+z': [0, 0, 1]
-};
+/** A run's end point well inside the random scenes' 20 × 12 × 12 bounds. */
+const endPointArb = fc.tuple(
+	fc.integer({ min: 2, max: 18 }),
+	fc.integer({ min: 2, max: 10 }),
+	fc.integer({ min: 2, max: 10 })
+);
 
 /**
  * Independent oracle: Dijkstra over every integer point of the bounds (a 1-unit grid, finer than
@@ -108,7 +106,7 @@ function bruteForce(input: RouteInput): number {
 		}
 		return k;
 	};
-	const su = UNIT[FACES[sd]];
+	const su = FACE_UNIT[FACES[sd]];
 	if (sd === ed && ahead(S, su) > 0 && piece(S, E, 0, 0)) best = ahead(S, su);
 	const first = Math.max(r, 1);
 	const L = add(S, su, first);
@@ -116,13 +114,13 @@ function bruteForce(input: RouteInput): number {
 	for (let g = 0; g < buckets.length && g < best; g++) {
 		for (const { p, d } of buckets[g] ?? []) {
 			if (g > (dist.get(key(p, d)) ?? Infinity)) continue;
-			const u = UNIT[FACES[d]];
+			const u = FACE_UNIT[FACES[d]];
 			const q = add(p, u, 1);
 			if (d === ed && ahead(p, u) === 1 && piece(p, q, half, 0)) best = Math.min(best, g + 1);
 			if (piece(p, q, half, half)) push(q, d, g + 1);
 			for (let d2 = 0; d2 < 6; d2++) {
 				if (d2 >> 1 === d >> 1) continue;
-				const v = UNIT[FACES[d2]];
+				const v = FACE_UNIT[FACES[d2]];
 				if (!bend(p, u, v)) continue;
 				const k = ahead(p, v);
 				if (d2 === ed && k >= r && k > 0 && piece(p, E, half, 0)) best = Math.min(best, g + B + k);
@@ -154,16 +152,8 @@ const sceneArb = fc
 			}),
 			{ maxLength: 5 }
 		),
-		s: fc.tuple(
-			fc.integer({ min: 2, max: 18 }),
-			fc.integer({ min: 2, max: 10 }),
-			fc.integer({ min: 2, max: 10 })
-		),
-		e: fc.tuple(
-			fc.integer({ min: 2, max: 18 }),
-			fc.integer({ min: 2, max: 10 }),
-			fc.integer({ min: 2, max: 10 })
-		),
+		s: endPointArb,
+		e: endPointArb,
 		sd: fc.constantFrom(...FACES),
 		ed: fc.constantFrom(...FACES),
 		// A bend radius below the half-width is no tube; the oracle takes r ≥ 1 = the half-width.
@@ -364,8 +354,8 @@ describe('findRoute', { timeout: 180_000 }, () => {
 					);
 				const S = input.start.point;
 				const E = input.end.point;
-				const su = UNIT[input.start.direction];
-				const eu = UNIT[input.end.direction];
+				const su = FACE_UNIT[input.start.direction];
+				const eu = FACE_UNIT[input.end.direction];
 				const s1: Vec3 = [S[0] + su[0], S[1] + su[1], S[2] + su[2]];
 				const e1: Vec3 = [E[0] + eu[0], E[1] + eu[1], E[2] + eu[2]];
 				// The first unit out of each port is a piece of its own: free across, not behind.
@@ -389,7 +379,7 @@ describe('findRoute', { timeout: 180_000 }, () => {
 					while (queue.length && !connected) {
 						const p = queue.pop()!;
 						if (p.join() === e1.join()) connected = true;
-						for (const u of Object.values(UNIT)) {
+						for (const u of Object.values(FACE_UNIT)) {
 							const q: Vec3 = [p[0] + u[0], p[1] + u[1], p[2] + u[2]];
 							if (!seen.has(q.join()) && cubeFree(q)) {
 								seen.add(q.join());
@@ -441,7 +431,7 @@ describe('findRoute', { timeout: 180_000 }, () => {
 				while (queue.length && !connected) {
 					const p = queue.pop()!;
 					if (p.join() === E.join()) connected = true;
-					for (const u of Object.values(UNIT)) {
+					for (const u of Object.values(FACE_UNIT)) {
 						const q: Vec3 = [p[0] + u[0], p[1] + u[1], p[2] + u[2]];
 						if (!seen.has(q.join()) && sweepFree(p, q)) {
 							seen.add(q.join());
@@ -549,16 +539,8 @@ describe('findRoute', { timeout: 180_000 }, () => {
 		// routeMany keeps a run's own best route when it is still clear of the runs placed before;
 		// the oracle searches again with those runs' boxes as obstacles.
 		const second = fc.record({
-			s: fc.tuple(
-				fc.integer({ min: 2, max: 18 }),
-				fc.integer({ min: 2, max: 10 }),
-				fc.integer({ min: 2, max: 10 })
-			),
-			e: fc.tuple(
-				fc.integer({ min: 2, max: 18 }),
-				fc.integer({ min: 2, max: 10 }),
-				fc.integer({ min: 2, max: 10 })
-			),
+			s: endPointArb,
+			e: endPointArb,
 			sd: fc.constantFrom(...FACES),
 			ed: fc.constantFrom(...FACES)
 		});

@@ -5,6 +5,7 @@ import { resolveScene } from '$lib/geometry/resolve';
 import { defaultTubeKinds } from '$lib/geometry/loop-library';
 import { demoSceneInput } from '$lib/geometry/standard-library';
 import type { VariantSettings } from '$lib/builds/settings';
+import { runDef } from '$lib/server/testing/engine-factories';
 import { dragWaypoint, portMarkers, waypointHandles } from './handles';
 
 const hard = defaultTubeKinds().find((t) => t.id === 'hard-12')!;
@@ -29,14 +30,7 @@ function settings(tube: string): VariantSettings {
 			{
 				id: 'main',
 				runs: [
-					{
-						id: 'r1',
-						from: { placementId: 'pump-res', portId: 'out' },
-						to: { placementId: 'cpu-block', portId: 'in' },
-						tube,
-						fittings: { from: null, to: null },
-						waypoints
-					}
+					runDef('r1', ['pump-res', 'out'], ['cpu-block', 'in'], tube, [null, null], waypoints)
 				],
 				plugs: [{ placementId: 'pump-res', portId: 'fill', fitting: null }]
 			}

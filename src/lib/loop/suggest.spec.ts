@@ -14,7 +14,8 @@ import {
 	DRAFT_RUN_ID,
 	draftRouteRequest,
 	routeRequest,
-	setBendPenalty
+	setBendPenalty,
+	type RouteRequest
 } from './suggest';
 
 /** The loop checker's pump-and-reservoir scene with a block across the first run's top segment. */
@@ -24,6 +25,18 @@ function parse(input: SceneInput) {
 	const parsed = sceneSchema.safeParse(input);
 	if (!parsed.success) throw new Error(JSON.stringify(formatZodIssues(parsed.error)));
 	return parsed.data;
+}
+
+/** Routes every run of the request, expects each found, and accepts its best route into loop 0. */
+function routeAndAccept(input: SceneInput, req: Extract<RouteRequest, { ok: true }>) {
+	const { results } = routeMany(req.runs, req.shared);
+	let settings = variantSettingsSchema.parse({ loops: input.loops });
+	for (const run of req.runs) {
+		const res = results[run.id];
+		expect(res.ok).toBe(true);
+		if (res.ok) settings = acceptRoute(settings, 0, run.id, res.routes[0].waypoints);
+	}
+	return { results, settings };
 }
 
 describe('suggest a route for a loop', () => {
@@ -39,13 +52,7 @@ describe('suggest a route for a loop', () => {
 		expect(req.runs.map((r) => r.mode)).toEqual(['hard', 'hard']);
 		// The start is the port pushed out by the straight fitting's reach (24 mm): 200 + 20, 100 + 100 + 24.
 		expect(req.runs[0].start).toEqual({ point: [220, 224, 75], direction: '+y' });
-		const { results } = routeMany(req.runs, req.shared);
-		let settings = variantSettingsSchema.parse({ loops: input.loops });
-		for (const run of req.runs) {
-			const res = results[run.id];
-			expect(res.ok).toBe(true);
-			if (res.ok) settings = acceptRoute(settings, 0, run.id, res.routes[0].waypoints);
-		}
+		const { settings } = routeAndAccept(input, req);
 		const accepted = parse({ ...input, loops: settings.loops });
 		const report = checkScene(accepted);
 		for (const run of report.loops![0].runs) {
@@ -66,13 +73,7 @@ describe('suggest a route for a loop', () => {
 		// half-width plus its clearance), and so does it end.
 		expect(req.runs[0].start.point).toEqual([220, 210, 75]);
 		expect(req.extraMm.r1).toBe(20);
-		const { results } = routeMany(req.runs, req.shared);
-		let settings = variantSettingsSchema.parse({ loops: input.loops });
-		for (const run of req.runs) {
-			const res = results[run.id];
-			expect(res.ok).toBe(true);
-			if (res.ok) settings = acceptRoute(settings, 0, run.id, res.routes[0].waypoints);
-		}
+		const { results, settings } = routeAndAccept(input, req);
 		const report = checkScene(parse({ ...input, loops: settings.loops }));
 		for (const run of report.loops![0].runs) {
 			expect(run.problems.filter((p) => p.kind !== 'warning')).toEqual([]);

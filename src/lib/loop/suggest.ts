@@ -86,13 +86,30 @@ export function routeRequest(
 		clearanceMm = Math.max(clearanceMm, tube.clearanceMm);
 		reaches.push([ends.fittings.from.reachMm, ends.fittings.to.reachMm]);
 	}
-	const extraMm = lift(runs, reaches, clearanceMm);
 	const others: RouteObstacle[] = reports.flatMap((lr) =>
 		lr.runs
 			.filter((rr) => !routed.has(rr.runId))
 			.flatMap((rr) => rr.pieces.map((p) => ({ box: p.tube, id: p.id, label: `${rr.label}` })))
 	);
-	const obstacles = [...routeObstacles(resolved, { skipKeepoutsOf: [...ports] }), ...others].filter(
+	return requestOf(resolved, runs, reaches, ports, clearanceMm, others, bendPenaltyOf(loop));
+}
+
+/**
+ * The request once its runs are laid out: each run's ends lifted off bare ports (see lift), and as
+ * obstacles the scene's boxes (less the routed ports' keep-outs and the walls, which are the
+ * bounds' faces) with `tubes` beside them.
+ */
+function requestOf(
+	resolved: ResolvedScene,
+	runs: ManyRun[],
+	reaches: [number, number][],
+	ports: Set<string>,
+	clearanceMm: number,
+	tubes: RouteObstacle[],
+	bendPenaltyMm: number
+): RouteRequest {
+	const extraMm = lift(runs, reaches, clearanceMm);
+	const obstacles = [...routeObstacles(resolved, { skipKeepoutsOf: [...ports] }), ...tubes].filter(
 		(o) => !o.id?.startsWith('wall:')
 	);
 	return {
@@ -103,7 +120,7 @@ export function routeRequest(
 			bounds: resolved.innerBox,
 			obstacles,
 			clearanceMm,
-			bendPenaltyMm: bendPenaltyOf(loop),
+			bendPenaltyMm,
 			maxAlternatives: 3
 		}
 	};
@@ -201,25 +218,18 @@ export function cableRouteRequest(
 		clearanceMm = Math.max(clearanceMm, c.clearanceMm);
 		reaches.push([reach(c.from.placementId, c.from.portId), reach(c.to.placementId, c.to.portId)]);
 	}
-	const extraMm = lift(runs, reaches, clearanceMm);
 	const tubes: RouteObstacle[] = reports.flatMap((lr) =>
 		lr.runs.flatMap((rr) => rr.pieces.map((p) => ({ box: p.tube, id: p.id, label: rr.label })))
 	);
-	const obstacles = [...routeObstacles(resolved, { skipKeepoutsOf: [...ports] }), ...tubes].filter(
-		(o) => !o.id?.startsWith('wall:')
-	);
-	return {
-		ok: true,
+	return requestOf(
+		resolved,
 		runs,
-		extraMm,
-		shared: {
-			bounds: resolved.innerBox,
-			obstacles,
-			clearanceMm,
-			bendPenaltyMm: bendPenaltyOf(scene.loops?.[0]),
-			maxAlternatives: 3
-		}
-	};
+		reaches,
+		ports,
+		clearanceMm,
+		tubes,
+		bendPenaltyOf(scene.loops?.[0])
+	);
 }
 
 /** Hundredths of a millimetre: the search's planes are sums of sizes, with float noise. */

@@ -10,6 +10,7 @@ import {
 	type EnclosureInput,
 	type LoopDef,
 	type PartDef,
+	type RunDef,
 	type Scene,
 	type SceneInput,
 	type Vec3
@@ -61,6 +62,61 @@ export function blockPart(id: string, sizeMm: Vec3, extra: Partial<PartDef> = {}
 /** Parses through sceneSchema so defaults are filled in exactly as the API would. */
 export function makeScene(input: Partial<SceneInput> & Pick<SceneInput, 'enclosure'>): Scene {
 	return sceneSchema.parse({ format: 'interstice.scene', version: 1, ...input });
+}
+
+/** Straight 16 mm fittings at both ends of a run. */
+export const STRAIGHT_16: [string, string] = ['fit-straight-16', 'fit-straight-16'];
+
+/**
+ * One run of a loop from `from` to `to`, each a `[placementId, portId]` pair; `fittings` are the
+ * fitting part ids at the from and to ends (null: bare port).
+ */
+export function runDef(
+	id: string,
+	from: [string, string],
+	to: [string, string],
+	tube: string,
+	fittings: [string | null, string | null] = [null, null],
+	waypoints: Vec3[] = []
+): RunDef {
+	return {
+		id,
+		from: { placementId: from[0], portId: from[1] },
+		to: { placementId: to[0], portId: to[1] },
+		tube,
+		fittings: { from: fittings[0], to: fittings[1] },
+		waypoints
+	};
+}
+
+/**
+ * Two 100 mm blocks with ports facing each other along x (a's at x 100 +x, b's at b's x 0 −x),
+ * a at the origin and b at `bx`, joined by one straight 16 mm hard run `r` (loop `l`) with
+ * straight fittings (reach 24 mm, insertion 10 mm), in a 400 × 200 × 200 mm enclosure. With
+ * bx = 200 the centre line is 200 − 100 − 2·24 = 52 mm and the cut 72 mm.
+ */
+export function facingBlocksScene(bx = 200): SceneInput {
+	const block = (id: string, x: number, direction: '+x' | '-x'): PartDef => ({
+		...blockPart(id, [100, 100, 100]),
+		ports: [{ id: 'p', position: [x, 50, 50], direction, thread: 'G 1/4' }]
+	});
+	return {
+		format: 'interstice.scene',
+		version: 1,
+		enclosure: plainEnclosure([400, 200, 200]),
+		parts: [block('a', 100, '+x'), block('b', 0, '-x'), ...defaultFittings()],
+		placements: [
+			{ id: 'a1', partId: 'a', position: [0, 0, 0] },
+			{ id: 'b1', partId: 'b', position: [bx, 0, 0] }
+		],
+		tubeKinds: defaultTubeKinds(),
+		loops: [
+			{
+				id: 'l',
+				runs: [runDef('r', ['a1', 'p'], ['b1', 'p'], 'hard-16', STRAIGHT_16)]
+			}
+		]
+	};
 }
 
 /** Millimetres on a 0.5 mm grid, so faces often touch exactly and sums stay exact in doubles. */
@@ -291,28 +347,14 @@ export function pumpLoopScene(
 		id: 'main',
 		label: 'Main loop',
 		runs: [
-			{
-				id: 'r1',
-				from: { placementId: 'res-1', portId: 'out' },
-				to: { placementId: 'pump-1', portId: 'in' },
-				tube: 'hard-16',
-				fittings: { from: 'fit-straight-16', to: 'fit-straight-16' },
-				waypoints: [
-					[220, 300, 75],
-					[65, 300, 75]
-				]
-			},
-			{
-				id: 'r2',
-				from: { placementId: 'pump-1', portId: 'out' },
-				to: { placementId: 'res-1', portId: 'in' },
-				tube: 'hard-16',
-				fittings: { from: 'fit-straight-16', to: 'fit-straight-16' },
-				waypoints: [
-					[350, 50, 75],
-					[350, 170, 75]
-				]
-			}
+			runDef('r1', ['res-1', 'out'], ['pump-1', 'in'], 'hard-16', STRAIGHT_16, [
+				[220, 300, 75],
+				[65, 300, 75]
+			]),
+			runDef('r2', ['pump-1', 'out'], ['res-1', 'in'], 'hard-16', STRAIGHT_16, [
+				[350, 50, 75],
+				[350, 170, 75]
+			])
 		],
 		plugs: [
 			{ placementId: 'res-1', portId: 'fill', fitting: 'plug-g14' },
