@@ -15,6 +15,19 @@ type Entry = Omit<PartDef, 'bodies' | 'keepouts' | 'ports' | 'provenance'> & {
 	sizeMm: [number, number, number];
 };
 
+/** A full-length, full-height add-in card `slots` slots thick (the CEM slot pitch apart). */
+function fullLengthCard(slots: 2 | 3, word: string, idWord: string): Entry {
+	return {
+		id: `std-card-${idWord}-slot`,
+		name: `Add-in card, full length, ${word} slots`,
+		category: 'gpu',
+		sizeMm: [312, 111.15, slots * SLOT_PITCH_MM],
+		specs: { cardLengthMm: 312, cardSlots: slots },
+		toleranceMm: 0,
+		source: `PCI Express CEM spec: slot pitch 20.32 mm (${word} slots = ${(slots * SLOT_PITCH_MM).toFixed(2)} mm); full length 312 mm and full height 111.15 mm (from memory)`
+	};
+}
+
 const ENTRIES: Entry[] = [
 	{
 		id: 'std-micro-atx',
@@ -44,26 +57,8 @@ const ENTRIES: Entry[] = [
 		toleranceMm: 0,
 		source: 'TFX12V Power Supply Design Guide: 85 × 64 × 175 mm (from memory)'
 	},
-	{
-		id: 'std-card-dual-slot',
-		name: 'Add-in card, full length, two slots',
-		category: 'gpu',
-		sizeMm: [312, 111.15, 2 * SLOT_PITCH_MM],
-		specs: { cardLengthMm: 312, cardSlots: 2 },
-		toleranceMm: 0,
-		source:
-			'PCI Express CEM spec: slot pitch 20.32 mm (two slots = 40.64 mm); full length 312 mm and full height 111.15 mm (from memory)'
-	},
-	{
-		id: 'std-card-triple-slot',
-		name: 'Add-in card, full length, three slots',
-		category: 'gpu',
-		sizeMm: [312, 111.15, 3 * SLOT_PITCH_MM],
-		specs: { cardLengthMm: 312, cardSlots: 3 },
-		toleranceMm: 0,
-		source:
-			'PCI Express CEM spec: slot pitch 20.32 mm (three slots = 60.96 mm); full length 312 mm and full height 111.15 mm (from memory)'
-	},
+	fullLengthCard(2, 'two', 'dual'),
+	fullLengthCard(3, 'three', 'triple'),
 	...(
 		[
 			[240, 274, 120],
