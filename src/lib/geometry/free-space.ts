@@ -11,7 +11,16 @@
  * the maximal empty boxes.
  */
 
-import { EPSILON_MM, FACES, boxSize, boxVolume, compareText, panelOf, type Face } from './box';
+import {
+	EPSILON_MM,
+	FACES,
+	boxSize,
+	boxVolume,
+	compareText,
+	panelOf,
+	type Face,
+	type PanelName
+} from './box';
 import { FACE_AXES, PANEL_LABELS } from './enclosure';
 import type { Box, MountDef, Vec3 } from './schema';
 import type { ResolvedScene } from './types';
@@ -184,15 +193,21 @@ export function sceneObstacles(resolved: ResolvedScene, ignorePlacementId?: stri
 	return out;
 }
 
+/** The panel that face `f` of `box` lies on (the inner box's face `f`), or null. */
+export function panelUnder(box: Box, inner: Box, f: Face): PanelName | null {
+	const [a, high] = FACE_AXIS[f];
+	const onPanel = high
+		? Math.abs(box.max[a] - inner.max[a]) <= EPSILON_MM
+		: Math.abs(box.min[a] - inner.min[a]) <= EPSILON_MM;
+	return onPanel ? panelOf(f) : null;
+}
+
 /** Labels for a container's faces: the panel where it lies on the inner box, else `other`. */
 export function containerLabels(container: Box, inner: Box, other: string): Record<Face, string> {
 	const out = {} as Record<Face, string>;
 	for (const f of FACES) {
-		const [a, high] = FACE_AXIS[f];
-		const onPanel = high
-			? Math.abs(container.max[a] - inner.max[a]) <= EPSILON_MM
-			: Math.abs(container.min[a] - inner.min[a]) <= EPSILON_MM;
-		out[f] = onPanel ? PANEL_LABELS[panelOf(f)] : other;
+		const panel = panelUnder(container, inner, f);
+		out[f] = panel ? PANEL_LABELS[panel] : other;
 	}
 	return out;
 }

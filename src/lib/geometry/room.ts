@@ -5,7 +5,15 @@
  * is chosen. Each figure says what bounds it. Millimetres, inner coordinates, Y up.
  */
 
-import { AXES, EPSILON_MM, boxSize, type AxisIndex, type Face, type PanelName } from './box';
+import {
+	AXES,
+	EPSILON_MM,
+	boxSize,
+	panelOf,
+	type AxisIndex,
+	type Face,
+	type PanelName
+} from './box';
 import {
 	FACE_AXES,
 	PANEL_LABELS,
@@ -22,6 +30,7 @@ import {
 	containerLabels,
 	faceBound,
 	maximalEmptyBoxes,
+	panelUnder,
 	sameLabels,
 	type LabelledBox
 } from './free-space';
@@ -111,14 +120,6 @@ const FACE_WORD: Record<Face, string> = {
 	'-z': 'front panel',
 	'+z': 'back panel'
 };
-const FACE_NAME_OF: Record<Face, PanelName> = {
-	'-x': 'left',
-	'+x': 'right',
-	'-y': 'bottom',
-	'+y': 'top',
-	'-z': 'front',
-	'+z': 'back'
-};
 
 function clip(box: Box, to: Box): Box {
 	return {
@@ -139,12 +140,9 @@ function clip(box: Box, to: Box): Box {
 const NO_LABELS = sameLabels('');
 
 /** The panel a face of `box` lies on, as containerLabels(box, inner, '') words it; '' when none. */
-function panelOf(box: Box, inner: Box, f: Face): string {
-	const { axis, high } = FACE_AXES[FACE_NAME_OF[f]];
-	const onPanel = high
-		? Math.abs(box.max[axis] - inner.max[axis]) <= EPSILON_MM
-		: Math.abs(box.min[axis] - inner.min[axis]) <= EPSILON_MM;
-	return onPanel ? PANEL_LABELS[FACE_NAME_OF[f]] : '';
+function panelWord(box: Box, inner: Box, f: Face): string {
+	const panel = panelUnder(box, inner, f);
+	return panel ? PANEL_LABELS[panel] : '';
 }
 
 function shares(a: Box, b: Box, axis: number): boolean {
@@ -668,7 +666,7 @@ function compartmentFigures(
 		return figures;
 	}
 	const side = (f: Face) =>
-		panelOf(best, inner, f) || faceBound(best, f, fixed, NO_LABELS) || 'the compartment edge';
+		panelWord(best, inner, f) || faceBound(best, f, fixed, NO_LABELS) || 'the compartment edge';
 	const size = boxSize(best);
 	figures.push({
 		id: `free-box:${c.id}`,
@@ -688,7 +686,7 @@ function compartmentFigures(
 			).boxes.sort(byVolume)
 		: free;
 	for (const f of ['-x', '+x', '-y', '+y', '-z', '+z'] as const) {
-		const { axis, high } = FACE_AXES[FACE_NAME_OF[f]];
+		const { axis, high } = FACE_AXES[panelOf(f)];
 		const panel = high ? inner.max[axis] : inner.min[axis];
 		if (Math.abs((high ? c.box.max[axis] : c.box.min[axis]) - panel) > EPSILON_MM) continue;
 		// The two axes across the panel: the footprint's sides.
@@ -715,13 +713,13 @@ function compartmentFigures(
 		if (!deep) continue;
 		const far = `${high ? '-' : '+'}${AXES[axis]}` as Face;
 		const bound =
-			panelOf(deep, inner, far) ||
+			panelWord(deep, inner, far) ||
 			faceBound(deep, far, reachObstacles, NO_LABELS) ||
 			'the compartment edge';
 		const p = deep.max[u] - deep.min[u];
 		const q = deep.max[v] - deep.min[v];
 		figures.push({
-			id: `pump:${c.id}:${FACE_NAME_OF[f]}`,
+			id: `pump:${c.id}:${panelOf(f)}`,
 			kind: 'pump-depth',
 			label: `${c.label}: pump or reservoir on the ${FACE_WORD[f]}`,
 			valueMm: deep.max[axis] - deep.min[axis],

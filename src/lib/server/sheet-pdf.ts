@@ -390,15 +390,18 @@ function drawingKey(w: Writer, left: number, top: number) {
 type Column = { title: string; widthMm: number; cell: (i: number) => string };
 
 function table(w: Writer, rows: number, columns: Column[], size = 8) {
-	/** One row of cells in `font` at the current line, then a rule under it. */
+	/** The height of a row of cells in `font`: its tallest cell. */
+	const heightOf = (text: (c: Column) => string, font: string) =>
+		Math.max(...columns.map((c) => w.heightOf(text(c), size, c.widthMm - 1.5, font)));
+	/** One row of cells `h` high in `font` at the current line, then a rule under it. */
 	const row = (
 		text: (c: Column) => string,
 		font: string,
+		h: number,
 		rule: { widthPt: number; color: string }
 	) => {
 		const y = w.yMm;
 		let x = w.left;
-		const h = Math.max(...columns.map((c) => w.heightOf(text(c), size, c.widthMm - 1.5, font)));
 		for (const c of columns) {
 			w.doc
 				.font(font)
@@ -415,17 +418,20 @@ function table(w: Writer, rows: number, columns: Column[], size = 8) {
 			.stroke(rule.color);
 		w.yMm += 1;
 	};
+	const title = (c: Column) => c.title;
+	const headerH = heightOf(title, w.fonts.bold);
 	const drawHeader = () =>
-		row((c) => c.title, w.fonts.bold, { widthPt: 0.4 * PT, color: INK.line });
+		row(title, w.fonts.bold, headerH, { widthPt: 0.4 * PT, color: INK.line });
 	w.need(14);
 	drawHeader();
 	for (let i = 0; i < rows; i++) {
-		const h = Math.max(...columns.map((c) => w.heightOf(c.cell(i), size, c.widthMm - 1.5)));
+		const cell = (c: Column) => c.cell(i);
+		const h = heightOf(cell, w.fonts.regular);
 		if (w.yMm + h > w.bottom) {
 			w.newPage();
 			drawHeader();
 		}
-		row((c) => c.cell(i), w.fonts.regular, { widthPt: 0.15 * PT, color: '#ddd3c0' });
+		row(cell, w.fonts.regular, h, { widthPt: 0.15 * PT, color: '#ddd3c0' });
 	}
 }
 
