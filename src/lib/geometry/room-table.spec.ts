@@ -7,9 +7,15 @@
  */
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { AXES, EPSILON_MM, boxSize, type AxisIndex, type Face, type PanelName } from './box';
-import { FACE_AXES, bracketBoxAt, compartmentsFor, dividerBoxAt, innerBoxOf } from './enclosure';
-import { plateNeeded } from './mounts';
+import { AXES, EPSILON_MM, boxSize, panelOf, type AxisIndex, type Face } from './box';
+import {
+	FACE_AXES,
+	PANEL_LABELS,
+	bracketBoxAt,
+	compartmentsFor,
+	dividerBoxAt,
+	innerBoxOf
+} from './enclosure';
 import { BOARD_THICKNESS_MM, demoEnclosure, demoTowerEnclosure } from './standard-library';
 import {
 	byVolume,
@@ -20,11 +26,16 @@ import {
 } from './free-space';
 import { allowedPositions, formatMm } from './positions';
 import {
-	BOARD_CLASSES,
 	PUMP_FOOTPRINT_MM,
+	boardClassOf,
+	boardDepth,
+	clip,
+	panelAt,
+	plateFor,
 	reach,
 	roomAt,
 	roomTable,
+	slabOn,
 	type RoomFigure,
 	type RoomPositions
 } from './room';
@@ -33,76 +44,10 @@ import {
 	enclosureDefSchema,
 	type Box,
 	type EnclosureDef,
-	type MountDef,
 	type Vec3
 } from './schema';
 
 // — the oracle: one row from nothing —
-
-const PANEL: Record<PanelName, string> = {
-	left: 'Left panel',
-	right: 'Right panel',
-	bottom: 'Bottom panel',
-	top: 'Top panel',
-	front: 'Front panel',
-	back: 'Back panel'
-};
-const FACE_WORD: Record<Face, string> = {
-	'-x': 'left panel',
-	'+x': 'right panel',
-	'-y': 'bottom panel',
-	'+y': 'top panel',
-	'-z': 'front panel',
-	'+z': 'back panel'
-};
-const FACE_NAME_OF: Record<Face, PanelName> = {
-	'-x': 'left',
-	'+x': 'right',
-	'-y': 'bottom',
-	'+y': 'top',
-	'-z': 'front',
-	'+z': 'back'
-};
-
-function clip(box: Box, to: Box): Box {
-	return {
-		min: [0, 1, 2].map((i) => Math.max(box.min[i], to.min[i])) as Vec3,
-		max: [0, 1, 2].map((i) => Math.min(box.max[i], to.max[i])) as Vec3
-	};
-}
-
-/**
- * Free distance from `start` along `axis` (towards +1 or −1) over the cross-section of `cross`,
- * to the nearest obstacle ahead or the panel; an obstacle across the start gives 0.
- */
-
-function panelAt(mount: MountDef, inner: Box): { axis: AxisIndex; dir: 1 | -1; panel: number } {
-	const { axis, high } = FACE_AXES[mount.face];
-	return { axis, dir: high ? -1 : 1, panel: high ? inner.max[axis] : inner.min[axis] };
-}
-
-/** A slab on a panel: the mount's region across, `depth` in from the panel. */
-function slabOn(mount: MountDef, inner: Box, depth: number): Box {
-	const { axis, dir, panel } = panelAt(mount, inner);
-	const box = clip(mount.region, inner);
-	box.min[axis] = dir > 0 ? panel : panel - depth;
-	box.max[axis] = dir > 0 ? panel + depth : panel;
-	return box;
-}
-
-/** The plate a part of class `cls` (none: a part of no class) would need: the engine's rule. */
-function plateFor(mount: MountDef, cls: string | null): number {
-	return plateNeeded(mount, cls === null ? [] : [cls]);
-}
-
-function boardClassOf(mount: MountDef): string | null {
-	return mount.accepts.find((c) => c in BOARD_CLASSES) ?? null;
-}
-
-/** Board on its tray: plate (when it applies) + standoffs + a board of the tray's class. */
-function boardDepth(mount: MountDef): number {
-	return plateFor(mount, boardClassOf(mount)) + mount.standoffMm + BOARD_THICKNESS_MM;
-}
 
 /** What the obstacles reaching into a box are, as text: rows with the same key have the same figures there. */
 function keyOf(container: Box, obstacles: readonly LabelledBox[]): string {
@@ -259,7 +204,7 @@ function oldRoomAt(
 			kind: 'card-length',
 			label: `Longest card in the ${m.label}`,
 			valueMm: r.distanceMm,
-			boundedBy: `from the ${PANEL[m.face]} to the ${r.against}`
+			boundedBy: `from the ${PANEL_LABELS[m.face]} to the ${r.against}`
 		});
 		const S =
 			stackAxis !== null && stackAxis !== axis
@@ -363,7 +308,7 @@ function compartmentFigures(
 		1
 	).boxes.sort(byVolume);
 	for (const f of ['-x', '+x', '-y', '+y', '-z', '+z'] as const) {
-		const { axis, high } = FACE_AXES[FACE_NAME_OF[f]];
+		const { axis, high } = FACE_AXES[panelOf(f)];
 		const panel = high ? inner.max[axis] : inner.min[axis];
 		if (Math.abs((high ? c.box.max[axis] : c.box.min[axis]) - panel) > EPSILON_MM) continue;
 		let deep: Box | null = null;
@@ -388,9 +333,9 @@ function compartmentFigures(
 		const bound =
 			edges[far] || faceBound(deep, far, reachObstacles, edges) || 'the compartment edge';
 		figures.push({
-			id: `pump:${c.id}:${FACE_NAME_OF[f]}`,
+			id: `pump:${c.id}:${panelOf(f)}`,
 			kind: 'pump-depth',
-			label: `${c.label}: pump or reservoir on the ${FACE_WORD[f]}`,
+			label: `${c.label}: pump or reservoir on the ${PANEL_LABELS[panelOf(f)].toLowerCase()}`,
 			valueMm: deep.max[axis] - deep.min[axis],
 			boundedBy: `to the ${bound}`,
 			note: `over ${formatMm(Math.min(...[0, 1, 2].filter((i) => i !== axis).map((i) => deep!.max[i] - deep!.min[i])))} × ${formatMm(Math.max(...[0, 1, 2].filter((i) => i !== axis).map((i) => deep!.max[i] - deep!.min[i])))} (a footprint of at least ${PUMP_FOOTPRINT_MM} × ${PUMP_FOOTPRINT_MM} mm)`,

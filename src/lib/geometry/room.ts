@@ -112,16 +112,11 @@ export interface RoomTable {
 	note: string | null;
 }
 
-const FACE_WORD: Record<Face, string> = {
-	'-x': 'left panel',
-	'+x': 'right panel',
-	'-y': 'bottom panel',
-	'+y': 'top panel',
-	'-z': 'front panel',
-	'+z': 'back panel'
-};
+/** A face as the pump figures word it ('left panel'). */
+const faceWord = (f: Face) => PANEL_LABELS[panelOf(f)].toLowerCase();
 
-function clip(box: Box, to: Box): Box {
+/** `box` cut to `to` (a fresh box). */
+export function clip(box: Box, to: Box): Box {
 	return {
 		min: [
 			Math.max(box.min[0], to.min[0]),
@@ -188,13 +183,17 @@ const FACE_NAMES_BY_AXIS: [PanelName, PanelName][] = [
 	['front', 'back']
 ];
 
-function panelAt(mount: MountDef, inner: Box): { axis: AxisIndex; dir: 1 | -1; panel: number } {
+/** The axis a mount's panel is across, the way into the enclosure, and where the panel is. */
+export function panelAt(
+	mount: MountDef,
+	inner: Box
+): { axis: AxisIndex; dir: 1 | -1; panel: number } {
 	const { axis, high } = FACE_AXES[mount.face];
 	return { axis, dir: high ? -1 : 1, panel: high ? inner.max[axis] : inner.min[axis] };
 }
 
 /** A slab on a panel: the mount's region across, `depth` in from the panel. */
-function slabOn(mount: MountDef, inner: Box, depth: number): Box {
+export function slabOn(mount: MountDef, inner: Box, depth: number): Box {
 	const { axis, dir, panel } = panelAt(mount, inner);
 	const box = clip(mount.region, inner);
 	box.min[axis] = dir > 0 ? panel : panel - depth;
@@ -203,16 +202,16 @@ function slabOn(mount: MountDef, inner: Box, depth: number): Box {
 }
 
 /** The plate a part of class `cls` (none: a part of no class) would need: the engine's rule. */
-function plateFor(mount: MountDef, cls: string | null): number {
+export function plateFor(mount: MountDef, cls: string | null): number {
 	return plateNeeded(mount, cls === null ? [] : [cls]);
 }
 
-function boardClassOf(mount: MountDef): string | null {
+export function boardClassOf(mount: MountDef): string | null {
 	return mount.accepts.find((c) => c in BOARD_CLASSES) ?? null;
 }
 
 /** Board on its tray: plate (when it applies) + standoffs + a board of the tray's class. */
-function boardDepth(mount: MountDef): number {
+export function boardDepth(mount: MountDef): number {
 	return plateFor(mount, boardClassOf(mount)) + mount.standoffMm + BOARD_THICKNESS_MM;
 }
 
@@ -721,7 +720,7 @@ function compartmentFigures(
 		figures.push({
 			id: `pump:${c.id}:${panelOf(f)}`,
 			kind: 'pump-depth',
-			label: `${c.label}: pump or reservoir on the ${FACE_WORD[f]}`,
+			label: `${c.label}: pump or reservoir on the ${faceWord(f)}`,
 			valueMm: deep.max[axis] - deep.min[axis],
 			boundedBy: `to the ${bound}`,
 			note: `over ${mmOf(ctx, Math.min(p, q))} × ${mmOf(ctx, Math.max(p, q))} (a footprint of at least ${PUMP_FOOTPRINT_MM} × ${PUMP_FOOTPRINT_MM} mm)`,
