@@ -4,13 +4,13 @@
  * client gets 403; an outsider (owner of another studio) works in their own studio, so lists answer
  * 200 and this studio's items 404; anonymous visitors go to sign-in (pages) or get 401 (API).
  */
-import { and, eq, isNotNull } from 'drizzle-orm';
+import { eq } from 'drizzle-orm';
 import { demoEnclosure } from '$lib/geometry/standard-library';
 import { db } from '../db';
 import { enclosures, parts } from '../db/schema';
 import type { Fields } from './client';
 import type { Expected, MatrixFixture, MatrixRow } from './access-matrix';
-import { EDITORS, about, countRows, studioOnly } from './matrix-rows';
+import { EDITORS, about, countRows, isStamped, studioOnly } from './matrix-rows';
 import { createEnclosure } from '../catalog/enclosures';
 import { createPart } from '../catalog/parts';
 
@@ -43,8 +43,8 @@ const ofPart = about(withPart, { id: 'part' });
 const enclosureCount = (f: MatrixFixture) =>
 	countRows(enclosures, eq(enclosures.studioId, f.studio.id));
 const partCount = (f: MatrixFixture) => countRows(parts, eq(parts.studioId, f.studio.id));
-const partArchived = async (f: MatrixFixture) =>
-	(await countRows(parts, and(eq(parts.id, f.vars.part), isNotNull(parts.archivedAt)))) === 1;
+const partArchived = (f: MatrixFixture) =>
+	isStamped(parts, parts.id, f.vars.part, parts.archivedAt);
 const enclosureRevision = async (f: MatrixFixture) =>
 	(
 		await db
