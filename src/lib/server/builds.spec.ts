@@ -7,9 +7,15 @@ import { describe, expect, it } from 'vitest';
 import { MAX_BOXES, type FitReport, type PartDef } from '$lib/geometry';
 import { DEMO_SPINE_OFFSETS, demoParts } from '$lib/geometry/standard-library';
 import { variantSettingsSchema, type VariantSettings } from '$lib/builds/settings';
-import { SceneRejected, loadVariant } from './builds';
+import { SceneRejected } from './builds';
 import { buildRows } from './testing/builds-access-rows';
-import { demoBuildIn, saveOver as save, storedVariant, type TestBuild } from './testing/builds';
+import {
+	demoBuildIn,
+	loadedVariant,
+	saveOver as save,
+	storedVariant,
+	type TestBuild
+} from './testing/builds';
 import { createPart } from './catalog/parts';
 import { runAccessMatrix } from './testing/access-matrix';
 import { studioWithMembers } from './testing/factories';
@@ -22,9 +28,6 @@ async function fixture() {
 	const build = await demoBuildIn(f.studio.id, f.owner.id);
 	return { ...f, build };
 }
-
-const load = (b: TestBuild) =>
-	loadVariant(b.buildId, b.studioId, b.enclosureVersionId, b.variantId);
 
 /** A change of everything a variant holds: positions, a moved, turned, locked part, margin and budgets. */
 function changed(s: VariantSettings): VariantSettings {
@@ -62,7 +65,7 @@ describe('save and load', () => {
 		const next = changed(build.settings);
 		const saved = await save(build, build.version, next);
 		expect(saved).toMatchObject({ ok: true, version: build.version + 1 });
-		const loaded = await load(build);
+		const loaded = await loadedVariant(build);
 		expect(loaded?.settings).toEqual(next);
 		expect(loaded?.variant.version).toBe(build.version + 1);
 		// The stored row itself, not only what the loader makes of it.

@@ -5,8 +5,16 @@
  */
 import { eq } from 'drizzle-orm';
 import { demoEnclosure, demoParts, demoSceneInput } from '$lib/geometry/standard-library';
+import { checkScene, resolveScene, type Scene } from '$lib/geometry';
 import { variantSettingsSchema, type VariantSettings } from '$lib/builds/settings';
-import { SceneRejected, createBuild, saveVariantSettings, variantsOf } from '../builds';
+import { buildSheet } from '$lib/builds/sheet';
+import {
+	SceneRejected,
+	createBuild,
+	loadVariant,
+	saveVariantSettings,
+	variantsOf
+} from '../builds';
 import { createEnclosure } from '../catalog/enclosures';
 import { createPart } from '../catalog/parts';
 import { innerVolumeLitres } from '$lib/geometry/enclosure';
@@ -120,6 +128,26 @@ export async function demoBuildIn(studioId: string, userId: string): Promise<Tes
 		settings,
 		version: saved.version
 	};
+}
+
+/** The test build's variant as the server loads it for the editor; a variant that is gone fails. */
+export async function loadedVariant(b: TestBuild) {
+	const loaded = await loadVariant(b.buildId, b.studioId, b.enclosureVersionId, b.variantId);
+	if (!loaded) throw new Error(`variant ${b.variantId} did not load`);
+	return loaded;
+}
+
+/** The build sheet of a scene: build "b", variant "v" at version 1, a 10 % cut allowance. */
+export function sheetOf(scene: Scene) {
+	return buildSheet({
+		buildName: 'b',
+		variantName: 'v',
+		variantVersion: 1,
+		scene,
+		resolved: resolveScene(scene),
+		report: checkScene(scene),
+		cutAllowancePct: 10
+	});
 }
 
 /** The variant's row as stored: version and settings. */
