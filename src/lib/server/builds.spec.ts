@@ -126,21 +126,22 @@ describe('bad input: refused with the path of the problem, nothing saved', () =>
 		});
 	});
 
-	it('a bracket between its 10 mm steps → 400 at settings.bracketOffsets.bar', async () => {
+	it.each([
+		[
+			'a bracket between its 10 mm steps → 400 at settings.bracketOffsets.bar',
+			(s: VariantSettings) => ({ ...s, bracketOffsets: { bar: 35 } }),
+			'settings.bracketOffsets.bar'
+		],
+		[
+			'a divider the enclosure does not have → 400',
+			(s: VariantSettings) => ({ ...s, dividerPositions: { ...s.dividerPositions, shelf: 10 } }),
+			'settings.dividerPositions.shelf'
+		]
+	])('%s', async (_title, edit, path) => {
 		const { build } = await fixture();
-		const e = await refused(build, { ...build.settings, bracketOffsets: { bar: 35 } });
+		const e = await refused(build, edit(build.settings));
 		expect(e.status).toBe(400);
-		expect(e.issues.map((i) => i.path)).toEqual(['settings.bracketOffsets.bar']);
-	});
-
-	it('a divider the enclosure does not have → 400', async () => {
-		const { build } = await fixture();
-		const e = await refused(build, {
-			...build.settings,
-			dividerPositions: { ...build.settings.dividerPositions, shelf: 10 }
-		});
-		expect(e.status).toBe(400);
-		expect(e.issues.map((i) => i.path)).toEqual(['settings.dividerPositions.shelf']);
+		expect(e.issues.map((i) => i.path)).toEqual([path]);
 	});
 
 	it(`more than ${MAX_BOXES} placed parts → 400 at settings.placements`, async () => {
