@@ -8,7 +8,7 @@ import { passwordResets } from './db/schema';
 import { hashToken, newToken } from './tokens';
 import {
 	accountRowCounts,
-	createInvite,
+	ownerInvite,
 	createUser,
 	studioWithMembers,
 	uniqueEmail
@@ -43,8 +43,7 @@ beforeAll(async () => {
 		userId: signInUser.id,
 		expiresAt: new Date(Date.now() + 3600_000)
 	});
-	inviteId = (await createInvite({ studioId: f.studio.id, role: 'client', invitedBy: f.owner.id }))
-		.id;
+	inviteId = (await ownerInvite(f, 'client')).id;
 });
 
 const forms: Form[] = [

@@ -104,6 +104,14 @@ export async function createMember(
 
 export type TestMember = TestUser & { session: string };
 
+/** A new studio with one member in `role`, for tests that need nobody else. */
+export async function studioMember(
+	role: Role
+): Promise<{ studio: TestStudio; member: TestMember }> {
+	const studio = await createStudio();
+	return { studio, member: await createMember(studio.id, role) };
+}
+
 /**
  * A studio with one owner, one designer and one client, and an outsider: the owner of a second
  * studio (so someone with full powers elsewhere, but none here).
@@ -150,6 +158,15 @@ export async function createInvite(opts: {
 		expiresAt: opts.expiresAt ?? new Date(Date.now() + 7 * 24 * 3600 * 1000)
 	});
 	return invite;
+}
+
+/** An open invitation to the studio from its owner; without an address, to a fresh one. */
+export function ownerInvite(
+	f: { studio: TestStudio; owner: TestMember },
+	role: Role,
+	email?: string
+) {
+	return createInvite({ studioId: f.studio.id, role, email, invitedBy: f.owner.id });
 }
 
 export async function roleOf(studioId: string, userId: string): Promise<Role | null> {
