@@ -21,7 +21,7 @@ import {
 import { newId } from '../tokens';
 import { createShareLink, revokeShareLink } from '../sharing/links';
 import { addPhoto } from '../sharing/photos';
-import { demoBuild, quoteFormFields } from './sharing';
+import { demoBuild, quoteFormFields, shareWithClient } from './sharing';
 import { EDITORS, about, countRows, everyone, isStamped, studioOnly } from './matrix-rows';
 import { photoRef } from '../sharing/view';
 
@@ -32,14 +32,7 @@ let tinyPng: Promise<Buffer> | undefined;
 
 async function shared(f: MatrixFixture) {
 	const b = await demoBuild({ studioId: f.studio.id, createdBy: f.designer.id });
-	const live = await createShareLink({
-		studioId: f.studio.id,
-		buildId: b.buildId,
-		variantId: b.variantId,
-		createdBy: f.designer.id,
-		recipientEmail: f.client.email,
-		recipientName: 'Matrix Client'
-	});
+	const live = await shareWithClient(f, b, { recipientName: 'Matrix Client' });
 	const gone = await createShareLink({
 		studioId: f.studio.id,
 		buildId: b.buildId,

@@ -99,16 +99,27 @@ export async function variantRow(variantId: string) {
 	return v;
 }
 
+/** A live link to the build's variant, made by the studio's designer for the studio's client. */
+export function shareWithClient(
+	f: { studio: { id: string }; designer: { id: string }; client: { email: string } },
+	b: { buildId: string; variantId: string },
+	opts: { recipientName?: string; expiresAt?: Date | null } = {}
+) {
+	return createShareLink({
+		studioId: f.studio.id,
+		buildId: b.buildId,
+		variantId: b.variantId,
+		createdBy: f.designer.id,
+		recipientEmail: f.client.email,
+		...opts
+	});
+}
+
 /** A studio (owner, designer, client, and an outsider elsewhere), a demo build, and a live link for the client. */
 export async function sharedDemo(opts: { expiresAt?: Date | null } = {}) {
 	const f = await studioWithMembers();
 	const build = await demoBuild({ studioId: f.studio.id, createdBy: f.designer.id });
-	const share = await createShareLink({
-		studioId: f.studio.id,
-		buildId: build.buildId,
-		variantId: build.variantId,
-		createdBy: f.designer.id,
-		recipientEmail: f.client.email,
+	const share = await shareWithClient(f, build, {
 		recipientName: 'A. Client',
 		expiresAt: opts.expiresAt ?? null
 	});
