@@ -4,7 +4,8 @@
  * never see each other's rows. Relative imports only: Playwright loads this file too.
  */
 import { randomBytes } from 'node:crypto';
-import { and, count, eq, like, or, sql } from 'drizzle-orm';
+import { count, eq, like, or, sql } from 'drizzle-orm';
+import { roleIn } from '../access';
 import { createSessionToken } from '../auth';
 import { db } from '../db';
 import {
@@ -169,13 +170,9 @@ export function ownerInvite(
 	return createInvite({ studioId: f.studio.id, role, email, invitedBy: f.owner.id });
 }
 
-export async function roleOf(studioId: string, userId: string): Promise<Role | null> {
-	const [m] = await db
-		.select({ role: memberships.role })
-		.from(memberships)
-		.where(and(eq(memberships.studioId, studioId), eq(memberships.userId, userId)));
-	return m?.role ?? null;
-}
+/** The user's role in the studio as stored (the same read the access checks make), or null. */
+export const roleOf = (studioId: string, userId: string): Promise<Role | null> =>
+	roleIn(userId, studioId);
 
 export async function sessionCount(userId: string): Promise<number> {
 	const [r] = await db.select({ n: count() }).from(sessions).where(eq(sessions.userId, userId));
