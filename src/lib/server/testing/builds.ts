@@ -43,6 +43,25 @@ export async function insertEnclosure(
 	});
 }
 
+/**
+ * Writes a build of an enclosure version and its one variant straight to the tables, for
+ * fixtures that pick their ids.
+ */
+export async function insertBuild(
+	run: Tx | typeof db,
+	row: {
+		studioId: string;
+		enclosureVersionId: string;
+		createdBy: string | null;
+		build: { id: string; name: string; clientName: string };
+		variant: Omit<typeof variants.$inferInsert, 'buildId'>;
+	}
+) {
+	const { build, variant, ...owner } = row;
+	await run.insert(builds).values({ ...build, ...owner });
+	await run.insert(variants).values({ ...variant, buildId: build.id });
+}
+
 export type TestBuild = {
 	studioId: string;
 	buildId: string;

@@ -7,8 +7,8 @@ import { eq } from 'drizzle-orm';
 import { demoEnclosure, demoParts, demoSceneInput } from '../../geometry/standard-library';
 import { boundsOf } from '../../geometry';
 import { db } from '../db';
-import { builds, parts, variants } from '../db/schema';
-import { insertEnclosure } from './builds';
+import { parts, variants } from '../db/schema';
+import { insertBuild, insertEnclosure } from './builds';
 import { studioWithMembers } from './factories';
 import { newId } from '../tokens';
 import { createShareLink } from '../sharing/links';
@@ -80,17 +80,13 @@ export async function demoBuild(opts: {
 	};
 	const buildId = newId();
 	const variantId = newId();
-	await db.insert(builds).values({
-		id: buildId,
+	await insertBuild(db, {
 		studioId: opts.studioId,
-		name: opts.name ?? 'Compact sandwich build',
-		clientName: 'A. Client',
 		enclosureVersionId: versionId,
-		createdBy: opts.createdBy
+		createdBy: opts.createdBy,
+		build: { id: buildId, name: opts.name ?? 'Compact sandwich build', clientName: 'A. Client' },
+		variant: { id: variantId, name: 'Variant A', isProposal: true, settings }
 	});
-	await db
-		.insert(variants)
-		.values({ id: variantId, buildId, name: 'Variant A', isProposal: true, settings });
 	return { buildId, variantId, enclosureVersionId: versionId, partIds: idMap, settings };
 }
 
