@@ -6,6 +6,7 @@ import type { VariantSettings } from '$lib/builds/settings';
 import { cableWords } from '$lib/words/sheet';
 import { addCable, CABLE_PRESETS, cableFromDraft, powerPortOptions, removeCable } from './cables';
 import { acceptCableRoute, cableRouteRequest } from './suggest';
+import { CARD_CABLE_DRAFT } from '../server/testing/cables';
 
 const demo = (cables = demoCables()) => sceneSchema.parse({ ...demoSceneInput(), cables });
 const settingsOf = (scene: Scene): VariantSettings => ({
@@ -63,12 +64,7 @@ describe('power cables in the editor', () => {
 	it('routes a cable added from the form, and the accepted route is clear (brute-force box check)', () => {
 		// The demo's card cable taken out, then added back from the form's preset (its own 20 mm bend).
 		const base = settingsOf(demo(demoCables().filter((c) => c.id !== 'cable-card')));
-		const cable = cableFromDraft(base, {
-			from: { placementId: 'psu', portId: 'pcie' },
-			to: { placementId: 'card', portId: 'power' },
-			presetId: 'card8',
-			where: 'across to the card side'
-		})!;
+		const cable = cableFromDraft(base, CARD_CABLE_DRAFT)!;
 		const settings = addCable(base, cable);
 		const scene = demo(settings.cables);
 		const resolved = resolveScene(scene);

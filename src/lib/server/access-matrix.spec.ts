@@ -2,7 +2,7 @@
  * Who may reach what: every route and form action of the app × owner, designer, client, outsider
  * (owner of another studio) and anonymous, against the built app. See testing/access-matrix.ts.
  */
-import { and, count, eq, isNotNull } from 'drizzle-orm';
+import { eq } from 'drizzle-orm';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { db } from './db';
 import { DEV_TOOL_PATHS } from './dev-tools';
@@ -20,40 +20,41 @@ import {
 	type Visitor
 } from './testing/access-matrix';
 import { roleOf, sessionCount, uniqueEmail } from './testing/factories';
+import { countRows, everyone, isStamped } from './testing/matrix-rows';
 import { useApp } from './testing/suite';
 
 const app = useApp();
 
-const everyone = (e: MatrixRow['expect']['owner']): MatrixRow['expect'] => ({
-	owner: e,
-	designer: e,
-	client: e,
-	outsider: e,
-	anonymous: e
-});
 const signedIn = (e: MatrixRow['expect']['owner']): MatrixRow['expect'] => ({
-	owner: e,
-	designer: e,
-	client: e,
-	outsider: e,
+	...everyone(e),
 	anonymous: SIGN_IN
 });
 
-const memberCount = async (f: MatrixFixture) => {
-	const [r] = await db
-		.select({ n: count() })
-		.from(memberships)
-		.where(eq(memberships.studioId, f.studio.id));
-	return r.n;
-};
-const openInvites = async (f: MatrixFixture) => {
-	const [r] = await db
-		.select({ n: count() })
-		.from(invites)
-		.where(eq(invites.studioId, f.studio.id));
-	return r.n;
-};
+const memberCount = (f: MatrixFixture) =>
+	countRows(memberships, eq(memberships.studioId, f.studio.id));
+const openInvites = (f: MatrixFixture) => countRows(invites, eq(invites.studioId, f.studio.id));
 const actor = (f: MatrixFixture, who: Visitor) => (who === 'anonymous' ? null : f[who]);
+/** Every signed-in visitor's sessions are gone afterwards. */
+const signedOut = {
+	by: ['owner', 'designer', 'client', 'outsider'] satisfies Visitor[],
+	check: async (f: MatrixFixture, who: Visitor) =>
+		!!actor(f, who) && (await sessionCount(f[who as 'owner'].id)) === 0
+};
+
+/** A form action of the members page, for the studio's owner only; `outsider` is what they get. */
+const ownerAction = (
+	action: string,
+	form: MatrixRow['form'],
+	outsider: MatrixRow['expect']['outsider'],
+	check: (f: MatrixFixture) => Promise<boolean>
+): MatrixRow => ({
+	route: '/studio/members',
+	method: 'POST',
+	action,
+	form,
+	expect: { owner: 200, designer: 403, client: 403, outsider, anonymous: SIGN_IN },
+	changes: { by: ['owner'], check }
+});
 
 export const accountRows: MatrixRow[] = [
 	// Pages anyone may open.
@@ -141,20 +142,14 @@ export const accountRows: MatrixRow[] = [
 		route: '/signout',
 		method: 'POST',
 		expect: everyone(to('/')),
-		changes: {
-			by: ['owner', 'designer', 'client', 'outsider'],
-			check: async (f, who) => !!actor(f, who) && (await sessionCount(f[who as 'owner'].id)) === 0
-		}
+		changes: signedOut
 	},
 	{
 		route: '/account',
 		method: 'POST',
 		action: 'everywhere',
 		expect: signedIn(to('/signin')),
-		changes: {
-			by: ['owner', 'designer', 'client', 'outsider'],
-			check: async (f, who) => !!actor(f, who) && (await sessionCount(f[who as 'owner'].id)) === 0
-		}
+		changes: signedOut
 	},
 	{
 		route: '/studios/new',
@@ -184,53 +179,30 @@ export const accountRows: MatrixRow[] = [
 			}
 		}
 	},
-	{
-		route: '/studio/members',
-		method: 'POST',
-		action: 'invite',
-		form: () => ({ email: uniqueEmail('matrix-invitee'), role: 'designer' }),
-		expect: { owner: 200, designer: 403, client: 403, outsider: 200, anonymous: SIGN_IN },
-		changes: { by: ['owner'], check: async (f) => (await openInvites(f)) > 1 }
-	},
-	{
-		route: '/studio/members',
-		method: 'POST',
-		action: 'role',
-		form: (f) => ({ userId: f.designer.id, role: 'owner' }),
-		expect: { owner: 200, designer: 403, client: 403, outsider: 404, anonymous: SIGN_IN },
-		changes: {
-			by: ['owner'],
-			check: async (f) => (await roleOf(f.studio.id, f.designer.id)) === 'owner'
-		}
-	},
-	{
-		route: '/studio/members',
-		method: 'POST',
-		action: 'remove',
-		form: (f) => ({ userId: f.client.id }),
-		expect: { owner: 200, designer: 403, client: 403, outsider: 404, anonymous: SIGN_IN },
-		changes: {
-			by: ['owner'],
-			check: async (f) => (await roleOf(f.studio.id, f.client.id)) === null
-		}
-	},
-	{
-		route: '/studio/members',
-		method: 'POST',
-		action: 'revoke',
-		form: (f) => ({ inviteId: f.invite.id }),
-		expect: { owner: 200, designer: 403, client: 403, outsider: 404, anonymous: SIGN_IN },
-		changes: {
-			by: ['owner'],
-			check: async (f) =>
-				(
-					await db
-						.select()
-						.from(invites)
-						.where(and(eq(invites.id, f.invite.id), isNotNull(invites.revokedAt)))
-				).length === 1
-		}
-	},
+	ownerAction(
+		'invite',
+		() => ({ email: uniqueEmail('matrix-invitee'), role: 'designer' }),
+		200,
+		async (f) => (await openInvites(f)) > 1
+	),
+	ownerAction(
+		'role',
+		(f) => ({ userId: f.designer.id, role: 'owner' }),
+		404,
+		async (f) => (await roleOf(f.studio.id, f.designer.id)) === 'owner'
+	),
+	ownerAction(
+		'remove',
+		(f) => ({ userId: f.client.id }),
+		404,
+		async (f) => (await roleOf(f.studio.id, f.client.id)) === null
+	),
+	ownerAction(
+		'revoke',
+		(f) => ({ inviteId: f.invite.id }),
+		404,
+		(f) => isStamped(invites, invites.id, f.invite.id, invites.revokedAt)
+	),
 	{
 		route: '/studio/members',
 		method: 'POST',

@@ -273,6 +273,16 @@ describe('password reset by mailed link', () => {
 	/** The page's HTML with runs of white space as one space, as a browser shows it. */
 	const shown = (html: string) => html.replace(/\s+/g, ' ');
 
+	/** A used or expired link: its page says so, and a new password posted to it is refused. */
+	async function expectDeadLink(link: string, password: string) {
+		const page = await app.client().get(link);
+		expect(page.status).toBe(200);
+		expect(page.text).toContain('This link no longer works');
+		const post = await app.client().postForm(link, { password });
+		expect(post.status).toBe(400);
+		expect(post.text).toContain('This link has expired or was already used');
+	}
+
 	async function requestLink(email: string) {
 		const after = await lastMailId(email);
 		const res = await app.client().postForm('/reset', { email });
@@ -364,12 +374,7 @@ describe('password reset by mailed link', () => {
 		expect((await app.client().signIn(user.email, TEST_PASSWORD)).status).toBe(400);
 		expect((await app.client().signIn(user.email, 'fresh-password-2')).status).toBe(303);
 
-		const again = await app.client().get(link);
-		expect(again.status).toBe(200);
-		expect(again.text).toContain('This link no longer works');
-		const reuse = await app.client().postForm(link, { password: 'attacker-password-3' });
-		expect(reuse.status).toBe(400);
-		expect(reuse.text).toContain('This link has expired or was already used');
+		await expectDeadLink(link, 'attacker-password-3');
 		expect((await app.client().signIn(user.email, 'fresh-password-2')).status).toBe(303);
 	});
 
@@ -378,12 +383,7 @@ describe('password reset by mailed link', () => {
 		const link = await requestLink(user.email);
 		await expireResets(user.id);
 
-		const page = await app.client().get(link);
-		expect(page.status).toBe(200);
-		expect(page.text).toContain('This link no longer works');
-		const post = await app.client().postForm(link, { password: 'fresh-password-2' });
-		expect(post.status).toBe(400);
-		expect(post.text).toContain('This link has expired or was already used');
+		await expectDeadLink(link, 'fresh-password-2');
 		expect((await app.client().signIn(user.email, TEST_PASSWORD)).status).toBe(303);
 		const [u] = await db
 			.select({ n: sessions.id })

@@ -8,7 +8,7 @@ import { passwordResets } from './db/schema';
 import { hashToken, newToken } from './tokens';
 import {
 	accountRowCounts,
-	createInvite,
+	ownerInvite,
 	createUser,
 	studioWithMembers,
 	uniqueEmail
@@ -43,91 +43,97 @@ beforeAll(async () => {
 		userId: signInUser.id,
 		expiresAt: new Date(Date.now() + 3600_000)
 	});
-	inviteId = (await createInvite({ studioId: f.studio.id, role: 'client', invitedBy: f.owner.id }))
-		.id;
+	inviteId = (await ownerInvite(f, 'client')).id;
 });
 
+/**
+ * A form: where it posts, who posts it (nobody: a public form), its fields' kinds, a valid post,
+ * and what that answers: the page itself (200) or a redirect to the address given.
+ */
+function form(
+	name: string,
+	path: () => string,
+	by: 'owner' | 'designer' | null,
+	fields: Record<string, Kind>,
+	valid: () => Record<string, string>,
+	accepted: 200 | string
+): Form {
+	return {
+		name,
+		path,
+		session: () => (by ? f[by].session : undefined),
+		fields,
+		valid,
+		accepted: accepted === 200 ? { status: 200 } : { status: 303, location: accepted }
+	};
+}
+/** A form action of the members page, posted by the owner; it answers with the page. */
+const membersForm = (
+	name: string,
+	action: string,
+	fields: Record<string, Kind>,
+	valid: () => Record<string, string>
+) => form(name, () => `/studio/members?/${action}`, 'owner', fields, valid, 200);
+
 const forms: Form[] = [
-	{
-		name: 'sign up',
-		path: () => '/signup',
-		session: () => undefined,
-		fields: { name: 'name', email: 'email', password: 'password' },
-		valid: () => ({ name: 'Ines Fitter', email: uniqueEmail('valid'), password: 'long-enough-1' }),
-		accepted: { status: 303, location: '/check-mail' }
-	},
-	{
-		name: 'sign in',
-		path: () => '/signin',
-		session: () => undefined,
-		fields: { email: 'email', password: 'currentPassword' },
-		valid: () => ({ email: signInUser.email, password: signInUser.password }),
-		accepted: { status: 303, location: '/builds' }
-	},
-	{
-		name: 'reset request',
-		path: () => '/reset',
-		session: () => undefined,
-		fields: { email: 'email' },
-		valid: () => ({ email: uniqueEmail('nobody') }),
-		accepted: { status: 200 }
-	},
-	{
-		name: 'new password',
-		path: () => `/reset/${resetToken}`,
-		session: () => undefined,
-		fields: { password: 'password' },
-		valid: () => ({ password: 'fresh-password-2' }),
-		accepted: { status: 303, location: '/signin?reset=1' }
-	},
-	{
-		name: 'new studio',
-		path: () => '/studios/new',
-		session: () => f.designer.session,
-		fields: { name: 'name' },
-		valid: () => ({ name: 'Quay Street Bench' }),
-		accepted: { status: 303, location: '/builds' }
-	},
-	{
-		name: 'invite',
-		path: () => '/studio/members?/invite',
-		session: () => f.owner.session,
-		fields: { email: 'email', role: 'role' },
-		valid: () => ({ email: uniqueEmail('invitee'), role: 'designer' }),
-		accepted: { status: 200 }
-	},
-	{
-		name: 'change role',
-		path: () => '/studio/members?/role',
-		session: () => f.owner.session,
-		fields: { userId: 'id', role: 'role' },
-		valid: () => ({ userId: f.client.id, role: 'designer' }),
-		accepted: { status: 200 }
-	},
-	{
-		name: 'remove member',
-		path: () => '/studio/members?/remove',
-		session: () => f.owner.session,
-		fields: { userId: 'id' },
-		valid: () => ({ userId: f.client.id }),
-		accepted: { status: 200 }
-	},
-	{
-		name: 'withdraw invitation',
-		path: () => '/studio/members?/revoke',
-		session: () => f.owner.session,
-		fields: { inviteId: 'id' },
-		valid: () => ({ inviteId }),
-		accepted: { status: 200 }
-	},
-	{
-		name: 'switch studio',
-		path: () => '/studios?/switch',
-		session: () => f.designer.session,
-		fields: { studioId: 'id' },
-		valid: () => ({ studioId: f.studio.id }),
-		accepted: { status: 303, location: '/builds' }
-	}
+	form(
+		'sign up',
+		() => '/signup',
+		null,
+		{ name: 'name', email: 'email', password: 'password' },
+		() => ({ name: 'Ines Fitter', email: uniqueEmail('valid'), password: 'long-enough-1' }),
+		'/check-mail'
+	),
+	form(
+		'sign in',
+		() => '/signin',
+		null,
+		{ email: 'email', password: 'currentPassword' },
+		() => ({ email: signInUser.email, password: signInUser.password }),
+		'/builds'
+	),
+	form(
+		'reset request',
+		() => '/reset',
+		null,
+		{ email: 'email' },
+		() => ({ email: uniqueEmail('nobody') }),
+		200
+	),
+	form(
+		'new password',
+		() => `/reset/${resetToken}`,
+		null,
+		{ password: 'password' },
+		() => ({ password: 'fresh-password-2' }),
+		'/signin?reset=1'
+	),
+	form(
+		'new studio',
+		() => '/studios/new',
+		'designer',
+		{ name: 'name' },
+		() => ({ name: 'Quay Street Bench' }),
+		'/builds'
+	),
+	membersForm('invite', 'invite', { email: 'email', role: 'role' }, () => ({
+		email: uniqueEmail('invitee'),
+		role: 'designer'
+	})),
+	membersForm('change role', 'role', { userId: 'id', role: 'role' }, () => ({
+		userId: f.client.id,
+		role: 'designer'
+	})),
+	membersForm('remove member', 'remove', { userId: 'id' }, () => ({ userId: f.client.id })),
+	membersForm('withdraw invitation', 'revoke', { inviteId: 'id' }, () => ({ inviteId })),
+	form(
+		'switch studio',
+		() => '/studios?/switch',
+		'designer',
+		{ studioId: 'id' },
+		() => ({ studioId: f.studio.id }),
+		'/builds'
+	)
 ];
 
 /** One bad value per kind of field, and the words the message must contain. */

@@ -7,9 +7,15 @@ import { describe, expect, it } from 'vitest';
 import { MAX_BOXES, type FitReport, type PartDef } from '$lib/geometry';
 import { DEMO_SPINE_OFFSETS, demoParts } from '$lib/geometry/standard-library';
 import { variantSettingsSchema, type VariantSettings } from '$lib/builds/settings';
-import { SceneRejected, loadVariant } from './builds';
+import { SceneRejected } from './builds';
 import { buildRows } from './testing/builds-access-rows';
-import { demoBuildIn, saveOver as save, storedVariant, type TestBuild } from './testing/builds';
+import {
+	demoBuildIn,
+	loadedVariant,
+	saveOver as save,
+	storedVariant,
+	type TestBuild
+} from './testing/builds';
 import { createPart } from './catalog/parts';
 import { runAccessMatrix } from './testing/access-matrix';
 import { studioWithMembers } from './testing/factories';
@@ -22,9 +28,6 @@ async function fixture() {
 	const build = await demoBuildIn(f.studio.id, f.owner.id);
 	return { ...f, build };
 }
-
-const load = (b: TestBuild) =>
-	loadVariant(b.buildId, b.studioId, b.enclosureVersionId, b.variantId);
 
 /** A change of everything a variant holds: positions, a moved, turned, locked part, margin and budgets. */
 function changed(s: VariantSettings): VariantSettings {
@@ -62,7 +65,7 @@ describe('save and load', () => {
 		const next = changed(build.settings);
 		const saved = await save(build, build.version, next);
 		expect(saved).toMatchObject({ ok: true, version: build.version + 1 });
-		const loaded = await load(build);
+		const loaded = await loadedVariant(build);
 		expect(loaded?.settings).toEqual(next);
 		expect(loaded?.variant.version).toBe(build.version + 1);
 		// The stored row itself, not only what the loader makes of it.
@@ -123,21 +126,22 @@ describe('bad input: refused with the path of the problem, nothing saved', () =>
 		});
 	});
 
-	it('a bracket between its 10 mm steps → 400 at settings.bracketOffsets.bar', async () => {
+	it.each([
+		[
+			'a bracket between its 10 mm steps → 400 at settings.bracketOffsets.bar',
+			(s: VariantSettings) => ({ ...s, bracketOffsets: { bar: 35 } }),
+			'settings.bracketOffsets.bar'
+		],
+		[
+			'a divider the enclosure does not have → 400',
+			(s: VariantSettings) => ({ ...s, dividerPositions: { ...s.dividerPositions, shelf: 10 } }),
+			'settings.dividerPositions.shelf'
+		]
+	])('%s', async (_title, edit, path) => {
 		const { build } = await fixture();
-		const e = await refused(build, { ...build.settings, bracketOffsets: { bar: 35 } });
+		const e = await refused(build, edit(build.settings));
 		expect(e.status).toBe(400);
-		expect(e.issues.map((i) => i.path)).toEqual(['settings.bracketOffsets.bar']);
-	});
-
-	it('a divider the enclosure does not have → 400', async () => {
-		const { build } = await fixture();
-		const e = await refused(build, {
-			...build.settings,
-			dividerPositions: { ...build.settings.dividerPositions, shelf: 10 }
-		});
-		expect(e.status).toBe(400);
-		expect(e.issues.map((i) => i.path)).toEqual(['settings.dividerPositions.shelf']);
+		expect(e.issues.map((i) => i.path)).toEqual([path]);
 	});
 
 	it(`more than ${MAX_BOXES} placed parts → 400 at settings.placements`, async () => {

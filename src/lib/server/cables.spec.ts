@@ -4,17 +4,17 @@
  * field's path and nothing is written, and a save over someone else's is a conflict (409).
  */
 import { describe, expect, it } from 'vitest';
-import { checkScene, resolveScene } from '$lib/geometry';
 import type { VariantSettings } from '$lib/builds/settings';
-import { buildSheet } from '$lib/builds/sheet';
 import { addCable, cableFromDraft, removeCable } from '$lib/loop/cables';
-import { loadVariant } from './builds';
 import {
 	demoBuildIn,
+	loadedVariant,
 	saveOver as save,
 	sceneRefusal as refusal,
+	sheetOf,
 	storedVariant
 } from './testing/builds';
+import { CARD_CABLE_DRAFT } from './testing/cables';
 import { studioWithMembers } from './testing/factories';
 
 async function fixture() {
@@ -24,13 +24,7 @@ async function fixture() {
 
 /** The card's power cable as the form makes it: supply pcie socket → card power, "Card power". */
 function withCardCable(settings: VariantSettings): VariantSettings {
-	const cable = cableFromDraft(settings, {
-		from: { placementId: 'psu', portId: 'pcie' },
-		to: { placementId: 'card', portId: 'power' },
-		presetId: 'card8',
-		where: 'across to the card side'
-	})!;
-	return addCable(settings, cable);
+	return addCable(settings, cableFromDraft(settings, CARD_CABLE_DRAFT)!);
 }
 
 describe('power cables on a saved variant', () => {
@@ -40,26 +34,11 @@ describe('power cables on a saved variant', () => {
 		const saved = await save(build, build.version, settings);
 		expect(saved.ok).toBe(true);
 		if (!saved.ok) return;
-		const loaded = await loadVariant(
-			build.buildId,
-			build.studioId,
-			build.enclosureVersionId,
-			build.variantId
-		);
-		const scene = loaded!.scene;
+		const { scene } = await loadedVariant(build);
 		expect(scene.cables).toEqual([
 			expect.objectContaining({ id: 'cable-1', label: 'Card power', widthMm: 10, waypoints: [] })
 		]);
-		const report = checkScene(scene);
-		const sheet = buildSheet({
-			buildName: 'b',
-			variantName: 'v',
-			variantVersion: 1,
-			scene,
-			resolved: resolveScene(scene),
-			report,
-			cutAllowancePct: 10
-		});
+		const sheet = sheetOf(scene);
 		const group = sheet.checklist.find((g) => g.id === 'cables')!;
 		expect(group.items.map((i) => i.text)).toEqual([
 			expect.stringMatching(/^Card power: about \d+0\u2009mm, across to the card side\.$/)

@@ -8,8 +8,8 @@ import { eq } from 'drizzle-orm';
 import { describe, expect, it } from 'vitest';
 import { enclosureDefSchema, partDefSchema, type EnclosureDef } from '$lib/geometry';
 import { SESSION_LIFE_MS } from './auth';
-import { loadVariant, trustedScene, validateScene } from './builds';
-import { demoBuildIn } from './testing/builds';
+import { trustedScene, validateScene } from './builds';
+import { demoBuildIn, loadedVariant } from './testing/builds';
 import { checkTrip } from './check-trip';
 import { db } from './db';
 import { enclosureVersions, parts, rateLimits, sessions } from './db/schema';
@@ -24,12 +24,7 @@ const limit = { max: 3, windowSec: 60 };
 async function demoVariant() {
 	const f = await studioWithMembers();
 	const build = await demoBuildIn(f.studio.id, f.owner.id);
-	const loaded = (await loadVariant(
-		build.buildId,
-		build.studioId,
-		build.enclosureVersionId,
-		build.variantId
-	))!;
+	const loaded = await loadedVariant(build);
 	return { f, build, loaded };
 }
 

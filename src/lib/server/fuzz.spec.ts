@@ -23,7 +23,7 @@ import { db } from './db';
 import { createShareLink } from './sharing/links';
 import {
 	clearRateLimits,
-	createInvite,
+	ownerInvite,
 	studioWithMembers,
 	unique,
 	type TestMember
@@ -61,14 +61,7 @@ beforeAll(async () => {
 			expiresAt: null
 		})
 	).link.id;
-	inviteId = (
-		await createInvite({
-			studioId: f.studio.id,
-			role: 'client',
-			invitedBy: f.owner.id,
-			email: `invitee@${DOMAIN}`
-		})
-	).id;
+	inviteId = (await ownerInvite(f, 'client', `invitee@${DOMAIN}`)).id;
 });
 
 /* ---------- what the rows look like ---------- */

@@ -5,12 +5,16 @@
  */
 import { describe, expect, it } from 'vitest';
 import { checkScene, type LoopDef } from '$lib/geometry';
-import { loadVariant } from './builds';
-import { demoBuildIn, saveOver as save, sceneRefusal as refusal } from './testing/builds';
+import {
+	demoBuildIn,
+	loadedVariant,
+	saveOver as save,
+	sceneRefusal as refusal,
+	sheetOf
+} from './testing/builds';
 import { createTubeKind, tubeKindsForStudio } from './loop';
 import { ensureQuote } from './sharing/quotes';
-import { buildSheet } from '$lib/builds/sheet';
-import { resolveScene, sceneSchema } from '$lib/geometry';
+import { sceneSchema } from '$lib/geometry';
 import { neutralScene } from './sharing/view';
 import { studioWithMembers } from './testing/factories';
 
@@ -69,16 +73,11 @@ describe('a variant with a loop', () => {
 			loops: [loopOver(tubeId)]
 		});
 		expect(saved.ok).toBe(true);
-		const loaded = await loadVariant(
-			build.buildId,
-			build.studioId,
-			build.enclosureVersionId,
-			build.variantId
-		);
-		expect(loaded!.scene.loops).toHaveLength(1);
-		expect(loaded!.scene.tubeKinds).toEqual([expect.objectContaining({ id: tubeId, outerMm: 6 })]);
-		expect(loaded!.tubeKinds[0].pricePerMetreMinor).toBe(300);
-		const report = checkScene(loaded!.scene);
+		const loaded = await loadedVariant(build);
+		expect(loaded.scene.loops).toHaveLength(1);
+		expect(loaded.scene.tubeKinds).toEqual([expect.objectContaining({ id: tubeId, outerMm: 6 })]);
+		expect(loaded.tubeKinds[0].pricePerMetreMinor).toBe(300);
+		const report = checkScene(loaded.scene);
 		const run = report.loops![0].runs[0];
 		// 6 + 20 + 6 = 32 mm of polyline, two 90° bends of r = 4: 32 − 16 + 4π.
 		expect(run.lengthMm).toBeCloseTo(16 + 4 * Math.PI, 9);
@@ -119,14 +118,9 @@ describe('a variant with a loop', () => {
 			);
 			expect(refused.status).toBe(400);
 			expect(refused.issues).toContainEqual({ path, message });
-			const loaded = await loadVariant(
-				build.buildId,
-				build.studioId,
-				build.enclosureVersionId,
-				build.variantId
-			);
-			expect(loaded!.variant.version).toBe(build.version);
-			expect(loaded!.scene.loops).toBeUndefined();
+			const loaded = await loadedVariant(build);
+			expect(loaded.variant.version).toBe(build.version);
+			expect(loaded.scene.loops).toBeUndefined();
 		});
 	}
 
@@ -167,22 +161,8 @@ describe('the loop on the quote and the sheet', () => {
 				unitPriceMinor: 300
 			})
 		]);
-		const loaded = await loadVariant(
-			build.buildId,
-			build.studioId,
-			build.enclosureVersionId,
-			build.variantId
-		);
-		const scene = loaded!.scene;
-		const sheet = buildSheet({
-			buildName: 'b',
-			variantName: 'v',
-			variantVersion: 1,
-			scene,
-			resolved: resolveScene(scene),
-			report: checkScene(scene),
-			cutAllowancePct: 10
-		});
+		const loaded = await loadedVariant(build);
+		const sheet = sheetOf(loaded.scene);
 		// Bend middles: 6 − 4 straight + half of the π·4/2 arc = 2 + π; then π + (20 − 8) + π more.
 		expect(sheet.loop!.cutList[0].text).toBe(
 			`Run 1: ${(16 + 4 * Math.PI).toFixed(1)} mm of 4/6 mm soft tube, bends at ${(2 + Math.PI).toFixed(1)} and ${(14 + 3 * Math.PI).toFixed(1)} mm from the pump end.`
@@ -200,20 +180,15 @@ describe('the loop on the client page', () => {
 		const { build, tubeId } = await fixture();
 		const settings = { ...build.settings, loops: [loopOver(tubeId)] };
 		expect((await save(build, build.version, settings)).ok).toBe(true);
-		const loaded = await loadVariant(
-			build.buildId,
-			build.studioId,
-			build.enclosureVersionId,
-			build.variantId
-		);
-		const neutral = neutralScene(loaded!.scene);
+		const loaded = await loadedVariant(build);
+		const neutral = neutralScene(loaded.scene);
 		const run = neutral.scene.loops![0].runs[0];
 		expect(run.from.placementId).toMatch(/^part-\d{3}$/);
 		expect(neutral.placementIds.get(run.from.placementId)).toBe('pump-res');
 		// Still a scene the engine accepts, and the same run.
 		const reparsed = sceneSchema.parse(neutral.scene);
 		expect(checkScene(reparsed).loops![0].runs[0].cutLengthMm).toBeCloseTo(
-			checkScene(loaded!.scene).loops![0].runs[0].cutLengthMm,
+			checkScene(loaded.scene).loops![0].runs[0].cutLengthMm,
 			9
 		);
 	});

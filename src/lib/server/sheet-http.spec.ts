@@ -6,7 +6,7 @@ import { describe, expect, it } from 'vitest';
 import { createSheetBuild } from './testing/sheet-build';
 import { sheetRows } from './testing/sheet-access-rows';
 import { runAccessMatrix } from './testing/access-matrix';
-import { createMember, createStudio } from './testing/factories';
+import { studioMember } from './testing/factories';
 import { useApp } from './testing/suite';
 
 const app = useApp();
@@ -15,8 +15,7 @@ runAccessMatrix(sheetRows, app);
 
 describe('over HTTP', () => {
 	it('sends the PDF as a download, not to be cached', async () => {
-		const studio = await createStudio();
-		const designer = await createMember(studio.id, 'designer');
+		const { studio, member: designer } = await studioMember('designer');
 		const b = await createSheetBuild({
 			studioId: studio.id,
 			userId: designer.id,
@@ -35,8 +34,7 @@ describe('over HTTP', () => {
 	});
 
 	it('ticks with a plain form post and shows the tick in the page it sends back', async () => {
-		const studio = await createStudio();
-		const designer = await createMember(studio.id, 'designer');
+		const { studio, member: designer } = await studioMember('designer');
 		const b = await createSheetBuild({ studioId: studio.id, userId: designer.id });
 		const c = app.client({ session: designer.session });
 		const res = await c.postForm(`/builds/${b.buildId}/sheet?variant=${b.variantId}&/tick`, {

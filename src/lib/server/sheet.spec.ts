@@ -16,6 +16,7 @@ import { ensureQuote } from './sharing/quotes';
 import { TickRejected, loadSheet, setTick } from './sheet';
 import { renderSheetPdf } from './sheet-pdf';
 import { createSheetBuild, type SheetTestBuild } from './testing/sheet-build';
+import { shareWithClient } from './testing/sharing';
 import { createMember, createStudio, type TestMember } from './testing/factories';
 
 type Who = TestMember;
@@ -52,13 +53,7 @@ beforeAll(async () => {
 		name: 'Bench sheet build'
 	});
 	// A client sees a build through the variants shared with them (access.ts).
-	await createShareLink({
-		studioId: studio.id,
-		buildId: build.buildId,
-		variantId: build.variantId,
-		createdBy: designer.id,
-		recipientEmail: client.email
-	});
+	await shareWithClient({ studio, designer, client }, build);
 });
 
 afterAll(async () => {

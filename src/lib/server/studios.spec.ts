@@ -7,7 +7,7 @@ import { describe, expect, it } from 'vitest';
 import { db } from './db';
 import { invites, memberships, users } from './db/schema';
 import {
-	createInvite,
+	ownerInvite,
 	createMember,
 	createSession,
 	createStudio,
@@ -73,12 +73,7 @@ describe('invite → accept → role', () => {
 	it('an existing user signs in from the link and joins with the invited role', async () => {
 		const f = await studioWithMembers();
 		const existing = await createUser();
-		const inv = await createInvite({
-			studioId: f.studio.id,
-			role: 'client',
-			email: existing.email,
-			invitedBy: f.owner.id
-		});
+		const inv = await ownerInvite(f, 'client', existing.email);
 		const c = app.client();
 		const anonymous = await c.postForm(`/invite/${inv.token}`);
 		expect(anonymous.status).toBe(303);
@@ -104,7 +99,7 @@ describe('invite → accept → role', () => {
 		['withdrawn', { revokedAt: sql`now()` }]
 	])('a %s invitation shows a clear page and adds nobody', async (_label, change) => {
 		const f = await studioWithMembers();
-		const inv = await createInvite({ studioId: f.studio.id, role: 'owner', invitedBy: f.owner.id });
+		const inv = await ownerInvite(f, 'owner');
 		await db.update(invites).set(change).where(eq(invites.id, inv.id));
 		const c = app.client({ session: f.outsider.session });
 
@@ -124,12 +119,7 @@ describe('invite → accept → role', () => {
 		const f = await studioWithMembers();
 		const first = await createUser();
 		const second = await createUser();
-		const inv = await createInvite({
-			studioId: f.studio.id,
-			role: 'designer',
-			email: first.email,
-			invitedBy: f.owner.id
-		});
+		const inv = await ownerInvite(f, 'designer', first.email);
 		// Someone the link was forwarded to can't use it.
 		const b = app.client({ session: await createSession(second.id) });
 		const forwarded = await b.postForm(`/invite/${inv.token}`);
@@ -154,11 +144,7 @@ describe('invite → accept → role', () => {
 
 	it('the owner can withdraw an open invitation, which then no longer works', async () => {
 		const f = await studioWithMembers();
-		const inv = await createInvite({
-			studioId: f.studio.id,
-			role: 'designer',
-			invitedBy: f.owner.id
-		});
+		const inv = await ownerInvite(f, 'designer');
 		const owner = app.client({ session: f.owner.session });
 		expect((await owner.get('/studio/members')).text).toContain(inv.email);
 		expect(await owner.action('/studio/members?/revoke', { inviteId: inv.id })).toMatchObject({

@@ -5,7 +5,7 @@
 import { describe, expect, it } from 'vitest';
 import { demoBuildIn } from './testing/builds';
 import { runAccessMatrix } from './testing/access-matrix';
-import { createMember, createStudio } from './testing/factories';
+import { studioMember } from './testing/factories';
 import { useApp } from './testing/suite';
 import { variantRows } from './testing/variants-access-rows';
 
@@ -15,8 +15,7 @@ runAccessMatrix(variantRows, app);
 
 describe('variants over HTTP', () => {
 	it('refuses to delete the last variant and says why', async () => {
-		const studio = await createStudio();
-		const designer = await createMember(studio.id, 'designer');
+		const { studio, member: designer } = await studioMember('designer');
 		const b = await demoBuildIn(studio.id, designer.id);
 		const client = app.client();
 		await client.signIn(designer.email, designer.password);
@@ -29,8 +28,7 @@ describe('variants over HTTP', () => {
 	});
 
 	it('answers 400 for a comparison of one variant, 404 for a variant of another build', async () => {
-		const studio = await createStudio();
-		const designer = await createMember(studio.id, 'designer');
+		const { studio, member: designer } = await studioMember('designer');
 		const b = await demoBuildIn(studio.id, designer.id);
 		const other = await demoBuildIn(studio.id, designer.id);
 		const client = app.client();

@@ -259,6 +259,20 @@ const payAtFake = (sessionId: string, email: string) =>
 const paymentsOfQuote = (quoteId: string) =>
 	db.select().from(payments).where(eq(payments.quoteId, quoteId));
 
+/** The designer sees `onPage` on the variant's quote page, and a "Paid twice" mail says `inMail`. */
+async function expectDesignerTold(
+	s: Awaited<ReturnType<typeof sharedDemo>>,
+	onPage: string,
+	inMail: string
+) {
+	const page = await app
+		.client({ session: s.designer.session })
+		.get(`/builds/${s.buildId}/quote/${s.variantId}`);
+	expect(page.text).toContain(onPage);
+	const told = await waitForMail(s.designer.email, { subject: 'Paid twice' });
+	expect(told.text).toContain(inMail);
+}
+
 describe('one deposit per quote', () => {
 	it('20 simultaneous "pay" posts open one checkout: one session at the service, one payment row, one link for all', async () => {
 		const s = await sharedDemo();
@@ -349,12 +363,11 @@ describe('one deposit per quote', () => {
 		expect(
 			(await listMail(s.designer.email)).filter((m) => m.subject.startsWith('Deposit paid'))
 		).toHaveLength(1);
-		const page = await app
-			.client({ session: s.designer.session })
-			.get(`/builds/${s.buildId}/quote/${s.variantId}`);
-		expect(page.text).toContain('not counted and refunded');
-		const told = await waitForMail(s.designer.email, { subject: 'Paid twice' });
-		expect(told.text).toContain('It was refunded through the payment service');
+		await expectDesignerTold(
+			s,
+			'not counted and refunded',
+			'It was refunded through the payment service'
+		);
 	});
 
 	it('a second paid event the service gives no payment for stays flagged for the studio (refund by hand)', async () => {
@@ -374,12 +387,11 @@ describe('one deposit per quote', () => {
 			['a', 'duplicate'],
 			['b', 'paid']
 		]);
-		const page = await app
-			.client({ session: s.designer.session })
-			.get(`/builds/${s.buildId}/quote/${s.variantId}`);
-		expect(page.text).toContain('the automatic refund failed, refund it with the payment service');
-		const told = await waitForMail(s.designer.email, { subject: 'Paid twice' });
-		expect(told.text).toContain('The automatic refund failed: refund it with the payment service.');
+		await expectDesignerTold(
+			s,
+			'the automatic refund failed, refund it with the payment service',
+			'The automatic refund failed: refund it with the payment service.'
+		);
 	});
 });
 

@@ -17,7 +17,7 @@
  */
 import { describe, it } from 'vitest';
 import type { Client, Fields } from './client';
-import { createInvite, studioWithMembers } from './factories';
+import { ownerInvite, studioWithMembers } from './factories';
 
 export const VISITORS = ['owner', 'designer', 'client', 'outsider', 'anonymous'] as const;
 export type Visitor = (typeof VISITORS)[number];
@@ -63,11 +63,7 @@ export type MatrixRow = {
 
 export async function matrixFixture(): Promise<MatrixFixture> {
 	const f = await studioWithMembers();
-	const invite = await createInvite({
-		studioId: f.studio.id,
-		role: 'designer',
-		invitedBy: f.owner.id
-	});
+	const invite = await ownerInvite(f, 'designer');
 	return { ...f, invite, vars: {} };
 }
 

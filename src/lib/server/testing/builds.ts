@@ -5,8 +5,16 @@
  */
 import { eq } from 'drizzle-orm';
 import { demoEnclosure, demoParts, demoSceneInput } from '$lib/geometry/standard-library';
+import { checkScene, resolveScene, type Scene } from '$lib/geometry';
 import { variantSettingsSchema, type VariantSettings } from '$lib/builds/settings';
-import { SceneRejected, createBuild, saveVariantSettings, variantsOf } from '../builds';
+import { buildSheet } from '$lib/builds/sheet';
+import {
+	SceneRejected,
+	createBuild,
+	loadVariant,
+	saveVariantSettings,
+	variantsOf
+} from '../builds';
 import { createEnclosure } from '../catalog/enclosures';
 import { createPart } from '../catalog/parts';
 import { innerVolumeLitres } from '$lib/geometry/enclosure';
@@ -33,6 +41,25 @@ export async function insertEnclosure(
 		definition: row.definition,
 		volumeLitres
 	});
+}
+
+/**
+ * Writes a build of an enclosure version and its one variant straight to the tables, for
+ * fixtures that pick their ids.
+ */
+export async function insertBuild(
+	run: Tx | typeof db,
+	row: {
+		studioId: string;
+		enclosureVersionId: string;
+		createdBy: string | null;
+		build: { id: string; name: string; clientName: string };
+		variant: Omit<typeof variants.$inferInsert, 'buildId'>;
+	}
+) {
+	const { build, variant, ...owner } = row;
+	await run.insert(builds).values({ ...build, ...owner });
+	await run.insert(variants).values({ ...variant, buildId: build.id });
 }
 
 export type TestBuild = {
@@ -120,6 +147,26 @@ export async function demoBuildIn(studioId: string, userId: string): Promise<Tes
 		settings,
 		version: saved.version
 	};
+}
+
+/** The test build's variant as the server loads it for the editor; a variant that is gone fails. */
+export async function loadedVariant(b: TestBuild) {
+	const loaded = await loadVariant(b.buildId, b.studioId, b.enclosureVersionId, b.variantId);
+	if (!loaded) throw new Error(`variant ${b.variantId} did not load`);
+	return loaded;
+}
+
+/** The build sheet of a scene: build "b", variant "v" at version 1, a 10 % cut allowance. */
+export function sheetOf(scene: Scene) {
+	return buildSheet({
+		buildName: 'b',
+		variantName: 'v',
+		variantVersion: 1,
+		scene,
+		resolved: resolveScene(scene),
+		report: checkScene(scene),
+		cutAllowancePct: 10
+	});
 }
 
 /** The variant's row as stored: version and settings. */

@@ -4,12 +4,13 @@
  * client gets 403; an outsider (owner of another studio) works in their own studio, so lists answer
  * 200 and this studio's items 404; anonymous visitors go to sign-in (pages) or get 401 (API).
  */
-import { and, eq, isNotNull } from 'drizzle-orm';
+import { eq } from 'drizzle-orm';
 import { demoEnclosure } from '$lib/geometry/standard-library';
 import { db } from '../db';
 import { enclosures, parts } from '../db/schema';
+import type { Fields } from './client';
 import type { Expected, MatrixFixture, MatrixRow } from './access-matrix';
-import { EDITORS, about, countRows, studioOnly } from './matrix-rows';
+import { EDITORS, about, countRows, isStamped, studioOnly } from './matrix-rows';
 import { createEnclosure } from '../catalog/enclosures';
 import { createPart } from '../catalog/parts';
 
@@ -42,8 +43,8 @@ const ofPart = about(withPart, { id: 'part' });
 const enclosureCount = (f: MatrixFixture) =>
 	countRows(enclosures, eq(enclosures.studioId, f.studio.id));
 const partCount = (f: MatrixFixture) => countRows(parts, eq(parts.studioId, f.studio.id));
-const partArchived = async (f: MatrixFixture) =>
-	(await countRows(parts, and(eq(parts.id, f.vars.part), isNotNull(parts.archivedAt)))) === 1;
+const partArchived = (f: MatrixFixture) =>
+	isStamped(parts, parts.id, f.vars.part, parts.archivedAt);
 const enclosureRevision = async (f: MatrixFixture) =>
 	(
 		await db
@@ -90,27 +91,105 @@ export const partFields = (revision = 0, name = 'Matrix fan') => ({
 
 const CSV = 'name,category,width_mm,height_mm,depth_mm\nMatrix hub,other,60,15,40\n';
 
+type Catalogue = {
+	kind: 'enclosures' | 'parts';
+	/** Rows about one item of this kind (its setup makes it). */
+	of: (row: Omit<MatrixRow, 'setup'>) => MatrixRow;
+	count: (f: MatrixFixture) => Promise<number>;
+	revision: (f: MatrixFixture) => Promise<number>;
+	/** The form as posted: new (revision 0) or over revision 1 under the saved name. */
+	fields: (revision?: number, name?: string) => Fields;
+	savedName: string;
+	/** The JSON bodies the API takes: a new item, and the item saved over revision 1. */
+	created: () => unknown;
+	saved: () => unknown;
+	/** Whether the API's PATCH { archived: true } did its work. */
+	archived: (f: MatrixFixture) => Promise<boolean>;
+};
+
+const ENCLOSURES: Catalogue = {
+	kind: 'enclosures',
+	of: ofEnclosure,
+	count: enclosureCount,
+	revision: enclosureRevision,
+	fields: enclosureFields,
+	savedName: 'Matrix box, saved',
+	created: () => ({ definition: demoEnclosure() }),
+	saved: () => ({ revision: 1, definition: { ...demoEnclosure(), name: 'Renamed' } }),
+	archived: async (f) => (await enclosureRevision(f)) === 2
+};
+
+const PARTS: Catalogue = {
+	kind: 'parts',
+	of: ofPart,
+	count: partCount,
+	revision: partRevision,
+	fields: partFields,
+	savedName: 'Matrix fan, saved',
+	created: () => testPart(),
+	saved: () => ({ revision: 1, ...testPart('Matrix pump, saved') }),
+	archived: partArchived
+};
+
+/** The pages every kind has: its list, the new form and its save, an item's page and its save. */
+function editorPages(c: Catalogue): MatrixRow[] {
+	const saved = redirectTo(new RegExp(`^\\/${c.kind}\\/\\w+\\?saved=1$`));
+	return [
+		{ route: `/${c.kind}`, method: 'GET', expect: catalogue(200, 200) },
+		{ route: `/${c.kind}/new`, method: 'GET', expect: catalogue(200, 200) },
+		{
+			route: `/${c.kind}/new`,
+			method: 'POST',
+			action: 'save',
+			form: () => c.fields(),
+			expect: catalogue(saved, redirectTo(new RegExp(`^\\/${c.kind}\\/`))),
+			changes: { by: EDITORS, check: async (f) => (await c.count(f)) === 1 }
+		},
+		c.of({ route: `/${c.kind}/[id]`, method: 'GET', expect: catalogue(200, 404) }),
+		c.of({
+			route: `/${c.kind}/[id]`,
+			method: 'POST',
+			action: 'save',
+			form: () => c.fields(1, c.savedName),
+			expect: catalogue(saved, 404),
+			changes: { by: EDITORS, check: async (f) => (await c.revision(f)) === 2 }
+		})
+	];
+}
+
+/** The JSON endpoints every kind has: list, create, read, save over a revision, archive. */
+function apiRows(c: Catalogue): MatrixRow[] {
+	const item = `/api/${c.kind}/[id]`;
+	return [
+		{ route: `/api/${c.kind}`, method: 'GET', expect: api(200, 200) },
+		{
+			route: `/api/${c.kind}`,
+			method: 'POST',
+			json: c.created,
+			expect: api(201, 201),
+			changes: { by: EDITORS, check: async (f) => (await c.count(f)) === 1 }
+		},
+		c.of({ route: item, method: 'GET', expect: api(200, 404) }),
+		c.of({
+			route: item,
+			method: 'PUT',
+			json: c.saved,
+			expect: api(200, 404),
+			changes: { by: EDITORS, check: async (f) => (await c.revision(f)) === 2 }
+		}),
+		c.of({
+			route: item,
+			method: 'PATCH',
+			json: () => ({ archived: true }),
+			expect: api(200, 404),
+			changes: { by: EDITORS, check: c.archived }
+		})
+	];
+}
+
 export const catalogRows: MatrixRow[] = [
 	// Pages.
-	{ route: '/enclosures', method: 'GET', expect: catalogue(200, 200) },
-	{ route: '/enclosures/new', method: 'GET', expect: catalogue(200, 200) },
-	{
-		route: '/enclosures/new',
-		method: 'POST',
-		action: 'save',
-		form: () => enclosureFields(),
-		expect: catalogue(redirectTo(/^\/enclosures\/\w+\?saved=1$/), redirectTo(/^\/enclosures\//)),
-		changes: { by: EDITORS, check: async (f) => (await enclosureCount(f)) === 1 }
-	},
-	ofEnclosure({ route: '/enclosures/[id]', method: 'GET', expect: catalogue(200, 404) }),
-	ofEnclosure({
-		route: '/enclosures/[id]',
-		method: 'POST',
-		action: 'save',
-		form: () => enclosureFields(1, 'Matrix box, saved'),
-		expect: catalogue(redirectTo(/^\/enclosures\/\w+\?saved=1$/), 404),
-		changes: { by: EDITORS, check: async (f) => (await enclosureRevision(f)) === 2 }
-	}),
+	...editorPages(ENCLOSURES),
 	...(['archive', 'restore', 'duplicate'] as const).map((action) =>
 		ofEnclosure({
 			route: '/enclosures/[id]',
@@ -126,7 +205,7 @@ export const catalogRows: MatrixRow[] = [
 			}
 		})
 	),
-	{ route: '/parts', method: 'GET', expect: catalogue(200, 200) },
+	...editorPages(PARTS),
 	...(
 		[
 			[
@@ -146,24 +225,6 @@ export const catalogRows: MatrixRow[] = [
 		expect: catalogue(ok, 404),
 		changes: { by: EDITORS, check }
 	})),
-	{ route: '/parts/new', method: 'GET', expect: catalogue(200, 200) },
-	{
-		route: '/parts/new',
-		method: 'POST',
-		action: 'save',
-		form: () => partFields(),
-		expect: catalogue(redirectTo(/^\/parts\/\w+\?saved=1$/), redirectTo(/^\/parts\//)),
-		changes: { by: EDITORS, check: async (f) => (await partCount(f)) === 1 }
-	},
-	ofPart({ route: '/parts/[id]', method: 'GET', expect: catalogue(200, 404) }),
-	ofPart({
-		route: '/parts/[id]',
-		method: 'POST',
-		action: 'save',
-		form: () => partFields(1, 'Matrix fan, saved'),
-		expect: catalogue(redirectTo(/^\/parts\/\w+\?saved=1$/), 404),
-		changes: { by: EDITORS, check: async (f) => (await partRevision(f)) === 2 }
-	}),
 	...(['duplicate', 'archive', 'restore', 'delete'] as const).map((action) =>
 		ofPart({
 			route: '/parts/[id]',
@@ -204,57 +265,13 @@ export const catalogRows: MatrixRow[] = [
 	{ route: '/parts/export', method: 'GET', expect: catalogue(200, 200) },
 
 	// JSON endpoints.
-	{ route: '/api/enclosures', method: 'GET', expect: api(200, 200) },
-	{
-		route: '/api/enclosures',
-		method: 'POST',
-		json: () => ({ definition: demoEnclosure() }),
-		expect: api(201, 201),
-		changes: { by: EDITORS, check: async (f) => (await enclosureCount(f)) === 1 }
-	},
-	ofEnclosure({ route: '/api/enclosures/[id]', method: 'GET', expect: api(200, 404) }),
-	ofEnclosure({
-		route: '/api/enclosures/[id]',
-		method: 'PUT',
-		json: () => ({ revision: 1, definition: { ...demoEnclosure(), name: 'Renamed' } }),
-		expect: api(200, 404),
-		changes: { by: EDITORS, check: async (f) => (await enclosureRevision(f)) === 2 }
-	}),
-	ofEnclosure({
-		route: '/api/enclosures/[id]',
-		method: 'PATCH',
-		json: () => ({ archived: true }),
-		expect: api(200, 404),
-		changes: { by: EDITORS, check: async (f) => (await enclosureRevision(f)) === 2 }
-	}),
+	...apiRows(ENCLOSURES),
 	ofEnclosure({
 		route: '/api/enclosures/[id]/versions/[versionId]',
 		method: 'GET',
 		expect: api(200, 404)
 	}),
-	{ route: '/api/parts', method: 'GET', expect: api(200, 200) },
-	{
-		route: '/api/parts',
-		method: 'POST',
-		json: () => testPart(),
-		expect: api(201, 201),
-		changes: { by: EDITORS, check: async (f) => (await partCount(f)) === 1 }
-	},
-	ofPart({ route: '/api/parts/[id]', method: 'GET', expect: api(200, 404) }),
-	ofPart({
-		route: '/api/parts/[id]',
-		method: 'PUT',
-		json: () => ({ revision: 1, ...testPart('Matrix pump, saved') }),
-		expect: api(200, 404),
-		changes: { by: EDITORS, check: async (f) => (await partRevision(f)) === 2 }
-	}),
-	ofPart({
-		route: '/api/parts/[id]',
-		method: 'PATCH',
-		json: () => ({ archived: true }),
-		expect: api(200, 404),
-		changes: { by: EDITORS, check: partArchived }
-	}),
+	...apiRows(PARTS),
 	ofPart({
 		route: '/api/parts/[id]',
 		method: 'DELETE',

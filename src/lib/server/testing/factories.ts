@@ -4,7 +4,8 @@
  * never see each other's rows. Relative imports only: Playwright loads this file too.
  */
 import { randomBytes } from 'node:crypto';
-import { and, count, eq, like, or, sql } from 'drizzle-orm';
+import { count, eq, like, or, sql } from 'drizzle-orm';
+import { roleIn } from '../access';
 import { createSessionToken } from '../auth';
 import { db } from '../db';
 import {
@@ -104,6 +105,14 @@ export async function createMember(
 
 export type TestMember = TestUser & { session: string };
 
+/** A new studio with one member in `role`, for tests that need nobody else. */
+export async function studioMember(
+	role: Role
+): Promise<{ studio: TestStudio; member: TestMember }> {
+	const studio = await createStudio();
+	return { studio, member: await createMember(studio.id, role) };
+}
+
 /**
  * A studio with one owner, one designer and one client, and an outsider: the owner of a second
  * studio (so someone with full powers elsewhere, but none here).
@@ -152,13 +161,18 @@ export async function createInvite(opts: {
 	return invite;
 }
 
-export async function roleOf(studioId: string, userId: string): Promise<Role | null> {
-	const [m] = await db
-		.select({ role: memberships.role })
-		.from(memberships)
-		.where(and(eq(memberships.studioId, studioId), eq(memberships.userId, userId)));
-	return m?.role ?? null;
+/** An open invitation to the studio from its owner; without an address, to a fresh one. */
+export function ownerInvite(
+	f: { studio: TestStudio; owner: TestMember },
+	role: Role,
+	email?: string
+) {
+	return createInvite({ studioId: f.studio.id, role, email, invitedBy: f.owner.id });
 }
+
+/** The user's role in the studio as stored (the same read the access checks make), or null. */
+export const roleOf = (studioId: string, userId: string): Promise<Role | null> =>
+	roleIn(userId, studioId);
 
 export async function sessionCount(userId: string): Promise<number> {
 	const [r] = await db.select({ n: count() }).from(sessions).where(eq(sessions.userId, userId));

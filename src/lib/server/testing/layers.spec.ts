@@ -27,54 +27,40 @@ const COMPONENT = 'src/lib/components/sheet/StatusMark.svelte';
 const AREA = 'src/lib/quotes/money.ts';
 const SPEC = 'src/lib/quotes/money.spec.ts';
 
+/** The import statement of `names` from `module`, as a line of a file. */
+const from = (names: string, module: string) => `import ${names} from '${module}';\n`;
+const KIT = '@sveltejs/kit';
+const TEST_SUPPORT = '$lib/server/testing/x';
+const SVELTE_IMPORTING_A_SERVICE = `<script lang="ts">\n\t${from('type { X }', '$lib/server/sheet')}</script>\n`;
+
 describe('layer rules', () => {
 	it.each([
-		['a service importing a component module', SERVICE, "import X from '$lib/components/x';\n"],
-		['a service importing one by path', SERVICE, "import X from '../components/x';\n"],
-		['a route importing the database', ROUTE, "import { db } from '$lib/server/db';\n"],
-		['a route importing the schema', ROUTE, "import { x } from '$lib/server/db/schema';\n"],
-		['a route importing drizzle', ROUTE, "import { eq } from 'drizzle-orm';\n"],
-		['an area module importing test support', AREA, "import { x } from '$lib/server/testing/x';\n"],
-		['a service importing test support', SERVICE, "import { x } from './testing/factories';\n"],
-		['a route importing test support', ROUTE, "import { x } from '$lib/server/testing/x';\n"],
+		['refuses', 'a service importing a component module', SERVICE, from('X', '$lib/components/x')],
+		['refuses', 'a service importing one by path', SERVICE, from('X', '../components/x')],
+		['refuses', 'a route importing the database', ROUTE, from('{ db }', '$lib/server/db')],
+		['refuses', 'a route importing the schema', ROUTE, from('{ x }', '$lib/server/db/schema')],
+		['refuses', 'a route importing drizzle', ROUTE, from('{ eq }', 'drizzle-orm')],
+		['refuses', 'an area module importing test support', AREA, from('{ x }', TEST_SUPPORT)],
+		['refuses', 'a service importing test support', SERVICE, from('{ x }', './testing/factories')],
+		['refuses', 'a route importing test support', ROUTE, from('{ x }', TEST_SUPPORT)],
+		['refuses', 'a service ending a request with error()', PLAIN_SERVICE, from('{ error }', KIT)],
+		['refuses', 'a service redirecting', PLAIN_SERVICE, from('{ json, redirect }', KIT)],
+		['refuses', 'the mapping importing a component', MAPPING, from('X', '$lib/components/x')],
+		['refuses', 'a component importing a service', COMPONENT, SVELTE_IMPORTING_A_SERVICE],
+		['allows', 'a route importing a service', ROUTE, from('{ x }', '$lib/server/builds')],
+		['allows', 'a service importing an area module', SERVICE, from('{ x }', '$lib/quotes/money')],
+		['allows', 'a spec importing test support', SPEC, from('{ x }', TEST_SUPPORT)],
 		[
-			'a service ending a request with error()',
-			PLAIN_SERVICE,
-			"import { error } from '@sveltejs/kit';\n"
-		],
-		['a service redirecting', PLAIN_SERVICE, "import { json, redirect } from '@sveltejs/kit';\n"],
-		['the mapping importing a component', MAPPING, "import X from '$lib/components/x';\n"]
-	])('refuses %s', async (_name, file, code) => {
-		expect(await restricted(code, file)).toHaveLength(1);
-	});
-
-	it('refuses a component importing a service', async () => {
-		const code = '<script lang="ts">\n\timport type { X } from \'$lib/server/sheet\';\n</script>\n';
-		expect(await restricted(code, COMPONENT)).toHaveLength(1);
-	});
-
-	it.each([
-		['a route importing a service', ROUTE, "import { x } from '$lib/server/builds';\n"],
-		['a service importing an area module', SERVICE, "import { x } from '$lib/quotes/money';\n"],
-		['a spec importing test support', SPEC, "import { x } from '$lib/server/testing/x';\n"],
-		[
+			'allows',
 			'a service throwing a ServiceError',
 			PLAIN_SERVICE,
-			"import { ServiceError } from './errors';\n"
+			from('{ ServiceError }', './errors')
 		],
-		[
-			'a service answering JSON',
-			PLAIN_SERVICE,
-			"import { json, type RequestEvent } from '@sveltejs/kit';\n"
-		],
-		[
-			'the mapping module ending a request',
-			MAPPING,
-			"import { error, fail } from '@sveltejs/kit';\n"
-		],
-		['an access guard redirecting', SERVICE, "import { error, redirect } from '@sveltejs/kit';\n"],
-		['a route ending a request', ROUTE, "import { error, redirect } from '@sveltejs/kit';\n"]
-	])('allows %s', async (_name, file, code) => {
-		expect(await restricted(code, file)).toEqual([]);
+		['allows', 'a service answering JSON', PLAIN_SERVICE, from('{ json, type RequestEvent }', KIT)],
+		['allows', 'the mapping module ending a request', MAPPING, from('{ error, fail }', KIT)],
+		['allows', 'an access guard redirecting', SERVICE, from('{ error, redirect }', KIT)],
+		['allows', 'a route ending a request', ROUTE, from('{ error, redirect }', KIT)]
+	])('%s %s', async (verdict, _name, file, code) => {
+		expect(await restricted(code, file)).toHaveLength(verdict === 'refuses' ? 1 : 0);
 	});
 });

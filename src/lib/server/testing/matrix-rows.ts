@@ -2,8 +2,8 @@
  * What the access-matrix row files share: the usual answers per visitor, who edits, counting the
  * rows a request wrote, and a row maker for rows about one item a setup makes.
  */
-import { count, type SQL } from 'drizzle-orm';
-import type { PgTable } from 'drizzle-orm/pg-core';
+import { and, count, eq, isNotNull, type SQL } from 'drizzle-orm';
+import type { PgColumn, PgTable } from 'drizzle-orm/pg-core';
 import { db } from '../db';
 import {
 	SIGN_IN,
@@ -41,6 +41,16 @@ export const EDITORS: Visitor[] = ['owner', 'designer'];
 export async function countRows(table: PgTable, where: SQL | undefined): Promise<number> {
 	const [row] = await db.select({ n: count() }).from(table).where(where);
 	return row.n;
+}
+
+/** Whether the row of `table` whose `idColumn` is `id` has its time `at` set (archived, revoked). */
+export async function isStamped(
+	table: PgTable,
+	idColumn: PgColumn,
+	id: string,
+	at: PgColumn
+): Promise<boolean> {
+	return (await countRows(table, and(eq(idColumn, id), isNotNull(at)))) === 1;
 }
 
 /**

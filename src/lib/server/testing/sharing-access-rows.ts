@@ -6,17 +6,23 @@
  * The link is the key on /s/[token]: everyone holding it (owner, designer, client, the outsider,
  * anonymous) gets the page; everyone holding a revoked one gets 410.
  */
-import { and, eq, isNotNull } from 'drizzle-orm';
+import { eq } from 'drizzle-orm';
 import sharp from 'sharp';
 import { db } from '../db';
 import { comments, photos, quotes, shareLinks, variants } from '../db/schema';
 import type { Fields } from './client';
-import { SIGN_IN, type MatrixFixture, type MatrixRow, type Visitor } from './access-matrix';
+import {
+	SIGN_IN,
+	type Expected,
+	type MatrixFixture,
+	type MatrixRow,
+	type Visitor
+} from './access-matrix';
 import { newId } from '../tokens';
 import { createShareLink, revokeShareLink } from '../sharing/links';
 import { addPhoto } from '../sharing/photos';
-import { demoBuild, quoteFormFields } from './sharing';
-import { EDITORS, about, countRows, everyone, studioOnly } from './matrix-rows';
+import { demoBuild, quoteFormFields, shareWithClient } from './sharing';
+import { EDITORS, about, countRows, everyone, isStamped, studioOnly } from './matrix-rows';
 import { photoRef } from '../sharing/view';
 
 const all = everyone;
@@ -26,14 +32,7 @@ let tinyPng: Promise<Buffer> | undefined;
 
 async function shared(f: MatrixFixture) {
 	const b = await demoBuild({ studioId: f.studio.id, createdBy: f.designer.id });
-	const live = await createShareLink({
-		studioId: f.studio.id,
-		buildId: b.buildId,
-		variantId: b.variantId,
-		createdBy: f.designer.id,
-		recipientEmail: f.client.email,
-		recipientName: 'Matrix Client'
-	});
+	const live = await shareWithClient(f, b, { recipientName: 'Matrix Client' });
 	const gone = await createShareLink({
 		studioId: f.studio.id,
 		buildId: b.buildId,
@@ -76,6 +75,12 @@ const commentCount = (f: MatrixFixture) =>
 	countRows(comments, eq(comments.buildId, f.vars.buildId));
 const linkCount = (f: MatrixFixture) =>
 	countRows(shareLinks, eq(shareLinks.buildId, f.vars.buildId));
+const linkRevoked = (f: MatrixFixture) =>
+	isStamped(shareLinks, shareLinks.id, f.vars.linkId, shareLinks.revokedAt);
+const quoteMade = async (f: MatrixFixture) =>
+	(await countRows(quotes, eq(quotes.variantId, f.vars.variantId))) === 1;
+const photoGone = async (f: MatrixFixture) =>
+	(await countRows(photos, eq(photos.id, f.vars.photoId))) === 0;
 const commented = { by: EVERYONE, check: async (f: MatrixFixture) => (await commentCount(f)) > 0 };
 const nothingCommented = {
 	by: [] as Visitor[],
@@ -139,6 +144,42 @@ function uploadForm(): Fields {
 	const form = new FormData();
 	form.append('file', new Blob([Buffer.from('not an image')], { type: 'image/png' }), 'a.png');
 	return form as unknown as Fields;
+}
+
+const newLinkForm = (f: MatrixFixture) => ({
+	variantId: f.vars.variantId,
+	recipientEmail: '',
+	recipientName: 'Someone',
+	expires: '7',
+	send: ''
+});
+const studioCommentForm = (f: MatrixFixture) => ({
+	variantId: f.vars.variantId,
+	body: 'The fittings clear by 4 mm.',
+	part: ''
+});
+
+/**
+ * A page on the studio's side of the build, and its form actions: what an editor posts, what
+ * they get and, with a check, how to tell the post took effect (for the editors only).
+ */
+function studioPage(
+	route: string,
+	actions: [string, MatrixRow['form'], Expected, ((f: MatrixFixture) => Promise<boolean>)?][]
+): MatrixRow[] {
+	return [
+		ofBuild({ route, method: 'GET', expect: studioOnly(200) }),
+		...actions.map(([action, form, ok, check]) =>
+			ofBuild({
+				route,
+				method: 'POST',
+				action,
+				form,
+				expect: studioOnly(ok),
+				...(check && { changes: { by: EDITORS, check } })
+			})
+		)
+	];
 }
 
 export const sharingRows: MatrixRow[] = [
@@ -259,66 +300,12 @@ export const sharingRows: MatrixRow[] = [
 	},
 
 	// The studio's side.
-	ofBuild({
-		route: '/builds/[id]/share',
-		method: 'GET',
-		expect: studioOnly(200)
-	}),
-	ofBuild({
-		route: '/builds/[id]/share',
-		method: 'POST',
-		action: 'create',
-		form: (f) => ({
-			variantId: f.vars.variantId,
-			recipientEmail: '',
-			recipientName: 'Someone',
-			expires: '7',
-			send: ''
-		}),
-		expect: studioOnly(200),
-		changes: { by: EDITORS, check: async (f) => (await linkCount(f)) > 2 }
-	}),
-	ofBuild({
-		route: '/builds/[id]/share',
-		method: 'POST',
-		action: 'revoke',
-		form: (f) => ({ linkId: f.vars.linkId }),
-		expect: studioOnly(200),
-		changes: {
-			by: EDITORS,
-			check: async (f) =>
-				(
-					await db
-						.select()
-						.from(shareLinks)
-						.where(and(eq(shareLinks.id, f.vars.linkId), isNotNull(shareLinks.revokedAt)))
-				).length === 1
-		}
-	}),
-	ofBuild({
-		route: '/builds/[id]/share',
-		method: 'POST',
-		action: 'comment',
-		form: (f) => ({ variantId: f.vars.variantId, body: 'The fittings clear by 4 mm.', part: '' }),
-		expect: studioOnly(200),
-		changes: { by: EDITORS, check: async (f) => (await commentCount(f)) > 0 }
-	}),
-	ofBuild({
-		route: '/builds/[id]/quote/[variantId]',
-		method: 'GET',
-		expect: studioOnly(200)
-	}),
-	ofBuild({
-		route: '/builds/[id]/quote/[variantId]',
-		method: 'POST',
-		action: 'create',
-		expect: studioOnly(200),
-		changes: {
-			by: EDITORS,
-			check: async (f) =>
-				(await db.select().from(quotes).where(eq(quotes.variantId, f.vars.variantId))).length === 1
-		}
-	}),
+	...studioPage('/builds/[id]/share', [
+		['create', newLinkForm, 200, async (f) => (await linkCount(f)) > 2],
+		['revoke', (f) => ({ linkId: f.vars.linkId }), 200, linkRevoked],
+		['comment', studioCommentForm, 200, async (f) => (await commentCount(f)) > 0]
+	]),
+	...studioPage('/builds/[id]/quote/[variantId]', [['create', undefined, 200, quoteMade]]),
 	...(['save', 'refresh', 'send', 'withdraw'] as const).map((action): MatrixRow => ({
 		route: '/builds/[id]/quote/[variantId]',
 		method: 'POST',
@@ -335,37 +322,11 @@ export const sharingRows: MatrixRow[] = [
 				)
 		}
 	})),
-	ofBuild({
-		route: '/builds/[id]/photos',
-		method: 'GET',
-		expect: studioOnly(200)
-	}),
-	ofBuild({
-		route: '/builds/[id]/photos',
-		method: 'POST',
-		action: 'upload',
-		form: uploadForm,
-		expect: studioOnly(415)
-	}),
-	ofBuild({
-		route: '/builds/[id]/photos',
-		method: 'POST',
-		action: 'delete',
-		form: (f) => ({ photoId: f.vars.photoId }),
-		expect: studioOnly(200),
-		changes: {
-			by: EDITORS,
-			check: async (f) =>
-				(await db.select().from(photos).where(eq(photos.id, f.vars.photoId))).length === 0
-		}
-	}),
-	ofBuild({
-		route: '/builds/[id]/photos',
-		method: 'POST',
-		action: 'caption',
-		form: (f) => ({ photoId: f.vars.photoId, caption: 'Bench test' }),
-		expect: studioOnly(200)
-	}),
+	...studioPage('/builds/[id]/photos', [
+		['upload', uploadForm, 415],
+		['delete', (f) => ({ photoId: f.vars.photoId }), 200, photoGone],
+		['caption', (f) => ({ photoId: f.vars.photoId, caption: 'Bench test' }), 200]
+	]),
 	// Images for members: clients see the build's photos once something of it is shared with them.
 	{
 		route: '/builds/[id]/photos/[photoId]/[size]',

@@ -7,8 +7,8 @@ import { eq } from 'drizzle-orm';
 import { demoEnclosure, demoParts, demoSceneInput } from '../../geometry/standard-library';
 import { boundsOf } from '../../geometry';
 import { db } from '../db';
-import { builds, parts, variants } from '../db/schema';
-import { insertEnclosure } from './builds';
+import { parts, variants } from '../db/schema';
+import { insertBuild, insertEnclosure } from './builds';
 import { studioWithMembers } from './factories';
 import { newId } from '../tokens';
 import { createShareLink } from '../sharing/links';
@@ -80,17 +80,13 @@ export async function demoBuild(opts: {
 	};
 	const buildId = newId();
 	const variantId = newId();
-	await db.insert(builds).values({
-		id: buildId,
+	await insertBuild(db, {
 		studioId: opts.studioId,
-		name: opts.name ?? 'Compact sandwich build',
-		clientName: 'A. Client',
 		enclosureVersionId: versionId,
-		createdBy: opts.createdBy
+		createdBy: opts.createdBy,
+		build: { id: buildId, name: opts.name ?? 'Compact sandwich build', clientName: 'A. Client' },
+		variant: { id: variantId, name: 'Variant A', isProposal: true, settings }
 	});
-	await db
-		.insert(variants)
-		.values({ id: variantId, buildId, name: 'Variant A', isProposal: true, settings });
 	return { buildId, variantId, enclosureVersionId: versionId, partIds: idMap, settings };
 }
 
@@ -99,16 +95,27 @@ export async function variantRow(variantId: string) {
 	return v;
 }
 
+/** A live link to the build's variant, made by the studio's designer for the studio's client. */
+export function shareWithClient(
+	f: { studio: { id: string }; designer: { id: string }; client: { email: string } },
+	b: { buildId: string; variantId: string },
+	opts: { recipientName?: string; expiresAt?: Date | null } = {}
+) {
+	return createShareLink({
+		studioId: f.studio.id,
+		buildId: b.buildId,
+		variantId: b.variantId,
+		createdBy: f.designer.id,
+		recipientEmail: f.client.email,
+		...opts
+	});
+}
+
 /** A studio (owner, designer, client, and an outsider elsewhere), a demo build, and a live link for the client. */
 export async function sharedDemo(opts: { expiresAt?: Date | null } = {}) {
 	const f = await studioWithMembers();
 	const build = await demoBuild({ studioId: f.studio.id, createdBy: f.designer.id });
-	const share = await createShareLink({
-		studioId: f.studio.id,
-		buildId: build.buildId,
-		variantId: build.variantId,
-		createdBy: f.designer.id,
-		recipientEmail: f.client.email,
+	const share = await shareWithClient(f, build, {
 		recipientName: 'A. Client',
 		expiresAt: opts.expiresAt ?? null
 	});

@@ -9,7 +9,7 @@ import { and, count, eq } from 'drizzle-orm';
 import sharp from 'sharp';
 import { db } from '../db';
 import { checklistTicks } from '../db/schema';
-import { createShareLink } from '../sharing/links';
+import { shareWithClient } from './sharing';
 import { addPhoto } from '../sharing/photos';
 import { createSheetBuild } from './sheet-build';
 import { SIGN_IN, type MatrixFixture, type MatrixRow } from './access-matrix';
@@ -17,13 +17,7 @@ import { SIGN_IN, type MatrixFixture, type MatrixRow } from './access-matrix';
 /** The demo build in the fixture's studio, its variant shared with the fixture's client. */
 async function withSheet(f: MatrixFixture) {
 	const b = await createSheetBuild({ studioId: f.studio.id, userId: f.designer.id });
-	await createShareLink({
-		studioId: f.studio.id,
-		buildId: b.buildId,
-		variantId: b.variantId,
-		createdBy: f.designer.id,
-		recipientEmail: f.client.email
-	});
+	await shareWithClient(f, b);
 	f.vars.buildId = b.buildId;
 	f.vars.variantId = b.variantId;
 }

@@ -8,8 +8,8 @@ import { eq, inArray } from 'drizzle-orm';
 import { demoEnclosure, demoParts, demoSceneInput } from '../../geometry/standard-library';
 import type { PartDef } from '../../geometry/schema';
 import { db } from '../db';
-import { insertEnclosure } from './builds';
-import { builds, checklistTicks, parts, variants } from '../db/schema';
+import { insertBuild, insertEnclosure } from './builds';
+import { checklistTicks, parts, variants } from '../db/schema';
 
 export type SheetTestBuild = {
 	buildId: string;
@@ -69,21 +69,18 @@ export async function createSheetBuild(opts: {
 	await db.transaction(async (tx) => {
 		await insertEnclosure(tx, { enclosureId, versionId, studioId: opts.studioId, definition });
 		await tx.insert(parts).values(rows);
-		await tx.insert(builds).values({
-			id: buildId,
+		await insertBuild(tx, {
 			studioId: opts.studioId,
-			name: opts.name ?? 'Sheet test build',
-			clientName: 'Test Client',
 			enclosureVersionId: versionId,
-			createdBy: opts.userId ?? null
-		});
-		await tx.insert(variants).values({
-			id: variantId,
-			buildId,
-			name: 'Spine at three slots',
-			sortOrder: 0,
-			isProposal: true,
-			settings
+			createdBy: opts.userId ?? null,
+			build: { id: buildId, name: opts.name ?? 'Sheet test build', clientName: 'Test Client' },
+			variant: {
+				id: variantId,
+				name: 'Spine at three slots',
+				sortOrder: 0,
+				isProposal: true,
+				settings
+			}
 		});
 	});
 	return { buildId, variantId, enclosureId, partIds };

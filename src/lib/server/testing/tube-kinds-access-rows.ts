@@ -4,11 +4,11 @@
  * an outsider sees their own studio's page (200) and cannot touch this studio's kinds (404),
  * anonymous visitors go to sign-in.
  */
-import { and, eq, isNotNull } from 'drizzle-orm';
+import { eq } from 'drizzle-orm';
 import { db } from '../db';
 import { studioLoopSettings, tubeKinds } from '../db/schema';
 import type { Expected, MatrixFixture, MatrixRow } from './access-matrix';
-import { EDITORS, countRows, studioOnly } from './matrix-rows';
+import { EDITORS, countRows, isStamped, studioOnly } from './matrix-rows';
 import { addTubeKind } from '../catalog/tube-kinds';
 
 const catalogue = (member: Expected, outsider: Expected) => studioOnly(member, outsider);
@@ -47,14 +47,18 @@ async function withTube(f: MatrixFixture) {
 }
 
 const tubeCount = (f: MatrixFixture) => countRows(tubeKinds, eq(tubeKinds.studioId, f.studio.id));
-const tubeRetired = async (f: MatrixFixture) =>
-	(await countRows(
-		tubeKinds,
-		and(eq(tubeKinds.id, f.vars.tube), isNotNull(tubeKinds.archivedAt))
-	)) === 1;
+const tubeRetired = (f: MatrixFixture) =>
+	isStamped(tubeKinds, tubeKinds.id, f.vars.tube, tubeKinds.archivedAt);
 const tubeName = async (f: MatrixFixture) =>
 	(await db.select({ n: tubeKinds.name }).from(tubeKinds).where(eq(tubeKinds.id, f.vars.tube)))[0]
 		?.n;
+const allowance = async (f: MatrixFixture) =>
+	(
+		await db
+			.select({ pct: studioLoopSettings.cutAllowancePct })
+			.from(studioLoopSettings)
+			.where(eq(studioLoopSettings.studioId, f.studio.id))
+	)[0]?.pct;
 
 export const tubeKindRows: MatrixRow[] = [
 	{ route: '/tube-kinds', method: 'GET', expect: catalogue(200, 200) },
@@ -106,15 +110,6 @@ export const tubeKindRows: MatrixRow[] = [
 		action: 'allowance',
 		form: () => ({ cutAllowancePct: '15' }),
 		expect: catalogue(200, 200),
-		changes: {
-			by: EDITORS,
-			check: async (f) =>
-				(
-					await db
-						.select()
-						.from(studioLoopSettings)
-						.where(eq(studioLoopSettings.studioId, f.studio.id))
-				)[0]?.cutAllowancePct === 15
-		}
+		changes: { by: EDITORS, check: async (f) => (await allowance(f)) === 15 }
 	}
 ];

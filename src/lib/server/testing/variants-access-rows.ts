@@ -8,8 +8,9 @@ import { forkVariant, variantsOf } from '../builds';
 import { demoBuildIn } from './builds';
 import { db } from '../db';
 import { builds, variants } from '../db/schema';
+import type { Fields } from './client';
 import { SIGN_IN, type Expected, type MatrixFixture, type MatrixRow } from './access-matrix';
-import { EDITORS, about, studioOnly } from './matrix-rows';
+import { EDITORS, about, countRows, studioOnly } from './matrix-rows';
 
 async function withTwoVariants(f: MatrixFixture) {
 	const b = await demoBuildIn(f.studio.id, f.owner.id);
@@ -19,9 +20,36 @@ async function withTwoVariants(f: MatrixFixture) {
 }
 
 const count = async (f: MatrixFixture) => (await variantsOf(f.vars.buildId)).length;
+const second = async (f: MatrixFixture) =>
+	(await db.select().from(variants).where(eq(variants.id, f.vars.otherId)))[0];
+const renamed = async (f: MatrixFixture) => (await second(f)).name === 'Renamed in the matrix';
+const movedFirst = async (f: MatrixFixture) =>
+	(await variantsOf(f.vars.buildId))[0].id === f.vars.otherId;
+const proposed = async (f: MatrixFixture) => (await second(f)).isProposal;
+const buildGone = async (f: MatrixFixture) =>
+	(await countRows(builds, eq(builds.id, f.vars.buildId))) === 0;
+const forked = async (f: MatrixFixture) => (await count(f)) === 3;
+const deleted = async (f: MatrixFixture) => (await count(f)) === 1;
 const editors = (ok: Expected) => studioOnly(ok);
 const ofBuild = about(withTwoVariants, { id: 'buildId' });
 const page = (f: MatrixFixture, rest = '') => `/builds/${f.vars.buildId}${rest}`;
+
+type Check = (f: MatrixFixture) => Promise<boolean>;
+
+/** The variants page's form actions: what an editor posts, what they get, how to tell it worked. */
+const VARIANT_ACTIONS: [string, (f: MatrixFixture) => Fields, Expected, Check][] = [
+	[
+		'fork',
+		(f) => ({ variantId: f.vars.variantId }),
+		{ status: 303, location: /\?variant=/ },
+		forked
+	],
+	['rename', (f) => ({ variantId: f.vars.otherId, name: 'Renamed in the matrix' }), 200, renamed],
+	['move', (f) => ({ variantId: f.vars.otherId, by: '-1' }), 200, movedFirst],
+	['delete', (f) => ({ variantId: f.vars.otherId, confirm: 'yes' }), 200, deleted],
+	['propose', (f) => ({ variantId: f.vars.otherId }), 200, proposed],
+	['deleteBuild', () => ({ confirm: 'yes' }), { status: 303, location: '/builds' }, buildGone]
+];
 
 export const variantRows: MatrixRow[] = [
 	ofBuild({
@@ -29,70 +57,16 @@ export const variantRows: MatrixRow[] = [
 		method: 'GET',
 		expect: editors(200)
 	}),
-	ofBuild({
-		route: '/builds/[id]/variants',
-		method: 'POST',
-		action: 'fork',
-		form: (f) => ({ variantId: f.vars.variantId }),
-		expect: editors({ status: 303, location: /\?variant=/ }),
-		changes: { by: EDITORS, check: async (f) => (await count(f)) === 3 }
-	}),
-	ofBuild({
-		route: '/builds/[id]/variants',
-		method: 'POST',
-		action: 'rename',
-		form: (f) => ({ variantId: f.vars.otherId, name: 'Renamed in the matrix' }),
-		expect: editors(200),
-		changes: {
-			by: EDITORS,
-			check: async (f) =>
-				(await db.select().from(variants).where(eq(variants.id, f.vars.otherId)))[0].name ===
-				'Renamed in the matrix'
-		}
-	}),
-	ofBuild({
-		route: '/builds/[id]/variants',
-		method: 'POST',
-		action: 'move',
-		form: (f) => ({ variantId: f.vars.otherId, by: '-1' }),
-		expect: editors(200),
-		changes: {
-			by: EDITORS,
-			check: async (f) => (await variantsOf(f.vars.buildId))[0].id === f.vars.otherId
-		}
-	}),
-	ofBuild({
-		route: '/builds/[id]/variants',
-		method: 'POST',
-		action: 'delete',
-		form: (f) => ({ variantId: f.vars.otherId, confirm: 'yes' }),
-		expect: editors(200),
-		changes: { by: EDITORS, check: async (f) => (await count(f)) === 1 }
-	}),
-	ofBuild({
-		route: '/builds/[id]/variants',
-		method: 'POST',
-		action: 'propose',
-		form: (f) => ({ variantId: f.vars.otherId }),
-		expect: editors(200),
-		changes: {
-			by: EDITORS,
-			check: async (f) =>
-				(await db.select().from(variants).where(eq(variants.id, f.vars.otherId)))[0].isProposal
-		}
-	}),
-	ofBuild({
-		route: '/builds/[id]/variants',
-		method: 'POST',
-		action: 'deleteBuild',
-		form: () => ({ confirm: 'yes' }),
-		expect: editors({ status: 303, location: '/builds' }),
-		changes: {
-			by: EDITORS,
-			check: async (f) =>
-				(await db.select().from(builds).where(eq(builds.id, f.vars.buildId))).length === 0
-		}
-	}),
+	...VARIANT_ACTIONS.map(([action, form, ok, check]) =>
+		ofBuild({
+			route: '/builds/[id]/variants',
+			method: 'POST',
+			action,
+			form,
+			expect: editors(ok),
+			changes: { by: EDITORS, check }
+		})
+	),
 	{
 		route: '/builds/[id]/compare',
 		method: 'GET',
