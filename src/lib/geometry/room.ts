@@ -532,6 +532,18 @@ function holdsCentre(room: Box, box: Box): boolean {
 	return true;
 }
 
+/**
+ * The axis cards stack along (slot after slot) in `box`, for cards whose length runs along
+ * `lengthAxis`: the scene's stack axis where it is another axis, else the box's narrowest other axis.
+ */
+function slotAxis(box: Box, lengthAxis: AxisIndex, stackAxis: AxisIndex | null): AxisIndex {
+	if (stackAxis !== null && stackAxis !== lengthAxis) return stackAxis;
+	const extent = (a: number) => box.max[a] - box.min[a];
+	return [0, 1, 2]
+		.filter((a) => a !== lengthAxis)
+		.sort((p, q) => extent(p) - extent(q))[0] as AxisIndex;
+}
+
 /** The widest card in the compartment a support bracket stands in, in slots. */
 function cardSlots(
 	ctx: RoomContext,
@@ -541,14 +553,7 @@ function cardSlots(
 	dividers: readonly Obstacle[],
 	stackAxis: AxisIndex | null
 ): RoomFigure {
-	const S =
-		stackAxis !== null && stackAxis !== L
-			? stackAxis
-			: ([0, 1, 2]
-					.filter((i) => i !== L)
-					.sort(
-						(p, q) => room.box.max[p] - room.box.min[p] - (room.box.max[q] - room.box.min[q])
-					)[0] as AxisIndex);
+	const S = slotAxis(room.box, L, stackAxis);
 	const width = room.box.max[S] - room.box.min[S];
 	const labels = containerLabels(room.box, ctx.inner, '');
 	const lo =
@@ -575,14 +580,7 @@ function slotFigures(
 ): RoomFigure[] {
 	const { axis } = panelAt(m, ctx.inner);
 	const cross = clip(m.region, ctx.inner);
-	const S =
-		stackAxis !== null && stackAxis !== axis
-			? stackAxis
-			: ([0, 1, 2]
-					.filter((i) => i !== axis)
-					.sort(
-						(p, q) => cross.max[p] - cross.min[p] - (cross.max[q] - cross.min[q])
-					)[0] as AxisIndex);
+	const S = slotAxis(cross, axis, stackAxis);
 	const width = cross.max[S] - cross.min[S];
 	const pitch = m.slotPitchMm || SLOT_PITCH_MM;
 	const byRoom = Math.floor(width / pitch + 1e-9);
