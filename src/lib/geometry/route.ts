@@ -838,6 +838,15 @@ function search(input: RouteInput, prep: Prepared, opt: SearchOptions): SearchAn
 		}
 	}
 
+	// No route: cut off by the step budget, or (exhausted) with every state tried.
+	const failed = (expansions: number, exhausted: boolean): SearchAnswer => ({
+		found: false,
+		expansions,
+		exhausted,
+		blockers: [...bestBlockers],
+		startBlockedBy,
+		partial: partialTo(best.state)
+	});
 	let expansions = 0;
 	while (heap.size > 0) {
 		const top = heap.pop();
@@ -847,16 +856,7 @@ function search(input: RouteInput, prep: Prepared, opt: SearchOptions): SearchAn
 		const g = gGet(state);
 		if (top.g > g + 1e-9) continue;
 		expansions++;
-		if (--opt.budget.left < 0) {
-			return {
-				found: false,
-				expansions,
-				exhausted: false,
-				blockers: [...bestBlockers],
-				startBlockedBy,
-				partial: partialTo(best.state)
-			};
-		}
+		if (--opt.budget.left < 0) return failed(expansions, false);
 		const d = state % 6;
 		const n = (state - d) / 6;
 		point(n, P);
@@ -922,16 +922,7 @@ function search(input: RouteInput, prep: Prepared, opt: SearchOptions): SearchAn
 		}
 	}
 
-	if (goalParent === -1 && goalG === Infinity) {
-		return {
-			found: false,
-			expansions,
-			exhausted: true,
-			blockers: [...bestBlockers],
-			startBlockedBy,
-			partial: partialTo(best.state)
-		};
-	}
+	if (goalParent === -1 && goalG === Infinity) return failed(expansions, true);
 
 	const points = cornersTo(goalParent);
 	if (chain.length > 0 && chain[chain.length - 1] % 6 !== ed) {
