@@ -17,6 +17,7 @@ import {
 import {
 	FACE_AXES,
 	PANEL_LABELS,
+	panelText,
 	bracketBoxAt,
 	compartmentsFor,
 	dividerBoxAt,
@@ -111,15 +112,6 @@ export interface RoomTable {
 	/** Set when the table is incomplete or empty, in words. */
 	note: string | null;
 }
-
-const FACE_WORD: Record<Face, string> = {
-	'-x': 'left panel',
-	'+x': 'right panel',
-	'-y': 'bottom panel',
-	'+y': 'top panel',
-	'-z': 'front panel',
-	'+z': 'back panel'
-};
 
 function clip(box: Box, to: Box): Box {
 	return {
@@ -719,7 +711,7 @@ function compartmentFigures(
 		figures.push({
 			id: `pump:${c.id}:${panelOf(f)}`,
 			kind: 'pump-depth',
-			label: `${c.label}: pump or reservoir on the ${FACE_WORD[f]}`,
+			label: `${c.label}: pump or reservoir on the ${panelText(panelOf(f))}`,
 			valueMm: deep.max[axis] - deep.min[axis],
 			boundedBy: `to the ${bound}`,
 			note: `over ${mmOf(ctx, Math.min(p, q))} × ${mmOf(ctx, Math.max(p, q))} (a footprint of at least ${PUMP_FOOTPRINT_MM} × ${PUMP_FOOTPRINT_MM} mm)`,
