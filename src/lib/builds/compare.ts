@@ -2,7 +2,14 @@
  * Differences between variants of one build, from their fit reports (the same engine numbers the
  * editor shows). The first variant is the reference; every other column says how far it moved.
  */
-import { FACES, STATUS_ORDER, type Face, type FitReport, type FitStatus } from '$lib/geometry';
+import {
+	FACES,
+	STATUS_ORDER,
+	type Face,
+	type FitReport,
+	type FitStatus,
+	type MountReport
+} from '$lib/geometry';
 import { toCsv } from '$lib/csv';
 import { faceGapWords } from '../words/builds';
 import { faceWords } from '$lib/words/faces';
@@ -105,6 +112,38 @@ function statusRow(
 
 const mmText = (v: number) => `${v.toFixed(1)}\u2009mm`;
 
+type MountFigure = {
+	key: string;
+	/** The row label's last word, after the mount's label. */
+	word: string;
+	valueOf: (m: MountReport) => number | null;
+	better: DiffRow['better'];
+	format: (v: number) => string;
+	/** Whether the row carries the mount's status (the stack row does; the spare row does not). */
+	withStatus: boolean;
+};
+
+/** Each mount's two rows: the stack it holds (with its status) and the room it has to spare. */
+const MOUNT_FIGURES: readonly MountFigure[] = [
+	{
+		key: 'used',
+		word: 'stack',
+		valueOf: (m) => m.usedMm,
+		better: 'none',
+		format: mmText,
+		withStatus: true
+	},
+	// Less than no spare room is an overrun, said as one.
+	{
+		key: 'spare',
+		word: 'spare',
+		valueOf: (m) => m.spareMm,
+		better: 'higher',
+		format: (v) => (v < -EPS ? `${mmText(-v)} over` : mmText(v)),
+		withStatus: false
+	}
+];
+
 /** Rows for every part (status + six gaps), compartment, mount stack and the totals. */
 export function compareVariants(inputs: CompareInput[]): DiffRow[] {
 	const rows: DiffRow[] = [];
@@ -206,30 +245,21 @@ export function compareVariants(inputs: CompareInput[]): DiffRow[] {
 		const found = inputs.map((v) => v.report.mounts.find((m) => m.mountId === id));
 		const label = found.find((m) => m)?.label ?? id;
 		const ids = [...new Set(found.flatMap((m) => m?.stack.map((s) => s.placementId) ?? []))];
-		rows.push(
-			numberRow(
-				`mount:${id}:used`,
+		for (const f of MOUNT_FIGURES) {
+			const values = found.map((m) => (m ? f.valueOf(m) : null));
+			const statuses = f.withStatus ? found.map((m) => m?.status) : undefined;
+			const row = numberRow(
+				`mount:${id}:${f.key}`,
 				'mount',
-				`${label} — stack`,
-				found.map((m) => m?.usedMm ?? null),
-				'none',
-				mmText,
+				`${label} — ${f.word}`,
+				values,
+				f.better,
+				f.format,
 				ids,
-				found.map((m) => m?.status)
-			)
-		);
-		rows.push(
-			numberRow(
-				`mount:${id}:spare`,
-				'mount',
-				`${label} — spare`,
-				found.map((m) => m?.spareMm ?? null),
-				'higher',
-				// Less than no spare room is an overrun, said as one.
-				(v) => (v < -EPS ? `${mmText(-v)} over` : mmText(v)),
-				ids
-			)
-		);
+				statuses
+			);
+			rows.push(row);
+		}
 	}
 	rows.push(...loopRows(inputs));
 	rows.push(

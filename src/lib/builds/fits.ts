@@ -10,6 +10,7 @@ import {
 	placePart,
 	SceneError,
 	allowedPositions,
+	controlDef,
 	boxContains,
 	checkScene,
 	formatMm,
@@ -356,21 +357,16 @@ export interface SlidingControl extends PositionsControl {
 
 /** The enclosure's dividers, then its brackets, that have more than one allowed position. */
 export function slidingControls(enclosure: EnclosureDef): SlidingControl[] {
+	const control = (kind: SlidingControl['kind'], def: DividerDef | BracketDef): SlidingControl => ({
+		key: `${kind}:${def.id}`,
+		kind,
+		id: def.id,
+		label: def.label,
+		positionCount: allowedPositions(def).length
+	});
 	return [
-		...enclosure.dividers.map((d) => ({
-			key: `divider:${d.id}`,
-			kind: 'divider' as const,
-			id: d.id,
-			label: d.label,
-			positionCount: allowedPositions(d).length
-		})),
-		...enclosure.brackets.map((b) => ({
-			key: `bracket:${b.id}`,
-			kind: 'bracket' as const,
-			id: b.id,
-			label: b.label,
-			positionCount: allowedPositions(b).length
-		}))
+		...enclosure.dividers.map((d) => control('divider', d)),
+		...enclosure.brackets.map((b) => control('bracket', b))
 	].filter((c) => c.positionCount > 1);
 }
 
@@ -405,15 +401,6 @@ export function positionsRequest(
 	};
 }
 
-function controlDef(scene: Scene, control: PositionsControl): DividerDef | BracketDef {
-	const def =
-		control.kind === 'divider'
-			? scene.enclosure.dividers.find((d) => d.id === control.id)
-			: scene.enclosure.brackets.find((b) => b.id === control.id);
-	if (!def) throw new SceneError('control.id', `No ${control.kind} with id ${control.id}`);
-	return def;
-}
-
 /**
  * Each candidate at every allowed position of one control: status and spare mm per cell. Where a
  * part lands on a mount (or in place of a part) does not depend on the controls, so it lands once.
@@ -424,7 +411,8 @@ export function partsByPositions(
 	candidates: readonly FitCandidate[],
 	control: PositionsControl
 ): PartsByPositions {
-	const def = controlDef(scene, control);
+	const def = controlDef(scene.enclosure, control);
+	if (!def) throw new SceneError('control.id', `No ${control.kind} with id ${control.id}`);
 	const positions = allowedPositions(def);
 	const key = control.kind === 'divider' ? 'dividerPositions' : 'bracketOffsets';
 	const rows: PartsByPositions['rows'] = candidates.map((c) => ({

@@ -4,11 +4,10 @@
  */
 import {
 	allowedPositions,
+	controlDef,
 	feasibleIntervals,
 	sweep,
 	sweepGrid,
-	type BracketDef,
-	type DividerDef,
 	type Scene,
 	type SweepControl,
 	type SweepGridCell,
@@ -20,28 +19,41 @@ import {
 const SLICE = 24;
 const pause = () => new Promise<void>((resolve) => setTimeout(resolve, 0));
 
-function defOf(scene: Scene, c: SweepControl): DividerDef | BracketDef | undefined {
-	return c.kind === 'divider'
-		? scene.enclosure.dividers.find((d) => d.id === c.id)
-		: scene.enclosure.brackets.find((b) => b.id === c.id);
+/** How a caller follows a long sweep: told slices done of the total, and able to abort it. */
+type Progress = [onProgress: (done: number, total: number) => void, signal?: AbortSignal];
+
+/**
+ * Runs `work` over [0, total) a slice of `size` at a time, telling progress and yielding after
+ * each; false when the signal aborted it before the end.
+ */
+async function inSlices(
+	total: number,
+	size: number,
+	work: (from: number, to: number) => void,
+	[onProgress, signal]: Progress
+): Promise<boolean> {
+	for (let i = 0; i < total; i += size) {
+		if (signal?.aborted) return false;
+		const to = Math.min(total, i + size);
+		work(i, to);
+		onProgress(to, total);
+		await pause();
+	}
+	return true;
 }
 
 export async function sweepInSlices(
 	scene: Scene,
 	control: SweepControl,
-	onProgress: (done: number, total: number) => void,
-	signal?: AbortSignal
+	...progress: Progress
 ): Promise<SweepResult | null> {
-	const def = defOf(scene, control);
+	const def = controlDef(scene.enclosure, control);
 	if (!def) return null;
 	const offsets = allowedPositions(def).map((p) => p.offsetMm);
 	const points: SweepPoint[] = [];
-	for (let i = 0; i < offsets.length; i += SLICE) {
-		if (signal?.aborted) return null;
-		points.push(...sweep(scene, { control, positions: offsets.slice(i, i + SLICE) }).points);
-		onProgress(Math.min(offsets.length, i + SLICE), offsets.length);
-		await pause();
-	}
+	const slice = (from: number, to: number) =>
+		points.push(...sweep(scene, { control, positions: offsets.slice(from, to) }).points);
+	if (!(await inSlices(offsets.length, SLICE, slice, progress))) return null;
 	points.sort((a, b) => a.offsetMm - b.offsetMm);
 	return { control, points, feasibleIntervals: feasibleIntervals(points) };
 }
@@ -50,25 +62,24 @@ export async function gridInSlices(
 	scene: Scene,
 	a: SweepControl,
 	b: SweepControl,
-	onProgress: (done: number, total: number) => void,
-	signal?: AbortSignal
+	...progress: Progress
 ): Promise<SweepGridResult | null> {
-	const defA = defOf(scene, a);
-	const defB = defOf(scene, b);
+	const defA = controlDef(scene.enclosure, a);
+	const defB = controlDef(scene.enclosure, b);
 	if (!defA || !defB) return null;
 	const rows = allowedPositions(defA)
 		.map((p) => p.offsetMm)
 		.sort((p, q) => p - q);
-	let result: SweepGridResult | null = null;
+	// Set by the first row (TypeScript does not see the closure assign it).
+	let result = null as SweepGridResult | null;
 	const cells: SweepGridCell[] = [];
-	for (let i = 0; i < rows.length; i++) {
-		if (signal?.aborted) return null;
+	// A row of the grid a slice.
+	const row = (i: number) => {
 		const slice = sweepGrid(scene, a, b, { positionsA: [rows[i]] });
 		result ??= slice;
 		cells.push(...slice.cells);
-		onProgress(i + 1, rows.length);
-		await pause();
-	}
+	};
+	if (!(await inSlices(rows.length, 1, row, progress))) return null;
 	if (!result) return null;
 	const positionsA = allowedPositions(defA).sort((p, q) => p.offsetMm - q.offsetMm);
 	return { ...result, positionsA, cells };

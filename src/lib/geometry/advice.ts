@@ -16,7 +16,7 @@
 import { AXES, EPSILON_MM, axisIndex, compareText, type AxisIndex } from './box';
 import type { Model } from './model';
 import { pairKind } from './pairs';
-import { allowedPositions, formatMm } from './positions';
+import { allowedPositions, controlDef, formatMm } from './positions';
 import type { BracketDef, DividerDef } from './schema';
 import type { ClearingMove } from './types';
 
@@ -45,17 +45,6 @@ export interface AdviceCache {
 
 export function adviceCache(): AdviceCache {
 	return { movers: new Map() };
-}
-
-function controlDef(
-	model: Model,
-	kind: 'divider' | 'bracket',
-	id: string
-): DividerDef | BracketDef | undefined {
-	const enclosure = model.scene.enclosure;
-	return kind === 'divider'
-		? enclosure.dividers.find((d) => d.id === id)
-		: enclosure.brackets.find((b) => b.id === id);
 }
 
 /** The thing box `i` moves with, or null for a wall, a plate or a locked part. */
@@ -87,7 +76,7 @@ function moverOf(model: Model, cache: AdviceCache, i: number): Mover | null {
 			blocked: blockedIntervals(model, boxes, -1, p)
 		};
 	} else if (box.kind === 'divider' || box.kind === 'bracket') {
-		const def = controlDef(model, box.kind, box.ownerId);
+		const def = controlDef(model.scene.enclosure, { kind: box.kind, id: box.ownerId });
 		if (!def) return null;
 		const current =
 			box.kind === 'divider'

@@ -109,27 +109,49 @@ function plural(n: number, word: string): string {
 	return `${n.toLocaleString('en-US')} ${word}`;
 }
 
+/**
+ * What each limit's message says, from the amount asked for, the limit, and the amount's factors
+ * where it is a product (positions × boxes).
+ */
+const SAYS: Record<
+	CostExcess['limit'],
+	(value: number, max: number, factors: readonly [number, number]) => string
+> = {
+	boxes: (value, max) =>
+		`The scene has ${plural(value, 'boxes')}; the limit is ${plural(max, 'boxes')} (walls, dividers, brackets, bodies and keep-outs).`,
+	candidatePairs: (value, max) =>
+		`The scene's boxes are piled so close that checking them could take up to ${plural(value, 'pairs')}; the limit is ${plural(max, 'candidate pairs')}.`,
+	gridCells: (value, max) =>
+		`The grid has ${plural(value, 'cells')}; the limit is ${plural(max, 'cells')}. Sweep fewer positions of either control.`,
+	sweepPoints: (value, max) =>
+		`The sweep has ${plural(value, 'positions')}; the limit is ${plural(max, 'positions')}.`,
+	sweepWork: (value, max, [points, boxes]) =>
+		`The sweep is ${plural(points, 'positions')} × ${plural(boxes, 'boxes')} = ${plural(value, 'position-boxes')}; the limit is ${plural(max, 'position-boxes')}.`,
+	sweepRows: (value, max) =>
+		`The sweep would answer ${plural(value, 'rows')} (positions × gaps and compartments); the limit is ${plural(max, 'rows')}. Ask for fewer gaps or positions.`,
+	routeObstacles: (value, max) =>
+		`The route would have to clear ${plural(value, 'boxes')}; the limit is ${plural(max, 'boxes')}.`
+};
+
+/** The excess when `value` goes over `max`, else null. */
+function over(
+	limit: CostExcess['limit'],
+	path: string,
+	value: number,
+	max: number,
+	factors: readonly [number, number] = [value, 1]
+): CostExcess | null {
+	return value > max
+		? { limit, path, value, max, message: SAYS[limit](value, max, factors) }
+		: null;
+}
+
 /** The first limit the scene's cost goes over, or null. `path` names the field carrying it. */
 export function sceneExcess(cost: SceneCost, path = 'placements'): CostExcess | null {
-	if (cost.boxes > MAX_CHECK_BOXES) {
-		return {
-			limit: 'boxes',
-			path,
-			value: cost.boxes,
-			max: MAX_CHECK_BOXES,
-			message: `The scene has ${plural(cost.boxes, 'boxes')}; the limit is ${plural(MAX_CHECK_BOXES, 'boxes')} (walls, dividers, brackets, bodies and keep-outs).`
-		};
-	}
-	if (cost.candidatePairs > MAX_CANDIDATE_PAIRS) {
-		return {
-			limit: 'candidatePairs',
-			path,
-			value: cost.candidatePairs,
-			max: MAX_CANDIDATE_PAIRS,
-			message: `The scene's boxes are piled so close that checking them could take up to ${plural(cost.candidatePairs, 'pairs')}; the limit is ${plural(MAX_CANDIDATE_PAIRS, 'candidate pairs')}.`
-		};
-	}
-	return null;
+	return (
+		over('boxes', path, cost.boxes, MAX_CHECK_BOXES) ??
+		over('candidatePairs', path, cost.candidatePairs, MAX_CANDIDATE_PAIRS)
+	);
 }
 
 /**
@@ -146,43 +168,12 @@ export function sweepExcess(input: {
 }): CostExcess | null {
 	const { boxes, points, grid, path } = input;
 	const rows = points * (input.rowsPerPoint ?? 1);
-	if (grid && points > MAX_GRID_CELLS) {
-		return {
-			limit: 'gridCells',
-			path,
-			value: points,
-			max: MAX_GRID_CELLS,
-			message: `The grid has ${plural(points, 'cells')}; the limit is ${plural(MAX_GRID_CELLS, 'cells')}. Sweep fewer positions of either control.`
-		};
-	}
-	if (points > MAX_SWEEP_POINTS) {
-		return {
-			limit: 'sweepPoints',
-			path,
-			value: points,
-			max: MAX_SWEEP_POINTS,
-			message: `The sweep has ${plural(points, 'positions')}; the limit is ${plural(MAX_SWEEP_POINTS, 'positions')}.`
-		};
-	}
-	if (points * boxes > MAX_SWEEP_WORK) {
-		return {
-			limit: 'sweepWork',
-			path,
-			value: points * boxes,
-			max: MAX_SWEEP_WORK,
-			message: `The sweep is ${plural(points, 'positions')} × ${plural(boxes, 'boxes')} = ${plural(points * boxes, 'position-boxes')}; the limit is ${plural(MAX_SWEEP_WORK, 'position-boxes')}.`
-		};
-	}
-	if (rows > MAX_SWEEP_ROWS) {
-		return {
-			limit: 'sweepRows',
-			path: 'gaps',
-			value: rows,
-			max: MAX_SWEEP_ROWS,
-			message: `The sweep would answer ${plural(rows, 'rows')} (positions × gaps and compartments); the limit is ${plural(MAX_SWEEP_ROWS, 'rows')}. Ask for fewer gaps or positions.`
-		};
-	}
-	return null;
+	return (
+		(grid ? over('gridCells', path, points, MAX_GRID_CELLS) : null) ??
+		over('sweepPoints', path, points, MAX_SWEEP_POINTS) ??
+		over('sweepWork', path, points * boxes, MAX_SWEEP_WORK, [points, boxes]) ??
+		over('sweepRows', 'gaps', rows, MAX_SWEEP_ROWS)
+	);
 }
 
 /** World boxes of a scene, counted from its definitions without placing anything. */
@@ -249,12 +240,5 @@ export function firstPairsById<P extends { i: number; j: number }>(
 
 /** The route search's limit this many obstacles go over, or null. */
 export function routeExcess(obstacles: number, path = 'run.avoid'): CostExcess | null {
-	if (obstacles <= MAX_ROUTE_OBSTACLES) return null;
-	return {
-		limit: 'routeObstacles',
-		path,
-		value: obstacles,
-		max: MAX_ROUTE_OBSTACLES,
-		message: `The route would have to clear ${plural(obstacles, 'boxes')}; the limit is ${plural(MAX_ROUTE_OBSTACLES, 'boxes')}.`
-	};
+	return over('routeObstacles', path, obstacles, MAX_ROUTE_OBSTACLES);
 }

@@ -33,15 +33,14 @@ const PAIRS: [PanelName, PanelName][] = [
 	['bottom', 'top'],
 	['front', 'back']
 ];
-/** Each panel's name as the reports write it. */
-export const PANEL_LABELS: Record<PanelName, string> = {
-	left: 'Left panel',
-	right: 'Right panel',
-	bottom: 'Bottom panel',
-	top: 'Top panel',
-	front: 'Front panel',
-	back: 'Back panel'
-};
+/** A panel's name as the reports write it within a sentence: 'left panel'. */
+export function panelText(panel: PanelName): string {
+	return `${panel} panel`;
+}
+/** Each panel's name as the reports write it on its own: 'Left panel'. */
+export const PANEL_LABELS = Object.fromEntries(
+	PANELS.map((p) => [p, panelText(p).replace(/^./, (c) => c.toUpperCase())])
+) as Readonly<Record<PanelName, string>>;
 
 /** Inner size per axis: outer − both wall thicknesses + both wall offsets. */
 export function innerSizeMm(enclosure: EnclosureDef): Vec3 {

@@ -62,10 +62,12 @@ export function defaultTubeKinds(): TubeKindDef[] {
 	];
 }
 
+type FittingKind = NonNullable<PartDef['specs']['fittingKind']>;
+
 function fitting(
 	id: string,
 	name: string,
-	kind: NonNullable<PartDef['specs']['fittingKind']>,
+	kind: FittingKind,
 	sizeMm: [number, number, number],
 	insertionDepthMm: number
 ): PartDef {
@@ -91,39 +93,22 @@ function fitting(
 	};
 }
 
-/** Generic G 1/4 fittings: boxes across the hex, height from the thread face; depths from memory. */
+/**
+ * Generic G 1/4 fittings, a row each: id, kind, across the hex (the box is square seen from the
+ * port), height from the thread face, insertion depth (from memory), name.
+ */
+const FITTINGS: readonly (readonly [string, FittingKind, number, number, number, string])[] = [
+	['fit-straight-16', 'straight', 22, 24, 10, 'Straight compression fitting, 16 mm hard tube'],
+	['fit-straight-soft', 'straight', 20, 26, 12, 'Straight compression fitting, 10/13 soft tube'],
+	['fit-45-16', '45', 22, 30, 10, '45° fitting, 16 mm hard tube'],
+	['fit-rotary-16', 'rotary', 22, 30, 10, 'Rotary 90° fitting, 16 mm hard tube'],
+	['fit-extension-10', 'extension', 22, 34, 10, 'Extension, 10 mm, with 16 mm compression'],
+	['fit-qd', 'quick-disconnect', 22, 62, 10, 'Quick-disconnect pair, 16 mm hard tube'],
+	['plug-g14', 'plug', 18, 5, 0, 'Stop plug, G 1/4']
+];
+
 export function defaultFittings(): PartDef[] {
-	return [
-		fitting(
-			'fit-straight-16',
-			'Straight compression fitting, 16 mm hard tube',
-			'straight',
-			[22, 24, 22],
-			10
-		),
-		fitting(
-			'fit-straight-soft',
-			'Straight compression fitting, 10/13 soft tube',
-			'straight',
-			[20, 26, 20],
-			12
-		),
-		fitting('fit-45-16', '45° fitting, 16 mm hard tube', '45', [22, 30, 22], 10),
-		fitting('fit-rotary-16', 'Rotary 90° fitting, 16 mm hard tube', 'rotary', [22, 30, 22], 10),
-		fitting(
-			'fit-extension-10',
-			'Extension, 10 mm, with 16 mm compression',
-			'extension',
-			[22, 34, 22],
-			10
-		),
-		fitting(
-			'fit-qd',
-			'Quick-disconnect pair, 16 mm hard tube',
-			'quick-disconnect',
-			[22, 62, 22],
-			10
-		),
-		fitting('plug-g14', 'Stop plug, G 1/4', 'plug', [18, 5, 18], 0)
-	];
+	return FITTINGS.map(([id, kind, acrossMm, heightMm, depthMm, name]) =>
+		fitting(id, name, kind, [acrossMm, heightMm, acrossMm], depthMm)
+	);
 }

@@ -6,6 +6,7 @@
  */
 
 import { EPSILON_MM, boxesOverlap, compareText, intersectBoxes, panelOf } from './box';
+import { panelText } from './enclosure';
 import {
 	DEFAULT_THREAD,
 	add,
@@ -634,7 +635,7 @@ function loopChecks(ctx: LoopCheckContext, loop: LoopDef, runs: BuiltRun[]): Loo
 		const ok = (onTop || below <= 0.5) && blocked === null;
 		const reach = port
 			? blocked === null
-				? `reachable through the ${panelOf(port.direction)} panel`
+				? `reachable through the ${panelText(panelOf(port.direction))}`
 				: `not reachable: ${blocked}`
 			: 'missing';
 		checks.push(

@@ -15,6 +15,7 @@ import {
 	type PackedBoxes
 } from './packed';
 import { STATUS_ORDER } from './types';
+import { lowerBound } from './sorted';
 import { overlappingPairsFlat } from './broadphase';
 import { FACE_AXES } from './enclosure';
 import { mountReports } from './mounts';
@@ -504,18 +505,6 @@ export function slideIndex(model: Model, included: Uint8Array, axis: number): Sl
 		reach: short.reduce((r, i) => Math.max(r, extent(i)), 0),
 		long: Int32Array.from(ids.filter((i) => extent(i) > longest))
 	};
-}
-
-/** First index in the sorted `mins` at or above `v`. */
-function lowerBound(mins: Float64Array, v: number): number {
-	let lo = 0;
-	let hi = mins.length;
-	while (lo < hi) {
-		const mid = (lo + hi) >> 1;
-		if (mins[mid] < v) lo = mid + 1;
-		else hi = mid;
-	}
-	return lo;
 }
 
 /** What one sweep step moves, and what it reports beyond the statuses. */

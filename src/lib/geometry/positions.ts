@@ -5,7 +5,7 @@
  */
 
 import { EPSILON_MM } from './box';
-import type { BracketDef, DividerDef } from './schema';
+import type { BracketDef, DividerDef, EnclosureDef } from './schema';
 
 /** Longest list of positions a range may expand to; keeps sweeps and forms bounded. */
 export const MAX_POSITIONS = 10_000;
@@ -44,6 +44,16 @@ function rangePositions(range: RangeSpec): AllowedPosition[] {
 		out.push({ label: formatMm(offsetMm), offsetMm });
 	}
 	return out;
+}
+
+/** The divider or bracket a control names by kind and id, or undefined when there is none. */
+export function controlDef(
+	enclosure: EnclosureDef,
+	control: { kind: 'divider' | 'bracket'; id: string }
+): DividerDef | BracketDef | undefined {
+	return control.kind === 'divider'
+		? enclosure.dividers.find((d) => d.id === control.id)
+		: enclosure.brackets.find((b) => b.id === control.id);
 }
 
 /** Every position a divider or bracket may take, in the order the definition gives them. */

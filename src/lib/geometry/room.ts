@@ -17,6 +17,7 @@ import {
 import {
 	FACE_AXES,
 	PANEL_LABELS,
+	panelText,
 	bracketBoxAt,
 	compartmentsFor,
 	dividerBoxAt,
@@ -111,9 +112,6 @@ export interface RoomTable {
 	/** Set when the table is incomplete or empty, in words. */
 	note: string | null;
 }
-
-/** A face as the pump figures word it ('left panel'). */
-const faceWord = (f: Face) => PANEL_LABELS[panelOf(f)].toLowerCase();
 
 /** `box` cut to `to` (a fresh box). */
 export function clip(box: Box, to: Box): Box {
@@ -531,6 +529,18 @@ function holdsCentre(room: Box, box: Box): boolean {
 	return true;
 }
 
+/**
+ * The axis cards stack along (slot after slot) in `box`, for cards whose length runs along
+ * `lengthAxis`: the scene's stack axis where it is another axis, else the box's narrowest other axis.
+ */
+function slotAxis(box: Box, lengthAxis: AxisIndex, stackAxis: AxisIndex | null): AxisIndex {
+	if (stackAxis !== null && stackAxis !== lengthAxis) return stackAxis;
+	const extent = (a: number) => box.max[a] - box.min[a];
+	return [0, 1, 2]
+		.filter((a) => a !== lengthAxis)
+		.sort((p, q) => extent(p) - extent(q))[0] as AxisIndex;
+}
+
 /** The widest card in the compartment a support bracket stands in, in slots. */
 function cardSlots(
 	ctx: RoomContext,
@@ -540,14 +550,7 @@ function cardSlots(
 	dividers: readonly Obstacle[],
 	stackAxis: AxisIndex | null
 ): RoomFigure {
-	const S =
-		stackAxis !== null && stackAxis !== L
-			? stackAxis
-			: ([0, 1, 2]
-					.filter((i) => i !== L)
-					.sort(
-						(p, q) => room.box.max[p] - room.box.min[p] - (room.box.max[q] - room.box.min[q])
-					)[0] as AxisIndex);
+	const S = slotAxis(room.box, L, stackAxis);
 	const width = room.box.max[S] - room.box.min[S];
 	const labels = containerLabels(room.box, ctx.inner, '');
 	const lo =
@@ -574,14 +577,7 @@ function slotFigures(
 ): RoomFigure[] {
 	const { axis } = panelAt(m, ctx.inner);
 	const cross = clip(m.region, ctx.inner);
-	const S =
-		stackAxis !== null && stackAxis !== axis
-			? stackAxis
-			: ([0, 1, 2]
-					.filter((i) => i !== axis)
-					.sort(
-						(p, q) => cross.max[p] - cross.min[p] - (cross.max[q] - cross.min[q])
-					)[0] as AxisIndex);
+	const S = slotAxis(cross, axis, stackAxis);
 	const width = cross.max[S] - cross.min[S];
 	const pitch = m.slotPitchMm || SLOT_PITCH_MM;
 	const byRoom = Math.floor(width / pitch + 1e-9);
@@ -720,7 +716,7 @@ function compartmentFigures(
 		figures.push({
 			id: `pump:${c.id}:${panelOf(f)}`,
 			kind: 'pump-depth',
-			label: `${c.label}: pump or reservoir on the ${faceWord(f)}`,
+			label: `${c.label}: pump or reservoir on the ${panelText(panelOf(f))}`,
 			valueMm: deep.max[axis] - deep.min[axis],
 			boundedBy: `to the ${bound}`,
 			note: `over ${mmOf(ctx, Math.min(p, q))} × ${mmOf(ctx, Math.max(p, q))} (a footprint of at least ${PUMP_FOOTPRINT_MM} × ${PUMP_FOOTPRINT_MM} mm)`,

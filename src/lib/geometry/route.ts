@@ -34,6 +34,7 @@
 import { EPSILON_MM, FACES, type Face } from './box';
 import type { Box, Vec3 } from './schema';
 import { centreLineLengthMm } from './loop-path';
+import { lowerBound } from './sorted';
 
 export interface RouteEnd {
 	/** Port position pushed out along the port's direction by the fitting's or plug's reach. */
@@ -290,6 +291,8 @@ class ObstacleIndex {
 	private readonly inv: Float64Array;
 	private readonly per: number;
 	private readonly stamp: Uint32Array;
+	/** Scratch for binsOf. */
+	private readonly range = new Int32Array(6);
 	private tick = 0;
 
 	constructor(boxes: readonly Box[], bounds: Box) {
@@ -310,15 +313,10 @@ class ObstacleIndex {
 				this.min[i * 3 + a] = b.min[a];
 				this.max[i * 3 + a] = b.max[a];
 			}
-			const x0 = this.bin(b.min[0], 0);
-			const x1 = this.bin(b.max[0], 0);
-			const y0 = this.bin(b.min[1], 1);
-			const y1 = this.bin(b.max[1], 1);
-			const z0 = this.bin(b.min[2], 2);
-			const z1 = this.bin(b.max[2], 2);
-			for (let z = z0; z <= z1; z++) {
-				for (let y = y0; y <= y1; y++) {
-					for (let x = x0; x <= x1; x++) lists[x + per * (y + per * z)].push(i);
+			const r = this.binsOf(b);
+			for (let z = r[4]; z <= r[5]; z++) {
+				for (let y = r[2]; y <= r[3]; y++) {
+					for (let x = r[0]; x <= r[1]; x++) lists[x + per * (y + per * z)].push(i);
 				}
 			}
 		});
@@ -339,6 +337,16 @@ class ObstacleIndex {
 		return k < 0 ? 0 : k >= this.per ? this.per - 1 : k;
 	}
 
+	/** The bins `b` spans, [x0, x1, y0, y1, z0, z1] inclusive, in one reused array (no allocation). */
+	private binsOf(b: Box): Int32Array {
+		const r = this.range;
+		for (let a = 0; a < 3; a++) {
+			r[2 * a] = this.bin(b.min[a], a);
+			r[2 * a + 1] = this.bin(b.max[a], a);
+		}
+		return r;
+	}
+
 	/** Index of an obstacle sharing positive volume with `b`, or -1 (touching is clear). */
 	first(b: Box): number {
 		return this.scan(b, null);
@@ -354,12 +362,7 @@ class ObstacleIndex {
 		this.tick = (this.tick + 1) >>> 0 || 1;
 		const tick = this.tick;
 		const per = this.per;
-		const x0 = this.bin(b.min[0], 0);
-		const x1 = this.bin(b.max[0], 0);
-		const y0 = this.bin(b.min[1], 1);
-		const y1 = this.bin(b.max[1], 1);
-		const z0 = this.bin(b.min[2], 2);
-		const z1 = this.bin(b.max[2], 2);
+		const r = this.binsOf(b);
 		const { min, max, stamp, items, offsets } = this;
 		const b0 = b.min[0];
 		const b1 = b.min[1];
@@ -367,9 +370,9 @@ class ObstacleIndex {
 		const c0 = b.max[0];
 		const c1 = b.max[1];
 		const c2 = b.max[2];
-		for (let z = z0; z <= z1; z++) {
-			for (let y = y0; y <= y1; y++) {
-				for (let x = x0; x <= x1; x++) {
+		for (let z = r[4]; z <= r[5]; z++) {
+			for (let y = r[2]; y <= r[3]; y++) {
+				for (let x = r[0]; x <= r[1]; x++) {
 					const bin = x + per * (y + per * z);
 					for (let k = offsets[bin], end = offsets[bin + 1]; k < end; k++) {
 						const i = items[k];
@@ -763,14 +766,7 @@ function search(input: RouteInput, prep: Prepared, opt: SearchOptions): SearchAn
 		const c = coords[a];
 		if (SIGN_OF[d] > 0) {
 			// First index with c[i] ≥ from + dist.
-			const target = from + dist - 1e-6;
-			let lo = 0;
-			let hi = c.length;
-			while (lo < hi) {
-				const mid = (lo + hi) >> 1;
-				if (c[mid] < target) lo = mid + 1;
-				else hi = mid;
-			}
+			const lo = lowerBound(c, from + dist - 1e-6);
 			return lo < c.length ? lo : -1;
 		}
 		// Last index with c[i] ≤ from − dist.
@@ -842,6 +838,15 @@ function search(input: RouteInput, prep: Prepared, opt: SearchOptions): SearchAn
 		}
 	}
 
+	// No route: cut off by the step budget, or (exhausted) with every state tried.
+	const failed = (expansions: number, exhausted: boolean): SearchAnswer => ({
+		found: false,
+		expansions,
+		exhausted,
+		blockers: [...bestBlockers],
+		startBlockedBy,
+		partial: partialTo(best.state)
+	});
 	let expansions = 0;
 	while (heap.size > 0) {
 		const top = heap.pop();
@@ -851,16 +856,7 @@ function search(input: RouteInput, prep: Prepared, opt: SearchOptions): SearchAn
 		const g = gGet(state);
 		if (top.g > g + 1e-9) continue;
 		expansions++;
-		if (--opt.budget.left < 0) {
-			return {
-				found: false,
-				expansions,
-				exhausted: false,
-				blockers: [...bestBlockers],
-				startBlockedBy,
-				partial: partialTo(best.state)
-			};
-		}
+		if (--opt.budget.left < 0) return failed(expansions, false);
 		const d = state % 6;
 		const n = (state - d) / 6;
 		point(n, P);
@@ -926,16 +922,7 @@ function search(input: RouteInput, prep: Prepared, opt: SearchOptions): SearchAn
 		}
 	}
 
-	if (goalParent === -1 && goalG === Infinity) {
-		return {
-			found: false,
-			expansions,
-			exhausted: true,
-			blockers: [...bestBlockers],
-			startBlockedBy,
-			partial: partialTo(best.state)
-		};
-	}
+	if (goalParent === -1 && goalG === Infinity) return failed(expansions, true);
 
 	const points = cornersTo(goalParent);
 	if (chain.length > 0 && chain[chain.length - 1] % 6 !== ed) {

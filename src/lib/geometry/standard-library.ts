@@ -19,9 +19,10 @@ import {
 	type PortDef,
 	type Scene,
 	type SceneInput,
-	type Vec3
+	type Vec3,
+	type WallSpec
 } from './schema';
-import type { Face } from './box';
+import { PANELS, type Face, type PanelName } from './box';
 
 export function box(min: Vec3, max: Vec3): Box {
 	return { min: [...min], max: [...max] };
@@ -50,9 +51,51 @@ function solidPart(
 
 /** A mount row: most mounts sit flush (no standoff) on the standard slot pitch. */
 function mount(
-	row: Omit<MountDef, 'standoffMm' | 'slotPitchMm'> & { standoffMm?: number }
+	id: string,
+	label: string,
+	kind: MountDef['kind'],
+	face: MountDef['face'],
+	accepts: string[],
+	{
+		region,
+		...rest
+	}: Pick<MountDef, 'region'> &
+		Partial<Pick<MountDef, 'budgetMm' | 'plateMm' | 'plateFor' | 'standoffMm' | 'slotCount'>>
 ): MountDef {
-	return { standoffMm: 0, slotPitchMm: SLOT_PITCH_MM, ...row };
+	return {
+		standoffMm: 0,
+		slotPitchMm: SLOT_PITCH_MM,
+		id,
+		label,
+		kind,
+		face,
+		region,
+		accepts,
+		...rest
+	};
+}
+
+/** Six 2 mm solid panels, with whatever a design changes on some of them. */
+export function panelWalls(
+	changes: Partial<Record<PanelName, Partial<WallSpec>>> = {}
+): Record<PanelName, WallSpec> {
+	const walls = PANELS.map((name) => [
+		name,
+		{ thicknessMm: 2, kind: 'solid' as const, offsetMm: 0, ...changes[name] }
+	]);
+	return Object.fromEntries(walls) as Record<PanelName, WallSpec>;
+}
+
+/** A placement row: quarter turns about x, y and z, and the mount it sits on if any. */
+function placed(
+	id: string,
+	partId: string,
+	position: Vec3,
+	[x, y, z]: Vec3,
+	mountId?: string
+): NonNullable<SceneInput['placements']>[number] {
+	const row = { id, partId, position, rotation: { x, y, z } };
+	return mountId === undefined ? row : { ...row, mountId };
 }
 
 /** The room fittings need over a part's coolant ports (a hard error when something is in it). */
@@ -134,18 +177,10 @@ export const DEMO_SPINE_OFFSETS = { '4 slots': 65.68, '3 slots': 86, '2 slots': 
  * on its left (CPU side), the card on its right standing on a sliding support bar.
  */
 export function demoEnclosure(): EnclosureDef {
-	const panel = { thicknessMm: 2, kind: 'solid' as const, offsetMm: 0 };
 	return {
 		name: 'Demo sandwich enclosure',
 		outerMm: [154, 344, 244],
-		walls: {
-			left: { ...panel },
-			right: { ...panel },
-			bottom: { ...panel },
-			top: { ...panel },
-			front: { ...panel, kind: 'mesh' },
-			back: { ...panel }
-		},
+		walls: panelWalls({ front: { kind: 'mesh' } }),
 		dividers: [
 			{
 				id: 'bulkhead',
@@ -190,35 +225,20 @@ export function demoEnclosure(): EnclosureDef {
 			}
 		],
 		mounts: [
-			mount({
-				id: 'radiator',
-				label: 'Front radiator mount',
-				kind: 'radiator',
-				face: 'front',
+			mount('radiator', 'Front radiator mount', 'radiator', 'front', ['240', '280'], {
 				region: box([0, 0, 0], [150, 340, 64]),
-				accepts: ['240', '280'],
 				budgetMm: 64,
 				plateMm: 1,
 				plateFor: ['240']
 			}),
-			mount({
-				id: 'tray',
-				label: 'Board tray',
-				kind: 'board-tray',
-				face: 'left',
+			// A raised tray: the board sits 11 mm off the left panel, which leaves about 53 mm over it
+			// with the spine at '4 slots' (65.68 − 11 − 1.6 = 53.08 mm; common practice).
+			mount('tray', 'Board tray', 'board-tray', 'left', ['Mini-ITX'], {
 				region: box([0, 150, 68], [40, 320, 238]),
-				accepts: ['Mini-ITX'],
-				// A raised tray: the board sits 11 mm off the left panel, which leaves about 53 mm over
-				// it with the spine at '4 slots' (65.68 − 11 − 1.6 = 53.08 mm; common practice).
 				standoffMm: 11
 			}),
-			mount({
-				id: 'psu',
-				label: 'SFX bay',
-				kind: 'psu-bay',
-				face: 'left',
-				region: box([0, 0, 70], [63.5, 125, 170]),
-				accepts: ['SFX']
+			mount('psu', 'SFX bay', 'psu-bay', 'left', ['SFX'], {
+				region: box([0, 0, 70], [63.5, 125, 170])
 			})
 		]
 	};
@@ -226,18 +246,14 @@ export function demoEnclosure(): EnclosureDef {
 
 /** About 18 L: a small tower with a supply chamber under a shroud, top radiator, front fans. */
 export function demoTowerEnclosure(): EnclosureDef {
-	const panel = { thicknessMm: 2, kind: 'solid' as const, offsetMm: 0 };
 	return {
 		name: 'Small tower with supply chamber',
 		outerMm: [210, 380, 240],
-		walls: {
-			left: { ...panel },
-			right: { ...panel, thicknessMm: 3 },
-			bottom: { ...panel },
-			top: { ...panel, kind: 'mesh' },
-			front: { ...panel, kind: 'mesh' },
-			back: { ...panel }
-		},
+		walls: panelWalls({
+			right: { thicknessMm: 3 },
+			top: { kind: 'mesh' },
+			front: { kind: 'mesh' }
+		}),
 		dividers: [
 			{
 				id: 'shroud',
@@ -259,49 +275,24 @@ export function demoTowerEnclosure(): EnclosureDef {
 			}
 		],
 		mounts: [
-			mount({
-				id: 'top-radiator',
-				label: 'Top radiator mount',
-				kind: 'radiator',
-				face: 'top',
-				region: { min: [0, 325, 0], max: [205, 376, 236] },
-				accepts: ['240', '280'],
+			mount('top-radiator', 'Top radiator mount', 'radiator', 'top', ['240', '280'], {
+				region: box([0, 325, 0], [205, 376, 236]),
 				budgetMm: 50
 			}),
-			mount({
-				id: 'front-fans',
-				label: 'Front fans',
-				kind: 'fan',
-				face: 'front',
-				region: { min: [0, 125, 0], max: [205, 376, 30] },
-				accepts: ['120', '140'],
+			mount('front-fans', 'Front fans', 'fan', 'front', ['120', '140'], {
+				region: box([0, 125, 0], [205, 376, 30]),
 				budgetMm: 30
 			}),
-			mount({
-				id: 'tray',
-				label: 'Board tray',
-				kind: 'board-tray',
-				face: 'right',
-				region: { min: [165, 125, 0], max: [205, 376, 236] },
-				accepts: ['Mini-ITX', 'microATX'],
+			mount('tray', 'Board tray', 'board-tray', 'right', ['Mini-ITX', 'microATX'], {
+				region: box([165, 125, 0], [205, 376, 236]),
 				standoffMm: 6
 			}),
-			mount({
-				id: 'slots',
-				label: 'Expansion slots',
-				kind: 'slots',
-				face: 'back',
-				region: { min: [80, 125, 226], max: [165, 290, 236] },
-				accepts: [],
+			mount('slots', 'Expansion slots', 'slots', 'back', [], {
+				region: box([80, 125, 226], [165, 290, 236]),
 				slotCount: 4
 			}),
-			mount({
-				id: 'psu',
-				label: 'Supply bay',
-				kind: 'psu-bay',
-				face: 'bottom',
-				region: { min: [0, 0, 0], max: [155, 88, 170] },
-				accepts: ['SFX', 'SFX-L', 'ATX']
+			mount('psu', 'Supply bay', 'psu-bay', 'bottom', ['SFX', 'SFX-L', 'ATX'], {
+				region: box([0, 0, 0], [155, 88, 170])
 			})
 		]
 	};
@@ -422,60 +413,14 @@ export function demoSceneInput(): SceneInput {
 		dividerPositions: { bulkhead: 64, spine: DEMO_SPINE_OFFSETS['3 slots'] },
 		bracketOffsets: { bar: 0 },
 		placements: [
-			{
-				id: 'board',
-				partId: 'std-mini-itx',
-				position: [11, 150, 68],
-				rotation: { x: 0, y: 0, z: 1 },
-				mountId: 'tray'
-			},
-			{
-				id: 'cpu-block',
-				partId: 'demo-cpu-block',
-				position: [11 + BOARD_THICKNESS_MM, 205, 123],
-				rotation: { x: 0, y: 0, z: 3 },
-				mountId: 'tray'
-			},
-			{
-				id: 'psu',
-				partId: 'demo-psu',
-				position: [0, 0, 70],
-				rotation: { x: 0, y: 0, z: 1 },
-				mountId: 'psu'
-			},
-			{
-				id: 'card',
-				partId: 'demo-card',
-				position: [107.36, 10, 100],
-				rotation: { x: 1, y: 0, z: 1 }
-			},
-			{
-				id: 'pump-res',
-				partId: 'demo-pump-res',
-				position: [90, 227, 150],
-				rotation: { x: 0, y: 0, z: 0 }
-			},
-			{
-				id: 'radiator',
-				partId: 'demo-radiator-280',
-				position: [3.5, 12.5, 0],
-				rotation: { x: 0, y: 0, z: 0 },
-				mountId: 'radiator'
-			},
-			{
-				id: 'fan-1',
-				partId: 'std-fan-140-25',
-				position: [5, 30, 30],
-				rotation: { x: 0, y: 0, z: 0 },
-				mountId: 'radiator'
-			},
-			{
-				id: 'fan-2',
-				partId: 'std-fan-140-25',
-				position: [5, 170, 30],
-				rotation: { x: 0, y: 0, z: 0 },
-				mountId: 'radiator'
-			}
+			placed('board', 'std-mini-itx', [11, 150, 68], [0, 0, 1], 'tray'),
+			placed('cpu-block', 'demo-cpu-block', [11 + BOARD_THICKNESS_MM, 205, 123], [0, 0, 3], 'tray'),
+			placed('psu', 'demo-psu', [0, 0, 70], [0, 0, 1], 'psu'),
+			placed('card', 'demo-card', [107.36, 10, 100], [1, 0, 1]),
+			placed('pump-res', 'demo-pump-res', [90, 227, 150], [0, 0, 0]),
+			placed('radiator', 'demo-radiator-280', [3.5, 12.5, 0], [0, 0, 0], 'radiator'),
+			placed('fan-1', 'std-fan-140-25', [5, 30, 30], [0, 0, 0], 'radiator'),
+			placed('fan-2', 'std-fan-140-25', [5, 170, 30], [0, 0, 0], 'radiator')
 		],
 		marginMm: 2,
 		budgets: { wattsPer120mm: 100, psuHeadroomPct: 30 }

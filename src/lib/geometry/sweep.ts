@@ -21,7 +21,7 @@ import {
 	type Tally
 } from './model';
 import { BOX_STRIDE, writePacked, type BoxRef } from './packed';
-import { allowedIndex, allowedPositions, type AllowedPosition } from './positions';
+import { allowedIndex, allowedPositions, controlDef, type AllowedPosition } from './positions';
 import { resolveScene } from './resolve';
 import type { Box, BracketDef, DividerDef, Scene } from './schema';
 import type {
@@ -44,23 +44,13 @@ interface Moving {
 
 function movingOf(scene: Scene, model: Model, control: SweepControl, path: string): Moving {
 	const enclosure = scene.enclosure;
-	if (control.kind === 'divider') {
-		const def = enclosure.dividers.find((d) => d.id === control.id);
-		if (!def) throw new SceneError(`${path}.id`, `No divider with id ${control.id}`);
-		return {
-			control,
-			def,
-			index: model.indexOf.get(`divider:${def.id}`)!,
-			boxAt: (o) => dividerBoxAt(enclosure, def, o)
-		};
-	}
-	const def = enclosure.brackets.find((b) => b.id === control.id);
-	if (!def) throw new SceneError(`${path}.id`, `No bracket with id ${control.id}`);
+	const def = controlDef(enclosure, control);
+	if (!def) throw new SceneError(`${path}.id`, `No ${control.kind} with id ${control.id}`);
 	return {
 		control,
 		def,
-		index: model.indexOf.get(`bracket:${def.id}`)!,
-		boxAt: (o) => bracketBoxAt(def, o)
+		index: model.indexOf.get(`${control.kind}:${def.id}`)!,
+		boxAt: 'travel' in def ? (o) => bracketBoxAt(def, o) : (o) => dividerBoxAt(enclosure, def, o)
 	};
 }
 
