@@ -36,6 +36,7 @@ import {
 	type MountDef,
 	type Vec3
 } from './schema';
+import { listPositions } from '../server/testing/engine-factories';
 
 // — the oracle: one row from nothing —
 
@@ -454,10 +455,7 @@ const variation = fc
 		const offsets = [...new Set(v.spread.map((p) => Math.round((along * p) / 100)))];
 		e.dividers[e.dividers.length - 1] = {
 			...d,
-			positions: {
-				kind: 'list',
-				options: offsets.map((o) => ({ label: `at ${o}`, offsetMm: o }))
-			}
+			positions: listPositions(Object.fromEntries(offsets.map((o) => [`at ${o}`, o])))
 		};
 		const b = e.brackets[0];
 		e.brackets[0] = {
@@ -479,16 +477,7 @@ const variation = fc
 			...(m.plateMm !== undefined ? { plateMm: v.plate } : {})
 		}));
 		if (v.third && !v.tower) {
-			e.dividers[0] = {
-				...e.dividers[0],
-				positions: {
-					kind: 'list',
-					options: [
-						{ label: 'a', offsetMm: 64 },
-						{ label: 'b', offsetMm: 40 }
-					]
-				}
-			};
+			e.dividers[0] = { ...e.dividers[0], positions: listPositions({ a: 64, b: 40 }) };
 		}
 		return e;
 	});

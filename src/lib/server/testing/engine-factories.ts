@@ -6,6 +6,7 @@ import {
 	enclosureDefSchema,
 	sceneSchema,
 	type Box,
+	type DividerDef,
 	type EnclosureDef,
 	type EnclosureInput,
 	type LoopDef,
@@ -58,6 +59,12 @@ export function blockPart(id: string, sizeMm: Vec3, extra: Partial<PartDef> = {}
 		...extra
 	};
 }
+
+/** A divider's list of allowed positions, `{ label: offsetMm }` in the order given. */
+export const listPositions = (offsets: Record<string, number>): DividerDef['positions'] => ({
+	kind: 'list',
+	options: Object.entries(offsets).map(([label, offsetMm]) => ({ label, offsetMm }))
+});
 
 /** Parses through sceneSchema so defaults are filled in exactly as the API would. */
 export function makeScene(input: Partial<SceneInput> & Pick<SceneInput, 'enclosure'>): Scene {
