@@ -199,6 +199,13 @@ function oldRoomAt(
 
 	// Cards: standing on a support bracket, or hanging from an expansion-slot mount.
 	const stackAxis = trays.length ? FACE_AXES[trays[0].face].axis : null;
+	// Slots run along the board's stack axis, or else the narrower of the box's two other axes.
+	const slotAxis = (along: AxisIndex, box: Box): AxisIndex =>
+		stackAxis !== null && stackAxis !== along
+			? stackAxis
+			: ([0, 1, 2]
+					.filter((i) => i !== along)
+					.sort((p, q) => box.max[p] - box.min[p] - (box.max[q] - box.min[q]))[0] as AxisIndex);
 	for (const b of enclosure.brackets.filter((x) => x.kind === 'card-support')) {
 		const box = bracketBoxAt(b, bracketOffset(b.id));
 		const L = AXES.indexOf(b.axis) as AxisIndex;
@@ -221,14 +228,7 @@ function oldRoomAt(
 			valueMm: r.distanceMm,
 			boundedBy: `from the ${label} to the ${r.against}`
 		});
-		const S =
-			stackAxis !== null && stackAxis !== L
-				? stackAxis
-				: ([0, 1, 2]
-						.filter((i) => i !== L)
-						.sort(
-							(p, q) => room.box.max[p] - room.box.min[p] - (room.box.max[q] - room.box.min[q])
-						)[0] as AxisIndex);
+		const S = slotAxis(L, room.box);
 		const width = room.box.max[S] - room.box.min[S];
 		const labels = containerLabels(room.box, inner, '');
 		const lo =
@@ -262,14 +262,7 @@ function oldRoomAt(
 			valueMm: r.distanceMm,
 			boundedBy: `from the ${PANEL[m.face]} to the ${r.against}`
 		});
-		const S =
-			stackAxis !== null && stackAxis !== axis
-				? stackAxis
-				: ([0, 1, 2]
-						.filter((i) => i !== axis)
-						.sort(
-							(p, q) => cross.max[p] - cross.min[p] - (cross.max[q] - cross.min[q])
-						)[0] as AxisIndex);
+		const S = slotAxis(axis, cross);
 		const width = cross.max[S] - cross.min[S];
 		const pitch = m.slotPitchMm || SLOT_PITCH_MM;
 		const byRoom = Math.floor(width / pitch + 1e-9);
