@@ -13,10 +13,9 @@ import {
 	type Scene,
 	type SceneInput
 } from '$lib/geometry';
-import { blockPart, makeScene } from '$lib/server/testing/engine-factories';
+import { blockPart, demoPart, makeScene } from '$lib/server/testing/engine-factories';
 import {
 	demoEnclosure,
-	demoParts,
 	demoScene,
 	demoSceneInput,
 	standardPart
@@ -230,7 +229,7 @@ describe('what fits here against checkScene', () => {
 
 	it('ports: the demo pump-reservoir keeps its three ports in its place (its fill plug needs 10 mm of the 13 under the top panel)', () => {
 		const scene = demoScene();
-		const pump = demoParts().find((p) => p.id === 'demo-pump-res')!;
+		const pump = demoPart('demo-pump-res');
 		const row = whatFits(scene, { kind: 'replace', placementId: 'pump-res' }, [{ part: pump }])
 			.fits[0];
 		expect(row.ports.map((p) => [p.id, p.usable])).toEqual([
@@ -304,7 +303,7 @@ describe('parts × positions', () => {
 
 	it('the demo card fits at 4 and 3 slots and collides at 2; a 3-slot card only at 4 slots', () => {
 		const scene = demoScene();
-		const card = demoParts().find((p) => p.id === 'demo-card')!;
+		const card = demoPart('demo-card');
 		const thick = {
 			...card,
 			id: 'thick-card',

@@ -23,12 +23,11 @@ import {
 import {
 	DEMO_SPINE_OFFSETS,
 	demoEnclosure,
-	demoParts,
 	demoScene,
 	demoSceneInput,
 	standardPart
 } from '$lib/geometry/standard-library';
-import { blockPart } from '$lib/server/testing/engine-factories';
+import { blockPart, demoPart } from '$lib/server/testing/engine-factories';
 import {
 	allowedTurns,
 	freeSpot,
@@ -173,16 +172,10 @@ function demoResolved(
 	);
 }
 
-function part(id: string): PartDef {
-	const p = demoParts().find((q) => q.id === id);
-	if (!p) throw new Error(id);
-	return p;
-}
-
 describe('landOnMount on the demo enclosure', () => {
 	const enclosure = demoEnclosure();
 	const mount = enclosure.mounts.find((m) => m.id === 'radiator')!;
-	const radiator = part('demo-radiator-280');
+	const radiator = demoPart('demo-radiator-280');
 	const fan = standardPart('std-fan-140-25');
 
 	/** Lands parts one after another on the front mount, as the editor adds them. */
@@ -517,7 +510,7 @@ describe('placeInRoom turns parts to fit', () => {
 
 	it('a 185 mm card that fits only lying on its side is turned, and says so', () => {
 		// A narrow bay 60 wide, 130 tall, 200 deep: upright (185 along X) it cannot go in.
-		const card = demoParts().find((p) => p.id === 'demo-card')!;
+		const card = demoPart('demo-card');
 		const bare = { ...card, keepouts: [] };
 		const room: Box = { min: [0, 0, 0], max: [60, 130, 200] };
 		const landing = placeInRoom(room, [], bare);
@@ -545,7 +538,7 @@ describe('placeInRoom turns parts to fit', () => {
 		// Card side 150 × 330 × 40 mm free; the card (no keep-outs) is 185 × 120 × 40.64: no turn fits,
 		// since its 185 mm length exceeds 150 and 40 on two axes and only 330 takes it, leaving 150 and 40
 		// for 120 and 40.64 — 40.64 > 40 by 0.64 mm, the closest attempt.
-		const card = { ...demoParts().find((p) => p.id === 'demo-card')!, keepouts: [] };
+		const card = { ...demoPart('demo-card'), keepouts: [] };
 		const landing = placeInRoom({ min: [0, 0, 0], max: [150, 330, 40] }, [], card, {
 			roomLabel: 'the card side'
 		});
@@ -560,7 +553,7 @@ describe('placeInRoom turns parts to fit', () => {
 	});
 
 	it('a card with a slot mount only takes turns that put its length along the mount’s normal and its thickness across the slots', () => {
-		const card = demoParts().find((p) => p.id === 'demo-card')!;
+		const card = demoPart('demo-card');
 		const slots = {
 			id: 'slots',
 			label: 'Slots',

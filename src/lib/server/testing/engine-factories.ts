@@ -18,6 +18,7 @@ import {
 } from '../../geometry/schema';
 import { resolveScene } from '../../geometry/resolve';
 import { defaultFittings, defaultTubeKinds } from '../../geometry/loop-library';
+import { demoParts } from '../../geometry/standard-library';
 import type { WorldBox } from '../../geometry/types';
 
 /** A plain enclosure: `innerMm` inside, every panel `wallMm` thick and solid. */
@@ -58,6 +59,15 @@ export function blockPart(id: string, sizeMm: Vec3, extra: Partial<PartDef> = {}
 		toleranceMm: 0,
 		...extra
 	};
+}
+
+/** One part of the demo catalogue by id (throws when there is none). */
+export function demoPart(id: string): PartDef {
+	const part = demoParts().find((p) => p.id === id);
+	if (!part) {
+		throw new Error(`no demo part ${id}`);
+	}
+	return part;
 }
 
 /** A divider's list of allowed positions, `{ label: offsetMm }` in the order given. */
