@@ -172,6 +172,13 @@ function demoResolved(
 	);
 }
 
+/** Placement `id` of `part` where a landing puts it. */
+const placementAt = (
+	id: string,
+	part: PartDef,
+	landing: Pick<Placement, 'position' | 'rotation'>
+): Placement => ({ id, partId: part.id, position: landing.position, rotation: landing.rotation });
+
 describe('landOnMount on the demo enclosure', () => {
 	const enclosure = demoEnclosure();
 	const mount = enclosure.mounts.find((m) => m.id === 'radiator')!;
@@ -185,10 +192,7 @@ describe('landOnMount on the demo enclosure', () => {
 			const landing = landOnMount(demoResolved(placements), mount, p);
 			if ('reason' in landing) throw new Error(landing.reason);
 			placements.push({
-				id: nextPlacementId(placements),
-				partId: p.id,
-				position: landing.position,
-				rotation: landing.rotation,
+				...placementAt(nextPlacementId(placements), p, landing),
 				mountId: mount.id
 			});
 		}
@@ -292,12 +296,7 @@ describe('landInRoom', () => {
 		const resolved = resolveScene(sceneOf(base, spine, [p]));
 		const landing = landInRoom(resolved, room.box, p);
 		if ('reason' in landing) return 'full';
-		const placement: Placement = {
-			id: 'new',
-			partId: p.id,
-			position: landing.position,
-			rotation: landing.rotation
-		};
+		const placement = placementAt('new', p, landing);
 		const bounds = placedBounds(p, placement);
 		for (let a = 0; a < 3; a++) {
 			expect(bounds.min[a]).toBeGreaterThanOrEqual(room.box.min[a] - 1e-9);
@@ -488,12 +487,7 @@ describe('placeInRoom turns parts to fit', () => {
 				fitted++;
 				expect(landing, 'a turn fits, so placement must find one').not.toHaveProperty('reason');
 				if ('reason' in landing) return;
-				const placed = placePart(part, {
-					id: 'n',
-					partId: part.id,
-					position: landing.position,
-					rotation: landing.rotation
-				});
+				const placed = placePart(part, placementAt('n', part, landing));
 				for (const b of [...placed.bodies, ...placed.keepouts]) {
 					for (let a = 0; a < 3; a++) {
 						expect(b.box.min[a]).toBeGreaterThanOrEqual(room.min[a] - 1e-9);
@@ -516,12 +510,7 @@ describe('placeInRoom turns parts to fit', () => {
 		const landing = placeInRoom(room, [], bare);
 		expect(landing).not.toHaveProperty('reason');
 		if ('reason' in landing) return;
-		const b = placedBounds(bare, {
-			id: 'c',
-			partId: bare.id,
-			position: landing.position,
-			rotation: landing.rotation
-		});
+		const b = placedBounds(bare, placementAt('c', bare, landing));
 		// 40.64 thick across X, 120 tall in Y, 185 long in Z: spare 19.36, 10 and 15 mm; the least is 10 mm.
 		expect(boxSizeOf(b)).toEqual([40.64, 120, 185].map((v) => expect.closeTo(v, 6)));
 		expect(landing.turn).not.toBe('as in the catalogue');
