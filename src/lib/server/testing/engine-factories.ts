@@ -328,6 +328,13 @@ export function demoLoopBackRun() {
 	};
 }
 
+/** An edit for `pumpLoopScene`: run `run` (0 or 1) of its loop through `points` instead. */
+export const withWaypoints =
+	(run: number, ...points: Vec3[]) =>
+	({ loop }: { loop: LoopDef }) => {
+		loop.runs[run].waypoints = points;
+	};
+
 /**
  * A 400 mm cube inside; a pump (in on top, out on its +x side) and a reservoir (out and in, a
  * fill port on top), joined by two 16 mm hard runs with straight fittings (reach 24 mm, insertion
