@@ -4,7 +4,8 @@
  * with three.js Box3 as an independent box library and with the engine's own fit report.
  */
 import fc from 'fast-check';
-import { Box3, Vector3 } from 'three';
+import { Vector3 } from 'three';
+import { toBox3 } from '$lib/server/testing/engine-box3';
 import { describe, expect, it } from 'vitest';
 import {
 	allowedPositions,
@@ -42,8 +43,6 @@ import {
 	flatAlong,
 	turnWords
 } from './placement';
-
-const toBox3 = (b: Box) => new Box3(new Vector3(...b.min), new Vector3(...b.max));
 
 /** Shared volume by three.js Box3 (touching faces share none). */
 function sharedVolume(a: Box, b: Box): number {

@@ -1,6 +1,7 @@
 /** The fit report against three.js Box3, its invariants, and the edge cases of status and moves. */
 import fc from 'fast-check';
-import { Box3, Vector3 } from 'three';
+import { Vector3 } from 'three';
+import { fromBox3, toBox3 } from '../server/testing/engine-box3';
 import { describe, expect, it } from 'vitest';
 import { EPSILON_MM, boxSize } from './box';
 import { checkScene } from './check';
@@ -13,15 +14,8 @@ import {
 } from '../server/testing/engine-factories';
 import { pairKind } from './pairs';
 import { resolveScene } from './resolve';
-import type { Box, PartDef, Scene, Vec3 } from './schema';
+import type { PartDef, Scene, Vec3 } from './schema';
 import type { WorldBox } from './types';
-
-/** three.js Box3, the oracle, from and to engine boxes. */
-const toBox3 = (box: Box) => new Box3(new Vector3(...box.min), new Vector3(...box.max));
-const fromBox3 = (b: Box3): Box => ({
-	min: [b.min.x, b.min.y, b.min.z],
-	max: [b.max.x, b.max.y, b.max.z]
-});
 
 // Without mount plates: the Box3 oracle below counts the pairs the scene's own boxes make.
 const worldBoxes = (scene: Scene): WorldBox[] => worldBoxesOf(scene, { plates: false });

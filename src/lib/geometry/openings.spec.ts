@@ -6,6 +6,7 @@
  */
 import fc from 'fast-check';
 import { Box3, Vector3 } from 'three';
+import { toBox3 } from '../server/testing/engine-box3';
 import { describe, expect, it } from 'vitest';
 import { boxVolume, intersectBoxes } from './box';
 import { checkScene } from './check';
@@ -24,7 +25,6 @@ import {
 } from './schema';
 import { demoEnclosure, demoSceneInput } from './standard-library';
 
-const toBox3 = (box: Box) => new Box3(new Vector3(...box.min), new Vector3(...box.max));
 /** Strictly inside a box (Box3.containsPoint counts the faces; a shared face is no overlap). */
 const strictlyIn = (b: Box3, p: Vector3) =>
 	p.x > b.min.x &&
