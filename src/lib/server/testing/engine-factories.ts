@@ -11,15 +11,17 @@ import {
 	type EnclosureInput,
 	type LoopDef,
 	type PartDef,
+	type PortDef,
 	type RunDef,
 	type Scene,
 	type SceneInput,
 	type Vec3
 } from '../../geometry/schema';
 import { resolveScene } from '../../geometry/resolve';
+import { checkScene } from '../../geometry/check';
 import { defaultFittings, defaultTubeKinds } from '../../geometry/loop-library';
 import { demoParts } from '../../geometry/standard-library';
-import type { WorldBox } from '../../geometry/types';
+import type { FitReport, WorldBox } from '../../geometry/types';
 
 /** A plain enclosure: `innerMm` inside, every panel `wallMm` thick and solid. */
 export function plainEnclosure(
@@ -294,6 +296,18 @@ export const sceneArb: fc.Arbitrary<Scene> = fc
 		});
 	});
 
+/** Asserts `property` of `numRuns` random scenes from `arb`, each with its fit report. */
+export function eachCheckedScene<S extends Scene>(
+	arb: fc.Arbitrary<S>,
+	numRuns: number,
+	property: (scene: S, report: FitReport) => void
+): void {
+	fc.assert(
+		fc.property(arb, (scene) => property(scene, checkScene(scene))),
+		{ numRuns }
+	);
+}
+
 /**
  * Every world box of a scene as the resolver makes it: walls, dividers, brackets, mount plates
  * (unless `plates` is false), then each placement's bodies and keep-outs.
@@ -347,26 +361,34 @@ export function pumpLoopScene(
 	edit: (s: { input: SceneInput; loop: LoopDef }) => void = () => {},
 	options: { block?: boolean } = {}
 ): SceneInput {
-	const pump: PartDef = {
-		...blockPart('pump', [60, 60, 60]),
-		name: 'Pump',
-		category: 'pump',
-		ports: [
-			{ id: 'in', position: [15, 60, 30], direction: '+y', thread: 'G 1/4' },
-			{ id: 'out', position: [60, 30, 30], direction: '+x', thread: 'G 1/4' }
+	/** A block part whose ports, each `[id, position, direction]`, all take G 1/4 fittings. */
+	const ported = (
+		part: Pick<PartDef, 'id' | 'name' | 'category'>,
+		sizeMm: Vec3,
+		ports: [string, Vec3, PortDef['direction']][]
+	): PartDef => ({
+		...blockPart(part.id, sizeMm),
+		...part,
+		ports: ports.map(([id, position, direction]) => ({ id, position, direction, thread: 'G 1/4' }))
+	});
+	const pump = ported(
+		{ id: 'pump', name: 'Pump', category: 'pump' },
+		[60, 60, 60],
+		[
+			['in', [15, 60, 30], '+y'],
+			['out', [60, 30, 30], '+x']
 		]
-	};
-	const res: PartDef = {
-		...blockPart('res', [80, 100, 70]),
-		name: 'Reservoir',
-		category: 'reservoir',
-		ports: [
-			{ id: 'out', position: [20, 100, 35], direction: '+y', thread: 'G 1/4' },
-			{ id: 'in', position: [80, 70, 35], direction: '+x', thread: 'G 1/4' },
-			{ id: 'fill', position: [40, 100, 15], direction: '+y', thread: 'G 1/4' },
-			{ id: 'side', position: [40, 20, 70], direction: '+z', thread: 'G 1/4' }
+	);
+	const res = ported(
+		{ id: 'res', name: 'Reservoir', category: 'reservoir' },
+		[80, 100, 70],
+		[
+			['out', [20, 100, 35], '+y'],
+			['in', [80, 70, 35], '+x'],
+			['fill', [40, 100, 15], '+y'],
+			['side', [40, 20, 70], '+z']
 		]
-	};
+	);
 	const loop: LoopDef = {
 		id: 'main',
 		label: 'Main loop',
