@@ -6,7 +6,7 @@ const NOW = new Date('2026-12-01T12:00:00Z');
 
 describe('revisionsToPrune', () => {
 	// Each timeline: revision id → when it was saved (UTC); `pruned`: the ids that go.
-	it.each([
+	const cases: { rule: string; timeline: Record<string, string>; pruned: string[] }[] = [
 		{
 			rule: 'keeps every revision of the last day',
 			timeline: { a: '2026-12-01T11:59:00Z', b: '2026-12-01T11:58:00Z', c: '2026-11-30T12:00:01Z' },
@@ -45,8 +45,11 @@ describe('revisionsToPrune', () => {
 			},
 			pruned: ['old-a']
 		}
-	])('$rule', ({ timeline, pruned }) => {
-		const list = Object.entries(timeline).map(([id, iso]) => ({ id, createdAt: new Date(iso) }));
-		expect(revisionsToPrune(list, NOW).sort()).toEqual(pruned);
-	});
+	];
+	for (const { rule, timeline, pruned } of cases) {
+		it(rule, () => {
+			const list = Object.entries(timeline).map(([id, iso]) => ({ id, createdAt: new Date(iso) }));
+			expect(revisionsToPrune(list, NOW).sort()).toEqual(pruned);
+		});
+	}
 });
