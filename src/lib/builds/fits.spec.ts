@@ -13,10 +13,9 @@ import {
 	type Scene,
 	type SceneInput
 } from '$lib/geometry';
-import { blockPart, makeScene } from '$lib/server/testing/engine-factories';
+import { blockPart, demoPart, makeScene } from '$lib/server/testing/engine-factories';
 import {
 	demoEnclosure,
-	demoParts,
 	demoScene,
 	demoSceneInput,
 	standardPart
@@ -108,7 +107,9 @@ function withStray(): Scene {
 	});
 }
 
-const targets: { target: FitTarget; scene: () => Scene; replaces: string | null }[] = [
+type TargetCase = { target: FitTarget; scene: () => Scene; replaces: string | null };
+
+const targets: TargetCase[] = [
 	{
 		target: { kind: 'mount', mountId: 'radiator' },
 		scene: () =>
@@ -144,21 +145,28 @@ const targets: { target: FitTarget; scene: () => Scene; replaces: string | null 
 	}
 ];
 
+/**
+ * A random catalogue (`parts`, and as `candidates`) against one of `list`'s targets, whose scene
+ * has one of `margins` mm of margin.
+ */
+const catalogueAtTarget = (list: TargetCase[], margins: number[]) =>
+	fc
+		.tuple(catalogueArb, fc.integer({ min: 0, max: list.length - 1 }), fc.constantFrom(...margins))
+		.map(([parts, t, marginMm]) => ({
+			parts,
+			candidates: parts.map((part) => ({ part })),
+			target: list[t].target,
+			replaces: list[t].replaces,
+			scene: { ...list[t].scene(), marginMm }
+		}));
+
 describe('what fits here against checkScene', () => {
 	it('lists exactly the candidates the full engine passes, with the same status (random catalogues, every kind of target)', () => {
 		fc.assert(
 			fc.property(
-				catalogueArb,
-				fc.integer({ min: 0, max: targets.length - 1 }),
-				fc.constantFrom(0, 2, 5),
-				(parts, t, margin) => {
-					const { target, replaces } = targets[t];
-					const scene = { ...targets[t].scene(), marginMm: margin };
-					const result = whatFits(
-						scene,
-						target,
-						parts.map((part) => ({ part }))
-					);
+				catalogueAtTarget(targets, [0, 2, 5]),
+				({ parts, candidates, target, replaces, scene }) => {
+					const result = whatFits(scene, target, candidates);
 					expect(result.fits.length + result.left.length).toBe(parts.length);
 					for (const row of result.fits) {
 						const part = parts.find((p) => p.id === row.partId)!;
@@ -230,7 +238,7 @@ describe('what fits here against checkScene', () => {
 
 	it('ports: the demo pump-reservoir keeps its three ports in its place (its fill plug needs 10 mm of the 13 under the top panel)', () => {
 		const scene = demoScene();
-		const pump = demoParts().find((p) => p.id === 'demo-pump-res')!;
+		const pump = demoPart('demo-pump-res');
 		const row = whatFits(scene, { kind: 'replace', placementId: 'pump-res' }, [{ part: pump }])
 			.fits[0];
 		expect(row.ports.map((p) => [p.id, p.usable])).toEqual([
@@ -258,36 +266,21 @@ describe('what fits here against checkScene', () => {
 
 describe('parts × positions', () => {
 	it('every cell is the status checkScene gives the part placed there at that position (random catalogues)', () => {
-		const tables: { target: FitTarget; scene: () => Scene; replaces: string | null }[] = [
-			targets[0],
-			targets[2],
-			targets[3],
-			targets[5]
-		];
+		const tables: TargetCase[] = [targets[0], targets[2], targets[3], targets[5]];
 		fc.assert(
 			fc.property(
-				catalogueArb,
-				fc.integer({ min: 0, max: tables.length - 1 }),
-				fc.constantFrom(0, 2),
-				(parts, t, margin) => {
-					const { target, replaces } = tables[t];
-					const scene = { ...tables[t].scene(), marginMm: margin };
-					const table = partsByPositions(
-						scene,
-						target,
-						parts.map((part) => ({ part })),
-						{ kind: 'divider', id: 'spine' }
-					);
+				catalogueAtTarget(tables, [0, 2]),
+				({ parts, candidates, target, replaces, scene }) => {
+					const table = partsByPositions(scene, target, candidates, {
+						kind: 'divider',
+						id: 'spine'
+					});
 					table.positions.forEach((position, k) => {
 						const at: Scene = {
 							...scene,
 							dividerPositions: { ...scene.dividerPositions, spine: position.offsetMm }
 						};
-						const listed = whatFits(
-							at,
-							target,
-							parts.map((part) => ({ part }))
-						);
+						const listed = whatFits(at, target, candidates);
 						for (const row of [...listed.fits, ...listed.left]) {
 							const cell = table.rows.find((r) => r.partId === row.partId)!.cells[k];
 							expect(cell.fits).toBe(row.fits);
@@ -304,7 +297,7 @@ describe('parts × positions', () => {
 
 	it('the demo card fits at 4 and 3 slots and collides at 2; a 3-slot card only at 4 slots', () => {
 		const scene = demoScene();
-		const card = demoParts().find((p) => p.id === 'demo-card')!;
+		const card = demoPart('demo-card');
 		const thick = {
 			...card,
 			id: 'thick-card',

@@ -4,7 +4,8 @@
  * with three.js Box3 as an independent box library and with the engine's own fit report.
  */
 import fc from 'fast-check';
-import { Box3, Vector3 } from 'three';
+import { Vector3 } from 'three';
+import { toBox3 } from '$lib/server/testing/engine-box3';
 import { describe, expect, it } from 'vitest';
 import {
 	allowedPositions,
@@ -23,12 +24,11 @@ import {
 import {
 	DEMO_SPINE_OFFSETS,
 	demoEnclosure,
-	demoParts,
 	demoScene,
 	demoSceneInput,
 	standardPart
 } from '$lib/geometry/standard-library';
-import { blockPart } from '$lib/server/testing/engine-factories';
+import { blockPart, demoPart } from '$lib/server/testing/engine-factories';
 import {
 	allowedTurns,
 	freeSpot,
@@ -43,8 +43,6 @@ import {
 	flatAlong,
 	turnWords
 } from './placement';
-
-const toBox3 = (b: Box) => new Box3(new Vector3(...b.min), new Vector3(...b.max));
 
 /** Shared volume by three.js Box3 (touching faces share none). */
 function sharedVolume(a: Box, b: Box): number {
@@ -173,16 +171,17 @@ function demoResolved(
 	);
 }
 
-function part(id: string): PartDef {
-	const p = demoParts().find((q) => q.id === id);
-	if (!p) throw new Error(id);
-	return p;
-}
+/** Placement `id` of `part` where a landing puts it. */
+const placementAt = (
+	id: string,
+	part: PartDef,
+	landing: Pick<Placement, 'position' | 'rotation'>
+): Placement => ({ id, partId: part.id, position: landing.position, rotation: landing.rotation });
 
 describe('landOnMount on the demo enclosure', () => {
 	const enclosure = demoEnclosure();
 	const mount = enclosure.mounts.find((m) => m.id === 'radiator')!;
-	const radiator = part('demo-radiator-280');
+	const radiator = demoPart('demo-radiator-280');
 	const fan = standardPart('std-fan-140-25');
 
 	/** Lands parts one after another on the front mount, as the editor adds them. */
@@ -192,10 +191,7 @@ describe('landOnMount on the demo enclosure', () => {
 			const landing = landOnMount(demoResolved(placements), mount, p);
 			if ('reason' in landing) throw new Error(landing.reason);
 			placements.push({
-				id: nextPlacementId(placements),
-				partId: p.id,
-				position: landing.position,
-				rotation: landing.rotation,
+				...placementAt(nextPlacementId(placements), p, landing),
 				mountId: mount.id
 			});
 		}
@@ -299,12 +295,7 @@ describe('landInRoom', () => {
 		const resolved = resolveScene(sceneOf(base, spine, [p]));
 		const landing = landInRoom(resolved, room.box, p);
 		if ('reason' in landing) return 'full';
-		const placement: Placement = {
-			id: 'new',
-			partId: p.id,
-			position: landing.position,
-			rotation: landing.rotation
-		};
+		const placement = placementAt('new', p, landing);
 		const bounds = placedBounds(p, placement);
 		for (let a = 0; a < 3; a++) {
 			expect(bounds.min[a]).toBeGreaterThanOrEqual(room.box.min[a] - 1e-9);
@@ -495,12 +486,7 @@ describe('placeInRoom turns parts to fit', () => {
 				fitted++;
 				expect(landing, 'a turn fits, so placement must find one').not.toHaveProperty('reason');
 				if ('reason' in landing) return;
-				const placed = placePart(part, {
-					id: 'n',
-					partId: part.id,
-					position: landing.position,
-					rotation: landing.rotation
-				});
+				const placed = placePart(part, placementAt('n', part, landing));
 				for (const b of [...placed.bodies, ...placed.keepouts]) {
 					for (let a = 0; a < 3; a++) {
 						expect(b.box.min[a]).toBeGreaterThanOrEqual(room.min[a] - 1e-9);
@@ -517,18 +503,13 @@ describe('placeInRoom turns parts to fit', () => {
 
 	it('a 185 mm card that fits only lying on its side is turned, and says so', () => {
 		// A narrow bay 60 wide, 130 tall, 200 deep: upright (185 along X) it cannot go in.
-		const card = demoParts().find((p) => p.id === 'demo-card')!;
+		const card = demoPart('demo-card');
 		const bare = { ...card, keepouts: [] };
 		const room: Box = { min: [0, 0, 0], max: [60, 130, 200] };
 		const landing = placeInRoom(room, [], bare);
 		expect(landing).not.toHaveProperty('reason');
 		if ('reason' in landing) return;
-		const b = placedBounds(bare, {
-			id: 'c',
-			partId: bare.id,
-			position: landing.position,
-			rotation: landing.rotation
-		});
+		const b = placedBounds(bare, placementAt('c', bare, landing));
 		// 40.64 thick across X, 120 tall in Y, 185 long in Z: spare 19.36, 10 and 15 mm; the least is 10 mm.
 		expect(boxSizeOf(b)).toEqual([40.64, 120, 185].map((v) => expect.closeTo(v, 6)));
 		expect(landing.turn).not.toBe('as in the catalogue');
@@ -545,7 +526,7 @@ describe('placeInRoom turns parts to fit', () => {
 		// Card side 150 × 330 × 40 mm free; the card (no keep-outs) is 185 × 120 × 40.64: no turn fits,
 		// since its 185 mm length exceeds 150 and 40 on two axes and only 330 takes it, leaving 150 and 40
 		// for 120 and 40.64 — 40.64 > 40 by 0.64 mm, the closest attempt.
-		const card = { ...demoParts().find((p) => p.id === 'demo-card')!, keepouts: [] };
+		const card = { ...demoPart('demo-card'), keepouts: [] };
 		const landing = placeInRoom({ min: [0, 0, 0], max: [150, 330, 40] }, [], card, {
 			roomLabel: 'the card side'
 		});
@@ -560,7 +541,7 @@ describe('placeInRoom turns parts to fit', () => {
 	});
 
 	it('a card with a slot mount only takes turns that put its length along the mount’s normal and its thickness across the slots', () => {
-		const card = demoParts().find((p) => p.id === 'demo-card')!;
+		const card = demoPart('demo-card');
 		const slots = {
 			id: 'slots',
 			label: 'Slots',

@@ -16,6 +16,7 @@ import {
 } from '$lib/geometry/standard-library';
 import { composeScene, type VariantSettings } from './settings';
 import { versionChanges } from './version-diff';
+import { demoPart } from '$lib/server/testing/engine-factories';
 
 function side(settings: VariantSettings) {
 	return {
@@ -60,7 +61,7 @@ describe('versionChanges', () => {
 		const words = versionChanges(demoEnclosure(), demoParts(), side(v1), side(v2));
 		expect(words).toContain('Spine moved from 3 slots (86.0\u2009mm) to 2 slots (106.32\u2009mm).');
 		expect(words).toContain('Card support bar moved from 0.0\u2009mm to 20.0\u2009mm.');
-		expect(words).toContain(`Added: ${demoParts().find((p) => p.id === 'std-fan-140-25')!.name}.`);
+		expect(words).toContain(`Added: ${demoPart('std-fan-140-25').name}.`);
 		expect(words).toContain('Removed: Compact CPU block, 26 mm tall.');
 		expect(words).toContain('Compact pump-reservoir, 58 mm thick moved 10.0\u2009mm left.');
 		// The card is tight in the first version: 2 mm from the right panel, 1 mm in the worst case (±1 mm).

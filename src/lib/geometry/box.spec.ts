@@ -1,6 +1,7 @@
 /** Box arithmetic against three.js Box3 as an independent oracle, plus the touching-face edge cases. */
 import fc from 'fast-check';
-import { Box3, Vector3 } from 'three';
+import { Vector3 } from 'three';
+import { fromBox3, toBox3 } from '../server/testing/engine-box3';
 import { describe, expect, it } from 'vitest';
 import {
 	EPSILON_MM,
@@ -12,13 +13,6 @@ import {
 } from './box';
 import { boxArb, gridMm } from '../server/testing/engine-factories';
 import type { Box, Vec3 } from './schema';
-
-/** three.js Box3, the oracle, from and to engine boxes. */
-const toBox3 = (box: Box) => new Box3(new Vector3(...box.min), new Vector3(...box.max));
-const fromBox3 = (b: Box3): Box => ({
-	min: [b.min.x, b.min.y, b.min.z],
-	max: [b.max.x, b.max.y, b.max.z]
-});
 
 const b = (min: Vec3, max: Vec3): Box => ({ min, max });
 

@@ -1,15 +1,13 @@
 /** The broadphase's pair set against box-intersect (an independent package) and brute force. */
 import boxIntersect from 'box-intersect';
 import fc from 'fast-check';
-import { Box3, Vector3 } from 'three';
+import { Vector3 } from 'three';
+import { toBox3 } from '../server/testing/engine-box3';
 import { describe, expect, it } from 'vitest';
 import { EPSILON_MM, translateBox } from './box';
 import { overlappingPairs } from './broadphase';
 import { boxArb, gridMm } from '../server/testing/engine-factories';
 import type { Box } from './schema';
-
-/** three.js Box3, the oracle. */
-const toBox3 = (box: Box) => new Box3(new Vector3(...box.min), new Vector3(...box.max));
 
 const key = ([i, j]: [number, number]) => `${i},${j}`;
 

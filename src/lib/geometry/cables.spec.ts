@@ -1,9 +1,9 @@
 import { describe, expect, it } from 'vitest';
-import { Box3, Vector3 } from 'three';
+import { toBox3 } from '../server/testing/engine-box3';
 import { checkScene } from './check';
 import { resolveScene } from './resolve';
 import { routeEach } from './route';
-import { sceneSchema, type Box, type SceneInput } from './schema';
+import { sceneSchema, type SceneInput } from './schema';
 import { demoCables, demoSceneInput } from './standard-library';
 import { cableRouteRequest } from '../loop/suggest';
 import { cableWords } from '../words/sheet';
@@ -57,15 +57,14 @@ describe('power cables', () => {
 		});
 		const after = checkScene(routed).cables!;
 		const bodies = resolveScene(routed).placements.flatMap((p) => p.bodies.map((b) => b.box));
-		const three = (b: Box) => new Box3(new Vector3(...b.min), new Vector3(...b.max));
 		expect(after).toHaveLength(3);
 		for (const c of after) {
 			expect(c.problems).toEqual([]);
 			for (const piece of c.pieces) {
 				for (const body of bodies) {
 					// Open boxes: touching is clear, so shrink one by a hair before asking three.js.
-					const inner = three(piece).expandByScalar(-1e-6);
-					expect(inner.intersectsBox(three(body))).toBe(false);
+					const inner = toBox3(piece).expandByScalar(-1e-6);
+					expect(inner.intersectsBox(toBox3(body))).toBe(false);
 				}
 			}
 		}

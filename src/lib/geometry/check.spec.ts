@@ -1,11 +1,13 @@
 /** The fit report against three.js Box3, its invariants, and the edge cases of status and moves. */
 import fc from 'fast-check';
-import { Box3, Vector3 } from 'three';
+import { Vector3 } from 'three';
+import { fromBox3, toBox3 } from '../server/testing/engine-box3';
 import { describe, expect, it } from 'vitest';
 import { EPSILON_MM, boxSize } from './box';
 import { checkScene } from './check';
 import {
 	blockPart,
+	eachCheckedScene,
 	makeScene,
 	plainEnclosure,
 	sceneArb,
@@ -13,15 +15,8 @@ import {
 } from '../server/testing/engine-factories';
 import { pairKind } from './pairs';
 import { resolveScene } from './resolve';
-import type { Box, PartDef, Scene, Vec3 } from './schema';
+import type { PartDef, Scene, Vec3 } from './schema';
 import type { WorldBox } from './types';
-
-/** three.js Box3, the oracle, from and to engine boxes. */
-const toBox3 = (box: Box) => new Box3(new Vector3(...box.min), new Vector3(...box.max));
-const fromBox3 = (b: Box3): Box => ({
-	min: [b.min.x, b.min.y, b.min.z],
-	max: [b.max.x, b.max.y, b.max.z]
-});
 
 // Without mount plates: the Box3 oracle below counts the pairs the scene's own boxes make.
 const worldBoxes = (scene: Scene): WorldBox[] => worldBoxesOf(scene, { plates: false });
@@ -66,40 +61,32 @@ describe('fit report against three.js Box3 (1,000 random scenes)', () => {
 	});
 
 	it('marks a part outside exactly when the inner box does not containsBox one of its bodies', () => {
-		fc.assert(
-			fc.property(sceneArb, (scene) => {
-				const resolved = resolveScene(scene);
-				const inner = toBox3(resolved.innerBox);
-				const report = checkScene(scene);
-				for (const rp of resolved.placements) {
-					const part = report.parts.find((p) => p.placementId === rp.placement.id)!;
-					const contained = rp.bodies.every((b) => inner.containsBox(toBox3(b.box)));
-					expect(part.outsideFaces.length === 0).toBe(contained);
-					if (!contained && part.status !== 'collides' && part.status !== 'blocked') {
-						expect(part.status).toBe('outside');
-					}
+		eachCheckedScene(sceneArb, 1000, (scene, report) => {
+			const resolved = resolveScene(scene);
+			const inner = toBox3(resolved.innerBox);
+			for (const rp of resolved.placements) {
+				const part = report.parts.find((p) => p.placementId === rp.placement.id)!;
+				const contained = rp.bodies.every((b) => inner.containsBox(toBox3(b.box)));
+				expect(part.outsideFaces.length === 0).toBe(contained);
+				if (!contained && part.status !== 'collides' && part.status !== 'blocked') {
+					expect(part.status).toBe('outside');
 				}
-			}),
-			{ numRuns: 1000 }
-		);
+			}
+		});
 	});
 });
 
 describe('invariants', () => {
 	it('the same scene gives the same report; reordering parts and placements changes nothing', () => {
-		fc.assert(
-			fc.property(sceneArb, (scene) => {
-				const report = checkScene(scene);
-				expect(checkScene(structuredClone(scene))).toEqual(report);
-				const reordered = {
-					...scene,
-					parts: [...scene.parts].reverse(),
-					placements: [...scene.placements].reverse()
-				};
-				expect(checkScene(reordered)).toEqual(report);
-			}),
-			{ numRuns: 300 }
-		);
+		eachCheckedScene(sceneArb, 300, (scene, report) => {
+			expect(checkScene(structuredClone(scene))).toEqual(report);
+			const reordered = {
+				...scene,
+				parts: [...scene.parts].reverse(),
+				placements: [...scene.placements].reverse()
+			};
+			expect(checkScene(reordered)).toEqual(report);
+		});
 	});
 
 	it('overlaps are symmetric: a before b by id, whichever was placed first', () => {

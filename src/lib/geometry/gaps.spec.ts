@@ -10,6 +10,7 @@ import { checkScene } from './check';
 import { innerSizeMm } from './enclosure';
 import {
 	blockPart,
+	eachCheckedScene,
 	makeScene,
 	plainEnclosure,
 	sceneArb,
@@ -87,70 +88,62 @@ describe('gaps against a brute-force nearest-box search (1,000 random scenes)', 
 		'each face reports the nearest box ahead of it, and its worst case takes both tolerances off',
 		{ timeout: 120_000 },
 		() => {
-			fc.assert(
-				fc.property(tolerancedArb, (scene) => {
-					const report = checkScene(scene);
-					const tolerance = new Map(
-						scene.placements.map((p) => [
-							p.id,
-							scene.parts.find((q) => q.id === p.partId)!.toleranceMm
-						])
-					);
-					for (const part of report.parts) {
-						for (const face of FACES) {
-							const g = part.gaps[face];
-							const expected = oracleGap(scene, part.placementId, face);
-							if (!expected) {
-								expect(g.gapMm).toBeNull();
-								expect(g.worstCaseMm).toBeNull();
-								continue;
-							}
-							expect(g.gapMm).toBeCloseTo(expected.gap, 9);
-							// The reported box is one of those ahead at that distance: never a wall behind the face.
-							expect(expected.ahead.map((b) => b.id)).toContain(g.against!.id);
-							const otherTol = g.against!.placementId ? tolerance.get(g.against!.placementId)! : 0;
-							expect(g.worstCaseMm).toBeCloseTo(
-								expected.gap - tolerance.get(part.placementId)! - otherTol,
-								9
-							);
+			eachCheckedScene(tolerancedArb, 1000, (scene, report) => {
+				const tolerance = new Map(
+					scene.placements.map((p) => [
+						p.id,
+						scene.parts.find((q) => q.id === p.partId)!.toleranceMm
+					])
+				);
+				for (const part of report.parts) {
+					for (const face of FACES) {
+						const g = part.gaps[face];
+						const expected = oracleGap(scene, part.placementId, face);
+						if (!expected) {
+							expect(g.gapMm).toBeNull();
+							expect(g.worstCaseMm).toBeNull();
+							continue;
 						}
+						expect(g.gapMm).toBeCloseTo(expected.gap, 9);
+						// The reported box is one of those ahead at that distance: never a wall behind the face.
+						expect(expected.ahead.map((b) => b.id)).toContain(g.against!.id);
+						const otherTol = g.against!.placementId ? tolerance.get(g.against!.placementId)! : 0;
+						expect(g.worstCaseMm).toBeCloseTo(
+							expected.gap - tolerance.get(part.placementId)! - otherTol,
+							9
+						);
 					}
-				}),
-				{ numRuns: 1000 }
-			);
+				}
+			});
 		}
 	);
 
 	it('a face crossing a wall reports its overshoot: the crossing depth past the inside, against that wall', () => {
-		fc.assert(
-			fc.property(sceneArb, (scene) => {
-				const resolved = resolveScene(scene);
-				const report = checkScene(scene);
-				for (const rp of resolved.placements) {
-					const part = report.parts.find((p) => p.placementId === rp.placement.id)!;
-					for (const face of part.outsideFaces) {
-						const g = part.gaps[face];
-						const a = 'xyz'.indexOf(face[1]);
-						const wall = resolved.walls.find((w) => w.face === panelOf(face));
-						if (!wall || g.against?.kind !== 'wall') continue;
-						expect(g.against.id).toBe(wall.id);
-						// Depth past the inner face of the deepest body that meets the wall.
-						const meeting = rp.bodies.filter((b) =>
-							[0, 1, 2].every((k) => k === a || sharedAlong(b.box, wall.box, k) > EPSILON_MM)
-						);
-						const depth = Math.max(
-							...meeting.map((b) =>
-								face[0] === '+'
-									? b.box.max[a] - resolved.innerBox.max[a]
-									: resolved.innerBox.min[a] - b.box.min[a]
-							)
-						);
-						expect(g.gapMm).toBeCloseTo(-depth, 9);
-					}
+		eachCheckedScene(sceneArb, 1000, (scene, report) => {
+			const resolved = resolveScene(scene);
+			for (const rp of resolved.placements) {
+				const part = report.parts.find((p) => p.placementId === rp.placement.id)!;
+				for (const face of part.outsideFaces) {
+					const g = part.gaps[face];
+					const a = 'xyz'.indexOf(face[1]);
+					const wall = resolved.walls.find((w) => w.face === panelOf(face));
+					if (!wall || g.against?.kind !== 'wall') continue;
+					expect(g.against.id).toBe(wall.id);
+					// Depth past the inner face of the deepest body that meets the wall.
+					const meeting = rp.bodies.filter((b) =>
+						[0, 1, 2].every((k) => k === a || sharedAlong(b.box, wall.box, k) > EPSILON_MM)
+					);
+					const depth = Math.max(
+						...meeting.map((b) =>
+							face[0] === '+'
+								? b.box.max[a] - resolved.innerBox.max[a]
+								: resolved.innerBox.min[a] - b.box.min[a]
+						)
+					);
+					expect(g.gapMm).toBeCloseTo(-depth, 9);
 				}
-			}),
-			{ numRuns: 1000 }
-		);
+			}
+		});
 	});
 });
 

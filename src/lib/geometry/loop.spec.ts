@@ -6,7 +6,8 @@ import {
 	facingBlocksScene,
 	makeScene,
 	plainEnclosure,
-	pumpLoopScene
+	pumpLoopScene,
+	withWaypoints
 } from '../server/testing/engine-factories';
 import { checkLoops, loopBill, runPieces, type RunCache, type LoopReport } from './loop';
 import { defaultTubeKinds } from './loop-library';
@@ -163,26 +164,6 @@ describe('loop checks', () => {
 		expect(checkOf(loopsOf(input)[0], 'reservoir').status).toBe('fail');
 	});
 
-	it('a fill port below the top of the loop warns', () => {
-		const input = pumpLoopScene(({ loop }) => {
-			loop.fill = { placementId: 'res-1', portId: 'side' };
-		});
-		const fill = checkOf(loopsOf(input)[0], 'fill');
-		// The side port is at y 120; run 1 reaches y 300: 180 mm below.
-		expect(fill.status).toBe('warn');
-		expect(fill.reason).toContain('180.0 mm below the loop');
-	});
-
-	it('a fill port with a part over it warns that it is not reachable', () => {
-		const input = pumpLoopScene(({ input }) => {
-			input.parts!.push(blockPart('shelf', [40, 10, 20]));
-			input.placements!.push({ id: 'shelf-1', partId: 'shelf', position: [220, 350, 45] });
-		});
-		const fill = checkOf(loopsOf(input)[0], 'fill');
-		expect(fill.status).toBe('warn');
-		expect(fill.reason).toContain('not reachable: the shelf · body is in the way');
-	});
-
 	it('a port left open fails until it is plugged', () => {
 		const open = pumpLoopScene(({ loop }) => {
 			loop.plugs = loop.plugs.filter((p) => p.portId !== 'side');
@@ -195,34 +176,61 @@ describe('loop checks', () => {
 		expect(checkOf(loopsOf(pumpLoopScene())[0], 'ports').status).toBe('pass');
 	});
 
-	it('a fitting of another thread fails', () => {
-		const input = pumpLoopScene(({ input }) => {
-			const pump = input.parts![0] as PartDef;
-			pump.ports[0].thread = 'G 3/8';
+	const checkCases: {
+		what: string;
+		edit: Parameters<typeof pumpLoopScene>[0];
+		check: string;
+		status: string;
+		reason: string;
+	}[] = [
+		{
+			// The side port is at y 120; run 1 reaches y 300: 180 mm below.
+			what: 'a fill port below the top of the loop warns',
+			edit: ({ loop }) => (loop.fill = { placementId: 'res-1', portId: 'side' }),
+			check: 'fill',
+			status: 'warn',
+			reason: '180.0 mm below the loop'
+		},
+		{
+			what: 'a fill port with a part over it warns that it is not reachable',
+			edit: ({ input }) => {
+				input.parts!.push(blockPart('shelf', [40, 10, 20]));
+				input.placements!.push({ id: 'shelf-1', partId: 'shelf', position: [220, 350, 45] });
+			},
+			check: 'fill',
+			status: 'warn',
+			reason: 'not reachable: the shelf · body is in the way'
+		},
+		{
+			what: 'a fitting of another thread fails',
+			edit: ({ input }) => ((input.parts![0] as PartDef).ports[0].thread = 'G 3/8'),
+			check: 'threads',
+			status: 'fail',
+			reason: 'is G 1/4, Pump · in is G 3/8'
+		},
+		{
+			what: 'an open chain says where it breaks',
+			edit: ({ loop }) => (loop.runs = [loop.runs[0]]),
+			check: 'closed',
+			status: 'fail',
+			reason: 'Run 1 ends on Pump · in but Run 1 starts on Reservoir · out'
+		},
+		{
+			// Lowest point: run 2 at y 50; the side port at y 120 is 70 mm above it.
+			what: 'a drain near the lowest point passes, one high up is advice',
+			edit: ({ loop }) => (loop.drain = { placementId: 'res-1', portId: 'side' }),
+			check: 'drain',
+			status: 'advice',
+			reason: '70.0 mm above the lowest point'
+		}
+	];
+	for (const { what, edit, check, status, reason } of checkCases) {
+		it(what, () => {
+			const found = checkOf(loopsOf(pumpLoopScene(edit))[0], check);
+			expect(found.status).toBe(status);
+			expect(found.reason).toContain(reason);
 		});
-		const threads = checkOf(loopsOf(input)[0], 'threads');
-		expect(threads.status).toBe('fail');
-		expect(threads.reason).toContain('is G 1/4, Pump · in is G 3/8');
-	});
-
-	it('an open chain says where it breaks', () => {
-		const input = pumpLoopScene(({ loop }) => {
-			loop.runs = [loop.runs[0]];
-		});
-		const closed = checkOf(loopsOf(input)[0], 'closed');
-		expect(closed.status).toBe('fail');
-		expect(closed.reason).toContain('Run 1 ends on Pump · in but Run 1 starts on Reservoir · out');
-	});
-
-	it('a drain near the lowest point passes, one high up is advice', () => {
-		const low = pumpLoopScene(({ loop }) => {
-			loop.drain = { placementId: 'res-1', portId: 'side' };
-		});
-		// Lowest point: run 2 at y 50; the side port at y 120 is 70 mm above it.
-		const drain = checkOf(loopsOf(low)[0], 'drain');
-		expect(drain.status).toBe('advice');
-		expect(drain.reason).toContain('70.0 mm above the lowest point');
-	});
+	}
 });
 
 describe('runs checked like bodies', () => {
@@ -263,16 +271,17 @@ describe('runs checked like bodies', () => {
 
 	it('two runs that cross collide and name each other', () => {
 		// Run 2 rises at x 180 through run 1's second segment (y 300, z 75), then goes round.
-		const input = pumpLoopScene(({ loop }) => {
-			loop.runs[1].waypoints = [
+		const input = pumpLoopScene(
+			withWaypoints(
+				1,
 				[180, 50, 75],
 				[180, 300, 75],
 				[180, 300, 150],
 				[350, 300, 150],
 				[350, 170, 150],
 				[350, 170, 75]
-			];
-		});
+			)
+		);
 		const [loop] = loopsOf(input);
 		const texts = loop.runs.flatMap((r) => r.problems.map((p) => p.text));
 		expect(texts).toContain('Run 1, second segment, against run 2, bend 2');
@@ -285,14 +294,7 @@ describe('runs checked like bodies', () => {
 		const cache: RunCache = new Map();
 		checkLoops(scene, resolved, cache);
 		const before = { r1: cache.get('r1'), r2: cache.get('r2') };
-		const moved = parse(
-			pumpLoopScene(({ loop }) => {
-				loop.runs[1].waypoints = [
-					[340.5, 50, 75],
-					[340.5, 170, 75]
-				];
-			})
-		);
+		const moved = parse(pumpLoopScene(withWaypoints(1, [340.5, 50, 75], [340.5, 170, 75])));
 		const [loop] = checkLoops(moved, resolved, cache);
 		expect(cache.get('r1')).toBe(before.r1);
 		expect(cache.get('r2')).not.toBe(before.r2);
@@ -322,12 +324,7 @@ describe('bad input, with the path', () => {
 		],
 		[
 			'a bend tighter than the tube allows',
-			({ loop }) =>
-				(loop.runs[1].waypoints = [
-					[350, 50, 75],
-					[350, 170, 75],
-					[330, 170, 75]
-				]),
+			withWaypoints(1, [350, 50, 75], [350, 170, 75], [330, 170, 75]),
 			'loops[0].runs[1].waypoints[1]',
 			'Bend tighter than the tube allows: the third segment is 20.0 mm long and its bends need 32.0 mm at a 32.0 mm bend radius'
 		],
@@ -363,12 +360,7 @@ describe('bad input, with the path', () => {
 		],
 		[
 			'a straight fitting with the tube turning off it',
-			({ loop }) =>
-				(loop.runs[0].waypoints = [
-					[300, 224, 75],
-					[300, 300, 75],
-					[65, 300, 75]
-				]),
+			withWaypoints(0, [300, 224, 75], [300, 300, 75], [65, 300, 75]),
 			'loops[0].runs[0].fittings.from',
 			'The Straight compression fitting, 16 mm hard tube sends the tube straight out along +y; the first segment leaves at 90°'
 		],

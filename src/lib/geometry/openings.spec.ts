@@ -6,6 +6,7 @@
  */
 import fc from 'fast-check';
 import { Box3, Vector3 } from 'three';
+import { toBox3 } from '../server/testing/engine-box3';
 import { describe, expect, it } from 'vitest';
 import { boxVolume, intersectBoxes } from './box';
 import { checkScene } from './check';
@@ -24,7 +25,6 @@ import {
 } from './schema';
 import { demoEnclosure, demoSceneInput } from './standard-library';
 
-const toBox3 = (box: Box) => new Box3(new Vector3(...box.min), new Vector3(...box.max));
 /** Strictly inside a box (Box3.containsPoint counts the faces; a shared face is no overlap). */
 const strictlyIn = (b: Box3, p: Vector3) =>
 	p.x > b.min.x &&
@@ -157,40 +157,44 @@ describe('divider openings: the schema', () => {
 	const paths = (r: ReturnType<typeof parse>) =>
 		r.success ? [] : r.error.issues.map((i) => [i.path.join('.'), i.message]);
 
-	it('refuses an opening reaching past the divider, one at a negative place and two that overlap', () => {
-		expect(paths(parse([{ id: 'a', at: [300, 0], size: [50, 10] }]))).toEqual([
-			['dividers.0.openings.0.size.0', 'Reaches past the divider (340 mm on this axis)']
-		]);
+	/** An opening `id` at `at` (mm from the spine's low corner) of `size`, on the plane's two axes. */
+	const opening = (id: string, at: [number, number], size: [number, number]) => ({ id, at, size });
+
+	it.each<[string, DividerDef['openings'], string[][]]>([
+		[
+			'an opening reaching past the divider',
+			[opening('a', [300, 0], [50, 10])],
+			[['dividers.0.openings.0.size.0', 'Reaches past the divider (340 mm on this axis)']]
+		],
 		// The spine spans z 66–240: 174 mm on its second plane axis.
-		expect(paths(parse([{ id: 'a', at: [0, 170], size: [10, 10] }]))).toEqual([
-			['dividers.0.openings.0.size.1', 'Reaches past the divider (174 mm on this axis)']
-		]);
-		expect(paths(parse([{ id: 'a', at: [-1, 0], size: [10, 10] }]))).toEqual([
-			['dividers.0.openings.0.at.0', 'Must not be negative']
-		]);
-		expect(
-			paths(
-				parse([
-					{ id: 'a', at: [0, 0], size: [20, 20] },
-					{ id: 'b', at: [10, 10], size: [20, 20] }
-				])
-			)
-		).toEqual([['dividers.0.openings.1.at', 'Overlaps opening a']]);
-		expect(
-			paths(
-				parse([
-					{ id: 'a', at: [0, 0], size: [20, 20] },
-					{ id: 'a', at: [20, 0], size: [20, 20] }
-				])
-			)
-		).toEqual([['dividers.0.openings.1.id', 'Duplicate id']]);
-		// Touching edges are not an overlap.
-		expect(
-			parse([
-				{ id: 'a', at: [0, 0], size: [20, 20] },
-				{ id: 'b', at: [20, 0], size: [20, 20] }
-			]).success
-		).toBe(true);
+		[
+			'an opening reaching past it on its second axis',
+			[opening('a', [0, 170], [10, 10])],
+			[['dividers.0.openings.0.size.1', 'Reaches past the divider (174 mm on this axis)']]
+		],
+		[
+			'an opening at a negative place',
+			[opening('a', [-1, 0], [10, 10])],
+			[['dividers.0.openings.0.at.0', 'Must not be negative']]
+		],
+		[
+			'two openings that overlap',
+			[opening('a', [0, 0], [20, 20]), opening('b', [10, 10], [20, 20])],
+			[['dividers.0.openings.1.at', 'Overlaps opening a']]
+		],
+		[
+			'two openings with one id',
+			[opening('a', [0, 0], [20, 20]), opening('a', [20, 0], [20, 20])],
+			[['dividers.0.openings.1.id', 'Duplicate id']]
+		]
+	])('refuses %s', (_, openings, issues) => {
+		expect(paths(parse(openings))).toEqual(issues);
+	});
+
+	it('takes two openings whose edges touch (not an overlap)', () => {
+		expect(parse([opening('a', [0, 0], [20, 20]), opening('b', [20, 0], [20, 20])]).success).toBe(
+			true
+		);
 	});
 });
 

@@ -6,11 +6,10 @@
  */
 import { describe, expect, it } from 'vitest';
 import { checkScene } from './check';
-import { blockPart, makeScene } from '../server/testing/engine-factories';
+import { blockPart, demoPart, makeScene } from '../server/testing/engine-factories';
 import {
 	DEMO_SPINE_OFFSETS,
 	demoEnclosure,
-	demoParts,
 	demoSceneInput,
 	standardPart
 } from './standard-library';
@@ -164,7 +163,7 @@ describe('the 86 mm CPU-side compartment (common practice)', () => {
 	});
 
 	it('a compact pump-reservoir 58 mm thick leaves 28 mm for fittings', () => {
-		const pump = demoParts().find((p) => p.id === 'demo-pump-res')!;
+		const pump = demoPart('demo-pump-res');
 		const report = inCpuSide(pump);
 		expect(report.parts[0].gaps['+x']).toMatchObject({
 			gapMm: 28,
@@ -177,7 +176,7 @@ describe('the 86 mm CPU-side compartment (common practice)', () => {
 describe('the card side (common practice)', () => {
 	const cardScene = (lengthMm: number, withPump: boolean) => {
 		const input = demoSceneInput();
-		const card = demoParts().find((p) => p.id === 'demo-card')!;
+		const card = demoPart('demo-card');
 		card.bodies[0].box.max[0] = lengthMm;
 		card.keepouts = [];
 		input.parts = input.parts!.map((p) => (p.id === card.id ? card : p));

@@ -46,6 +46,7 @@ import {
 	type EnclosureDef,
 	type Vec3
 } from './schema';
+import { listPositions } from '../server/testing/engine-factories';
 
 // — the oracle: one row from nothing —
 
@@ -143,6 +144,13 @@ function oldRoomAt(
 
 	// Cards: standing on a support bracket, or hanging from an expansion-slot mount.
 	const stackAxis = trays.length ? FACE_AXES[trays[0].face].axis : null;
+	// Slots run along the board's stack axis, or else the narrower of the box's two other axes.
+	const slotAxis = (along: AxisIndex, box: Box): AxisIndex =>
+		stackAxis !== null && stackAxis !== along
+			? stackAxis
+			: ([0, 1, 2]
+					.filter((i) => i !== along)
+					.sort((p, q) => box.max[p] - box.min[p] - (box.max[q] - box.min[q]))[0] as AxisIndex);
 	for (const b of enclosure.brackets.filter((x) => x.kind === 'card-support')) {
 		const box = bracketBoxAt(b, bracketOffset(b.id));
 		const L = AXES.indexOf(b.axis) as AxisIndex;
@@ -165,14 +173,7 @@ function oldRoomAt(
 			valueMm: r.distanceMm,
 			boundedBy: `from the ${label} to the ${r.against}`
 		});
-		const S =
-			stackAxis !== null && stackAxis !== L
-				? stackAxis
-				: ([0, 1, 2]
-						.filter((i) => i !== L)
-						.sort(
-							(p, q) => room.box.max[p] - room.box.min[p] - (room.box.max[q] - room.box.min[q])
-						)[0] as AxisIndex);
+		const S = slotAxis(L, room.box);
 		const width = room.box.max[S] - room.box.min[S];
 		const labels = containerLabels(room.box, inner, '');
 		const lo =
@@ -206,14 +207,7 @@ function oldRoomAt(
 			valueMm: r.distanceMm,
 			boundedBy: `from the ${PANEL_LABELS[m.face]} to the ${r.against}`
 		});
-		const S =
-			stackAxis !== null && stackAxis !== axis
-				? stackAxis
-				: ([0, 1, 2]
-						.filter((i) => i !== axis)
-						.sort(
-							(p, q) => cross.max[p] - cross.min[p] - (cross.max[q] - cross.min[q])
-						)[0] as AxisIndex);
+		const S = slotAxis(axis, cross);
 		const width = cross.max[S] - cross.min[S];
 		const pitch = m.slotPitchMm || SLOT_PITCH_MM;
 		const byRoom = Math.floor(width / pitch + 1e-9);
@@ -399,10 +393,7 @@ const variation = fc
 		const offsets = [...new Set(v.spread.map((p) => Math.round((along * p) / 100)))];
 		e.dividers[e.dividers.length - 1] = {
 			...d,
-			positions: {
-				kind: 'list',
-				options: offsets.map((o) => ({ label: `at ${o}`, offsetMm: o }))
-			}
+			positions: listPositions(Object.fromEntries(offsets.map((o) => [`at ${o}`, o])))
 		};
 		const b = e.brackets[0];
 		e.brackets[0] = {
@@ -424,16 +415,7 @@ const variation = fc
 			...(m.plateMm !== undefined ? { plateMm: v.plate } : {})
 		}));
 		if (v.third && !v.tower) {
-			e.dividers[0] = {
-				...e.dividers[0],
-				positions: {
-					kind: 'list',
-					options: [
-						{ label: 'a', offsetMm: 64 },
-						{ label: 'b', offsetMm: 40 }
-					]
-				}
-			};
+			e.dividers[0] = { ...e.dividers[0], positions: listPositions({ a: 64, b: 40 }) };
 		}
 		return e;
 	});

@@ -9,6 +9,7 @@ import { describe, expect, it } from 'vitest';
 import { DEMO_SPINE_OFFSETS, demoEnclosure, demoTowerEnclosure } from './standard-library';
 import { roomTable, type RoomRow } from './room';
 import type { EnclosureDef } from './schema';
+import { listPositions } from '../server/testing/engine-factories';
 
 const rowOf = (rows: RoomRow[], offsets: Record<string, number>) =>
 	rows.find((r) =>
@@ -19,6 +20,11 @@ const fig = (row: RoomRow, id: string) => {
 	if (!f) throw new Error(`no figure ${id} in ${row.figures.map((x) => x.id).join(', ')}`);
 	return f;
 };
+/** The row's figures named in `expected`, each matched against what it should hold. */
+const expectFigures = (row: RoomRow, expected: Record<string, object>) =>
+	expect(Object.fromEntries(Object.keys(expected).map((id) => [id, fig(row, id)]))).toMatchObject(
+		expected
+	);
 
 describe('the demo sandwich (150 × 340 × 240 mm inside)', () => {
 	const table = roomTable(demoEnclosure());
@@ -77,14 +83,13 @@ describe('the demo sandwich (150 × 340 × 240 mm inside)', () => {
 
 	it('64 mm for radiator + fans on the 280 mount, 63 mm for a 240 after its 1 mm adapter plate (common practice)', () => {
 		// Budget 64 mm, and the bulkhead's front face is at z 64 too; the plate is for 240s only.
-		const row = at('3 slots');
-		expect(fig(row, 'stack:radiator:280')).toMatchObject({
-			valueMm: 64,
-			boundedBy: 'to the Bulkhead (the 64.0\u2009mm budget)'
-		});
-		expect(fig(row, 'stack:radiator:240')).toMatchObject({
-			valueMm: 63,
-			boundedBy: 'to the Bulkhead (the 64.0\u2009mm budget), after the 1.0\u2009mm adapter plate'
+		const budget = 'to the Bulkhead (the 64.0\u2009mm budget)';
+		expectFigures(at('3 slots'), {
+			'stack:radiator:280': { valueMm: 64, boundedBy: budget },
+			'stack:radiator:240': {
+				valueMm: 63,
+				boundedBy: `${budget}, after the 1.0\u2009mm adapter plate`
+			}
 		});
 	});
 
@@ -118,26 +123,19 @@ describe('the demo small tower (205 × 376 × 236 mm inside)', () => {
 	it('board, cards and stacks', () => {
 		const row = at(90);
 		// Tray on the right panel (x 205): 205 − 6 standoffs − 1.6 board = 197.4 to the left panel.
-		expect(fig(row, 'over-board:tray')).toMatchObject({ boundedBy: 'to the Left panel' });
 		expect(fig(row, 'over-board:tray').valueMm).toBeCloseTo(197.4, 9);
-		// Cards from the back panel (z 236) forward to the front fans' 30 mm stack: 236 − 30 = 206.
-		expect(fig(row, 'card-length:slots')).toMatchObject({
-			valueMm: 206,
-			boundedBy: 'from the Back panel to the Front fans stack'
-		});
-		// The slots' region is 165 − 80 = 85 mm across (85 / 20.32 = 4.18) and the mount has 4 slots.
-		expect(fig(row, 'card-slots:slots')).toMatchObject({
-			slots: 4,
-			boundedBy: '4 slots on the mount'
-		});
-		// Top radiator: the room down to the pump bracket (376 − 125 = 251) is more than the 50 mm budget.
-		expect(fig(row, 'stack:top-radiator:280')).toMatchObject({
-			valueMm: 50,
-			boundedBy: 'the 50.0\u2009mm stack budget'
-		});
-		expect(fig(row, 'stack:front-fans:140')).toMatchObject({
-			valueMm: 30,
-			boundedBy: 'the 30.0\u2009mm stack budget'
+		expectFigures(row, {
+			'over-board:tray': { boundedBy: 'to the Left panel' },
+			// Cards from the back panel (z 236) forward to the front fans' 30 mm stack: 236 − 30 = 206.
+			'card-length:slots': {
+				valueMm: 206,
+				boundedBy: 'from the Back panel to the Front fans stack'
+			},
+			// The slots' region is 165 − 80 = 85 mm across (85 / 20.32 = 4.18); the mount has 4 slots.
+			'card-slots:slots': { slots: 4, boundedBy: '4 slots on the mount' },
+			// Top radiator: the room down to the pump bracket (376 − 125 = 251) exceeds the 50 mm budget.
+			'stack:top-radiator:280': { valueMm: 50, boundedBy: 'the 50.0\u2009mm stack budget' },
+			'stack:front-fans:140': { valueMm: 30, boundedBy: 'the 30.0\u2009mm stack budget' }
 		});
 	});
 
@@ -158,7 +156,7 @@ describe('the demo small tower (205 × 376 × 236 mm inside)', () => {
 describe('tables that cannot be made', () => {
 	it('an enclosure whose control has no allowed position says so and lists nothing', () => {
 		const e: EnclosureDef = demoEnclosure();
-		e.dividers[1] = { ...e.dividers[1], positions: { kind: 'list', options: [] } };
+		e.dividers[1] = { ...e.dividers[1], positions: listPositions({}) };
 		const table = roomTable(e);
 		expect(table.rows).toEqual([]);
 		expect(table.note).toBe('Spine has no allowed position, so there is no room to list.');
@@ -166,16 +164,7 @@ describe('tables that cannot be made', () => {
 
 	it('more than two moving controls: one at a time, the others at their first position', () => {
 		const e = demoEnclosure();
-		e.dividers[0] = {
-			...e.dividers[0],
-			positions: {
-				kind: 'list',
-				options: [
-					{ label: 'a', offsetMm: 64 },
-					{ label: 'b', offsetMm: 60 }
-				]
-			}
-		};
+		e.dividers[0] = { ...e.dividers[0], positions: listPositions({ a: 64, b: 60 }) };
 		const table = roomTable(e);
 		// 1 base row + 1 more bulkhead + 2 more spine + 15 more bar positions.
 		expect(table.rows).toHaveLength(1 + 1 + 2 + 15);

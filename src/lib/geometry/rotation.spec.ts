@@ -1,17 +1,11 @@
 /** Quarter turns against three.js rotation matrices and Box3.applyMatrix4. */
 import fc from 'fast-check';
-import { Box3, Matrix4, Vector3 } from 'three';
+import { Matrix4, Vector3 } from 'three';
+import { fromBox3, toBox3 } from '../server/testing/engine-box3';
 import { describe, expect, it } from 'vitest';
 import { boxArb, gridMm } from '../server/testing/engine-factories';
 import { rotateBox, rotateDirection, rotatePoint, rotationMap } from './rotation';
-import type { Box, Rotation, Vec3 } from './schema';
-
-/** three.js Box3, the oracle, from and to engine boxes. */
-const toBox3 = (box: Box) => new Box3(new Vector3(...box.min), new Vector3(...box.max));
-const fromBox3 = (b: Box3): Box => ({
-	min: [b.min.x, b.min.y, b.min.z],
-	max: [b.max.x, b.max.y, b.max.z]
-});
+import type { Rotation, Vec3 } from './schema';
 
 /** X first, then Y, then Z: M = Rz · Ry · Rx. */
 function threeMatrix(r: Rotation): Matrix4 {

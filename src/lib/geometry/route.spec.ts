@@ -138,6 +138,29 @@ const intBox = (x: number[], y: number[], z: number[]): Box => ({
 	max: [x[1], y[1], z[1]]
 });
 
+/**
+ * A run between two ports (each `[point, direction]`) in a box from the origin to `max`: a hard
+ * 10 mm round tube, 2 mm clearance, 20 mm bends at 50 mm each and nothing in the way, unless
+ * `over` says otherwise.
+ */
+const request = (
+	start: [Vec3, Face],
+	end: [Vec3, Face],
+	max: Vec3,
+	over: Partial<RouteInput> = {}
+): RouteInput => ({
+	start: { point: start[0], direction: start[1] },
+	end: { point: end[0], direction: end[1] },
+	bounds: { min: [0, 0, 0], max },
+	obstacles: [],
+	section: { kind: 'round', outerDiameterMm: 10 },
+	clearanceMm: 2,
+	bendRadiusMm: 20,
+	bendPenaltyMm: 50,
+	mode: 'hard',
+	...over
+});
+
 /** Random small scenes on integer coordinates: a 20 × 12 × 12 room, up to five blocks. */
 const sceneArb = fc
 	.record({
@@ -162,21 +185,37 @@ const sceneArb = fc
 		B: fc.constantFrom(0, 3, 10)
 	})
 	.filter((s) => s.s.join() !== s.e.join())
-	.map((s): RouteInput => ({
-		start: { point: s.s as Vec3, direction: s.sd },
-		end: { point: s.e as Vec3, direction: s.ed },
-		bounds: intBox([0, 20], [0, 12], [0, 12]),
-		obstacles: s.blocks.map((b, i) => ({
-			id: `b${i}`,
-			box: intBox([b.x, Math.min(20, b.x + b.w)], [b.y, b.y + b.h], [b.z, b.z + b.d])
-		})),
-		section: { kind: 'round', outerDiameterMm: 2 },
-		clearanceMm: s.c,
-		bendRadiusMm: s.r,
-		bendPenaltyMm: s.B,
-		mode: 'hard',
-		maxAlternatives: 3
-	}));
+	.map((s) =>
+		request([s.s as Vec3, s.sd], [s.e as Vec3, s.ed], [20, 12, 12], {
+			obstacles: s.blocks.map((b, i) => ({
+				id: `b${i}`,
+				box: intBox([b.x, Math.min(20, b.x + b.w)], [b.y, b.y + b.h], [b.z, b.z + b.d])
+			})),
+			section: { kind: 'round', outerDiameterMm: 2 },
+			clearanceMm: s.c,
+			bendRadiusMm: s.r,
+			bendPenaltyMm: s.B,
+			maxAlternatives: 3
+		})
+	);
+
+/** Flood fill over unit steps: whether `to` is reached from `from` by steps that `free` allows. */
+function floodReaches(from: Vec3, to: Vec3, free: (p: Vec3, q: Vec3) => boolean): boolean {
+	const seen = new Set([from.join()]);
+	const queue = [from];
+	while (queue.length) {
+		const p = queue.pop()!;
+		if (p.join() === to.join()) return true;
+		for (const u of Object.values(FACE_UNIT)) {
+			const q: Vec3 = [p[0] + u[0], p[1] + u[1], p[2] + u[2]];
+			if (!seen.has(q.join()) && free(p, q)) {
+				seen.add(q.join());
+				queue.push(q);
+			}
+		}
+	}
+	return false;
+}
 
 const fullPath = (input: RouteInput, waypoints: Vec3[]): Vec3[] => [
 	input.start.point,
@@ -199,18 +238,11 @@ describe('findRoute', { timeout: 180_000 }, () => {
 		// Polyline: up 47 − 10 = 37, across 100, down 37 → 174 mm. Legs: 37 ≥ r = 20 after the start
 		// and before the end, 100 ≥ 2r = 40 between the bends. With arcs: 174 − 2 × 2 × 20 + 2 × π ×
 		// 20 / 2 = 94 + 20π = 156.83 mm. Cost with a 50 mm penalty per bend: 174 + 2 × 50 = 274.
-		const input: RouteInput = {
-			start: { point: [10, 10, 50], direction: '+y' },
-			end: { point: [110, 10, 50], direction: '+y' },
-			bounds: { min: [0, 0, 0], max: [120, 100, 100] },
-			obstacles: [{ box: { min: [40, 0, 20], max: [80, 40, 80] }, id: 'block' }],
-			section: { kind: 'round', outerDiameterMm: 10 },
-			clearanceMm: 2,
-			bendRadiusMm: 20,
-			bendPenaltyMm: 50,
-			mode: 'hard'
-		};
-		const res = findRoute(input);
+		const res = findRoute(
+			request([[10, 10, 50], '+y'], [[110, 10, 50], '+y'], [120, 100, 100], {
+				obstacles: [{ box: { min: [40, 0, 20], max: [80, 40, 80] }, id: 'block' }]
+			})
+		);
 		expect(res.ok).toBe(true);
 		if (!res.ok) return;
 		const [route] = res.routes;
@@ -227,17 +259,11 @@ describe('findRoute', { timeout: 180_000 }, () => {
 	it('says why when the only passage is narrower than the tube and names what closes it', () => {
 		// A block 40 mm high under a 50 mm ceiling, wall to wall: 10 mm of gap, the tube needs
 		// 10 + 2 × 2 = 14 mm.
-		const res = findRoute({
-			start: { point: [10, 10, 50], direction: '+y' },
-			end: { point: [110, 10, 50], direction: '+y' },
-			bounds: { min: [0, 0, 0], max: [120, 50, 100] },
-			obstacles: [{ box: { min: [40, 0, 0], max: [80, 40, 100] }, id: 'block', label: 'Block' }],
-			section: { kind: 'round', outerDiameterMm: 10 },
-			clearanceMm: 2,
-			bendRadiusMm: 20,
-			bendPenaltyMm: 50,
-			mode: 'hard'
-		});
+		const res = findRoute(
+			request([[10, 10, 50], '+y'], [[110, 10, 50], '+y'], [120, 50, 100], {
+				obstacles: [{ box: { min: [40, 0, 0], max: [80, 40, 100] }, id: 'block', label: 'Block' }]
+			})
+		);
 		expect(res.ok).toBe(false);
 		if (res.ok) return;
 		expect(res.narrowestGapMm).toBeGreaterThan(9.8);
@@ -248,17 +274,9 @@ describe('findRoute', { timeout: 180_000 }, () => {
 
 	it('tells a bend radius that does not fit from a gap that is too narrow', () => {
 		// A 30 mm high slot: wide enough for the 10 mm tube, but a 40 mm bend cannot turn into it.
-		const res = findRoute({
-			start: { point: [10, 10, 20], direction: '+y' },
-			end: { point: [110, 10, 20], direction: '+y' },
-			bounds: { min: [0, 0, 0], max: [120, 30, 40] },
-			obstacles: [],
-			section: { kind: 'round', outerDiameterMm: 10 },
-			clearanceMm: 2,
-			bendRadiusMm: 40,
-			bendPenaltyMm: 50,
-			mode: 'hard'
-		});
+		const res = findRoute(
+			request([[10, 10, 20], '+y'], [[110, 10, 20], '+y'], [120, 30, 40], { bendRadiusMm: 40 })
+		);
 		expect(res.ok).toBe(false);
 		if (res.ok) return;
 		// The start's own room decides it, before any search: 10 + 40 (the straight leg before a
@@ -372,22 +390,12 @@ describe('findRoute', { timeout: 180_000 }, () => {
 							return hi <= o.min[a] - c || lo >= o.max[a] + c;
 						})
 					);
-				let connected = false;
-				if (leaves(S, su) && leaves(E, eu) && cubeFree(s1) && cubeFree(e1)) {
-					const seen = new Set([s1.join()]);
-					const queue = [s1];
-					while (queue.length && !connected) {
-						const p = queue.pop()!;
-						if (p.join() === e1.join()) connected = true;
-						for (const u of Object.values(FACE_UNIT)) {
-							const q: Vec3 = [p[0] + u[0], p[1] + u[1], p[2] + u[2]];
-							if (!seen.has(q.join()) && cubeFree(q)) {
-								seen.add(q.join());
-								queue.push(q);
-							}
-						}
-					}
-				}
+				const connected =
+					leaves(S, su) &&
+					leaves(E, eu) &&
+					cubeFree(s1) &&
+					cubeFree(e1) &&
+					floodReaches(s1, e1, (_, q) => cubeFree(q));
 				const res = findRoute(input);
 				if (!connected) {
 					// Only a straight run between facing ports one unit apart avoids both cubes.
@@ -425,20 +433,7 @@ describe('findRoute', { timeout: 180_000 }, () => {
 				};
 				const S = input.start.point;
 				const E = input.end.point;
-				const seen = new Set([S.join()]);
-				const queue: Vec3[] = [S];
-				let connected = false;
-				while (queue.length && !connected) {
-					const p = queue.pop()!;
-					if (p.join() === E.join()) connected = true;
-					for (const u of Object.values(FACE_UNIT)) {
-						const q: Vec3 = [p[0] + u[0], p[1] + u[1], p[2] + u[2]];
-						if (!seen.has(q.join()) && sweepFree(p, q)) {
-							seen.add(q.join());
-							queue.push(q);
-						}
-					}
-				}
+				const connected = floodReaches(S, E, sweepFree);
 				// Five steps: far too few for most scenes, so the cap decides the answer's path.
 				const res = findRoute({ ...input, maxExpansions: 5, maxAlternatives: 1 });
 				if (!connected) {
@@ -467,10 +462,7 @@ describe('findRoute', { timeout: 180_000 }, () => {
 			{ id: 'back', label: 'Back plate', box: { min: [18, 18, 18], max: [52, 52, 20] } },
 			{ id: 'front', label: 'Front plate', box: { min: [18, 18, 50], max: [52, 52, 52] } }
 		];
-		const input: RouteInput = {
-			start: { point: [30, 30, 35], direction: '+x' },
-			end: { point: [80, 80, 80], direction: '-y' },
-			bounds: { min: [0, 0, 0], max: [100, 100, 100] },
+		const input = request([[30, 30, 35], '+x'], [[80, 80, 80], '-y'], [100, 100, 100], {
 			obstacles: plates,
 			section: { kind: 'round', outerDiameterMm: 4 },
 			clearanceMm: 1,
@@ -478,7 +470,7 @@ describe('findRoute', { timeout: 180_000 }, () => {
 			bendPenaltyMm: 10,
 			mode: 'soft',
 			maxExpansions: 20
-		};
+		});
 		const res = findRoute(input);
 		expect(res.ok).toBe(false);
 		if (res.ok) return;
@@ -515,17 +507,17 @@ describe('findRoute', { timeout: 180_000 }, () => {
 	it('proves at once that a port with no room for its first bend has no route, naming what is in the way', () => {
 		// The end port faces up under a shelf 20 mm above it: the 10 mm bundle needs 15 mm straight
 		// into the port and a 15 mm bend above that (15 + 5 + 2 = 22 mm > 20), so no corner fits.
-		const res = findRoute({
-			start: { point: [20, 20, 50], direction: '+y' },
-			end: { point: [150, 20, 50], direction: '+y' },
-			bounds: { min: [0, 0, 0], max: [200, 200, 100] },
-			obstacles: [{ id: 'shelf', label: 'Shelf', box: { min: [120, 40, 0], max: [200, 45, 100] } }],
-			section: { kind: 'flat', widthMm: 10, thicknessMm: 5 },
-			clearanceMm: 2,
-			bendRadiusMm: 15,
-			bendPenaltyMm: 100,
-			mode: 'soft'
-		});
+		const res = findRoute(
+			request([[20, 20, 50], '+y'], [[150, 20, 50], '+y'], [200, 200, 100], {
+				obstacles: [
+					{ id: 'shelf', label: 'Shelf', box: { min: [120, 40, 0], max: [200, 45, 100] } }
+				],
+				section: { kind: 'flat', widthMm: 10, thicknessMm: 5 },
+				bendRadiusMm: 15,
+				bendPenaltyMm: 100,
+				mode: 'soft'
+			})
+		);
 		expect(res.ok).toBe(false);
 		if (res.ok) return;
 		expect(res.cause).toBe('disconnected');

@@ -7,29 +7,21 @@ import { describe, expect, it } from 'vitest';
 import { checkScene } from './check';
 import { blockPart, makeScene, plainEnclosure } from '../server/testing/engine-factories';
 import { demoEnclosure, standardPart } from './standard-library';
-import { SLOT_PITCH_MM, type PartDef, type Vec3 } from './schema';
+import { SLOT_PITCH_MM, type DividerDef, type PartDef, type Vec3 } from './schema';
 
 describe('a two-slot card flush against a divider at a slot offset (PCI Express CEM: 20.32 mm pitch)', () => {
 	// A divider 2 mm thick, x-normal, at 40 + k × 20.32 mm; a card 2 × 20.32 = 40.64 mm thick.
 	const card = blockPart('card', [2 * SLOT_PITCH_MM, 100, 150], { toleranceMm: 0 });
+	const spine: DividerDef = {
+		id: 'spine',
+		label: 'Spine',
+		axis: 'x',
+		thicknessMm: 2,
+		positions: { kind: 'range', minMm: 40, maxMm: 40 + 5 * SLOT_PITCH_MM, stepMm: SLOT_PITCH_MM }
+	};
 	const scene = (k: number) =>
 		makeScene({
-			enclosure: plainEnclosure([200, 150, 200], 2, {
-				dividers: [
-					{
-						id: 'spine',
-						label: 'Spine',
-						axis: 'x',
-						thicknessMm: 2,
-						positions: {
-							kind: 'range',
-							minMm: 40,
-							maxMm: 40 + 5 * SLOT_PITCH_MM,
-							stepMm: SLOT_PITCH_MM
-						}
-					}
-				]
-			}),
+			enclosure: plainEnclosure([200, 150, 200], 2, { dividers: [spine] }),
 			dividerPositions: { spine: 40 + k * SLOT_PITCH_MM },
 			parts: [card],
 			// Flush against the divider at its first slot offset: 40 + 20.32 + 2 = 62.32 mm.
@@ -48,14 +40,11 @@ describe('a two-slot card flush against a divider at a slot offset (PCI Express 
 	it('one slot further the divider runs through the card; the moves are the card one pitch right or the divider one step back', () => {
 		// Divider at 40 + 2 × 20.32 = 80.64 … 82.64 mm, inside the card (62.32 … 102.96 mm).
 		const report = checkScene(scene(2));
-		expect(report.overlaps).toHaveLength(1);
+		// The one overlap: the divider through the card.
+		expect(report.overlaps).toMatchObject([
+			{ a: { id: 'card/body' }, b: { id: 'divider:spine' }, kind: 'collides', axis: 'x' }
+		]);
 		const [o] = report.overlaps;
-		expect(o).toMatchObject({
-			a: { id: 'card/body' },
-			b: { id: 'divider:spine' },
-			kind: 'collides',
-			axis: 'x'
-		});
 		expect(o.depthMm[0]).toBeCloseTo(2, 9);
 		// The card to just past the divider: 82.64 − 62.32 = 20.32 mm right (102.96 + 20.32 = 123.28 ≤ 200);
 		// the divider back to 60.32: 20.32 mm, one step.
@@ -164,17 +153,18 @@ describe('a body 86 mm deep flush in an 86 mm space with a 20 mm fitting keep-ou
 	it('is blocked, and no move along depth clears it: 86 + 20 = 106 mm in 86 mm', () => {
 		const report = checkScene(scene);
 		expect(report.parts[0].status).toBe('blocked');
-		expect(report.overlaps).toHaveLength(1);
+		// The one overlap: the keep-out reaches 20 mm past the inside, into the 2 mm back panel.
+		expect(report.overlaps).toMatchObject([
+			{
+				a: { id: 'block/fittings' },
+				b: { id: 'wall:back' },
+				kind: 'blocked',
+				axis: 'z',
+				moves: [],
+				clearingMove: null
+			}
+		]);
 		const [o] = report.overlaps;
-		// The keep-out reaches 20 mm past the inside, into the 2 mm back panel.
-		expect(o).toMatchObject({
-			a: { id: 'block/fittings' },
-			b: { id: 'wall:back' },
-			kind: 'blocked',
-			axis: 'z',
-			moves: [],
-			clearingMove: null
-		});
 		expect(o.noMove).toBe(
 			'No move along depth clears this; the part is deeper than the space (106.0\u2009mm with its keep-outs, 86.0\u2009mm between what bounds it).'
 		);

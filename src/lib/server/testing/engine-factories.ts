@@ -6,18 +6,22 @@ import {
 	enclosureDefSchema,
 	sceneSchema,
 	type Box,
+	type DividerDef,
 	type EnclosureDef,
 	type EnclosureInput,
 	type LoopDef,
 	type PartDef,
+	type PortDef,
 	type RunDef,
 	type Scene,
 	type SceneInput,
 	type Vec3
 } from '../../geometry/schema';
 import { resolveScene } from '../../geometry/resolve';
+import { checkScene } from '../../geometry/check';
 import { defaultFittings, defaultTubeKinds } from '../../geometry/loop-library';
-import type { WorldBox } from '../../geometry/types';
+import { demoParts } from '../../geometry/standard-library';
+import type { FitReport, WorldBox } from '../../geometry/types';
 
 /** A plain enclosure: `innerMm` inside, every panel `wallMm` thick and solid. */
 export function plainEnclosure(
@@ -58,6 +62,21 @@ export function blockPart(id: string, sizeMm: Vec3, extra: Partial<PartDef> = {}
 		...extra
 	};
 }
+
+/** One part of the demo catalogue by id (throws when there is none). */
+export function demoPart(id: string): PartDef {
+	const part = demoParts().find((p) => p.id === id);
+	if (!part) {
+		throw new Error(`no demo part ${id}`);
+	}
+	return part;
+}
+
+/** A divider's list of allowed positions, `{ label: offsetMm }` in the order given. */
+export const listPositions = (offsets: Record<string, number>): DividerDef['positions'] => ({
+	kind: 'list',
+	options: Object.entries(offsets).map(([label, offsetMm]) => ({ label, offsetMm }))
+});
 
 /** Parses through sceneSchema so defaults are filled in exactly as the API would. */
 export function makeScene(input: Partial<SceneInput> & Pick<SceneInput, 'enclosure'>): Scene {
@@ -277,6 +296,18 @@ export const sceneArb: fc.Arbitrary<Scene> = fc
 		});
 	});
 
+/** Asserts `property` of `numRuns` random scenes from `arb`, each with its fit report. */
+export function eachCheckedScene<S extends Scene>(
+	arb: fc.Arbitrary<S>,
+	numRuns: number,
+	property: (scene: S, report: FitReport) => void
+): void {
+	fc.assert(
+		fc.property(arb, (scene) => property(scene, checkScene(scene))),
+		{ numRuns }
+	);
+}
+
 /**
  * Every world box of a scene as the resolver makes it: walls, dividers, brackets, mount plates
  * (unless `plates` is false), then each placement's bodies and keep-outs.
@@ -311,6 +342,13 @@ export function demoLoopBackRun() {
 	};
 }
 
+/** An edit for `pumpLoopScene`: run `run` (0 or 1) of its loop through `points` instead. */
+export const withWaypoints =
+	(run: number, ...points: Vec3[]) =>
+	({ loop }: { loop: LoopDef }) => {
+		loop.runs[run].waypoints = points;
+	};
+
 /**
  * A 400 mm cube inside; a pump (in on top, out on its +x side) and a reservoir (out and in, a
  * fill port on top), joined by two 16 mm hard runs with straight fittings (reach 24 mm, insertion
@@ -323,26 +361,34 @@ export function pumpLoopScene(
 	edit: (s: { input: SceneInput; loop: LoopDef }) => void = () => {},
 	options: { block?: boolean } = {}
 ): SceneInput {
-	const pump: PartDef = {
-		...blockPart('pump', [60, 60, 60]),
-		name: 'Pump',
-		category: 'pump',
-		ports: [
-			{ id: 'in', position: [15, 60, 30], direction: '+y', thread: 'G 1/4' },
-			{ id: 'out', position: [60, 30, 30], direction: '+x', thread: 'G 1/4' }
+	/** A block part whose ports, each `[id, position, direction]`, all take G 1/4 fittings. */
+	const ported = (
+		part: Pick<PartDef, 'id' | 'name' | 'category'>,
+		sizeMm: Vec3,
+		ports: [string, Vec3, PortDef['direction']][]
+	): PartDef => ({
+		...blockPart(part.id, sizeMm),
+		...part,
+		ports: ports.map(([id, position, direction]) => ({ id, position, direction, thread: 'G 1/4' }))
+	});
+	const pump = ported(
+		{ id: 'pump', name: 'Pump', category: 'pump' },
+		[60, 60, 60],
+		[
+			['in', [15, 60, 30], '+y'],
+			['out', [60, 30, 30], '+x']
 		]
-	};
-	const res: PartDef = {
-		...blockPart('res', [80, 100, 70]),
-		name: 'Reservoir',
-		category: 'reservoir',
-		ports: [
-			{ id: 'out', position: [20, 100, 35], direction: '+y', thread: 'G 1/4' },
-			{ id: 'in', position: [80, 70, 35], direction: '+x', thread: 'G 1/4' },
-			{ id: 'fill', position: [40, 100, 15], direction: '+y', thread: 'G 1/4' },
-			{ id: 'side', position: [40, 20, 70], direction: '+z', thread: 'G 1/4' }
+	);
+	const res = ported(
+		{ id: 'res', name: 'Reservoir', category: 'reservoir' },
+		[80, 100, 70],
+		[
+			['out', [20, 100, 35], '+y'],
+			['in', [80, 70, 35], '+x'],
+			['fill', [40, 100, 15], '+y'],
+			['side', [40, 20, 70], '+z']
 		]
-	};
+	);
 	const loop: LoopDef = {
 		id: 'main',
 		label: 'Main loop',
