@@ -2,17 +2,10 @@
  * What changed between two versions of an enclosure, in words a builder reads before moving a
  * build on: "Outer width 154.0 mm → 160.0 mm", "Spine: positions changed". Pure; runs anywhere.
  */
-import { formatMm, type EnclosureDef } from '$lib/geometry';
+import { formatMm, PANELS, type EnclosureDef } from '$lib/geometry';
+import { PANEL_WORDS } from './schemas';
 
 const AXIS_WORDS = ['width', 'height', 'depth'];
-const FACE_WORDS: Record<string, string> = {
-	left: 'Left',
-	right: 'Right',
-	bottom: 'Bottom',
-	top: 'Top',
-	front: 'Front',
-	back: 'Back'
-};
 
 function listChanges<T extends { id: string; label: string }>(
 	noun: string,
@@ -41,16 +34,18 @@ export function enclosureChanges(before: EnclosureDef, after: EnclosureDef): str
 			out.push(`Outer ${AXIS_WORDS[i]} ${formatMm(v)} → ${formatMm(after.outerMm[i])}`);
 		}
 	});
-	for (const face of Object.keys(FACE_WORDS) as (keyof EnclosureDef['walls'])[]) {
+	for (const face of PANELS) {
 		const a = before.walls[face];
 		const b = after.walls[face];
 		if (a.thicknessMm !== b.thicknessMm) {
-			out.push(`${FACE_WORDS[face]} panel ${formatMm(a.thicknessMm)} → ${formatMm(b.thicknessMm)}`);
+			out.push(
+				`${PANEL_WORDS[face]} panel ${formatMm(a.thicknessMm)} → ${formatMm(b.thicknessMm)}`
+			);
 		}
-		if (a.kind !== b.kind) out.push(`${FACE_WORDS[face]} panel ${a.kind} → ${b.kind}`);
+		if (a.kind !== b.kind) out.push(`${PANEL_WORDS[face]} panel ${a.kind} → ${b.kind}`);
 		if (a.offsetMm !== b.offsetMm) {
 			out.push(
-				`${FACE_WORDS[face]} panel offset ${formatMm(a.offsetMm)} → ${formatMm(b.offsetMm)}`
+				`${PANEL_WORDS[face]} panel offset ${formatMm(a.offsetMm)} → ${formatMm(b.offsetMm)}`
 			);
 		}
 	}

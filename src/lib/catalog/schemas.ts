@@ -22,6 +22,16 @@ import {
 /** The enclosure's panels by name, for the wall fields. */
 export { PANELS };
 
+/** A panel's name as a label or a line begins: "Left panel thickness", "Top panel offset …". */
+export const PANEL_WORDS: Record<PanelName, string> = {
+	left: 'Left',
+	right: 'Right',
+	bottom: 'Bottom',
+	top: 'Top',
+	front: 'Front',
+	back: 'Back'
+};
+
 const CURRENCY_RULE = 'Currency must be an ISO 4217 code such as EUR, GBP or USD';
 
 /** A price typed in a form: blank, or an amount with up to two decimals. */

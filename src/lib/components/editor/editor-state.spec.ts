@@ -87,7 +87,14 @@ class FakeServer implements EditorApi {
 	}
 }
 
-function setup(opts: { version?: number; serverParts?: PartDef[] } = {}) {
+function setup(
+	opts: {
+		version?: number;
+		serverParts?: PartDef[];
+		history?: VariantSettings[];
+		readOnly?: string;
+	} = {}
+) {
 	const d = demo();
 	const server = new FakeServer(opts.version ?? 1, d.settings, opts.serverParts ?? d.parts);
 	const editor = new EditorState({
@@ -99,13 +106,23 @@ function setup(opts: { version?: number; serverParts?: PartDef[] } = {}) {
 		version: opts.version ?? 1,
 		api: server,
 		saveDelayMs: SAVE_DELAY_MS,
-		checkDelayMs: CHECK_DELAY_MS
+		checkDelayMs: CHECK_DELAY_MS,
+		history: opts.history,
+		readOnly: opts.readOnly
 	});
-	return { editor, server, initial: d.settings };
+	return { editor, server, initial: d.settings, parts: d.parts };
 }
 
 const spineAt = (e: EditorState) => e.settings.dividerPositions.spine;
 const barAt = (e: EditorState) => e.settings.bracketOffsets.bar;
+/** The bar's slider dragged through these offsets: one gesture, until it is let go. */
+const slideBar = (e: EditorState, ...offsets: number[]) =>
+	offsets.forEach((offset) => e.setControl('bracket', 'bar', offset, 'bracket:bar:slider'));
+/** One undo, and where the bar is after it. */
+function undoBar(e: EditorState) {
+	e.undo();
+	return barAt(e);
+}
 /** The card against the spine: the demo's known collision with the spine at "2 slots". */
 const cardHitsSpine = (e: EditorState) =>
 	!!e.report?.overlaps.some(
@@ -132,12 +149,9 @@ function track<T extends { editor: EditorState }>(t: T): T {
 describe('undo and redo', () => {
 	it('a slider drag across several positions is one undo step', () => {
 		const { editor } = track(setup());
-		for (const offset of [10, 20, 30, 40]) {
-			editor.setControl('bracket', 'bar', offset, 'bracket:bar:slider');
-		}
+		slideBar(editor, 10, 20, 30, 40);
 		expect(barAt(editor)).toBe(40);
-		editor.undo();
-		expect(barAt(editor)).toBe(0);
+		expect(undoBar(editor)).toBe(0);
 		expect(editor.canUndo).toBe(false);
 		editor.redo();
 		expect(barAt(editor)).toBe(40);
@@ -146,15 +160,11 @@ describe('undo and redo', () => {
 
 	it('two drags of the same slider, each let go, are two steps', () => {
 		const { editor } = track(setup());
-		editor.setControl('bracket', 'bar', 10, 'bracket:bar:slider');
-		editor.setControl('bracket', 'bar', 20, 'bracket:bar:slider');
+		slideBar(editor, 10, 20);
 		editor.endGesture();
-		editor.setControl('bracket', 'bar', 30, 'bracket:bar:slider');
-		editor.setControl('bracket', 'bar', 50, 'bracket:bar:slider');
-		editor.undo();
-		expect(barAt(editor)).toBe(20);
-		editor.undo();
-		expect(barAt(editor)).toBe(0);
+		slideBar(editor, 30, 50);
+		expect(undoBar(editor)).toBe(20);
+		expect(undoBar(editor)).toBe(0);
 	});
 
 	it('changes to different controls are separate steps, undone in reverse order', () => {
@@ -167,8 +177,7 @@ describe('undo and redo', () => {
 		editor.undo();
 		expect(spineAt(editor)).toBe(DEMO_SPINE_OFFSETS['3 slots']);
 		expect(barAt(editor)).toBe(30);
-		editor.undo();
-		expect(barAt(editor)).toBe(0);
+		expect(undoBar(editor)).toBe(0);
 	});
 
 	it('a new change after an undo drops the redo history', () => {
@@ -191,12 +200,10 @@ describe('undo and redo', () => {
 
 	it('an undo that follows a drag does not fold the next drag into it', () => {
 		const { editor } = track(setup());
-		editor.setControl('bracket', 'bar', 30, 'bracket:bar:slider');
+		slideBar(editor, 30);
 		editor.undo();
-		editor.setControl('bracket', 'bar', 60, 'bracket:bar:slider');
-		editor.setControl('bracket', 'bar', 70, 'bracket:bar:slider');
-		editor.undo();
-		expect(barAt(editor)).toBe(0);
+		slideBar(editor, 60, 70);
+		expect(undoBar(editor)).toBe(0);
 		expect(editor.canUndo).toBe(false);
 	});
 });
@@ -343,51 +350,25 @@ describe('autosave', () => {
 	});
 
 	it('undo reaches back into the saved revisions it was opened with (across a reload), and saves the state it goes back to', async () => {
-		const d = demo();
-		const earlier = { ...d.settings, marginMm: 3 };
-		const server = new FakeServer(2, d.settings, d.parts);
-		const editor = new EditorState({
-			buildId: 'b',
-			variantId: 'v',
-			enclosure: d.enclosure,
-			parts: d.parts,
-			settings: d.settings,
-			version: 2,
-			api: server,
-			saveDelayMs: SAVE_DELAY_MS,
-			checkDelayMs: CHECK_DELAY_MS,
-			history: [earlier]
-		});
+		const earlier = { ...demo().settings, marginMm: 3 };
+		const { editor, server } = track(setup({ version: 2, history: [earlier] }));
 		expect(editor.canUndo).toBe(true);
 		editor.undo();
 		expect(editor.settings.marginMm).toBe(3);
 		await vi.advanceTimersByTimeAsync(SAVE_DELAY_MS);
 		expect(server.saves.map((s) => [s.version, s.settings.marginMm])).toEqual([[2, 3]]);
-		editor.dispose();
 	});
 
 	it('a read-only editor (approved by the client) changes nothing and saves nothing', async () => {
-		const d = demo();
-		const server = new FakeServer(1, d.settings, d.parts);
-		const editor = new EditorState({
-			buildId: 'b',
-			variantId: 'v',
-			enclosure: d.enclosure,
-			parts: d.parts,
-			settings: d.settings,
-			version: 1,
-			api: server,
-			saveDelayMs: SAVE_DELAY_MS,
-			checkDelayMs: CHECK_DELAY_MS,
-			readOnly: 'Version 1 was approved.'
-		});
+		const { editor, server, initial, parts } = track(
+			setup({ readOnly: 'Version 1 was approved.' })
+		);
 		editor.nudge('pump-res', 0, 1);
 		editor.setControl('divider', 'spine', 106.32);
-		expect(editor.settings).toBe(d.settings);
-		expect(editor.addPart(d.parts[0])).toEqual({ reason: 'Read-only: Version 1 was approved.' });
+		expect(editor.settings).toBe(initial);
+		expect(editor.addPart(parts[0])).toEqual({ reason: 'Read-only: Version 1 was approved.' });
 		await vi.advanceTimersByTimeAsync(SAVE_DELAY_MS * 2);
 		expect(server.saves).toEqual([]);
-		editor.dispose();
 	});
 
 	it('saves once after a pause, with the last position of the drag, and counts the version up', async () => {

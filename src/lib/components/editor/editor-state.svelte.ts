@@ -260,22 +260,28 @@ export class EditorState {
 	}
 
 	undo() {
-		const prev = this.#undo.at(-1);
-		if (!prev || this.readOnly) return;
-		this.#undo = this.#undo.slice(0, -1);
-		this.#redo = [...this.#redo, this.settings];
-		this.#coalesceKey = null;
-		this.settings = prev;
-		this.#changed();
+		this.#step('undo');
 	}
 
 	redo() {
-		const next = this.#redo.at(-1);
-		if (!next || this.readOnly) return;
-		this.#redo = this.#redo.slice(0, -1);
-		this.#undo = [...this.#undo, this.settings];
+		this.#step('redo');
+	}
+
+	/** Undo or redo: the top of that stack becomes the scene, and the scene goes onto the other. */
+	#step(way: 'undo' | 'redo') {
+		const from = way === 'undo' ? this.#undo : this.#redo;
+		const target = from.at(-1);
+		if (!target || this.readOnly) return;
+		const rest = from.slice(0, -1);
+		if (way === 'undo') {
+			this.#undo = rest;
+			this.#redo = [...this.#redo, this.settings];
+		} else {
+			this.#redo = rest;
+			this.#undo = [...this.#undo, this.settings];
+		}
 		this.#coalesceKey = null;
-		this.settings = next;
+		this.settings = target;
 		this.#changed();
 	}
 
