@@ -5,13 +5,15 @@
  */
 import { activeStudio, type Action, type StudioAccess } from '$lib/server/access';
 
-/** A studio page's load: `studioName` and what `more` reads for the page. */
-export function studioPage<T extends object>(
+type StudioEvent = { locals: App.Locals; url: URL };
+
+/** A studio page's load: `studioName` and what `more` reads for the page (from the event too). */
+export function studioPage<T extends object, E extends StudioEvent = StudioEvent>(
 	action: Action,
-	more: (access: StudioAccess) => Promise<T>
+	more: (access: StudioAccess, event: E) => Promise<T>
 ) {
-	return async ({ locals, url }: { locals: App.Locals; url: URL }) => {
-		const access = await activeStudio(locals, action, url);
-		return { studioName: access.studioName, ...(await more(access)) };
+	return async (event: E) => {
+		const access = await activeStudio(event.locals, action, event.url);
+		return { studioName: access.studioName, ...(await more(access, event)) };
 	};
 }

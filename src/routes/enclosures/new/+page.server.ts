@@ -2,24 +2,17 @@ import { superValidate } from 'sveltekit-superforms';
 import { activeStudio } from '$lib/server/access';
 import { enclosureAdapter, saveEnclosureForm } from '$lib/server/catalog/enclosure-form';
 import { enclosureToForm } from '$lib/catalog/schemas';
-import type { EnclosureDef } from '$lib/geometry';
+import { PANELS, type EnclosureDef } from '$lib/geometry';
 import { saveAction } from '../../catalog-actions';
 import type { Actions, PageServerLoad } from './$types';
 
-/** A plain starting box: 2 mm panels, nothing inside yet. */
+/** A plain starting box: every panel 2 mm and solid, nothing inside yet. */
 function starter(): EnclosureDef {
 	const panel = { thicknessMm: 2, kind: 'solid' as const, offsetMm: 0 };
 	return {
 		name: '',
 		outerMm: [200, 320, 240],
-		walls: {
-			left: { ...panel },
-			right: { ...panel },
-			bottom: { ...panel },
-			top: { ...panel },
-			front: { ...panel },
-			back: { ...panel }
-		},
+		walls: Object.fromEntries(PANELS.map((p) => [p, { ...panel }])) as EnclosureDef['walls'],
 		dividers: [],
 		brackets: [],
 		mounts: []
