@@ -1,7 +1,7 @@
 /**
- * The pages of the studio the user works in (its lists, members, tube kinds), shared by those
- * routes: the guard (this user's role there must allow the action, else sign-in or 403) and the
- * page data that starts with the studio's name, as the page's header shows it.
+ * The pages of the studio the user works in (its lists, new items, members, tube kinds), shared
+ * by those routes: the guard (this user's role there must allow the action, else sign-in or 403)
+ * and the page data that starts with the studio's name, as the page's header shows it.
  */
 import { activeStudio, type Action, type StudioAccess } from '$lib/server/access';
 

@@ -1,9 +1,9 @@
 import { superValidate } from 'sveltekit-superforms';
-import { activeStudio } from '$lib/server/access';
 import { enclosureAdapter, saveEnclosureForm } from '$lib/server/catalog/enclosure-form';
 import { enclosureToForm } from '$lib/catalog/schemas';
 import { PANELS, type EnclosureDef } from '$lib/geometry';
 import { saveAction } from '../../catalog-actions';
+import { studioPage } from '../../studio-pages';
 import type { Actions, PageServerLoad } from './$types';
 
 /** A plain starting box: every panel 2 mm and solid, nothing inside yet. */
@@ -19,15 +19,13 @@ function starter(): EnclosureDef {
 	};
 }
 
-export const load: PageServerLoad = async ({ locals, url }) => {
-	const access = await activeStudio(locals, 'catalog.edit', url);
-	const form = await superValidate(
+export const load: PageServerLoad = studioPage('catalog.edit', async () => ({
+	form: await superValidate(
 		enclosureToForm(starter(), { revision: 0, description: '' }),
 		enclosureAdapter,
 		{ errors: false }
-	);
-	return { studioName: access.studioName, form };
-};
+	)
+}));
 
 export const actions: Actions = {
 	save: saveAction(saveEnclosureForm)
