@@ -5,10 +5,10 @@ import { archivePart, duplicatePart, listParts, restorePart } from '$lib/server/
 import { CATEGORIES } from '$lib/catalog/part-shape';
 import { partIdForm } from '$lib/catalog/schemas';
 import { readForm } from '$lib/server/forms';
+import { studioPage } from '../studio-pages';
 import type { Actions, PageServerLoad } from './$types';
 
-export const load: PageServerLoad = async ({ locals, url }) => {
-	const access = await activeStudio(locals, 'catalog.view', url);
+export const load: PageServerLoad = studioPage('catalog.view', async (access, { url }) => {
 	const query = partQueryOf(url.searchParams);
 	const page = await listParts(access.studioId, query);
 	const params = new URLSearchParams();
@@ -24,7 +24,6 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 		if (v) params.set(k, String(v));
 	}
 	return {
-		studioName: access.studioName,
 		canEdit: roleMay(access.role, 'catalog.edit'),
 		query: { ...query, sort: query.sort ?? 'name', dir: query.dir ?? 'asc' },
 		params: params.toString(),
@@ -34,7 +33,7 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 		pageSize: page.pageSize,
 		rows: page.rows.map(({ def: _def, ...row }) => row)
 	};
-};
+});
 
 /** The row's part id; a bad one shows the error page (the buttons are links in a list). */
 async function withId(request: Request) {

@@ -11,27 +11,34 @@ import {
 import { cutAllowanceForm, tubeKindForm, tubeKindIdForm } from '$lib/catalog/schemas';
 import { forForm } from '$lib/server/errors';
 import { readForm } from '$lib/server/forms';
+import { studioPage } from '../studio-pages';
 import type { Actions, PageServerLoad } from './$types';
 
-export const load: PageServerLoad = async ({ locals, url }) => {
-	const access = await activeStudio(locals, 'catalog.view', url);
+export const load: PageServerLoad = studioPage('catalog.view', async (access) => {
 	const [rows, cutAllowancePct] = await Promise.all([
 		listTubeKinds(access.studioId),
 		cutAllowanceFor(access.studioId)
 	]);
-	return {
-		studioName: access.studioName,
-		canEdit: roleMay(access.role, 'catalog.edit'),
-		rows,
-		cutAllowancePct
-	};
-};
+	return { canEdit: roleMay(access.role, 'catalog.edit'), rows, cutAllowancePct };
+});
 
 /** The row's tube kind id; a bad one shows the error page (the buttons sit in the table). */
 async function withId(request: Request) {
 	const parsed = await readForm(request, tubeKindIdForm);
 	if (!parsed.ok) error(400, `Which tube kind? ${Object.values(parsed.failure.data.errors)[0]}`);
 	return parsed.data.id;
+}
+
+/** Retire the row's tube kind (no longer offered for new runs) or bring it back. */
+function retiredAction(retired: boolean) {
+	return async ({ request, locals, url }: { request: Request; locals: App.Locals; url: URL }) => {
+		const access = await activeStudio(locals, 'catalog.edit', url);
+		const id = await withId(request);
+		return forForm(async () => {
+			await setTubeKindRetired(access.studioId, id, retired);
+			return { done: retired ? 'retired' : 'restored', id };
+		});
+	};
 }
 
 export const actions: Actions = {
@@ -56,22 +63,8 @@ export const actions: Actions = {
 			{ values: parsed.values }
 		);
 	},
-	retire: async ({ request, locals, url }) => {
-		const access = await activeStudio(locals, 'catalog.edit', url);
-		const id = await withId(request);
-		return forForm(async () => {
-			await setTubeKindRetired(access.studioId, id, true);
-			return { done: 'retired', id };
-		});
-	},
-	restore: async ({ request, locals, url }) => {
-		const access = await activeStudio(locals, 'catalog.edit', url);
-		const id = await withId(request);
-		return forForm(async () => {
-			await setTubeKindRetired(access.studioId, id, false);
-			return { done: 'restored', id };
-		});
-	},
+	retire: retiredAction(true),
+	restore: retiredAction(false),
 	allowance: async ({ request, locals, url }) => {
 		const access = await activeStudio(locals, 'catalog.edit', url);
 		const parsed = await readForm(request, cutAllowanceForm);

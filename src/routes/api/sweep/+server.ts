@@ -43,34 +43,12 @@ function positionCount(scene: Scene, c: SweepControl): number {
 export const POST: RequestHandler = jsonRoute(async (event) => {
 	const user = requireUser(event.locals);
 	await apiLimit(event, user.id);
-	const input = await readJson(event.request, body);
-	if (input.controlB) {
-		const cells =
-			positionCount(input.scene, input.control) * positionCount(input.scene, input.controlB);
-		return json(
-			await gridInPool(
-				{
-					kind: 'grid',
-					scene: input.scene,
-					controlA: input.control,
-					controlB: input.controlB,
-					gaps: input.gaps
-				},
-				cells
-			)
-		);
+	const { scene, control, controlB, positions, gaps } = await readJson(event.request, body);
+	const count = (c: SweepControl) => positionCount(scene, c);
+	if (controlB) {
+		const grid = { kind: 'grid', scene, controlA: control, controlB, gaps } as const;
+		return json(await gridInPool(grid, count(control) * count(controlB)));
 	}
-	const points = input.positions?.length ?? positionCount(input.scene, input.control);
-	return json(
-		await sweepInPool(
-			{
-				kind: 'sweep',
-				scene: input.scene,
-				control: input.control,
-				positions: input.positions,
-				gaps: input.gaps
-			},
-			points
-		)
-	);
+	const sweep = { kind: 'sweep', scene, control, positions, gaps } as const;
+	return json(await sweepInPool(sweep, positions?.length ?? count(control)));
 });

@@ -9,23 +9,19 @@ import {
 	restoreEnclosure
 } from '$lib/server/catalog/enclosures';
 import { formFor, saveEnclosureForm } from '$lib/server/catalog/enclosure-form';
-import { archivedAction, saveAction } from '../../catalog-actions';
+import { archivedAction, itemPage, saveAction } from '../../catalog-actions';
 import type { Actions, PageServerLoad } from './$types';
 
-export const load: PageServerLoad = async ({ locals, url, params }) => {
-	const access = await activeStudio(locals, 'catalog.view', url);
-	const enclosure = await getEnclosure(access.studioId, params.id);
-	if (!enclosure) error(404, 'Not found.');
+export const load: PageServerLoad = itemPage(getEnclosure, async (enclosure, _access, url) => {
 	const { current: _current, ...summary } = enclosure;
 	return {
-		studioName: access.studioName,
 		enclosure: summary,
 		saved: url.searchParams.get('saved'),
 		form: await formFor(enclosure),
 		// The current version's clearance table: the engine's, a few milliseconds.
 		room: roomTable(enclosureDefSchema.parse(enclosure.current.def))
 	};
-};
+});
 
 export const actions: Actions = {
 	save: saveAction(saveEnclosureForm),

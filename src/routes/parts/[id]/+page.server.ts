@@ -9,23 +9,17 @@ import {
 	partUseCount,
 	restorePart
 } from '$lib/server/catalog/parts';
-import { archivedAction, saveAction } from '../../catalog-actions';
+import { archivedAction, itemPage, saveAction } from '../../catalog-actions';
 import type { Actions, PageServerLoad } from './$types';
 
-export const load: PageServerLoad = async ({ locals, url, params }) => {
-	const access = await activeStudio(locals, 'catalog.view', url);
-	const part = await getPart(access.studioId, params.id);
-	if (!part) error(404, 'Not found.');
-	return {
-		studioName: access.studioName,
-		canEdit: roleMay(access.role, 'catalog.edit') && !part.isStandard,
-		part,
-		uses: part.isStandard ? 0 : await partUseCount(access.studioId, part.id),
-		saved: url.searchParams.has('saved'),
-		copied: url.searchParams.has('copied'),
-		form: await partFormFor(part)
-	};
-};
+export const load: PageServerLoad = itemPage(getPart, async (part, access, url) => ({
+	canEdit: roleMay(access.role, 'catalog.edit') && !part.isStandard,
+	part,
+	uses: part.isStandard ? 0 : await partUseCount(access.studioId, part.id),
+	saved: url.searchParams.has('saved'),
+	copied: url.searchParams.has('copied'),
+	form: await partFormFor(part)
+}));
 
 export const actions: Actions = {
 	save: saveAction(savePartForm),

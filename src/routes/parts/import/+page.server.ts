@@ -3,12 +3,12 @@ import { activeStudio } from '$lib/server/access';
 import { csvCommitForm, csvUploadForm } from '$lib/catalog/schemas';
 import { decodeCsv, importPartsCsv, MAX_CSV_BYTES } from '$lib/server/catalog/csv';
 import { readForm } from '$lib/server/forms';
+import { studioPage } from '../../studio-pages';
 import type { Actions, PageServerLoad } from './$types';
 
-export const load: PageServerLoad = async ({ locals, url }) => {
-	const access = await activeStudio(locals, 'catalog.edit', url);
-	return { studioName: access.studioName, maxMb: MAX_CSV_BYTES / 1024 / 1024 };
-};
+export const load: PageServerLoad = studioPage('catalog.edit', async () => ({
+	maxMb: MAX_CSV_BYTES / 1024 / 1024
+}));
 
 /**
  * Preview and commit both read the CSV text itself (the preview hands it back to the page), so

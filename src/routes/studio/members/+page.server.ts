@@ -16,20 +16,38 @@ import {
 	revokeInviteForm,
 	roleChangeSchema
 } from '$lib/schemas/account';
+import type { z } from 'zod';
+import { studioPage } from '../../studio-pages';
 import type { Actions, PageServerLoad } from './$types';
 
-export const load: PageServerLoad = async ({ locals, url }) => {
-	const access = await activeStudio(locals, 'studio.members', url);
-	return {
-		studioName: access.studioName,
-		me: access.user.id,
-		members: await membersOf(access.studioId),
-		invites: await pendingInvites(access.studioId)
-	};
-};
+export const load: PageServerLoad = studioPage('studio.members', async (access) => ({
+	me: access.user.id,
+	members: await membersOf(access.studioId),
+	invites: await pendingInvites(access.studioId)
+}));
 
 /** A refused rule (the last owner) is 400 on its field; no such member or invitation stays 404. */
 const ruleForm = { statusFor: { conflict: 400 } } as const;
+
+/**
+ * An owner's change to one member or invitation: the guard, the posted form, then the rule (a
+ * refusal as `ruleForm` says) and `done` once it is applied.
+ */
+function ownerAction<S extends Parameters<typeof readForm>[1], const D extends object>(
+	schema: S,
+	apply: (studioId: string, data: z.output<S>) => Promise<unknown>,
+	done: D
+) {
+	return async ({ locals, request, url }: { locals: App.Locals; request: Request; url: URL }) => {
+		const access = await activeStudio(locals, 'studio.members', url);
+		const parsed = await readForm(request, schema);
+		if (!parsed.ok) return parsed.failure;
+		return forForm(async () => {
+			await apply(access.studioId, parsed.data);
+			return done;
+		}, ruleForm);
+	};
+}
 
 export const actions: Actions = {
 	invite: async ({ locals, request, url }) => {
@@ -46,33 +64,15 @@ export const actions: Actions = {
 		});
 		return { invited: parsed.data.email };
 	},
-	role: async ({ locals, request, url }) => {
-		const access = await activeStudio(locals, 'studio.members', url);
-		const parsed = await readForm(request, roleChangeSchema);
-		if (!parsed.ok) return parsed.failure;
-		return forForm(async () => {
-			await changeRole(access.studioId, parsed.data.userId, parsed.data.role);
-			return { changed: true };
-		}, ruleForm);
-	},
-	remove: async ({ locals, request, url }) => {
-		const access = await activeStudio(locals, 'studio.members', url);
-		const parsed = await readForm(request, memberSchema);
-		if (!parsed.ok) return parsed.failure;
-		return forForm(async () => {
-			await removeMember(access.studioId, parsed.data.userId);
-			return { removed: true };
-		}, ruleForm);
-	},
-	revoke: async ({ locals, request, url }) => {
-		const access = await activeStudio(locals, 'studio.members', url);
-		const parsed = await readForm(request, revokeInviteForm);
-		if (!parsed.ok) return parsed.failure;
-		return forForm(async () => {
-			await revokeInvite(access.studioId, parsed.data.inviteId);
-			return { revoked: true };
-		}, ruleForm);
-	},
+	role: ownerAction(roleChangeSchema, (studioId, d) => changeRole(studioId, d.userId, d.role), {
+		changed: true
+	}),
+	remove: ownerAction(memberSchema, (studioId, d) => removeMember(studioId, d.userId), {
+		removed: true
+	}),
+	revoke: ownerAction(revokeInviteForm, (studioId, d) => revokeInvite(studioId, d.inviteId), {
+		revoked: true
+	}),
 	/** Any member may leave; the last owner may not. */
 	leave: async ({ locals, url }) => {
 		const access = await activeStudio(locals, 'studio.view', url);

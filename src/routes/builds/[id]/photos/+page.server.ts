@@ -1,6 +1,5 @@
 import { fail } from '@sveltejs/kit';
 import { photoCaptionForm, photoDeleteForm, photoUploadForm } from '$lib/schemas/sharing';
-import { requireBuild } from '$lib/server/access';
 import { forForm } from '$lib/server/errors';
 import { readForm } from '$lib/server/forms';
 import {
@@ -10,31 +9,23 @@ import {
 	photosOf,
 	setCaption
 } from '$lib/server/sharing/photos';
+import { buildPage, fieldsOf, guardBuild } from '../../../build-pages';
 import type { Actions, PageServerLoad } from './$types';
 
-export const load: PageServerLoad = async ({ locals, params, url }) => {
-	const { build } = await requireBuild(locals, params.id, 'build.photos', url);
-	const rows = await photosOf(build.id);
-	return {
-		build: { id: build.id, name: build.name },
+const PHOTO_FIELDS = ['id', 'caption', 'width', 'height', 'byteSize', 'createdAt'] as const;
+
+export const load: PageServerLoad = (event) =>
+	buildPage(event, 'build.photos', async (build) => ({
 		maxBytes: MAX_PHOTO_BYTES,
-		photos: rows.map((p) => ({
-			id: p.id,
-			caption: p.caption,
-			width: p.width,
-			height: p.height,
-			byteSize: p.byteSize,
-			createdAt: p.createdAt
-		}))
-	};
-};
+		photos: fieldsOf(await photosOf(build.id), PHOTO_FIELDS)
+	}));
 
 export const actions: Actions = {
 	/** The form without JavaScript; with it, the page uploads through /api/photos to show progress. */
-	upload: async ({ locals, params, url, request }) => {
-		const { build, access } = await requireBuild(locals, params.id, 'build.photos', url);
+	upload: async (event) => {
+		const { build, access } = await guardBuild(event, 'build.photos');
 		// The file goes to the service as bytes; the caption through the form schema.
-		const data = await request.formData();
+		const data = await event.request.formData();
 		const file = data.get('file');
 		const parsed = await readForm(data, photoUploadForm);
 		if (!parsed.ok) return fail(parsed.failure.status, { ...parsed.failure.data, values: {} });
@@ -59,7 +50,7 @@ export const actions: Actions = {
 		});
 	},
 	delete: async (event) => {
-		const { build } = await requireBuild(event.locals, event.params.id, 'build.photos', event.url);
+		const { build } = await guardBuild(event, 'build.photos');
 		const parsed = await readForm(event.request, photoDeleteForm);
 		if (!parsed.ok) return parsed.failure;
 		if (!(await deletePhoto(build.id, parsed.data.photoId))) {
@@ -68,7 +59,7 @@ export const actions: Actions = {
 		return { deleted: true };
 	},
 	caption: async (event) => {
-		const { build } = await requireBuild(event.locals, event.params.id, 'build.photos', event.url);
+		const { build } = await guardBuild(event, 'build.photos');
 		const parsed = await readForm(event.request, photoCaptionForm);
 		if (!parsed.ok) return parsed.failure;
 		if (!(await setCaption(build.id, parsed.data.photoId, parsed.data.caption))) {

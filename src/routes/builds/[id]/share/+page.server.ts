@@ -1,30 +1,25 @@
 import { error, fail } from '@sveltejs/kit';
 import { EXPIRY_CHOICES, revokeLinkForm, shareForm, studioCommentForm } from '$lib/schemas/sharing';
-import { requireBuild } from '$lib/server/access';
 import { readForm } from '$lib/server/forms';
 import { enforce } from '$lib/server/limits';
 import { limits } from '$lib/server/rate-limit';
 import { revokeShareLink } from '$lib/server/sharing/links';
 import { postStudioComment, shareOverview, shareVariant } from '$lib/server/sharing/studio-side';
+import { guardBuild } from '../../../build-pages';
 import type { Actions, PageServerLoad } from './$types';
 
-export const load: PageServerLoad = async ({ locals, params, url }) => {
-	const { build, access } = await requireBuild(locals, params.id, 'build.share', url);
+export const load: PageServerLoad = async (event) => {
+	const { build, access } = await guardBuild(event, 'build.share');
 	return {
 		build: { id: build.id, name: build.name, clientName: build.clientName },
 		role: access.role,
-		...(await shareOverview(build, url.searchParams.get('variant')))
+		...(await shareOverview(build, event.url.searchParams.get('variant')))
 	};
 };
 
 export const actions: Actions = {
 	create: async (event) => {
-		const { build, access } = await requireBuild(
-			event.locals,
-			event.params.id,
-			'build.share',
-			event.url
-		);
+		const { build, access } = await guardBuild(event, 'build.share');
 		const parsed = await readForm(event.request, shareForm);
 		if (!parsed.ok) return parsed.failure;
 		const input = parsed.data;
@@ -43,7 +38,7 @@ export const actions: Actions = {
 	},
 
 	revoke: async (event) => {
-		const { build } = await requireBuild(event.locals, event.params.id, 'build.share', event.url);
+		const { build } = await guardBuild(event, 'build.share');
 		const parsed = await readForm(event.request, revokeLinkForm);
 		if (!parsed.ok) return parsed.failure;
 		const ok = await revokeShareLink(build.id, parsed.data.linkId);
@@ -58,12 +53,7 @@ export const actions: Actions = {
 
 	comment: async (event) => {
 		// Written as the studio: owners and designers only (clients write on their own page).
-		const { build, access } = await requireBuild(
-			event.locals,
-			event.params.id,
-			'build.share',
-			event.url
-		);
+		const { build, access } = await guardBuild(event, 'build.share');
 		await enforce(event, 'comment', limits.comment, access.user.id);
 		const parsed = await readForm(event.request, studioCommentForm);
 		if (!parsed.ok) return parsed.failure;

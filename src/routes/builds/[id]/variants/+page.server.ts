@@ -19,22 +19,15 @@ import {
 } from '$lib/server/builds';
 import { forForm } from '$lib/server/errors';
 import { readForm } from '$lib/server/forms';
+import { buildPage, fieldsOf } from '../../../build-pages';
 import type { Actions, PageServerLoad } from './$types';
 
-export const load: PageServerLoad = async ({ locals, params, url }) => {
-	const { build } = await requireBuild(locals, params.id, 'build.edit', url);
-	const list = await variantsOf(build.id);
-	return {
-		build: { id: build.id, name: build.name },
-		variants: list.map((v) => ({
-			id: v.id,
-			name: v.name,
-			isProposal: v.isProposal,
-			version: v.version,
-			updatedAt: v.updatedAt
-		}))
-	};
-};
+const VARIANT_FIELDS = ['id', 'name', 'isProposal', 'version', 'updatedAt'] as const;
+
+export const load: PageServerLoad = (event) =>
+	buildPage(event, 'build.edit', async (build) => ({
+		variants: fieldsOf(await variantsOf(build.id), VARIANT_FIELDS)
+	}));
 
 /** Runs a variant rule; a refusal comes back as the form's failure (message on `_`), else null. */
 async function run(fn: () => Promise<unknown>) {
