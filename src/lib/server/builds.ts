@@ -36,6 +36,7 @@ import {
 } from './db/schema';
 import { engineTubeKinds, tubeKindsForStudio, type StudioTubeKind } from './loop';
 import { deleteObjects } from './storage';
+import { lockedRow } from './rows';
 import { newId } from './tokens';
 import { ServiceError, type ServiceErrorKind } from './errors';
 import { assertNotFrozen, frozenState, latestVersion, recordRevision } from './versions';
@@ -591,11 +592,11 @@ export async function deleteBuild(buildId: string): Promise<void> {
 /** Exactly one variant per build is the proposal. */
 export async function markProposal(buildId: string, variantId: string) {
 	await db.transaction(async (tx) => {
-		const [target] = await tx
-			.select()
-			.from(variants)
-			.where(and(eq(variants.id, variantId), eq(variants.buildId, buildId)))
-			.for('update');
+		const target = await lockedRow(
+			tx,
+			variants,
+			and(eq(variants.id, variantId), eq(variants.buildId, buildId))
+		);
 		if (!target) throw noSuchVariant();
 		await tx.update(variants).set({ isProposal: false }).where(eq(variants.buildId, buildId));
 		await tx.update(variants).set({ isProposal: true }).where(eq(variants.id, variantId));

@@ -15,6 +15,7 @@ import {
 	type EnclosureRow,
 	type EnclosureVersionRow
 } from '../db/schema';
+import { lockedRow } from '../rows';
 import { newId } from '../tokens';
 import type { WriteResult } from './parts';
 
@@ -207,11 +208,11 @@ export async function updateEnclosure(
 		return { ok: false, status: 400, issues: checked.issues };
 	}
 	return db.transaction(async (tx) => {
-		const [row] = await tx
-			.select()
-			.from(enclosures)
-			.where(and(eq(enclosures.id, id), eq(enclosures.studioId, studioId)))
-			.for('update');
+		const row = await lockedRow(
+			tx,
+			enclosures,
+			and(eq(enclosures.id, id), eq(enclosures.studioId, studioId))
+		);
 		if (!row) {
 			return { ok: false, status: 404 } as const;
 		}
