@@ -36,6 +36,7 @@ import {
 } from './db/schema';
 import { engineTubeKinds, tubeKindsForStudio, type StudioTubeKind } from './loop';
 import { deleteObjects } from './storage';
+import { lockedRow } from './rows';
 import { newId } from './tokens';
 import { ServiceError, type ServiceErrorKind } from './errors';
 import { assertNotFrozen, frozenState, latestVersion, recordRevision } from './versions';
@@ -46,6 +47,11 @@ import { copyName } from '$lib/words/builds';
 export class SceneRejected extends ServiceError {
 	constructor(issues: FieldIssue[], kind: ServiceErrorKind = 'invalid') {
 		super(kind, issues.map((i) => `${i.path || 'scene'}: ${i.message}`).join('; '), { issues });
+	}
+
+	/** Refused for one reason, about one field. */
+	static about(path: string, message: string, kind: ServiceErrorKind) {
+		return new SceneRejected([{ path, message }], kind);
 	}
 }
 
@@ -139,10 +145,7 @@ export async function createBuild(input: {
 		.from(enclosures)
 		.where(and(eq(enclosures.id, input.enclosureId), eq(enclosures.studioId, input.studioId)));
 	if (!enc) {
-		throw new SceneRejected(
-			[{ path: 'enclosureId', message: 'No such enclosure in this studio.' }],
-			'not-found'
-		);
+		throw SceneRejected.about('enclosureId', 'No such enclosure in this studio.', 'not-found');
 	}
 	const [version] = await db
 		.select()
@@ -358,18 +361,13 @@ export async function saveVariantSettings(input: {
 	}
 	const enc = await enclosureVersionDef(input.enclosureVersionId);
 	if (!enc) {
-		throw new SceneRejected(
-			[{ path: 'enclosure', message: 'The build’s enclosure version is missing.' }],
-			'conflict'
-		);
+		throw SceneRejected.about('enclosure', 'The build’s enclosure version is missing.', 'conflict');
 	}
 	const scene = validateScene(enc.definition, defs, settings, engineTubeKinds(tubes));
 	// A stored variant is checked on every later load of the editor, sheet and client page, so
 	// one over the cost limits is refused here rather than stored.
 	const excess = checkExcess(scene, 'settings.placements');
-	if (excess) {
-		throw new SceneRejected([{ path: excess.path, message: excess.message }], 'over-limit');
-	}
+	if (excess) throw SceneRejected.about(excess.path, excess.message, 'over-limit');
 	return db.transaction(async (tx) => {
 		// The row lock orders this save after an approval being written, so the freeze is seen.
 		const [locked] = await tx
@@ -404,10 +402,7 @@ export async function saveVariantSettings(input: {
 			.from(variants)
 			.where(and(eq(variants.id, input.variantId), eq(variants.buildId, input.buildId)));
 		if (!current) {
-			throw new SceneRejected(
-				[{ path: 'variantId', message: 'No such variant in this build.' }],
-				'not-found'
-			);
+			throw SceneRejected.about('variantId', 'No such variant in this build.', 'not-found');
 		}
 		return {
 			ok: false as const,
@@ -591,11 +586,11 @@ export async function deleteBuild(buildId: string): Promise<void> {
 /** Exactly one variant per build is the proposal. */
 export async function markProposal(buildId: string, variantId: string) {
 	await db.transaction(async (tx) => {
-		const [target] = await tx
-			.select()
-			.from(variants)
-			.where(and(eq(variants.id, variantId), eq(variants.buildId, buildId)))
-			.for('update');
+		const target = await lockedRow(
+			tx,
+			variants,
+			and(eq(variants.id, variantId), eq(variants.buildId, buildId))
+		);
 		if (!target) throw noSuchVariant();
 		await tx.update(variants).set({ isProposal: false }).where(eq(variants.buildId, buildId));
 		await tx.update(variants).set({ isProposal: true }).where(eq(variants.id, variantId));

@@ -13,6 +13,27 @@ const env = (name: string, fallback: string) => {
 	return value === undefined || value === '' ? fallback : value;
 };
 
+/** A setting: its variable, the value when it is unset or empty, and how to read the text. */
+type Setting = readonly [name: string, fallback: string, parse?: (value: string) => unknown];
+type SettingValue<S> = S extends readonly [string, string, (value: string) => infer V] ? V : string;
+
+/**
+ * An object with one read-only property per setting, read from the environment each time it is
+ * read (a test or script that sets a variable later sees the new value).
+ */
+function settings<T extends Record<string, Setting>>(
+	table: T
+): { readonly [K in keyof T]: SettingValue<T[K]> } {
+	const out = {};
+	for (const [key, [name, fallback, parse]] of Object.entries(table)) {
+		Object.defineProperty(out, key, {
+			enumerable: true,
+			get: () => (parse ? parse(env(name, fallback)) : env(name, fallback))
+		});
+	}
+	return out as { readonly [K in keyof T]: SettingValue<T[K]> };
+}
+
 export const config = {
 	get databaseUrl() {
 		if (process.env.DATABASE_URL) return process.env.DATABASE_URL;
@@ -29,23 +50,13 @@ export const config = {
 	get production() {
 		return process.env.NODE_ENV === 'production';
 	},
-	smtp: {
-		get host() {
-			return env('SMTP_HOST', '127.0.0.1');
-		},
-		get port() {
-			return Number(env('SMTP_PORT', '2525'));
-		},
-		get user() {
-			return env('SMTP_USER', '');
-		},
-		get pass() {
-			return env('SMTP_PASS', '');
-		},
-		get from() {
-			return env('MAIL_FROM', 'Interstice <no-reply@interstice.test>');
-		}
-	},
+	smtp: settings({
+		host: ['SMTP_HOST', '127.0.0.1'],
+		port: ['SMTP_PORT', '2525', Number],
+		user: ['SMTP_USER', ''],
+		pass: ['SMTP_PASS', ''],
+		from: ['MAIL_FROM', 'Interstice <no-reply@interstice.test>']
+	}),
 	/** MAIL_DISABLED=1: no mail is sent (each one is logged instead); for a deployment without mail. */
 	get mailDisabled() {
 		return process.env.MAIL_DISABLED === '1';
@@ -61,23 +72,13 @@ export const config = {
 		if (this.production) return false;
 		return env('INTERSTICE_DEV_TOOLS', process.env.NODE_ENV === 'development' ? '1' : '0') === '1';
 	},
-	payments: {
-		get secretKey() {
-			return env('PAYMENTS_SECRET_KEY', BUILT_IN.secretKey);
-		},
-		get webhookSecret() {
-			return env('PAYMENTS_WEBHOOK_SECRET', BUILT_IN.webhookSecret);
-		},
-		get host() {
-			return env('PAYMENTS_API_HOST', '127.0.0.1');
-		},
-		get port() {
-			return Number(env('PAYMENTS_API_PORT', '12111'));
-		},
-		get protocol() {
-			return env('PAYMENTS_API_PROTOCOL', 'http') as 'http' | 'https';
-		}
-	},
+	payments: settings({
+		secretKey: ['PAYMENTS_SECRET_KEY', BUILT_IN.secretKey],
+		webhookSecret: ['PAYMENTS_WEBHOOK_SECRET', BUILT_IN.webhookSecret],
+		host: ['PAYMENTS_API_HOST', '127.0.0.1'],
+		port: ['PAYMENTS_API_PORT', '12111', Number],
+		protocol: ['PAYMENTS_API_PROTOCOL', 'http', (v) => v as 'http' | 'https']
+	}),
 	get storageDir() {
 		return env('STORAGE_DIR', '.data/storage');
 	},
@@ -85,34 +86,25 @@ export const config = {
 	 * Where photo files live: 'disk' (STORAGE_DIR on this machine) or 's3' (an S3-compatible
 	 * bucket, the same settings a hosted provider takes; several app processes or machines share it).
 	 */
-	storage: {
-		get driver() {
-			const d = env('STORAGE_DRIVER', 'disk');
-			if (d !== 'disk' && d !== 's3') {
-				throw new Error(`STORAGE_DRIVER must be "disk" or "s3", not "${d}".`);
+	storage: settings({
+		driver: [
+			'STORAGE_DRIVER',
+			'disk',
+			(d): 'disk' | 's3' => {
+				if (d !== 'disk' && d !== 's3') {
+					throw new Error(`STORAGE_DRIVER must be "disk" or "s3", not "${d}".`);
+				}
+				return d;
 			}
-			return d as 'disk' | 's3';
-		},
-		get endpoint() {
-			return env('S3_ENDPOINT', 'http://127.0.0.1:4569');
-		},
-		get bucket() {
-			return env('S3_BUCKET', 'interstice-photos');
-		},
-		get region() {
-			return env('S3_REGION', 'us-east-1');
-		},
-		get accessKeyId() {
-			return env('S3_ACCESS_KEY_ID', 'S3RVER');
-		},
-		get secretAccessKey() {
-			return env('S3_SECRET_ACCESS_KEY', 'S3RVER');
-		},
+		],
+		endpoint: ['S3_ENDPOINT', 'http://127.0.0.1:4569'],
+		bucket: ['S3_BUCKET', 'interstice-photos'],
+		region: ['S3_REGION', 'us-east-1'],
+		accessKeyId: ['S3_ACCESS_KEY_ID', 'S3RVER'],
+		secretAccessKey: ['S3_SECRET_ACCESS_KEY', 'S3RVER'],
 		/** Bucket in the path (http://host/bucket/key), as local and most self-hosted stores want. */
-		get forcePathStyle() {
-			return env('S3_FORCE_PATH_STYLE', '1') !== '0';
-		}
-	}
+		forcePathStyle: ['S3_FORCE_PATH_STYLE', '1', (v) => v !== '0']
+	})
 };
 
 const isSet = (name: string) => (process.env[name] ?? '').trim() !== '';

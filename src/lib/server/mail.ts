@@ -31,3 +31,17 @@ export async function sendMail(mail: Mail) {
 export function link(path: string) {
 	return new URL(path, config.origin).toString();
 }
+
+/**
+ * Runs `send` (one or more mails) where a mail failure must not undo what was done: the failure is
+ * logged as `mail: <failure>` and reported as false, never thrown.
+ */
+export async function sendOrLog(failure: string, send: () => Promise<unknown>): Promise<boolean> {
+	try {
+		await send();
+		return true;
+	} catch (e) {
+		console.error(`mail: ${failure}`, e);
+		return false;
+	}
+}

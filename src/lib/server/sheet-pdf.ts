@@ -114,12 +114,17 @@ class Writer {
 		this.need(16);
 		this.yMm += 3;
 		this.text(text, { size: 12, font: this.fonts.bold, gapAfter: 0.6 });
+		this.rule(0.45, INK.dividerFill);
+		this.yMm += 2.5;
+	}
+
+	/** A line across the column at the current height, `weightPt` points thick. */
+	rule(weightPt: number, color: string) {
 		this.doc
 			.moveTo(mmToPt(this.left), this.doc.y)
 			.lineTo(mmToPt(this.left + this.width), this.doc.y)
-			.lineWidth(0.45 * PT)
-			.stroke(INK.dividerFill);
-		this.yMm += 2.5;
+			.lineWidth(weightPt * PT)
+			.stroke(color);
 	}
 
 	/** A status swatch with its pattern and word, then the text beside it. */
@@ -212,11 +217,7 @@ function headingBlock(w: Writer, data: SheetData) {
 		`${data.generatedAt.toLocaleDateString('en-GB', { day: 'numeric', month: 'long', year: 'numeric', timeZone: 'UTC' })} · ${PAPER[data.paper].label}`,
 		{ size: 8.5, color: INK.muted, gapAfter: 1.5 }
 	);
-	w.doc
-		.moveTo(mmToPt(w.left), w.doc.y)
-		.lineTo(mmToPt(w.left + w.width), w.doc.y)
-		.lineWidth(0.9 * PT)
-		.stroke(INK.text);
+	w.rule(0.9, INK.text);
 	w.yMm += 2;
 }
 

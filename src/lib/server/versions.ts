@@ -23,6 +23,7 @@ import {
 	type VariantRow,
 	type VariantVersionRow
 } from './db/schema';
+import { newestRow } from './rows';
 import { newId } from './tokens';
 import { ServiceError, type ServiceErrorKind } from './errors';
 
@@ -34,13 +35,8 @@ export async function latestVersion(
 	variantId: string,
 	run: Run = db
 ): Promise<VariantVersionRow | null> {
-	const [row] = await run
-		.select()
-		.from(variantVersions)
-		.where(eq(variantVersions.variantId, variantId))
-		.orderBy(desc(variantVersions.number))
-		.limit(1);
-	return row ?? null;
+	const ofVariant = eq(variantVersions.variantId, variantId);
+	return newestRow(variantVersions, ofVariant, variantVersions.number, run);
 }
 
 export async function versionsOf(variantId: string, run: Run = db): Promise<VariantVersionRow[]> {
@@ -131,12 +127,12 @@ const day = (d: Date) =>
 
 /** Whether a variant is frozen by an approval (and a paid deposit), with the sentence that says so. */
 export async function frozenState(variantId: string, run: Run = db): Promise<FrozenState> {
-	const [approval] = await run
-		.select()
-		.from(approvals)
-		.where(eq(approvals.variantId, variantId))
-		.orderBy(desc(approvals.createdAt))
-		.limit(1);
+	const approval = await newestRow(
+		approvals,
+		eq(approvals.variantId, variantId),
+		approvals.createdAt,
+		run
+	);
 	if (!approval) return { frozen: false };
 	const [reopened] = await run
 		.select({ id: comments.id })

@@ -15,7 +15,9 @@ import {
 	type EnclosureRow,
 	type EnclosureVersionRow
 } from '../db/schema';
+import { lockedRow } from '../rows';
 import { newId } from '../tokens';
+import { archiving } from './archive';
 import type { WriteResult } from './parts';
 
 export type EnclosureSummary = {
@@ -207,11 +209,11 @@ export async function updateEnclosure(
 		return { ok: false, status: 400, issues: checked.issues };
 	}
 	return db.transaction(async (tx) => {
-		const [row] = await tx
-			.select()
-			.from(enclosures)
-			.where(and(eq(enclosures.id, id), eq(enclosures.studioId, studioId)))
-			.for('update');
+		const row = await lockedRow(
+			tx,
+			enclosures,
+			and(eq(enclosures.id, id), eq(enclosures.studioId, studioId))
+		);
 		if (!row) {
 			return { ok: false, status: 404 } as const;
 		}
@@ -275,28 +277,11 @@ export async function updateEnclosure(
 	});
 }
 
-async function setArchived(
-	studioId: string,
-	id: string,
-	archived: boolean
-): Promise<EnclosureSummary | null> {
-	return db.transaction(async (tx) => {
-		const [row] = await tx
-			.update(enclosures)
-			.set({
-				archivedAt: archived ? new Date() : null,
-				revision: sql`${enclosures.revision} + 1`,
-				updatedAt: new Date()
-			})
-			.where(and(eq(enclosures.id, id), eq(enclosures.studioId, studioId)))
-			.returning();
-		return row ? toSummary(row) : null;
-	});
-}
-
 /** Archived enclosures leave the list; builds pinned to their versions keep them. Never deleted. */
-export const archiveEnclosure = (studioId: string, id: string) => setArchived(studioId, id, true);
-export const restoreEnclosure = (studioId: string, id: string) => setArchived(studioId, id, false);
+export const { archive: archiveEnclosure, restore: restoreEnclosure } = archiving(
+	enclosures,
+	toSummary
+);
 
 export async function duplicateEnclosure(
 	studioId: string,

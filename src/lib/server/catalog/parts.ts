@@ -10,6 +10,7 @@ import { checkPart, type PartExtras } from '$lib/catalog/schemas';
 import { db, type Tx } from '../db';
 import { builds, parts, variants, type PartRow } from '../db/schema';
 import { newId } from '../tokens';
+import { archiving } from './archive';
 
 export type PartRecord = {
 	id: string;
@@ -167,28 +168,8 @@ export async function updatePart(
 	return run ? work(run) : db.transaction(work);
 }
 
-async function setArchived(
-	studioId: string,
-	id: string,
-	archived: boolean
-): Promise<PartRecord | null> {
-	return db.transaction(async (tx) => {
-		const [row] = await tx
-			.update(parts)
-			.set({
-				archivedAt: archived ? new Date() : null,
-				revision: sql`${parts.revision} + 1`,
-				updatedAt: new Date()
-			})
-			.where(and(eq(parts.id, id), eq(parts.studioId, studioId)))
-			.returning();
-		return row ? toPartRecord(row) : null;
-	});
-}
-
 /** Archived parts leave search and the table's default view; builds that place them keep them. */
-export const archivePart = (studioId: string, id: string) => setArchived(studioId, id, true);
-export const restorePart = (studioId: string, id: string) => setArchived(studioId, id, false);
+export const { archive: archivePart, restore: restorePart } = archiving(parts, toPartRecord);
 
 /** How many variants of the studio's builds place this part (anywhere in their saved scene). */
 export async function partUseCount(

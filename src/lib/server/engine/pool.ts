@@ -156,24 +156,37 @@ export async function checkInPool(scene: Scene, prefix = ''): Promise<FitReport>
 	return valueOf<FitReport>(await run({ kind: 'check', scene }), prefix);
 }
 
+/**
+ * Refuses a sweep or grid task over the limits: the scene's own check limits first, then the sweep's
+ * (a limit on the scene's boxes or pairs is reported at `prefix`, the others at the request).
+ */
+function refuseSweepOverLimits(
+	task: Extract<EngineTask, { kind: 'sweep' | 'grid' }>,
+	points: number,
+	path: string,
+	prefix: string
+) {
+	const excess =
+		checkExcess(task.scene) ??
+		sweepExcess({
+			boxes: sceneBoxCount(task.scene),
+			points,
+			grid: task.kind === 'grid',
+			path,
+			rowsPerPoint: rowsPerPoint(task)
+		});
+	if (excess) {
+		refuseCost(excess, excess.limit === 'boxes' || excess.limit === 'candidatePairs' ? prefix : '');
+	}
+}
+
 /** A sweep of one control over `points` positions, refused over the limits, else in a worker. */
 export async function sweepInPool(
 	task: Extract<EngineTask, { kind: 'sweep' }>,
 	points: number,
 	prefix = 'scene'
 ): Promise<SweepResult> {
-	const excess =
-		checkExcess(task.scene) ??
-		sweepExcess({
-			boxes: sceneBoxCount(task.scene),
-			points,
-			grid: false,
-			path: task.positions ? 'positions' : 'control',
-			rowsPerPoint: rowsPerPoint(task)
-		});
-	if (excess) {
-		refuseCost(excess, excess.limit === 'boxes' || excess.limit === 'candidatePairs' ? prefix : '');
-	}
+	refuseSweepOverLimits(task, points, task.positions ? 'positions' : 'control', prefix);
 	return valueOf<SweepResult>(await run(task), '');
 }
 
@@ -183,18 +196,7 @@ export async function gridInPool(
 	cells: number,
 	prefix = 'scene'
 ): Promise<SweepGridResult> {
-	const excess =
-		checkExcess(task.scene) ??
-		sweepExcess({
-			boxes: sceneBoxCount(task.scene),
-			points: cells,
-			grid: true,
-			path: 'controlB',
-			rowsPerPoint: rowsPerPoint(task)
-		});
-	if (excess) {
-		refuseCost(excess, excess.limit === 'boxes' || excess.limit === 'candidatePairs' ? prefix : '');
-	}
+	refuseSweepOverLimits(task, cells, 'controlB', prefix);
 	return valueOf<SweepGridResult>(await run(task), '');
 }
 

@@ -10,7 +10,7 @@ import type { BuildRow, VariantRow } from '../db/schema';
 import { forPage, ServiceError } from '../errors';
 import { readForm } from '../forms';
 import { enforce } from '../limits';
-import { link } from '../mail';
+import { link, sendOrLog } from '../mail';
 import { startCheckout } from '../payments';
 import { limits } from '../rate-limit';
 import { notifyDepositPaid, notifyStudio } from './notify';
@@ -80,11 +80,7 @@ async function limitComments(event: RequestEvent, actor: ClientActor) {
 }
 
 async function safeNotify(input: Parameters<typeof notifyStudio>[0]) {
-	try {
-		await notifyStudio(input);
-	} catch (e) {
-		console.error('mail: could not tell the studio', e);
-	}
+	await sendOrLog('could not tell the studio', () => notifyStudio(input));
 }
 
 export async function commentAction(event: RequestEvent, actor: ClientActor) {

@@ -2,8 +2,8 @@
 import { and, eq, inArray } from 'drizzle-orm';
 import { db } from '../db';
 import { formatMoney } from '$lib/quotes/money';
-import { builds, memberships, shareLinks, users } from '../db/schema';
-import { link, sendMail } from '../mail';
+import { builds, memberships, shareLinks, users, type BuildRow } from '../db/schema';
+import { link, sendMail, sendOrLog } from '../mail';
 
 /**
  * Who hears about a client's action: the designer who sent the link, else whoever made the build,
@@ -78,6 +78,23 @@ async function linkCreator(linkId: string | null): Promise<string | null> {
 	return l?.createdBy ?? null;
 }
 
+/**
+ * Tells the studio about a payment for one of its builds (`what` names it in the log when the mail
+ * fails; a mail failure is logged only).
+ */
+async function notifyPayment(
+	payment: { buildId: string; payerShareLinkId: string | null },
+	what: string,
+	message: (build: BuildRow) => { subject: string; lines: string[] }
+) {
+	const [build] = await db.select().from(builds).where(eq(builds.id, payment.buildId));
+	if (!build) return;
+	const linkCreatedBy = await linkCreator(payment.payerShareLinkId);
+	await sendOrLog(`could not tell the studio about ${what}`, () =>
+		notifyStudio({ buildId: build.id, linkCreatedBy, ...message(build) })
+	);
+}
+
 /** The studio hears once per deposit: called only by whichever path actually marked it paid. */
 export async function notifyDepositPaid(payment: {
 	buildId: string;
@@ -86,21 +103,12 @@ export async function notifyDepositPaid(payment: {
 	paidAt: Date | null;
 	payerShareLinkId: string | null;
 }) {
-	const [build] = await db.select().from(builds).where(eq(builds.id, payment.buildId));
-	if (!build) return;
-	const linkCreatedBy = await linkCreator(payment.payerShareLinkId);
-	try {
-		await notifyStudio({
-			buildId: build.id,
-			linkCreatedBy,
-			subject: `Deposit paid: ${build.name}`,
-			lines: [
-				`The client paid the deposit of ${formatMoney(payment.amountMinor, payment.currency)} for ${build.name}${payment.paidAt ? ` on ${payment.paidAt.toISOString().replace('T', ' ').slice(0, 16)} UTC` : ''}.`
-			]
-		});
-	} catch (e) {
-		console.error('mail: could not tell the studio about a deposit', e);
-	}
+	await notifyPayment(payment, 'a deposit', (build) => ({
+		subject: `Deposit paid: ${build.name}`,
+		lines: [
+			`The client paid the deposit of ${formatMoney(payment.amountMinor, payment.currency)} for ${build.name}${payment.paidAt ? ` on ${payment.paidAt.toISOString().replace('T', ' ').slice(0, 16)} UTC` : ''}.`
+		]
+	}));
 }
 
 /**
@@ -117,23 +125,14 @@ export async function notifyPaidTwice(
 	},
 	refunded: boolean
 ) {
-	const [build] = await db.select().from(builds).where(eq(builds.id, payment.buildId));
-	if (!build) return;
-	const linkCreatedBy = await linkCreator(payment.payerShareLinkId);
 	const amount = formatMoney(payment.amountMinor, payment.currency);
-	try {
-		await notifyStudio({
-			buildId: build.id,
-			linkCreatedBy,
-			subject: `Paid twice: ${build.name}`,
-			lines: [
-				`A second payment of ${amount} came in for the deposit of ${build.name}, which was already paid. It is not counted.`,
-				refunded
-					? 'It was refunded through the payment service; the client needs to do nothing.'
-					: `The automatic refund failed: refund it with the payment service. The quote shows it: ${link(`/builds/${build.id}/quote/${payment.variantId}`)}`
-			]
-		});
-	} catch (e) {
-		console.error('mail: could not tell the studio about a second payment', e);
-	}
+	await notifyPayment(payment, 'a second payment', (build) => ({
+		subject: `Paid twice: ${build.name}`,
+		lines: [
+			`A second payment of ${amount} came in for the deposit of ${build.name}, which was already paid. It is not counted.`,
+			refunded
+				? 'It was refunded through the payment service; the client needs to do nothing.'
+				: `The automatic refund failed: refund it with the payment service. The quote shows it: ${link(`/builds/${build.id}/quote/${payment.variantId}`)}`
+		]
+	}));
 }

@@ -3,12 +3,13 @@
  * browser's claim). Each upload is re-encoded without its metadata (a phone photo carries the
  * place it was taken) and turned upright, plus a small WebP thumbnail.
  */
-import { and, asc, eq } from 'drizzle-orm';
+import { and, eq } from 'drizzle-orm';
 import { fileTypeFromBuffer } from 'file-type';
 import sharp from 'sharp';
 import { db } from '../db';
 import { photos, type PhotoRow } from '../db/schema';
 import { deleteObject, newKey, putObject, readObject, type StoredExt } from '../storage';
+import { oldestFirst } from '../rows';
 import { newId } from '../tokens';
 import { ServiceError, type ServiceErrorKind } from '../errors';
 
@@ -137,11 +138,7 @@ export async function addPhoto(input: {
 }
 
 export async function photosOf(buildId: string): Promise<PhotoRow[]> {
-	return db
-		.select()
-		.from(photos)
-		.where(eq(photos.buildId, buildId))
-		.orderBy(asc(photos.createdAt), asc(photos.id));
+	return oldestFirst(photos, eq(photos.buildId, buildId));
 }
 
 export async function deletePhoto(buildId: string, photoId: string): Promise<boolean> {

@@ -9,6 +9,7 @@ import type { BuildRow } from '../db/schema';
 import { loadVariant, variantsOf } from '../builds';
 import { db } from '../db';
 import { memberships, shareLinks, users } from '../db/schema';
+import { sendOrLog } from '../mail';
 import { ensureVersion } from '../versions';
 import { createShareLink, linksOfBuild, sendShareMail, shareUrl } from './links';
 import { linkIsActive } from './link-state';
@@ -120,20 +121,20 @@ export async function shareVariant(
 	let mailed = false;
 	let mailError = '';
 	if (input.send && input.recipientEmail) {
-		try {
-			await sendShareMail({
+		const to = input.recipientEmail;
+		mailed = await sendOrLog('share link not sent', () =>
+			sendShareMail({
 				linkId: link.id,
 				token,
-				to: input.recipientEmail,
+				to,
 				recipientName: input.recipientName,
 				senderName: by.name,
 				studioName,
 				buildName: build.name,
 				message: input.message
-			});
-			mailed = true;
-		} catch (e) {
-			console.error('mail: share link not sent', e);
+			})
+		);
+		if (!mailed) {
 			mailError =
 				'The link was made, but the e-mail could not be sent. Copy the link and send it yourself.';
 		}
@@ -187,17 +188,10 @@ export async function postStudioComment(
 		.where(and(eq(shareLinks.variantId, variant.id), linkIsActive()));
 	for (const r of recipients) {
 		if (!r.email) continue;
-		try {
-			await notifyClient({
-				to: r.email,
-				studioName,
-				buildName: build.name,
-				authorName: by.name,
-				body: input.body
-			});
-		} catch (e) {
-			console.error('mail: reply notice not sent', e);
-		}
+		const to = r.email;
+		await sendOrLog('reply notice not sent', () =>
+			notifyClient({ to, studioName, buildName: build.name, authorName: by.name, body: input.body })
+		);
 	}
 	return 'posted';
 }

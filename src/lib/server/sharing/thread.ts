@@ -3,10 +3,11 @@
  * and from the editor; an approval or a change request is a comment of its own kind, so the
  * thread tells the whole story in order.
  */
-import { and, asc, desc, eq, gt, sql } from 'drizzle-orm';
+import { and, eq, gt, sql } from 'drizzle-orm';
 import type { Scene } from '$lib/geometry';
 import { db } from '../db';
 import { approvals, comments, variants, type ApprovalRow, type CommentRow } from '../db/schema';
+import { newestRow, oldestFirst } from '../rows';
 import { newId } from '../tokens';
 import { canonicalJson, ensureVersion, recordRevision } from '../versions';
 import type { ApprovalState } from '$lib/sharing/types';
@@ -152,21 +153,11 @@ export async function requestChanges(
 }
 
 export async function threadOf(variantId: string): Promise<CommentRow[]> {
-	return db
-		.select()
-		.from(comments)
-		.where(eq(comments.variantId, variantId))
-		.orderBy(asc(comments.createdAt), asc(comments.id));
+	return oldestFirst(comments, eq(comments.variantId, variantId));
 }
 
 export async function latestApproval(variantId: string): Promise<ApprovalRow | null> {
-	const [row] = await db
-		.select()
-		.from(approvals)
-		.where(eq(approvals.variantId, variantId))
-		.orderBy(desc(approvals.variantVersion))
-		.limit(1);
-	return row ?? null;
+	return newestRow(approvals, eq(approvals.variantId, variantId), approvals.variantVersion);
 }
 
 /** `currentVersion` is the variant's latest version number (what the client sees now). */
