@@ -2,7 +2,6 @@
  * The enclosure editor's form actions: superforms validates the flat fields, the engine's schema
  * validates the whole definition, and its issues land on the field they are about.
  */
-import { fail } from '@sveltejs/kit';
 import { setError, superValidate, type SuperValidated } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import type { FieldIssue } from '$lib/geometry';
@@ -13,9 +12,8 @@ import {
 	formToEnclosure,
 	type EnclosureForm
 } from '$lib/catalog/schemas';
-import { INT4_MAX } from '$lib/schemas/common';
 import type { StudioAccess } from '../access';
-import { controlCharField } from '../boundary';
+import { placeOnFields, readEditorForm, refusal, revisionToSave } from './editor-form';
 import { createEnclosure, updateEnclosure, type EnclosureDetail } from './enclosures';
 
 export const enclosureAdapter = zod4(enclosureFormSchema);
@@ -39,46 +37,24 @@ export function formFor(detail: EnclosureDetail) {
 
 type Form = SuperValidated<EnclosureForm>;
 
-/** Every failure has one shape, so the page reads `form.featureIssues` and `form.conflict` alike. */
-function refuse(
-	status: number,
-	form: Form,
-	featureIssues: FieldIssue[] = [],
-	conflict: EnclosureConflict | null = null
-) {
-	return fail(status, { form, featureIssues, conflict });
-}
+const refuse = refusal<Form, EnclosureConflict, 'featureIssues'>('featureIssues');
 
 function placeIssues(form: Form, issues: FieldIssue[]) {
-	const features: FieldIssue[] = [];
-	for (const issue of issues) {
-		const field = formFieldFor(issue.path) as keyof EnclosureForm;
-		if (field === 'features') features.push(issue);
-		else setError(form, field, issue.message);
-	}
-	if (features.length) {
-		setError(
-			form,
-			'features',
-			`${features.length} problem${features.length === 1 ? '' : 's'} with dividers, brackets or mounts`
-		);
-	}
+	const features = placeOnFields(form, issues, {
+		field: 'features',
+		what: 'dividers, brackets or mounts',
+		fieldOf: (path) => {
+			const field = formFieldFor(path);
+			return field === 'features' ? null : field;
+		}
+	});
 	return refuse(400, form, features);
 }
 
 /** Creates (no id) or saves (id) from a posted form: `{saved}` names the editor to go to, else a failure. */
 export async function saveEnclosureForm(request: Request, access: StudioAccess, id?: string) {
-	const data = await request.formData();
-	const overwrite = Number(data.get('overwriteRevision'));
-	const form = await superValidate(data, enclosureAdapter);
-	const bad = controlCharField(data);
-	if (bad) {
-		if (bad in form.data) {
-			setError(form, bad as keyof EnclosureForm, 'Contains control characters.');
-		} else setError(form, '', `${bad} contains control characters.`);
-		return refuse(400, form);
-	}
-	if (!form.valid) return refuse(400, form);
+	const { form, overwrite, ok } = await readEditorForm(request, enclosureAdapter);
+	if (!ok) return refuse(400, form);
 	const { raw, featuresError } = formToEnclosure(form.data);
 	if (featuresError) {
 		setError(form, 'features', featuresError);
@@ -92,11 +68,7 @@ export async function saveEnclosureForm(request: Request, access: StudioAccess, 
 		}
 		return { saved: `/enclosures/${made.value.id}?saved=1` };
 	}
-	// "Save mine over theirs" after a conflict names the newer revision the user has now seen.
-	const revision =
-		Number.isInteger(overwrite) && overwrite > 0 && overwrite <= INT4_MAX
-			? overwrite
-			: form.data.revision;
+	const revision = revisionToSave(overwrite, form.data.revision);
 	const saved = await updateEnclosure(access.studioId, id, revision, access.user.id, input);
 	if (saved.ok) return { saved: `/enclosures/${id}?saved=${saved.created ? 'version' : '1'}` };
 	if (saved.status === 400) return placeIssues(form, saved.issues);
