@@ -706,6 +706,13 @@ export function formatPath(path: readonly PropertyKey[]): string {
 	return out;
 }
 
+/** The first issue's message at `path` or inside it (`mounts[2]` takes `mounts[2].region`). */
+export function issueAt(issues: readonly FieldIssue[], path: string): string | undefined {
+	return issues.find(
+		(i) => i.path === path || i.path.startsWith(path + '.') || i.path.startsWith(path + '[')
+	)?.message;
+}
+
 /** Flat list of a zod error's issues with dotted paths, for 400 answers and form fields. */
 export function formatZodIssues(error: z.ZodError): FieldIssue[] {
 	return error.issues.map((issue) => ({ path: formatPath(issue.path), message: issue.message }));
