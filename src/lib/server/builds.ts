@@ -37,6 +37,7 @@ import {
 import { engineTubeKinds, tubeKindsForStudio, type StudioTubeKind } from './loop';
 import { deleteObjects } from './storage';
 import { lockedRow } from './rows';
+import { currentVersionOf } from './catalog/enclosures';
 import { newId } from './tokens';
 import { ServiceError, type ServiceErrorKind } from './errors';
 import { assertNotFrozen, frozenState, latestVersion, recordRevision } from './versions';
@@ -147,15 +148,7 @@ export async function createBuild(input: {
 	if (!enc) {
 		throw SceneRejected.about('enclosureId', 'No such enclosure in this studio.', 'not-found');
 	}
-	const [version] = await db
-		.select()
-		.from(enclosureVersions)
-		.where(
-			and(
-				eq(enclosureVersions.enclosureId, enc.id),
-				eq(enclosureVersions.version, enc.currentVersion)
-			)
-		);
+	const version = await currentVersionOf(enc);
 	const definition = enclosureDefSchema.parse(version.definition);
 	const id = newId();
 	await db.transaction(async (tx) => {
@@ -615,15 +608,7 @@ export async function planMoveOn(build: {
 	const from = await enclosureVersionDef(build.enclosureVersionId);
 	if (!from) return null;
 	const [enc] = await db.select().from(enclosures).where(eq(enclosures.id, from.enclosureId));
-	const [latest] = await db
-		.select()
-		.from(enclosureVersions)
-		.where(
-			and(
-				eq(enclosureVersions.enclosureId, from.enclosureId),
-				eq(enclosureVersions.version, enc.currentVersion)
-			)
-		);
+	const latest = await currentVersionOf(enc);
 	const base = { id: from.id, version: from.version, definition: from.definition };
 	if (!latest || latest.id === from.id) return { from: base, to: null, variants: [] };
 	const to = {

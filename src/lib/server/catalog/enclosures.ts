@@ -147,6 +147,23 @@ export async function createEnclosure(
 	return { ok: true, value: (await getEnclosure(studioId, id))! };
 }
 
+/** The version row an enclosure's current version number names. */
+export async function currentVersionOf(
+	enc: { id: string; currentVersion: number },
+	run: Tx | typeof db = db
+) {
+	const [row] = await run
+		.select()
+		.from(enclosureVersions)
+		.where(
+			and(
+				eq(enclosureVersions.enclosureId, enc.id),
+				eq(enclosureVersions.version, enc.currentVersion)
+			)
+		);
+	return row;
+}
+
 export async function getEnclosure(
 	studioId: string,
 	id: string,
@@ -225,15 +242,7 @@ export async function updateEnclosure(
 				message: `Someone saved this enclosure after you opened it (revision ${row.revision}, yours ${revision}). Nothing was overwritten.`
 			} as const;
 		}
-		const [current] = await tx
-			.select()
-			.from(enclosureVersions)
-			.where(
-				and(
-					eq(enclosureVersions.enclosureId, id),
-					eq(enclosureVersions.version, row.currentVersion)
-				)
-			);
+		const current = await currentVersionOf(row, tx);
 		const [{ used }] = await tx
 			.select({ used: sql<number>`count(*)::int` })
 			.from(builds)
