@@ -1,8 +1,9 @@
 /**
  * The layer rules in eslint.config.js fire: each snippet is linted as if it stood in a file of
  * that layer (ESLint's Node API, the project's own config), and the same import is allowed where
- * the layers permit it.
+ * the layers permit it. And the components folder holds components only.
  */
+import { readdirSync } from 'node:fs';
 import { ESLint } from 'eslint';
 import { describe, expect, it } from 'vitest';
 
@@ -62,5 +63,16 @@ describe('layer rules', () => {
 		['allows', 'a route ending a request', ROUTE, from('{ error, redirect }', KIT)]
 	])('%s %s', async (verdict, _name, file, code) => {
 		expect(await restricted(code, file)).toHaveLength(verdict === 'refuses' ? 1 : 0);
+	});
+});
+
+describe('the components layer', () => {
+	it('holds only Svelte components, their .svelte.ts state and specs (plain modules go to an area)', () => {
+		const dir = new URL('../../components', import.meta.url).pathname;
+		const files = readdirSync(dir, { recursive: true, withFileTypes: true })
+			.filter((f) => f.isFile())
+			.map((f) => f.name);
+		expect(files.length).toBeGreaterThan(20);
+		expect(files.filter((f) => !/\.(svelte|svelte\.ts|spec\.ts|md)$/.test(f))).toEqual([]);
 	});
 });
