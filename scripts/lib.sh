@@ -120,7 +120,12 @@ stop_service() {
 
 ensure_mail_catcher() { ensure_service mail-catcher 2526 node_modules/.bin/tsx scripts/mail-catcher.ts; }
 # The local S3-compatible store for photos (STORAGE_DRIVER=s3), data in .data/s3.
-ensure_s3_fake() { ensure_service s3-fake "${S3_FAKE_PORT:-4569}" node_modules/.bin/tsx scripts/s3-fake.ts; }
+# S3_FAKE_PORT moves it, and the app and scripts then talk to it there (unless S3_ENDPOINT says otherwise).
+ensure_s3_fake() {
+	local port=${S3_FAKE_PORT:-4569}
+	export S3_ENDPOINT=${S3_ENDPOINT:-http://127.0.0.1:$port}
+	ensure_service s3-fake "$port" node_modules/.bin/tsx scripts/s3-fake.ts
+}
 ensure_payments_fake() {
 	if [ -f scripts/payments-fake.ts ]; then
 		ensure_service payments-fake "${PAYMENTS_API_PORT:-12111}" node_modules/.bin/tsx scripts/payments-fake.ts
