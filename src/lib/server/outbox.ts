@@ -1,11 +1,12 @@
 /**
  * Account mail after the response. A sign-up or reset request adds one row here, the same row
  * whether or not the address has an account, and the answer goes out at once; a background drain
- * (in whichever server process gets to the row first: `for update skip locked`) looks the address
- * up and sends what fits. So neither the answer nor how long it takes tells a known address from an
+ * (in whichever server process claims the row first: `for update skip locked`, then a lease) looks
+ * the address up and sends what fits. A link's token is committed before its mail goes out, so a
+ * link opened the moment it arrives works. So neither the answer nor how long it takes tells a known address from an
  * unknown one, and a slow mail server never holds up a page.
  */
-import { and, asc, eq, isNull, lt, lte } from 'drizzle-orm';
+import { and, asc, eq, inArray, isNull, lt, lte } from 'drizzle-orm';
 import { db, type Tx } from './db';
 import { emailVerifications, mailOutbox, passwordResets, users } from './db/schema';
 import { link, sendMail } from './mail';
@@ -13,8 +14,10 @@ import { hashToken, newToken } from './tokens';
 
 export const RESET_TTL_MS = 60 * 60 * 1000;
 export const VERIFY_TTL_MS = 24 * 60 * 60 * 1000;
-/** Rows per drain round; a round holds their locks while it talks to the mail server. */
+/** Rows per drain round. */
 const BATCH = 20;
+/** How long a claimed row stays out of other drains' reach while this one sends it. */
+const LEASE_MS = 5 * 60_000;
 /** After a failed send: 30 s, 1 min, 2 min, … capped at 1 h; given up after 12 tries. */
 const MAX_ATTEMPTS = 12;
 /** The periodic sweep picks up rows a crashed process left, and retries. */
@@ -65,40 +68,53 @@ export function scheduleDrain() {
 export async function drainOutbox(): Promise<number> {
 	let finished = 0;
 	for (;;) {
-		const n = await db.transaction(async (tx) => {
-			const rows = await tx
+		// Claim the due rows: the lease keeps every other drain off them while this one sends, and
+		// brings them back if this process dies before it is done.
+		const rows = await db.transaction(async (tx) => {
+			const due = await tx
 				.select()
 				.from(mailOutbox)
 				.where(and(isNull(mailOutbox.doneAt), lte(mailOutbox.notBefore, new Date())))
 				.orderBy(asc(mailOutbox.id))
 				.limit(BATCH)
 				.for('update', { skipLocked: true });
-			for (const row of rows) {
-				try {
-					// A savepoint: a failed send leaves no token behind, only the retry bookkeeping.
-					await tx.transaction((sp) => deliver(sp, row));
-					await tx
-						.update(mailOutbox)
-						.set({ doneAt: new Date(), payload: {}, lastError: null })
-						.where(eq(mailOutbox.id, row.id));
-				} catch (e) {
-					const attempts = row.attempts + 1;
-					const delayMs = Math.min(60 * 60_000, 30_000 * 2 ** (attempts - 1));
-					await tx
-						.update(mailOutbox)
-						.set({
-							attempts,
-							lastError: String(e instanceof Error ? e.message : e).slice(0, 500),
-							notBefore: new Date(Date.now() + delayMs),
-							...(attempts >= MAX_ATTEMPTS ? { doneAt: new Date(), payload: {} } : {})
-						})
-						.where(eq(mailOutbox.id, row.id));
-				}
+			if (due.length) {
+				await tx
+					.update(mailOutbox)
+					.set({ notBefore: new Date(Date.now() + LEASE_MS) })
+					.where(
+						inArray(
+							mailOutbox.id,
+							due.map((r) => r.id)
+						)
+					);
 			}
-			return rows.length;
+			return due;
 		});
-		finished += n;
-		if (n < BATCH) break;
+		for (const row of rows) {
+			try {
+				await deliver(row);
+				await db
+					.update(mailOutbox)
+					.set({ doneAt: new Date(), payload: {}, lastError: null })
+					.where(eq(mailOutbox.id, row.id));
+			} catch (e) {
+				// A token written for a mail that did not go out reaches nobody and expires.
+				const attempts = row.attempts + 1;
+				const delayMs = Math.min(60 * 60_000, 30_000 * 2 ** (attempts - 1));
+				await db
+					.update(mailOutbox)
+					.set({
+						attempts,
+						lastError: String(e instanceof Error ? e.message : e).slice(0, 500),
+						notBefore: new Date(Date.now() + delayMs),
+						...(attempts >= MAX_ATTEMPTS ? { doneAt: new Date(), payload: {} } : {})
+					})
+					.where(eq(mailOutbox.id, row.id));
+			}
+		}
+		finished += rows.length;
+		if (rows.length < BATCH) break;
 	}
 	await db.delete(mailOutbox).where(lt(mailOutbox.doneAt, new Date(Date.now() - KEEP_DONE_MS)));
 	return finished;
@@ -106,13 +122,14 @@ export async function drainOutbox(): Promise<number> {
 
 type Row = typeof mailOutbox.$inferSelect;
 
-async function deliver(tx: Tx, row: Row) {
-	const [user] = await tx.select().from(users).where(eq(users.email, row.recipient));
+/** Writes the link's token (committed at once), then sends the mail that fits the row. */
+async function deliver(row: Row) {
+	const [user] = await db.select().from(users).where(eq(users.email, row.recipient));
 	if (row.kind === 'password-reset') {
 		// An unknown address gets nothing; the request that asked looked exactly the same.
 		if (!user) return;
 		const token = newToken();
-		await tx.insert(passwordResets).values({
+		await db.insert(passwordResets).values({
 			tokenHash: hashToken(token),
 			userId: user.id,
 			expiresAt: new Date(Date.now() + RESET_TTL_MS)
@@ -135,7 +152,7 @@ async function deliver(tx: Tx, row: Row) {
 		return;
 	}
 	const token = newToken();
-	await tx.insert(emailVerifications).values({
+	await db.insert(emailVerifications).values({
 		tokenHash: hashToken(token),
 		userId: user.id,
 		name: p.name,
