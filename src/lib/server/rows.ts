@@ -4,9 +4,8 @@
  */
 import { asc, desc, type SQL } from 'drizzle-orm';
 import type { PgColumn, PgTable } from 'drizzle-orm/pg-core';
-import { db, type Tx } from './db';
+import { db, type Runner, type Tx } from './db';
 
-type Run = typeof db | Tx;
 type Row<T extends PgTable> = T['$inferSelect'];
 
 /** The row of `table` that `where` selects with the highest `newestBy`; null when none does. */
@@ -14,7 +13,7 @@ export async function newestRow<T extends PgTable>(
 	table: T,
 	where: SQL,
 	newestBy: PgColumn,
-	run: Run = db
+	run: Runner = db
 ): Promise<Row<T> | null> {
 	const found = await run
 		.select()

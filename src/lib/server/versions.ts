@@ -12,7 +12,7 @@
  */
 import { and, desc, eq, gt, inArray, lt, max } from 'drizzle-orm';
 import { canonicalJson, revisionsToPrune } from '$lib/builds/revisions';
-import { db, type Tx } from './db';
+import { db, type Runner, type Tx } from './db';
 import {
 	approvals,
 	comments,
@@ -27,19 +27,20 @@ import { newestRow } from './rows';
 import { newId } from './tokens';
 import { ServiceError, type ServiceErrorKind } from './errors';
 
-type Run = typeof db | Tx;
-
 export { canonicalJson };
 
 export async function latestVersion(
 	variantId: string,
-	run: Run = db
+	run: Runner = db
 ): Promise<VariantVersionRow | null> {
 	const ofVariant = eq(variantVersions.variantId, variantId);
 	return newestRow(variantVersions, ofVariant, variantVersions.number, run);
 }
 
-export async function versionsOf(variantId: string, run: Run = db): Promise<VariantVersionRow[]> {
+export async function versionsOf(
+	variantId: string,
+	run: Runner = db
+): Promise<VariantVersionRow[]> {
 	return run
 		.select()
 		.from(variantVersions)
@@ -47,7 +48,7 @@ export async function versionsOf(variantId: string, run: Run = db): Promise<Vari
 		.orderBy(desc(variantVersions.number));
 }
 
-export async function versionById(id: string, run: Run = db): Promise<VariantVersionRow | null> {
+export async function versionById(id: string, run: Runner = db): Promise<VariantVersionRow | null> {
 	const [row] = await run.select().from(variantVersions).where(eq(variantVersions.id, id));
 	return row ?? null;
 }
@@ -74,7 +75,7 @@ export function nextVersionNumber(variant: Pick<VariantRow, 'id' | 'basedOnVersi
 
 /** A variant started from another's version N numbers its own from N + 1. */
 export async function nextNumber(
-	run: Run,
+	run: Runner,
 	variant: Pick<VariantRow, 'id' | 'basedOnVersionId'>
 ): Promise<number> {
 	const [own] = await run
@@ -92,7 +93,7 @@ export async function nextNumber(
  */
 export async function ensureVersion(
 	variant: VariantRow,
-	run: Run = db
+	run: Runner = db
 ): Promise<VariantVersionRow> {
 	const found = await latestVersion(variant.id, run);
 	if (found) return found;
@@ -126,7 +127,7 @@ const day = (d: Date) =>
 	});
 
 /** Whether a variant is frozen by an approval (and a paid deposit), with the sentence that says so. */
-export async function frozenState(variantId: string, run: Run = db): Promise<FrozenState> {
+export async function frozenState(variantId: string, run: Runner = db): Promise<FrozenState> {
 	const approval = await newestRow(
 		approvals,
 		eq(approvals.variantId, variantId),
@@ -169,7 +170,7 @@ export class VariantFrozen extends ServiceError {
 	}
 }
 
-export async function assertNotFrozen(variantId: string, run: Run = db) {
+export async function assertNotFrozen(variantId: string, run: Runner = db) {
 	const state = await frozenState(variantId, run);
 	if (state.frozen) throw new VariantFrozen(state);
 }

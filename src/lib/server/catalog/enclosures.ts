@@ -7,7 +7,7 @@ import { and, asc, desc, eq, ilike, isNotNull, isNull, sql } from 'drizzle-orm';
 import { innerVolumeLitres, type EnclosureDef, type FieldIssue } from '$lib/geometry';
 import { checkEnclosure } from '$lib/catalog/schemas';
 import { enclosureChanges } from '$lib/catalog/enclosure-diff';
-import { db, type Tx } from '../db';
+import { db, type Runner } from '../db';
 import {
 	builds,
 	enclosures,
@@ -150,7 +150,7 @@ export async function createEnclosure(
 /** The version row an enclosure's current version number names. */
 export async function currentVersionOf(
 	enc: { id: string; currentVersion: number },
-	run: Tx | typeof db = db
+	run: Runner = db
 ) {
 	const [row] = await run
 		.select()
@@ -167,7 +167,7 @@ export async function currentVersionOf(
 export async function getEnclosure(
 	studioId: string,
 	id: string,
-	run: Tx | typeof db = db
+	run: Runner = db
 ): Promise<EnclosureDetail | null> {
 	const [row] = await run
 		.select()

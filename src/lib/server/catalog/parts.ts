@@ -7,7 +7,7 @@ import { and, asc, desc, eq, inArray, isNotNull, isNull, or, sql, type SQL } fro
 import type { FieldIssue, PartCategory, PartDef } from '$lib/geometry';
 import { bodySizeMm } from '$lib/catalog/part-shape';
 import { checkPart, type PartExtras } from '$lib/catalog/schemas';
-import { db, type Tx } from '../db';
+import { db, type Runner, type Tx } from '../db';
 import { builds, parts, variants, type PartRow } from '../db/schema';
 import { newId } from '../tokens';
 import { archiving } from './archive';
@@ -63,8 +63,6 @@ export type WriteResult<T> =
 	| { ok: false; status: 400; issues: FieldIssue[] }
 	| { ok: false; status: 404 }
 	| { ok: false; status: 409; current: T; message: string };
-
-type Runner = Tx | typeof db;
 
 /** Columns derived from a checked part: searchable, sortable copies of what the definition says. */
 export function partColumns(def: PartDef, extras: PartExtras) {

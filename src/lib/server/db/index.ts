@@ -23,6 +23,8 @@ export const db = new Proxy({} as Connection['db'], {
 
 export type Db = Connection['db'];
 export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
+/** Where a query runs: the pool, or a transaction the caller holds. */
+export type Runner = typeof db | Tx;
 
 export async function closeDb() {
 	if (!connection) return;

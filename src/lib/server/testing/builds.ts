@@ -19,12 +19,12 @@ import { createEnclosure } from '../catalog/enclosures';
 import { createPart } from '../catalog/parts';
 import { innerVolumeLitres } from '$lib/geometry/enclosure';
 import type { EnclosureDef } from '$lib/geometry/schema';
-import { db, type Tx } from '../db';
+import { db, type Runner } from '../db';
 import { builds, enclosureVersions, enclosures, variants } from '../db/schema';
 
 /** Writes an enclosure and its version 1 straight to the tables, for fixtures that pick their ids. */
 export async function insertEnclosure(
-	run: Tx | typeof db,
+	run: Runner,
 	row: { enclosureId: string; versionId: string; studioId: string; definition: EnclosureDef }
 ) {
 	const volumeLitres = innerVolumeLitres(row.definition);
@@ -48,7 +48,7 @@ export async function insertEnclosure(
  * fixtures that pick their ids.
  */
 export async function insertBuild(
-	run: Tx | typeof db,
+	run: Runner,
 	row: {
 		studioId: string;
 		enclosureVersionId: string;
